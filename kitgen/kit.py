@@ -1,0 +1,42 @@
+"""Build a kit: the one way through the pipeline.
+
+recipe -> sky -> dimensions -> parts.  :func:`build_kit` is a pure function
+of the recipe (and of the shipped catalogue and templates): the same recipe
+gives the same kit, byte for byte, whoever builds it and wherever.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+from .geometry.model import Part
+from .layout.sheets import default_diameter_mm
+from .parts import PART_BUILDERS
+from .parts.context import PartContext
+from .parts.dimensions import Dimensions, dimensions
+from .recipe.schema import Recipe
+from .sky.almanac import SkyForKit, sky_for_kit
+from .words.templates import Words, load_words
+
+
+@dataclass(frozen=True)
+class Kit:
+    recipe: Recipe
+    sky: SkyForKit
+    dims: Dimensions
+    words: Words
+    parts: tuple[Part, ...]
+
+    def part(self, kind: str) -> Part:
+        return next(p for p in self.parts if p.kind == kind)
+
+
+def build_kit(recipe: Recipe) -> Kit:
+    """Every part of the kit the recipe describes, as geometry in mm."""
+    sky = sky_for_kit(recipe)
+    words = load_words(recipe.language)
+    diameter = recipe.diameter_mm or default_diameter_mm(recipe.sheet)
+    dims = dimensions(diameter, sky.obliquity_rad)
+    ctx = PartContext(recipe, sky, dims, words)
+    parts = tuple(build(ctx) for kind, build in PART_BUILDERS.items() if kind in recipe.parts)
+    return Kit(recipe, sky, dims, words, parts)

@@ -1,0 +1,59 @@
+"""The sizes of every part, derived from the mater's diameter.
+
+One place holds the proportions, so that every part agrees: the plate fits
+inside the limb, the rete's rim is the outer tropic, the rule reaches the
+hour ring, the alidade spans the back.  Lengths in mm, text sizes in pt.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+#: Smallest text printed, pt.  Common practice in print: 5 pt sans-serif is
+#: the smallest size most readers can read unaided on a laser print.
+MIN_TEXT_PT = 5.0
+
+
+@dataclass(frozen=True)
+class Dimensions:
+    mater_radius_mm: float
+    limb_inner_radius_mm: float    # inner edge of the hour ring; the plate's radius
+    hour_ring_outer_mm: float      # between the hour ring and the degree ring
+    plate_radius_mm: float
+    outer_tropic_radius_mm: float  # the rete's rim; the edge of the plate's drawing
+    equator_radius_mm: float
+    text_pt: float                 # ordinary label size
+    small_text_pt: float
+    title_pt: float
+    tick_mm: float                 # length of a minor tick
+
+    @property
+    def scale(self) -> float:
+        """Size relative to a 180 mm mater (the A4 default)."""
+        return self.mater_radius_mm / 90.0
+
+
+def dimensions(diameter_mm: float, obliquity_rad: float) -> Dimensions:
+    """Proportions of the kit for a mater of ``diameter_mm`` and the
+    epoch's obliquity (which sets where the outer tropic falls)."""
+    r = diameter_mm / 2.0
+    s = r / 90.0
+    limb_inner = r * 0.84
+    plate = limb_inner
+    tropic = plate - max(2.0, 2.5 * s)
+    # The outer tropic (declination -eps in the view frame) has radius
+    # R tan(pi/4 + eps/2): Snyder 1987, eq. 21-33.
+    equator = tropic / math.tan(math.pi / 4 + obliquity_rad / 2)
+    return Dimensions(
+        mater_radius_mm=r,
+        limb_inner_radius_mm=limb_inner,
+        hour_ring_outer_mm=r * 0.93,
+        plate_radius_mm=plate,
+        outer_tropic_radius_mm=tropic,
+        equator_radius_mm=equator,
+        text_pt=max(MIN_TEXT_PT, 6.5 * s),
+        small_text_pt=max(MIN_TEXT_PT, 5.2 * s),
+        title_pt=max(8.0, 11.0 * s),
+        tick_mm=max(0.8, 1.2 * s),
+    )

@@ -1,0 +1,142 @@
+"""The mater's back: altitude scale, ecliptic-longitude and calendar
+scales, and the shadow square for heights.
+
+Seen from the back, with the alidade pivoted at the centre.  Ecliptic
+longitude lam lies at the direction 180 - lam deg (ccw from +x): the year
+runs clockwise, the March equinox on the left.  Each day's tick sits at the
+Sun's apparent longitude at 12:00 UT of that date in the epoch year, so the
+alidade laid on a date reads the Sun's longitude on the next ring.
+"""
+
+from __future__ import annotations
+
+import math
+
+from ..geometry import model
+from . import curves
+from .context import PartContext
+
+#: Ratios of height to distance marked on the shadow square; the tangent of
+#: the altitude read where the alidade crosses the square.
+SHADOW_RATIOS = (0.1, 0.2, 0.3, 0.4, 0.5, 0.6, 0.7, 0.8, 0.9, 1.0, 1.25, 1.5, 2.0, 2.5, 3.0, 4.0, 5.0, 10.0)
+
+
+def longitude_direction_deg(longitude_deg: float) -> float:
+    """Direction on the back (degrees ccw from +x) of ecliptic longitude."""
+    return 180.0 - longitude_deg
+
+
+def mater_back(ctx: PartContext) -> model.Part:
+    d, w = ctx.dims, ctx.words
+    R = d.mater_radius_mm
+    r_alt = R * 0.90
+    r_zod = R * 0.80
+    r_cal = R * 0.68
+    els = [model.circle("cut", (0.0, 0.0), R, "cut"),
+           model.arc("scale_edge", (0.0, 0.0), r_alt, 0.0, 180.0, "medium"),
+           model.circle("scale_edge", (0.0, 0.0), r_zod, "medium"),
+           model.circle("scale_edge", (0.0, 0.0), r_cal, "medium"),
+           model.segment("scale_edge", (-R, 0.0), (R, 0.0), "light")]
+    els += _altitude_scale(d, w, r_alt, R)
+    els += _zodiac_scale(d, w, r_zod, r_alt)
+    els += _calendar_scale(ctx, r_cal, r_zod)
+    els += _shadow_square(d, w, r_cal)
+    els.append(model.text("title", (0.0, r_cal * 0.55), ctx.recipe.title or w("kit.default_title"), d.title_pt))
+    if ctx.recipe.place:
+        els.append(model.text("place", (0.0, r_cal * 0.40), ctx.recipe.place, d.text_pt))
+    els.append(model.text("epoch", (0.0, r_cal * 0.28), w("mater_back.epoch", year=ctx.recipe.epoch),
+                          d.small_text_pt))
+    els.append(model.point("pin", (0.0, 0.0), hole="centre"))
+    return model.Part("mater_back", "card", tuple(els), (-R, -R, R, R), {}, w("mater_back.title"))
+
+
+def _altitude_scale(d, w, r0, r1):
+    out, ring = [], r1 - r0
+    for alt in range(0, 91):
+        length = ring * (0.45 if alt % 10 == 0 else 0.3 if alt % 5 == 0 else 0.16)
+        for ang in {float(alt), 180.0 - alt}:
+            out.append(curves.radial_tick("altitude_tick", ang, r0, r0 + length, r0,
+                                          "light" if alt % 5 == 0 else "fine", altitude_deg=float(alt)))
+            if alt % 10 == 0 and alt not in (0, 90):
+                out.append(curves.ring_text("altitude_label", w.number(alt), ang, r0 + 0.72 * ring,
+                                            d.small_text_pt, altitude_deg=float(alt)))
+    return out
+
+
+def _zodiac_scale(d, w, r0, r1):
+    out, ring = [], r1 - r0
+    signs = w.items("zodiac.signs")
+    for lon in range(360):
+        if lon % 30 == 0:
+            length, stroke = ring, "medium"
+        else:
+            length = ring * (0.4 if lon % 10 == 0 else 0.28 if lon % 5 == 0 else 0.15)
+            stroke = "light" if lon % 5 == 0 else "fine"
+        out.append(curves.radial_tick("zodiac_tick", longitude_direction_deg(lon), r0, r0 + length, r0, stroke,
+                                      longitude_deg=float(lon)))
+    for k in range(12):
+        out.append(curves.ring_text("zodiac_label", signs[k], longitude_direction_deg(30 * k + 15),
+                                    r0 + 0.68 * ring, d.small_text_pt, longitude_deg=30.0 * k + 15.0))
+    return out
+
+
+def _calendar_scale(ctx, r0, r1):
+    d, w = ctx.dims, ctx.words
+    out, ring = [], r1 - r0
+    months = w.items("calendar.months")
+    first = {}
+    for month, day, lon in ctx.sky.calendar:
+        if day == 1:
+            length, stroke = ring, "medium"
+            first[month] = lon
+        else:
+            length = ring * (0.42 if day % 10 == 0 else 0.3 if day % 5 == 0 else 0.16)
+            stroke = "light" if day % 5 == 0 else "fine"
+        out.append(curves.radial_tick("calendar_tick", longitude_direction_deg(lon), r1 - length, r1, r1, stroke,
+                                      month=month, day=day, longitude_deg=lon))
+    for month in range(1, 13):
+        a, b = first[month], first[month % 12 + 1]
+        mid = a + ((b - a) % 360.0) / 2.0
+        out.append(curves.ring_text("month_label", months[month - 1], longitude_direction_deg(mid),
+                                    r0 + 0.38 * ring, d.small_text_pt, month=month))
+    return out
+
+
+def _shadow_square(d, w, r_cal):
+    """Two shadow squares below the horizontal: the alidade's lower end
+    crosses a side where 10 x tan(altitude) (vertical sides) or
+    10 / tan(altitude) (horizontal sides) can be read; here every mark is
+    labelled with tan(altitude) itself, the height per unit of distance."""
+    L = r_cal * 0.62
+    out = []
+    for sx in (1.0, -1.0):
+        corner = (sx * L, -L)
+        out.append(model.segment("shadow_square", (sx * L, 0.0), corner, "medium"))
+        out.append(model.segment("shadow_square", corner, (0.0, -L), "medium"))
+        for ratio in SHADOW_RATIOS:
+            if ratio <= 1.0:
+                at = (sx * L, -L * ratio)
+                tick_end = (sx * (L - d.tick_mm * 1.5), -L * ratio)
+                lab = (sx * (L - d.tick_mm * 2.2), -L * ratio)
+                anchor = "end" if sx > 0 else "start"
+            else:
+                at = (sx * L / ratio, -L)
+                tick_end = (sx * L / ratio, -L + d.tick_mm * 1.5)
+                lab = (sx * L / ratio, -L + d.tick_mm * 3.0)
+                anchor = "middle"
+            out.append(model.segment("shadow_tick", at, tick_end, "light", at=at, ratio=ratio))
+            if ratio <= 1.0 and round(ratio * 10) % 2 == 1 and ratio not in (0.1,):
+                continue
+            out.append(model.text("shadow_label", lab, w.number(ratio, _decimals(ratio)), d.small_text_pt,
+                                  anchor=anchor, ratio=ratio))
+    out.append(model.text("shadow_caption", (0.0, -L - d.tick_mm * 3.5), w("mater_back.shadow_caption"),
+                          d.small_text_pt))
+    return out
+
+
+def _decimals(ratio: float) -> int:
+    """Fewest decimals that write a shadow-square ratio exactly."""
+    for n in (0, 1, 2):
+        if abs(round(ratio, n) - ratio) < 1e-9:
+            return n
+    return 2

@@ -1,0 +1,64 @@
+"""The mater's front: the limb with its 24-hour ring and degree ring.
+
+The hour ring shows local apparent solar time with noon at the top: the
+rule laid over the Sun's place on the rete reads the hour at the ring.  An
+hour H lies at hour angle h = 15 (H - 12) deg from the noon line, turned
+clockwise for a northern instrument and counter-clockwise for a southern
+one (see kitgen.projection.stereographic for the frame).
+"""
+
+from __future__ import annotations
+
+import math
+
+from ..geometry import model
+from ..projection.stereographic import hemisphere_sign
+from . import curves
+from .context import PartContext
+from .plate import key_tab_mm
+
+
+def hour_angle_deg(hour: float, sign: int) -> float:
+    """Direction (degrees ccw from +x) of local apparent solar time ``hour``."""
+    return 90.0 - sign * 15.0 * (hour - 12.0)
+
+
+def mater_front(ctx: PartContext) -> model.Part:
+    d, w = ctx.dims, ctx.words
+    s = hemisphere_sign(ctx.recipe.latitude_deg)
+    r_in, r_mid, r_out = d.limb_inner_radius_mm, d.hour_ring_outer_mm, d.mater_radius_mm
+    ring = r_mid - r_in
+    els = [model.circle("cut", (0.0, 0.0), r_out, "cut"),
+           model.circle("limb", (0.0, 0.0), r_in, "heavy"),
+           model.circle("limb", (0.0, 0.0), r_mid, "medium")]
+    for step in range(24 * 12):
+        hour = step / 12.0
+        minutes = step * 5
+        if minutes % 60 == 0:
+            length, stroke = 0.42 * ring, "medium"
+        elif minutes % 30 == 0:
+            length, stroke = 0.30 * ring, "light"
+        elif minutes % 15 == 0:
+            length, stroke = 0.22 * ring, "light"
+        else:
+            length, stroke = 0.12 * ring, "fine"
+        els.append(curves.radial_tick("hour_tick", hour_angle_deg(hour, s), r_in, r_in + length, r_in, stroke,
+                                      hour=hour))
+    for hour in range(24):
+        els.append(curves.ring_text("hour_label", w.number(hour), hour_angle_deg(hour, s), r_in + 0.72 * ring,
+                                    d.text_pt, hour=hour))
+    deg_ring = r_out - r_mid
+    for deg in range(360):
+        length = deg_ring * (0.45 if deg % 15 == 0 else 0.28 if deg % 5 == 0 else 0.16)
+        els.append(curves.radial_tick("degree_tick", 90.0 - s * deg, r_mid, r_mid + length, r_mid,
+                                      "light" if deg % 5 == 0 else "fine", degree=deg))
+        if deg % 15 == 0:
+            els.append(curves.ring_text("degree_label", w.number(deg), 90.0 - s * deg, r_mid + 0.7 * deg_ring,
+                                        d.small_text_pt, degree=deg))
+    tw, tl = key_tab_mm(d)
+    y = -(d.plate_radius_mm + 0.4 * tl)
+    els.append(model.segment("cut", (-(tw / 2 + 0.5), y), (tw / 2 + 0.5, y), "cut", purpose="key_slot"))
+    els.append(model.text("key_label", (0.0, y + 0.9 * tl + d.tick_mm), w("mater_front.key"), d.small_text_pt))
+    els.append(model.point("pin", (0.0, 0.0), hole="centre"))
+    r = r_out
+    return model.Part("mater_front", "card", tuple(els), (-r, -r, r, r), {}, w("mater_front.title"))

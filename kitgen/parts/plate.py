@@ -1,0 +1,154 @@
+"""The plate (climate) for one latitude: the observer's sky, projected.
+
+Horizon, almucantars (circles of equal altitude), azimuth curves, equator
+and tropics, meridian and east-west line, the -18 deg twilight limit and
+the unequal hours below the horizon.  Every circle of the sphere is drawn
+as its exact image circle (see kitgen.projection.circles); the unequal
+hours are no circles and are drawn through exactly computed points.
+"""
+
+from __future__ import annotations
+
+import math
+
+import numpy as np
+
+from ..geometry import model
+from ..projection.stereographic import (equatorial_vector, hemisphere_sign, horizontal_vector,
+                                        project_vectors)
+from . import curves
+from .context import PartContext
+from .format import latitude_text
+
+TWILIGHT_ALTITUDE_DEG = -18.0  # astronomical twilight (common practice; e.g. Explanatory Supplement 1992)
+
+
+def plate(ctx: PartContext) -> model.Part:
+    """The plate for ``ctx.recipe.latitude_deg``, seen from the front."""
+    lat_deg = ctx.recipe.latitude_deg
+    phi = math.radians(lat_deg)
+    s = hemisphere_sign(lat_deg)
+    d = ctx.dims
+    R, disc = d.equator_radius_mm, d.outer_tropic_radius_mm
+    eps = ctx.sky.obliquity_rad
+    els: list[model.Element] = []
+
+    els += _outline(d)
+    north_pole = np.array([0.0, 0.0, 1.0])
+    els += curves.whole_circle("equator", north_pole, math.pi / 2, s, R, disc, "heavy", declination_deg=0.0)
+    for dec in (eps, -eps):
+        els += curves.whole_circle("tropic", north_pole, math.pi / 2 - dec, s, R, disc, "heavy",
+                                   declination_deg=math.degrees(dec))
+
+    zenith = horizontal_vector(math.pi / 2, 0.0, phi)
+    els += curves.whole_circle("horizon", zenith, math.pi / 2, s, R, disc, "heavy", altitude_deg=0.0)
+    step = ctx.recipe.altitude_step_deg
+    for alt in np.arange(step, 90.0 - 1e-9, step):
+        els += curves.whole_circle("almucantar", zenith, math.radians(90.0 - alt), s, R, disc, "light",
+                                   altitude_deg=float(alt))
+    if ctx.recipe.twilight:
+        els += curves.whole_circle("twilight", zenith, math.radians(90.0 - TWILIGHT_ALTITUDE_DEG), s, R, disc,
+                                   "medium", altitude_deg=TWILIGHT_ALTITUDE_DEG)
+    els += _azimuths(phi, s, R, disc, ctx.recipe.azimuth_step_deg)
+    if ctx.recipe.unequal_hours:
+        els += _unequal_hours(phi, eps, s, R, disc)
+
+    els.append(model.segment("meridian", (0.0, -disc), (0.0, disc), "medium"))
+    els.append(model.segment("east_west", (-disc, 0.0), (disc, 0.0), "medium"))
+    z = project_vectors(zenith, s, R)
+    if np.hypot(*z) <= disc:
+        els.append(model.point("zenith", z))
+    els += _labels(ctx, phi, s, R, disc, zenith)
+    els.append(model.point("pin", (0.0, 0.0), hole="centre"))
+    r = d.plate_radius_mm + d.tick_mm * 4
+    return model.Part("plate", "card", tuple(els), (-r, -r, r, r), {"latitude_deg": lat_deg},
+                      ctx.words("plate.title"))
+
+
+def key_tab_mm(dims) -> tuple[float, float]:
+    """Width and length (mm) of the key tab at the foot of the plate that
+    slides into the slot cut in the mater and fixes the plate's turn."""
+    return max(6.0, 0.12 * dims.plate_radius_mm), max(3.0, 0.05 * dims.plate_radius_mm)
+
+
+def _outline(d):
+    """The plate's cut line: its circle with the key tab at the foot
+    (the midnight side, where the Sun is read least)."""
+    rp = d.plate_radius_mm
+    tw, tl = key_tab_mm(d)
+    half = math.degrees(math.asin(tw / 2 / rp))
+    x = tw / 2
+    y0 = -math.sqrt(rp * rp - x * x)
+    y1 = -(rp + tl)
+    return [
+        model.arc("cut", (0.0, 0.0), rp, 270.0 + half, 270.0 - half + 360.0, "cut"),
+        model.segment("cut", (-x, y0), (-x, y1), "cut"),
+        model.segment("cut", (-x, y1), (x, y1), "cut"),
+        model.segment("cut", (x, y1), (x, y0), "cut"),
+        model.segment("key", (-x, y0), (x, y0), "fine"),
+    ]
+
+
+def _azimuths(phi, s, R, disc, step_deg):
+    """Azimuth curves: pieces of the great circles through the zenith,
+    from the zenith down to the horizon."""
+    out = []
+    alts = np.radians(np.linspace(0.0, 90.0, 181))
+    for az in np.arange(0.0, 360.0 - 1e-9, step_deg):
+        A = math.radians(az)
+        pole = horizontal_vector(0.0, A + math.pi / 2, phi)
+        vecs = horizontal_vector(alts, np.full_like(alts, A), phi)
+        out += curves.circle_piece("azimuth", pole, math.pi / 2, vecs, s, R, disc, "fine", azimuth_deg=float(az))
+    return out
+
+
+def _unequal_hours(phi, eps, s, R, disc):
+    """Unequal (temporal) hour lines below the horizon.
+
+    For a point of declination d the night arc runs from its setting, hour
+    angle H0 with cos H0 = -tan(phi) tan(d) (Meeus 1998, eq. 15.1), to its
+    rising at 2 pi - H0; line k (1..11) joins, for every d between the
+    tropics, the points k/12 of the way along that arc.  Laying the Sun's
+    nadir on line k shows the k-th unequal hour of the day (common practice
+    on astrolabes)."""
+    out = []
+    decs = np.radians(np.linspace(-math.degrees(eps), math.degrees(eps), 241))
+    x = -np.tan(phi) * np.tan(decs)
+    ok = np.abs(x) < 1.0
+    if ok.sum() < 2:
+        return out
+    decs, h0 = decs[ok], np.arccos(x[ok])
+    for k in range(1, 12):
+        ha = h0 + k * (2 * np.pi - 2 * h0) / 12.0
+        out += curves.curve("unequal_hour", equatorial_vector(ha, decs), s, R, disc, "fine", hour=k)
+    return out
+
+
+def _labels(ctx, phi, s, R, disc, zenith):
+    d, w = ctx.dims, ctx.words
+    out = []
+    # Almucantar numbers on the meridian, on the noon side of the zenith.
+    step = ctx.recipe.altitude_step_deg
+    label_every = step * max(1, round(10.0 / step))
+    for alt in np.arange(label_every, 90.0 - 1e-9, label_every):
+        v = horizontal_vector(math.radians(alt), 0.0 if phi < 0 else math.pi, phi)
+        p = project_vectors(v, s, R)
+        if np.all(np.isfinite(p)) and np.hypot(*p) < disc - d.tick_mm:
+            out.append(model.text("almucantar_label", (p[0] + d.tick_mm, p[1]), w.number(alt), d.small_text_pt,
+                                  anchor="start", altitude_deg=float(alt)))
+    # Cardinal points just above the horizon.
+    for az, key in ((0.0, "cardinal.north"), (90.0, "cardinal.east"), (180.0, "cardinal.south"),
+                    (270.0, "cardinal.west")):
+        v = horizontal_vector(math.radians(3.0), math.radians(az), phi)
+        p = project_vectors(v, s, R)
+        if np.all(np.isfinite(p)) and np.hypot(*p) < disc - 2 * d.tick_mm:
+            out.append(model.text("cardinal", p, w(key), d.text_pt, azimuth_deg=az))
+    if ctx.recipe.unequal_hours and abs(math.degrees(phi)) < 90.0 - math.degrees(ctx.sky.obliquity_rad):
+        h0 = math.pi / 2
+        for k in range(1, 12):
+            p = project_vectors(equatorial_vector(h0 + k * math.pi / 12, 0.0), s, R)
+            if np.hypot(*p) < disc:
+                out.append(model.text("unequal_hour_label", p, w.number(k), d.small_text_pt, hour=k))
+    out.append(model.text("plate_label", (0.0, -disc * 0.9), latitude_text(w, ctx.recipe.latitude_deg),
+                          d.text_pt))
+    return out

@@ -1,0 +1,111 @@
+"""Plane geometry for clipping projected curves to the disc of a part.
+
+Pure plane geometry (no astronomy): the parts of a circle or line inside a
+disc centred on the pin, arcs through three points, and polylines cut at a
+disc.  Angles in degrees at the edges (as the geometry model stores them),
+radians inside.
+"""
+
+from __future__ import annotations
+
+import math
+
+import numpy as np
+
+
+def _norm_deg(a: float) -> float:
+    return a % 360.0
+
+
+def circle_inside_disc(center, radius_mm: float, disc_radius_mm: float):
+    """Angular ranges (start_deg, end_deg), counter-clockwise with
+    end > start, of the circle (``center``, ``radius_mm``) that lie inside
+    the disc of ``disc_radius_mm`` about the origin.
+
+    Returns ``[]`` when the circle is wholly outside, ``None`` when it is
+    wholly inside (draw it whole).
+    """
+    cx, cy = float(center[0]), float(center[1])
+    d = math.hypot(cx, cy)
+    r, R = radius_mm, disc_radius_mm
+    if d + r <= R:
+        return None
+    if d >= r + R or d + R <= r:
+        return []
+    # Angle at the circle's centre between the direction to the origin and
+    # the intersection points (law of cosines).
+    cos_g = (r * r + d * d - R * R) / (2 * r * d)
+    g = math.degrees(math.acos(max(-1.0, min(1.0, cos_g))))
+    towards_origin = math.degrees(math.atan2(-cy, -cx))
+    return [(_norm_deg(towards_origin - g), _norm_deg(towards_origin - g) + 2 * g)]
+
+
+def intersect_ranges(a: tuple[float, float], b: tuple[float, float]):
+    """Intersection of two counter-clockwise angular ranges (degrees, end >
+    start, span <= 360); a list of 0, 1 or 2 ranges."""
+    out = []
+    a0, a1 = a
+    for shift in (-360.0, 0.0, 360.0):
+        b0, b1 = b[0] + shift, b[1] + shift
+        lo, hi = max(a0, b0), min(a1, b1)
+        if hi - lo > 1e-9:
+            out.append((lo, hi))
+    return out
+
+
+def arc_range_through(center, p_start, p_mid, p_end):
+    """The counter-clockwise range (start_deg, end_deg) of the arc of a
+    circle about ``center`` that runs from ``p_start`` to ``p_end`` through
+    ``p_mid`` (all three on the circle)."""
+    def ang(p):
+        return math.degrees(math.atan2(p[1] - center[1], p[0] - center[0])) % 360.0
+
+    a0, am, a1 = ang(p_start), ang(p_mid), ang(p_end)
+    span = (a1 - a0) % 360.0
+    if (am - a0) % 360.0 <= span:
+        return (a0, a0 + span)
+    return (a1, a1 + (360.0 - span))
+
+
+def line_inside_disc(point, direction, disc_radius_mm: float):
+    """The chord of the line (``point``, unit ``direction``) inside the disc
+    about the origin, as two end points, or ``None``."""
+    p = np.asarray(point, dtype=float)
+    u = np.asarray(direction, dtype=float)
+    b = float(p @ u)
+    c = float(p @ p) - disc_radius_mm ** 2
+    disc = b * b - c
+    if disc <= 0:
+        return None
+    s = math.sqrt(disc)
+    return (tuple(p + u * (-b - s)), tuple(p + u * (-b + s)))
+
+
+def polyline_inside_disc(points, disc_radius_mm: float):
+    """Split a polyline (N, 2) into the runs that lie inside the disc,
+    ending each run exactly on the disc's edge."""
+    pts = np.asarray(points, dtype=float)
+    inside = np.hypot(pts[:, 0], pts[:, 1]) <= disc_radius_mm
+    runs, current = [], []
+
+    def edge_point(p, q):
+        # Point on segment p->q at distance disc_radius_mm from the origin.
+        d = q - p
+        a, b, c = d @ d, 2 * p @ d, p @ p - disc_radius_mm ** 2
+        disc = max(b * b - 4 * a * c, 0.0)
+        roots = [(-b - math.sqrt(disc)) / (2 * a), (-b + math.sqrt(disc)) / (2 * a)]
+        t = min((r for r in roots if -1e-12 <= r <= 1 + 1e-12), default=0.0, key=lambda r: abs(r - 0.5))
+        return p + t * d
+
+    for i, p in enumerate(pts):
+        if inside[i]:
+            if not current and i > 0:
+                current.append(edge_point(pts[i - 1], p))
+            current.append(p)
+        elif current:
+            current.append(edge_point(pts[i - 1], p))
+            runs.append(np.array(current))
+            current = []
+    if current:
+        runs.append(np.array(current))
+    return [r for r in runs if len(r) >= 2]

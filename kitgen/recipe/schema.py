@@ -1,0 +1,99 @@
+"""The recipe: what one kit is, as validated plain values.
+
+A recipe is the whole input of a build; the build is a pure function of it.
+Each key has a type, a range and a default here, in one table, so that the
+loader, the starter recipe (``kitgen new``) and the contributor guide all
+read the same facts.
+"""
+
+from __future__ import annotations
+
+import datetime as _dt
+import math
+from dataclasses import dataclass, field
+from typing import Any
+
+SHEETS = ("a4", "letter", "a3", "tabloid")
+PARTS = ("plate", "rete", "mater_front", "mater_back", "rule", "alidade")
+
+#: Limits on the epoch: the Sun's and the precession's series are used
+#: well inside the span for which their authors give them.
+EPOCH_MIN, EPOCH_MAX = 1900, 2100
+
+
+@dataclass(frozen=True)
+class StarChoice:
+    """Which stars go on the rete: named stars, or a rule."""
+
+    names: tuple[str, ...] = ()
+    brightest: int | None = None
+    magnitude_limit: float | None = None
+
+
+@dataclass(frozen=True)
+class Recipe:
+    latitude_deg: float
+    epoch: int
+    sheet: str = "a4"
+    language: str = "en"
+    title: str = ""
+    place: str = ""
+    stars: StarChoice = field(default_factory=lambda: StarChoice(brightest=32))
+    altitude_step_deg: float = 5.0
+    azimuth_step_deg: float = 15.0
+    diameter_mm: float | None = None
+    twilight: bool = True
+    unequal_hours: bool = True
+    parts: tuple[str, ...] = PARTS
+
+
+def current_year() -> int:
+    return _dt.date.today().year
+
+
+@dataclass(frozen=True)
+class Key:
+    """One recipe key: its YAML name, the Recipe field, a check and a help line."""
+
+    name: str
+    attr: str
+    kind: str  # "number", "integer", "string", "choice", "bool", "stars", "parts"
+    help: str
+    low: float | None = None
+    high: float | None = None
+    choices: tuple[str, ...] = ()
+    example: Any = None
+
+
+KEYS: tuple[Key, ...] = (
+    Key("latitude", "latitude_deg", "number", "degrees, north positive, -90 to 90", -90.0, 90.0, example=48.2),
+    Key("epoch", "epoch", "integer", f"year of the star places and calendar, {EPOCH_MIN} to {EPOCH_MAX}",
+        EPOCH_MIN, EPOCH_MAX, example=2027),
+    Key("sheet", "sheet", "choice", "paper sheet", choices=SHEETS, example="a4"),
+    Key("language", "language", "string", "language of every printed word (BCP 47 code)", example="en"),
+    Key("title", "title", "string", "title printed on the kit", example="Hilltop Science Club"),
+    Key("place", "place", "string", "name of the place the plate is drawn for", example="Hilltop"),
+    Key("stars", "stars", "stars",
+        "star names from `kitgen stars`, or {brightest: N}, or {magnitude_limit: M}",
+        example={"brightest": 32}),
+    Key("altitude_step_deg", "altitude_step_deg", "number", "step between almucantars, degrees", 1.0, 30.0,
+        example=5),
+    Key("azimuth_step_deg", "azimuth_step_deg", "number", "step between azimuth curves, degrees", 5.0, 90.0,
+        example=15),
+    Key("diameter_mm", "diameter_mm", "number", "outer diameter of the mater in mm (default: fits the sheet)",
+        80.0, 600.0, example=180),
+    Key("twilight", "twilight", "bool", "draw the -18 degree twilight limit", example=True),
+    Key("unequal_hours", "unequal_hours", "bool", "draw the unequal (temporal) hour curves", example=True),
+    Key("parts", "parts", "parts", f"which parts to print, of: {', '.join(PARTS)}", choices=PARTS,
+        example=list(PARTS)),
+)
+
+KEYS_BY_NAME = {k.name: k for k in KEYS}
+
+#: Limits that keep a hostile or mistaken recipe from exhausting the machine.
+MAX_STAR_NAMES = 200
+MAX_TEXT_CHARS = 120
+
+
+def is_finite_number(value) -> bool:
+    return isinstance(value, (int, float)) and not isinstance(value, bool) and math.isfinite(value)
