@@ -75,7 +75,7 @@ def project_vectors(vectors, sign: int, equator_radius_mm: float):
     v = to_view_frame(vectors, sign)
     with np.errstate(divide="ignore", invalid="ignore"):
         scale = equator_radius_mm / (1.0 + v[..., 2])
-    return np.stack([v[..., 0] * scale, v[..., 1] * scale], axis=-1)
+        return np.stack([v[..., 0] * scale, v[..., 1] * scale], axis=-1)
 
 
 def project(hour_angle_rad, declination_rad, sign: int, equator_radius_mm: float):

@@ -140,7 +140,7 @@ def _check_stars(value, label: str) -> StarChoice:
         for v in value:
             if not isinstance(v, str):
                 raise UserError(f"{label}: star names are text, got {v!r}")
-            names.append(find_star(v, label).name)
+            names.append(find_star(v, label).label)
         return StarChoice(names=tuple(dict.fromkeys(names)))
     if isinstance(value, dict) and len(value) == 1:
         (rule, n), = value.items()

@@ -1,0 +1,161 @@
+"""The ``kitgen`` command line.
+
+Results on stdout, messages on stderr; exit 0 on success, 2 for a mistake
+in the input, 1 for an internal fault, 130 when interrupted.  A failure is
+one line, never a traceback, unless ``--debug`` asks for one.
+"""
+
+from __future__ import annotations
+
+import argparse
+import sys
+from pathlib import Path
+
+from . import __version__
+from .errors import EXIT_INTERNAL, EXIT_OK, EXIT_USER, UserError
+
+EXIT_INTERRUPTED = 130
+
+
+def _parser() -> argparse.ArgumentParser:
+    p = argparse.ArgumentParser(prog="kitgen", description="Printable paper astrolabe kits for any latitude.")
+    p.add_argument("--version", action="version", version=f"kitgen {__version__}")
+    p.add_argument("--debug", action="store_true", help="show a traceback when something fails")
+    sub = p.add_subparsers(dest="command", metavar="COMMAND")
+
+    b = sub.add_parser("build", help="build the printable PDF kit from a recipe")
+    b.add_argument("recipe", help="the recipe file (YAML)")
+    b.add_argument("-o", "--output", help="the PDF to write (default: the recipe's name with .pdf)")
+    b.add_argument("--force", action="store_true", help="write over an existing file kitgen did not make")
+
+    g = sub.add_parser("geometry", help="export the kit's geometry as JSON or SVG")
+    g.add_argument("recipe", help="the recipe file (YAML)")
+    g.add_argument("--format", choices=("json", "svg"), default="json", help="json (one file) or svg (a file per part)")
+    g.add_argument("-o", "--output", help="JSON: the file to write (default: stdout); SVG: the folder to write into")
+    g.add_argument("--force", action="store_true", help="write over existing files kitgen did not make")
+
+    n = sub.add_parser("new", help="write a commented starter recipe")
+    n.add_argument("-o", "--output", help="the recipe file to write (default: stdout)")
+
+    s = sub.add_parser("stars", help="list the built-in star catalogue")
+    s.add_argument("--name", help="only stars whose name contains this text")
+    s.add_argument("--max-mag", type=float, help="only stars at least this bright (magnitude)")
+    s.add_argument("--epoch", type=int, help="year of the listed places (default: this year)")
+    return p
+
+
+def _default_output(recipe: str, suffix: str) -> Path:
+    return Path(recipe).with_suffix(suffix)
+
+
+def _cmd_build(args) -> int:
+    from .kit import build_kit
+    from .layout.pages import layout_kit
+    from .outfile import check_target, write_atomic
+    from .recipe.load import load_recipe
+    from .render.pdf import render_pdf
+
+    out = Path(args.output) if args.output else _default_output(args.recipe, ".pdf")
+    check_target(out, args.force, (Path(args.recipe),))
+    kit = build_kit(load_recipe(args.recipe))
+    write_atomic(out, render_pdf(kit, layout_kit(kit)), args.force, (Path(args.recipe),))
+    print(out)
+    return EXIT_OK
+
+
+def _cmd_geometry(args) -> int:
+    from .kit import build_kit
+    from .outfile import check_target, write_atomic
+    from .recipe.load import load_recipe
+
+    kit_recipe = load_recipe(args.recipe)
+    if args.format == "json":
+        from .render.json_export import render_json
+
+        if args.output:
+            check_target(Path(args.output), args.force, (Path(args.recipe),))
+        data = render_json(build_kit(kit_recipe))
+        if args.output:
+            write_atomic(Path(args.output), data, args.force, (Path(args.recipe),))
+            print(args.output)
+        else:
+            sys.stdout.buffer.write(data)
+        return EXIT_OK
+    from .render.svg import render_svg_files
+
+    if not args.output:
+        raise UserError("--format svg writes one file per part: give the folder with -o")
+    folder = Path(args.output)
+    if folder.exists() and not folder.is_dir():
+        raise UserError(f"{folder}: is a file; SVG output needs a folder")
+    files = render_svg_files(build_kit(kit_recipe))
+    for name in files:
+        check_target(folder / name, args.force)
+    folder.mkdir(parents=True, exist_ok=True)
+    for name, data in files.items():
+        write_atomic(folder / name, data, args.force)
+        print(folder / name)
+    return EXIT_OK
+
+
+def _cmd_new(args) -> int:
+    from .outfile import write_atomic
+    from .recipe.starter import starter_recipe
+
+    text = starter_recipe().encode("utf-8")
+    if args.output:
+        out = Path(args.output)
+        if out.exists():
+            raise UserError(f"{out}: exists; choose another name (kitgen new never writes over a recipe)")
+        write_atomic(out, text)
+        print(out)
+    else:
+        sys.stdout.buffer.write(text)
+    return EXIT_OK
+
+
+def _cmd_stars(args) -> int:
+    from .recipe.schema import EPOCH_MAX, EPOCH_MIN, current_year
+    from .sky.stars import filter_stars, format_star_table
+    from .words.templates import load_words
+
+    epoch = args.epoch if args.epoch is not None else current_year()
+    if not EPOCH_MIN <= epoch <= EPOCH_MAX:
+        raise UserError(f"--epoch must be from {EPOCH_MIN} to {EPOCH_MAX}, got {epoch}")
+    stars = filter_stars(args.name, args.max_mag)
+    if not stars:
+        raise UserError("no star in the catalogue matches; try a shorter --name or a larger --max-mag")
+    sys.stdout.write(format_star_table(stars, epoch + 0.5, load_words("en")))
+    return EXIT_OK
+
+
+COMMANDS = {"build": _cmd_build, "geometry": _cmd_geometry, "new": _cmd_new, "stars": _cmd_stars}
+
+
+def main(argv=None) -> int:
+    parser = _parser()
+    args = parser.parse_args(argv)
+    if not args.command:
+        parser.print_help(sys.stderr)
+        return EXIT_USER
+    try:
+        return COMMANDS[args.command](args)
+    except UserError as exc:
+        if args.debug:
+            raise
+        print(f"kitgen: error: {exc}", file=sys.stderr)
+        return EXIT_USER
+    except KeyboardInterrupt:
+        print("kitgen: interrupted; nothing was written", file=sys.stderr)
+        return EXIT_INTERRUPTED
+    except BrokenPipeError:
+        return EXIT_OK
+    except Exception as exc:  # an internal fault: one line unless --debug
+        if args.debug:
+            raise
+        print(f"kitgen: internal error: {type(exc).__name__}: {exc} (run with --debug for details)", file=sys.stderr)
+        return EXIT_INTERNAL
+
+
+if __name__ == "__main__":
+    sys.exit(main())
