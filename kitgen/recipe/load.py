@@ -12,6 +12,7 @@ from pathlib import Path
 import yaml
 
 from ..errors import UserError
+from .latitude import LatitudeError, parse_latitude
 from .schema import (KEYS_BY_NAME, MAX_STAR_NAMES, MAX_TEXT_CHARS, Recipe, StarChoice, current_year,
                      is_finite_number)
 
@@ -19,19 +20,56 @@ from .schema import (KEYS_BY_NAME, MAX_STAR_NAMES, MAX_TEXT_CHARS, Recipe, StarC
 MAX_RECIPE_BYTES = 256 * 1024
 
 
-def _key_lines(text: str) -> dict[str, int]:
-    """Line number (1-based) of each top-level key, from the YAML node tree."""
+#: Deepest nesting of lists and mappings a recipe may have (it needs 2).
+MAX_DEPTH = 8
+#: Most YAML events (scalars, list and mapping starts) a recipe may have.
+MAX_EVENTS = 5000
+
+
+def _check_structure(text: str, source: str) -> None:
+    """Refuse anchors and aliases (the "billion laughs" expansion), deep
+    nesting and huge documents before anything is built from them; the
+    event stream is read lazily, so nothing large is ever held."""
+    depth = events = 0
+    try:
+        for event in yaml.parse(text, Loader=yaml.SafeLoader):
+            events += 1
+            if isinstance(event, yaml.AliasEvent) or getattr(event, "anchor", None):
+                line = event.start_mark.line + 1
+                raise UserError(f"{source}, line {line}: YAML anchors and aliases (& and *) are not allowed in a recipe")
+            if isinstance(event, (yaml.MappingStartEvent, yaml.SequenceStartEvent)):
+                depth += 1
+                if depth > MAX_DEPTH:
+                    line = event.start_mark.line + 1
+                    raise UserError(f"{source}, line {line}: the recipe is nested deeper than {MAX_DEPTH} levels")
+            elif isinstance(event, (yaml.MappingEndEvent, yaml.SequenceEndEvent)):
+                depth -= 1
+            if events > MAX_EVENTS:
+                raise UserError(f"{source}: the recipe has more than {MAX_EVENTS} values; is it a recipe?")
+    except yaml.YAMLError:
+        return  # reported with its line and column by the loader
+
+
+def _key_nodes(text: str) -> dict[str, tuple[int, str | None]]:
+    """For each top-level key: its line (1-based) and, for a plain scalar
+    value, the text as written (YAML 1.1 would read 40:26:46 as a number)."""
     try:
         node = yaml.compose(text, Loader=yaml.SafeLoader)
     except yaml.YAMLError:
         return {}
     if not isinstance(node, yaml.MappingNode):
         return {}
-    return {k.value: k.start_mark.line + 1 for k, _ in node.value if isinstance(k, yaml.ScalarNode)}
+    out = {}
+    for k, v in node.value:
+        if isinstance(k, yaml.ScalarNode):
+            raw = v.value if isinstance(v, yaml.ScalarNode) and v.style is None else None
+            out[k.value] = (k.start_mark.line + 1, raw)
+    return out
 
 
 def parse_recipe_text(text: str, source: str = "recipe") -> Recipe:
     """Validate recipe text; ``source`` names the file in messages."""
+    _check_structure(text, source)
     try:
         tree = yaml.safe_load(text)
     except yaml.YAMLError as exc:
@@ -43,7 +81,12 @@ def parse_recipe_text(text: str, source: str = "recipe") -> Recipe:
         raise UserError(f"{source}: the recipe is empty; `kitgen new` writes a starter recipe")
     if not isinstance(tree, dict):
         raise UserError(f"{source}: a recipe is a mapping of keys to values, such as 'latitude: 48.2'")
-    return validate_recipe(tree, source, _key_lines(text))
+    nodes = _key_nodes(text)
+    lines = {k: line for k, (line, _) in nodes.items()}
+    raw_latitude = nodes.get("latitude", (0, None))[1]
+    if raw_latitude is not None and ":" in raw_latitude:
+        tree["latitude"] = raw_latitude
+    return validate_recipe(tree, source, lines)
 
 
 def load_recipe(path) -> Recipe:
@@ -86,6 +129,11 @@ def validate_recipe(tree: dict, source: str = "recipe", lines: dict[str, int] | 
 
 def _check(key, value, where: str):
     label = f"{where}: '{key.name}'"
+    if key.kind == "latitude":
+        try:
+            return parse_latitude(value)
+        except LatitudeError as exc:
+            raise UserError(f"{label}: {exc}") from None
     if key.kind in ("number", "integer"):
         if isinstance(value, str) and "," in value and key.kind == "number":
             raise UserError(f"{label} must be a number with a decimal point, not a comma (got '{value}')")

@@ -66,7 +66,8 @@ class Key:
 
 
 KEYS: tuple[Key, ...] = (
-    Key("latitude", "latitude_deg", "number", "degrees, north positive, -90 to 90", -90.0, 90.0, example=48.2),
+    Key("latitude", "latitude_deg", "latitude", "degrees, north positive, -90 to 90 (48.2, 33.9S, 40 26 46 N)",
+        -90.0, 90.0, example=48.2),
     Key("epoch", "epoch", "integer", f"year of the star places and calendar, {EPOCH_MIN} to {EPOCH_MAX}",
         EPOCH_MIN, EPOCH_MAX, example=2027),
     Key("sheet", "sheet", "choice", "paper sheet", choices=SHEETS, example="a4"),
