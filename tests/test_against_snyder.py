@@ -306,3 +306,15 @@ def test_polyline_inside_disc_ends_runs_on_the_edge():
         for p in pts[inside]:
             assert np.any(np.all(np.abs(kept - p) < 1e-12, axis=1))
     assert cut_ends > 100
+
+
+def test_polyline_segment_crossing_disc_with_both_ends_outside():
+    """A chord through a disc (plane geometry, no reference needed beyond
+    Pythagoras): the segment (-50, 0)-(50, 0) crosses the disc of radius 30
+    from (-30, 0) to (30, 0); a segment at y = 40 misses it."""
+    from kitgen.projection.clip import polyline_inside_disc
+
+    runs = polyline_inside_disc([(-50.0, 0.0), (50.0, 0.0)], 30.0)
+    assert len(runs) == 1
+    np.testing.assert_allclose(runs[0], [[-30.0, 0.0], [30.0, 0.0]], atol=1e-12)
+    assert polyline_inside_disc([(-50.0, 40.0), (50.0, 40.0)], 30.0) == []

@@ -106,6 +106,23 @@ def polyline_inside_disc(points, disc_radius_mm: float):
             current.append(edge_point(pts[i - 1], p))
             runs.append(np.array(current))
             current = []
+        elif i > 0:
+            chord = _segment_chord(pts[i - 1], p, disc_radius_mm)
+            if chord is not None:
+                runs.append(np.array(chord))
     if current:
         runs.append(np.array(current))
     return [r for r in runs if len(r) >= 2]
+
+
+def _segment_chord(p, q, disc_radius_mm: float):
+    """The part inside the disc of a segment whose two ends lie outside it."""
+    d = q - p
+    a, b, c = d @ d, 2 * p @ d, p @ p - disc_radius_mm ** 2
+    disc = b * b - 4 * a * c
+    if a == 0 or disc <= 0:
+        return None
+    t0, t1 = (-b - math.sqrt(disc)) / (2 * a), (-b + math.sqrt(disc)) / (2 * a)
+    if t1 <= 0 or t0 >= 1:
+        return None
+    return [p + max(t0, 0.0) * d, p + min(t1, 1.0) * d]
