@@ -1,0 +1,102 @@
+"""How each stroke class looks on paper: line width, dash, grey level.
+
+Parts give every element a stroke class (``cut``, ``fold``, ``heavy``,
+``medium``, ``light``, ``fine``; ``none`` for text); renderers ask here how
+to draw it, so the PDF and SVG agree.  Widths are given for the A4 default
+(a 180 mm mater, ``Dimensions.scale == 1``) and grow with the instrument,
+so a larger kit keeps its look.
+
+Minimums, all common practice in print (values from experience, not from a
+standard):
+
+* ``fine`` and ``light`` never go below 0.10 mm (about 0.28 pt).  Office
+  laser and inkjet printers resolve 600 dpi (0.042 mm a dot), but lines
+  thinner than about 0.1 mm break up or vanish, especially on transparency
+  film, where toner and ink spread less evenly than on paper.
+* ``medium`` keeps at least 0.18 mm and ``heavy`` 0.30 mm, so the four
+  drawing weights stay visibly different from each other at every scale.
+* ``cut`` is at least 0.45 mm, about 1.5 x ``heavy``: the line the blade
+  follows must stand out from every drawn line without relying on colour.
+  ``fold`` lines are dashed, so a fold is never mistaken for a cut.
+
+Everything is drawn in black or grey; no meaning is carried by colour, so a
+greyscale print or a photocopy loses nothing.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+#: Widths (mm) at scale 1 and the floor (mm) of each stroke class.
+_WIDTH_MM = {
+    "cut": (0.45, 0.45),
+    "fold": (0.30, 0.25),
+    "heavy": (0.35, 0.30),
+    "medium": (0.22, 0.18),
+    "light": (0.14, 0.10),
+    "fine": (0.10, 0.10),
+    "none": (0.0, 0.0),
+}
+
+#: Dash of fold lines at scale 1: (on, off) in mm.
+FOLD_DASH_MM = (2.5, 1.5)
+
+#: Grey level (0 black .. 1 white) of each stroke class.  Fine lines are a
+#: dark grey so that dense networks (azimuths, unequal hours) stay readable
+#: under the heavier lines; still dark enough to print on film.
+_GREY = {"fine": 0.25}
+
+#: Pin marks (mm, fixed sizes) and the smallest dot drawn (mm).
+PIN_CROSS_HALF_MM = 2.0
+PIN_HOLE_RADIUS_MM = 0.9
+MIN_DOT_RADIUS_MM = 0.35
+
+
+@dataclass(frozen=True)
+class Stroke:
+    width_mm: float
+    dash_mm: tuple[float, ...]  # empty: solid
+    grey: float                 # 0 = black
+
+
+def _scale(dims) -> float:
+    return float(dims.scale)
+
+
+def stroke_width_mm(stroke: str, dims) -> float:
+    """Line width (mm) of a stroke class for a kit of ``dims``."""
+    base, floor = _WIDTH_MM[stroke]
+    return max(floor, base * _scale(dims))
+
+
+def stroke_style(stroke: str, dims) -> Stroke:
+    """Width, dash pattern and grey of a stroke class."""
+    s = _scale(dims)
+    dash = tuple(max(0.5, d * s) for d in FOLD_DASH_MM) if stroke == "fold" else ()
+    return Stroke(stroke_width_mm(stroke, dims), dash, _GREY.get(stroke, 0.0))
+
+
+def star_radius_mm(mag: float, dims) -> float:
+    """Radius (mm) of a star's dot: brighter stars bigger, linear in the
+    magnitude (common practice on star maps), from 1.0 mm at magnitude -1.5
+    to the legible floor near magnitude 4, at scale 1."""
+    r = (0.75 - 0.17 * float(mag)) * _scale(dims)
+    return max(MIN_DOT_RADIUS_MM, min(1.6 * _scale(dims), r))
+
+
+def dot_radius_mm(dims) -> float:
+    """Radius (mm) of a plain marked point (e.g. the zenith)."""
+    return max(MIN_DOT_RADIUS_MM, 0.45 * _scale(dims))
+
+
+def pin_hole_radius_mm(dims) -> float:
+    """Radius (mm) of the hole circle drawn at a pin.  It marks a physical
+    size, the shank of a paper fastener (about 2 mm across, from memory of
+    common ones), so it does not grow with the kit."""
+    return PIN_HOLE_RADIUS_MM
+
+
+def pin_cross_half_mm(dims) -> float:
+    """Half length (mm) of a pin's crosshair arms: 4 mm across at every
+    scale, enough to aim an awl at, small enough for the narrow rule."""
+    return PIN_CROSS_HALF_MM
