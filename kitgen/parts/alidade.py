@@ -30,7 +30,8 @@ def alidade(ctx: PartContext) -> model.Part:
            model.point("pin", (half + hole_at, -width / 2), hole="sight"),
            model.point("pin", (-half - hole_at, -width / 2), hole="sight"),
            model.text("part_label", (-half * 0.5, -width / 2), w("alidade.title"), d.small_text_pt),
-           model.text("vane_label", (half + vane * 0.5, -width * 0.85), w("alidade.vane"), d.small_text_pt),
+           model.text("vane_label", (half + vane * 0.25, -width * 0.8), w("alidade.vane"), d.small_text_pt),
+           model.text("vane_label", (-half - vane * 0.25, -width * 0.8), w("alidade.vane"), d.small_text_pt),
            model.text("caution", (half * 0.45, -width / 2), w("alidade.caution"), d.small_text_pt)]
     return model.Part("alidade", "card", tuple(els), (-half - vane - 1, -width - 1, half + vane + 1, width * 0.4 + 1), {},
                       w("alidade.title"))

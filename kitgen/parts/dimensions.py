@@ -18,9 +18,9 @@ MIN_TEXT_PT = 5.0
 @dataclass(frozen=True)
 class Dimensions:
     mater_radius_mm: float
-    limb_inner_radius_mm: float    # inner edge of the hour ring; the plate's radius
+    limb_inner_radius_mm: float    # inner edge of the hour ring
     hour_ring_outer_mm: float      # between the hour ring and the degree ring
-    plate_radius_mm: float
+    plate_radius_mm: float         # the plate's cut circle, inside the limb
     outer_tropic_radius_mm: float  # the rete's rim; the edge of the plate's drawing
     equator_radius_mm: float
     text_pt: float                 # ordinary label size
@@ -40,7 +40,9 @@ def dimensions(diameter_mm: float, obliquity_rad: float) -> Dimensions:
     r = diameter_mm / 2.0
     s = r / 90.0
     limb_inner = r * 0.84
-    plate = limb_inner
+    # A gap between the plate's edge and the hour ring holds the slot for the
+    # plate's key, so that the key covers no hour tick.
+    plate = limb_inner - max(3.0, 4.0 * s)
     tropic = plate - max(2.0, 2.5 * s)
     # The outer tropic (declination -eps in the view frame) has radius
     # R tan(pi/4 + eps/2): Snyder 1987, eq. 21-33.

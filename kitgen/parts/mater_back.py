@@ -21,6 +21,11 @@ from .context import PartContext
 SHADOW_RATIOS = (0.1, 0.2, 0.3, 0.4, 0.5, 0.6, 0.7, 0.8, 0.9, 1.0, 1.25, 1.5, 2.0, 2.5, 3.0, 4.0, 5.0, 10.0)
 
 
+#: The marks that carry a number; the others are left bare so that the
+#: numbers along the square's foot do not crowd.
+LABELLED_RATIOS = (0.2, 0.4, 0.6, 0.8, 1.0, 1.5, 2.0, 3.0, 5.0, 10.0)
+
+
 def longitude_direction_deg(longitude_deg: float) -> float:
     """Direction on the back (degrees ccw from +x) of ecliptic longitude."""
     return 180.0 - longitude_deg
@@ -114,7 +119,12 @@ def _shadow_square(d, w, r_cal):
         out.append(model.segment("shadow_square", (sx * L, 0.0), corner, "medium"))
         out.append(model.segment("shadow_square", corner, (0.0, -L), "medium"))
         for ratio in SHADOW_RATIOS:
-            if ratio <= 1.0:
+            if ratio == 1.0:
+                at = (sx * L, -L)
+                tick_end = (sx * (L - d.tick_mm * 1.1), -L + d.tick_mm * 1.1)
+                lab = (sx * (L + d.tick_mm * 1.6), -L - d.tick_mm * 1.6)
+                anchor = "middle"
+            elif ratio < 1.0:
                 at = (sx * L, -L * ratio)
                 tick_end = (sx * (L - d.tick_mm * 1.5), -L * ratio)
                 lab = (sx * (L - d.tick_mm * 2.2), -L * ratio)
@@ -125,7 +135,7 @@ def _shadow_square(d, w, r_cal):
                 lab = (sx * L / ratio, -L + d.tick_mm * 3.0)
                 anchor = "middle"
             out.append(model.segment("shadow_tick", at, tick_end, "light", at=at, ratio=ratio))
-            if ratio <= 1.0 and round(ratio * 10) % 2 == 1 and ratio not in (0.1,):
+            if ratio not in LABELLED_RATIOS:
                 continue
             out.append(model.text("shadow_label", lab, w.number(ratio, _decimals(ratio)), d.small_text_pt,
                                   anchor=anchor, ratio=ratio))

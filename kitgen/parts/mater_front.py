@@ -56,9 +56,8 @@ def mater_front(ctx: PartContext) -> model.Part:
             els.append(curves.ring_text("degree_label", w.number(deg), 90.0 - s * deg, r_mid + 0.7 * deg_ring,
                                         d.small_text_pt, degree=deg))
     tw, tl = key_tab_mm(d)
-    y = -(d.plate_radius_mm + 0.4 * tl)
+    y = -(d.plate_radius_mm + 0.5 * tl)
     els.append(model.segment("cut", (-(tw / 2 + 0.5), y), (tw / 2 + 0.5, y), "cut", purpose="key_slot"))
-    els.append(model.text("key_label", (0.0, y + 0.9 * tl + d.tick_mm), w("mater_front.key"), d.small_text_pt))
     els.append(model.point("pin", (0.0, 0.0), hole="centre"))
     r = r_out
     return model.Part("mater_front", "card", tuple(els), (-r, -r, r, r), {}, w("mater_front.title"))

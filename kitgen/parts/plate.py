@@ -35,9 +35,9 @@ def plate(ctx: PartContext) -> model.Part:
 
     els += _outline(d)
     north_pole = np.array([0.0, 0.0, 1.0])
-    els += curves.whole_circle("equator", north_pole, math.pi / 2, s, R, disc, "heavy", declination_deg=0.0)
+    els += curves.whole_circle("equator", north_pole, math.pi / 2, s, R, disc, "medium", declination_deg=0.0)
     for dec in (eps, -eps):
-        els += curves.whole_circle("tropic", north_pole, math.pi / 2 - dec, s, R, disc, "heavy",
+        els += curves.whole_circle("tropic", north_pole, math.pi / 2 - dec, s, R, disc, "medium",
                                    declination_deg=math.degrees(dec))
 
     zenith = horizontal_vector(math.pi / 2, 0.0, phi)
@@ -49,7 +49,8 @@ def plate(ctx: PartContext) -> model.Part:
     if ctx.recipe.twilight:
         els += curves.whole_circle("twilight", zenith, math.radians(90.0 - TWILIGHT_ALTITUDE_DEG), s, R, disc,
                                    "medium", altitude_deg=TWILIGHT_ALTITUDE_DEG)
-    els += _azimuths(phi, s, R, disc, ctx.recipe.azimuth_step_deg)
+    top = 90.0 - max(10.0, step)
+    els += _azimuths(phi, s, R, disc, ctx.recipe.azimuth_step_deg, top)
     if ctx.recipe.unequal_hours:
         els += _unequal_hours(phi, eps, s, R, disc)
 
@@ -67,8 +68,10 @@ def plate(ctx: PartContext) -> model.Part:
 
 def key_tab_mm(dims) -> tuple[float, float]:
     """Width and length (mm) of the key tab at the foot of the plate that
-    slides into the slot cut in the mater and fixes the plate's turn."""
-    return max(6.0, 0.12 * dims.plate_radius_mm), max(3.0, 0.05 * dims.plate_radius_mm)
+    slides into the slot cut in the mater (in the gap between the plate and
+    the hour ring) and fixes the plate's turn."""
+    gap = dims.limb_inner_radius_mm - dims.plate_radius_mm
+    return max(6.0, 0.12 * dims.plate_radius_mm), 0.8 * gap
 
 
 def _outline(d):
@@ -89,11 +92,12 @@ def _outline(d):
     ]
 
 
-def _azimuths(phi, s, R, disc, step_deg):
-    """Azimuth curves: pieces of the great circles through the zenith,
-    from the zenith down to the horizon."""
+def _azimuths(phi, s, R, disc, step_deg, top_deg):
+    """Azimuth curves: pieces of the great circles through the zenith, from
+    the horizon up to the almucantar ``top_deg``, where they would crowd
+    into a blot (common practice: azimuths stop short of the zenith)."""
     out = []
-    alts = np.radians(np.linspace(0.0, 90.0, 181))
+    alts = np.radians(np.linspace(0.0, top_deg, 181))
     for az in np.arange(0.0, 360.0 - 1e-9, step_deg):
         A = math.radians(az)
         pole = horizontal_vector(0.0, A + math.pi / 2, phi)
@@ -131,7 +135,9 @@ def _labels(ctx, phi, s, R, disc, zenith):
     step = ctx.recipe.altitude_step_deg
     label_every = step * max(1, round(10.0 / step))
     for alt in np.arange(label_every, 90.0 - 1e-9, label_every):
-        v = horizontal_vector(math.radians(alt), 0.0 if phi < 0 else math.pi, phi)
+        # The number stands just above its circle, clear of the line.
+        lift = min(step, label_every) * 0.45
+        v = horizontal_vector(math.radians(alt + lift), 0.0 if phi < 0 else math.pi, phi)
         p = project_vectors(v, s, R)
         if np.all(np.isfinite(p)) and np.hypot(*p) < disc - d.tick_mm:
             out.append(model.text("almucantar_label", (p[0] + d.tick_mm, p[1]), w.number(alt), d.small_text_pt,
@@ -144,11 +150,14 @@ def _labels(ctx, phi, s, R, disc, zenith):
         if np.all(np.isfinite(p)) and np.hypot(*p) < disc - 2 * d.tick_mm:
             out.append(model.text("cardinal", p, w(key), d.text_pt, azimuth_deg=az))
     if ctx.recipe.unequal_hours and abs(math.degrees(phi)) < 90.0 - math.degrees(ctx.sky.obliquity_rad):
-        h0 = math.pi / 2
+        # Numbered halfway between the equator and the outer tropic.
+        dec_label = -s * ctx.sky.obliquity_rad / 2
+        h0 = math.acos(max(-1.0, min(1.0, -math.tan(phi) * math.tan(dec_label))))
         for k in range(1, 12):
-            p = project_vectors(equatorial_vector(h0 + k * math.pi / 12, 0.0), s, R)
+            ha = h0 + k * (2 * math.pi - 2 * h0) / 12.0
+            p = project_vectors(equatorial_vector(ha, dec_label), s, R)
             if np.hypot(*p) < disc:
                 out.append(model.text("unequal_hour_label", p, w.number(k), d.small_text_pt, hour=k))
-    out.append(model.text("plate_label", (0.0, -disc * 0.9), latitude_text(w, ctx.recipe.latitude_deg),
-                          d.text_pt))
+    out.append(model.text("plate_label", (d.tick_mm, -disc * 0.9), latitude_text(w, ctx.recipe.latitude_deg),
+                          d.text_pt, anchor="start"))
     return out

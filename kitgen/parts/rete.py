@@ -18,7 +18,7 @@ from ..geometry import model
 from ..projection.circles import project_circle
 from ..projection.stereographic import equatorial_vector, hemisphere_sign, project
 from ..sky.ecliptic import ecliptic_to_equatorial_rad
-from . import curves
+from . import curves, labels
 from .context import PartContext
 
 
@@ -33,7 +33,10 @@ def rete(ctx: PartContext) -> model.Part:
     d, w = ctx.dims, ctx.words
     R = d.equator_radius_mm
     eps = ctx.sky.obliquity_rad
-    els: list[model.Element] = [model.circle("cut", (0.0, 0.0), d.outer_tropic_radius_mm, "cut")]
+    # The film is cut at the plate's edge, a little outside the outer tropic
+    # that bounds the drawing, so the ecliptic never runs into the cut line.
+    els: list[model.Element] = [model.circle("cut", (0.0, 0.0), d.plate_radius_mm, "cut"),
+                                model.circle("rim", (0.0, 0.0), d.outer_tropic_radius_mm, "fine")]
 
     ecl_pole = equatorial_vector(-math.radians(270.0), math.pi / 2 - eps)
     image = project_circle(ecl_pole, math.pi / 2, s, R)
@@ -63,14 +66,16 @@ def rete(ctx: PartContext) -> model.Part:
         els.append(curves.ring_text("zodiac_label", signs[k], ang, image.radius_mm - band * 0.62,
                                     d.small_text_pt, center=tuple(c), longitude_deg=30.0 * k + 15.0))
 
-    for placed in ctx.sky.stars:
-        p = project(-math.radians(placed.ra_deg), math.radians(placed.dec_deg), s, R)
+    stars = sorted(ctx.sky.stars, key=lambda st: st.star.mag)
+    pts = [project(-math.radians(st.ra_deg), math.radians(st.dec_deg), s, R) for st in stars]
+    pin_box = (-2.5, -2.5, 2.5, 2.5)  # the pin's crosshair
+    places = labels.place_labels(pts, [st.star.label for st in stars], d.small_text_pt, d.tick_mm * 1.3,
+                                 keep_out=[pin_box], inside_radius_mm=d.plate_radius_mm)
+    for placed, p, (at, anchor) in zip(stars, pts, places):
         els.append(model.point("star", p, "heavy", name=placed.star.label, ra_deg=placed.ra_deg,
                                dec_deg=placed.dec_deg, mag=placed.star.mag))
-        left = p[0] > 0.55 * d.outer_tropic_radius_mm
-        off = d.tick_mm * 1.3
-        els.append(model.text("star_label", (p[0] - off if left else p[0] + off, p[1]), placed.star.label,
-                              d.small_text_pt, anchor="end" if left else "start", name=placed.star.label))
+        els.append(model.text("star_label", at, placed.star.label, d.small_text_pt, anchor=anchor,
+                              name=placed.star.label))
     els.append(model.point("pin", (0.0, 0.0), hole="centre"))
-    r = d.outer_tropic_radius_mm
+    r = d.plate_radius_mm
     return model.Part("rete", "film", tuple(els), (-r, -r, r, r), {}, w("rete.title"))
