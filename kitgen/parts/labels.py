@@ -25,26 +25,42 @@ def _overlap(a, b) -> bool:
     return a[0] < b[2] and b[0] < a[2] and a[1] < b[3] and b[1] < a[3]
 
 
-def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), inside_radius_mm=None):
+def _meets_ring(box, ring) -> bool:
+    """Whether a box meets the annulus ``ring`` = (center, r_inner, r_outer)."""
+    (cx, cy), r0, r1 = ring
+    nx = min(max(cx, box[0]), box[2]) - cx
+    ny = min(max(cy, box[1]), box[3]) - cy
+    near = (nx * nx + ny * ny) ** 0.5
+    far = max(((x - cx) ** 2 + (y - cy) ** 2) ** 0.5 for x in (box[0], box[2]) for y in (box[1], box[3]))
+    return near < r1 and far > r0
+
+
+def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), inside_radius_mm=None,
+                 keep_out_rings=()):
     """For each point (in order of importance) the (at, anchor) of its
     label: right, left, above or below the point, the first of these whose
-    box meets no label placed before, no ``keep_out`` box and stays inside
-    ``inside_radius_mm``; the right-hand place when none is free."""
+    box meets no label placed before, no ``keep_out`` box, no ring of
+    ``keep_out_rings`` ((center, r_inner, r_outer)) and stays inside
+    ``inside_radius_mm``; the first that avoids the labels alone when none
+    is wholly free, else the right-hand place."""
     placed = list(keep_out)
     out = []
     for (x, y), text in zip(points, texts):
         h = size_pt * PT_TO_MM
         candidates = [((x + offset_mm, y), "start"), ((x - offset_mm, y), "end"),
                       ((x, y + offset_mm + h / 2), "middle"), ((x, y - offset_mm - h / 2), "middle")]
-        choice = None
+        choice = fallback = None
         for at, anchor in candidates:
             box = text_box_mm(at, text, size_pt, anchor)
             if inside_radius_mm is not None and max(abs(box[0]), abs(box[2])) ** 2 + \
                     max(abs(box[1]), abs(box[3])) ** 2 > inside_radius_mm ** 2:
                 continue
             if not any(_overlap(box, other) for other in placed):
-                choice = (at, anchor, box)
-                break
+                if not any(_meets_ring(box, ring) for ring in keep_out_rings):
+                    choice = (at, anchor, box)
+                    break
+                fallback = fallback or (at, anchor, box)
+        choice = choice or fallback
         if choice is None:
             at, anchor = candidates[0]
             choice = (at, anchor, text_box_mm(at, text, size_pt, anchor))

@@ -70,7 +70,8 @@ def rete(ctx: PartContext) -> model.Part:
     pts = [project(-math.radians(st.ra_deg), math.radians(st.dec_deg), s, R) for st in stars]
     pin_box = (-2.5, -2.5, 2.5, 2.5)  # the pin's crosshair
     places = labels.place_labels(pts, [st.star.label for st in stars], d.small_text_pt, d.tick_mm * 1.3,
-                                 keep_out=[pin_box], inside_radius_mm=d.plate_radius_mm)
+                                 keep_out=[pin_box], inside_radius_mm=d.plate_radius_mm,
+                                 keep_out_rings=[(tuple(c), image.radius_mm - band, image.radius_mm)])
     for placed, p, (at, anchor) in zip(stars, pts, places):
         els.append(model.point("star", p, "heavy", name=placed.star.label, ra_deg=placed.ra_deg,
                                dec_deg=placed.dec_deg, mag=placed.star.mag))
