@@ -63,6 +63,7 @@ def write_atomic(path, data: bytes, force: bool = False, protect: tuple[Path, ..
             fh.write(data)
             fh.flush()
             os.fsync(fh.fileno())
+        os.chmod(tmp, 0o666 & ~_umask())  # mkstemp makes 0600; outputs get the usual mode
         os.replace(tmp, path)
     except OSError as exc:
         _remove(tmp)
@@ -71,6 +72,12 @@ def write_atomic(path, data: bytes, force: bool = False, protect: tuple[Path, ..
         _remove(tmp)
         raise
     return path
+
+
+def _umask() -> int:
+    mask = os.umask(0)
+    os.umask(mask)
+    return mask
 
 
 def _remove(tmp: str) -> None:
