@@ -1,0 +1,48 @@
+"""Benchmark: how long one kit takes, stage by stage, and its peak memory.
+
+Run: python3 benchmarks/build_speed.py [N]
+Speed and memory targets are checked here, never in a timed test.  The
+target for class sets: a kit's geometry in well under a second and its PDF
+in about a second on one core, so that hundreds of kits take minutes.
+"""
+
+from __future__ import annotations
+
+import sys
+import time
+import tracemalloc
+
+from kitgen.kit import build_kit
+from kitgen.layout.pages import layout_kit
+from kitgen.recipe.load import validate_recipe
+from kitgen.render.json_export import render_json
+from kitgen.render.pdf import render_pdf
+
+TARGET_BUILD_S = 0.5
+TARGET_PDF_S = 2.0
+
+
+def main(n: int = 10) -> int:
+    lats = [-80 + 160 * k / max(1, n - 1) for k in range(n)]
+    t_build = t_pdf = t_json = 0.0
+    tracemalloc.start()
+    for lat in lats:
+        recipe = validate_recipe({"latitude": lat, "epoch": 2027})
+        t0 = time.perf_counter()
+        kit = build_kit(recipe)
+        t1 = time.perf_counter()
+        pdf = render_pdf(kit, layout_kit(kit))
+        t2 = time.perf_counter()
+        render_json(kit)
+        t3 = time.perf_counter()
+        t_build, t_pdf, t_json = t_build + t1 - t0, t_pdf + t2 - t1, t_json + t3 - t2
+    _, peak = tracemalloc.get_traced_memory()
+    print(f"kits: {n}; per kit: geometry {t_build / n:.3f} s, PDF {t_pdf / n:.3f} s "
+          f"({len(pdf) / 1024:.0f} KiB), JSON {t_json / n:.3f} s; peak traced memory {peak / 2**20:.1f} MiB")
+    ok = t_build / n < TARGET_BUILD_S and t_pdf / n < TARGET_PDF_S
+    print("within targets" if ok else "OVER TARGET")
+    return 0 if ok else 1
+
+
+if __name__ == "__main__":
+    sys.exit(main(int(sys.argv[1]) if len(sys.argv) > 1 else 10))
