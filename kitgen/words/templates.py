@@ -3,12 +3,17 @@
 Parts, layout and renderers ask a :class:`Words` for text by key; none of
 them holds a literal word.  Templates are plain YAML mappings of keys to
 strings with ``{name}`` placeholders, loaded with the safe loader; no code
-runs from a template.
+runs from a template.  Month names, the decimal sign and the digits are
+not in the templates: they come from the Unicode CLDR through Babel
+(:mod:`kitgen.words.locale`).  A recipe may bring its own language file
+(``language_file``), checked by :func:`check_language_tree` against the
+English template before anything is built.
 """
 
 from __future__ import annotations
 
 import string
+import unicodedata
 from functools import lru_cache
 from importlib import resources
 from pathlib import Path
@@ -16,6 +21,17 @@ from pathlib import Path
 import yaml
 
 from ..errors import UserError
+from . import fonts, locale
+from .fit import Fitted, fit_label
+from .measure import Extent, extent
+
+#: Keys that describe a template rather than print words.
+META_KEYS = ("language", "reviewed_by_native_speaker")
+#: A section of optional local star names (IAU name -> local name).
+STAR_NAMES = "star_names"
+#: A language file is a few kilobytes; refuse anything absurdly large unread.
+MAX_LANGUAGE_FILE_BYTES = 256 * 1024
+MAX_STRING_CHARS = 600
 
 
 def available_languages() -> list[str]:
@@ -37,20 +53,44 @@ def _flatten(tree, prefix=""):
     return out
 
 
+def _split(tree: dict) -> tuple[dict, dict]:
+    """(flattened words, star names) of a template tree."""
+    tree = dict(tree)
+    stars = tree.pop(STAR_NAMES, None) or {}
+    return _flatten(tree), {str(k): str(v) for k, v in stars.items()}
+
+
 @lru_cache(maxsize=None)
-def _shipped(language: str) -> dict:
+def shipped_tree(language: str) -> dict:
     text = resources.files("kitgen.templates").joinpath(f"{language}.yaml").read_text(encoding="utf-8")
-    return _flatten(yaml.safe_load(text))
+    return yaml.safe_load(text)
+
+
+def word_keys(table: dict) -> set[str]:
+    """The keys that print words (every key but the template's own facts)."""
+    return {k for k in table if k not in META_KEYS}
+
+
+def placeholders(value) -> set[str]:
+    texts = value if isinstance(value, list) else [value]
+    return {f for t in texts for _, f, _, _ in string.Formatter().parse(t) if f is not None}
 
 
 class Words:
     """The words of one language.  ``words("plate.horizon")`` or
-    ``words("page.number", k=1, n=6)``; lists (month names, the twelve
-    30-degree divisions of the ecliptic) by :meth:`items`."""
+    ``words("page.number", k=1, n=6)``; lists (the twelve 30-degree
+    divisions of the ecliptic, the month names from CLDR) by :meth:`items`;
+    numbers by :meth:`number`; text sizes by :meth:`measure`."""
 
-    def __init__(self, language: str, table: dict):
+    def __init__(self, language: str, table: dict, star_names: dict | None = None, native_digits: bool = False):
         self.language = language
-        self._table = table
+        self.native_digits = bool(native_digits)
+        self.script = locale.script(language)
+        self.rtl = locale.is_right_to_left(language)
+        self._table = dict(table)
+        self._table["calendar.months"] = locale.month_names(language)
+        self._table["calendar.months_short"] = locale.month_names(language, "abbreviated")
+        self._stars = dict(star_names or {})
 
     def __call__(self, key: str, **values) -> str:
         try:
@@ -70,31 +110,131 @@ class Words:
     def keys(self) -> set[str]:
         return set(self._table)
 
+    def strings(self):
+        """Every printed string of the template with its key (lists item by item)."""
+        for key, value in self._table.items():
+            if key in META_KEYS:
+                continue
+            for v in value if isinstance(value, list) else [value]:
+                yield key, v
+        for name, local in self._stars.items():
+            yield f"{STAR_NAMES}.{name}", local
+
     def number(self, value: float, decimals: int = 0) -> str:
-        """A number as this language writes it (decimal separator from the
-        template's ``format.decimal``)."""
-        s = f"{value:.{decimals}f}"
-        return s.replace(".", self._table.get("format.decimal", "."))
+        """A number as this language writes it: the CLDR decimal sign and,
+        when the recipe asks for them, the locale's own digits."""
+        return locale.format_number(value, decimals, self.language, self.native_digits)
 
-    def placeholders(self, key: str) -> set[str]:
-        value = self._table[key]
-        texts = value if isinstance(value, list) else [value]
-        return {f for t in texts for _, f, _, _ in string.Formatter().parse(t) if f}
+    def star_name(self, iau_name: str) -> str:
+        """A star's name: the template's local name, else the IAU name."""
+        return self._stars.get(iau_name, iau_name)
+
+    def faces(self, style: str = "label"):
+        return fonts.stack(self.script, style)
+
+    def measure(self, text: str, size_pt: float, style: str = "label") -> Extent:
+        """Width and height (mm) of one line of ``text`` in the real font."""
+        return extent(text, size_pt, self.script, style, self.rtl)
+
+    def fit(self, text: str, size_pt: float, max_width_mm: float, max_height_mm: float | None = None,
+            short: str | None = None, style: str = "label", min_pt: float = 5.0) -> Fitted:
+        """``text`` fitted to its room by the rule of :mod:`kitgen.words.fit`."""
+        return fit_label(text, size_pt, max_width_mm, lambda s, pt: self.measure(s, pt, style), min_pt,
+                         max_height_mm, short)
 
 
-def load_words(language: str) -> Words:
+def load_words(language: str, native_digits: bool = False) -> Words:
     """The shipped template for ``language`` (a BCP 47 code such as ``en``)."""
     if language not in available_languages():
         raise UserError(f"unknown language {language!r}; available: {', '.join(available_languages())}")
-    return Words(language, _shipped(language))
+    table, stars = _split(shipped_tree(language))
+    return Words(language, table, stars, native_digits)
 
 
-def load_words_file(path: Path) -> Words:
-    """A user's own language file, in the same format as the templates."""
+def load_words_file(path, native_digits: bool = False) -> Words:
+    """A user's own language file, in the same format as the templates,
+    checked by :func:`check_language_file` first."""
+    tree = check_language_file(path)
+    table, stars = _split(tree)
+    return Words(str(tree["language"]), table, stars, native_digits)
+
+
+def check_language_file(path) -> dict:
+    """Read and check a language file; every problem is one
+    :class:`UserError` line (the missing keys all listed).  The file is
+    read with YAML's safe loader, so no code runs, and nothing is fetched."""
+    p = Path(path)
     try:
-        tree = yaml.safe_load(Path(path).read_text(encoding="utf-8"))
-    except (OSError, yaml.YAMLError) as exc:
-        raise UserError(f"cannot read language file {path}: {exc}") from None
+        if p.stat().st_size > MAX_LANGUAGE_FILE_BYTES:
+            raise UserError(f"language file {p}: larger than {MAX_LANGUAGE_FILE_BYTES // 1024} KiB")
+        text = p.read_text(encoding="utf-8")
+    except UserError:
+        raise
+    except FileNotFoundError:
+        raise UserError(f"language file {p}: no such file") from None
+    except UnicodeDecodeError:
+        raise UserError(f"language file {p}: not UTF-8 text") from None
+    except OSError as exc:
+        raise UserError(f"language file {p}: cannot read: {exc.strerror}") from None
+    try:
+        for event in yaml.parse(text, Loader=yaml.SafeLoader):
+            if isinstance(event, yaml.AliasEvent) or getattr(event, "anchor", None):
+                raise UserError(f"language file {p}, line {event.start_mark.line + 1}: "
+                                "YAML anchors and aliases (& and *) are not allowed")
+        tree = yaml.safe_load(text)
+    except yaml.YAMLError as exc:
+        mark = getattr(exc, "problem_mark", None)
+        where = f", line {mark.line + 1}" if mark else ""
+        raise UserError(f"language file {p}{where}: not valid YAML") from None
+    check_language_tree(tree, f"language file {p}")
+    return tree
+
+
+def check_language_tree(tree, source: str) -> None:
+    """Check a language tree against the English template: the same keys,
+    the same placeholders, lists of the same length, plain text only, a
+    language code that CLDR knows, and every character in the fonts."""
     if not isinstance(tree, dict):
-        raise UserError(f"language file {path} is not a mapping of keys to words")
-    return Words(str(tree.get("language", Path(path).stem)), _flatten(tree))
+        raise UserError(f"{source}: a language file is a mapping of keys to words, like templates/en.yaml")
+    code = tree.get("language")
+    if not isinstance(code, str):
+        raise UserError(f"{source}: the key 'language' must give the language's BCP 47 code, such as 'ca'")
+    try:
+        locale.cldr_locale(code)
+    except locale.LocaleError:
+        raise UserError(f"{source}: '{code}' is no language code the Unicode CLDR knows") from None
+    if not isinstance(tree.get("reviewed_by_native_speaker"), bool):
+        raise UserError(f"{source}: 'reviewed_by_native_speaker' must be true or false")
+    stars = tree.get(STAR_NAMES) or {}
+    if not isinstance(stars, dict) or not all(isinstance(v, str) for v in stars.values()):
+        raise UserError(f"{source}: '{STAR_NAMES}' maps IAU star names to local names")
+    english, _ = _split(shipped_tree("en"))
+    try:
+        table, _ = _split(tree)
+    except AttributeError:
+        raise UserError(f"{source}: every value is text, a list of text or a mapping") from None
+    missing = sorted(word_keys(english) - word_keys(table))
+    if missing:
+        raise UserError(f"{source}: missing keys: {', '.join(missing)}")
+    unknown = sorted(word_keys(table) - word_keys(english))
+    if unknown:
+        raise UserError(f"{source}: unknown keys: {', '.join(unknown)}")
+    faces = set(fonts.stack(locale.script(code), "label")) | set(fonts.stack(locale.script(code), "bold"))
+    for key in sorted(word_keys(english)):
+        want, got = english[key], table[key]
+        if isinstance(want, list) != isinstance(got, list) or (isinstance(want, list) and len(want) != len(got)):
+            n = len(want) if isinstance(want, list) else 1
+            raise UserError(f"{source}: '{key}' must be a list of {n} items, as in the English template")
+        try:
+            if placeholders(want) != placeholders(got):
+                raise UserError(f"{source}: '{key}' must use the placeholders "
+                                f"{', '.join('{' + f + '}' for f in sorted(placeholders(want))) or '(none)'}")
+        except ValueError:
+            raise UserError(f"{source}: '{key}' has an unmatched {{ or }}") from None
+        for text in got if isinstance(got, list) else [got]:
+            if len(text) > MAX_STRING_CHARS:
+                raise UserError(f"{source}: '{key}' is longer than {MAX_STRING_CHARS} characters")
+            lost = fonts.missing_chars(text, faces)
+            if lost:
+                shown = ", ".join(f"U+{ord(c):04X} {unicodedata.name(c, '?')}" for c in sorted(lost))
+                raise UserError(f"{source}: '{key}' has characters no shipped font draws: {shown}")

@@ -1,0 +1,209 @@
+"""All text drawing of the PDF: fonts, shaping, direction, paragraphs.
+
+Each line is set once by :func:`kitgen.words.shaping.set_line` (font runs
+in visual order, HarfBuzz glyphs for Arabic, Devanagari and every
+right-to-left run) and drawn here run by run: plain runs as reportlab
+strings, shaped runs as reportlab ``ShapedStr`` built from those very
+glyphs, so the printed glyphs and advances are the measured ones.  A line
+with shaped or right-to-left runs is wrapped in a marked-content span whose
+``/ActualText`` is the line in logical order (ISO 32000-1:2008, 14.9.4), so
+a reader that copies or searches the text gets the words, not the glyphs.
+
+Paragraphs (the instructions page) are broken at spaces into lines that
+fit the measured width, aligned to the left for left-to-right languages
+and to the right for right-to-left ones, with their bullets on the
+starting side.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+from reportlab.lib.units import mm
+from reportlab.pdfbase import pdfmetrics
+from reportlab.pdfbase.ttfonts import ShapedStr, ShapeData, TTFont
+
+from ..words import fonts
+from ..words.shaping import Line, Run, set_line
+
+
+def register_fonts() -> None:
+    """Register every shipped font with reportlab (once per process)."""
+    registered = set(pdfmetrics.getRegisteredFontNames())
+    for face in fonts.all_faces():
+        if face.name in registered:
+            continue
+        with fonts.font_path(face) as path:
+            ttf = TTFont(face.name, str(path))
+        ttf.hbFont()  # installs reportlab's registry of glyphs that no character maps to
+        pdfmetrics.registerFont(ttf)
+
+
+def _shaped_str(run: Run) -> ShapedStr:
+    """The run's HarfBuzz glyphs as a reportlab ShapedStr: each glyph by a
+    character reportlab maps to it (a private-use one for glyphs, such as
+    contextual forms, that no character maps to), with its advance and
+    offsets in thousandths of the size."""
+    ttf = pdfmetrics.getFont(run.face.name)
+    face = ttf.face
+    upem = fonts.units_per_em(run.face)
+    chars, data = [], []
+    order = fonts._metrics(run.face)[2]
+    for g in run.glyphs:
+        mapped = face.glyphToChar.get(g.gid)
+        width = fonts.glyph_advance_em(run.face, g.gid) * 1000.0
+        uchar = mapped[0] if mapped else ttf.hbAddPrivate(order[g.gid], g.gid, width)
+        chars.append(chr(uchar))
+        data.append(ShapeData(g.cluster, g.x_advance_em * 1000.0, 0, g.x_offset_em * 1000.0,
+                              g.y_offset_em * 1000.0, face.charWidths[uchar]))
+    del upem
+    return ShapedStr("".join(chars), shapeData=data)
+
+
+def _actual_text(text: str) -> str:
+    return "<FEFF" + text.encode("utf-16-be").hex().upper() + ">"
+
+
+def draw_line(c, line: Line, x_pt: float, baseline_pt: float, size_pt: float) -> None:
+    """Draw a set line with its left end at ``x_pt`` on ``baseline_pt``."""
+    tagged = line.rtl or any(r.shaped for r in line.runs)
+    if tagged:
+        c.addLiteral(f"/Span <</ActualText {_actual_text(line.text)}>> BDC")
+    x = x_pt
+    for run in line.runs:
+        c.setFont(run.face.name, size_pt)
+        c.drawString(x, baseline_pt, _shaped_str(run) if run.shaped else run.text)
+        x += run.width_em * size_pt
+    if tagged:
+        c.addLiteral("EMC")
+
+
+def draw_text(c, x_mm: float, y_mm: float, string: str, size_pt: float, words, style: str = "label",
+              anchor: str = "middle", angle_deg: float = 0.0) -> None:
+    """One line whose middle sits on (x, y) mm, turned ``angle_deg``
+    counter-clockwise; ``anchor`` says where (x, y) falls along the line as
+    it is seen: its left end (``start``), middle or right end (``end``)."""
+    line = set_line(string, words.script, style, words.rtl)
+    w = line.width_em * size_pt
+    c.saveState()
+    c.translate(x_mm * mm, y_mm * mm)
+    if angle_deg:
+        c.rotate(angle_deg)
+    c.setFillGray(0.0)
+    x0 = {"start": 0.0, "middle": -w / 2, "end": -w}[anchor]
+    draw_line(c, line, x0, -line.middle_em * size_pt, size_pt)
+    c.restoreState()
+
+
+def draw_at_baseline(c, x_pt: float, y_pt: float, string: str, size_pt: float, words, style: str = "body",
+                     align: str = "left") -> float:
+    """One line on the baseline ``y_pt``, its left end (``align='left'``) or
+    right end (``'right'``) at ``x_pt``; returns its width (pt)."""
+    line = set_line(string, words.script, style, words.rtl)
+    w = line.width_em * size_pt
+    draw_line(c, line, x_pt - w if align == "right" else x_pt, y_pt, size_pt)
+    return w
+
+
+def width_pt(string: str, size_pt: float, words, style: str = "body") -> float:
+    return set_line(string, words.script, style, words.rtl).width_em * size_pt
+
+
+def fitted_pt(string: str, size_pt: float, width_limit_pt: float, words, style: str = "body",
+              min_pt: float = 5.0) -> float:
+    """The size, at most ``size_pt`` and at least ``min_pt``, at which
+    ``string`` fits ``width_limit_pt``."""
+    w = width_pt(string, size_pt, words, style)
+    return size_pt if w <= width_limit_pt else max(min_pt, size_pt * width_limit_pt / w)
+
+
+# -- paragraphs -------------------------------------------------------------------
+
+@dataclass(frozen=True)
+class Block:
+    """A paragraph of the text pages: ``kind`` is ``title``, ``heading``,
+    ``body``, ``item`` or ``caution``; ``bullet`` is printed before an item."""
+
+    kind: str
+    text: str
+    bullet: str = ""
+
+
+#: Per kind: (size relative to the body, style, space before and after in
+#: body sizes, indent of the text in body sizes).
+_KINDS = {
+    "title": (1.8, "bold", 0.0, 0.4, 0.0),
+    "heading": (1.2, "bold", 0.7, 0.2, 0.0),
+    "body": (1.0, "body", 0.0, 0.3, 0.0),
+    "item": (1.0, "body", 0.0, 0.15, 1.8),
+    "caution": (1.0, "bold", 0.0, 0.15, 1.8),
+}
+LEADING = 1.25
+
+
+def wrap(text: str, width_limit_pt: float, size_pt: float, words, style: str) -> list[str]:
+    """Break ``text`` at spaces into lines no wider than the limit (a
+    greedy first fit, as a typewriter does; a single word wider than the
+    limit stands alone)."""
+    lines, current = [], ""
+    for word in text.split():
+        trial = f"{current} {word}" if current else word
+        if current and width_pt(trial, size_pt, words, style) > width_limit_pt:
+            lines.append(current)
+            current = word
+        else:
+            current = trial
+    if current:
+        lines.append(current)
+    return lines
+
+
+def _laid(blocks, width_limit_pt: float, body_pt: float, words):
+    """(block, size, style, lines, space before, space after, indent) of each block."""
+    out = []
+    for k, b in enumerate(blocks):
+        scale, style, before, after, indent = _KINDS[b.kind]
+        size = body_pt * scale
+        lines = wrap(b.text, width_limit_pt - indent * body_pt, size, words, style)
+        out.append((b, size, style, lines, before * body_pt if k else 0.0, after * body_pt, indent * body_pt))
+    return out
+
+
+def blocks_height_pt(blocks, width_limit_pt: float, body_pt: float, words) -> float:
+    return sum(before + len(lines) * size * LEADING + after
+               for _, size, _, lines, before, after, _ in _laid(blocks, width_limit_pt, body_pt, words))
+
+
+def draw_blocks(c, blocks, x0_mm: float, y0_mm: float, x1_mm: float, y1_mm: float, words,
+                body_pt: float = 10.5, min_pt: float = 6.0) -> float:
+    """Draw the blocks from the top of the box down, at the largest body
+    size from ``body_pt`` down to ``min_pt`` (in half points) at which they
+    fit; returns the size used.  Raises ValueError if even the smallest
+    does not fit."""
+    width, height = (x1_mm - x0_mm) * mm, (y1_mm - y0_mm) * mm
+    size = body_pt
+    while size > min_pt and blocks_height_pt(blocks, width, size, words) > height:
+        size -= 0.5
+    if blocks_height_pt(blocks, width, size, words) > height:
+        raise ValueError("the instructions do not fit on one page")
+    rtl = words.rtl
+    left, right = x0_mm * mm, x1_mm * mm
+    y = y1_mm * mm
+    for block, s, style, lines, before, after, indent in _laid(blocks, width, size, words):
+        y -= before
+        for k, text in enumerate(lines):
+            lead = s * LEADING
+            baseline = y - lead + (lead - s) / 2 + 0.22 * s
+            if rtl:
+                draw_at_baseline(c, right - indent, baseline, text, s, words, style, "right")
+            else:
+                draw_at_baseline(c, left + indent, baseline, text, s, words, style, "left")
+            if k == 0 and block.bullet:
+                bx = size * 0.4
+                if rtl:
+                    draw_at_baseline(c, right - bx, baseline, block.bullet, s, words, "bold", "right")
+                else:
+                    draw_at_baseline(c, left + bx, baseline, block.bullet, s, words, "bold", "left")
+            y -= lead
+        y -= after
+    return size

@@ -1,0 +1,167 @@
+"""Which shipped font draws which character.
+
+Every printed string is set in one of three styles: ``label`` (words on
+the parts), ``body`` (the text pages) and ``bold`` (titles, headings,
+cautions).  A style is a stack of fonts: the font of the language's script
+first, then DejaVu Sans, which covers Latin, Greek, Cyrillic and the signs
+(degree, times, divide).  Each character is drawn by the first font of the
+stack whose character map (read with fontTools) holds it, so an Arabic
+page can still print a star's IAU name in Latin letters.  Only fonts in
+``kitgen/fonts`` are used; none installed on the system is ever read.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+from functools import lru_cache
+from importlib import resources
+
+from fontTools.ttLib import TTFont
+
+STYLES = ("label", "body", "bold")
+
+
+@dataclass(frozen=True)
+class Face:
+    """One shipped font file; ``name`` is the name it is registered under."""
+
+    name: str
+    filename: str
+
+
+DEJAVU = {"label": Face("KitSansCondensed", "DejaVuSansCondensed.ttf"),
+          "body": Face("KitSans", "DejaVuSans.ttf"),
+          "bold": Face("KitSans-Bold", "DejaVuSans-Bold.ttf")}
+
+#: The font of each script that DejaVu Sans does not draw well enough
+#: (ISO 15924 codes).  Latin, Greek and Cyrillic are DejaVu's own.
+SCRIPT_FACES = {
+    "Arab": {"label": Face("KitArabic", "NotoSansArabic-Regular.ttf"),
+             "body": Face("KitArabic", "NotoSansArabic-Regular.ttf"),
+             "bold": Face("KitArabic-Bold", "NotoSansArabic-Bold.ttf")},
+    "Deva": {"label": Face("KitDevanagari", "NotoSansDevanagari-Regular.ttf"),
+             "body": Face("KitDevanagari", "NotoSansDevanagari-Regular.ttf"),
+             "bold": Face("KitDevanagari-Bold", "NotoSansDevanagari-Bold.ttf")},
+}
+
+#: Scripts whose text must be shaped (contextual forms, conjuncts, marks
+#: that move); other runs are set glyph by glyph from the character map.
+COMPLEX_SCRIPTS = frozenset(SCRIPT_FACES)
+
+
+def all_faces() -> list[Face]:
+    faces = {f.name: f for f in DEJAVU.values()}
+    for styles in SCRIPT_FACES.values():
+        faces.update({f.name: f for f in styles.values()})
+    return list(faces.values())
+
+
+def face_named(name: str) -> Face:
+    return next(f for f in all_faces() if f.name == name)
+
+
+def stack(script: str, style: str) -> tuple[Face, ...]:
+    """The fonts that draw ``style`` text of a language written in ``script``."""
+    own = SCRIPT_FACES.get(script)
+    return (own[style], DEJAVU[style]) if own else (DEJAVU[style],)
+
+
+def font_path(face: Face):
+    """A context manager giving the font file's path (importlib.resources)."""
+    return resources.as_file(resources.files("kitgen").joinpath("fonts", face.filename))
+
+
+@lru_cache(maxsize=None)
+def font_bytes(face: Face) -> bytes:
+    return resources.files("kitgen").joinpath("fonts", face.filename).read_bytes()
+
+
+@lru_cache(maxsize=None)
+def _metrics(face: Face):
+    """(character map, advance widths by glyph name, glyph order, units per em)."""
+    import io
+
+    font = TTFont(io.BytesIO(font_bytes(face)), lazy=True)
+    cmap = dict(font.getBestCmap())
+    hmtx = {name: adv for name, (adv, _) in font["hmtx"].metrics.items()}
+    return cmap, hmtx, font.getGlyphOrder(), font["head"].unitsPerEm, font["hhea"].ascent, font["hhea"].descent
+
+
+def cmap(face: Face) -> dict[int, str]:
+    """The font's character map (code point -> glyph name), from fontTools."""
+    return _metrics(face)[0]
+
+
+def has_char(face: Face, ch: str) -> bool:
+    return ord(ch) in _metrics(face)[0]
+
+
+def advance_em(face: Face, ch: str) -> float:
+    """Advance width of one character's glyph (hmtx), in em."""
+    cm, hmtx, _, upem, _, _ = _metrics(face)
+    return hmtx[cm[ord(ch)]] / upem
+
+
+def glyph_advance_em(face: Face, gid: int) -> float:
+    _, hmtx, order, upem, _, _ = _metrics(face)
+    return hmtx[order[gid]] / upem
+
+
+@lru_cache(maxsize=None)
+def _glyph_set(face: Face):
+    import io
+
+    return TTFont(io.BytesIO(font_bytes(face)), lazy=True).getGlyphSet()
+
+
+@lru_cache(maxsize=65536)
+def glyph_bounds_em(face: Face, gid: int):
+    """(xmin, ymin, xmax, ymax) of a glyph's outline in em, or None for a
+    blank glyph (fontTools BoundsPen)."""
+    from fontTools.pens.boundsPen import BoundsPen
+
+    gs = _glyph_set(face)
+    pen = BoundsPen(gs)
+    gs[_metrics(face)[2][gid]].draw(pen)
+    if pen.bounds is None:
+        return None
+    upem = units_per_em(face)
+    return tuple(v / upem for v in pen.bounds)
+
+
+def char_bounds_em(face: Face, ch: str):
+    _, _, order, _, _, _ = _metrics(face)
+    name = cmap(face)[ord(ch)]
+    return glyph_bounds_em(face, _gid_of(face, name))
+
+
+@lru_cache(maxsize=None)
+def _gid_index(face: Face) -> dict:
+    return {name: k for k, name in enumerate(_metrics(face)[2])}
+
+
+def _gid_of(face: Face, name: str) -> int:
+    return _gid_index(face)[name]
+
+
+def middle_em(face: Face) -> float:
+    """Height (em) above the baseline of the middle of a line: half the
+    font's hhea ascent plus descent, as reportlab centres a line."""
+    _, _, _, upem, asc, desc = _metrics(face)
+    return (asc + desc) / 2 / upem
+
+
+def units_per_em(face: Face) -> int:
+    return _metrics(face)[3]
+
+
+def missing_chars(text: str, faces) -> set[str]:
+    """Characters of ``text`` that no font of ``faces`` holds (format and
+    joining controls, which draw nothing, excepted)."""
+    return {ch for ch in text if not _invisible(ch) and not any(has_char(f, ch) for f in faces)}
+
+
+def _invisible(ch: str) -> bool:
+    import unicodedata
+
+    return unicodedata.category(ch) in ("Cf", "Cc") or ch in "\n"

@@ -1,0 +1,104 @@
+"""Locale data from the Unicode CLDR, read through Babel.
+
+Month names, the decimal sign, the locale's own digits, its writing
+direction and its script are not typed into the templates: they come from
+the Common Locale Data Repository (Unicode CLDR) as Babel ships it, so a
+language file holds only the words of the instrument.
+"""
+
+from __future__ import annotations
+
+import unicodedata
+from functools import lru_cache
+
+from babel import Locale, UnknownLocaleError
+from babel.core import get_global
+from babel.numbers import format_decimal
+
+#: The first digit of each CLDR numbering system kitgen can print
+#: (CLDR common/supplemental/numberingSystems.xml gives each "numeric"
+#: system as ten consecutive code points; the Unicode names of the zeros
+#: are quoted from memory of that file and checked by the tests against
+#: Python's unicodedata, which must call them decimal digit zero).
+_ZERO_NAMES = {
+    "latn": "DIGIT ZERO",
+    "arab": "ARABIC-INDIC DIGIT ZERO",
+    "arabext": "EXTENDED ARABIC-INDIC DIGIT ZERO",
+    "deva": "DEVANAGARI DIGIT ZERO",
+    "beng": "BENGALI DIGIT ZERO",
+    "guru": "GURMUKHI DIGIT ZERO",
+    "gujr": "GUJARATI DIGIT ZERO",
+    "tamldec": "TAMIL DIGIT ZERO",
+    "telu": "TELUGU DIGIT ZERO",
+    "knda": "KANNADA DIGIT ZERO",
+    "mlym": "MALAYALAM DIGIT ZERO",
+    "thai": "THAI DIGIT ZERO",
+    "mymr": "MYANMAR DIGIT ZERO",
+}
+
+
+class LocaleError(ValueError):
+    """The code names no locale that CLDR knows."""
+
+
+@lru_cache(maxsize=None)
+def cldr_locale(code: str) -> Locale:
+    """Babel's CLDR locale for a BCP 47 code (``pt``, ``pt-BR``, ``ar``)."""
+    try:
+        return Locale.parse(code.replace("-", "_"))
+    except (UnknownLocaleError, ValueError, TypeError):
+        raise LocaleError(code) from None
+
+
+def month_names(code: str, width: str = "wide") -> list[str]:
+    """The twelve month names, January first, in CLDR's stand-alone form
+    (the form a calendar scale shows: Russian январь, not января);
+    ``width`` is ``wide`` or ``abbreviated``."""
+    months = cldr_locale(code).months["stand-alone"][width]
+    return [months[k] for k in range(1, 13)]
+
+
+def is_right_to_left(code: str) -> bool:
+    """Whether the locale writes right to left (CLDR characterOrder)."""
+    return cldr_locale(code).character_order == "right-to-left"
+
+
+def script(code: str) -> str:
+    """ISO 15924 script of the locale (``Latn``, ``Grek``, ``Cyrl``,
+    ``Arab``, ``Deva``), from CLDR's likely subtags when the code names none."""
+    loc = cldr_locale(code)
+    if loc.script:
+        return loc.script
+    likely = get_global("likely_subtags").get(loc.language, "")
+    for part in likely.split("_")[1:]:
+        if len(part) == 4:
+            return part
+    return "Latn"
+
+
+def native_numbering_system(code: str) -> str:
+    """The locale's own digits (CLDR ``native`` numbering system), or
+    ``latn`` where CLDR gives none or kitgen has no digits for it."""
+    system = cldr_locale(code).other_numbering_systems.get("native", "latn")
+    return system if system in _ZERO_NAMES else "latn"
+
+
+def digits(system: str) -> str:
+    """The ten digits of a CLDR numbering system, 0 to 9."""
+    zero = ord(unicodedata.lookup(_ZERO_NAMES[system]))
+    return "".join(chr(zero + k) for k in range(10))
+
+
+def format_number(value: float, decimals: int, code: str, native_digits: bool = False) -> str:
+    """``value`` with ``decimals`` decimals as the locale writes it: its
+    decimal sign (a comma in es, fr, de, pt, it, el, ru), no grouping (the
+    numbers of a scale and years are read whole), and, with
+    ``native_digits``, the locale's own digits (Arabic-Indic in ar,
+    Devanagari in hi) with the decimal sign CLDR gives for them."""
+    pattern = "0" + ("." + "0" * decimals if decimals > 0 else "")
+    system = native_numbering_system(code) if native_digits else "latn"
+    text = format_decimal(round(value, decimals), format=pattern, locale=cldr_locale(code),
+                          numbering_system=system)
+    if system != "latn":
+        text = text.translate(str.maketrans("0123456789", digits(system)))
+    return text

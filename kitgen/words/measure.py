@@ -1,0 +1,52 @@
+"""Measure text with the real fonts, so parts can fit their labels.
+
+Widths come from the shipped fonts themselves: hmtx advances read with
+fontTools for plain runs, HarfBuzz advances for shaped runs (see
+:mod:`kitgen.words.shaping`); the height of a line is its fonts' hhea
+ascent plus descent.  Parts import this module, never a drawing library.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+from .shaping import Line, set_line
+
+MM_PER_PT = 25.4 / 72.0
+
+
+@dataclass(frozen=True)
+class Extent:
+    """A line's width and the height of the box, centred on the line's
+    middle, that holds all its ink (mm), and how far the baseline sits
+    below that middle (mm), at one size."""
+
+    width_mm: float
+    height_mm: float
+    baseline_below_middle_mm: float
+
+
+def line_extent(line: Line, size_pt: float) -> Extent:
+    em = size_pt * MM_PER_PT
+    return Extent(line.width_em * em, 2 * line.half_height_em * em, line.middle_em * em)
+
+
+def extent(text: str, size_pt: float, script: str = "Latn", style: str = "label", rtl: bool = False) -> Extent:
+    """The extent of one line of ``text`` at ``size_pt``."""
+    return line_extent(set_line(text, script, style, rtl), size_pt)
+
+
+def text_corners_mm(at, width_mm: float, height_mm: float, angle_deg: float, anchor: str):
+    """The four corners (mm) of a text box whose line's middle height sits
+    on ``at``, turned ``angle_deg`` counter-clockwise about ``at``;
+    ``anchor`` (``start``, ``middle``, ``end``) is where ``at`` falls along
+    the line, left to right as the line is seen."""
+    x0 = {"start": 0.0, "middle": -width_mm / 2, "end": -width_mm}[anchor]
+    a = math.radians(angle_deg)
+    c, s = math.cos(a), math.sin(a)
+    out = []
+    for dx, dy in ((x0, -height_mm / 2), (x0 + width_mm, -height_mm / 2),
+                   (x0 + width_mm, height_mm / 2), (x0, height_mm / 2)):
+        out.append((at[0] + c * dx - s * dy, at[1] + s * dx + c * dy))
+    return out

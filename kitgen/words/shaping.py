@@ -1,0 +1,274 @@
+"""Set one line of text: fonts, direction and shaping, without drawing it.
+
+A line is cut into runs that share one font and one embedding level; the
+runs are put in visual order and each run is shaped by HarfBuzz (through
+uharfbuzz) when its script needs it (Arabic joining, Devanagari
+conjuncts and vowel signs) or when it runs right to left (mirrored
+brackets).  Other runs are set glyph by glyph from the font's character
+map and hmtx advances, exactly as reportlab draws plain strings.  The
+measuring of :mod:`kitgen.words.measure` and the drawing of
+:mod:`kitgen.render.pdf_text` both use this one setting, so what is
+measured is what is printed.
+
+Direction follows the Unicode Bidirectional Algorithm (UAX #9, "Unicode
+Bidirectional Algorithm", revision for Unicode 15), for one paragraph
+without explicit embeddings: rules W1-W7, N1-N2, I1-I2 and L1-L2.  That is
+all the kit's strings need: Arabic words with digits, signs and the Latin
+IAU names of stars.
+"""
+
+from __future__ import annotations
+
+import unicodedata
+from dataclasses import dataclass
+from functools import lru_cache
+
+import uharfbuzz as hb
+
+from . import fonts
+from .fonts import Face
+
+#: HarfBuzz features: kerning and the standard ligatures (required
+#: features of Arabic and Indic shaping are always on).
+FEATURES = {"kern": True, "liga": True}
+
+_STRONG_R = {"R", "AL"}
+_NEUTRAL = {"B", "S", "WS", "ON", "BN"}
+
+
+@dataclass(frozen=True)
+class Glyph:
+    """One glyph of a run, in visual order: its id in the font, the index
+    (in the run's text) of the first character of its cluster, and its
+    advance and offsets in em."""
+
+    gid: int
+    cluster: int
+    x_advance_em: float
+    x_offset_em: float
+    y_offset_em: float
+
+
+@dataclass(frozen=True)
+class Run:
+    face: Face
+    text: str            # logical order
+    rtl: bool
+    shaped: bool         # drawn from ``glyphs`` (else as plain text)
+    glyphs: tuple[Glyph, ...]
+    width_em: float
+
+
+@dataclass(frozen=True)
+class Line:
+    text: str                 # logical order
+    runs: tuple[Run, ...]     # visual order, left to right
+    width_em: float
+    middle_em: float          # height of the line's middle above the baseline
+    ink_top_em: float         # highest ink above the baseline
+    ink_bottom_em: float      # lowest ink, above the baseline (negative below)
+    rtl: bool                 # the paragraph direction
+
+    @property
+    def half_height_em(self) -> float:
+        """Half the height of a box centred on the line's middle that
+        holds all its ink."""
+        return max(self.ink_top_em - self.middle_em, self.middle_em - self.ink_bottom_em, 0.0)
+
+
+# -- UAX #9 -------------------------------------------------------------------
+
+def _classes(text: str) -> list[str]:
+    return [unicodedata.bidirectional(ch) or "L" for ch in text]
+
+
+def paragraph_is_rtl(text: str, prefer_rtl: bool) -> bool:
+    """Paragraph direction.  P2-P3 take the first strong character; a
+    language written right to left keeps its direction for a line that
+    holds any right-to-left letter (a higher-level protocol, HL1)."""
+    classes = _classes(text)
+    if prefer_rtl and any(c in _STRONG_R for c in classes):
+        return True
+    for c in classes:
+        if c == "L":
+            return False
+        if c in _STRONG_R:
+            return True
+    return False
+
+
+def embedding_levels(text: str, rtl: bool) -> list[int]:
+    """The resolved embedding level of each character (UAX #9, W1-I2, L1)."""
+    base = 1 if rtl else 0
+    sor = "R" if rtl else "L"
+    t = _classes(text)
+    n = len(t)
+    for i in range(n):                                   # W1
+        if t[i] == "NSM":
+            t[i] = t[i - 1] if i else sor
+    last = sor
+    for i in range(n):                                   # W2, W3
+        if t[i] in ("L", "R", "AL"):
+            last = t[i]
+        if t[i] == "EN" and last == "AL":
+            t[i] = "AN"
+        if t[i] == "AL":
+            t[i] = "R"
+    for i in range(1, n - 1):                            # W4
+        if t[i] == "ES" and t[i - 1] == t[i + 1] == "EN":
+            t[i] = "EN"
+        elif t[i] == "CS" and t[i - 1] == t[i + 1] and t[i - 1] in ("EN", "AN"):
+            t[i] = t[i - 1]
+    i = 0
+    while i < n:                                         # W5
+        if t[i] == "ET":
+            j = i
+            while j < n and t[j] == "ET":
+                j += 1
+            if (i and t[i - 1] == "EN") or (j < n and t[j] == "EN"):
+                t[i:j] = ["EN"] * (j - i)
+            i = j
+        else:
+            i += 1
+    t = ["ON" if c in ("ES", "ET", "CS") else c for c in t]   # W6
+    last = sor
+    for i in range(n):                                   # W7
+        if t[i] in ("L", "R"):
+            last = t[i]
+        if t[i] == "EN" and last == "L":
+            t[i] = "L"
+    i = 0
+    while i < n:                                         # N1, N2
+        if t[i] in _NEUTRAL:
+            j = i
+            while j < n and t[j] in _NEUTRAL:
+                j += 1
+            before = sor if i == 0 else ("R" if t[i - 1] in ("R", "EN", "AN") else "L")
+            after = sor if j == n else ("R" if t[j] in ("R", "EN", "AN") else "L")
+            t[i:j] = [before if before == after else sor] * (j - i)
+            i = j
+        else:
+            i += 1
+    levels = []
+    for c in t:                                          # I1, I2
+        if base == 0:
+            levels.append(1 if c == "R" else 2 if c in ("AN", "EN") else 0)
+        else:
+            levels.append(2 if c in ("L", "EN", "AN") else 1)
+    k = n                                                # L1: trailing white space
+    while k > 0 and _classes(text[k - 1])[0] in ("WS", "S", "B", "BN"):
+        k -= 1
+        levels[k] = base
+    return levels
+
+
+def visual_order(levels: list[int]) -> list[int]:
+    """Indices of items in visual order (UAX #9, L2): from the highest
+    level down to the lowest odd one, reverse every run at that level or
+    higher."""
+    order = list(range(len(levels)))
+    if not levels:
+        return order
+    lowest_odd = min((lv for lv in levels if lv % 2), default=None)
+    if lowest_odd is None:
+        return order
+    for level in range(max(levels), lowest_odd - 1, -1):
+        i = 0
+        while i < len(order):
+            if levels[order[i]] >= level:
+                j = i
+                while j < len(order) and levels[order[j]] >= level:
+                    j += 1
+                order[i:j] = order[i:j][::-1]
+                i = j
+            else:
+                i += 1
+    return order
+
+
+# -- fonts and runs -------------------------------------------------------------
+
+def _faces_for(text: str, stack: tuple[Face, ...]) -> list[Face]:
+    """The face of each character: the first of the stack that holds it.
+    Marks and neutral characters stay with the face before them where that
+    face holds them, so a word is not split between fonts."""
+    out: list[Face] = []
+    for ch in text:
+        cat = unicodedata.category(ch)
+        prev = out[-1] if out else None
+        if prev is not None and (cat[0] in "MZPS" or cat in ("Cf", "Nd")) and fonts.has_char(prev, ch):
+            out.append(prev)
+            continue
+        face = next((f for f in stack if fonts.has_char(f, ch)), stack[-1])
+        out.append(face)
+    return out
+
+
+@lru_cache(maxsize=16)
+def _hb_font(face: Face) -> hb.Font:
+    return hb.Font(hb.Face(hb.Blob(fonts.font_bytes(face))))
+
+
+def _needs_shaping(face: Face, rtl: bool) -> bool:
+    return rtl or any(face in styles.values() for styles in fonts.SCRIPT_FACES.values())
+
+
+def shape_run(face: Face, text: str, rtl: bool) -> tuple[Glyph, ...]:
+    """HarfBuzz's glyphs for ``text`` in ``face`` and the given direction,
+    in visual order."""
+    buf = hb.Buffer()
+    buf.add_str(text)
+    buf.guess_segment_properties()
+    buf.direction = "rtl" if rtl else "ltr"
+    hb.shape(_hb_font(face), buf, FEATURES)
+    upem = fonts.units_per_em(face)
+    return tuple(Glyph(info.codepoint, info.cluster, pos.x_advance / upem, pos.x_offset / upem,
+                       pos.y_offset / upem)
+                 for info, pos in zip(buf.glyph_infos, buf.glyph_positions))
+
+
+def _run(face: Face, text: str, level: int) -> Run:
+    rtl = bool(level % 2)
+    if _needs_shaping(face, rtl):
+        glyphs = shape_run(face, text, rtl)
+        return Run(face, text, rtl, True, glyphs, sum(g.x_advance_em for g in glyphs))
+    return Run(face, text, False, False, (), sum(fonts.advance_em(face, ch) for ch in text))
+
+
+@lru_cache(maxsize=4096)
+def set_line(text: str, script: str, style: str, prefer_rtl: bool = False) -> Line:
+    """``text`` (one line, logical order) set in ``style`` for a language
+    written in ``script``; ``prefer_rtl`` for a right-to-left language."""
+    stack = fonts.stack(script, style)
+    rtl = paragraph_is_rtl(text, prefer_rtl)
+    middle = fonts.middle_em(stack[0])
+    if not text:
+        return Line(text, (), 0.0, middle, middle, middle, rtl)
+    levels = embedding_levels(text, rtl)
+    faces = _faces_for(text, stack)
+    pieces: list[tuple[Face, int, str]] = []
+    for ch, face, level in zip(text, faces, levels):
+        if pieces and pieces[-1][0] == face and pieces[-1][1] == level:
+            pieces[-1] = (face, level, pieces[-1][2] + ch)
+        else:
+            pieces.append((face, level, ch))
+    runs = [_run(face, piece, level) for face, level, piece in pieces]
+    order = visual_order([level for _, level, _ in pieces])
+    visual = tuple(runs[k] for k in order)
+    top, bottom = _ink(visual, middle)
+    return Line(text, visual, sum(r.width_em for r in visual), middle, top, bottom, rtl)
+
+
+def _ink(runs, middle: float) -> tuple[float, float]:
+    """Highest and lowest ink (em, from the baseline) of the runs' glyphs,
+    from the glyph outlines' bounds."""
+    top = bottom = middle
+    for run in runs:
+        if run.shaped:
+            boxes = [(fonts.glyph_bounds_em(run.face, g.gid), g.y_offset_em) for g in run.glyphs]
+        else:
+            boxes = [(fonts.char_bounds_em(run.face, ch), 0.0) for ch in run.text]
+        for box, dy in boxes:
+            if box is not None:
+                top, bottom = max(top, box[3] + dy), min(bottom, box[1] + dy)
+    return top, bottom
