@@ -174,7 +174,7 @@ def _footer(c: Canvas, kit, page: Page) -> None:
     c.setFillGray(0.0)
     pdf_text.draw_at_baseline(c, right * mm, (bar_y - 1.0) * mm, number, PAGE_NUMBER_PT, w, "bold", "right")
 
-    bar_note = w("page.check_bar", length=w.number(CHECK_BAR_MM))
+    bar_note = w("page.check_bar", length=w.number(CHECK_BAR_MM), percent=w.number(100))
     size = _fitted_pt(bar_note, w, "body", FOOTER_PT, usable)
     pdf_text.draw_at_baseline(c, m * mm, (bar_y + 3.0) * mm, bar_note, size, w, "body")
 
@@ -218,7 +218,7 @@ def _story(kit, pages) -> list[Block]:
         n, listed = _page_list(w, pages, kind)
         if n:
             out.append(Block("item", w(key + ("_one" if n == 1 else "_many"), pages=listed), "\u2022"))
-    out.append(Block("item", w("instructions.print_scale", length=length), "\u2022"))
+    out.append(Block("item", w("instructions.print_scale", length=length, percent=w.number(100)), "\u2022"))
     out += [Block("heading", w("instructions.cut_heading")), Block("body", w("instructions.cut"))]
     out += [Block("heading", w("instructions.stack_heading")), Block("body", w("instructions.stack_intro"))]
     out += numbered("instructions.stack")
