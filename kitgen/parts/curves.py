@@ -48,7 +48,8 @@ def circle_piece(role, pole, radius_rad, vectors, sign, equator_radius_mm, disc_
         c = np.asarray(image.center_mm)
         ang = np.unwrap(np.arctan2(run[:, 1] - c[1], run[:, 0] - c[0]))
         a0, a1 = math.degrees(ang[0]), math.degrees(ang[-1])
-        a0, a1 = _snap(a0, image, disc_radius_mm), _snap(a1, image, disc_radius_mm)
+        a0 = _snap(a0, run[0], image, disc_radius_mm)
+        a1 = _snap(a1, run[-1], image, disc_radius_mm)
         lo, hi = min(a0, a1), max(a0, a1)
         if hi - lo < 1e-9:
             continue
@@ -57,15 +58,27 @@ def circle_piece(role, pole, radius_rad, vectors, sign, equator_radius_mm, disc_
     return out
 
 
-def _snap(angle_deg, image: PlaneCircle, disc_radius_mm):
+#: How far (mm, along the circle) an interpolated end may be moved onto
+#: the exact crossing with the disc's edge: far more than the chord-to-arc
+#: error between two samples, far less than any drawn feature.
+_SNAP_MM = 0.5
+
+
+def _snap(angle_deg, end_mm, image: PlaneCircle, disc_radius_mm):
     """Move an arc end found by interpolation between samples onto the
-    exact crossing of the circle with the disc's edge, when it is one."""
+    exact crossing of the circle with the disc's edge, when it is one: only
+    an end that the clipping cut on the edge (``end_mm`` on the edge), and
+    only by up to :data:`_SNAP_MM` along the circle.  (An angular limit
+    would let a true end of a huge, nearly straight image circle, such as
+    an azimuth near a pole, jump across the plate.)"""
+    if abs(math.hypot(end_mm[0], end_mm[1]) - disc_radius_mm) > 1e-6:
+        return angle_deg
     ranges = clip.circle_inside_disc(image.center_mm, image.radius_mm, disc_radius_mm)
     if not ranges:
         return angle_deg
     for exact in ranges[0]:
         delta = (exact - angle_deg + 180.0) % 360.0 - 180.0
-        if abs(delta) < 0.5:
+        if abs(math.radians(delta)) * image.radius_mm < _SNAP_MM:
             return angle_deg + delta
     return angle_deg
 

@@ -13,6 +13,10 @@ import math
 import numpy as np
 
 
+#: Tolerance (mm) for a circle lying on the disc's edge.
+_EDGE_MM = 1e-9
+
+
 def _norm_deg(a: float) -> float:
     return a % 360.0
 
@@ -28,14 +32,21 @@ def circle_inside_disc(center, radius_mm: float, disc_radius_mm: float):
     cx, cy = float(center[0]), float(center[1])
     d = math.hypot(cx, cy)
     r, R = radius_mm, disc_radius_mm
-    if d + r <= R:
+    # A circle that reaches the edge to within rounding is inside: the outer
+    # tropic *is* the disc's edge, and computed twice it may come out a few
+    # ulps larger; without the tolerance it would vanish or become an arc.
+    if d + r <= R + _EDGE_MM:
         return None
     if d >= r + R or d + R <= r:
         return []
-    # Angle at the circle's centre between the direction to the origin and
-    # the intersection points (law of cosines).
-    cos_g = (r * r + d * d - R * R) / (2 * r * d)
-    g = math.degrees(math.acos(max(-1.0, min(1.0, cos_g))))
+    # Angle g at the circle's centre between the direction to the origin
+    # and the intersection points, by the law of cosines written in its
+    # half-angle form, sin^2(g/2) = (R - (d - r)) (R + (d - r)) / (4 r d):
+    # the plain form (r^2 + d^2 - R^2) / (2 r d) loses every digit for the
+    # huge, nearly straight image circles near a degenerate latitude.
+    e = d - r
+    sin_half_sq = (R - e) * (R + e) / (4.0 * r * d)
+    g = math.degrees(2.0 * math.asin(math.sqrt(max(0.0, min(1.0, sin_half_sq)))))
     towards_origin = math.degrees(math.atan2(-cy, -cx))
     return [(_norm_deg(towards_origin - g), _norm_deg(towards_origin - g) + 2 * g)]
 
