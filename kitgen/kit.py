@@ -10,7 +10,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 from .geometry.model import Part
-from .layout.sheets import default_diameter_mm
+from .layout.pages import default_diameter_mm, kit_sheet
 from .parts import PART_BUILDERS
 from .parts.context import PartContext
 from .parts.dimensions import Dimensions, dimensions
@@ -35,7 +35,7 @@ def build_kit(recipe: Recipe) -> Kit:
     """Every part of the kit the recipe describes, as geometry in mm."""
     sky = sky_for_kit(recipe)
     words = load_words(recipe.language)
-    diameter = recipe.diameter_mm or default_diameter_mm(recipe.sheet)
+    diameter = recipe.diameter_mm or default_diameter_mm(kit_sheet(recipe))
     dims = dimensions(diameter, sky.obliquity_rad)
     ctx = PartContext(recipe, sky, dims, words)
     parts = tuple(build(ctx) for kind, build in PART_BUILDERS.items() if kind in recipe.parts)

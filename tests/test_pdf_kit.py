@@ -30,9 +30,11 @@ PT_PER_MM = PT_PER_IN / MM_PER_IN
 #: kitgen.layout.sheets): ISO 216 gives A4 and A3 in mm, ANSI/ASME Y14.1
 #: gives Letter (ANSI A) and Tabloid (ANSI B) in inches.
 SHEETS_PT = {
+    "a5": (148 * PT_PER_MM, 210 * PT_PER_MM),        # ISO 216: A5 = 148 x 210 mm
     "a4": (210 * PT_PER_MM, 297 * PT_PER_MM),        # ISO 216: A4 = 210 x 297 mm
     "a3": (297 * PT_PER_MM, 420 * PT_PER_MM),        # ISO 216: A3 = 297 x 420 mm
     "letter": (8.5 * PT_PER_IN, 11 * PT_PER_IN),     # ANSI/ASME Y14.1: Letter = 8.5 x 11 in
+    "legal": (8.5 * PT_PER_IN, 14 * PT_PER_IN),      # common North American practice (not in Y14.1): 8.5 x 14 in
     "tabloid": (11 * PT_PER_IN, 17 * PT_PER_IN),     # ANSI/ASME Y14.1: Tabloid = 11 x 17 in
 }
 

@@ -1,34 +1,38 @@
-"""Pages of the kit: which part goes where on which sheet.
+"""Pages of the kit: which part, or piece of a part, goes where on which sheet.
 
 :func:`layout_kit` is a pure function of the kit.  The first page holds the
 instructions; then come the pages printed on card, then the pages printed
-on transparency film (a film page never carries a card part, so each sheet
-goes through the printer on one material).
+on transparency film.  A film page never carries a card part, so each sheet
+goes through the printer on one material.
 
-Packing is a first-fit shelf packing (the "first fit decreasing height"
-rule for strip packing, Coffman, Garey, Johnson and Tarjan, SIAM J. Comput.
-9, 1980), run over as many pages as needed: parts are taken longest first,
-each goes on the first shelf of the first page where it fits, else on a new
-shelf, else on a new page.  A long part may be turned a quarter turn where
-that fits (or takes less height on a new shelf), in the direction that
-keeps its words readable.  A new page is portrait unless
-the part only fits in landscape.
+A part that fits a page is placed whole; a larger one is cut into
+overlapping pieces (:mod:`kitgen.layout.tiling`).  Parts and pieces are then
+packed onto as few pages as possible (:mod:`kitgen.layout.packing`), each
+page portrait or landscape as fits best.  A long part (the rule, the
+alidade) may be turned a quarter turn, in the direction that keeps its
+words readable.
 
-Page coordinates: mm, origin at the bottom-left corner of the page as it
-is printed (landscape pages turned), x to the right, y up.  Every page
-keeps the sheet's margin clear and keeps a footer band above the bottom
-margin for the check bar, the page number, the kit's title and the note of
-the material.
+Page coordinates: mm as the print will measure them, origin at the
+bottom-left corner of the page as it reads (landscape pages turned; a film
+page as it reads once the film is turned over), x to the right, y up.  When
+the recipe gives a ``print_scale`` the page is the sheet times that scale
+(the area the printer really puts the page on); the PDF renderer draws it
+at 1 / scale so that the print measures true.  Every page keeps the sheet's
+margin clear and keeps a footer band above the bottom margin for the check
+bar, the page number, the kit's title and the note of the material.
 """
 
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass, field
+from dataclasses import dataclass
+from itertools import product
 
 from ..errors import UserError
 from ..geometry.model import Part
-from .sheets import Sheet, sheet as sheet_named
+from .packing import Box, Packer, extent, place
+from .sheets import SheetError, Sheet, make_sheet, sheet_name
+from .tiling import PIECE_BAND_MM, Piece, tile
 
 #: Height (mm) of the footer band above the bottom margin.
 FOOTER_MM = 14.0
@@ -43,6 +47,11 @@ TITLE_BAND_MM = 5.0
 #: width kept for a title (DejaVu Sans Bold averages below 0.65 em for Latin
 #: text; from its metrics).
 TITLE_EM_PER_CHAR = 0.65
+#: Size (pt) of a piece's name in its band, and the largest cell (mm) of
+#: the assembly map beside it.
+PIECE_LABEL_PT = 7.0
+MAP_CELL_MM = 3.0
+MAP_HEIGHT_MM = 6.5
 #: Length (mm) of the check bar printed on every page.
 CHECK_BAR_MM = 100.0
 #: Where the check bar sits: its left end and height (mm) from the
@@ -51,31 +60,81 @@ CHECK_BAR_RISE_MM = 3.0
 #: A part is "long", and may be turned, when one side is this many times
 #: the other.
 LONG_RATIO = 1.5
+#: Duplex registration marks: inset (mm) from the corners of the content
+#: area, and the room (mm) they keep from the mater.
+REGISTRATION_INSET_MM = 8.0
+REGISTRATION_CLEAR_MM = 8.0
 
 PT_PER_MM = 72.0 / 25.4
+
+DUPLEX_MODES = ("none", "long_edge", "short_edge")
 
 
 @dataclass(frozen=True)
 class Placement:
     """A part on a page: its pin at ``(x_mm, y_mm)`` (page coordinates),
-    turned ``rotation_deg`` counter-clockwise about the pin."""
+    turned ``rotation_deg`` counter-clockwise about the pin.  A ``piece``
+    shows only its window of the part."""
 
     part: Part
     x_mm: float
     y_mm: float
     rotation_deg: float
+    piece: Piece | None = None
 
     @property
     def box_mm(self) -> tuple[float, float, float, float]:
-        """The part's bounds on the page ``(xmin, ymin, xmax, ymax)``."""
-        x0, y0, x1, y1 = turned_bounds(self.part.bounds_mm, self.rotation_deg)
+        """What the placement shows, on the page ``(xmin, ymin, xmax, ymax)``:
+        the part's bounds, or the piece's window."""
+        if self.piece is not None:
+            x0, y0, x1, y1 = self.piece.window_mm
+        else:
+            x0, y0, x1, y1 = turned_bounds(self.part.bounds_mm, self.rotation_deg)
         return (x0 + self.x_mm, y0 + self.y_mm, x1 + self.x_mm, y1 + self.y_mm)
+
+    @property
+    def band_mm(self) -> float:
+        """Height (mm) of the band above the box for the title (and, for a
+        piece, its name and map)."""
+        return PIECE_BAND_MM if self.piece is not None else TITLE_BAND_MM
 
     @property
     def title_at_mm(self) -> tuple[float, float]:
         """Start of the baseline of the part's title, above its box."""
         x0, _, _, y1 = self.box_mm
+        if self.piece is not None:
+            return (x0, y1 + PIECE_BAND_MM - 3.5)
         return (x0, y1 + 0.3 * TITLE_BAND_MM)
+
+    @property
+    def piece_label_at_mm(self) -> tuple[float, float]:
+        """Start of the baseline of a piece's name, under its title."""
+        x0, _, _, y1 = self.box_mm
+        return (x0, y1 + 1.5)
+
+    def to_page(self, x_mm: float, y_mm: float) -> tuple[float, float]:
+        """Page coordinates of the point ``(x, y)`` of the part."""
+        a = math.radians(self.rotation_deg)
+        c, s = _exact_cos_sin(a, self.rotation_deg)
+        return (self.x_mm + c * x_mm - s * y_mm, self.y_mm + s * x_mm + c * y_mm)
+
+
+def _exact_cos_sin(a: float, deg: float) -> tuple[float, float]:
+    quarter = deg / 90.0
+    if abs(quarter - round(quarter)) < 1e-12:
+        return ((1.0, 0.0), (0.0, 1.0), (-1.0, 0.0), (0.0, -1.0))[int(round(quarter)) % 4]
+    return (math.cos(a), math.sin(a))
+
+
+@dataclass(frozen=True)
+class Mark:
+    """A page mark that belongs to no part: ``duplex_front`` (the scales
+    read on the mater's front) or ``duplex_back`` (the cross printed behind
+    them), centred at ``(x_mm, y_mm)``."""
+
+    kind: str
+    x_mm: float
+    y_mm: float
 
 
 @dataclass(frozen=True)
@@ -86,28 +145,42 @@ class Page:
     sheet: Sheet
     landscape: bool
     placements: tuple[Placement, ...]
+    mirrored: bool = False
+    print_scale: tuple[float, float] = (1.0, 1.0)
+    marks: tuple[Mark, ...] = ()
+    duplex: str = ""  # "front" or "back" of a duplex pair
 
     @property
     def width_mm(self) -> float:
-        return page_size_mm(self.sheet, self.landscape)[0]
+        return page_size_mm(self.sheet, self.landscape, self.print_scale)[0]
 
     @property
     def height_mm(self) -> float:
-        return page_size_mm(self.sheet, self.landscape)[1]
+        return page_size_mm(self.sheet, self.landscape, self.print_scale)[1]
+
+    @property
+    def media_mm(self) -> tuple[float, float]:
+        """The sheet as the PDF's page (mm): width and height as printed."""
+        return page_size_mm(self.sheet, self.landscape)
 
 
-def page_size_mm(sheet: Sheet, landscape: bool) -> tuple[float, float]:
-    """Width and height (mm) of the page as printed."""
+def page_size_mm(sheet: Sheet, landscape: bool, scale=(1.0, 1.0)) -> tuple[float, float]:
+    """Width and height (mm) of the page as printed, times ``scale``."""
     w, h = sheet.width_mm, sheet.height_mm
-    return (h, w) if landscape else (w, h)
+    w, h = (h, w) if landscape else (w, h)
+    return (w * scale[0], h * scale[1])
 
 
-def content_area_mm(sheet: Sheet, landscape: bool) -> tuple[float, float, float, float]:
+def content_area_mm(sheet: Sheet, landscape: bool, scale=(1.0, 1.0)) -> tuple[float, float, float, float]:
     """``(xmin, ymin, xmax, ymax)`` where parts may go: inside the margins,
     above the footer band and the gap over it."""
-    w, h = page_size_mm(sheet, landscape)
+    w, h = page_size_mm(sheet, landscape, scale)
     m = sheet.margin_mm
     return (m, m + FOOTER_MM + GAP_MM, w - m, h - m)
+
+
+def page_content_mm(page: Page) -> tuple[float, float, float, float]:
+    return content_area_mm(page.sheet, page.landscape, page.print_scale)
 
 
 def check_bar_mm(page: Page) -> tuple[tuple[float, float], tuple[float, float]]:
@@ -131,35 +204,23 @@ def turned_bounds(bounds_mm, rotation_deg: float) -> tuple[float, float, float, 
     return (y0, -x1, y1, -x0)   # (x, y) -> (y, -x)
 
 
-def title_width_mm(title: str) -> float:
-    """Width (mm) kept for a part's title: a generous estimate from the
-    number of characters, so layout needs no font file."""
-    return len(title) * TITLE_EM_PER_CHAR * TITLE_PT / PT_PER_MM
+def title_width_mm(title: str, size_pt: float = TITLE_PT) -> float:
+    """Width (mm) kept for a title: a generous estimate from the number of
+    characters, so layout needs no font file."""
+    return len(title) * TITLE_EM_PER_CHAR * size_pt / PT_PER_MM
 
 
-# -- packing ------------------------------------------------------------------
-
-@dataclass
-class _Shelf:
-    top_mm: float        # from the top of the content area, downwards
-    height_mm: float
-    used_mm: float = 0.0
-    items: list = field(default_factory=list)  # (part, rotation_deg, x_mm, box_w_mm, box_h_mm)
+def map_cell_mm(piece: Piece) -> float:
+    """Side (mm) of one cell of a piece's assembly map."""
+    return min(MAP_CELL_MM, MAP_HEIGHT_MM / piece.rows, 30.0 / piece.columns)
 
 
-@dataclass
-class _Bin:
-    landscape: bool
-    width_mm: float
-    height_mm: float
-    shelves: list
+def piece_label_width_mm(label: str, piece: Piece) -> float:
+    """Width (mm) of a piece's name and its map, side by side."""
+    return title_width_mm(label, PIECE_LABEL_PT) + 2.0 + map_cell_mm(piece) * piece.columns
 
 
-def _box(part: Part, rotation_deg: float) -> tuple[float, float]:
-    """Width and height (mm) a part takes on a shelf, its title included."""
-    x0, y0, x1, y1 = turned_bounds(part.bounds_mm, rotation_deg)
-    return (max(x1 - x0, title_width_mm(part.title)), (y1 - y0) + TITLE_BAND_MM)
-
+# -- what to pack ------------------------------------------------------------------
 
 def reading_turn_deg(part: Part) -> float:
     """The quarter turn (90 or 270 degrees ccw) that leaves a part's text
@@ -179,81 +240,201 @@ def _turns(part: Part) -> tuple[float, ...]:
     return (0.0, reading_turn_deg(part)) if max(w, h) >= LONG_RATIO * min(w, h) else (0.0,)
 
 
-def _area(sheet: Sheet, landscape: bool) -> tuple[float, float]:
-    x0, y0, x1, y1 = content_area_mm(sheet, landscape)
-    return (x1 - x0, y1 - y0)
+@dataclass(frozen=True)
+class _Item:
+    """A whole part (``piece`` None) or one piece, with the ways it may lie:
+    ``(box_w, box_h, rotation_deg)``, title band included."""
+
+    part: Part
+    options: tuple[tuple[float, float, float], ...]
+    piece: Piece | None = None
+    label: str = ""
 
 
-def _on_shelf(b: _Bin, part: Part) -> bool:
-    for shelf in b.shelves:
-        for rot in _turns(part):
-            w, h = _box(part, rot)
-            x = shelf.used_mm + (GAP_MM if shelf.items else 0.0)
-            if h <= shelf.height_mm + 1e-9 and x + w <= b.width_mm + 1e-9:
-                shelf.items.append((part, rot, x, w, h))
-                shelf.used_mm = x + w
-                return True
-    return False
-
-
-def _new_shelf(b: _Bin, part: Part) -> bool:
-    top = 0.0
-    if b.shelves:
-        last = b.shelves[-1]
-        top = last.top_mm + last.height_mm + GAP_MM
-    fits = []
+def _whole_item(part: Part, areas) -> _Item | None:
+    options = []
     for rot in _turns(part):
-        w, h = _box(part, rot)
-        if w <= b.width_mm + 1e-9 and top + h <= b.height_mm + 1e-9:
-            fits.append((h, rot, w))
-    if not fits:
-        return False
-    h, rot, w = min(fits)
-    b.shelves.append(_Shelf(top, h, w, [(part, rot, 0.0, w, h)]))
-    return True
+        x0, y0, x1, y1 = turned_bounds(part.bounds_mm, rot)
+        w, h = max(x1 - x0, title_width_mm(part.title)), (y1 - y0) + TITLE_BAND_MM
+        if any(w <= aw + 1e-9 and h <= ah + 1e-9 for aw, ah in areas):
+            options.append((w, h, rot))
+    return _Item(part, tuple(options)) if options else None
 
 
-def _pack(parts: list[Part], sheet: Sheet, order: dict[str, int]) -> list[_Bin]:
-    items = sorted(parts, key=lambda p: (-max(p.width_mm, p.height_mm), order[p.kind]))
-    bins: list[_Bin] = []
-    for part in items:
-        if any(_on_shelf(b, part) or _new_shelf(b, part) for b in bins):
-            continue
-        for landscape in (False, True):
-            b = _Bin(landscape, *_area(sheet, landscape), [])
-            if _new_shelf(b, part):
-                bins.append(b)
-                break
-        else:
-            raise UserError(f"the {part.kind} ({part.width_mm:.0f} x {part.height_mm:.0f} mm) does not fit "
-                            f"on the {sheet.name} sheet; choose a larger sheet or a smaller diameter_mm")
-    return bins
-
-
-def _placements(b: _Bin, sheet: Sheet, order: dict[str, int]) -> tuple[Placement, ...]:
-    """Page positions of a bin's parts; each shelf centred across the page."""
-    ax0, _, _, ay1 = content_area_mm(sheet, b.landscape)
+def _tilings(part: Part, areas, words) -> list[tuple[_Item, ...]]:
+    """For each way the part may be turned, its fewest pieces (over the page
+    orientations), as items to pack."""
     out = []
-    for shelf in b.shelves:
-        left = ax0 + (b.width_mm - shelf.used_mm) / 2.0
-        for part, rot, x, w, h in shelf.items:
-            bx0, by0, bx1, by1 = turned_bounds(part.bounds_mm, rot)
-            box_left = left + x
-            box_top = ay1 - shelf.top_mm - TITLE_BAND_MM
-            out.append(Placement(part, box_left - bx0, box_top - by1, rot))
-    return tuple(sorted(out, key=lambda p: order[p.part.kind]))
+    for rot in _turns(part):
+        ext = turned_bounds(part.bounds_mm, rot)
+        best = None
+        for aw, ah in areas:
+            pieces = tile(ext, aw, ah - PIECE_BAND_MM)
+            area = sum(p.width_mm * p.height_mm for p in pieces)
+            if best is None or (len(pieces), area) < (len(best), sum(p.width_mm * p.height_mm for p in best)):
+                best = pieces
+        items = []
+        for piece in best:
+            label = words("tile.piece", name=piece.name, count=piece.count)
+            w = max(piece.width_mm, title_width_mm(part.title), piece_label_width_mm(label, piece))
+            items.append(_Item(part, ((w, piece.height_mm + PIECE_BAND_MM, rot),), piece, label))
+        out.append(tuple(items))
+    return out
+
+
+def _candidates(parts, areas, words) -> list[list[_Item]]:
+    """Every combination of the ways the tiled parts may be turned."""
+    choices = []
+    for part in parts:
+        whole = _whole_item(part, areas)
+        choices.append([(whole,)] if whole is not None else _tilings(part, areas, words))
+    return [[item for group in combo for item in group] for combo in product(*choices)]
+
+
+def _areas(sheet: Sheet, scale) -> list[tuple[float, float]]:
+    out = []
+    for landscape in (False, True):
+        x0, y0, x1, y1 = content_area_mm(sheet, landscape, scale)
+        out.append((x1 - x0, y1 - y0))
+    return out
+
+
+def _pack(items: list[_Item], sheet: Sheet, scale) -> list[tuple[bool, tuple[Placement, ...]]]:
+    areas = _areas(sheet, scale)
+    packer = Packer([Box(it.options) for it in items], areas, GAP_MM)
+    pages = []
+    for members in packer.pack():
+        area_index, (_, _, tree) = packer.fitting(members)
+        landscape = area_index == 1
+        ax0, _, ax1, ay1 = content_area_mm(sheet, landscape, scale)
+        spots: list = []
+        sizes = lambda i, k: items[i].options[k][:2]  # noqa: E731
+        _, used_h = extent(tree, sizes, GAP_MM)
+        place(tree, ax0, 0.0, ax1 - ax0, used_h, GAP_MM, sizes, spots)
+        placed = []
+        for i, k, left, top in spots:
+            it = items[i]
+            w, h, rot = it.options[k]
+            if it.piece is not None:
+                bx0, by0, bx1, by1 = it.piece.window_mm
+                band = PIECE_BAND_MM
+            else:
+                bx0, by0, bx1, by1 = turned_bounds(it.part.bounds_mm, rot)
+                band = TITLE_BAND_MM
+            box_top = ay1 - top - band
+            placed.append(Placement(it.part, left - bx0, box_top - by1, rot, it.piece))
+        pages.append((landscape, tuple(placed)))
+    return pages
+
+
+def _order_key(order):
+    def key(pl: Placement):
+        piece = pl.piece
+        return (order[pl.part.kind], piece.row if piece else 0, piece.column if piece else 0)
+    return key
+
+
+def _layout_material(parts, sheet, scale, order, words):
+    """Placements of one material's parts, on the fewest pages found."""
+    if not parts:
+        return []
+    try:
+        candidates = _candidates(parts, _areas(sheet, scale), words)
+    except ValueError:
+        raise UserError(f"the {sheet.name} sheet is too small to tile a part on; choose a larger sheet") from None
+    best = None
+    for items in candidates:
+        pages = _pack(items, sheet, scale)
+        if best is None or len(pages) < len(best):
+            best = pages
+    key = _order_key(order)
+    best = [(landscape, tuple(sorted(placed, key=key))) for landscape, placed in best]
+    best.sort(key=lambda lp: key(lp[1][0]))
+    return best
+
+
+# -- duplex ---------------------------------------------------------------------------
+
+def _duplex_pages(front: Part, back: Part, sheet: Sheet, scale, mode: str):
+    """The mater's front and back on the two sides of one sheet.
+
+    Turned over about its long edge (portrait), a sheet's point (x, y) lies
+    behind (W - x, y) of the back page as it reads; about its short edge,
+    behind (x, H - y).  The mater's back, seen from behind, is its front
+    turned about the vertical axis: its point (x, y) lies behind the
+    front's (-x, y).  So the back's pin goes at the mirror of the front's
+    pin, upright for the long edge and turned half a turn for the short."""
+    w, h = page_size_mm(sheet, False, scale)
+    ax0, ay0, ax1, ay1 = content_area_mm(sheet, False, scale)
+    cx, cy = w / 2.0, h / 2.0
+    r = max(front.bounds_mm[2], -front.bounds_mm[0], front.bounds_mm[3], -front.bounds_mm[1])
+    title_w = max(title_width_mm(front.title), title_width_mm(back.title))
+    if (2 * r > ax1 - ax0 + 1e-9 or cy - r < ay0 - 1e-9 or cy + r + TITLE_BAND_MM > ay1 + 1e-9
+            or cx - r + title_w > ax1):
+        raise UserError(f"'duplex' needs the mater on one {sheet.name} page; choose a smaller diameter_mm, "
+                        "a larger sheet, or duplex: none")
+    if mode == "long_edge":
+        bx, by, rot = w - cx, cy, 0.0
+    else:
+        bx, by, rot = cx, h - cy, 180.0
+    fronts = []
+    for x in (ax0 + REGISTRATION_INSET_MM, ax1 - REGISTRATION_INSET_MM):
+        for y in (ay0 + REGISTRATION_INSET_MM, ay1 - REGISTRATION_INSET_MM):
+            if math.hypot(x - cx, y - cy) >= r + REGISTRATION_CLEAR_MM:
+                fronts.append((x, y))
+    backs = [(w - x, y) if mode == "long_edge" else (x, h - y) for x, y in fronts]
+    return ((Placement(front, cx, cy, 0.0), tuple(Mark("duplex_front", x, y) for x, y in fronts)),
+            (Placement(back, bx, by, rot), tuple(Mark("duplex_back", x, y) for x, y in backs)))
+
+
+# -- the kit ----------------------------------------------------------------------------
+
+def kit_sheet(recipe) -> Sheet:
+    """The recipe's sheet with its margin; a one-line error naming the key
+    when the margin leaves too little of it."""
+    try:
+        return make_sheet(recipe.sheet, recipe.margin_mm)
+    except SheetError as exc:
+        raise UserError(str(exc)) from None
+
+
+def default_diameter_mm(sheet: Sheet) -> float:
+    """The largest mater, in whole 5 mm from 80 to 600 mm, that fits one
+    page of the sheet with its title and 3 mm to spare on each side (room
+    for the cut line's ink and a little misfeed)."""
+    room = 0.0
+    for landscape in (False, True):
+        x0, y0, x1, y1 = content_area_mm(sheet, landscape)
+        room = max(room, min(x1 - x0, y1 - y0 - TITLE_BAND_MM) - 6.0)
+    return float(min(600, max(80, int(room // 5) * 5)))
 
 
 def layout_kit(kit) -> tuple[Page, ...]:
-    """The kit's pages in print order: instructions, card pages, film pages."""
-    sh = sheet_named(kit.recipe.sheet)
+    """The kit's pages in print order: instructions, card pages (the duplex
+    pair first), film pages."""
+    recipe = kit.recipe
+    sh = kit_sheet(recipe)
+    scale = tuple(recipe.print_scale)
     order = {p.kind: i for i, p in enumerate(kit.parts)}
-    drafts: list[tuple[str, bool, tuple[Placement, ...]]] = [("instructions", False, ())]
-    for material in ("card", "film"):
-        parts = [p for p in kit.parts if p.material == material]
-        pages = [(b.landscape, _placements(b, sh, order)) for b in _pack(parts, sh, order)]
-        pages.sort(key=lambda lp: min(order[p.part.kind] for p in lp[1]))
-        drafts += [(material, landscape, placed) for landscape, placed in pages]
+    # (kind, landscape, placements, marks, duplex side)
+    drafts: list[tuple] = [("instructions", False, (), (), "")]
+    card = [p for p in kit.parts if p.material == "card"]
+    kinds = {p.kind for p in card}
+    if recipe.duplex != "none" and {"mater_front", "mater_back"} <= kinds:
+        front, back = kit.part("mater_front"), kit.part("mater_back")
+        (fp, fm), (bp, bm) = _duplex_pages(front, back, sh, scale, recipe.duplex)
+        drafts += [("card", False, (fp,), fm, "front"), ("card", False, (bp,), bm, "back")]
+        card = [p for p in card if p.kind not in ("mater_front", "mater_back")]
+    for landscape, placed in _layout_material(card, sh, scale, order, kit.words):
+        drafts.append(("card", landscape, placed, (), ""))
+    film = [p for p in kit.parts if p.material == "film"]
+    for landscape, placed in _layout_material(film, sh, scale, order, kit.words):
+        drafts.append(("film", landscape, placed, (), ""))
     total = len(drafts)
-    return tuple(Page(k, total, kind, sh, landscape, placed)
-                 for k, (kind, landscape, placed) in enumerate(drafts, start=1))
+    return tuple(Page(k, total, kind, sh, landscape, placed, kind == "film" and recipe.film_mirror, scale,
+                      marks, side)
+                 for k, (kind, landscape, placed, marks, side) in enumerate(drafts, start=1))
+
+
+def describe_sheet(recipe) -> str:
+    return sheet_name(recipe.sheet)

@@ -1,30 +1,64 @@
-"""Paper sheets and their printable area.
+"""Paper sheets, their margins and the recipe's ``sheet`` value.
 
-Sizes: ISO 216 (A3 297 x 420 mm, A4 210 x 297 mm) and ANSI/ASME Y14.1
-(Letter / ANSI A 8.5 x 11 in, Tabloid / ANSI B 11 x 17 in).
+Named sizes, portrait, as the standards give them:
+
+* ISO 216: A3 297 x 420 mm, A4 210 x 297 mm, A5 148 x 210 mm;
+* ANSI/ASME Y14.1: Letter (ANSI A) 8.5 x 11 in, Tabloid (ANSI B) 11 x 17 in;
+  Legal, 8.5 x 14 in, is the North American office size of the same family
+  (common practice; it has no ANSI letter of its own).
+
+A custom sheet is a mapping of its two sides in millimetres
+(``{width_mm: 250, height_mm: 350}``) or in inches (``{width_in: 9,
+height_in: 12}``).  Which way up a sheet is printed (portrait or landscape)
+is chosen page by page by the layout, so a sheet is only its two sides.
+
+The margin kept clear on every side stays out of the printer's unprintable
+edge.  Office laser and inkjet printers leave 3 to 5 mm unprinted (common
+practice, from printer data sheets seen over the years; from memory), so the
+margin may not go below 6 mm; the default, 10 mm, also keeps room for marks
+and for a little misfeed.
 """
 
 from __future__ import annotations
 
 from dataclasses import dataclass
 
-MM_PER_INCH = 25.4
+MM_PER_INCH = 25.4  # exact, by the 1959 international yard and pound agreement
 
 #: (width_mm, height_mm) in portrait.
 SHEET_SIZES_MM = {
+    "a5": (148.0, 210.0),
     "a4": (210.0, 297.0),
     "a3": (297.0, 420.0),
     "letter": (8.5 * MM_PER_INCH, 11.0 * MM_PER_INCH),
+    "legal": (8.5 * MM_PER_INCH, 14.0 * MM_PER_INCH),
     "tabloid": (11.0 * MM_PER_INCH, 17.0 * MM_PER_INCH),
 }
 
-#: Margin kept clear of the printer's unprintable edge (common practice:
-#: office printers leave 3-5 mm unprinted; 10 mm leaves room for marks).
+#: Margin kept clear of the printer's unprintable edge, and its limits (mm).
 DEFAULT_MARGIN_MM = 10.0
+MIN_MARGIN_MM = 6.0
+MAX_MARGIN_MM = 30.0
+
+#: Limits on a custom sheet's sides (mm): the short side must hold the
+#: 100 mm check bar and the page number inside the margins; the long side
+#: stays within what roll plotters take (A0 is 841 x 1189 mm).
+MIN_SIDE_MM = 140.0
+MAX_SIDE_MM = 1500.0
+#: Room (mm) across the sheet, inside the margins, for the check bar and
+#: the page number beside it.
+MIN_USABLE_MM = 120.0
+
+
+class SheetError(ValueError):
+    """A sheet value that cannot be used; the message is one line."""
 
 
 @dataclass(frozen=True)
 class Sheet:
+    """A sheet of paper: its name, its two sides (mm, portrait) and the
+    margin (mm) kept clear on every side."""
+
     name: str
     width_mm: float
     height_mm: float
@@ -39,14 +73,72 @@ class Sheet:
         return self.height_mm - 2 * self.margin_mm
 
 
-def sheet(name: str) -> Sheet:
-    w, h = SHEET_SIZES_MM[name]
-    return Sheet(name, w, h)
+def _number(value, what: str) -> float:
+    if isinstance(value, bool) or not isinstance(value, (int, float)) or value != value \
+            or value in (float("inf"), float("-inf")):
+        raise SheetError(f"'{what}' must be a number, got {value!r}")
+    return float(value)
 
 
-def default_diameter_mm(name: str) -> float:
-    """The largest mater, in whole 5 mm, that fits the sheet's short side
-    inside the margins with room for the cut line and labels."""
-    s = sheet(name)
-    room = min(s.usable_width_mm, s.usable_height_mm) - 6.0
-    return float(int(room // 5) * 5)
+def parse_sheet(value):
+    """The recipe's ``sheet`` value, checked: a sheet name (lower case) or
+    a ``(width_mm, height_mm)`` pair for a custom sheet.  Raises
+    :class:`SheetError` with a one-line message naming the sub-key."""
+    names = ", ".join(SHEET_SIZES_MM)
+    if isinstance(value, str):
+        name = value.strip().lower()
+        if name not in SHEET_SIZES_MM:
+            raise SheetError(f"unknown sheet {value!r}; use one of {names}, "
+                             "or {width_mm: W, height_mm: H} (or width_in, height_in)")
+        return name
+    if not isinstance(value, dict):
+        raise SheetError(f"must be one of {names}, or {{width_mm: W, height_mm: H}}, got {value!r}")
+    keys = set(value)
+    for unit, factor in (("mm", 1.0), ("in", MM_PER_INCH)):
+        wanted = {f"width_{unit}", f"height_{unit}"}
+        if keys == wanted:
+            sides = []
+            for k in (f"width_{unit}", f"height_{unit}"):
+                v = _number(value[k], k) * factor
+                if not MIN_SIDE_MM - 1e-9 <= v <= MAX_SIDE_MM + 1e-9:
+                    low, high = MIN_SIDE_MM / factor, MAX_SIDE_MM / factor
+                    raise SheetError(f"'{k}' is {value[k]:g}, outside {low:g} to {high:g} {unit}")
+                sides.append(v)
+            return (sides[0], sides[1])
+    unknown = sorted(str(k) for k in keys - {"width_mm", "height_mm", "width_in", "height_in"})
+    if unknown:
+        raise SheetError(f"unknown key '{unknown[0]}' in a custom sheet; give width_mm and height_mm "
+                         "(or width_in and height_in)")
+    for unit in ("mm", "in"):
+        if keys < {f"width_{unit}", f"height_{unit}"}:
+            raise SheetError(f"a custom sheet needs both width_{unit} and height_{unit}")
+    raise SheetError("give both sides of a custom sheet in one unit: {width_mm: W, height_mm: H} "
+                     "or {width_in: W, height_in: H}")
+
+
+def sheet_name(value) -> str:
+    """A short name of the recipe's sheet value, for messages."""
+    if isinstance(value, str):
+        return value
+    return f"{value[0]:g} x {value[1]:g} mm sheet"
+
+
+def make_sheet(value, margin_mm: float = DEFAULT_MARGIN_MM) -> Sheet:
+    """The :class:`Sheet` for a checked ``sheet`` value and margin.  Raises
+    :class:`SheetError` when the margin leaves too little room."""
+    if isinstance(value, str):
+        w, h = SHEET_SIZES_MM[value]
+        name = value
+    else:
+        w, h = value
+        name = sheet_name(value)
+    s = Sheet(name, float(min(w, h)), float(max(w, h)), float(margin_mm))
+    if s.usable_width_mm < MIN_USABLE_MM - 1e-9:
+        raise SheetError(f"'margin_mm' of {margin_mm:g} leaves {s.usable_width_mm:.0f} mm across the "
+                         f"{name}; at least {MIN_USABLE_MM:g} mm are needed for the check bar")
+    return s
+
+
+def sheet(name: str, margin_mm: float = DEFAULT_MARGIN_MM) -> Sheet:
+    """A named sheet (``a4``, ``letter`` ...)."""
+    return make_sheet(name, margin_mm)

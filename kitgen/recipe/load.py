@@ -173,6 +173,11 @@ def _check(key, value, where: str):
         return tuple(dict.fromkeys(value))
     if key.kind == "stars":
         return _check_stars(value, label)
+    if key.kind == "parsed":
+        try:
+            return key.parse(value)
+        except ValueError as exc:
+            raise UserError(f"{label}: {exc}") from None
     raise AssertionError(key.kind)
 
 

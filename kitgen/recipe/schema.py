@@ -11,9 +11,11 @@ from __future__ import annotations
 import datetime as _dt
 import math
 from dataclasses import dataclass, field
-from typing import Any
+from typing import Any, Callable
 
-SHEETS = ("a4", "letter", "a3", "tabloid")
+from ..layout.sheets import DEFAULT_MARGIN_MM, MAX_MARGIN_MM, MIN_MARGIN_MM, SHEET_SIZES_MM, parse_sheet
+
+SHEETS = tuple(SHEET_SIZES_MM)
 PARTS = ("plate", "rete", "mater_front", "mater_back", "rule", "alidade")
 
 #: Limits on the epoch: the Sun's and the precession's series are used
@@ -34,7 +36,7 @@ class StarChoice:
 class Recipe:
     latitude_deg: float
     epoch: int
-    sheet: str = "a4"
+    sheet: str | tuple[float, float] = "a4"  # a name, or (width_mm, height_mm) of a custom sheet
     language: str = "en"
     title: str = ""
     place: str = ""
@@ -45,6 +47,10 @@ class Recipe:
     twilight: bool = True
     unequal_hours: bool = True
     parts: tuple[str, ...] = PARTS
+    margin_mm: float = DEFAULT_MARGIN_MM
+    print_scale: tuple[float, float] = (1.0, 1.0)  # measured print scale (x, y) the kit compensates
+    film_mirror: bool = False
+    duplex: str = "none"
 
 
 def current_year() -> int:
@@ -57,12 +63,15 @@ class Key:
 
     name: str
     attr: str
-    kind: str  # "number", "integer", "string", "choice", "bool", "stars", "parts"
+    kind: str  # "number", "integer", "string", "choice", "bool", "stars", "parts", "parsed"
     help: str
     low: float | None = None
     high: float | None = None
     choices: tuple[str, ...] = ()
     example: Any = None
+    #: For kind "parsed": checks the value and returns it, or raises
+    #: ValueError with a one-line message.
+    parse: Callable[[Any], Any] | None = None
 
 
 KEYS: tuple[Key, ...] = (
@@ -70,7 +79,10 @@ KEYS: tuple[Key, ...] = (
         -90.0, 90.0, example=48.2),
     Key("epoch", "epoch", "integer", f"year of the star places and calendar, {EPOCH_MIN} to {EPOCH_MAX}",
         EPOCH_MIN, EPOCH_MAX, example=2027),
-    Key("sheet", "sheet", "choice", "paper sheet", choices=SHEETS, example="a4"),
+    Key("sheet", "sheet", "parsed", f"paper sheet: {', '.join(SHEETS)}, or {{width_mm: W, height_mm: H}} "
+        "(or width_in, height_in)", choices=SHEETS, example="a4", parse=parse_sheet),
+    Key("margin_mm", "margin_mm", "number", "margin kept clear on every side of the sheet, mm",
+        MIN_MARGIN_MM, MAX_MARGIN_MM, example=DEFAULT_MARGIN_MM),
     Key("language", "language", "string", "language of every printed word (BCP 47 code)", example="en"),
     Key("title", "title", "string", "title printed on the kit", example="Hilltop Science Club"),
     Key("place", "place", "string", "name of the place the plate is drawn for", example="Hilltop"),

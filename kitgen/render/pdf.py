@@ -19,9 +19,10 @@ import io
 from reportlab.lib.units import mm
 from reportlab.pdfgen.canvas import Canvas
 
-from ..layout.pages import (CHECK_BAR_MM, FOOTER_MM, TITLE_PT, Page, check_bar_mm, content_area_mm)
+from ..layout.bounds import element_box_mm, meets, turn_box
+from ..layout.pages import CHECK_BAR_MM, FOOTER_MM, TITLE_PT, Page, check_bar_mm, page_content_mm
 from ..parts.format import latitude_text
-from . import pdf_text, style
+from . import pdf_marks, pdf_text, style
 from .pdf_text import Block
 
 FONT = "KitSans"
@@ -123,17 +124,29 @@ def draw_element(c: Canvas, pen: _Pen, el) -> None:
 
 
 def _draw_placement(c: Canvas, placement, dims, words) -> None:
+    """A placed part, or the window of it that a piece shows (clipped to
+    the window; elements wholly outside it are left out)."""
+    piece = placement.piece
     c.saveState()
     c.translate(placement.x_mm * mm, placement.y_mm * mm)
+    if piece is not None:
+        x0, y0, x1, y1 = piece.window_mm
+        clip = c.beginPath()
+        clip.rect(x0 * mm, y0 * mm, (x1 - x0) * mm, (y1 - y0) * mm)
+        c.clipPath(clip, stroke=0, fill=0)
     if placement.rotation_deg:
         c.rotate(placement.rotation_deg)
     c.setLineCap(0)
     c.setLineJoin(1)
     pen = _Pen(c, dims, words)
     for el in placement.part.elements:
-        draw_element(c, pen, el)
+        if piece is None or meets(turn_box(element_box_mm(el), placement.rotation_deg), piece.window_mm):
+            draw_element(c, pen, el)
     c.restoreState()
-    if placement.part.title:
+    if piece is not None:
+        label = words("tile.piece", name=piece.name, count=words.number(piece.count))
+        pdf_marks.draw_piece_marks(c, placement, words, label)
+    elif placement.part.title:
         x, y = placement.title_at_mm
         c.setFillGray(0.0)
         pdf_text.draw_at_baseline(c, x * mm, y * mm, placement.part.title, TITLE_PT, words, "bold")
@@ -232,30 +245,49 @@ def _story(kit, pages) -> list[Block]:
 
 
 def _instructions(c: Canvas, kit, page: Page, pages) -> None:
-    x0, y0, x1, y1 = content_area_mm(page.sheet, page.landscape)
+    x0, y0, x1, y1 = page_content_mm(page)
     pdf_text.draw_blocks(c, _story(kit, pages), x0, y0, x1, y1, kit.words)
 
 
 # -- the document ----------------------------------------------------------------
+
+def page_transform(c: Canvas, page: Page) -> None:
+    """From the page as it measures in print (mm, the layout's page) to the
+    PDF's page: mirrored left to right for a mirrored film page (so the ink
+    lies under the film once it is turned over), then drawn at 1 / scale in
+    each direction so that a printer that prints at ``print_scale`` gives
+    true sizes."""
+    sx, sy = page.print_scale
+    if page.mirrored:
+        c.transform(-1.0, 0.0, 0.0, 1.0, page.media_mm[0] * mm, 0.0)
+    if (sx, sy) != (1.0, 1.0):
+        c.scale(1.0 / sx, 1.0 / sy)
+
 
 def render_pdf(kit, pages) -> bytes:
     """The kit's pages as one PDF document (bytes)."""
     register_fonts()
     buf = io.BytesIO()
     first = pages[0]
-    c = Canvas(buf, pagesize=(first.width_mm * mm, first.height_mm * mm), invariant=1, pageCompression=1,
+    c = Canvas(buf, pagesize=(first.media_mm[0] * mm, first.media_mm[1] * mm), invariant=1, pageCompression=1,
                initialFontName=FONT, initialFontSize=10, lang=kit.words.language)
     c.setTitle(kit_title(kit))
     c.setSubject(latitude_text(kit.words, kit.recipe.latitude_deg))
     c.setAuthor("")
     c.setCreator("kitgen")
     for page in pages:
-        c.setPageSize((page.width_mm * mm, page.height_mm * mm))
+        media_w, media_h = page.media_mm
+        c.setPageSize((media_w * mm, media_h * mm))
+        c.saveState()
+        page_transform(c, page)
         if page.kind == "instructions":
             _instructions(c, kit, page, pages)
         for placement in page.placements:
             _draw_placement(c, placement, kit.dims, kit.words)
+        for mark in page.marks:
+            pdf_marks.draw_registration(c, mark)
         _footer(c, kit, page)
+        c.restoreState()
         c.showPage()
     c.save()
     return buf.getvalue()

@@ -1,0 +1,162 @@
+"""Cut a part too large for one page into overlapping pieces.
+
+The part's box (in the frame it is placed in: turned, pin at the origin) is
+divided into a grid of equal windows, ``columns`` across and ``rows`` down,
+as few as fit the page, each window overlapping its neighbours by
+:data:`OVERLAP_MM`.  Every piece shows the part's own geometry through its
+window, at the part's own coordinates, so the overlap is printed twice,
+identically.
+
+Assembly (common practice for posters printed in tiles): a piece that is
+not in the first column is cut along its left *seam*, the middle of the
+overlap, and one not in the first row along its top seam; it is then laid
+over its neighbours so that the halves of each alignment mark on the seam
+meet, and taped at the back.  Laid in reading order (A1, B1, ..., A2, B2,
+...), each point of the part shows the last piece laid there, and every
+piece shows the same geometry at that point, so the taped pieces make the
+part exactly.
+
+Pieces are named by column letter and row number, ``A1`` at the top left.
+Lengths in mm.
+"""
+
+from __future__ import annotations
+
+import math
+import string
+from dataclasses import dataclass
+
+#: Overlap (mm) between neighbouring pieces: room for a half alignment mark
+#: on each side of the seam, and for tape.
+OVERLAP_MM = 12.0
+#: Band (mm) above each piece for its title, its name and the assembly map.
+PIECE_BAND_MM = 12.0
+#: Alignment mark: a circle with a cross, centred on the seam.
+MARK_RADIUS_MM = 2.5
+MARK_ARM_MM = 4.0
+#: No seam passes nearer than this (mm) to the pin, so the pin's hole and
+#: the fastener's head sit on whole card.
+PIN_CLEAR_MM = 10.0
+
+
+@dataclass(frozen=True)
+class Piece:
+    """One piece of a tiled part.
+
+    ``window_mm`` is ``(xmin, ymin, xmax, ymax)`` in the part's placed frame
+    (the part turned as placed, its pin at the origin); ``seams_mm`` are the
+    lines the piece is cut along, ``("x", x)`` for a left seam (a vertical
+    line) and ``("y", y)`` for a top seam; ``marks_mm`` the centres of the
+    alignment marks that lie in this piece's window.
+    """
+
+    column: int
+    row: int
+    columns: int
+    rows: int
+    window_mm: tuple[float, float, float, float]
+    seams_mm: tuple[tuple[str, float], ...]
+    marks_mm: tuple[tuple[float, float], ...]
+
+    @property
+    def name(self) -> str:
+        return f"{column_letters(self.column)}{self.row + 1}"
+
+    @property
+    def count(self) -> int:
+        return self.columns * self.rows
+
+    @property
+    def width_mm(self) -> float:
+        return self.window_mm[2] - self.window_mm[0]
+
+    @property
+    def height_mm(self) -> float:
+        return self.window_mm[3] - self.window_mm[1]
+
+
+def column_letters(k: int) -> str:
+    """A, B, ..., Z, AA, AB, ... for columns 0, 1, ..."""
+    letters = string.ascii_uppercase
+    out = ""
+    k += 1
+    while k:
+        k, r = divmod(k - 1, 26)
+        out = letters[r] + out
+    return out
+
+
+def pieces_needed(length_mm: float, room_mm: float, overlap_mm: float = OVERLAP_MM) -> int:
+    """Fewest windows of at most ``room_mm`` that cover ``length_mm`` with
+    ``overlap_mm`` between neighbours."""
+    if length_mm <= room_mm + 1e-9:
+        return 1
+    if room_mm <= overlap_mm:
+        raise ValueError("the page is too small to tile on")
+    return math.ceil((length_mm - overlap_mm) / (room_mm - overlap_mm) - 1e-9)
+
+
+def _spans(lo: float, hi: float, n: int, overlap_mm: float, room_mm: float) -> list[tuple[float, float]]:
+    """``n`` windows from ``lo`` to ``hi``, each overlapping the next by
+    ``overlap_mm``: equal, unless a seam would pass within
+    :data:`PIN_CLEAR_MM` of the pin (the origin); then every seam is moved
+    by the least amount that clears it, the first and last windows taking
+    up the difference, as far as ``room_mm`` allows."""
+    if n == 1:
+        return [(lo, hi)]
+    length = (hi - lo + (n - 1) * overlap_mm) / n
+    step = length - overlap_mm
+    seams = [lo + k * step + overlap_mm / 2.0 for k in range(1, n)]
+    shifts = sorted({0.0} | {side * PIN_CLEAR_MM - sm for sm in seams for side in (1.0, -1.0)}, key=abs)
+    for d in shifts:
+        if all(abs(sm + d) >= PIN_CLEAR_MM - 1e-9 for sm in seams) and length + abs(d) <= room_mm + 1e-9:
+            break
+    else:
+        d = 0.0
+    cuts = [sm + d for sm in seams]
+    starts = [lo] + [c - overlap_mm / 2.0 for c in cuts]
+    ends = [c + overlap_mm / 2.0 for c in cuts] + [hi]
+    return list(zip(starts, ends))
+
+
+def _mark_positions(lo: float, hi: float) -> list[float]:
+    """Where marks go along a seam's free stretch: a quarter of the way in
+    from each end, or the middle of a short stretch."""
+    if hi - lo < 6 * MARK_RADIUS_MM:
+        return [(lo + hi) / 2.0]
+    return [lo + (hi - lo) / 4.0, hi - (hi - lo) / 4.0]
+
+
+def tile(extent_mm, room_w_mm: float, room_h_mm: float, overlap_mm: float = OVERLAP_MM) -> tuple[Piece, ...]:
+    """The pieces of a part whose placed box is ``extent_mm`` (xmin, ymin,
+    xmax, ymax), each window at most ``room_w_mm`` x ``room_h_mm``; in
+    reading order (the top row first, left to right)."""
+    x0, y0, x1, y1 = extent_mm
+    nx = pieces_needed(x1 - x0, room_w_mm, overlap_mm)
+    ny = pieces_needed(y1 - y0, room_h_mm, overlap_mm)
+    xs = _spans(x0, x1, nx, overlap_mm, room_w_mm)
+    ys = list(reversed(_spans(y0, y1, ny, overlap_mm, room_h_mm)))  # row 0 at the top
+    seam_x = [xs[i][0] + overlap_mm / 2.0 for i in range(1, nx)]     # left seam of column i
+    seam_y = [ys[j][1] - overlap_mm / 2.0 for j in range(1, ny)]     # top seam of row j
+    marks = []
+    for i, x in enumerate(seam_x, start=1):
+        for j, (lo, hi) in enumerate(ys):
+            free_lo = lo + (overlap_mm if j < ny - 1 else 0.0)
+            free_hi = hi - (overlap_mm if j > 0 else 0.0)
+            marks += [(x, y) for y in _mark_positions(free_lo, free_hi)]
+    for j, y in enumerate(seam_y, start=1):
+        for i, (lo, hi) in enumerate(xs):
+            free_lo = lo + (overlap_mm if i > 0 else 0.0)
+            free_hi = hi - (overlap_mm if i < nx - 1 else 0.0)
+            marks += [(x, y) for x in _mark_positions(free_lo, free_hi)]
+    out = []
+    for j, (wy0, wy1) in enumerate(ys):
+        for i, (wx0, wx1) in enumerate(xs):
+            seams = []
+            if i > 0:
+                seams.append(("x", seam_x[i - 1]))
+            if j > 0:
+                seams.append(("y", seam_y[j - 1]))
+            inside = tuple(m for m in marks if wx0 - 1e-9 <= m[0] <= wx1 + 1e-9 and wy0 - 1e-9 <= m[1] <= wy1 + 1e-9)
+            out.append(Piece(i, j, nx, ny, (wx0, wy0, wx1, wy1), tuple(seams), inside))
+    return tuple(out)

@@ -1,0 +1,114 @@
+"""Page marks of the PDF that belong to no part: the furniture of a piece
+of a tiled part (its window's frame, the seams to cut along, the alignment
+marks and the band with its title, name and assembly map) and the duplex
+registration marks.  Everything here is black, so that it prints the same
+on every printer and carries no meaning by colour; positions come from the
+layout (:mod:`kitgen.layout.pages`, :mod:`kitgen.layout.tiling`).
+"""
+
+from __future__ import annotations
+
+from reportlab.lib.units import mm
+
+from ..layout.pages import PIECE_LABEL_PT, TITLE_PT, map_cell_mm
+from ..layout.tiling import MARK_ARM_MM, MARK_RADIUS_MM
+from . import pdf_text
+
+#: Line widths (mm) of the marks: thin enough to place precisely, at least
+#: the legible minimum of kitgen.render.style (0.10 mm).
+MARK_LINE_MM = 0.15
+FRAME_LINE_MM = 0.12
+SEAM_LINE_MM = 0.25
+SEAM_DASH_MM = (4.0, 1.0, 0.6, 1.0)  # dash-dot: never mistaken for a dashed fold
+FRAME_GREY = 0.45
+#: Duplex marks: the half length (mm) of the front's scales, their tick
+#: step (mm) and the half length of the back's cross.
+DUPLEX_SCALE_HALF_MM = 5.0
+DUPLEX_TICK_STEP_MM = 0.5
+DUPLEX_CROSS_HALF_MM = 6.0
+
+
+def _line(c, x0, y0, x1, y1) -> None:
+    c.line(x0 * mm, y0 * mm, x1 * mm, y1 * mm)
+
+
+def alignment_mark(c, x_mm: float, y_mm: float) -> None:
+    """A circle with a cross through it, centred on a seam: cut along the
+    seam, each piece keeps half of it, and the halves meet when the pieces
+    lie as they should."""
+    c.circle(x_mm * mm, y_mm * mm, MARK_RADIUS_MM * mm, stroke=1, fill=0)
+    _line(c, x_mm - MARK_ARM_MM, y_mm, x_mm + MARK_ARM_MM, y_mm)
+    _line(c, x_mm, y_mm - MARK_ARM_MM, x_mm, y_mm + MARK_ARM_MM)
+
+
+def draw_piece_marks(c, placement, words, label: str) -> None:
+    """The frame, seams and alignment marks of a piece (page coordinates,
+    the canvas in mm-as-printed), and its band: title, name and map."""
+    piece = placement.piece
+    ox, oy = placement.x_mm, placement.y_mm
+    x0, y0, x1, y1 = placement.box_mm
+    c.saveState()
+    c.setLineCap(0)
+    c.setDash([], 0)
+    c.setLineWidth(FRAME_LINE_MM * mm)
+    c.setStrokeGray(FRAME_GREY)
+    c.rect(x0 * mm, y0 * mm, (x1 - x0) * mm, (y1 - y0) * mm, stroke=1, fill=0)
+    c.setStrokeGray(0.0)
+    c.setLineWidth(SEAM_LINE_MM * mm)
+    c.setDash([d * mm for d in SEAM_DASH_MM], 0)
+    for axis, at in piece.seams_mm:
+        if axis == "x":
+            _line(c, ox + at, y0, ox + at, y1)
+        else:
+            _line(c, x0, oy + at, x1, oy + at)
+    c.setDash([], 0)
+    c.setLineWidth(MARK_LINE_MM * mm)
+    for mx, my in piece.marks_mm:
+        alignment_mark(c, ox + mx, oy + my)
+    # The band: title, then the piece's name and the map of all pieces.
+    c.setFillGray(0.0)
+    tx, ty = placement.title_at_mm
+    pdf_text.draw_at_baseline(c, tx * mm, ty * mm, placement.part.title, TITLE_PT, words, "bold")
+    lx, ly = placement.piece_label_at_mm
+    used_pt = pdf_text.draw_at_baseline(c, lx * mm, ly * mm, label, PIECE_LABEL_PT, words, "body")
+    cell = map_cell_mm(piece)
+    left = lx + used_pt / mm + 2.0
+    top = ly - 0.7 + cell * piece.rows
+    c.setLineWidth(MARK_LINE_MM * mm)
+    for j in range(piece.rows):
+        for i in range(piece.columns):
+            here = (i, j) == (piece.column, piece.row)
+            c.rect((left + i * cell) * mm, (top - (j + 1) * cell) * mm, cell * mm, cell * mm,
+                   stroke=1, fill=1 if here else 0)
+    c.restoreState()
+
+
+def draw_registration(c, mark) -> None:
+    """A duplex mark.  The front carries two short scales crossing at the
+    mark, ticked every 0.5 mm with a longer tick each millimetre; the back,
+    behind it, a plain cross.  Held against the light, the back's cross
+    shows on the front's scales how far the two sides are apart."""
+    x, y = mark.x_mm, mark.y_mm
+    c.saveState()
+    c.setLineCap(0)
+    c.setDash([], 0)
+    c.setStrokeGray(0.0)
+    c.setLineWidth(MARK_LINE_MM * mm)
+    if mark.kind == "duplex_back":
+        h = DUPLEX_CROSS_HALF_MM
+        _line(c, x - h, y, x + h, y)
+        _line(c, x, y - h, x, y + h)
+        c.circle(x * mm, y * mm, 0.6 * mm, stroke=1, fill=0)
+    else:
+        h = DUPLEX_SCALE_HALF_MM
+        _line(c, x - h, y, x + h, y)
+        _line(c, x, y - h, x, y + h)
+        steps = int(round(h / DUPLEX_TICK_STEP_MM))
+        for k in range(-steps, steps + 1):
+            if k == 0:
+                continue
+            d = k * DUPLEX_TICK_STEP_MM
+            t = 0.9 if k % 2 == 0 else 0.45
+            _line(c, x + d, y - t, x + d, y + t)
+            _line(c, x - t, y + d, x + t, y + d)
+    c.restoreState()
