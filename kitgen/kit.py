@@ -16,7 +16,7 @@ from .parts.context import PartContext
 from .parts.dimensions import Dimensions, dimensions
 from .recipe.schema import Recipe
 from .sky.almanac import SkyForKit, sky_for_kit
-from .words.templates import Words, load_words
+from .words.templates import Words, load_words, load_words_file
 
 
 @dataclass(frozen=True)
@@ -34,7 +34,8 @@ class Kit:
 def build_kit(recipe: Recipe) -> Kit:
     """Every part of the kit the recipe describes, as geometry in mm."""
     sky = sky_for_kit(recipe)
-    words = load_words(recipe.language)
+    words = (load_words_file(recipe.language_file, recipe.native_digits) if recipe.language_file
+             else load_words(recipe.language, recipe.native_digits))
     diameter = recipe.diameter_mm or default_diameter_mm(kit_sheet(recipe))
     dims = dimensions(diameter, sky.obliquity_rad)
     ctx = PartContext(recipe, sky, dims, words)

@@ -11,6 +11,7 @@ the edge at the altitude read on the back's scale.
 from __future__ import annotations
 
 from ..geometry import model
+from . import labels
 from .context import PartContext
 from .outline import edge_with_boss
 
@@ -28,10 +29,20 @@ def alidade(ctx: PartContext) -> model.Part:
            model.segment("fiducial", (-half, 0.0), (half, 0.0), "heavy"),
            model.point("pin", (0.0, 0.0), hole="centre"),
            model.point("pin", (half + hole_at, -width / 2), hole="sight"),
-           model.point("pin", (-half - hole_at, -width / 2), hole="sight"),
-           model.text("part_label", (-half * 0.5, -width / 2), w("alidade.title"), d.small_text_pt),
-           model.text("vane_label", (half + vane * 0.25, -width * 0.8), w("alidade.vane"), d.small_text_pt),
-           model.text("vane_label", (-half - vane * 0.25, -width * 0.8), w("alidade.vane"), d.small_text_pt),
-           model.text("caution", (half * 0.45, -width / 2), w("alidade.caution"), d.small_text_pt)]
+           model.point("pin", (-half - hole_at, -width / 2), hole="sight")]
+    # The words keep clear of the pins' crosshairs (PIN_CROSS_HALF_MM in
+    # kitgen.render.style, 2 mm) and of the fold lines: the name on the
+    # left arm, the caution on the right arm, and on each vane, between its
+    # fold and its pinhole, "fold up" set along the fold.
+    m, cross = labels.MARGIN_MM, 2.0
+    arm = half - cross - 2 * m
+    els += labels.fitted_text("part_label", (-(half + cross) / 2, -width / 2), w("alidade.title"),
+                              d.small_text_pt, w, arm, width - 2 * m)
+    els += labels.fitted_text("caution", ((half + cross) / 2, -width / 2), w("alidade.caution"),
+                              d.small_text_pt, w, arm, width - 2 * m)
+    gap = hole_at - cross
+    for sx in (1.0, -1.0):
+        els += labels.fitted_text("vane_label", (sx * (half + gap / 2), -width / 2), w("alidade.vane"),
+                                  d.small_text_pt, w, width - 2 * m, gap - 2 * m, angle_deg=-90.0)
     return model.Part("alidade", "card", tuple(els), (-half - vane - 1, -width - 1, half + vane + 1, width * 0.4 + 1), {},
                       w("alidade.title"))

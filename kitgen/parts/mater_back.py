@@ -13,7 +13,7 @@ from __future__ import annotations
 import math
 
 from ..geometry import model
-from . import curves
+from . import curves, labels
 from .context import PartContext
 
 #: Ratios of height to distance marked on the shadow square; the tangent of
@@ -46,11 +46,16 @@ def mater_back(ctx: PartContext) -> model.Part:
     els += _zodiac_scale(d, w, r_zod, r_alt)
     els += _calendar_scale(ctx, r_cal, r_zod)
     els += _shadow_square(d, w, r_cal)
-    els.append(model.text("title", (0.0, r_cal * 0.55), ctx.recipe.title or w("kit.default_title"), d.title_pt))
-    if ctx.recipe.place:
-        els.append(model.text("place", (0.0, r_cal * 0.40), ctx.recipe.place, d.text_pt))
-    els.append(model.text("epoch", (0.0, r_cal * 0.28), w("mater_back.epoch", year=ctx.recipe.epoch),
-                          d.small_text_pt))
+    # Title, place and epoch inside the calendar ring, each fitted to the
+    # chord of that ring at the far edge of its room.
+    for role, y_frac, h_frac, text, size, style in (
+            ("title", 0.55, 0.22, ctx.recipe.title or w("kit.default_title"), d.title_pt, "bold"),
+            ("place", 0.40, 0.09, ctx.recipe.place, d.text_pt, "label"),
+            ("epoch", 0.28, 0.09, w("mater_back.epoch", year=w.number(ctx.recipe.epoch)), d.small_text_pt, "label")):
+        if text:
+            y, h = r_cal * y_frac, r_cal * h_frac
+            room = 2 * math.sqrt((r_cal - labels.MARGIN_MM) ** 2 - (y + h / 2) ** 2)
+            els += labels.fitted_text(role, (0.0, y), text, size, w, room, h, style=style)
     els.append(model.point("pin", (0.0, 0.0), hole="centre"))
     return model.Part("mater_back", "card", tuple(els), (-R, -R, R, R), {}, w("mater_back.title"))
 
@@ -79,9 +84,13 @@ def _zodiac_scale(d, w, r0, r1):
             stroke = "light" if lon % 5 == 0 else "fine"
         out.append(curves.radial_tick("zodiac_tick", longitude_direction_deg(lon), r0, r0 + length, r0, stroke,
                                       longitude_deg=float(lon)))
+    # The names stand between the tips of the 10-degree ticks (0.4 of the
+    # ring) and the ring's outer edge, within their own 30 degrees.
+    r_label = r0 + 0.70 * ring
     for k in range(12):
-        out.append(curves.ring_text("zodiac_label", signs[k], longitude_direction_deg(30 * k + 15),
-                                    r0 + 0.68 * ring, d.small_text_pt, longitude_deg=30.0 * k + 15.0))
+        out += labels.ring_label("zodiac_label", signs[k], longitude_direction_deg(30 * k + 15), r_label,
+                                 d.small_text_pt, w, labels.chord_mm(r_label, 28.0) - 2 * labels.MARGIN_MM,
+                                 0.6 * ring - 2 * labels.MARGIN_MM, longitude_deg=30.0 * k + 15.0)
     return out
 
 
@@ -89,6 +98,7 @@ def _calendar_scale(ctx, r0, r1):
     d, w = ctx.dims, ctx.words
     out, ring = [], r1 - r0
     months = w.items("calendar.months")
+    short = w.items("calendar.months_short")
     first = {}
     for month, day, lon in ctx.sky.calendar:
         if day == 1:
@@ -102,8 +112,13 @@ def _calendar_scale(ctx, r0, r1):
     for month in range(1, 13):
         a, b = first[month], first[month % 12 + 1]
         mid = a + ((b - a) % 360.0) / 2.0
-        out.append(curves.ring_text("month_label", months[month - 1], longitude_direction_deg(mid),
-                                    r0 + 0.38 * ring, d.small_text_pt, month=month))
+        # Between the ring's inner edge and the tips of the 10-day ticks
+        # (0.42 of the ring from its outer edge), within the month.
+        span = (b - a) % 360.0
+        r_label = r0 + 0.29 * ring
+        out += labels.ring_label("month_label", months[month - 1], longitude_direction_deg(mid), r_label,
+                                 d.small_text_pt, w, labels.chord_mm(r_label, span - 2.0) - 2 * labels.MARGIN_MM,
+                                 0.58 * ring - 2 * labels.MARGIN_MM, short=short[month - 1], month=month)
     return out
 
 
@@ -139,8 +154,10 @@ def _shadow_square(d, w, r_cal):
                 continue
             out.append(model.text("shadow_label", lab, w.number(ratio, _decimals(ratio)), d.small_text_pt,
                                   anchor=anchor, ratio=ratio))
-    out.append(model.text("shadow_caption", (0.0, -L - d.tick_mm * 3.5), w("mater_back.shadow_caption"),
-                          d.small_text_pt))
+    y = -L - d.tick_mm * 3.5
+    room = min(2 * math.sqrt((r_cal - labels.MARGIN_MM) ** 2 - (abs(y) + d.tick_mm) ** 2), 2 * L)
+    out += labels.fitted_text("shadow_caption", (0.0, y), w("mater_back.shadow_caption"), d.small_text_pt, w,
+                              room, 3 * d.tick_mm)
     return out
 
 

@@ -16,7 +16,7 @@ import numpy as np
 from ..geometry import model
 from ..projection.stereographic import (equatorial_vector, hemisphere_sign, horizontal_vector,
                                         project_vectors)
-from . import curves
+from . import curves, labels
 from .context import PartContext
 from .format import latitude_text
 
@@ -158,6 +158,10 @@ def _labels(ctx, phi, s, R, disc, zenith):
             p = project_vectors(equatorial_vector(ha, dec_label), s, R)
             if np.hypot(*p) < disc:
                 out.append(model.text("unequal_hour_label", p, w.number(k), d.small_text_pt, hour=k))
-    out.append(model.text("plate_label", (d.tick_mm, -disc * 0.9), latitude_text(w, ctx.recipe.latitude_deg),
-                          d.text_pt, anchor="start"))
+    # The latitude, from beside the meridian to the edge of the drawing.
+    y = -disc * 0.9
+    h = 2.0 * d.tick_mm
+    room = math.sqrt((disc - labels.MARGIN_MM) ** 2 - (abs(y) + h / 2) ** 2) - d.tick_mm
+    out += labels.fitted_text("plate_label", (d.tick_mm, y), latitude_text(w, ctx.recipe.latitude_deg),
+                              d.text_pt, w, room, h, anchor="start")
     return out

@@ -41,7 +41,9 @@ def rete(ctx: PartContext) -> model.Part:
     ecl_pole = equatorial_vector(-math.radians(270.0), math.pi / 2 - eps)
     image = project_circle(ecl_pole, math.pi / 2, s, R)
     c = np.asarray(image.center_mm)
-    band = max(3.0, 0.09 * image.radius_mm)
+    # The band is wide enough for the names of the divisions below the
+    # ticks' tips at the legible minimum size (5 pt) in every language.
+    band = max(3.5, 0.11 * image.radius_mm)
     els.append(model.circle("ecliptic", c, image.radius_mm, "heavy"))
     els.append(model.circle("ecliptic_band", c, image.radius_mm - band, "light"))
 
@@ -52,31 +54,44 @@ def rete(ctx: PartContext) -> model.Part:
         if lon % 30 == 0:
             length = band
         elif lon % 10 == 0:
-            length = band * 0.55
-        elif lon % 5 == 0:
             length = band * 0.4
+        elif lon % 5 == 0:
+            length = band * 0.3
         else:
-            length = band * 0.22
+            length = band * 0.18
         els.append(model.segment("ecliptic_tick", p, p + u * length, "light" if lon % 5 else "medium",
                                  at=(float(p[0]), float(p[1])), longitude_deg=float(lon)))
     signs = w.items("zodiac.signs")
     mids = ecliptic_points_mm(np.arange(15.0, 360.0, 30.0), eps, s, R)
+    # Each name sits in the inner part of the band, clear of the 10-degree
+    # ticks (0.4 of the band), and within its own 30 degrees.
+    tick_tip = 0.42 * band
+    r_label = image.radius_mm - (tick_tip + band) / 2
     for k, p in enumerate(mids):
         ang = math.degrees(math.atan2(p[1] - c[1], p[0] - c[0]))
-        els.append(curves.ring_text("zodiac_label", signs[k], ang, image.radius_mm - band * 0.62,
-                                    d.small_text_pt, center=tuple(c), longitude_deg=30.0 * k + 15.0))
+        ends = ecliptic_points_mm(np.array([30.0 * k + 1.0, 30.0 * k + 29.0]), eps, s, R)
+        room = float(np.hypot(*(ends[1] - ends[0]))) * r_label / image.radius_mm - 2 * labels.MARGIN_MM
+        els += labels.ring_label("zodiac_label", signs[k], ang, r_label, d.small_text_pt, w, room,
+                                 band - tick_tip - 2 * labels.MARGIN_MM, center=tuple(c),
+                                 longitude_deg=30.0 * k + 15.0)
 
     stars = sorted(ctx.sky.stars, key=lambda st: st.star.mag)
     pts = [project(-math.radians(st.ra_deg), math.radians(st.dec_deg), s, R) for st in stars]
     pin_box = (-2.5, -2.5, 2.5, 2.5)  # the pin's crosshair
-    places = labels.place_labels(pts, [st.star.label for st in stars], d.small_text_pt, d.tick_mm * 1.3,
-                                 keep_out=[pin_box], inside_radius_mm=d.plate_radius_mm,
-                                 keep_out_rings=[(tuple(c), image.radius_mm - band, image.radius_mm)])
-    for placed, p, (at, anchor) in zip(stars, pts, places):
+    names = [w.star_name(st.star.label) for st in stars]
+    zodiac_boxes = [labels.element_box_mm(e, w) for e in els if e.role == "zodiac_label"]
+    places = labels.place_labels(pts, names, d.small_text_pt, d.tick_mm * 1.3,
+                                 keep_out=[pin_box] + zodiac_boxes,
+                                 inside_radius_mm=d.plate_radius_mm - labels.MARGIN_MM,
+                                 keep_out_rings=[(tuple(c), image.radius_mm - band, image.radius_mm)],
+                                 measure=w.measure)
+    for placed, p, name, where in zip(stars, pts, names, places):
         els.append(model.point("star", p, "heavy", name=placed.star.label, ra_deg=placed.ra_deg,
                                dec_deg=placed.dec_deg, mag=placed.star.mag))
-        els.append(model.text("star_label", at, placed.star.label, d.small_text_pt, anchor=anchor,
-                              name=placed.star.label))
+        if where is not None:
+            at, anchor = where
+            els.append(model.text("star_label", at, name, d.small_text_pt, anchor=anchor,
+                                  name=placed.star.label))
     els.append(model.point("pin", (0.0, 0.0), hole="centre"))
     r = d.plate_radius_mm
     return model.Part("rete", "film", tuple(els), (-r, -r, r, r), {}, w("rete.title"))

@@ -8,6 +8,7 @@ The body lies on one side of that edge so the edge itself is a cut line.
 from __future__ import annotations
 
 from ..geometry import model
+from . import labels
 from .context import PartContext
 from .outline import edge_with_boss
 
@@ -25,8 +26,11 @@ def rule(ctx: PartContext) -> model.Part:
     outline = edge + [(-width * 0.35, tip_start), (-width, tip_start * 0.9), (-width, -tail)]
     els = [model.polyline("cut", outline, True, "cut"),
            model.segment("fiducial", (0.0, -tail), (0.0, length), "heavy"),
-           model.point("pin", (0.0, 0.0), hole="centre"),
-           model.text("part_label", (-width * 0.5, tip_start * 0.5), w("rule.title"), d.small_text_pt,
-                      angle_deg=90.0)]
+           model.point("pin", (0.0, 0.0), hole="centre")]
+    # The name runs along the body, from clear of the pin's crosshair (2 mm)
+    # to where the tip starts to narrow.
+    lo, hi = 2.0 + labels.MARGIN_MM, tip_start * 0.9 - labels.MARGIN_MM
+    els += labels.fitted_text("part_label", (-width * 0.5, (lo + hi) / 2), w("rule.title"), d.small_text_pt, w,
+                              hi - lo, width - 2 * labels.MARGIN_MM, angle_deg=90.0)
     return model.Part("rule", "card", tuple(els), (-width - 1.0, -tail - 1.0, boss + 1.0, length + 1.0), {},
                       w("rule.title"))

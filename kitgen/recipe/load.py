@@ -121,6 +121,9 @@ def validate_recipe(tree: dict, source: str = "recipe", lines: dict[str, int] | 
             raise UserError(f"{where}: unknown key '{name}'{hint}")
         key = KEYS_BY_NAME[name]
         values[key.attr] = _check(key, value, where)
+        if key.name == "language_file" and values[key.attr]:
+            from ..words.templates import resolve_language_file
+            values[key.attr] = resolve_language_file(values[key.attr], source, where)
     if "latitude_deg" not in values:
         raise UserError(f"{source}: the key 'latitude' is required (degrees, north positive, -90 to 90)")
     values.setdefault("epoch", current_year())

@@ -50,6 +50,7 @@ class Recipe:
     margin_mm: float = DEFAULT_MARGIN_MM
     print_scale: tuple[float, float] = (1.0, 1.0)  # measured print scale (x, y) the kit compensates
     film_mirror: bool = False
+    film_parts: tuple[str, ...] = ()  # parts printed on film besides the rete
     duplex: str = "none"
 
 
@@ -95,6 +96,11 @@ KEYS: tuple[Key, ...] = (
         example=15),
     Key("diameter_mm", "diameter_mm", "number", "outer diameter of the mater in mm (default: fits the sheet)",
         80.0, 600.0, example=180),
+    Key("film_mirror", "film_mirror", "bool",
+        "print the film pages mirrored, so the ink lies under the film once it is turned over", example=False),
+    Key("film_parts", "film_parts", "parts",
+        "parts printed on transparency film besides the rete (which always is), e.g. [rule]", choices=PARTS,
+        example=[]),
     Key("twilight", "twilight", "bool", "draw the -18 degree twilight limit", example=True),
     Key("unequal_hours", "unequal_hours", "bool", "draw the unequal (temporal) hour curves", example=True),
     Key("parts", "parts", "parts", f"which parts to print, of: {', '.join(PARTS)}", choices=PARTS,

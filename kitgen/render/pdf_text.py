@@ -80,7 +80,7 @@ def draw_line(c, line: Line, x_pt: float, baseline_pt: float, size_pt: float) ->
 
 def draw_text(c, x_mm: float, y_mm: float, string: str, size_pt: float, words, style: str = "label",
               anchor: str = "middle", angle_deg: float = 0.0) -> None:
-    """One line whose middle sits on (x, y) mm, turned ``angle_deg``
+    """One line whose ink's middle sits on (x, y) mm, turned ``angle_deg``
     counter-clockwise; ``anchor`` says where (x, y) falls along the line as
     it is seen: its left end (``start``), middle or right end (``end``)."""
     line = set_line(string, words.script, style, words.rtl)
@@ -91,7 +91,7 @@ def draw_text(c, x_mm: float, y_mm: float, string: str, size_pt: float, words, s
         c.rotate(angle_deg)
     c.setFillGray(0.0)
     x0 = {"start": 0.0, "middle": -w / 2, "end": -w}[anchor]
-    draw_line(c, line, x0, -line.middle_em * size_pt, size_pt)
+    draw_line(c, line, x0, -line.ink_middle_em * size_pt, size_pt)
     c.restoreState()
 
 

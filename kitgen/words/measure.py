@@ -18,9 +18,8 @@ MM_PER_PT = 25.4 / 72.0
 
 @dataclass(frozen=True)
 class Extent:
-    """A line's width and the height of the box, centred on the line's
-    middle, that holds all its ink (mm), and how far the baseline sits
-    below that middle (mm), at one size."""
+    """A line's width and the height of its ink (mm), and how far the
+    baseline sits below the middle of that ink (mm), at one size."""
 
     width_mm: float
     height_mm: float
@@ -29,7 +28,7 @@ class Extent:
 
 def line_extent(line: Line, size_pt: float) -> Extent:
     em = size_pt * MM_PER_PT
-    return Extent(line.width_em * em, 2 * line.half_height_em * em, line.middle_em * em)
+    return Extent(line.width_em * em, 2 * line.half_height_em * em, line.ink_middle_em * em)
 
 
 def extent(text: str, size_pt: float, script: str = "Latn", style: str = "label", rtl: bool = False) -> Extent:

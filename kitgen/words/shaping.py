@@ -71,9 +71,15 @@ class Line:
 
     @property
     def half_height_em(self) -> float:
-        """Half the height of a box centred on the line's middle that
-        holds all its ink."""
-        return max(self.ink_top_em - self.middle_em, self.middle_em - self.ink_bottom_em, 0.0)
+        """Half the height of the line's ink."""
+        return max(self.ink_top_em - self.ink_bottom_em, 0.0) / 2
+
+    @property
+    def ink_middle_em(self) -> float:
+        """Height above the baseline of the middle of the line's ink: a
+        label is set with this point on its place, so that its ink, whatever
+        the script's marks above or below, is centred in its room."""
+        return (self.ink_top_em + self.ink_bottom_em) / 2
 
 
 # -- UAX #9 -------------------------------------------------------------------

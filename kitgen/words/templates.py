@@ -163,29 +163,14 @@ def check_language_file(path) -> dict:
     """Read and check a language file; every problem is one
     :class:`UserError` line (the missing keys all listed).  The file is
     read with YAML's safe loader, so no code runs, and nothing is fetched."""
+    # Read and parsed as a recipe is (size-limited read, so /dev/zero cannot
+    # fill the memory; anchors, tags, merge keys and deep nesting refused
+    # before YAML's safe loader builds anything).
+    from ..recipe.load import read_text_file, safe_yaml
+
     p = Path(path)
-    try:
-        if p.stat().st_size > MAX_LANGUAGE_FILE_BYTES:
-            raise UserError(f"language file {p}: larger than {MAX_LANGUAGE_FILE_BYTES // 1024} KiB")
-        text = p.read_text(encoding="utf-8")
-    except UserError:
-        raise
-    except FileNotFoundError:
-        raise UserError(f"language file {p}: no such file") from None
-    except UnicodeDecodeError:
-        raise UserError(f"language file {p}: not UTF-8 text") from None
-    except OSError as exc:
-        raise UserError(f"language file {p}: cannot read: {exc.strerror}") from None
-    try:
-        for event in yaml.parse(text, Loader=yaml.SafeLoader):
-            if isinstance(event, yaml.AliasEvent) or getattr(event, "anchor", None):
-                raise UserError(f"language file {p}, line {event.start_mark.line + 1}: "
-                                "YAML anchors and aliases (& and *) are not allowed")
-        tree = yaml.safe_load(text)
-    except yaml.YAMLError as exc:
-        mark = getattr(exc, "problem_mark", None)
-        where = f", line {mark.line + 1}" if mark else ""
-        raise UserError(f"language file {p}{where}: not valid YAML") from None
+    text = read_text_file(p, MAX_LANGUAGE_FILE_BYTES, "language file")
+    tree = safe_yaml(text, f"language file {p}", "language file", max_events=50_000)
     check_language_tree(tree, f"language file {p}")
     return tree
 
@@ -238,3 +223,17 @@ def check_language_tree(tree, source: str) -> None:
             if lost:
                 shown = ", ".join(f"U+{ord(c):04X} {unicodedata.name(c, '?')}" for c in sorted(lost))
                 raise UserError(f"{source}: '{key}' has characters no shipped font draws: {shown}")
+
+
+def resolve_language_file(value: str, source: str, where: str) -> str:
+    """The recipe key ``language_file``: a path relative to the recipe's
+    folder (or to the current folder for a recipe that is no file),
+    checked at once so that a bad language file is refused like a bad
+    recipe.  Returns the absolute path."""
+    base = Path(source).parent if Path(source).is_file() else Path.cwd()
+    path = (base / value).resolve()
+    try:
+        check_language_file(path)
+    except UserError as exc:
+        raise UserError(f"{where}: 'language_file': {exc}") from None
+    return str(path)
