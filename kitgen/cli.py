@@ -12,13 +12,19 @@ import sys
 from pathlib import Path
 
 from . import __version__
-from .errors import EXIT_INTERNAL, EXIT_OK, EXIT_USER, UserError
+from .errors import (EXIT_INTERNAL, EXIT_INTERRUPTED, EXIT_OK, EXIT_TERMINATED, EXIT_USER, UserError,
+                     one_line)
 
-EXIT_INTERRUPTED = 130
+
+class _Parser(argparse.ArgumentParser):
+    """argparse, but a mistake on the command line is one line too."""
+
+    def error(self, message):
+        self.exit(EXIT_USER, f"kitgen: error: {one_line(message)} (see {self.prog} --help)\n")
 
 
 def _parser() -> argparse.ArgumentParser:
-    p = argparse.ArgumentParser(prog="kitgen", description="Printable paper astrolabe kits for any latitude.")
+    p = _Parser(prog="kitgen", description="Printable paper astrolabe kits for any latitude.")
     p.add_argument("--version", action="version", version=f"kitgen {__version__}")
     p.add_argument("--debug", action="store_true", help="show a traceback when something fails")
     sub = p.add_subparsers(dest="command", metavar="COMMAND")
@@ -88,12 +94,18 @@ def _cmd_geometry(args) -> int:
     folder = Path(args.output)
     if folder.exists() and not folder.is_dir():
         raise UserError(f"{folder}: is a file; SVG output needs a folder")
-    files = render_svg_files(build_kit(kit_recipe))
+    from .outfile import inside_folder, safe_file_name
+
+    files = {safe_file_name(name): data for name, data in render_svg_files(build_kit(kit_recipe)).items()}
     for name in files:
-        check_target(folder / name, args.force)
-    folder.mkdir(parents=True, exist_ok=True)
+        check_target(folder / name, args.force, (Path(args.recipe),))
+    try:
+        folder.mkdir(parents=True, exist_ok=True)
+    except OSError as exc:
+        from .outfile import write_error
+        raise write_error(folder, exc, "cannot make the folder") from None
     for name, data in files.items():
-        write_atomic(folder / name, data, args.force)
+        write_atomic(inside_folder(folder, name), data, args.force, (Path(args.recipe),))
         print(folder / name)
     return EXIT_OK
 
@@ -132,29 +144,69 @@ def _cmd_stars(args) -> int:
 COMMANDS = {"build": _cmd_build, "geometry": _cmd_geometry, "new": _cmd_new, "stars": _cmd_stars}
 
 
+class _Terminated(BaseException):
+    """Raised by the SIGTERM handler so that a killed build cleans up as an
+    interrupted one does (``write_atomic`` removes its temporary file)."""
+
+
+def _on_sigterm(signum, frame):
+    raise _Terminated()
+
+
 def main(argv=None) -> int:
+    """Run one command; returns the exit status.  ``--debug`` may stand
+    anywhere on the line and lets failures raise with their traceback."""
+    import signal
+
+    argv = list(sys.argv[1:] if argv is None else argv)
+    debug = "--debug" in argv
+    argv = [a for a in argv if a != "--debug"]
     parser = _parser()
     args = parser.parse_args(argv)
     if not args.command:
         parser.print_help(sys.stderr)
         return EXIT_USER
     try:
+        previous = signal.signal(signal.SIGTERM, _on_sigterm)
+    except ValueError:  # not the main thread: leave signals alone
+        previous = None
+    try:
         return COMMANDS[args.command](args)
     except UserError as exc:
-        if args.debug:
+        if debug:
             raise
-        print(f"kitgen: error: {exc}", file=sys.stderr)
+        print(f"kitgen: error: {one_line(exc)}", file=sys.stderr)
         return EXIT_USER
     except KeyboardInterrupt:
-        print("kitgen: interrupted; nothing was written", file=sys.stderr)
+        print("kitgen: interrupted; no file was left half-written", file=sys.stderr)
         return EXIT_INTERRUPTED
+    except _Terminated:
+        print("kitgen: terminated; no file was left half-written", file=sys.stderr)
+        return EXIT_TERMINATED
     except BrokenPipeError:
+        _quiet_stdout()
         return EXIT_OK
     except Exception as exc:  # an internal fault: one line unless --debug
-        if args.debug:
+        if debug:
             raise
-        print(f"kitgen: internal error: {type(exc).__name__}: {exc} (run with --debug for details)", file=sys.stderr)
+        print(one_line(f"kitgen: internal error: {type(exc).__name__}: {exc} (run with --debug for details)"),
+              file=sys.stderr)
         return EXIT_INTERNAL
+    finally:
+        if previous is not None:
+            signal.signal(signal.SIGTERM, previous)
+
+
+def _quiet_stdout() -> None:
+    """After a closed pipe (``kitgen stars | head``), point stdout at the
+    null device so that Python's final flush reports nothing."""
+    import os
+
+    try:
+        devnull = os.open(os.devnull, os.O_WRONLY)
+        os.dup2(devnull, sys.stdout.fileno())
+    except (OSError, ValueError):
+        pass
 
 
 if __name__ == "__main__":

@@ -2,9 +2,10 @@
 
 Accepted: a number (``48.2``, ``-33.9``) or text in degrees, minutes and
 seconds as maps and atlases print them: ``40°26′46″N``, ``40 26 46 N``,
-``40°26.77'N``, ``33.9S``, ``40d26m46sN``, ``-12:30:00``.  The hemisphere
-is an upper-case ``N`` or ``S`` (or the words north / south) at the end; a
-minus sign means south.  A decimal comma (``40,5``) is refused: in a recipe
+``40°26.77'N``, ``33.9S``, ``40d26m46sN``, ``-12:30:00``, ``N 40 26.767``.
+The hemisphere is an upper-case ``N`` or ``S`` (or the words north / south)
+at the end, or a capital ``N`` or ``S`` at the start as GPS receivers write
+it; a minus sign means south.  A decimal comma (``40,5``) is refused: in a recipe
 it cannot be told from a list.
 """
 
@@ -14,6 +15,8 @@ import math
 import re
 
 ACCEPTED_FORMS = "48.2, -33.9, 33.9S, 40 26 46 N, 40°26′46″N, 40d26m46sN"
+#: Longest text read as a latitude (the longest form above is 14 characters).
+MAX_CHARS = 40
 
 _UNIT_MARKS = re.compile(r"[°º˚d:′'’m″\"”s]")
 _NUMBER = r"\d+(?:\.\d+)?"
@@ -23,11 +26,18 @@ class LatitudeError(ValueError):
     pass
 
 
+def _q(value: str) -> str:
+    """The text as the user wrote it, quoted, for a message."""
+    return repr(" ".join(value.split())[:MAX_CHARS])
+
+
 def parse_latitude(value) -> float:
     """Latitude in degrees (north positive) from a number or a written
     form; raises :class:`LatitudeError` with a one-line reason."""
     if isinstance(value, bool):
         raise LatitudeError(f"a latitude is a number or text such as {ACCEPTED_FORMS}")
+    if isinstance(value, int) and abs(value) > 1000:
+        raise LatitudeError(f"the latitude is far outside -90 to 90 degrees; write it as, e.g., {ACCEPTED_FORMS}")
     if isinstance(value, (int, float)):
         if not math.isfinite(value):
             raise LatitudeError(f"the latitude must be a finite number, got {value}")
@@ -35,29 +45,35 @@ def parse_latitude(value) -> float:
     if not isinstance(value, str):
         raise LatitudeError(f"a latitude is a number or text such as {ACCEPTED_FORMS}")
     text = value.strip()
+    if len(text) > MAX_CHARS:
+        raise LatitudeError(f"the text is {len(text)} characters long, too long for a latitude; "
+                            f"write it as, e.g., {ACCEPTED_FORMS}")
     if re.search(r"\d,\d", text):
-        raise LatitudeError(f"'{value}' has a decimal comma; write a decimal point. Accepted forms: {ACCEPTED_FORMS}")
+        raise LatitudeError(f"{_q(value)} has a decimal comma; write a decimal point. Accepted forms: {ACCEPTED_FORMS}")
     hemisphere = 1.0
     m = re.search(r"\s*(N|S|north|south|North|South|NORTH|SOUTH)$", text)
+    if not m:
+        # The hemisphere first, as GPS receivers write it: N 40 26.767, S33.9.
+        m = re.match(r"(N|S)\s*(?=\d)", text)
     if m:
         hemisphere = -1.0 if m.group(1).lower().startswith("s") else 1.0
-        text = text[: m.start()]
+        text = text[: m.start()] + text[m.end():]
     sign = 1.0
     if text.startswith(("-", "+", "−")):
         sign = -1.0 if text[0] in "-−" else 1.0
         text = text[1:]
         if m:
-            raise LatitudeError(f"'{value}' has both a sign and a hemisphere letter; give one of them")
+            raise LatitudeError(f"{_q(value)} has both a sign and a hemisphere letter; give one of them")
     if re.search(r"\d\s*[ns]$", text) and len(re.findall(_NUMBER, text)) < 3:
-        raise LatitudeError(f"'{value}': write the hemisphere as a capital N or S")
+        raise LatitudeError(f"{_q(value)}: write the hemisphere as a capital N or S")
     parts = _UNIT_MARKS.sub(" ", text).split()
     if not 1 <= len(parts) <= 3 or not all(re.fullmatch(_NUMBER, p) for p in parts):
-        raise LatitudeError(f"cannot read '{value}' as a latitude. Accepted forms: {ACCEPTED_FORMS}")
+        raise LatitudeError(f"cannot read {_q(value)} as a latitude. Accepted forms: {ACCEPTED_FORMS}")
     nums = [float(p) for p in parts]
     if any(x >= 60.0 for x in nums[1:]):
-        raise LatitudeError(f"'{value}': minutes and seconds must be less than 60")
+        raise LatitudeError(f"{_q(value)}: minutes and seconds must be less than 60")
     if any(float(p) != int(float(p)) for p in parts[:-1]):
-        raise LatitudeError(f"'{value}': only the last of degrees, minutes, seconds may have decimals")
+        raise LatitudeError(f"{_q(value)}: only the last of degrees, minutes, seconds may have decimals")
     degrees = nums[0] + (nums[1] / 60.0 if len(nums) > 1 else 0.0) + (nums[2] / 3600.0 if len(nums) > 2 else 0.0)
     return _in_range(sign * hemisphere * degrees)
 
