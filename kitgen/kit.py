@@ -7,7 +7,7 @@ gives the same kit, byte for byte, whoever builds it and wherever.
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 
 from .geometry.model import Part
 from .layout.pages import default_diameter_mm, kit_sheet
@@ -31,6 +31,14 @@ class Kit:
         return next(p for p in self.parts if p.kind == kind)
 
 
+def on_material(part: Part, recipe: Recipe) -> Part:
+    """The part on transparency film when the recipe's ``film_parts``
+    lists it (the rete is drawn for film always)."""
+    if part.kind in recipe.film_parts and part.material != "film":
+        return replace(part, material="film")
+    return part
+
+
 def build_kit(recipe: Recipe) -> Kit:
     """Every part of the kit the recipe describes, as geometry in mm."""
     sky = sky_for_kit(recipe)
@@ -39,5 +47,5 @@ def build_kit(recipe: Recipe) -> Kit:
     diameter = recipe.diameter_mm or default_diameter_mm(kit_sheet(recipe))
     dims = dimensions(diameter, sky.obliquity_rad)
     ctx = PartContext(recipe, sky, dims, words)
-    parts = tuple(build(ctx) for kind, build in PART_BUILDERS.items() if kind in recipe.parts)
+    parts = tuple(on_material(build(ctx), recipe) for kind, build in PART_BUILDERS.items() if kind in recipe.parts)
     return Kit(recipe, sky, dims, words, parts)

@@ -38,6 +38,8 @@ class Recipe:
     epoch: int
     sheet: str | tuple[float, float] = "a4"  # a name, or (width_mm, height_mm) of a custom sheet
     language: str = "en"
+    language_file: str = ""        # absolute path of the recipe's own language file, if any
+    native_digits: bool = False
     title: str = ""
     place: str = ""
     stars: StarChoice = field(default_factory=lambda: StarChoice(brightest=32))
@@ -85,6 +87,11 @@ KEYS: tuple[Key, ...] = (
     Key("margin_mm", "margin_mm", "number", "margin kept clear on every side of the sheet, mm",
         MIN_MARGIN_MM, MAX_MARGIN_MM, example=DEFAULT_MARGIN_MM),
     Key("language", "language", "string", "language of every printed word (BCP 47 code)", example="en"),
+    Key("language_file", "language_file", "string",
+        "your own language file, same format as templates/en.yaml, relative to this recipe "
+        "(instead of 'language')", example="my-language.yaml"),
+    Key("native_digits", "native_digits", "bool",
+        "print numbers in the language's own digits (Arabic-Indic for ar, Devanagari for hi)", example=False),
     Key("title", "title", "string", "title printed on the kit", example="Hilltop Science Club"),
     Key("place", "place", "string", "name of the place the plate is drawn for", example="Hilltop"),
     Key("stars", "stars", "stars",

@@ -213,6 +213,17 @@ def _page_list(words, pages, kind) -> tuple[int, str]:
     return len(numbers), words("page.list_separator").join(numbers)
 
 
+def print_notes(kit, pages) -> list[str]:
+    """What the first page says about how the kit was drawn for printing:
+    which side of the film takes the ink."""
+    w = kit.words
+    notes = []
+    film = [p for p in pages if p.kind == "film"]
+    if film:
+        notes.append(w("printing.film_mirrored") if any(p.mirrored for p in film) else w("printing.film_plain"))
+    return notes
+
+
 def _story(kit, pages) -> list[Block]:
     """The instructions page, as paragraphs for pdf_text.draw_blocks."""
     w = kit.words
@@ -232,7 +243,10 @@ def _story(kit, pages) -> list[Block]:
         if n:
             out.append(Block("item", w(key + ("_one" if n == 1 else "_many"), pages=listed), "\u2022"))
     out.append(Block("item", w("instructions.print_scale", length=length, percent=w.number(100)), "\u2022"))
+    out += [Block("item", s, "\u2022") for s in print_notes(kit, pages)]
     out += [Block("heading", w("instructions.cut_heading")), Block("body", w("instructions.cut"))]
+    if any(pl.piece is not None for p in pages for pl in p.placements):
+        out.append(Block("body", w("printing.tiles")))
     out += [Block("heading", w("instructions.stack_heading")), Block("body", w("instructions.stack_intro"))]
     out += numbered("instructions.stack")
     out.append(Block("body", w("instructions.fastener")))
