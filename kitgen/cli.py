@@ -47,6 +47,15 @@ def _parser() -> argparse.ArgumentParser:
     s.add_argument("--name", help="only stars whose name contains this text")
     s.add_argument("--max-mag", type=float, help="only stars at least this bright (magnitude)")
     s.add_argument("--epoch", type=int, help="year of the listed places (default: this year)")
+
+    c = sub.add_parser("calibrate", help="write a page of check bars to measure the printer's scale")
+    c.add_argument("--sheet", default="a4",
+                   help="a5, a4, a3, letter, legal, tabloid, or the sides and unit such as 250x350mm or 9x12in "
+                        "(default: a4)")
+    c.add_argument("--margin", type=float, default=10.0, help="margin kept clear on every side, mm (default: 10)")
+    c.add_argument("--language", default="en", help="language of the words on the page (default: en)")
+    c.add_argument("-o", "--output", help="the PDF to write (default: calibration-SHEET.pdf)")
+    c.add_argument("--force", action="store_true", help="write over an existing file kitgen did not make")
     return p
 
 
@@ -141,7 +150,34 @@ def _cmd_stars(args) -> int:
     return EXIT_OK
 
 
-COMMANDS = {"build": _cmd_build, "geometry": _cmd_geometry, "new": _cmd_new, "stars": _cmd_stars}
+def _cmd_calibrate(args) -> int:
+    from .layout.calibration import calibration_page
+    from .layout.sheets import MAX_MARGIN_MM, MIN_MARGIN_MM, SheetError, make_sheet, parse_sheet_option
+    from .outfile import check_target, write_atomic
+    from .render.calibration_pdf import render_calibration_pdf
+    from .words.templates import load_words
+
+    try:
+        value = parse_sheet_option(args.sheet)
+    except SheetError as exc:
+        raise UserError(f"--sheet: {exc}") from None
+    if not MIN_MARGIN_MM <= args.margin <= MAX_MARGIN_MM:
+        raise UserError(f"--margin is {args.margin:g}, outside {MIN_MARGIN_MM:g} to {MAX_MARGIN_MM:g} mm")
+    try:
+        sheet = make_sheet(value, args.margin)
+    except SheetError as exc:
+        raise UserError(str(exc).replace("'margin_mm'", "--margin")) from None
+    words = load_words(args.language)
+    name = value if isinstance(value, str) else f"{value[0]:g}x{value[1]:g}mm"
+    out = Path(args.output) if args.output else Path(f"calibration-{name}.pdf")
+    check_target(out, args.force)
+    write_atomic(out, render_calibration_pdf(calibration_page(sheet), words), args.force)
+    print(out)
+    return EXIT_OK
+
+
+COMMANDS = {"build": _cmd_build, "geometry": _cmd_geometry, "new": _cmd_new, "stars": _cmd_stars,
+            "calibrate": _cmd_calibrate}
 
 
 class _Terminated(BaseException):

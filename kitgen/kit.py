@@ -44,7 +44,7 @@ def build_kit(recipe: Recipe) -> Kit:
     sky = sky_for_kit(recipe)
     words = (load_words_file(recipe.language_file, recipe.native_digits) if recipe.language_file
              else load_words(recipe.language, recipe.native_digits))
-    diameter = recipe.diameter_mm or default_diameter_mm(kit_sheet(recipe))
+    diameter = recipe.diameter_mm or default_diameter_mm(kit_sheet(recipe), recipe.print_scale)
     dims = dimensions(diameter, sky.obliquity_rad)
     ctx = PartContext(recipe, sky, dims, words)
     parts = tuple(on_material(build(ctx), recipe) for kind, build in PART_BUILDERS.items() if kind in recipe.parts)

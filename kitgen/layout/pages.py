@@ -398,13 +398,13 @@ def kit_sheet(recipe) -> Sheet:
         raise UserError(str(exc)) from None
 
 
-def default_diameter_mm(sheet: Sheet) -> float:
+def default_diameter_mm(sheet: Sheet, scale=(1.0, 1.0)) -> float:
     """The largest mater, in whole 5 mm from 80 to 600 mm, that fits one
-    page of the sheet with its title and 3 mm to spare on each side (room
-    for the cut line's ink and a little misfeed)."""
+    page of the sheet (printed at ``scale``) with its title and 3 mm to
+    spare on each side (room for the cut line's ink and a little misfeed)."""
     room = 0.0
     for landscape in (False, True):
-        x0, y0, x1, y1 = content_area_mm(sheet, landscape)
+        x0, y0, x1, y1 = content_area_mm(sheet, landscape, scale)
         room = max(room, min(x1 - x0, y1 - y0 - TITLE_BAND_MM) - 6.0)
     return float(min(600, max(80, int(room // 5) * 5)))
 

@@ -102,7 +102,7 @@ def parse_sheet(value):
                 v = _number(value[k], k) * factor
                 if not MIN_SIDE_MM - 1e-9 <= v <= MAX_SIDE_MM + 1e-9:
                     low, high = MIN_SIDE_MM / factor, MAX_SIDE_MM / factor
-                    raise SheetError(f"'{k}' is {value[k]:g}, outside {low:g} to {high:g} {unit}")
+                    raise SheetError(f"'{k}' is {value[k]:g}, outside {low:.3g} to {high:.3g} {unit}")
                 sides.append(v)
             return (sides[0], sides[1])
     unknown = sorted(str(k) for k in keys - {"width_mm", "height_mm", "width_in", "height_in"})
@@ -142,3 +142,22 @@ def make_sheet(value, margin_mm: float = DEFAULT_MARGIN_MM) -> Sheet:
 def sheet(name: str, margin_mm: float = DEFAULT_MARGIN_MM) -> Sheet:
     """A named sheet (``a4``, ``letter`` ...)."""
     return make_sheet(name, margin_mm)
+
+
+def parse_sheet_option(text: str):
+    """A sheet given on the command line: a name (``a4``) or the two sides
+    with their unit, ``250x350mm`` or ``9x12in``; checked as
+    :func:`parse_sheet` checks a recipe's value."""
+    t = text.strip().lower().replace(" ", "")
+    for unit in ("mm", "in"):
+        if t.endswith(unit) and "x" in t:
+            w, _, h = t[: -len(unit)].partition("x")
+            try:
+                sides = {f"width_{unit}": float(w), f"height_{unit}": float(h)}
+            except ValueError:
+                break
+            return parse_sheet(sides)
+    if t and t[0].isdigit():
+        raise SheetError(f"cannot read {text!r}; give a name ({', '.join(SHEET_SIZES_MM)}) or the sides "
+                         "and unit, such as 250x350mm or 9x12in")
+    return parse_sheet(text)

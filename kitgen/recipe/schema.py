@@ -13,6 +13,7 @@ import math
 from dataclasses import dataclass, field
 from typing import Any, Callable
 
+from ..layout.scale import parse_print_scale
 from ..layout.sheets import DEFAULT_MARGIN_MM, MAX_MARGIN_MM, MIN_MARGIN_MM, SHEET_SIZES_MM, parse_sheet
 
 SHEETS = tuple(SHEET_SIZES_MM)
@@ -86,6 +87,9 @@ KEYS: tuple[Key, ...] = (
         "(or width_in, height_in)", choices=SHEETS, example="a4", parse=parse_sheet),
     Key("margin_mm", "margin_mm", "number", "margin kept clear on every side of the sheet, mm",
         MIN_MARGIN_MM, MAX_MARGIN_MM, example=DEFAULT_MARGIN_MM),
+    Key("print_scale", "print_scale", "parsed",
+        "the printer's scale measured on `kitgen calibrate`'s page, across (x) and down (y); "
+        "the kit is drawn to make up for it", example={"x": 1.0, "y": 1.0}, parse=parse_print_scale),
     Key("language", "language", "string", "language of every printed word (BCP 47 code)", example="en"),
     Key("language_file", "language_file", "string",
         "your own language file, same format as templates/en.yaml, relative to this recipe "

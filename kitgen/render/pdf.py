@@ -221,7 +221,18 @@ def print_notes(kit, pages) -> list[str]:
     film = [p for p in pages if p.kind == "film"]
     if film:
         notes.append(w("printing.film_mirrored") if any(p.mirrored for p in film) else w("printing.film_plain"))
+    sx, sy = pages[0].print_scale
+    if (sx, sy) != (1.0, 1.0):
+        notes.append(w("printing.scaled", x=_percent(w, sx), y=_percent(w, sy), length=w.number(CHECK_BAR_MM)))
     return notes
+
+
+def _percent(words, factor: float) -> str:
+    """A scale factor as a percentage, with the fewest decimals (up to
+    two) that write it."""
+    p = factor * 100.0
+    decimals = next((d for d in (0, 1) if abs(round(p, d) - p) < 1e-9), 2)
+    return words.number(p, decimals)
 
 
 def _story(kit, pages) -> list[Block]:
