@@ -373,3 +373,20 @@ def test_real_process_internal_fault_and_debug(tmp_path):
                        capture_output=True, text=True, timeout=120)
     assert p.returncode == 1 and "Traceback" in p.stderr and "MemoryError" in p.stderr
     assert sorted(x.name for x in tmp_path.iterdir()) == ["r.yaml"]
+
+
+# -- text that cannot be printed; the starter recipe ------------------------------------------
+
+@pytest.mark.parametrize("title, codes", [("東京", "U+4EAC, U+6771"), ("Club \U0001f52d", "U+1F52D"),
+                                          ("\u038b", "U+038B")])
+def test_title_no_shipped_font_draws(tmp_path, capsys, title, codes):
+    build_fails(tmp_path, capsys, f"latitude: 40\ntitle: '{title}'\n", "line 2",
+                f"'title' has characters that no shipped font draws ({codes})", "remove them")
+
+
+def test_the_starter_recipe_builds(tmp_path, capsys):
+    """`kitgen new` writes every key with its example value; that recipe,
+    as written, must build (an empty list example once made it fail)."""
+    starter = tmp_path / "school.yaml"
+    assert run(["new", "-o", starter], capsys)[0] == 0
+    assert run(["build", starter, "-o", tmp_path / "school.pdf"], capsys)[0] == 0

@@ -1,4 +1,4 @@
-"""Every PDF kitgen writes is a valid PDF for two strict, independent
+"""Every PDF kitgen writes (kits and calibration pages) is a valid PDF for two strict, independent
 parsers: pypdf in strict mode (every object of the cross-reference table
 read, every page's content stream decoded and parsed) and qpdf's
 ``--check`` (the QPDF project's structural and stream check).
@@ -39,6 +39,15 @@ CASES = {
 }
 
 
+#: The calibration page (``kitgen calibrate``), on a named and a custom
+#: sheet and in a right-to-left language.
+CALIBRATIONS = {
+    "calibrate-a4": ["--sheet", "a4"],
+    "calibrate-custom": ["--sheet", "250x350mm", "--margin", "15"],
+    "calibrate-ar": ["--sheet", "letter", "--language", "ar"],
+}
+
+
 @pytest.fixture(scope="module")
 def pdfs(tmp_path_factory) -> dict[str, Path]:
     folder = tmp_path_factory.mktemp("pdfs")
@@ -49,10 +58,14 @@ def pdfs(tmp_path_factory) -> dict[str, Path]:
         pdf = folder / f"{name}.pdf"
         assert main(["build", str(recipe), "-o", str(pdf)]) == 0, name
         out[name] = pdf
+    for name, args in CALIBRATIONS.items():
+        pdf = folder / f"{name}.pdf"
+        assert main(["calibrate", *args, "-o", str(pdf)]) == 0, name
+        out[name] = pdf
     return out
 
 
-@pytest.mark.parametrize("name", CASES)
+@pytest.mark.parametrize("name", [*CASES, *CALIBRATIONS])
 def test_pypdf_strict(pdfs, name):
     data = pdfs[name].read_bytes()
     assert data.startswith(b"%PDF-1.") and data.rstrip().endswith(b"%%EOF")
@@ -61,7 +74,7 @@ def test_pypdf_strict(pdfs, name):
     for generation, numbers in reader.xref.items():
         for number in numbers:
             assert reader.get_object(number) is not None
-    assert len(reader.pages) >= 2
+    assert len(reader.pages) >= (1 if name in CALIBRATIONS else 2)
     for page in reader.pages:
         box = [float(v) for v in page.mediabox]
         assert box[2] > box[0] and box[3] > box[1]
@@ -70,7 +83,7 @@ def test_pypdf_strict(pdfs, name):
     assert reader.metadata.creator == "kitgen"
 
 
-@pytest.mark.parametrize("name", CASES)
+@pytest.mark.parametrize("name", [*CASES, *CALIBRATIONS])
 def test_qpdf_check(pdfs, name):
     qpdf = shutil.which("qpdf")
     if qpdf is None:

@@ -201,7 +201,37 @@ def validate_recipe(tree: dict, source: str = "recipe", lines: dict | None = Non
         raise UserError(f"{source}: the key 'latitude' is required (degrees, north positive, -90 to 90); "
                         "add a line such as 'latitude: 48.2'")
     values.setdefault("epoch", current_year())
+    _check_drawable(values, source, lines)
     return Recipe(**values)
+
+
+#: Recipe keys whose text is printed on the kit.
+_PRINTED_KEYS = ("title", "place")
+
+
+def _check_drawable(values: dict, source: str, lines: dict) -> None:
+    """Refuse printed text (title, place) holding a character that no
+    shipped font of the kit's language draws, in every style it is set in:
+    it would print as an empty box, or not at all."""
+    texts = {k: values.get(KEYS_BY_NAME[k].attr) for k in _PRINTED_KEYS if k in KEYS_BY_NAME}
+    if not any(texts.values()):
+        return
+    from ..words import fonts, locale
+
+    code = values.get("language", "en")
+    if values.get("language_file"):
+        from ..words.templates import check_language_file
+        code = check_language_file(values["language_file"])["language"]
+    script = locale.script(code)
+    for name, text in texts.items():
+        if not text:
+            continue
+        lost = set().union(*(fonts.missing_chars(text, fonts.stack(script, style)) for style in fonts.STYLES))
+        if lost:
+            where = f"{source}, line {lines[name]}" if name in lines else source
+            chars = ", ".join(f"U+{ord(c):04X}" for c in sorted(lost)[:5]) + (" ..." if len(lost) > 5 else "")
+            raise UserError(f"{where}: '{name}' has characters that no shipped font draws ({chars}); "
+                            "remove them or write the text another way")
 
 
 def finite_number(value) -> bool:
@@ -272,8 +302,10 @@ def _check(key, value, where: str):
         if isinstance(value, list) and len(value) > MAX_LIST_ITEMS:
             raise UserError(f"{label}: the list has {len(value)} items; at most {MAX_LIST_ITEMS} "
                             f"(the parts are {', '.join(key.choices)})")
-        if not isinstance(value, list) or not value or not all(isinstance(v, str) for v in value):
+        if not isinstance(value, list) or not all(isinstance(v, str) for v in value):
             raise UserError(f"{label} must be a list of part names ({', '.join(key.choices)})")
+        if not value and key.name == "parts":
+            raise UserError(f"{label} is empty; name at least one of {', '.join(key.choices)}")
         bad = [v for v in value if v not in key.choices]
         if bad:
             raise UserError(f"{label}: unknown part {shown(bad[0])}; parts are {', '.join(key.choices)}")
