@@ -74,8 +74,15 @@ def _cmd_build(args) -> int:
     check_target(out, args.force, (Path(args.recipe),))
     kit = build_kit(load_recipe(args.recipe))
     write_atomic(out, render_pdf(kit, layout_kit(kit)), args.force, (Path(args.recipe),))
+    _print_notes(kit)
     print(out)
     return EXIT_OK
+
+
+def _print_notes(kit) -> None:
+    """Say on stderr what the build thinned to keep every scale legible."""
+    for note in kit.notes:
+        print(f"kitgen: note: {note}", file=sys.stderr)
 
 
 def _cmd_geometry(args) -> int:

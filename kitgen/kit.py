@@ -14,6 +14,7 @@ from .layout.pages import default_diameter_mm, kit_sheet
 from .parts import PART_BUILDERS
 from .parts.context import PartContext
 from .parts.dimensions import Dimensions, dimensions
+from .parts.legibility import plan_scales, shortened_notes
 from .recipe.schema import Recipe
 from .sky.almanac import SkyForKit, sky_for_kit
 from .words.templates import Words, load_words, load_words_file
@@ -26,6 +27,9 @@ class Kit:
     dims: Dimensions
     words: Words
     parts: tuple[Part, ...]
+    #: What the build thinned to keep every scale legible at this size, for
+    #: the command line to tell (kitgen.parts.legibility).
+    notes: tuple[str, ...] = ()
 
     def part(self, kind: str) -> Part:
         return next(p for p in self.parts if p.kind == kind)
@@ -46,6 +50,7 @@ def build_kit(recipe: Recipe) -> Kit:
              else load_words(recipe.language, recipe.native_digits))
     diameter = recipe.diameter_mm or default_diameter_mm(kit_sheet(recipe), recipe.print_scale)
     dims = dimensions(diameter, sky.obliquity_rad)
-    ctx = PartContext(recipe, sky, dims, words)
+    scales = plan_scales(recipe, sky, dims, words)
+    ctx = PartContext(recipe, sky, dims, words, scales)
     parts = tuple(on_material(build(ctx), recipe) for kind, build in PART_BUILDERS.items() if kind in recipe.parts)
-    return Kit(recipe, sky, dims, words, parts)
+    return Kit(recipe, sky, dims, words, parts, scales.notes + shortened_notes(parts, dims))

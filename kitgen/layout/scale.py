@@ -11,6 +11,8 @@ from __future__ import annotations
 
 import math
 
+from ..errors import shown
+
 #: The scales accepted.  "Fit to page" of A4 onto Letter prints at 94 %
 #: (279.4 / 297); a printer that is off by more than 15 % is mismeasured.
 MIN_SCALE, MAX_SCALE = 0.85, 1.15
@@ -24,7 +26,7 @@ def _factor(value, what: str) -> float:
     """One factor; ``what`` names it in messages ('x', 'y' or '' for both)."""
     name = f"'{what}' " if what else ""
     if isinstance(value, bool) or not isinstance(value, (int, float)) or not math.isfinite(value):
-        raise ScaleError(f"{name}must be a number such as 0.97, or {{x: 0.97, y: 0.985}}, got {value!r}")
+        raise ScaleError(f"{name}must be a number such as 0.97, or {{x: 0.97, y: 0.985}}, got {shown(value)}")
     if not MIN_SCALE <= value <= MAX_SCALE:
         raise ScaleError(f"{name}is {value:g}, outside {MIN_SCALE:g} to {MAX_SCALE:g} "
                          "(the length measured divided by the length printed beside the bar)")
@@ -39,7 +41,7 @@ def parse_print_scale(value) -> tuple[float, float]:
         if keys != {"x", "y"}:
             extra = sorted(str(k) for k in keys - {"x", "y"})
             if extra:
-                raise ScaleError(f"unknown key '{extra[0]}'; give x (across) and y (down), e.g. {{x: 0.97, y: 0.985}}")
+                raise ScaleError(f"unknown key {shown(extra[0])}; give x (across) and y (down), e.g. {{x: 0.97, y: 0.985}}")
             raise ScaleError("give both x (across) and y (down), e.g. {x: 0.97, y: 0.985}")
         return (_factor(value["x"], "x"), _factor(value["y"], "y"))
     f = _factor(value, "")

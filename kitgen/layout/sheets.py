@@ -23,6 +23,8 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
+from ..errors import shown
+
 MM_PER_INCH = 25.4  # exact, by the 1959 international yard and pound agreement
 
 #: (width_mm, height_mm) in portrait.
@@ -76,7 +78,7 @@ class Sheet:
 def _number(value, what: str) -> float:
     if isinstance(value, bool) or not isinstance(value, (int, float)) or value != value \
             or value in (float("inf"), float("-inf")):
-        raise SheetError(f"'{what}' must be a number, got {value!r}")
+        raise SheetError(f"'{what}' must be a number, got {shown(value)}")
     return float(value)
 
 
@@ -88,11 +90,11 @@ def parse_sheet(value):
     if isinstance(value, str):
         name = value.strip().lower()
         if name not in SHEET_SIZES_MM:
-            raise SheetError(f"unknown sheet {value!r}; use one of {names}, "
+            raise SheetError(f"unknown sheet {shown(value)}; use one of {names}, "
                              "or {width_mm: W, height_mm: H} (or width_in, height_in)")
         return name
     if not isinstance(value, dict):
-        raise SheetError(f"must be one of {names}, or {{width_mm: W, height_mm: H}}, got {value!r}")
+        raise SheetError(f"must be one of {names}, or {{width_mm: W, height_mm: H}}, got {shown(value)}")
     keys = set(value)
     for unit, factor in (("mm", 1.0), ("in", MM_PER_INCH)):
         wanted = {f"width_{unit}", f"height_{unit}"}
@@ -107,7 +109,7 @@ def parse_sheet(value):
             return (sides[0], sides[1])
     unknown = sorted(str(k) for k in keys - {"width_mm", "height_mm", "width_in", "height_in"})
     if unknown:
-        raise SheetError(f"unknown key '{unknown[0]}' in a custom sheet; give width_mm and height_mm "
+        raise SheetError(f"unknown key {shown(unknown[0])} in a custom sheet; give width_mm and height_mm "
                          "(or width_in and height_in)")
     for unit in ("mm", "in"):
         if keys < {f"width_{unit}", f"height_{unit}"}:
@@ -158,6 +160,6 @@ def parse_sheet_option(text: str):
                 break
             return parse_sheet(sides)
     if t and t[0].isdigit():
-        raise SheetError(f"cannot read {text!r}; give a name ({', '.join(SHEET_SIZES_MM)}) or the sides "
+        raise SheetError(f"cannot read {shown(text)}; give a name ({', '.join(SHEET_SIZES_MM)}) or the sides "
                          "and unit, such as 250x350mm or 9x12in")
     return parse_sheet(text)

@@ -19,7 +19,9 @@ from .outline import edge_with_boss
 def alidade(ctx: PartContext) -> model.Part:
     d, w = ctx.dims, ctx.words
     half = d.mater_radius_mm * 0.99
-    width = max(8.0, 0.10 * d.mater_radius_mm)
+    # At least 10 mm wide, so that "fold up" fits across a vane at 5 pt in
+    # every shipped language (kitgen.parts.legibility's rule: no word cut short).
+    width = max(10.0, 0.10 * d.mater_radius_mm)
     vane = max(14.0, 0.16 * d.mater_radius_mm)
     hole_at = vane * 0.55
     edge = edge_with_boss(-half - vane, half + vane, width * 0.4)

@@ -9,6 +9,7 @@ from ..recipe.schema import Recipe
 from ..sky.almanac import SkyForKit
 from ..words.templates import Words
 from .dimensions import Dimensions
+from .legibility import Scales
 
 
 @dataclass(frozen=True)
@@ -17,3 +18,4 @@ class PartContext:
     sky: SkyForKit
     dims: Dimensions
     words: Words
+    scales: Scales       # what each scale carries at this size (kitgen.parts.legibility)

@@ -3,6 +3,20 @@
 One place holds the proportions, so that every part agrees: the plate fits
 inside the limb, the rete's rim is the outer tropic, the rule reaches the
 hour ring, the alidade spans the back.  Lengths in mm, text sizes in pt.
+
+Text sizes and tick lengths follow the instrument (in proportion to a
+180 mm mater, the A4 default) but never go below a legible minimum:
+
+* text: :data:`MIN_TEXT_PT` = 5 pt, the smallest sans-serif most readers
+  read unaided on a laser print (common practice in print: legal "fine
+  print" rules commonly ask 6 pt or more; 5 pt digits in DejaVu Sans are
+  1.3 mm high); titles at least :data:`MIN_TITLE_PT` = 8 pt;
+* ticks: :data:`MIN_TICK_MM` = 0.8 mm for the shortest tick, some 8 line
+  widths, so a tick reads as a tick and not as a dot.
+
+Line weights follow the same rule in :mod:`kitgen.render.style` (no line
+under 0.10 mm), and scales too fine for the size are thinned by
+:mod:`kitgen.parts.legibility`.
 """
 
 from __future__ import annotations
@@ -13,6 +27,8 @@ from dataclasses import dataclass
 #: Smallest text printed, pt.  Common practice in print: 5 pt sans-serif is
 #: the smallest size most readers can read unaided on a laser print.
 MIN_TEXT_PT = 5.0
+MIN_TITLE_PT = 8.0
+MIN_TICK_MM = 0.8
 
 
 @dataclass(frozen=True)
@@ -27,6 +43,9 @@ class Dimensions:
     small_text_pt: float
     title_pt: float
     tick_mm: float                 # length of a minor tick
+    back_altitude_ring_mm: float   # mater back: inner edge of the altitude scale
+    back_zodiac_ring_mm: float     # mater back: between the ecliptic and the calendar scales
+    back_calendar_ring_mm: float   # mater back: inner edge of the calendar scale
 
     @property
     def scale(self) -> float:
@@ -56,6 +75,9 @@ def dimensions(diameter_mm: float, obliquity_rad: float) -> Dimensions:
         equator_radius_mm=equator,
         text_pt=max(MIN_TEXT_PT, 6.5 * s),
         small_text_pt=max(MIN_TEXT_PT, 5.2 * s),
-        title_pt=max(8.0, 11.0 * s),
-        tick_mm=max(0.8, 1.2 * s),
+        title_pt=max(MIN_TITLE_PT, 11.0 * s),
+        tick_mm=max(MIN_TICK_MM, 1.2 * s),
+        back_altitude_ring_mm=r * 0.90,
+        back_zodiac_ring_mm=r * 0.80,
+        back_calendar_ring_mm=r * 0.68,
     )

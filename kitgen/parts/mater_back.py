@@ -34,18 +34,18 @@ def longitude_direction_deg(longitude_deg: float) -> float:
 def mater_back(ctx: PartContext) -> model.Part:
     d, w = ctx.dims, ctx.words
     R = d.mater_radius_mm
-    r_alt = R * 0.90
-    r_zod = R * 0.80
-    r_cal = R * 0.68
+    r_alt = d.back_altitude_ring_mm
+    r_zod = d.back_zodiac_ring_mm
+    r_cal = d.back_calendar_ring_mm
     els = [model.circle("cut", (0.0, 0.0), R, "cut"),
            model.arc("scale_edge", (0.0, 0.0), r_alt, 0.0, 180.0, "medium"),
            model.circle("scale_edge", (0.0, 0.0), r_zod, "medium"),
            model.circle("scale_edge", (0.0, 0.0), r_cal, "medium"),
            model.segment("scale_edge", (-R, 0.0), (R, 0.0), "light")]
-    els += _altitude_scale(d, w, r_alt, R)
-    els += _zodiac_scale(d, w, r_zod, r_alt)
+    els += _altitude_scale(d, w, r_alt, R, ctx.scales.altitude_tick_deg)
+    els += _zodiac_scale(d, w, r_zod, r_alt, ctx.scales.zodiac_tick_deg)
     els += _calendar_scale(ctx, r_cal, r_zod)
-    els += _shadow_square(d, w, r_cal)
+    els += _shadow_square(d, w, r_cal, ctx.scales.shadow_labels)
     # Title, place and epoch inside the calendar ring, each fitted to the
     # chord of that ring at the far edge of its room.
     for role, y_frac, h_frac, text, size, style in (
@@ -60,20 +60,23 @@ def mater_back(ctx: PartContext) -> model.Part:
     return model.Part("mater_back", "card", tuple(els), (-R, -R, R, R), {}, w("mater_back.title"))
 
 
-def _altitude_scale(d, w, r0, r1):
+def _altitude_scale(d, w, r0, r1, every_deg=1):
+    """The altitude scale; ticks between every ``every_deg`` kept in the
+    geometry but not drawn (thinned at this size, kitgen.parts.legibility)."""
     out, ring = [], r1 - r0
     for alt in range(0, 91):
         length = ring * (0.45 if alt % 10 == 0 else 0.3 if alt % 5 == 0 else 0.16)
+        stroke = ("light" if alt % 5 == 0 else "fine") if alt % every_deg == 0 else "none"
         for ang in {float(alt), 180.0 - alt}:
-            out.append(curves.radial_tick("altitude_tick", ang, r0, r0 + length, r0,
-                                          "light" if alt % 5 == 0 else "fine", altitude_deg=float(alt)))
+            out.append(curves.radial_tick("altitude_tick", ang, r0, r0 + length, r0, stroke,
+                                          altitude_deg=float(alt)))
             if alt % 10 == 0 and alt not in (0, 90):
                 out.append(curves.ring_text("altitude_label", w.number(alt), ang, r0 + 0.72 * ring,
                                             d.small_text_pt, altitude_deg=float(alt)))
     return out
 
 
-def _zodiac_scale(d, w, r0, r1):
+def _zodiac_scale(d, w, r0, r1, every_deg=1):
     out, ring = [], r1 - r0
     signs = w.items("zodiac.signs")
     for lon in range(360):
@@ -82,6 +85,8 @@ def _zodiac_scale(d, w, r0, r1):
         else:
             length = ring * (0.4 if lon % 10 == 0 else 0.28 if lon % 5 == 0 else 0.15)
             stroke = "light" if lon % 5 == 0 else "fine"
+        if lon % every_deg:
+            stroke = "none"  # thinned at this size (kitgen.parts.legibility): kept, not drawn
         out.append(curves.radial_tick("zodiac_tick", longitude_direction_deg(lon), r0, r0 + length, r0, stroke,
                                       longitude_deg=float(lon)))
     # The names stand between the tips of the 10-degree ticks (0.4 of the
@@ -100,6 +105,8 @@ def _calendar_scale(ctx, r0, r1):
     months = w.items("calendar.months")
     short = w.items("calendar.months_short")
     first = {}
+    every = ctx.scales.calendar_tick_days
+    dates = {(m, dd) for m, dd, _ in ctx.sky.calendar}
     for month, day, lon in ctx.sky.calendar:
         if day == 1:
             length, stroke = ring, "medium"
@@ -107,6 +114,12 @@ def _calendar_scale(ctx, r0, r1):
         else:
             length = ring * (0.42 if day % 10 == 0 else 0.3 if day % 5 == 0 else 0.16)
             stroke = "light" if day % 5 == 0 else "fine"
+        # Where daily ticks are too fine for this size (kitgen.parts.legibility)
+        # only every 5th day and the 1st are drawn, but not a month's last
+        # day, a day from the next month's first; the others stay in the
+        # geometry, undrawn.
+        if day != 1 and (day % every or (every > 1 and (month, day + 1) not in dates)):
+            stroke = "none"
         out.append(curves.radial_tick("calendar_tick", longitude_direction_deg(lon), r1 - length, r1, r1, stroke,
                                       month=month, day=day, longitude_deg=lon))
     for month in range(1, 13):
@@ -122,35 +135,41 @@ def _calendar_scale(ctx, r0, r1):
     return out
 
 
-def _shadow_square(d, w, r_cal):
+def shadow_side_mm(dims) -> float:
+    """Side (mm) of each of the two shadow squares."""
+    return dims.back_calendar_ring_mm * 0.62
+
+
+def shadow_mark(d, L, ratio, sx):
+    """A ratio's mark on the shadow square of side ``L`` (``sx`` = 1 for
+    the right-hand square, -1 for the left): the point it marks, the end of
+    its tick, where its number stands and how the number is anchored."""
+    if ratio == 1.0:
+        return ((sx * L, -L), (sx * (L - d.tick_mm * 1.1), -L + d.tick_mm * 1.1),
+                (sx * (L + d.tick_mm * 1.6), -L - d.tick_mm * 1.6), "middle")
+    if ratio < 1.0:
+        return ((sx * L, -L * ratio), (sx * (L - d.tick_mm * 1.5), -L * ratio),
+                (sx * (L - d.tick_mm * 2.2), -L * ratio), "end" if sx > 0 else "start")
+    return ((sx * L / ratio, -L), (sx * L / ratio, -L + d.tick_mm * 1.5), (sx * L / ratio, -L + d.tick_mm * 3.0),
+            "middle")
+
+
+def _shadow_square(d, w, r_cal, labelled=LABELLED_RATIOS):
     """Two shadow squares below the horizontal: the alidade's lower end
     crosses a side where 10 x tan(altitude) (vertical sides) or
     10 / tan(altitude) (horizontal sides) can be read; here every mark is
-    labelled with tan(altitude) itself, the height per unit of distance."""
-    L = r_cal * 0.62
+    labelled with tan(altitude) itself, the height per unit of distance
+    (the ``labelled`` ones: those that fit, kitgen.parts.legibility)."""
+    L = shadow_side_mm(d)
     out = []
     for sx in (1.0, -1.0):
         corner = (sx * L, -L)
         out.append(model.segment("shadow_square", (sx * L, 0.0), corner, "medium"))
         out.append(model.segment("shadow_square", corner, (0.0, -L), "medium"))
         for ratio in SHADOW_RATIOS:
-            if ratio == 1.0:
-                at = (sx * L, -L)
-                tick_end = (sx * (L - d.tick_mm * 1.1), -L + d.tick_mm * 1.1)
-                lab = (sx * (L + d.tick_mm * 1.6), -L - d.tick_mm * 1.6)
-                anchor = "middle"
-            elif ratio < 1.0:
-                at = (sx * L, -L * ratio)
-                tick_end = (sx * (L - d.tick_mm * 1.5), -L * ratio)
-                lab = (sx * (L - d.tick_mm * 2.2), -L * ratio)
-                anchor = "end" if sx > 0 else "start"
-            else:
-                at = (sx * L / ratio, -L)
-                tick_end = (sx * L / ratio, -L + d.tick_mm * 1.5)
-                lab = (sx * L / ratio, -L + d.tick_mm * 3.0)
-                anchor = "middle"
+            at, tick_end, lab, anchor = shadow_mark(d, L, ratio, sx)
             out.append(model.segment("shadow_tick", at, tick_end, "light", at=at, ratio=ratio))
-            if ratio not in LABELLED_RATIOS:
+            if ratio not in labelled:
                 continue
             out.append(model.text("shadow_label", lab, w.number(ratio, _decimals(ratio)), d.small_text_pt,
                                   anchor=anchor, ratio=ratio))

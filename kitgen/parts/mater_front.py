@@ -42,6 +42,8 @@ def mater_front(ctx: PartContext) -> model.Part:
             length, stroke = 0.22 * ring, "light"
         else:
             length, stroke = 0.12 * ring, "fine"
+        if minutes % ctx.scales.hour_tick_minutes:
+            stroke = "none"  # thinned at this size (kitgen.parts.legibility): kept, not drawn
         els.append(curves.radial_tick("hour_tick", hour_angle_deg(hour, s), r_in, r_in + length, r_in, stroke,
                                       hour=hour))
     for hour in range(24):
@@ -50,8 +52,11 @@ def mater_front(ctx: PartContext) -> model.Part:
     deg_ring = r_out - r_mid
     for deg in range(360):
         length = deg_ring * (0.45 if deg % 15 == 0 else 0.28 if deg % 5 == 0 else 0.16)
-        els.append(curves.radial_tick("degree_tick", 90.0 - s * deg, r_mid, r_mid + length, r_mid,
-                                      "light" if deg % 5 == 0 else "fine", degree=deg))
+        stroke = "light" if deg % 5 == 0 else "fine"
+        if deg % ctx.scales.degree_tick_deg:
+            stroke = "none"  # thinned at this size (kitgen.parts.legibility): kept, not drawn
+        els.append(curves.radial_tick("degree_tick", 90.0 - s * deg, r_mid, r_mid + length, r_mid, stroke,
+                                      degree=deg))
         if deg % 15 == 0:
             els.append(curves.ring_text("degree_label", w.number(deg), 90.0 - s * deg, r_mid + 0.7 * deg_ring,
                                         d.small_text_pt, degree=deg))

@@ -16,8 +16,9 @@ import numpy as np
 from ..geometry import model
 from ..projection.stereographic import (equatorial_vector, hemisphere_sign, horizontal_vector,
                                         project_vectors)
-from . import curves, labels
+from . import curves, labels, legibility
 from .context import PartContext
+from .dimensions import MIN_TEXT_PT
 from .format import latitude_text
 
 TWILIGHT_ALTITUDE_DEG = -18.0  # astronomical twilight (common practice; e.g. Explanatory Supplement 1992)
@@ -42,7 +43,7 @@ def plate(ctx: PartContext) -> model.Part:
 
     zenith = horizontal_vector(math.pi / 2, 0.0, phi)
     els += curves.whole_circle("horizon", zenith, math.pi / 2, s, R, disc, "heavy", altitude_deg=0.0)
-    step = ctx.recipe.altitude_step_deg
+    step = ctx.scales.altitude_step_deg
     for alt in np.arange(step, 90.0 - 1e-9, step):
         els += curves.whole_circle("almucantar", zenith, math.radians(90.0 - alt), s, R, disc, "light",
                                    altitude_deg=float(alt))
@@ -50,7 +51,7 @@ def plate(ctx: PartContext) -> model.Part:
         els += curves.whole_circle("twilight", zenith, math.radians(90.0 - TWILIGHT_ALTITUDE_DEG), s, R, disc,
                                    "medium", altitude_deg=TWILIGHT_ALTITUDE_DEG)
     top = 90.0 - max(10.0, step)
-    els += _azimuths(phi, s, R, disc, ctx.recipe.azimuth_step_deg, top)
+    els += _azimuths(phi, s, R, disc, ctx.scales.azimuth_step_deg, top)
     if ctx.recipe.unequal_hours:
         els += _unequal_hours(phi, eps, s, R, disc)
 
@@ -132,13 +133,11 @@ def _labels(ctx, phi, s, R, disc, zenith):
     d, w = ctx.dims, ctx.words
     out = []
     # Almucantar numbers on the meridian, on the noon side of the zenith.
-    step = ctx.recipe.altitude_step_deg
-    label_every = step * max(1, round(10.0 / step))
-    for alt in np.arange(label_every, 90.0 - 1e-9, label_every):
+    step = ctx.scales.altitude_step_deg
+    label_every = legibility.label_every_deg(step)
+    for alt in ctx.scales.almucantar_labels_deg:
         # The number stands just above its circle, clear of the line.
-        lift = min(step, label_every) * 0.45
-        v = horizontal_vector(math.radians(alt + lift), 0.0 if phi < 0 else math.pi, phi)
-        p = project_vectors(v, s, R)
+        p = legibility.almucantar_label_point(alt, step, label_every, phi, s, R)
         if np.all(np.isfinite(p)) and np.hypot(*p) < disc - d.tick_mm:
             out.append(model.text("almucantar_label", (p[0] + d.tick_mm, p[1]), w.number(alt), d.small_text_pt,
                                   anchor="start", altitude_deg=float(alt)))
@@ -158,9 +157,24 @@ def _labels(ctx, phi, s, R, disc, zenith):
             p = project_vectors(equatorial_vector(ha, dec_label), s, R)
             if np.hypot(*p) < disc:
                 out.append(model.text("unequal_hour_label", p, w.number(k), d.small_text_pt, hour=k))
-    # The latitude, from beside the meridian to the edge of the drawing.
-    y = -disc * 0.9
-    h = 2.0 * d.tick_mm
+    # The latitude, from beside the meridian to the edge of the drawing;
+    # raised from 0.9 of the disc's radius where a small plate's chord
+    # there is shorter than the words.
+    # Where even there it is too long for the minimum size, it gets the
+    # height of two lines, so the fitting rule can break it.
+    text = latitude_text(w, ctx.recipe.latitude_deg)
+    h = max(2.0 * d.tick_mm, w.measure(text, d.text_pt).height_mm + 2 * labels.MARGIN_MM)
+    slack = d.tick_mm + 2 * labels.MARGIN_MM + 0.5
+
+    def reach(width_mm):  # how far down a line this long still fits
+        return math.sqrt(max(0.0, (disc - labels.MARGIN_MM) ** 2 - (width_mm + slack) ** 2)) - h / 2
+
+    down = reach(w.measure(text, d.text_pt).width_mm)
+    if down < disc * 0.6 and " " in text:
+        h = max(h, 2.4 * w.measure(text, MIN_TEXT_PT).height_mm)
+        head, _, tail = text.partition(" ")
+        down = reach(max(w.measure(x, MIN_TEXT_PT).width_mm for x in (head, tail)))
+    y = -min(disc * 0.9, max(disc * 0.6, down))
     room = math.sqrt((disc - labels.MARGIN_MM) ** 2 - (abs(y) + h / 2) ** 2) - d.tick_mm
     out += labels.fitted_text("plate_label", (d.tick_mm, y), latitude_text(w, ctx.recipe.latitude_deg),
                               d.text_pt, w, room, h, anchor="start")

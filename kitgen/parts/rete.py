@@ -18,7 +18,7 @@ from ..geometry import model
 from ..projection.circles import project_circle
 from ..projection.stereographic import equatorial_vector, hemisphere_sign, project
 from ..sky.ecliptic import ecliptic_to_equatorial_rad
-from . import curves, labels
+from . import curves, labels, legibility
 from .context import PartContext
 
 
@@ -43,12 +43,13 @@ def rete(ctx: PartContext) -> model.Part:
     c = np.asarray(image.center_mm)
     # The band is wide enough for the names of the divisions below the
     # ticks' tips at the legible minimum size (5 pt) in every language.
-    band = max(3.5, 0.11 * image.radius_mm)
+    band = legibility.ecliptic_band_mm(image.radius_mm, d, w)
     els.append(model.circle("ecliptic", c, image.radius_mm, "heavy"))
     els.append(model.circle("ecliptic_band", c, image.radius_mm - band, "light"))
 
     lons = np.arange(0.0, 360.0, 1.0)
     pts = ecliptic_points_mm(lons, eps, s, R)
+    drawn = set(ctx.scales.ecliptic_ticks_deg)  # 1-degree ticks drawn only where they have room
     for lon, p in zip(lons, pts):
         u = (c - p) / np.linalg.norm(c - p)
         if lon % 30 == 0:
@@ -59,7 +60,8 @@ def rete(ctx: PartContext) -> model.Part:
             length = band * 0.3
         else:
             length = band * 0.18
-        els.append(model.segment("ecliptic_tick", p, p + u * length, "light" if lon % 5 else "medium",
+        stroke = ("light" if lon % 5 else "medium") if int(lon) in drawn else "none"  # "none": kept, not drawn
+        els.append(model.segment("ecliptic_tick", p, p + u * length, stroke,
                                  at=(float(p[0]), float(p[1])), longitude_deg=float(lon)))
     signs = w.items("zodiac.signs")
     mids = ecliptic_points_mm(np.arange(15.0, 360.0, 30.0), eps, s, R)

@@ -51,7 +51,7 @@ def fit_label(text: str, size_pt: float, max_width_mm: float, measure, min_pt: f
         scale = min([1.0] + [max_width_mm / w for w in widths if w > 0])
         if max_height_mm is not None and height > 0:
             scale = min(scale, max_height_mm / height)
-        s = top_pt * scale * 0.999
+        s = top_pt if scale >= 1.0 else top_pt * scale * 0.999
         return min(top_pt, s) if s >= min_pt - 1e-9 else None
 
     s = size_for((text,), size_pt)

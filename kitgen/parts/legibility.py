@@ -1,0 +1,326 @@
+"""Legible at every size: which lines and numbers a scale can carry.
+
+A scale whose lines would come closer together than a printer can keep
+apart, or than an eye can count, is thinned to the next coarser step of a
+fixed ladder (a degree scale goes from every degree to every 5 degrees,
+say), and the build says so in :attr:`Scales.notes`; nothing is made
+silently unreadable.  The rule, in one number:
+
+* :data:`MIN_CLEAR_GAP_MM` = 0.4 mm of clear paper between two neighbouring
+  lines, whatever their own width.  With the thinnest line of 0.10 mm
+  (``kitgen.render.style``) that is a pitch of 0.5 mm, the finest
+  graduation of a common steel rule (half millimetres): the finest scale
+  people are used to reading by eye (common practice).  It also keeps
+  toner and ink, which spread a few hundredths of a millimetre on each side
+  of a line on office printers and more on film (from experience), from
+  closing the gap.
+
+Numbers are thinned the same way: a number that would touch its neighbour
+or sit on the lines (at least :data:`MIN_LABEL_GAP_MM` between their boxes)
+is left out: the almucantars' from the first whose band is too narrow, the
+shadow square's where they would meet.  A label that the fitting rule of
+:mod:`kitgen.words.fit` still has to cut short with "..." at the minimum
+size is named in a note too (:func:`shortened_notes`).
+
+Everything here is a pure function of the recipe, the sky and the sizes,
+computed before the parts are drawn, so every part and the build's notes
+agree.  Lengths in mm; angles in degrees at the edges, radians inside.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+import numpy as np
+
+from ..projection.circles import PlaneCircle, project_circle
+from ..projection.stereographic import hemisphere_sign, horizontal_vector, project_vectors
+from ..render.style import stroke_width_mm
+
+MIN_CLEAR_GAP_MM = 0.4
+MIN_LABEL_GAP_MM = 0.4
+#: The shortest tick drawn anywhere, at the smallest instrument (80 mm):
+#: four times the thinnest line, so that a tick reads as a stroke and not
+#: as a dot (ring ticks are shares of their ring, which grows with the
+#: instrument, so 80 mm is where they are shortest).
+MIN_TICK_DRAWN_MM = 0.4
+
+#: The ladders scales are thinned along; each step keeps every mark of
+#: the coarser ones, so the long ticks stay where they were.
+DEGREE_LADDER = (1, 5, 10)
+DAY_LADDER = (1, 5)
+MINUTE_LADDER = (5, 15, 30, 60)
+ALTITUDE_LADDER = (1, 2, 5, 10, 15, 30)
+AZIMUTH_LADDER = (5, 10, 15, 30, 45, 90)
+#: Almucantars are numbered every 10 degrees (or every step, if coarser).
+ALTITUDE_LABEL_EVERY_DEG = 10.0
+
+
+@dataclass(frozen=True)
+class Scales:
+    """What each scale carries at this size (see the module's rule)."""
+
+    altitude_step_deg: float                  # almucantars drawn
+    almucantar_labels_deg: tuple[float, ...]  # almucantars numbered
+    azimuth_step_deg: float
+    hour_tick_minutes: int                    # mater front: finest hour-ring tick
+    degree_tick_deg: int                      # mater front: finest degree-ring tick
+    altitude_tick_deg: int                    # mater back: altitude scale
+    zodiac_tick_deg: int                      # mater back: ecliptic-longitude scale
+    calendar_tick_days: int                   # mater back: 1 (every day) or 5 (1, 5, 10, ...)
+    ecliptic_ticks_deg: tuple[int, ...]       # rete: longitudes that carry a tick
+    shadow_labels: tuple[float, ...]          # mater back: shadow-square ratios numbered
+    notes: tuple[str, ...] = ()
+
+
+def gap_mm(pitch_mm: float, width_mm: float) -> float:
+    """Clear paper (mm) between neighbouring lines ``pitch_mm`` apart."""
+    return pitch_mm - width_mm
+
+
+def thinned(requested: float, ladder, pitch_per_unit_mm: float, width_mm: float) -> float:
+    """The finest step from ``requested`` up the ladder whose lines leave
+    :data:`MIN_CLEAR_GAP_MM` (steps that are multiples of the requested
+    one first); the coarsest one if none does."""
+    ups = [s for s in ladder if s > requested + 1e-9]
+    steps = [requested] + [s for s in ups if abs(s / requested - round(s / requested)) < 1e-9] + \
+        [s for s in ups if abs(s / requested - round(s / requested)) >= 1e-9]
+    for s in steps:
+        if gap_mm(pitch_per_unit_mm * s, width_mm) >= MIN_CLEAR_GAP_MM - 1e-9:
+            return s
+    return steps[-1]
+
+
+def _fmt(x: float) -> str:
+    return f"{x:g}"
+
+
+# -- the plate --------------------------------------------------------------------
+
+def _almucantar_circles(alts_deg, phi, s, R):
+    zenith = horizontal_vector(math.pi / 2, 0.0, phi)
+    return [project_circle(zenith, math.radians(90.0 - a), s, R) for a in alts_deg]
+
+
+def almucantar_gap_mm(step_deg: float, phi: float, s: int, R: float, disc: float) -> float:
+    """The least distance (mm), inside the drawing disc, between two
+    neighbouring almucantars ``step_deg`` apart (the horizon included),
+    measured from points all round the higher one to the lower one."""
+    alts = [0.0] + list(np.arange(step_deg, 90.0 - 1e-9, step_deg))
+    circles = _almucantar_circles(alts, phi, s, R)
+    t = np.linspace(0.0, 2 * np.pi, 721)
+    best = math.inf
+    for lower, upper in zip(circles, circles[1:]):
+        if not (isinstance(lower, PlaneCircle) and isinstance(upper, PlaneCircle)):
+            continue
+        cx, cy = upper.center_mm
+        px, py = cx + upper.radius_mm * np.cos(t), cy + upper.radius_mm * np.sin(t)
+        inside = np.hypot(px, py) <= disc
+        if not inside.any():
+            continue
+        d = np.abs(np.hypot(px[inside] - lower.center_mm[0], py[inside] - lower.center_mm[1]) - lower.radius_mm)
+        best = min(best, float(d.min()))
+    return best
+
+
+def almucantar_label_point(alt_deg: float, step_deg: float, label_every_deg: float, phi: float, s: int,
+                           R: float):
+    """Where an almucantar's number stands: on the meridian, on the noon
+    side of the zenith, a little above its circle (mm)."""
+    lift = min(step_deg, label_every_deg) * 0.45
+    v = horizontal_vector(math.radians(alt_deg + lift), 0.0 if phi < 0 else math.pi, phi)
+    return project_vectors(v, s, R)
+
+
+def label_every_deg(step_deg: float) -> float:
+    return step_deg * max(1, round(ALTITUDE_LABEL_EVERY_DEG / step_deg))
+
+
+def almucantar_labels(step_deg, phi, s, R, disc, tick_mm, text_height_mm) -> tuple[float, ...]:
+    """The almucantars numbered: every ``label_every_deg`` from the horizon
+    up, each number in the band between its circle and the next one above
+    on the meridian, stopping below the first band narrower than the
+    numbers' height and :data:`MIN_LABEL_GAP_MM` (there the number would sit
+    on the lines)."""
+    every = label_every_deg(step_deg)
+    south = 0.0 if phi < 0 else math.pi
+    out = []
+    for alt in np.arange(every, 90.0 - 1e-9, every):
+        p = almucantar_label_point(alt, step_deg, every, phi, s, R)
+        if not (np.all(np.isfinite(p)) and np.hypot(*p) < disc - tick_mm):
+            continue
+        ends = project_vectors(horizontal_vector(np.radians([alt, min(alt + step_deg, 90.0)]),
+                                                 np.full(2, south), phi), s, R)
+        if abs(ends[1][1] - ends[0][1]) < text_height_mm + MIN_LABEL_GAP_MM:
+            break
+        out.append(float(alt))
+    return tuple(out)
+
+
+def azimuth_gap_mm(step_deg: float, top_deg: float, phi: float, s: int, R: float) -> float:
+    """The least distance (mm) between neighbouring azimuth curves where
+    they end, on the almucantar ``top_deg``, where they come closest."""
+    az = np.radians(np.arange(0.0, 360.0 + step_deg / 2, step_deg))
+    v = horizontal_vector(np.full_like(az, math.radians(top_deg)), az, phi)
+    p = project_vectors(v, s, R)
+    return float(np.min(np.hypot(*(p[1:] - p[:-1]).T)))
+
+
+# -- the whole plan -------------------------------------------------------------------
+
+def plan_scales(recipe, sky, dims, words) -> Scales:
+    """What every scale carries for this recipe at this size, and the notes
+    that say what was thinned."""
+    notes = []
+    size = f"{2 * dims.mater_radius_mm:g} mm"
+    phi = math.radians(recipe.latitude_deg)
+    s = hemisphere_sign(recipe.latitude_deg)
+    R, disc = dims.equator_radius_mm, dims.outer_tropic_radius_mm
+    fine, light = stroke_width_mm("fine", dims), stroke_width_mm("light", dims)
+    text_h = words.measure("0123456789", dims.small_text_pt).height_mm
+
+    # Almucantars: the requested step, coarser where circles would touch.
+    want = float(recipe.altitude_step_deg)
+    step = want
+    for candidate in [want] + [a for a in ALTITUDE_LADDER if a > want]:
+        step = float(candidate)
+        if gap_mm(almucantar_gap_mm(step, phi, s, R, disc), light) >= MIN_CLEAR_GAP_MM - 1e-9:
+            break
+    if step != want:
+        g = almucantar_gap_mm(want, phi, s, R, disc)
+        notes.append(f"plate: almucantars every {_fmt(want)} deg would come {g:.2f} mm apart at {size}; "
+                     f"drawn every {_fmt(step)} deg")
+    labels = almucantar_labels(step, phi, s, R, disc, dims.tick_mm, text_h)
+    every = label_every_deg(step)
+    full = [a for a in np.arange(every, 90.0 - 1e-9, every)
+            if np.hypot(*almucantar_label_point(a, step, every, phi, s, R)) < disc - dims.tick_mm]
+    if labels and len(labels) < len(full):
+        notes.append(f"plate: almucantars numbered up to {_fmt(labels[-1])} deg; higher numbers would overlap "
+                     f"at {size}")
+
+    # Azimuths: end on the almucantar 90 - max(10, step); coarser if they crowd there.
+    top = 90.0 - max(10.0, step)
+    want_az = float(recipe.azimuth_step_deg)
+    az_step = want_az
+    for candidate in [want_az] + [a for a in AZIMUTH_LADDER if a > want_az]:
+        az_step = float(candidate)
+        if gap_mm(azimuth_gap_mm(az_step, top, phi, s, R), fine) >= MIN_CLEAR_GAP_MM - 1e-9:
+            break
+    if az_step != want_az:
+        g = azimuth_gap_mm(want_az, top, phi, s, R)
+        notes.append(f"plate: azimuths every {_fmt(want_az)} deg would come {g:.2f} mm apart at {size}; "
+                     f"drawn every {_fmt(az_step)} deg")
+
+    # The rings of the mater: uniform pitch round each ring.  A fine tick's
+    # neighbour may be a medium one (an hour, a sign, a month's first day):
+    # the gap between them is the pitch less half of each width.
+    fine = (fine + stroke_width_mm("medium", dims)) / 2
+
+    def ring(name, requested, ladder, pitch_per_unit, width, unit):
+        got = thinned(requested, ladder, pitch_per_unit, width)
+        if got != requested:
+            notes.append(f"{name}: ticks every {_fmt(requested)} {unit} would come "
+                         f"{pitch_per_unit * requested:.2f} mm apart at {size}; ticks every {_fmt(got)} {unit}")
+        return int(got)
+
+    hour = ring("mater front hour ring", 5, MINUTE_LADDER, 2 * math.pi * dims.limb_inner_radius_mm / (24 * 60),
+                fine, "min")
+    degree = ring("mater front degree ring", 1, DEGREE_LADDER, 2 * math.pi * dims.hour_ring_outer_mm / 360, fine,
+                  "deg")
+    altitude = ring("mater back altitude scale", 1, DEGREE_LADDER, 2 * math.pi * dims.back_altitude_ring_mm / 360,
+                    fine, "deg")
+    zodiac = ring("mater back ecliptic scale", 1, DEGREE_LADDER, 2 * math.pi * dims.back_zodiac_ring_mm / 360,
+                  fine, "deg")
+    lons = np.array([lon for _, _, lon in sky.calendar])
+    daily = float(np.min(np.diff(np.unwrap(np.radians(lons))))) if len(lons) > 1 else math.radians(0.9533)
+    days = ring("mater back calendar", 1, DAY_LADDER, dims.back_zodiac_ring_mm * abs(daily), fine, "day")
+
+    ecliptic = _ecliptic_ticks(sky, s, R, (light + stroke_width_mm("medium", dims)) / 2)
+    if len(ecliptic) < 360:
+        notes.append(f"rete: {360 - len(ecliptic)} of the 360 one-degree ecliptic ticks left out, where they "
+                     f"would come closer than {MIN_CLEAR_GAP_MM + (light + stroke_width_mm('medium', dims)) / 2:.2f} mm "
+                     f"at {size}; every 5 deg kept")
+
+    shadow = _shadow_labels(dims, words)
+    from .mater_back import LABELLED_RATIOS  # the full set of numbered ratios
+    dropped = [r for r in LABELLED_RATIOS if r not in shadow]
+    if dropped:
+        notes.append("mater back: no number at shadow-square ratio " + ", ".join(_fmt(r) for r in dropped)
+                     + f" (it would overlap its neighbour at {size})")
+    return Scales(step, labels, az_step, hour, degree, altitude, zodiac, days, ecliptic, shadow, tuple(notes))
+
+
+def _ecliptic_ticks(sky, s, R, width_mm) -> tuple[int, ...]:
+    """Rete: every 5 degrees of longitude, and each degree whose tick leaves
+    :data:`MIN_CLEAR_GAP_MM` to both neighbours."""
+    from .rete import ecliptic_points_mm
+
+    pts = ecliptic_points_mm(np.arange(0.0, 361.0, 1.0), sky.obliquity_rad, s, R)
+    d = np.hypot(*(pts[1:] - pts[:-1]).T)          # d[k]: from k to k+1 degrees
+    out = []
+    for lon in range(360):
+        if lon % 5 == 0 or min(d[lon], d[lon - 1]) - width_mm >= MIN_CLEAR_GAP_MM - 1e-9:
+            out.append(lon)
+    return tuple(out)
+
+
+def _shadow_labels(dims, words) -> tuple[float, ...]:
+    """Shadow square: every numbered ratio up its sides (below 1, L / 5
+    apart) and at its corner; along its foot (ratios above 1, at x = L /
+    ratio) from the corner inwards, each number whose box keeps
+    :data:`MIN_LABEL_GAP_MM` from every number kept before it, on both
+    squares (the others are left without a number)."""
+    from .labels import text_box_mm
+    from .mater_back import LABELLED_RATIOS, _decimals, shadow_mark, shadow_side_mm
+
+    L = shadow_side_mm(dims)
+    g = MIN_LABEL_GAP_MM / 2
+
+    def box(ratio, sx):
+        _, _, at, anchor = shadow_mark(dims, L, ratio, sx)
+        b = text_box_mm(at, words.number(ratio, _decimals(ratio)), dims.small_text_pt, anchor, words.measure)
+        return (b[0] - g, b[1] - g, b[2] + g, b[3] + g)
+
+    def meets(a, b):
+        return a[0] < b[2] and b[0] < a[2] and a[1] < b[3] and b[1] < a[3]
+
+    out = [r for r in LABELLED_RATIOS if r <= 1.0]
+    kept = [box(r, sx) for r in out for sx in (1.0, -1.0)]
+    for r in sorted(r for r in LABELLED_RATIOS if r > 1.0):
+        mine = [box(r, sx) for sx in (1.0, -1.0)]
+        if meets(mine[0], mine[1]) or any(meets(m, k) for m in mine for k in kept):
+            continue
+        out.append(r)
+        kept += mine
+    return tuple(sorted(out))
+
+
+#: Rete: the share of the ecliptic band the 10-degree ticks reach into.
+ECLIPTIC_TICK_TIP = 0.42
+
+
+def ecliptic_band_mm(radius_mm: float, dims, words) -> float:
+    """Width (mm) of the rete's ecliptic band: a share of the ecliptic's
+    radius, at least 3.5 mm, and at least enough to hold the tallest sign
+    name at the label size beside the 10-degree ticks, with the labels'
+    margin above and below (kitgen.parts.labels.MARGIN_MM)."""
+    from .labels import MARGIN_MM
+
+    tallest = max(words.measure(name, dims.small_text_pt).height_mm for name in words.items("zodiac.signs"))
+    return max(3.5, 0.11 * radius_mm, (tallest + 2 * MARGIN_MM + 0.05) / (1.0 - ECLIPTIC_TICK_TIP))
+
+
+def shortened_notes(parts, dims) -> tuple[str, ...]:
+    """Notes for the labels that the fitting rule (kitgen.words.fit) had to
+    cut short with "…" because even at the legible minimum they did not fit
+    their room: so that no shortened word goes unsaid."""
+    out = []
+    size = f"{2 * dims.mater_radius_mm:g} mm"
+    for part in parts:
+        cut = sorted({e.values.get("full_text", e.geom["text"]) for e in part.elements
+                      if e.shape == "text" and e.geom["text"].endswith("\u2026")})
+        if cut:
+            out.append(f"{part.kind.replace('_', ' ')}: " + ", ".join(repr(c) for c in cut)
+                       + f" shortened with '...' to fit at {size}")
+    return tuple(out)
