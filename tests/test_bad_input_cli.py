@@ -118,7 +118,7 @@ def test_unknown_key_with_suggestion(tmp_path, capsys):
 
 
 def test_unknown_key_without_a_close_match_lists_the_keys(tmp_path, capsys):
-    build_fails(tmp_path, capsys, "latitude: 40\ncolour: red\n", "unknown key 'colour'", "valid keys:",
+    build_fails(tmp_path, capsys, "latitude: 40\nwallpaper: red\n", "unknown key 'wallpaper'", "valid keys:",
                 "altitude_step_deg")
 
 

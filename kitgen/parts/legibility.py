@@ -236,11 +236,10 @@ def plan_scales(recipe, sky, dims, words) -> Scales:
     daily = float(np.min(np.diff(np.unwrap(np.radians(lons))))) if len(lons) > 1 else math.radians(0.9533)
     days = ring("mater back calendar", 1, DAY_LADDER, dims.back_zodiac_ring_mm * abs(daily), fine, "day")
 
-    ecliptic = _ecliptic_ticks(sky, s, R, (light + stroke_width_mm("medium", dims)) / 2)
+    ecliptic = _ecliptic_ticks(sky, s, R, light, stroke_width_mm("medium", dims))
     if len(ecliptic) < 360:
         notes.append(f"rete: {360 - len(ecliptic)} of the 360 one-degree ecliptic ticks left out, where they "
-                     f"would come closer than {MIN_CLEAR_GAP_MM + (light + stroke_width_mm('medium', dims)) / 2:.2f} mm "
-                     f"at {size}; every 5 deg kept")
+                     f"would leave less than {MIN_CLEAR_GAP_MM:.1f} mm between them at {size}; every 5 deg kept")
 
     shadow = _shadow_labels(dims, words)
     from .mater_back import LABELLED_RATIOS  # the full set of numbered ratios
@@ -251,16 +250,22 @@ def plan_scales(recipe, sky, dims, words) -> Scales:
     return Scales(step, labels, az_step, hour, degree, altitude, zodiac, days, ecliptic, shadow, tuple(notes))
 
 
-def _ecliptic_ticks(sky, s, R, width_mm) -> tuple[int, ...]:
-    """Rete: every 5 degrees of longitude, and each degree whose tick leaves
-    :data:`MIN_CLEAR_GAP_MM` to both neighbours."""
+def _ecliptic_ticks(sky, s, R, light_mm: float, medium_mm: float) -> tuple[int, ...]:
+    """Rete: every 5 degrees of longitude (drawn ``medium``), and each
+    degree between (drawn ``light``) whose tick leaves :data:`MIN_CLEAR_GAP_MM`
+    to both neighbours: their distance less half of each line's width."""
     from .rete import ecliptic_points_mm
 
     pts = ecliptic_points_mm(np.arange(0.0, 361.0, 1.0), sky.obliquity_rad, s, R)
     d = np.hypot(*(pts[1:] - pts[:-1]).T)          # d[k]: from k to k+1 degrees
+
+    def width(lon):
+        return medium_mm if lon % 5 == 0 else light_mm
+
     out = []
     for lon in range(360):
-        if lon % 5 == 0 or min(d[lon], d[lon - 1]) - width_mm >= MIN_CLEAR_GAP_MM - 1e-9:
+        gaps = (d[lon] - (light_mm + width(lon + 1)) / 2, d[lon - 1] - (light_mm + width(lon - 1)) / 2)
+        if lon % 5 == 0 or min(gaps) >= MIN_CLEAR_GAP_MM - 1e-9:
             out.append(lon)
     return tuple(out)
 

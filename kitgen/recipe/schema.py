@@ -54,6 +54,7 @@ class Recipe:
     print_scale: tuple[float, float] = (1.0, 1.0)  # measured print scale (x, y) the kit compensates
     film_mirror: bool = False
     film_parts: tuple[str, ...] = ()  # parts printed on film besides the rete
+    colour: bool = False              # colour accents (kitgen.render.style.ACCENTS)
     duplex: str = "none"
 
 
@@ -112,6 +113,9 @@ KEYS: tuple[Key, ...] = (
     Key("film_parts", "film_parts", "parts",
         "parts printed on transparency film besides the rete (which always is), e.g. [rule]", choices=PARTS,
         example=[]),
+    Key("colour", "colour", "bool",
+        "colour accents on the ecliptic, horizon, tropics and unequal hours (nothing depends on colour alone)",
+        example=False),
     Key("twilight", "twilight", "bool", "draw the -18 degree twilight limit", example=True),
     Key("unequal_hours", "unequal_hours", "bool", "draw the unequal (temporal) hour curves", example=True),
     Key("parts", "parts", "parts", f"which parts to print, of: {', '.join(PARTS)}", choices=PARTS,

@@ -49,20 +49,27 @@ def kit_title(kit) -> str:
 # -- parts ---------------------------------------------------------------------
 
 class _Pen:
-    """Sets the canvas's line style for a stroke class, only when it changes
-    (a part has thousands of elements in a few classes)."""
+    """Sets the canvas's line style for a stroke class (and, in a colour
+    kit, the role's accent), only when it changes (a part has thousands of
+    elements in a few classes)."""
 
-    def __init__(self, c: Canvas, dims, words=None):
-        self.c, self.dims, self.current, self.words = c, dims, None, words
+    def __init__(self, c: Canvas, dims, words=None, colour: bool = False):
+        self.c, self.dims, self.current, self.words, self.colour = c, dims, None, words, colour
 
-    def use(self, stroke: str) -> None:
-        if stroke == self.current:
+    def use(self, stroke: str, role: str = "") -> None:
+        ink = style.line_colour(stroke, role, self.colour)
+        if (stroke, ink) == self.current:
             return
-        st = style.stroke_style(stroke, self.dims)
-        self.c.setLineWidth(st.width_mm * mm)
-        self.c.setStrokeGray(st.grey)
-        self.c.setDash([d * mm for d in st.dash_mm] if st.dash_mm else [], 0)
-        self.current = stroke
+        if self.current is None or stroke != self.current[0]:
+            st = style.stroke_style(stroke, self.dims)
+            self.c.setLineWidth(st.width_mm * mm)
+            self.c.setDash([d * mm for d in st.dash_mm] if st.dash_mm else [], 0)
+        if self.current is None or ink != self.current[1]:
+            if ink[0] == "rgb":
+                self.c.setStrokeColorRGB(*ink[1])
+            else:
+                self.c.setStrokeGray(ink[1])
+        self.current = (stroke, ink)
 
 
 def _text(c: Canvas, x_mm, y_mm, string, size_pt, words, text_style, anchor="middle", angle_deg=0.0) -> None:
@@ -98,7 +105,7 @@ def draw_element(c: Canvas, pen: _Pen, el) -> None:
         return
     if el.stroke == "none":
         return
-    pen.use(el.stroke)
+    pen.use(el.stroke, el.role)
     if el.shape == "circle":
         cx, cy = g["center"]
         c.circle(cx * mm, cy * mm, g["radius"] * mm, stroke=1, fill=0)
@@ -123,7 +130,7 @@ def draw_element(c: Canvas, pen: _Pen, el) -> None:
         c.drawPath(p, stroke=1, fill=0)
 
 
-def _draw_placement(c: Canvas, placement, dims, words) -> None:
+def _draw_placement(c: Canvas, placement, dims, words, colour: bool = False) -> None:
     """A placed part, or the window of it that a piece shows (clipped to
     the window; elements wholly outside it are left out)."""
     piece = placement.piece
@@ -138,7 +145,7 @@ def _draw_placement(c: Canvas, placement, dims, words) -> None:
         c.rotate(placement.rotation_deg)
     c.setLineCap(0)
     c.setLineJoin(1)
-    pen = _Pen(c, dims, words)
+    pen = _Pen(c, dims, words, colour)
     for el in placement.part.elements:
         if piece is None or meets(turn_box(element_box_mm(el), placement.rotation_deg), piece.window_mm):
             draw_element(c, pen, el)
@@ -215,9 +222,10 @@ def _page_list(words, pages, kind) -> tuple[int, str]:
 
 def print_notes(kit, pages) -> list[str]:
     """What the first page says about how the kit was drawn for printing:
-    which side of the film takes the ink."""
+    for grey-scale or colour, which side of the film takes the ink, for
+    which print scale."""
     w = kit.words
-    notes = []
+    notes = [w("printing.colour") if kit.recipe.colour else w("printing.greyscale")]
     film = [p for p in pages if p.kind == "film"]
     if film:
         notes.append(w("printing.film_mirrored") if any(p.mirrored for p in film) else w("printing.film_plain"))
@@ -308,7 +316,7 @@ def render_pdf(kit, pages) -> bytes:
         if page.kind == "instructions":
             _instructions(c, kit, page, pages)
         for placement in page.placements:
-            _draw_placement(c, placement, kit.dims, kit.words)
+            _draw_placement(c, placement, kit.dims, kit.words, kit.recipe.colour)
         for mark in page.marks:
             pdf_marks.draw_registration(c, mark)
         _footer(c, kit, page)

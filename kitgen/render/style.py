@@ -24,8 +24,16 @@ times their A4 widths (a 360 mm mater) and then stay: a 0.7 mm heavy line
 reads across a classroom, and a blade follows a thin cut line more
 closely than a thick one.  Every class keeps its rank at every size.
 
-Everything is drawn in black or grey; no meaning is carried by colour, so a
-greyscale print or a photocopy loses nothing.
+By default everything is drawn in black or grey.  The recipe may ask for
+``colour: true``: then a few families of lines get an accent of kitgen's
+own (:data:`ACCENTS`): the ecliptic a brick red, the horizon and twilight
+a deep blue, the tropics and equator a pine green, the unequal hours a
+plum.  Each accent is dark, with a contrast of at least 4.5 : 1 against
+white paper (WCAG 2.1's relative luminance and its AA ratio for text), so
+that a grey-scale print of a colour kit still shows every line dark; and
+the accents only repeat what the lines already say by their weight, dash,
+shape and labels.  Nothing depends on colour alone: a grey-scale print or
+a photocopy loses nothing.
 """
 
 from __future__ import annotations
@@ -53,6 +61,18 @@ FOLD_DASH_MM = (2.5, 1.5)
 #: dark grey so that dense networks (azimuths, unequal hours) stay readable
 #: under the heavier lines; still dark enough to print on film.
 _GREY = {"fine": 0.25}
+
+#: The colour scheme (sRGB, 0..1) by role, used only with ``colour: true``.
+ACCENTS = {
+    "ecliptic": (0.627, 0.157, 0.176),       # brick red, #A0282D
+    "ecliptic_band": (0.627, 0.157, 0.176),
+    "ecliptic_tick": (0.627, 0.157, 0.176),
+    "horizon": (0.122, 0.306, 0.549),        # deep blue, #1F4E8C
+    "twilight": (0.122, 0.306, 0.549),
+    "tropic": (0.180, 0.420, 0.227),         # pine green, #2E6B3A
+    "equator": (0.180, 0.420, 0.227),
+    "unequal_hour": (0.420, 0.227, 0.478),   # plum, #6B3A7A
+}
 
 #: Pin marks (mm, fixed sizes) and the smallest dot drawn (mm).
 PIN_CROSS_HALF_MM = 2.0
@@ -84,6 +104,22 @@ def stroke_style(stroke: str, dims) -> Stroke:
     s = _scale(dims)
     dash = tuple(max(0.5, d * s) for d in FOLD_DASH_MM) if stroke == "fold" else ()
     return Stroke(stroke_width_mm(stroke, dims), dash, _GREY.get(stroke, 0.0))
+
+
+def line_colour(stroke: str, role: str, colour: bool):
+    """The colour of a line: ``("grey", level)`` or ``("rgb", (r, g, b))``;
+    an accent only in a colour kit, and never on cut or fold lines."""
+    if colour and stroke not in ("cut", "fold") and role in ACCENTS:
+        return ("rgb", ACCENTS[role])
+    return ("grey", _GREY.get(stroke, 0.0))
+
+
+def relative_luminance(rgb) -> float:
+    """WCAG 2.1 relative luminance of an sRGB colour (0..1 channels)."""
+    def lin(c):
+        return c / 12.92 if c <= 0.04045 else ((c + 0.055) / 1.055) ** 2.4
+    r, g, b = (lin(c) for c in rgb)
+    return 0.2126 * r + 0.7152 * g + 0.0722 * b
 
 
 def star_radius_mm(mag: float, dims) -> float:

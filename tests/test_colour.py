@@ -1,0 +1,94 @@
+"""Grey-scale safe, with an optional colour scheme: the colour kit is the
+grey kit with colours added and nothing else, every colour and grey dark
+enough to survive a grey-scale print, and the first page says which the
+kit was drawn for.
+
+Colour operators are those of ISO 32000-1:2008, 8.6.8 (G, g, RG, rg, K, k,
+CS, cs, SC, sc, SCN, scn); darkness is WCAG 2.1's relative luminance and
+contrast ratio (its AA level asks 4.5 : 1 for text).
+"""
+
+from __future__ import annotations
+
+import io
+
+import pytest
+
+pypdf = pytest.importorskip("pypdf")
+from pypdf.generic import ContentStream  # noqa: E402
+
+from kitgen.kit import build_kit  # noqa: E402
+from kitgen.layout.pages import layout_kit  # noqa: E402
+from kitgen.recipe.load import parse_recipe_text  # noqa: E402
+from kitgen.render.pdf import render_pdf  # noqa: E402
+
+COLOUR_OPS = {"G", "g", "RG", "rg", "K", "k", "CS", "cs", "SC", "sc", "SCN", "scn"}
+RECIPE = "latitude: 52.2\nepoch: 2027\nsheet: a4\ntitle: Larkspur Valley School\n"
+
+
+def wcag_luminance(r, g, b) -> float:
+    """WCAG 2.1, "relative luminance": sRGB channels linearised, then
+    0.2126 R + 0.7152 G + 0.0722 B."""
+    def lin(c):
+        return c / 12.92 if c <= 0.03928 else ((c + 0.055) / 1.055) ** 2.4
+    return 0.2126 * lin(r) + 0.7152 * lin(g) + 0.0722 * lin(b)
+
+
+def contrast_on_white(lum: float) -> float:
+    """WCAG 2.1 contrast ratio (L1 + 0.05) / (L2 + 0.05), white L = 1."""
+    return 1.05 / (lum + 0.05)
+
+
+class Printed:
+    def __init__(self, extra: str):
+        self.kit = build_kit(parse_recipe_text(RECIPE + extra))
+        self.pages = layout_kit(self.kit)
+        self.reader = pypdf.PdfReader(io.BytesIO(render_pdf(self.kit, self.pages)))
+        self.ops = [[(op.decode(), [float(v) if isinstance(v, (int, float)) else v for v in operands])
+                     for operands, op in ContentStream(p.get_contents(), self.reader).operations]
+                    for p in self.reader.pages]
+
+    def text(self, k=0):
+        return " ".join(self.reader.pages[k].extract_text().replace("\u2022", " ").split())
+
+
+@pytest.fixture(scope="module")
+def grey():
+    return Printed("colour: false\n")
+
+
+@pytest.fixture(scope="module")
+def colour():
+    return Printed("colour: true\n")
+
+
+def test_the_grey_kit_uses_greys_only_and_dark_ones(grey):
+    for page in grey.ops:
+        for op, args in page:
+            assert op not in ("RG", "rg", "K", "k", "CS", "cs", "SC", "sc", "SCN", "scn"), op
+            if op in ("G", "g"):
+                assert contrast_on_white(wcag_luminance(*[args[0]] * 3)) >= 4.5, args
+
+
+def test_the_colour_kit_has_dark_colours(colour):
+    colours = {tuple(args) for page in colour.ops for op, args in page if op in ("RG", "rg")}
+    assert len(colours) >= 3
+    for rgb in colours:
+        assert contrast_on_white(wcag_luminance(*rgb)) >= 4.5, rgb
+
+
+def test_nothing_depends_on_colour_alone(grey, colour):
+    """Take the colour operators out of both kits' pages: what is left (every
+    path, width, dash and word, page by page, the first page's sentence
+    about grey-scale or colour aside) is the same, so the colour kit printed
+    in grey shows all that the grey kit does."""
+    assert len(grey.ops) == len(colour.ops)
+    for k, (a, b) in enumerate(zip(grey.ops, colour.ops)):
+        if k == 0:
+            continue
+        assert [x for x in a if x[0] not in COLOUR_OPS] == [x for x in b if x[0] not in COLOUR_OPS], k
+
+
+def test_the_first_page_says_grey_scale_or_colour(grey, colour):
+    assert "Drawn for grey-scale printing" in grey.text() and "colour printing" not in grey.text()
+    assert "Drawn for colour printing" in colour.text() and "grey-scale printing:" not in colour.text()
