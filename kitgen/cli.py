@@ -56,6 +56,12 @@ def _parser() -> argparse.ArgumentParser:
     c.add_argument("--language", default="en", help="language of the words on the page (default: en)")
     c.add_argument("-o", "--output", help="the PDF to write (default: calibration-SHEET.pdf)")
     c.add_argument("--force", action="store_true", help="write over an existing file kitgen did not make")
+
+    v = sub.add_parser("preview", help="write a PNG picture of every page of the kit, to look at before printing")
+    v.add_argument("recipe", help="the recipe file (YAML)")
+    v.add_argument("-o", "--output", required=True, help="the folder to write the pictures into")
+    v.add_argument("--dpi", type=float, default=100.0, help="resolution, dots per inch, 30 to 300 (default: 100)")
+    v.add_argument("--force", action="store_true", help="write over existing files kitgen did not make")
     return p
 
 
@@ -183,8 +189,36 @@ def _cmd_calibrate(args) -> int:
     return EXIT_OK
 
 
+def _cmd_preview(args) -> int:
+    from .kit import build_kit
+    from .layout.pages import layout_kit
+    from .outfile import check_target, inside_folder, write_atomic
+    from .recipe.load import load_recipe
+    from .render.pdf import render_pdf
+    from .render.preview import MAX_DPI, MIN_DPI, render_previews
+
+    if not MIN_DPI <= args.dpi <= MAX_DPI:
+        raise UserError(f"--dpi is {args.dpi:g}, outside {MIN_DPI:g} to {MAX_DPI:g}")
+    folder = Path(args.output)
+    if folder.exists() and not folder.is_dir():
+        raise UserError(f"{folder}: is a file; the pictures need a folder")
+    kit = build_kit(load_recipe(args.recipe))
+    pages = layout_kit(kit)
+    pictures = render_previews(render_pdf(kit, pages), args.dpi)
+    digits = max(2, len(str(len(pictures))))
+    names = [f"{Path(args.recipe).stem}-page-{k:0{digits}d}.png" for k in range(1, len(pictures) + 1)]
+    for name in names:
+        check_target(folder / name, args.force, (Path(args.recipe),))
+    folder.mkdir(parents=True, exist_ok=True)
+    _print_notes(kit)
+    for name, data in zip(names, pictures):
+        write_atomic(inside_folder(folder, name), data, args.force, (Path(args.recipe),))
+        print(folder / name)
+    return EXIT_OK
+
+
 COMMANDS = {"build": _cmd_build, "geometry": _cmd_geometry, "new": _cmd_new, "stars": _cmd_stars,
-            "calibrate": _cmd_calibrate}
+            "calibrate": _cmd_calibrate, "preview": _cmd_preview}
 
 
 class _Terminated(BaseException):
