@@ -377,9 +377,15 @@ def _duplex_pages(front: Part, back: Part, sheet: Sheet, scale, mode: str):
         bx, by, rot = w - cx, cy, 0.0
     else:
         bx, by, rot = cx, h - cy, 180.0
+    # The marks go near the corners of the content area, where both a mark
+    # and its mirror image on the other side keep clear of the margins and
+    # the footer.
+    i = REGISTRATION_INSET_MM
+    xs = (max(ax0 + i, w - ax1 + i), min(ax1 - i, w - ax0 - i))
+    ys = (max(ay0 + i, h - ay1 + i), min(ay1 - i, h - ay0 - i))
     fronts = []
-    for x in (ax0 + REGISTRATION_INSET_MM, ax1 - REGISTRATION_INSET_MM):
-        for y in (ay0 + REGISTRATION_INSET_MM, ay1 - REGISTRATION_INSET_MM):
+    for x in xs:
+        for y in ys:
             if math.hypot(x - cx, y - cy) >= r + REGISTRATION_CLEAR_MM:
                 fronts.append((x, y))
     backs = [(w - x, y) if mode == "long_edge" else (x, h - y) for x, y in fronts]
@@ -420,7 +426,10 @@ def layout_kit(kit) -> tuple[Page, ...]:
     drafts: list[tuple] = [("instructions", False, (), (), "")]
     card = [p for p in kit.parts if p.material == "card"]
     kinds = {p.kind for p in card}
-    if recipe.duplex != "none" and {"mater_front", "mater_back"} <= kinds:
+    if recipe.duplex != "none" and not {"mater_front", "mater_back"} <= kinds:
+        raise UserError("'duplex' prints the mater's front and back on one sheet of card: keep both in 'parts' "
+                        "and off 'film_parts', or set duplex: none")
+    if recipe.duplex != "none":
         front, back = kit.part("mater_front"), kit.part("mater_back")
         (fp, fm), (bp, bm) = _duplex_pages(front, back, sh, scale, recipe.duplex)
         drafts += [("card", False, (fp,), fm, "front"), ("card", False, (bp,), bm, "back")]

@@ -18,6 +18,10 @@ from ..layout.sheets import DEFAULT_MARGIN_MM, MAX_MARGIN_MM, MIN_MARGIN_MM, SHE
 
 SHEETS = tuple(SHEET_SIZES_MM)
 PARTS = ("plate", "rete", "mater_front", "mater_back", "rule", "alidade")
+#: How the mater's front and back are printed: on separate pages glued back
+#: to back, or on the two sides of one sheet turned over on its long or
+#: short edge (kitgen.layout.pages).
+DUPLEX = ("none", "long_edge", "short_edge")
 
 #: Limits on the epoch: the Sun's and the precession's series are used
 #: well inside the span for which their authors give them.
@@ -116,6 +120,10 @@ KEYS: tuple[Key, ...] = (
     Key("colour", "colour", "bool",
         "colour accents on the ecliptic, horizon, tropics and unequal hours (nothing depends on colour alone)",
         example=False),
+    Key("duplex", "duplex", "choice",
+        "mater front and back on the two sides of one sheet, for a printer that turns it over on the long or "
+        "short edge, with marks to check the two sides meet; none (the default): separate pages glued back to back",
+        choices=DUPLEX, example="none"),
     Key("twilight", "twilight", "bool", "draw the -18 degree twilight limit", example=True),
     Key("unequal_hours", "unequal_hours", "bool", "draw the unequal (temporal) hour curves", example=True),
     Key("parts", "parts", "parts", f"which parts to print, of: {', '.join(PARTS)}", choices=PARTS,

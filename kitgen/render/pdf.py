@@ -229,6 +229,10 @@ def print_notes(kit, pages) -> list[str]:
     film = [p for p in pages if p.kind == "film"]
     if film:
         notes.append(w("printing.film_mirrored") if any(p.mirrored for p in film) else w("printing.film_plain"))
+    front = next((p for p in pages if p.duplex == "front"), None)
+    if front is not None:
+        key = "printing.duplex_long" if kit.recipe.duplex == "long_edge" else "printing.duplex_short"
+        notes.append(w(key, front=w.number(front.number), back=w.number(front.number + 1)))
     sx, sy = pages[0].print_scale
     if (sx, sy) != (1.0, 1.0):
         notes.append(w("printing.scaled", x=_percent(w, sx), y=_percent(w, sy), length=w.number(CHECK_BAR_MM)))
