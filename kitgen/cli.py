@@ -71,15 +71,14 @@ def _default_output(recipe: str, suffix: str) -> Path:
 
 def _cmd_build(args) -> int:
     from .kit import build_kit
-    from .layout.pages import layout_kit
     from .outfile import check_target, write_atomic
     from .recipe.load import load_recipe
-    from .render.pdf import render_pdf
+    from .render.pdf import build_pdf
 
     out = Path(args.output) if args.output else _default_output(args.recipe, ".pdf")
     check_target(out, args.force, (Path(args.recipe),))
     kit = build_kit(load_recipe(args.recipe))
-    write_atomic(out, render_pdf(kit, layout_kit(kit)), args.force, (Path(args.recipe),))
+    write_atomic(out, build_pdf(kit)[1], args.force, (Path(args.recipe),))
     _print_notes(kit)
     print(out)
     return EXIT_OK
@@ -191,10 +190,9 @@ def _cmd_calibrate(args) -> int:
 
 def _cmd_preview(args) -> int:
     from .kit import build_kit
-    from .layout.pages import layout_kit
     from .outfile import check_target, inside_folder, write_atomic
     from .recipe.load import load_recipe
-    from .render.pdf import render_pdf
+    from .render.pdf import build_pdf
     from .render.preview import MAX_DPI, MIN_DPI, render_previews
 
     if not MIN_DPI <= args.dpi <= MAX_DPI:
@@ -203,8 +201,7 @@ def _cmd_preview(args) -> int:
     if folder.exists() and not folder.is_dir():
         raise UserError(f"{folder}: is a file; the pictures need a folder")
     kit = build_kit(load_recipe(args.recipe))
-    pages = layout_kit(kit)
-    pictures = render_previews(render_pdf(kit, pages), args.dpi)
+    pictures = render_previews(build_pdf(kit)[1], args.dpi)
     digits = max(2, len(str(len(pictures))))
     names = [f"{Path(args.recipe).stem}-page-{k:0{digits}d}.png" for k in range(1, len(pictures) + 1)]
     for name in names:

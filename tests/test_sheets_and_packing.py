@@ -241,3 +241,32 @@ def test_fewest_pages_for_each_material(diameter, sheet):
     kinds = [p.kind for p in pages]
     assert kinds[0] == "instructions"
     assert kinds == ["instructions"] + ["card"] * kinds.count("card") + ["film"] * kinds.count("film")
+
+
+def test_instructions_go_on_to_a_second_page_when_their_words_need_it():
+    """On A5 (ISO 216: 148 x 210 mm), in Greek, with duplex, mirrored film and
+    a print scale to explain, the instructions need two pages: the layout
+    gives them two, each page says its number of the total, the first keeps
+    the cautions and the print plan, and the part pages follow."""
+    pypdf = pytest.importorskip("pypdf")
+    import io
+
+    from kitgen.render.pdf import build_pdf
+
+    k = kit("sheet: a5\nlanguage: el\nduplex: long_edge\nfilm_mirror: true\nprint_scale: 0.97\n"
+            "diameter_mm: 110\n")
+    pages, pdf = build_pdf(k)
+    kinds = [p.kind for p in pages]
+    assert kinds[:2] == ["instructions", "instructions"] and "instructions" not in kinds[2:]
+    reader = pypdf.PdfReader(io.BytesIO(pdf))
+    n = len(pages)
+    def flat(t):  # pypdf reads the bullets ("!" and "\u2022") in among the lines
+        return " ".join(t.replace("!", " ").replace("\u2022", " ").split())
+
+    first = flat(reader.pages[0].extract_text())
+    assert flat(k.words.items("instructions.cautions")[0]) in first
+    assert flat(k.words("instructions.print_heading")) in first
+    front = next(p.number for p in pages if p.duplex == "front")
+    assert front == 3
+    for i, page in enumerate(reader.pages, start=1):
+        assert k.words("page.number", k=k.words.number(i), n=k.words.number(n)) in page.extract_text()

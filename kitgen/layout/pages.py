@@ -415,15 +415,17 @@ def default_diameter_mm(sheet: Sheet, scale=(1.0, 1.0)) -> float:
     return float(min(600, max(80, int(room // 5) * 5)))
 
 
-def layout_kit(kit) -> tuple[Page, ...]:
-    """The kit's pages in print order: instructions, card pages (the duplex
-    pair first), film pages."""
+def layout_kit(kit, instruction_pages: int = 1) -> tuple[Page, ...]:
+    """The kit's pages in print order: instructions (on one page, or on
+    ``instruction_pages`` where the words need more room: see
+    kitgen.render.pdf.build_pdf), card pages (the duplex pair first), film
+    pages."""
     recipe = kit.recipe
     sh = kit_sheet(recipe)
     scale = tuple(recipe.print_scale)
     order = {p.kind: i for i, p in enumerate(kit.parts)}
     # (kind, landscape, placements, marks, duplex side)
-    drafts: list[tuple] = [("instructions", False, (), (), "")]
+    drafts: list[tuple] = [("instructions", False, (), (), "")] * max(1, int(instruction_pages))
     card = [p for p in kit.parts if p.material == "card"]
     kinds = {p.kind for p in card}
     if recipe.duplex != "none" and not {"mater_front", "mater_back"} <= kinds:

@@ -281,9 +281,57 @@ def _story(kit, pages) -> list[Block]:
     return out
 
 
+class InstructionsOverflow(ValueError):
+    """The instructions need more pages than the layout gave them."""
+
+
+#: Body sizes (pt) tried for the instructions, largest first.
+INSTRUCTION_SIZES_PT = tuple(10.5 - 0.5 * k for k in range(10))   # 10.5 down to 6
+
+
+def split_story(blocks, width_pt: float, height_pt: float, words, n_pages: int):
+    """``(size_pt, chunks)``: the largest body size at which the blocks,
+    taken in order, fill at most ``n_pages`` boxes of this size (a heading
+    never left alone at the foot of a page), and the blocks of each page;
+    or ``None`` when even the smallest size needs more pages."""
+    probe = Block("body", "x")
+    for size in INSTRUCTION_SIZES_PT:
+        if n_pages == 1:   # the common case: one measure of the whole
+            if pdf_text.blocks_height_pt(blocks, width_pt, size, words) <= height_pt:
+                return size, [list(blocks)]
+            continue
+        alone = [pdf_text.blocks_height_pt([b], width_pt, size, words) for b in blocks]
+        base = pdf_text.blocks_height_pt([probe], width_pt, size, words)
+        after = [pdf_text.blocks_height_pt([probe, b], width_pt, size, words) - base for b in blocks]
+        chunks, current, used = [], [], 0.0
+        for k, block in enumerate(blocks):
+            if current and used + after[k] > height_pt:
+                moved = []
+                if blocks[current[-1]].kind == "heading" and len(current) > 1:
+                    moved = [current.pop()]
+                chunks.append(current)
+                current = moved
+                used = alone[moved[0]] if moved else 0.0
+            used += after[k] if current else alone[k]
+            current.append(k)
+        chunks.append(current)
+        heights = [alone[ch[0]] + sum(after[i] for i in ch[1:]) for ch in chunks]
+        if len(chunks) <= n_pages and max(heights) <= height_pt:
+            return size, [[blocks[i] for i in ch] for ch in chunks]
+    return None
+
+
 def _instructions(c: Canvas, kit, page: Page, pages) -> None:
+    """This page's share of the instructions."""
     x0, y0, x1, y1 = page_content_mm(page)
-    pdf_text.draw_blocks(c, _story(kit, pages), x0, y0, x1, y1, kit.words)
+    mine = [p for p in pages if p.kind == "instructions"]
+    split = split_story(_story(kit, pages), (x1 - x0) * mm, (y1 - y0) * mm, kit.words, len(mine))
+    if split is None:
+        raise InstructionsOverflow(f"the instructions need more than {len(mine)} page(s)")
+    size, chunks = split
+    k = mine.index(page)
+    if k < len(chunks):
+        pdf_text.draw_blocks(c, chunks[k], x0, y0, x1, y1, kit.words, body_pt=size, min_pt=size)
 
 
 # -- the document ----------------------------------------------------------------
@@ -301,8 +349,25 @@ def page_transform(c: Canvas, page: Page) -> None:
         c.scale(1.0 / sx, 1.0 / sy)
 
 
+def build_pdf(kit, max_instruction_pages: int = 3):
+    """The kit laid out and rendered: ``(pages, pdf_bytes)``, with the
+    instructions on as few pages as their words need (on small sheets and
+    in long-worded languages, more than one)."""
+    from ..layout.pages import layout_kit
+
+    for n in range(1, max_instruction_pages + 1):
+        pages = layout_kit(kit, n)
+        try:
+            return pages, render_pdf(kit, pages)
+        except InstructionsOverflow:
+            continue
+    raise InstructionsOverflow(f"the instructions need more than {max_instruction_pages} pages")
+
+
 def render_pdf(kit, pages) -> bytes:
-    """The kit's pages as one PDF document (bytes)."""
+    """The kit's pages as one PDF document (bytes); raises
+    :class:`InstructionsOverflow` when the instructions need more pages than
+    the layout gave them (:func:`build_pdf` then asks for more)."""
     register_fonts()
     buf = io.BytesIO()
     first = pages[0]
