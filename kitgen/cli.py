@@ -12,8 +12,8 @@ import sys
 from pathlib import Path
 
 from . import __version__
-from .errors import (EXIT_INTERNAL, EXIT_INTERRUPTED, EXIT_OK, EXIT_TERMINATED, EXIT_USER, UserError,
-                     one_line)
+from .errors import (EXIT_INTERNAL, EXIT_INTERRUPTED, EXIT_OK, EXIT_TERMINATED, EXIT_USER, Message, UserError,
+                     one_line, speaking)
 
 
 class _Parser(argparse.ArgumentParser):
@@ -77,8 +77,10 @@ def _cmd_build(args) -> int:
 
     out = Path(args.output) if args.output else _default_output(args.recipe, ".pdf")
     check_target(out, args.force, (Path(args.recipe),))
-    kit = build_kit(load_recipe(args.recipe))
-    write_atomic(out, build_pdf(kit)[1], args.force, (Path(args.recipe),))
+    recipe = load_recipe(args.recipe)
+    with speaking(recipe.language, recipe.language_file or None):
+        kit = build_kit(recipe)
+        write_atomic(out, build_pdf(kit)[1], args.force, (Path(args.recipe),))
     _print_notes(kit)
     print(out)
     return EXIT_OK
@@ -91,11 +93,17 @@ def _print_notes(kit) -> None:
 
 
 def _cmd_geometry(args) -> int:
-    from .kit import build_kit
-    from .outfile import check_target, write_atomic
     from .recipe.load import load_recipe
 
     kit_recipe = load_recipe(args.recipe)
+    with speaking(kit_recipe.language, kit_recipe.language_file or None):
+        return _write_geometry(args, kit_recipe)
+
+
+def _write_geometry(args, kit_recipe) -> int:
+    from .kit import build_kit
+    from .outfile import check_target, write_atomic
+
     if args.format == "json":
         from .render.json_export import render_json
 
@@ -111,10 +119,10 @@ def _cmd_geometry(args) -> int:
     from .render.svg import render_svg_files
 
     if not args.output:
-        raise UserError("--format svg writes one file per part: give the folder with -o")
+        raise UserError("errors.svg_needs_folder")
     folder = Path(args.output)
     if folder.exists() and not folder.is_dir():
-        raise UserError(f"{folder}: is a file; SVG output needs a folder")
+        raise UserError("errors.svg_folder_is_file", path=folder)
     from .outfile import inside_folder, safe_file_name
 
     files = {safe_file_name(name): data for name, data in render_svg_files(build_kit(kit_recipe)).items()}
@@ -124,7 +132,7 @@ def _cmd_geometry(args) -> int:
         folder.mkdir(parents=True, exist_ok=True)
     except OSError as exc:
         from .outfile import write_error
-        raise write_error(folder, exc, "cannot make the folder") from None
+        raise write_error(folder, exc, Message("errors.doing_make_folder")) from None
     for name, data in files.items():
         write_atomic(inside_folder(folder, name), data, args.force, (Path(args.recipe),))
         print(folder / name)
@@ -139,7 +147,7 @@ def _cmd_new(args) -> int:
     if args.output:
         out = Path(args.output)
         if out.exists():
-            raise UserError(f"{out}: exists; choose another name (kitgen new never writes over a recipe)")
+            raise UserError("errors.new_exists", path=out)
         write_atomic(out, text)
         print(out)
     else:
@@ -154,10 +162,10 @@ def _cmd_stars(args) -> int:
 
     epoch = args.epoch if args.epoch is not None else current_year()
     if not EPOCH_MIN <= epoch <= EPOCH_MAX:
-        raise UserError(f"--epoch must be from {EPOCH_MIN} to {EPOCH_MAX}, got {epoch}")
+        raise UserError("errors.epoch_option", low=EPOCH_MIN, high=EPOCH_MAX, value=epoch)
     stars = filter_stars(args.name, args.max_mag)
     if not stars:
-        raise UserError("no star in the catalogue matches; try a shorter --name or a larger --max-mag")
+        raise UserError("errors.no_star_matches")
     sys.stdout.write(format_star_table(stars, epoch + 0.5, load_words("en")))
     return EXIT_OK
 
@@ -172,13 +180,14 @@ def _cmd_calibrate(args) -> int:
     try:
         value = parse_sheet_option(args.sheet)
     except SheetError as exc:
-        raise UserError(f"--sheet: {exc}") from None
+        raise UserError("errors.sheet_option", problem=exc) from None
     if not MIN_MARGIN_MM <= args.margin <= MAX_MARGIN_MM:
-        raise UserError(f"--margin is {args.margin:g}, outside {MIN_MARGIN_MM:g} to {MAX_MARGIN_MM:g} mm")
+        raise UserError("errors.margin_option", value=f"{args.margin:g}", low=f"{MIN_MARGIN_MM:g}",
+                        high=f"{MAX_MARGIN_MM:g}")
     try:
         sheet = make_sheet(value, args.margin)
     except SheetError as exc:
-        raise UserError(str(exc).replace("'margin_mm'", "--margin")) from None
+        raise UserError.of(exc, key="--margin") from None
     words = load_words(args.language)
     name = value if isinstance(value, str) else f"{value[0]:g}x{value[1]:g}mm"
     out = Path(args.output) if args.output else Path(f"calibration-{name}.pdf")
@@ -196,12 +205,14 @@ def _cmd_preview(args) -> int:
     from .render.preview import MAX_DPI, MIN_DPI, render_previews
 
     if not MIN_DPI <= args.dpi <= MAX_DPI:
-        raise UserError(f"--dpi is {args.dpi:g}, outside {MIN_DPI:g} to {MAX_DPI:g}")
+        raise UserError("errors.dpi_option", value=f"{args.dpi:g}", low=f"{MIN_DPI:g}", high=f"{MAX_DPI:g}")
     folder = Path(args.output)
     if folder.exists() and not folder.is_dir():
-        raise UserError(f"{folder}: is a file; the pictures need a folder")
-    kit = build_kit(load_recipe(args.recipe))
-    pictures = render_previews(build_pdf(kit)[1], args.dpi)
+        raise UserError("errors.preview_folder_is_file", path=folder)
+    recipe = load_recipe(args.recipe)
+    with speaking(recipe.language, recipe.language_file or None):
+        kit = build_kit(recipe)
+        pictures = render_previews(build_pdf(kit)[1], args.dpi)
     digits = max(2, len(str(len(pictures))))
     names = [f"{Path(args.recipe).stem}-page-{k:0{digits}d}.png" for k in range(1, len(pictures) + 1)]
     for name in names:
@@ -249,13 +260,14 @@ def main(argv=None) -> int:
     except UserError as exc:
         if debug:
             raise
-        print(f"kitgen: error: {one_line(exc)}", file=sys.stderr)
+        words = _words_of(exc, args)
+        print(one_line(Message("errors.report", message=exc).text(words)), file=sys.stderr)
         return EXIT_USER
     except KeyboardInterrupt:
-        print("kitgen: interrupted; no file was left half-written", file=sys.stderr)
+        print(Message("errors.interrupted").text(), file=sys.stderr)
         return EXIT_INTERRUPTED
     except _Terminated:
-        print("kitgen: terminated; no file was left half-written", file=sys.stderr)
+        print(Message("errors.terminated").text(), file=sys.stderr)
         return EXIT_TERMINATED
     except BrokenPipeError:
         _quiet_stdout()
@@ -263,12 +275,28 @@ def main(argv=None) -> int:
     except Exception as exc:  # an internal fault: one line unless --debug
         if debug:
             raise
-        print(one_line(f"kitgen: internal error: {type(exc).__name__}: {exc} (run with --debug for details)"),
-              file=sys.stderr)
+        print(one_line(Message("errors.internal", kind=type(exc).__name__, detail=exc).text()), file=sys.stderr)
         return EXIT_INTERNAL
     finally:
         if previous is not None:
             signal.signal(signal.SIGTERM, previous)
+
+
+def _words_of(exc: UserError, args):
+    """The words to say ``exc`` in: the language file or the language the
+    recipe asked for (:func:`kitgen.errors.speaking`), else a command's own
+    ``--language``, else ``None`` (English)."""
+    from .words.templates import available_languages, load_words, load_words_file
+
+    try:
+        if exc.language_file:
+            return load_words_file(exc.language_file)
+        language = exc.language or getattr(args, "language", None)
+        if isinstance(language, str) and language in available_languages():
+            return load_words(language)
+    except Exception:  # the words of the message never hide the message
+        pass
+    return None
 
 
 def _quiet_stdout() -> None:

@@ -1,11 +1,22 @@
-"""Errors that reach the user as one line.
+"""Errors that reach the user as one line, in the user's language.
 
 :class:`UserError` is a mistake in the input (exit status 2); anything else
-that escapes is an internal fault (exit status 1).  :func:`one_line` makes
-any message safe to print as a single line on a terminal, and
-:func:`shown` quotes a value from the input briefly for a message.
+that escapes is an internal fault (exit status 1).  A message is never
+English text in the code: it is a key of the ``errors`` section of the
+language templates (``templates/LANG.yaml``) and the values for that
+entry's ``{placeholders}``, kept as a :class:`Message` and put into words
+only when shown.  ``str(exc)`` gives the English text; :meth:`Message.text`
+gives it in any language.  A value may itself be a :class:`Message` (a
+hint, a fragment) or a list, put into words in the same language.
+
+:func:`one_line` makes any message safe to print as a single line on a
+terminal, and :func:`shown` quotes a value from the input briefly for a
+message.
 """
 
+from __future__ import annotations
+
+import contextlib
 import unicodedata
 
 EXIT_OK = 0
@@ -20,8 +31,127 @@ MAX_MESSAGE_CHARS = 600
 MAX_SHOWN_CHARS = 60
 
 
-class UserError(Exception):
+class Message:
+    """One entry of the templates' ``errors`` section (``key``, such as
+    ``"errors.unknown_key"``) and the values of its placeholders.
+
+    Values are file names, key names and numbers as the user wrote them
+    (numbers are shown as written in a recipe, with a decimal point), other
+    :class:`Message` objects (hints and fragments, so that no English is
+    glued on in the code), :class:`KeyedError` objects, or lists, joined
+    with the language's ``page.list_separator``."""
+
+    def __init__(self, key: str, /, **values):
+        self.key = key
+        self.values = values
+
+    def text(self, words=None) -> str:
+        """The message in the language of ``words`` (a
+        :class:`kitgen.words.templates.Words`), or in English for ``None``;
+        English wherever that language cannot say it."""
+        if words is not None:
+            try:
+                said = _say(self.key, self.values, words)
+            except (KeyError, ValueError, IndexError, AttributeError):
+                said = None
+            if said is not None:
+                return said
+        said = _say(self.key, self.values, None)
+        return said if said is not None else self.key
+
+    def __str__(self) -> str:
+        return self.text()
+
+    def __repr__(self) -> str:
+        return f"Message({self.key!r}, **{self.values!r})"
+
+
+def _english(key: str) -> str | None:
+    from .words.templates import shipped_table
+
+    value = shipped_table("en").get(key)
+    return value if isinstance(value, str) else None
+
+
+def _say(key: str, values: dict, words) -> str | None:
+    """``key``'s template in ``words``'s language (English for ``None``)
+    with the values put in, or ``None`` when there is no such template."""
+    template = _english(key) if words is None else words.template(key)
+    if template is None:
+        return None
+    said = {name: _value_text(v, words) for name, v in values.items()}
+    return template.format_map(said)
+
+
+def _value_text(value, words) -> str:
+    if isinstance(value, (Message, KeyedError)):
+        return value.text(words)
+    if isinstance(value, (list, tuple)):
+        sep = (words.template("page.list_separator") if words is not None else None) \
+            or _english("page.list_separator") or ", "
+        return sep.join(_value_text(v, words) for v in value)
+    return str(value)
+
+
+class KeyedError(Exception):
+    """An exception whose message is a :class:`Message`: raise it as
+    ``KeyedError("errors.some_key", name=value, ...)``.
+
+    ``language`` (a shipped template's code) or ``language_file`` (the path
+    of a checked language file) say in which language the user asked to be
+    spoken to, once the input got far enough to tell; see
+    :func:`speaking`."""
+
+    def __init__(self, key: str, /, **values):
+        super().__init__(key)
+        self.message = Message(key, **values)
+        self.language: str | None = None
+        self.language_file: str | None = None
+
+    @property
+    def key(self) -> str:
+        return self.message.key
+
+    @property
+    def values(self) -> dict:
+        return self.message.values
+
+    def text(self, words=None) -> str:
+        return self.message.text(words)
+
+    def __str__(self) -> str:
+        return self.message.text()
+
+
+class UserError(KeyedError):
     """A problem the user can fix; its message is printed as one line."""
+
+    @classmethod
+    def of(cls, error: KeyedError, **values) -> "UserError":
+        """A :class:`UserError` with the message of ``error`` (a
+        :class:`KeyedError` of a lower layer), some values replaced."""
+        out = cls(error.key, **{**error.values, **values})
+        out.language, out.language_file = error.language, error.language_file
+        return out
+
+
+@contextlib.contextmanager
+def speaking(language: str | None = None, language_file: str | None = None):
+    """Within the block, a :class:`UserError` that does not yet know the
+    user's language learns it: a shipped template's code, or the path of a
+    checked language file (which wins).  Either may be ``None``, or a
+    callable giving ``(language, language_file)`` when an error happens."""
+    try:
+        yield
+    except UserError as exc:
+        if exc.language is None and exc.language_file is None:
+            if callable(language):
+                try:
+                    language, language_file = language()
+                except Exception:  # telling the language never hides the error
+                    language, language_file = None, None
+            exc.language, exc.language_file = language, language_file
+        raise
 
 
 def _visible(ch: str) -> str:

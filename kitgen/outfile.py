@@ -14,7 +14,7 @@ import re
 import tempfile
 from pathlib import Path
 
-from .errors import UserError
+from .errors import Message, UserError
 
 #: How each kind of kitgen output says who made it.  A file counts as
 #: kitgen's own only when it starts as that format starts and carries the
@@ -37,20 +37,25 @@ _CHUNK = 1024 * 1024
 
 #: What to tell the user for the usual reasons a write fails.
 _ADVICE = {
-    errno.ENOSPC: "the disk is full; free some space or write somewhere else with -o",
-    errno.EDQUOT: "the disk quota is used up; free some space or write somewhere else with -o",
-    errno.EROFS: "the folder is on a read-only disk; write somewhere else with -o",
-    errno.EACCES: "permission denied; write somewhere else with -o",
-    errno.EPERM: "permission denied; write somewhere else with -o",
-    errno.ENAMETOOLONG: "the file name is too long; choose a shorter one",
-    errno.EIO: "the disk reported an input/output error; write somewhere else with -o",
+    errno.ENOSPC: Message("errors.write_disk_full"),
+    errno.EDQUOT: Message("errors.write_quota"),
+    errno.EROFS: Message("errors.write_read_only"),
+    errno.EACCES: Message("errors.write_permission"),
+    errno.EPERM: Message("errors.write_permission"),
+    errno.ENAMETOOLONG: Message("errors.write_name_too_long"),
+    errno.EIO: Message("errors.write_io"),
 }
 
+#: What was being done, for :func:`write_error`.
+CANNOT_WRITE = Message("errors.doing_write")
 
-def write_error(path, exc: OSError, doing: str = "cannot write") -> UserError:
-    """A one-line :class:`UserError` for an ``OSError`` met writing ``path``."""
+
+def write_error(path, exc: OSError, doing: Message = CANNOT_WRITE) -> UserError:
+    """A one-line :class:`UserError` for an ``OSError`` met writing
+    ``path``; the system's own text (in the system's language) for a
+    reason without advice here."""
     advice = _ADVICE.get(exc.errno) or (exc.strerror or str(exc))
-    return UserError(f"{path}: {doing}: {advice}")
+    return UserError("errors.write_failed", path=path, doing=doing, advice=advice)
 
 
 def made_by_kitgen(path) -> bool:
@@ -100,13 +105,13 @@ def check_target(path, force: bool = False, protect: tuple = ()) -> None:
     path = Path(path)
     for p in protect:
         if _same_file(path, Path(p)):
-            raise UserError(f"{path}: refusing to write over the input file; choose another output name")
+            raise UserError("errors.target_is_input", path=path)
     if path.is_dir():
-        raise UserError(f"{path}: is a folder; give a file name")
+        raise UserError("errors.target_is_folder", path=path)
     if path.exists() and not path.is_file():
-        raise UserError(f"{path}: is not a regular file; give the name of a file to write")
+        raise UserError("errors.target_not_regular", path=path)
     if path.exists() and not force and not made_by_kitgen(path):
-        raise UserError(f"{path}: exists and was not made by kitgen; choose another name or use --force")
+        raise UserError("errors.target_foreign", path=path)
 
 
 def write_atomic(path, data: bytes, force: bool = False, protect: tuple = ()) -> Path:
@@ -119,11 +124,11 @@ def write_atomic(path, data: bytes, force: bool = False, protect: tuple = ()) ->
     check_target(path, force, protect)
     folder = path.parent if str(path.parent) else Path(".")
     if not folder.is_dir():
-        raise UserError(f"{path}: the folder {folder} does not exist; create it first")
+        raise UserError("errors.no_folder", path=path, folder=folder)
     try:
         fd, tmp = tempfile.mkstemp(prefix=f".{path.name[:64]}.", suffix=".part", dir=folder)
     except OSError as exc:
-        raise write_error(path, exc, f"cannot write in {folder}") from None
+        raise write_error(path, exc, Message("errors.doing_write_in", folder=folder)) from None
     try:
         with os.fdopen(fd, "wb") as fh:
             fh.write(data)

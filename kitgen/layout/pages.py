@@ -31,7 +31,7 @@ from itertools import product
 from ..errors import UserError
 from ..geometry.model import Part
 from .packing import Box, Packer, extent, place
-from .sheets import SheetError, Sheet, make_sheet, sheet_name
+from .sheets import SheetError, Sheet, make_sheet, sheet_name, sheet_words
 from .tiling import PIECE_BAND_MM, Piece, tile
 
 #: Height (mm) of the footer band above the bottom margin.
@@ -341,7 +341,7 @@ def _layout_material(parts, sheet, scale, order, words):
     try:
         candidates = _candidates(parts, _areas(sheet, scale), words)
     except ValueError:
-        raise UserError(f"the {sheet.name} sheet is too small to tile a part on; choose a larger sheet") from None
+        raise UserError("errors.tile_sheet_too_small", sheet=sheet_words(sheet)) from None
     best = None
     for items in candidates:
         pages = _pack(items, sheet, scale)
@@ -371,8 +371,7 @@ def _duplex_pages(front: Part, back: Part, sheet: Sheet, scale, mode: str):
     title_w = max(title_width_mm(front.title), title_width_mm(back.title))
     if (2 * r > ax1 - ax0 + 1e-9 or cy - r < ay0 - 1e-9 or cy + r + TITLE_BAND_MM > ay1 + 1e-9
             or cx - r + title_w > ax1):
-        raise UserError(f"'duplex' needs the mater on one {sheet.name} page; choose a smaller diameter_mm, "
-                        "a larger sheet, or duplex: none")
+        raise UserError("errors.duplex_mater", sheet=sheet_words(sheet))
     if mode == "long_edge":
         bx, by, rot = w - cx, cy, 0.0
     else:
@@ -401,7 +400,7 @@ def kit_sheet(recipe) -> Sheet:
     try:
         return make_sheet(recipe.sheet, recipe.margin_mm)
     except SheetError as exc:
-        raise UserError(str(exc)) from None
+        raise UserError.of(exc) from None
 
 
 def default_diameter_mm(sheet: Sheet, scale=(1.0, 1.0)) -> float:
@@ -429,8 +428,7 @@ def layout_kit(kit, instruction_pages: int = 1) -> tuple[Page, ...]:
     card = [p for p in kit.parts if p.material == "card"]
     kinds = {p.kind for p in card}
     if recipe.duplex != "none" and not {"mater_front", "mater_back"} <= kinds:
-        raise UserError("'duplex' prints the mater's front and back on one sheet of card: keep both in 'parts' "
-                        "and off 'film_parts', or set duplex: none")
+        raise UserError("errors.duplex_parts")
     if recipe.duplex != "none":
         front, back = kit.part("mater_front"), kit.part("mater_back")
         (fp, fm), (bp, bm) = _duplex_pages(front, back, sh, scale, recipe.duplex)

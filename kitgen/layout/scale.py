@@ -11,25 +11,26 @@ from __future__ import annotations
 
 import math
 
-from ..errors import shown
+from ..errors import KeyedError, shown
 
 #: The scales accepted.  "Fit to page" of A4 onto Letter prints at 94 %
 #: (279.4 / 297); a printer that is off by more than 15 % is mismeasured.
 MIN_SCALE, MAX_SCALE = 0.85, 1.15
 
 
-class ScaleError(ValueError):
-    """A print_scale that cannot be used; the message is one line."""
+class ScaleError(KeyedError, ValueError):
+    """A print_scale that cannot be used; the message is one line, a key
+    of the templates' ``errors`` section and its values."""
 
 
 def _factor(value, what: str) -> float:
     """One factor; ``what`` names it in messages ('x', 'y' or '' for both)."""
     name = f"'{what}' " if what else ""
     if isinstance(value, bool) or not isinstance(value, (int, float)) or not math.isfinite(value):
-        raise ScaleError(f"{name}must be a number such as 0.97, or {{x: 0.97, y: 0.985}}, got {shown(value)}")
+        raise ScaleError("errors.scale_not_number", name=name, value=shown(value))
     if not MIN_SCALE <= value <= MAX_SCALE:
-        raise ScaleError(f"{name}is {value:g}, outside {MIN_SCALE:g} to {MAX_SCALE:g} "
-                         "(the length measured divided by the length printed beside the bar)")
+        raise ScaleError("errors.scale_range", name=name, value=f"{value:g}", low=f"{MIN_SCALE:g}",
+                         high=f"{MAX_SCALE:g}")
     return float(value)
 
 
@@ -41,8 +42,8 @@ def parse_print_scale(value) -> tuple[float, float]:
         if keys != {"x", "y"}:
             extra = sorted(str(k) for k in keys - {"x", "y"})
             if extra:
-                raise ScaleError(f"unknown key {shown(extra[0])}; give x (across) and y (down), e.g. {{x: 0.97, y: 0.985}}")
-            raise ScaleError("give both x (across) and y (down), e.g. {x: 0.97, y: 0.985}")
+                raise ScaleError("errors.scale_unknown_key", name=shown(extra[0]))
+            raise ScaleError("errors.scale_both")
         return (_factor(value["x"], "x"), _factor(value["y"], "y"))
     f = _factor(value, "")
     return (f, f)

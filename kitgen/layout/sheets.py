@@ -23,7 +23,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
-from ..errors import shown
+from ..errors import KeyedError, Message, shown
 
 MM_PER_INCH = 25.4  # exact, by the 1959 international yard and pound agreement
 
@@ -52,8 +52,9 @@ MAX_SIDE_MM = 1500.0
 MIN_USABLE_MM = 120.0
 
 
-class SheetError(ValueError):
-    """A sheet value that cannot be used; the message is one line."""
+class SheetError(KeyedError, ValueError):
+    """A sheet value that cannot be used; the message is one line, a key
+    of the templates' ``errors`` section and its values."""
 
 
 @dataclass(frozen=True)
@@ -78,7 +79,7 @@ class Sheet:
 def _number(value, what: str) -> float:
     if isinstance(value, bool) or not isinstance(value, (int, float)) or value != value \
             or value in (float("inf"), float("-inf")):
-        raise SheetError(f"'{what}' must be a number, got {shown(value)}")
+        raise SheetError("errors.sheet_side_not_number", key=what, value=shown(value))
     return float(value)
 
 
@@ -86,15 +87,14 @@ def parse_sheet(value):
     """The recipe's ``sheet`` value, checked: a sheet name (lower case) or
     a ``(width_mm, height_mm)`` pair for a custom sheet.  Raises
     :class:`SheetError` with a one-line message naming the sub-key."""
-    names = ", ".join(SHEET_SIZES_MM)
+    names = list(SHEET_SIZES_MM)
     if isinstance(value, str):
         name = value.strip().lower()
         if name not in SHEET_SIZES_MM:
-            raise SheetError(f"unknown sheet {shown(value)}; use one of {names}, "
-                             "or {width_mm: W, height_mm: H} (or width_in, height_in)")
+            raise SheetError("errors.sheet_unknown", value=shown(value), names=names)
         return name
     if not isinstance(value, dict):
-        raise SheetError(f"must be one of {names}, or {{width_mm: W, height_mm: H}}, got {shown(value)}")
+        raise SheetError("errors.sheet_not_name_or_sides", names=names, value=shown(value))
     keys = set(value)
     for unit, factor in (("mm", 1.0), ("in", MM_PER_INCH)):
         wanted = {f"width_{unit}", f"height_{unit}"}
@@ -104,18 +104,17 @@ def parse_sheet(value):
                 v = _number(value[k], k) * factor
                 if not MIN_SIDE_MM - 1e-9 <= v <= MAX_SIDE_MM + 1e-9:
                     low, high = MIN_SIDE_MM / factor, MAX_SIDE_MM / factor
-                    raise SheetError(f"'{k}' is {value[k]:g}, outside {low:.3g} to {high:.3g} {unit}")
+                    raise SheetError("errors.sheet_side_range", key=k, value=f"{value[k]:g}", low=f"{low:.3g}",
+                                     high=f"{high:.3g}", unit=unit)
                 sides.append(v)
             return (sides[0], sides[1])
     unknown = sorted(str(k) for k in keys - {"width_mm", "height_mm", "width_in", "height_in"})
     if unknown:
-        raise SheetError(f"unknown key {shown(unknown[0])} in a custom sheet; give width_mm and height_mm "
-                         "(or width_in and height_in)")
+        raise SheetError("errors.sheet_unknown_key", name=shown(unknown[0]))
     for unit in ("mm", "in"):
         if keys < {f"width_{unit}", f"height_{unit}"}:
-            raise SheetError(f"a custom sheet needs both width_{unit} and height_{unit}")
-    raise SheetError("give both sides of a custom sheet in one unit: {width_mm: W, height_mm: H} "
-                     "or {width_in: W, height_in: H}")
+            raise SheetError("errors.sheet_needs_both", unit=unit)
+    raise SheetError("errors.sheet_one_unit")
 
 
 def sheet_name(value) -> str:
@@ -123,6 +122,13 @@ def sheet_name(value) -> str:
     if isinstance(value, str):
         return value
     return f"{value[0]:g} x {value[1]:g} mm sheet"
+
+
+def sheet_words(sheet: Sheet):
+    """The sheet as a message names it: its name, or its sides in mm."""
+    if sheet.name in SHEET_SIZES_MM:
+        return sheet.name
+    return Message("errors.sheet_custom", width=f"{sheet.width_mm:g}", height=f"{sheet.height_mm:g}")
 
 
 def make_sheet(value, margin_mm: float = DEFAULT_MARGIN_MM) -> Sheet:
@@ -136,8 +142,10 @@ def make_sheet(value, margin_mm: float = DEFAULT_MARGIN_MM) -> Sheet:
         name = sheet_name(value)
     s = Sheet(name, float(min(w, h)), float(max(w, h)), float(margin_mm))
     if s.usable_width_mm < MIN_USABLE_MM - 1e-9:
-        raise SheetError(f"'margin_mm' of {margin_mm:g} leaves {s.usable_width_mm:.0f} mm across the "
-                         f"{name}; at least {MIN_USABLE_MM:g} mm are needed for the check bar")
+        told = name if isinstance(value, str) else Message("errors.sheet_custom", width=f"{value[0]:g}",
+                                                            height=f"{value[1]:g}")
+        raise SheetError("errors.sheet_margin", key="'margin_mm'", margin=f"{margin_mm:g}",
+                         usable=f"{s.usable_width_mm:.0f}", sheet=told, needed=f"{MIN_USABLE_MM:g}")
     return s
 
 
@@ -160,6 +168,5 @@ def parse_sheet_option(text: str):
                 break
             return parse_sheet(sides)
     if t and t[0].isdigit():
-        raise SheetError(f"cannot read {shown(text)}; give a name ({', '.join(SHEET_SIZES_MM)}) or the sides "
-                         "and unit, such as 250x350mm or 9x12in")
+        raise SheetError("errors.sheet_option_unreadable", value=shown(text), names=list(SHEET_SIZES_MM))
     return parse_sheet(text)

@@ -14,6 +14,8 @@ from __future__ import annotations
 import math
 import re
 
+from ..errors import KeyedError
+
 ACCEPTED_FORMS = "48.2, -33.9, 33.9S, 40 26 46 N, 40°26′46″N, 40d26m46sN"
 #: Longest text read as a latitude (the longest form above is 14 characters).
 MAX_CHARS = 40
@@ -22,8 +24,9 @@ _UNIT_MARKS = re.compile(r"[°º˚d:′'’m″\"”s]")
 _NUMBER = r"\d+(?:\.\d+)?"
 
 
-class LatitudeError(ValueError):
-    pass
+class LatitudeError(KeyedError, ValueError):
+    """A latitude that cannot be read: a key of the templates' ``errors``
+    section and its values, like :class:`~kitgen.errors.UserError`."""
 
 
 def _q(value: str) -> str:
@@ -35,21 +38,20 @@ def parse_latitude(value) -> float:
     """Latitude in degrees (north positive) from a number or a written
     form; raises :class:`LatitudeError` with a one-line reason."""
     if isinstance(value, bool):
-        raise LatitudeError(f"a latitude is a number or text such as {ACCEPTED_FORMS}")
+        raise LatitudeError("errors.latitude_type", forms=ACCEPTED_FORMS)
     if isinstance(value, int) and abs(value) > 1000:
-        raise LatitudeError(f"the latitude is far outside -90 to 90 degrees; write it as, e.g., {ACCEPTED_FORMS}")
+        raise LatitudeError("errors.latitude_far", forms=ACCEPTED_FORMS)
     if isinstance(value, (int, float)):
         if not math.isfinite(value):
-            raise LatitudeError(f"the latitude must be a finite number, got {value}")
+            raise LatitudeError("errors.latitude_not_finite", value=value)
         return _in_range(float(value))
     if not isinstance(value, str):
-        raise LatitudeError(f"a latitude is a number or text such as {ACCEPTED_FORMS}")
+        raise LatitudeError("errors.latitude_type", forms=ACCEPTED_FORMS)
     text = value.strip()
     if len(text) > MAX_CHARS:
-        raise LatitudeError(f"the text is {len(text)} characters long, too long for a latitude; "
-                            f"write it as, e.g., {ACCEPTED_FORMS}")
+        raise LatitudeError("errors.latitude_text_long", length=len(text), forms=ACCEPTED_FORMS)
     if re.search(r"\d,\d", text):
-        raise LatitudeError(f"{_q(value)} has a decimal comma; write a decimal point. Accepted forms: {ACCEPTED_FORMS}")
+        raise LatitudeError("errors.latitude_comma", value=_q(value), forms=ACCEPTED_FORMS)
     hemisphere = 1.0
     m = re.search(r"\s*(N|S|north|south|North|South|NORTH|SOUTH)$", text)
     if not m:
@@ -63,22 +65,22 @@ def parse_latitude(value) -> float:
         sign = -1.0 if text[0] in "-−" else 1.0
         text = text[1:]
         if m:
-            raise LatitudeError(f"{_q(value)} has both a sign and a hemisphere letter; give one of them")
+            raise LatitudeError("errors.latitude_sign_and_letter", value=_q(value))
     if re.search(r"\d\s*[ns]$", text) and len(re.findall(_NUMBER, text)) < 3:
-        raise LatitudeError(f"{_q(value)}: write the hemisphere as a capital N or S")
+        raise LatitudeError("errors.latitude_hemisphere_case", value=_q(value))
     parts = _UNIT_MARKS.sub(" ", text).split()
     if not 1 <= len(parts) <= 3 or not all(re.fullmatch(_NUMBER, p) for p in parts):
-        raise LatitudeError(f"cannot read {_q(value)} as a latitude. Accepted forms: {ACCEPTED_FORMS}")
+        raise LatitudeError("errors.latitude_unreadable", value=_q(value), forms=ACCEPTED_FORMS)
     nums = [float(p) for p in parts]
     if any(x >= 60.0 for x in nums[1:]):
-        raise LatitudeError(f"{_q(value)}: minutes and seconds must be less than 60")
+        raise LatitudeError("errors.latitude_minutes", value=_q(value))
     if any(float(p) != int(float(p)) for p in parts[:-1]):
-        raise LatitudeError(f"{_q(value)}: only the last of degrees, minutes, seconds may have decimals")
+        raise LatitudeError("errors.latitude_decimals", value=_q(value))
     degrees = nums[0] + (nums[1] / 60.0 if len(nums) > 1 else 0.0) + (nums[2] / 3600.0 if len(nums) > 2 else 0.0)
     return _in_range(sign * hemisphere * degrees)
 
 
 def _in_range(lat: float) -> float:
     if not -90.0 <= lat <= 90.0:
-        raise LatitudeError(f"the latitude is {lat:g}, outside -90 to 90 degrees")
+        raise LatitudeError("errors.latitude_range", value=f"{lat:g}")
     return lat

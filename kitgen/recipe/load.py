@@ -22,7 +22,7 @@ from pathlib import Path
 
 import yaml
 
-from ..errors import UserError, shown
+from ..errors import Message, UserError, shown, speaking
 from .latitude import LatitudeError, parse_latitude
 from .schema import KEYS_BY_NAME, MAX_STAR_NAMES, MAX_TEXT_CHARS, Recipe, StarChoice, current_year
 
@@ -42,39 +42,48 @@ MAX_STAR_NAME_CHARS = 40
 #: is refused by name before the safe loader sees it.
 _CORE_TAGS = {f"tag:yaml.org,2002:{t}" for t in ("str", "int", "float", "bool", "null", "seq", "map")}
 
+#: The kinds of file read here, as messages name them.
+RECIPE = Message("errors.kind_recipe")
+LANGUAGE_FILE = Message("errors.kind_language_file")
 
-def read_text_file(path, max_bytes: int = MAX_RECIPE_BYTES, what: str = "recipe") -> str:
+
+def at_line(source, line: int) -> Message:
+    """``source, line N`` for a message."""
+    return Message("errors.at_line", source=source, line=line)
+
+
+def read_text_file(path, max_bytes: int = MAX_RECIPE_BYTES, what: Message = RECIPE) -> str:
     """The text of the file at ``path``, read at most ``max_bytes`` (+1, to
     tell a file that is too large); UTF-8, with or without a byte-order
-    mark.  Every failure is a one-line :class:`UserError`."""
+    mark.  Every failure is a one-line :class:`UserError`; ``what`` names
+    the kind of file (:data:`RECIPE`, :data:`LANGUAGE_FILE`)."""
     p = Path(path)
     try:
         with open(p, "rb") as fh:
             data = fh.read(max_bytes + 1)
     except FileNotFoundError:
-        raise UserError(f"{p}: no such file; check the name (`kitgen new -o {p.name}` writes a starter {what})") \
-            from None
+        raise UserError("errors.no_such_file", path=p, name=p.name, what=what) from None
     except IsADirectoryError:
-        raise UserError(f"{p}: is a folder, not a {what} file; give the file's name") from None
+        raise UserError("errors.is_folder_not_file", path=p, what=what) from None
     except PermissionError:
-        raise UserError(f"{p}: permission denied; check the file's permissions") from None
+        raise UserError("errors.read_permission", path=p) from None
     except OSError as exc:
-        raise UserError(f"{p}: cannot read: {exc.strerror or exc}") from None
+        raise UserError("errors.cannot_read", path=p, reason=exc.strerror or exc) from None
     if len(data) > max_bytes:
-        raise UserError(f"{p}: the file is larger than {max_bytes // 1024} KiB; is it a {what}?")
+        raise UserError("errors.file_too_large", path=p, kib=max_bytes // 1024, what=what)
     if data.startswith((b"\xff\xfe", b"\xfe\xff")):
-        raise UserError(f"{p}: the file is UTF-16 text; save the {what} as UTF-8")
+        raise UserError("errors.utf16", path=p, what=what)
     if b"\x00" in data:
-        raise UserError(f"{p}: not a text file (a {what} is UTF-8 YAML text)")
+        raise UserError("errors.not_text_file", path=p, what=what)
     try:
         return data.decode("utf-8-sig")
     except UnicodeDecodeError as exc:
         line = data[: exc.start].count(b"\n") + 1
-        raise UserError(f"{p}, line {line}: not UTF-8 text (byte 0x{data[exc.start]:02x}); "
-                        f"save the {what} as UTF-8") from None
+        raise UserError("errors.not_utf8", where=at_line(p, line), byte=f"{data[exc.start]:02x}",
+                        what=what) from None
 
 
-def _check_structure(text: str, source: str, what: str = "recipe", max_events: int = MAX_EVENTS) -> None:
+def _check_structure(text: str, source, what: Message = RECIPE, max_events: int = MAX_EVENTS) -> None:
     """Refuse anchors and aliases, explicit tags other than the core ones,
     merge keys, deep nesting and huge documents before anything is built
     from them; the event stream is read lazily, so nothing large is ever
@@ -83,41 +92,40 @@ def _check_structure(text: str, source: str, what: str = "recipe", max_events: i
     try:
         for event in yaml.parse(text, Loader=yaml.SafeLoader):
             events += 1
-            line = event.start_mark.line + 1
+            where = at_line(source, event.start_mark.line + 1)
             if isinstance(event, yaml.AliasEvent) or getattr(event, "anchor", None):
-                raise UserError(f"{source}, line {line}: YAML anchors and aliases (& and *) are not allowed "
-                                f"in a {what}; write each value out")
+                raise UserError("errors.yaml_alias", where=where, what=what)
             tag = getattr(event, "tag", None)
             if tag is not None and tag != "!" and tag not in _CORE_TAGS:
-                raise UserError(f"{source}, line {line}: the YAML tag {shown(tag)} is not allowed in a {what}; "
-                                "remove it and write the plain value")
+                raise UserError("errors.yaml_tag", where=where, tag=shown(tag), what=what)
             if isinstance(event, yaml.ScalarEvent) and event.value == "<<" and event.style is None:
-                raise UserError(f"{source}, line {line}: the YAML merge key '<<' is not allowed in a {what}; "
-                                "write each key out")
+                raise UserError("errors.yaml_merge", where=where, what=what)
             if isinstance(event, (yaml.MappingStartEvent, yaml.SequenceStartEvent)):
                 depth += 1
                 if depth > MAX_DEPTH:
-                    raise UserError(f"{source}, line {line}: the {what} is nested deeper than {MAX_DEPTH} "
-                                    "levels")
+                    raise UserError("errors.nested_deeper", where=where, what=what, levels=MAX_DEPTH)
             elif isinstance(event, (yaml.MappingEndEvent, yaml.SequenceEndEvent)):
                 depth -= 1
             if events > max_events:
-                raise UserError(f"{source}: the {what} has more than {max_events} values; is it a {what}?")
+                raise UserError("errors.too_many_values", source=source, what=what, count=max_events)
     except yaml.YAMLError:
         return  # reported with its line and column by the loader
 
 
-def _yaml_error(exc: yaml.YAMLError, source: str) -> UserError:
+def _yaml_error(exc: yaml.YAMLError, source) -> UserError:
+    """PyYAML's own description of the problem is quoted as it gives it
+    (in English): it is the parser's, not kitgen's."""
     mark = getattr(exc, "problem_mark", None)
-    where = f" at line {mark.line + 1}, column {mark.column + 1}" if mark else ""
-    problem = getattr(exc, "problem", None) or "not valid YAML"
-    return UserError(f"{source}: invalid YAML{where}: {problem}; check the quotes, colons and indentation there")
+    at = Message("errors.yaml_at", line=mark.line + 1, column=mark.column + 1) if mark else ""
+    problem = getattr(exc, "problem", None) or Message("errors.yaml_not_valid")
+    return UserError("errors.invalid_yaml", source=source, at=at, problem=problem)
 
 
-def safe_yaml(text: str, source: str = "recipe", what: str = "recipe", max_events: int = MAX_EVENTS):
+def safe_yaml(text: str, source=RECIPE, what: Message = RECIPE, max_events: int = MAX_EVENTS):
     """The value of YAML ``text`` after the structure checks, built by the
-    safe loader only; a :class:`UserError` for anything wrong.  ``what``
-    names the kind of file in messages ("recipe", "language file")."""
+    safe loader only; a :class:`UserError` for anything wrong.  ``source``
+    names the file in messages (a path or a :class:`Message`), ``what`` the
+    kind of file (:data:`RECIPE`, :data:`LANGUAGE_FILE`)."""
     _check_structure(text, source, what, max_events)
     try:
         return yaml.safe_load(text)
@@ -125,10 +133,9 @@ def safe_yaml(text: str, source: str = "recipe", what: str = "recipe", max_event
         raise _yaml_error(exc, source) from None
     except (ValueError, OverflowError):
         # The core schema's constructors (a number of more than 4300 digits).
-        raise UserError(f"{source}: a value cannot be read (a number far too long?); "
-                        "write plain numbers such as 48.2") from None
+        raise UserError("errors.unreadable_value", source=source) from None
     except RecursionError:
-        raise UserError(f"{source}: the {what} is nested too deeply") from None
+        raise UserError("errors.nested_too_deeply", source=source, what=what) from None
 
 
 def _key_nodes(text: str) -> dict:
@@ -156,25 +163,46 @@ class _DuplicateKey(Exception):
     pass
 
 
-def parse_recipe_text(text: str, source: str = "recipe") -> Recipe:
+def parse_recipe_text(text: str, source=RECIPE) -> Recipe:
     """Validate recipe text; ``source`` names the file in messages."""
     tree = safe_yaml(text, source)
     if tree is None:
-        raise UserError(f"{source}: the recipe is empty; `kitgen new` writes a starter recipe")
+        raise UserError("errors.recipe_empty", source=source)
     if not isinstance(tree, dict):
-        raise UserError(f"{source}: a recipe is a mapping of keys to values, such as 'latitude: 48.2'; "
-                        "`kitgen new` writes a starter recipe")
-    try:
-        nodes = _key_nodes(text)
-    except _DuplicateKey as dup:
-        name, first, again = dup.args
-        raise UserError(f"{source}, line {again}: the key {shown(name)} is given twice (first on line {first}); "
-                        "keep one") from None
-    lines = {k: line for k, (line, _) in nodes.items()}
-    raw_latitude = nodes.get("latitude", (0, None))[1]
-    if raw_latitude is not None and ":" in raw_latitude:
-        tree["latitude"] = raw_latitude
-    return validate_recipe(tree, source, lines)
+        raise UserError("errors.recipe_not_mapping", source=source)
+    with speaking(lambda: recipe_language(tree, source)):
+        try:
+            nodes = _key_nodes(text)
+        except _DuplicateKey as dup:
+            name, first, again = dup.args
+            raise UserError("errors.key_twice", where=at_line(source, again), name=shown(name),
+                            first=first) from None
+        lines = {k: line for k, (line, _) in nodes.items()}
+        raw_latitude = nodes.get("latitude", (0, None))[1]
+        if raw_latitude is not None and ":" in raw_latitude:
+            tree["latitude"] = raw_latitude
+        return validate_recipe(tree, source, lines)
+
+
+def recipe_language(tree: dict, source=RECIPE) -> tuple[str | None, str | None]:
+    """The language a recipe tree asks to be spoken to in, as far as it
+    can tell: ``(language, language_file)``, the first the code of a
+    shipped template, the second the path of a language file that passes
+    its checks (it wins); ``None`` for what the tree does not tell."""
+    from ..words.templates import available_languages, check_language_file
+
+    code = tree.get("language")
+    language = code if isinstance(code, str) and code in available_languages() else None
+    value = tree.get("language_file")
+    if isinstance(value, str) and value and len(value) <= MAX_TEXT_CHARS and not _text_problem(value):
+        base = Path(str(source)).parent if Path(str(source)).is_file() else Path.cwd()
+        path = (base / value).resolve()
+        try:
+            check_language_file(path)
+            return language, str(path)
+        except UserError:
+            pass
+    return language, None
 
 
 def load_recipe(path) -> Recipe:
@@ -182,24 +210,30 @@ def load_recipe(path) -> Recipe:
     return parse_recipe_text(read_text_file(path), str(path))
 
 
-def validate_recipe(tree: dict, source: str = "recipe", lines: dict | None = None) -> Recipe:
-    """Check every key of ``tree`` and build the :class:`Recipe`."""
-    lines = lines or {}
+def validate_recipe(tree: dict, source=RECIPE, lines: dict | None = None) -> Recipe:
+    """Check every key of ``tree`` and build the :class:`Recipe`.  A
+    :class:`UserError` carries the language the tree asks for (see
+    :func:`recipe_language`), so that the message can be shown in it."""
+    with speaking(lambda: recipe_language(tree, source)):
+        return _validate(tree, source, lines or {})
+
+
+def _validate(tree: dict, source, lines: dict) -> Recipe:
     values: dict = {}
     for name, value in tree.items():
-        where = f"{source}, line {lines[name]}" if isinstance(name, str) and name in lines else source
+        where = at_line(source, lines[name]) if isinstance(name, str) and name in lines else source
         if not isinstance(name, str) or name not in KEYS_BY_NAME:
             close = difflib.get_close_matches(str(name)[:MAX_TEXT_CHARS], KEYS_BY_NAME, n=1)
-            hint = f"; did you mean '{close[0]}'?" if close else f"; valid keys: {', '.join(KEYS_BY_NAME)}"
-            raise UserError(f"{where}: unknown key {shown(name)}{hint}")
+            hint = (Message("errors.hint_did_you_mean", name=close[0]) if close
+                    else Message("errors.hint_valid_keys", names=list(KEYS_BY_NAME)))
+            raise UserError("errors.unknown_key", where=where, name=shown(name), hint=hint)
         key = KEYS_BY_NAME[name]
         values[key.attr] = _check(key, value, where)
         if key.name == "language_file" and values[key.attr]:
             from ..words.templates import resolve_language_file
             values[key.attr] = resolve_language_file(values[key.attr], source, where)
     if "latitude_deg" not in values:
-        raise UserError(f"{source}: the key 'latitude' is required (degrees, north positive, -90 to 90); "
-                        "add a line such as 'latitude: 48.2'")
+        raise UserError("errors.latitude_required", source=source)
     values.setdefault("epoch", current_year())
     _check_drawable(values, source, lines)
     return Recipe(**values)
@@ -228,10 +262,10 @@ def _check_drawable(values: dict, source: str, lines: dict) -> None:
             continue
         lost = set().union(*(fonts.missing_chars(text, fonts.stack(script, style)) for style in fonts.STYLES))
         if lost:
-            where = f"{source}, line {lines[name]}" if name in lines else source
-            chars = ", ".join(f"U+{ord(c):04X}" for c in sorted(lost)[:5]) + (" ..." if len(lost) > 5 else "")
-            raise UserError(f"{where}: '{name}' has characters that no shipped font draws ({chars}); "
-                            "remove them or write the text another way")
+            where = at_line(source, lines[name]) if name in lines else source
+            chars = [f"U+{ord(c):04X}" for c in sorted(lost)[:5]]
+            raise UserError("errors.not_drawable", where=where, name=name, chars=chars,
+                            more=" ..." if len(lost) > 5 else "")
 
 
 def finite_number(value) -> bool:
@@ -245,70 +279,86 @@ def finite_number(value) -> bool:
 
 
 def _text_problem(value: str) -> str | None:
-    """Why ``value`` cannot be printed, or ``None``: control characters
-    and lone surrogates (which no font can show and no PDF can carry)."""
+    """The first character of ``value`` that cannot be printed, or
+    ``None``: control characters and lone surrogates (which no font can
+    show and no PDF can carry)."""
     for ch in value:
         cat = unicodedata.category(ch)
         if cat in ("Cc", "Cs"):
-            return f"contains the control character U+{ord(ch):04X}; remove it"
+            return ch
     return None
 
 
-def _check(key, value, where: str):
-    label = f"{where}: '{key.name}'"
+class KeyHelp(Message):
+    """A recipe key's help line (``errors.help.NAME`` in the templates;
+    the English is :attr:`schema.Key.help`), with the key's range and
+    choices as values."""
+
+    def __init__(self, key):
+        super().__init__("errors.help." + key.name,
+                         low=f"{key.low:g}" if key.low is not None else "",
+                         high=f"{key.high:g}" if key.high is not None else "",
+                         choices=list(key.choices))
+
+
+def _check(key, value, where):
+    label = Message("errors.key_label", where=where, name=key.name)
     if key.kind == "latitude":
         try:
             return parse_latitude(value)
         except LatitudeError as exc:
-            raise UserError(f"{label}: {exc}") from None
+            raise UserError("errors.key_problem", label=label, problem=exc) from None
     if key.kind in ("number", "integer"):
+        about = KeyHelp(key)
+        low, high = f"{key.low:g}", f"{key.high:g}"
         if isinstance(value, str) and "," in value and key.kind == "number":
-            raise UserError(f"{label} must be a number with a decimal point, not a comma (got {shown(value)})")
+            raise UserError("errors.decimal_comma", label=label, value=shown(value))
         if isinstance(value, float) and not math.isfinite(value):
-            raise UserError(f"{label} must be a finite number ({key.help}), got {value}")
+            raise UserError("errors.not_finite", label=label, help=about, value=value)
         if not finite_number(value):
             if isinstance(value, int) and not isinstance(value, bool):
-                raise UserError(f"{label} is far outside {key.low:g} to {key.high:g} ({key.help})")
-            raise UserError(f"{label} must be a number ({key.help}), got {shown(value)}")
+                raise UserError("errors.far_outside", label=label, low=low, high=high, help=about)
+            raise UserError("errors.not_number", label=label, help=about, value=shown(value))
         if key.kind == "integer" and not (isinstance(value, int) or float(value).is_integer()):
-            raise UserError(f"{label} must be a whole number ({key.help}), got {shown(value)}")
+            raise UserError("errors.not_whole", label=label, help=about, value=shown(value))
         if not key.low <= value <= key.high:
-            raise UserError(f"{label} is {value:g}, outside {key.low:g} to {key.high:g} ({key.help})")
+            raise UserError("errors.out_of_range", label=label, value=f"{value:g}", low=low, high=high, help=about)
         return int(value) if key.kind == "integer" else float(value)
     if key.kind == "string":
         if not isinstance(value, (str, int, float)) or isinstance(value, bool):
-            raise UserError(f"{label} must be text ({key.help}), got {shown(value)}; put it in quotes")
+            raise UserError("errors.not_text", label=label, help=KeyHelp(key), value=shown(value))
         value = str(value)
         if len(value) > MAX_TEXT_CHARS:
-            raise UserError(f"{label} is {len(value)} characters long; at most {MAX_TEXT_CHARS}, shorten it")
-        problem = _text_problem(value)
-        if problem:
-            raise UserError(f"{label} {problem}")
+            raise UserError("errors.text_too_long", label=label, length=len(value), limit=MAX_TEXT_CHARS)
+        bad = _text_problem(value)
+        if bad:
+            raise UserError("errors.control_character", label=label, code=f"{ord(bad):04X}")
         if key.name == "language":
             from ..words.templates import available_languages
             if value not in available_languages():
-                raise UserError(f"{label}: unknown language {shown(value)}; available: "
-                                f"{', '.join(available_languages())}")
+                raise UserError("errors.unknown_language", label=label, value=shown(value),
+                                codes=available_languages())
         return value
     if key.kind == "choice":
         if not isinstance(value, str) or value.lower() not in key.choices:
-            raise UserError(f"{label} must be one of {', '.join(key.choices)}, got {shown(value)}")
+            raise UserError("errors.not_choice", label=label, choices=list(key.choices), value=shown(value))
         return value.lower()
     if key.kind == "bool":
         if not isinstance(value, bool):
-            raise UserError(f"{label} must be true or false, got {shown(value)}")
+            raise UserError("errors.not_bool", label=label, value=shown(value))
         return value
     if key.kind == "parts":
+        parts = list(key.choices)
         if isinstance(value, list) and len(value) > MAX_LIST_ITEMS:
-            raise UserError(f"{label}: the list has {len(value)} items; at most {MAX_LIST_ITEMS} "
-                            f"(the parts are {', '.join(key.choices)})")
+            raise UserError("errors.list_too_long", label=label, count=len(value), limit=MAX_LIST_ITEMS,
+                            parts=parts)
         if not isinstance(value, list) or not all(isinstance(v, str) for v in value):
-            raise UserError(f"{label} must be a list of part names ({', '.join(key.choices)})")
+            raise UserError("errors.not_part_list", label=label, parts=parts)
         if not value and key.name == "parts":
-            raise UserError(f"{label} is empty; name at least one of {', '.join(key.choices)}")
+            raise UserError("errors.parts_empty", label=label, parts=parts)
         bad = [v for v in value if v not in key.choices]
         if bad:
-            raise UserError(f"{label}: unknown part {shown(bad[0])}; parts are {', '.join(key.choices)}")
+            raise UserError("errors.unknown_part", label=label, value=shown(bad[0]), parts=parts)
         return tuple(dict.fromkeys(value))
     if key.kind == "stars":
         return _check_stars(value, label)
@@ -316,37 +366,34 @@ def _check(key, value, where: str):
         try:
             return key.parse(value)
         except ValueError as exc:
-            raise UserError(f"{label}: {exc}") from None
+            raise UserError("errors.key_problem", label=label, problem=exc) from None
     raise AssertionError(key.kind)
 
 
-def _check_stars(value, label: str) -> StarChoice:
+def _check_stars(value, label: Message) -> StarChoice:
     from ..sky.stars import find_star
 
     if isinstance(value, list):
         if not value:
-            raise UserError(f"{label}: the list of stars is empty; name at least one, or write {{brightest: 32}}")
+            raise UserError("errors.stars_empty", label=label)
         if len(value) > MAX_STAR_NAMES:
-            raise UserError(f"{label}: at most {MAX_STAR_NAMES} stars, got {len(value)}; "
-                            f"shorten the list or write {{brightest: N}}")
+            raise UserError("errors.too_many_stars", label=label, limit=MAX_STAR_NAMES, count=len(value))
         names = []
         for v in value:
             if not isinstance(v, str) or isinstance(v, bool):
-                raise UserError(f"{label}: star names are text, got {shown(v)}; `kitgen stars` lists them")
+                raise UserError("errors.star_name_not_text", label=label, value=shown(v))
             if len(v) > MAX_STAR_NAME_CHARS or _text_problem(v):
-                raise UserError(f"{label}: {shown(v)} is no star name; `kitgen stars` lists them")
+                raise UserError("errors.no_star_name", label=label, value=shown(v))
             names.append(find_star(v, label).label)
         return StarChoice(names=tuple(dict.fromkeys(names)))
     if isinstance(value, dict) and len(value) == 1:
         (rule, n), = value.items()
         if rule == "brightest":
             if not finite_number(n) or int(n) != n or not 1 <= n <= MAX_STAR_NAMES:
-                raise UserError(f"{label}: 'brightest' takes a whole number from 1 to {MAX_STAR_NAMES}, "
-                                f"got {shown(n)}")
+                raise UserError("errors.brightest_range", label=label, limit=MAX_STAR_NAMES, value=shown(n))
             return StarChoice(brightest=int(n))
         if rule == "magnitude_limit":
             if not finite_number(n) or not -2.0 <= n <= 3.5:
-                raise UserError(f"{label}: 'magnitude_limit' takes a magnitude from -2 to 3.5 "
-                                f"(the catalogue holds stars brighter than 3.5), got {shown(n)}")
+                raise UserError("errors.magnitude_range", label=label, value=shown(n))
             return StarChoice(magnitude_limit=float(n))
-    raise UserError(f"{label} must be a list of star names, {{brightest: N}} or {{magnitude_limit: M}}")
+    raise UserError("errors.stars_form", label=label)

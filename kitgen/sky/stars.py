@@ -22,7 +22,7 @@ from typing import Callable, Iterable, Sequence
 
 import numpy as np
 
-from ..errors import UserError
+from ..errors import Message, UserError
 from ..recipe.schema import StarChoice
 from .precession import mean_place_deg
 
@@ -89,12 +89,14 @@ def find_star(name: str, where: str = "") -> Star:
     star = _index().get(key)
     if star is not None:
         return star
-    prefix = f"{where}: " if where else ""
     folded_names = {_fold(s.name): s.name for s in named_stars()}
     close = difflib.get_close_matches(key, list(folded_names), n=1, cutoff=0.6)
-    hint = f"; did you mean '{folded_names[close[0]]}'?" if close else "; `kitgen stars` lists the known names"
+    hint = (Message("errors.hint_did_you_mean", name=folded_names[close[0]]) if close
+            else Message("errors.hint_star_list"))
     shown = " ".join(str(name).split())
-    raise UserError(f"{prefix}unknown star '{shown}'{hint}")
+    if where:
+        raise UserError("errors.unknown_star_at", where=where, name=shown, hint=hint)
+    raise UserError("errors.unknown_star", name=shown, hint=hint)
 
 
 def named_stars() -> tuple[Star, ...]:
@@ -146,10 +148,9 @@ def select_stars(choice: StarChoice, epoch_year: float, fits: FitTest) -> list[S
         ok = _fitting(chosen, epoch_year, fits)
         outside = [s.label for s, inside in zip(chosen, ok) if not inside]
         if len(outside) == 1:
-            raise UserError(f"star '{outside[0]}' is outside the rete for this latitude")
+            raise UserError("errors.star_outside", name=outside[0])
         if outside:
-            listed = ", ".join(f"'{n}'" for n in outside)
-            raise UserError(f"stars {listed} are outside the rete for this latitude")
+            raise UserError("errors.stars_outside", names=[f"'{n}'" for n in outside])
         return chosen
     if choice.brightest is not None:
         pool = list(named_stars())

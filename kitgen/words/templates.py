@@ -20,7 +20,7 @@ from pathlib import Path
 
 import yaml
 
-from ..errors import UserError
+from ..errors import Message, UserError
 from . import fonts, locale
 from .fit import Fitted, fit_label
 from .measure import Extent, extent
@@ -66,6 +66,12 @@ def shipped_tree(language: str) -> dict:
     return yaml.safe_load(text)
 
 
+@lru_cache(maxsize=None)
+def shipped_table(language: str) -> dict:
+    """The flattened words of a shipped template (star names aside)."""
+    return _split(shipped_tree(language))[0]
+
+
 def word_keys(table: dict) -> set[str]:
     """The keys that print words (every key but the template's own facts)."""
     return {k for k in table if k not in META_KEYS}
@@ -100,6 +106,13 @@ class Words:
         if isinstance(template, list):
             raise KeyError(f"template key {key!r} is a list; use items()")
         return template.format(**values) if values else template
+
+    def template(self, key: str) -> str | None:
+        """The template text of ``key`` as written, ``{placeholders}`` and
+        all (``None`` when there is none); used for the error messages of
+        :mod:`kitgen.errors`."""
+        value = self._table.get(key)
+        return value if isinstance(value, str) else None
 
     def items(self, key: str) -> list[str]:
         value = self._table[key]
@@ -146,7 +159,7 @@ class Words:
 def load_words(language: str, native_digits: bool = False) -> Words:
     """The shipped template for ``language`` (a BCP 47 code such as ``en``)."""
     if language not in available_languages():
-        raise UserError(f"unknown language {language!r}; available: {', '.join(available_languages())}")
+        raise UserError("errors.unknown_language_code", value=repr(language), codes=available_languages())
     table, stars = _split(shipped_tree(language))
     return Words(language, table, stars, native_digits)
 
@@ -166,74 +179,75 @@ def check_language_file(path) -> dict:
     # Read and parsed as a recipe is (size-limited read, so /dev/zero cannot
     # fill the memory; anchors, tags, merge keys and deep nesting refused
     # before YAML's safe loader builds anything).
-    from ..recipe.load import read_text_file, safe_yaml
+    from ..recipe.load import LANGUAGE_FILE, read_text_file, safe_yaml
 
     p = Path(path)
-    text = read_text_file(p, MAX_LANGUAGE_FILE_BYTES, "language file")
-    tree = safe_yaml(text, f"language file {p}", "language file", max_events=50_000)
-    check_language_tree(tree, f"language file {p}")
+    text = read_text_file(p, MAX_LANGUAGE_FILE_BYTES, LANGUAGE_FILE)
+    source = Message("errors.source_language_file", path=p)
+    tree = safe_yaml(text, source, LANGUAGE_FILE, max_events=50_000)
+    check_language_tree(tree, source)
     return tree
 
 
-def check_language_tree(tree, source: str) -> None:
+def check_language_tree(tree, source) -> None:
     """Check a language tree against the English template: the same keys,
     the same placeholders, lists of the same length, plain text only, a
     language code that CLDR knows, and every character in the fonts."""
     if not isinstance(tree, dict):
-        raise UserError(f"{source}: a language file is a mapping of keys to words, like templates/en.yaml")
+        raise UserError("errors.language_not_mapping", source=source)
     code = tree.get("language")
     if not isinstance(code, str):
-        raise UserError(f"{source}: the key 'language' must give the language's BCP 47 code, such as 'ca'")
+        raise UserError("errors.language_code_missing", source=source)
     try:
         locale.cldr_locale(code)
     except locale.LocaleError:
-        raise UserError(f"{source}: '{code}' is no language code the Unicode CLDR knows") from None
+        raise UserError("errors.language_code_unknown", source=source, code=code) from None
     if not isinstance(tree.get("reviewed_by_native_speaker"), bool):
-        raise UserError(f"{source}: 'reviewed_by_native_speaker' must be true or false")
+        raise UserError("errors.language_reviewed", source=source)
     stars = tree.get(STAR_NAMES) or {}
     if not isinstance(stars, dict) or not all(isinstance(v, str) for v in stars.values()):
-        raise UserError(f"{source}: '{STAR_NAMES}' maps IAU star names to local names")
+        raise UserError("errors.language_star_names", source=source, section=STAR_NAMES)
     english, _ = _split(shipped_tree("en"))
     try:
         table, _ = _split(tree)
     except AttributeError:
-        raise UserError(f"{source}: every value is text, a list of text or a mapping") from None
+        raise UserError("errors.language_values", source=source) from None
     missing = sorted(word_keys(english) - word_keys(table))
     if missing:
-        raise UserError(f"{source}: missing keys: {', '.join(missing)}")
+        raise UserError("errors.language_missing_keys", source=source, keys=missing)
     unknown = sorted(word_keys(table) - word_keys(english))
     if unknown:
-        raise UserError(f"{source}: unknown keys: {', '.join(unknown)}")
+        raise UserError("errors.language_unknown_keys", source=source, keys=unknown)
     faces = set(fonts.stack(locale.script(code), "label")) | set(fonts.stack(locale.script(code), "bold"))
     for key in sorted(word_keys(english)):
         want, got = english[key], table[key]
         if isinstance(want, list) != isinstance(got, list) or (isinstance(want, list) and len(want) != len(got)):
             n = len(want) if isinstance(want, list) else 1
-            raise UserError(f"{source}: '{key}' must be a list of {n} items, as in the English template")
+            raise UserError("errors.language_list_length", source=source, key=key, count=n)
         try:
             if placeholders(want) != placeholders(got):
-                raise UserError(f"{source}: '{key}' must use the placeholders "
-                                f"{', '.join('{' + f + '}' for f in sorted(placeholders(want))) or '(none)'}")
+                fields = ["{" + f + "}" for f in sorted(placeholders(want))] or Message("errors.none")
+                raise UserError("errors.language_placeholders", source=source, key=key, fields=fields)
         except ValueError:
-            raise UserError(f"{source}: '{key}' has an unmatched {{ or }}") from None
+            raise UserError("errors.language_unmatched_brace", source=source, key=key) from None
         for text in got if isinstance(got, list) else [got]:
             if len(text) > MAX_STRING_CHARS:
-                raise UserError(f"{source}: '{key}' is longer than {MAX_STRING_CHARS} characters")
+                raise UserError("errors.language_string_long", source=source, key=key, limit=MAX_STRING_CHARS)
             lost = fonts.missing_chars(text, faces)
             if lost:
-                shown = ", ".join(f"U+{ord(c):04X} {unicodedata.name(c, '?')}" for c in sorted(lost))
-                raise UserError(f"{source}: '{key}' has characters no shipped font draws: {shown}")
+                chars = [f"U+{ord(c):04X} {unicodedata.name(c, '?')}" for c in sorted(lost)]
+                raise UserError("errors.language_chars", source=source, key=key, chars=chars)
 
 
-def resolve_language_file(value: str, source: str, where: str) -> str:
+def resolve_language_file(value: str, source: str, where) -> str:
     """The recipe key ``language_file``: a path relative to the recipe's
     folder (or to the current folder for a recipe that is no file),
     checked at once so that a bad language file is refused like a bad
     recipe.  Returns the absolute path."""
-    base = Path(source).parent if Path(source).is_file() else Path.cwd()
+    base = Path(str(source)).parent if Path(str(source)).is_file() else Path.cwd()
     path = (base / value).resolve()
     try:
         check_language_file(path)
     except UserError as exc:
-        raise UserError(f"{where}: 'language_file': {exc}") from None
+        raise UserError("errors.language_file_problem", where=where, problem=exc) from None
     return str(path)

@@ -1,0 +1,309 @@
+"""Every message a user reads comes from the language templates.
+
+- A static check (Python's own ``ast`` parser over kitgen/): every call of
+  :class:`kitgen.errors.UserError`, of :class:`~kitgen.errors.Message` and
+  of every other keyed error class names a key of the templates'
+  ``errors`` section as a string literal, gives exactly that entry's
+  placeholders, and the key is in every shipped language with the same
+  placeholders as English.  A raw English message fails it.
+- The completeness checks of tests/test_languages.py see the ``errors``
+  entries (keys, placeholders, glyph coverage).
+- Through the command line, a recipe's ``language`` (or ``language_file``)
+  chooses the language of its error: the expected line is built here from
+  the template files themselves (read with PyYAML), with the values filled
+  in, and the exit status is 2 (a mistake in the input).
+"""
+
+from __future__ import annotations
+
+import ast
+import importlib
+import pkgutil
+import string
+from importlib import resources
+from pathlib import Path
+
+import pytest
+import yaml
+
+import kitgen
+from kitgen.cli import main
+from kitgen.errors import EXIT_USER, KeyedError, Message, UserError
+
+LANGUAGES = ("en", "es", "fr", "de", "pt", "it", "el", "ru", "ar", "hi")
+PACKAGE = Path(kitgen.__file__).parent
+TEMPLATES = resources.files("kitgen.templates")
+
+#: Calls that pass a key on rather than name one: the machinery of
+#: kitgen/errors.py itself (a KeyedError keeps its Message).
+PLUMBING = {("errors.py", "__init__")}
+#: The help line of a recipe key, whose key is built from the key's name;
+#: test_every_recipe_key_has_its_help_in_every_language checks those.
+BUILT_KEYS = {"KeyHelp"}
+
+
+def _tree(code: str) -> dict:
+    return yaml.safe_load(TEMPLATES.joinpath(f"{code}.yaml").read_text(encoding="utf-8"))
+
+
+def _flat(tree, prefix=""):
+    out = {}
+    for k, v in tree.items():
+        if isinstance(v, dict):
+            out.update(_flat(v, f"{prefix}{k}."))
+        else:
+            out[f"{prefix}{k}"] = v
+    return out
+
+
+def _errors(code: str) -> dict:
+    return _flat(_tree(code)["errors"], "errors.")
+
+
+def _fields(text: str) -> set[str]:
+    return {f for _, f, _, _ in string.Formatter().parse(text) if f is not None}
+
+
+def _keyed_class_names() -> set[str]:
+    """Names of every class whose first argument is a message key: the
+    subclasses of KeyedError and Message, found after importing every
+    kitgen module."""
+    for info in pkgutil.walk_packages([str(PACKAGE)], "kitgen."):
+        if info.name != "kitgen.__main__":
+            importlib.import_module(info.name)
+    names, todo = set(), [KeyedError, Message]
+    while todo:
+        cls = todo.pop()
+        names.add(cls.__name__)
+        todo.extend(cls.__subclasses__())
+    return names
+
+
+def _calls():
+    """(file, line, function, call) for every call of a keyed class in kitgen/."""
+    names = _keyed_class_names() - BUILT_KEYS
+    for path in sorted(PACKAGE.rglob("*.py")):
+        rel = path.relative_to(PACKAGE).as_posix()
+        tree = ast.parse(path.read_text(encoding="utf-8"), rel)
+        # The module first, then functions outer before inner (ast.walk is
+        # breadth first), so that the last attribution is the innermost.
+        for func in [tree] + [n for n in ast.walk(tree) if isinstance(n, (ast.FunctionDef, ast.AsyncFunctionDef))]:
+            body = func.body
+            for node in ast.walk(ast.Module(body=body, type_ignores=[])):
+                if not isinstance(node, ast.Call):
+                    continue
+                f = node.func
+                name = f.id if isinstance(f, ast.Name) else f.attr if isinstance(f, ast.Attribute) else None
+                if name in names:
+                    yield rel, node.lineno, getattr(func, "name", "<module>"), node
+
+
+def _direct_calls():
+    """Each call once, attributed to its innermost function."""
+    seen = {}
+    for rel, line, fn, node in _calls():
+        seen[(rel, line, node.col_offset)] = (rel, line, fn, node)
+    return list(seen.values())
+
+
+def test_every_message_is_a_template_key_with_its_placeholders():
+    english = _errors("en")
+    others = {code: _errors(code) for code in LANGUAGES}
+    problems, used = [], set()
+    calls = _direct_calls()
+    assert len(calls) > 100  # the walk finds the calls (there are about 150)
+    for rel, line, fn, node in calls:
+        if (rel, fn) in PLUMBING:
+            continue
+        where = f"kitgen/{rel}:{line}"
+        first = node.args[0] if node.args else None
+        if not (isinstance(first, ast.Constant) and isinstance(first.value, str)):
+            problems.append(f"{where}: the message is not a key given as a string literal")
+            continue
+        key = first.value
+        used.add(key)
+        if key not in english:
+            problems.append(f"{where}: {key!r} is not in templates/en.yaml")
+            continue
+        if any(k.arg is None for k in node.keywords) or len(node.args) > 1:
+            problems.append(f"{where}: {key!r} takes its values as keyword arguments only")
+            continue
+        given = {k.arg for k in node.keywords}
+        if given != _fields(english[key]):
+            problems.append(f"{where}: {key!r} is given {sorted(given)}, the template has "
+                            f"{sorted(_fields(english[key]))}")
+        for code, table in others.items():
+            if key not in table or _fields(table[key]) != _fields(english[key]):
+                problems.append(f"{where}: {key!r} is missing or differs in templates/{code}.yaml")
+    assert not problems, "\n".join(problems)
+    # Every entry is used, so that the templates hold no message kitgen never says.
+    unused = {k for k in english if not k.startswith("errors.help.")} - used
+    assert not unused, sorted(unused)
+
+
+def test_the_static_check_catches_a_raw_message(tmp_path):
+    """The check above sees a raw English message and a key with the
+    wrong placeholders (run on a small source text of its own)."""
+    source = ('raise UserError(f"{p}: no such file")\n'
+              'raise UserError("errors.no_such_file", path=p)\n'
+              'raise UserError("errors.no_such_file", path=p, name=n, what=w)\n')
+    english = _errors("en")
+    verdicts = []
+    for node in [n for n in ast.walk(ast.parse(source)) if isinstance(n, ast.Call)]:
+        first = node.args[0]
+        literal = isinstance(first, ast.Constant) and first.value in english
+        verdicts.append(literal and {k.arg for k in node.keywords} == _fields(english[first.value]))
+    assert verdicts == [False, False, True]
+
+
+@pytest.mark.parametrize("code", LANGUAGES)
+def test_the_completeness_checks_see_the_error_messages(code):
+    """tests/test_languages.py compares every flattened key (and its
+    placeholders) with English and checks the glyphs of every string that
+    ``Words.strings()`` yields: both include the errors section."""
+    from kitgen.words.templates import load_words
+
+    from tests.test_languages import _flat as languages_flat
+
+    english = _errors("en")
+    assert set(english) <= set(languages_flat(_tree(code)))
+    strings = {k for k, _ in load_words(code).strings()}
+    assert set(english) <= strings
+    assert any(k.startswith("errors.help.") for k in strings)
+
+
+@pytest.mark.parametrize("code", LANGUAGES)
+def test_every_recipe_key_has_its_help_in_every_language(code):
+    """Messages quote a recipe key's help line; each key of the schema has
+    one in every language, and the English one says what schema.py says."""
+    from kitgen.recipe.load import KeyHelp
+    from kitgen.recipe.schema import KEYS
+
+    table = _errors(code)
+    english = _errors("en")
+    for key in KEYS:
+        name = f"errors.help.{key.name}"
+        assert name in table, (code, name)
+        assert _fields(table[name]) == _fields(english[name]) <= {"low", "high", "choices"}, (code, name)
+        if code == "en":
+            assert str(KeyHelp(key)) == key.help
+
+
+def test_str_of_an_error_is_the_english_template_filled_in():
+    english = _errors("en")
+    exc = UserError("errors.unknown_key", where="r.yaml, line 2", name="'colur'",
+                    hint=Message("errors.hint_did_you_mean", name="colour"))
+    assert str(exc) == english["errors.unknown_key"].format(
+        where="r.yaml, line 2", name="'colur'", hint=english["errors.hint_did_you_mean"].format(name="colour"))
+    # A list is joined with the language's list separator (from the template).
+    from kitgen.words.templates import load_words
+
+    arabic = _tree("ar")["page"]["list_separator"]
+    listed = Message("errors.stars_outside", names=["'Vega'", "'Deneb'"]).text(load_words("ar"))
+    assert listed == _errors("ar")["errors.stars_outside"].format(names=arabic.join(["'Vega'", "'Deneb'"]))
+
+
+# -- through the command line ------------------------------------------------------------
+
+def _run(argv, capsys) -> tuple[int, str]:
+    code = main([str(a) for a in argv])
+    _, err = capsys.readouterr()
+    lines = err.rstrip("\n").split("\n")
+    assert len(lines) == 1 and "Traceback" not in err, err
+    return code, lines[0]
+
+
+def _build(tmp_path, capsys, text: str) -> tuple[int, str, Path]:
+    recipe = tmp_path / "r.yaml"
+    recipe.write_text(text, encoding="utf-8")
+    out = tmp_path / "kit.pdf"
+    code, line = _run(["build", recipe, "-o", out], capsys)
+    assert not out.exists()
+    return code, line, recipe
+
+
+def test_spanish_recipe_with_an_unknown_key_is_told_in_spanish(tmp_path, capsys):
+    code, line, recipe = _build(tmp_path, capsys, "language: es\nlatitude: 40\naltitud_step_deg: 5\n")
+    es = _errors("es")
+    where = es["errors.at_line"].format(source=recipe, line=3)
+    hint = es["errors.hint_did_you_mean"].format(name="altitude_step_deg")
+    message = es["errors.unknown_key"].format(where=where, name="'altitud_step_deg'", hint=hint)
+    assert code == EXIT_USER
+    assert line == es["errors.report"].format(message=message)
+    assert "clave desconocida" in line  # the Spanish words themselves, not English
+
+
+def test_arabic_recipe_with_a_latitude_out_of_range_is_told_in_arabic(tmp_path, capsys):
+    code, line, recipe = _build(tmp_path, capsys, "language: ar\nlatitude: 95\n")
+    ar = _errors("ar")
+    label = ar["errors.key_label"].format(where=ar["errors.at_line"].format(source=recipe, line=2),
+                                          name="latitude")
+    problem = ar["errors.latitude_range"].format(value="95")
+    message = ar["errors.key_problem"].format(label=label, problem=problem)
+    assert code == EXIT_USER
+    assert line == ar["errors.report"].format(message=message)
+    assert "خط العرض" in line
+
+
+@pytest.mark.parametrize("text", ["latitude: 95\n", "language: tlh\nlatitude: 95\n", "language: [es]\nlatitude: 95\n"])
+def test_recipe_with_no_valid_language_is_told_in_english(tmp_path, capsys, text):
+    """No language, an unknown code, or a language that is no text: English
+    (the first error found is the one reported)."""
+    code, line, recipe = _build(tmp_path, capsys, text)
+    en = _errors("en")
+    assert code == EXIT_USER
+    assert line.startswith("kitgen: error: ")
+    if text.startswith("latitude"):
+        assert line == f"kitgen: error: {recipe}, line 1: 'latitude': the latitude is 95, outside -90 to 90 degrees"
+    else:
+        assert "'language'" in line and (" unknown language " in line or " must be text " in line), line
+    assert en["errors.report"].format(message="") == "kitgen: error: "
+
+
+def test_an_error_found_while_building_is_told_in_the_recipes_language(tmp_path, capsys):
+    """Polaris (Dec about +89 degrees, any star catalogue) never rises at
+    latitude 40 S, so it is off a southern rete: the build, not the loader,
+    refuses it, still in the recipe's language."""
+    code, line, _ = _build(tmp_path, capsys, "language: fr\nlatitude: -40\nstars: [Polaris]\n")
+    fr = _errors("fr")
+    assert code == EXIT_USER
+    assert line == fr["errors.report"].format(message=fr["errors.star_outside"].format(name="Polaris"))
+
+
+def test_a_recipes_own_language_file_tells_the_errors(tmp_path, capsys):
+    """A Catalan language file (its errors section taken from es.yaml, one
+    entry reworded) tells the recipe's unknown key in its own words."""
+    tree = _tree("es")
+    tree["language"] = "ca"
+    tree["errors"]["unknown_key"] = "{where}: clau desconeguda {name}{hint}"
+    (tmp_path / "ca.yaml").write_text(yaml.safe_dump(tree, allow_unicode=True), encoding="utf-8")
+    code, line, recipe = _build(tmp_path, capsys, "language_file: ca.yaml\nlatitude: 40\nplaca: x\n")
+    es = _errors("es")
+    where = es["errors.at_line"].format(source=recipe, line=3)
+    assert code == EXIT_USER
+    assert line == es["errors.report"].format(message=f"{where}: clau desconeguda 'placa'" + es[
+        "errors.hint_did_you_mean"].format(name="place"))
+
+
+def test_a_bad_language_file_is_told_in_the_recipes_language(tmp_path, capsys):
+    """The language file itself is wrong (no 'language' code): the recipe's
+    'language' still tells the message's language."""
+    (tmp_path / "mine.yaml").write_text("reviewed_by_native_speaker: false\n", encoding="utf-8")
+    code, line, recipe = _build(tmp_path, capsys, "language: de\nlanguage_file: mine.yaml\nlatitude: 40\n")
+    de = _errors("de")
+    source = de["errors.source_language_file"].format(path=(tmp_path / "mine.yaml").resolve())
+    problem = de["errors.language_code_missing"].format(source=source)
+    where = de["errors.at_line"].format(source=recipe, line=2)
+    assert code == EXIT_USER
+    assert line == de["errors.report"].format(
+        message=de["errors.language_file_problem"].format(where=where, problem=problem))
+
+
+def test_calibrate_tells_its_errors_in_its_language(tmp_path, capsys):
+    out = tmp_path / "cal.pdf"
+    code, line = _run(["calibrate", "--language", "ru", "--margin", "99", "-o", out], capsys)
+    ru = _errors("ru")
+    assert code == EXIT_USER
+    assert line == ru["errors.report"].format(
+        message=ru["errors.margin_option"].format(value="99", low="6", high="30"))
+    assert not out.exists()
