@@ -269,3 +269,17 @@ def test_no_word_cut_short_in_the_done_when_kits(diameter):
         kit = kit_of(f"sheet: {sheet}\ndiameter_mm: {diameter}\n")
         cut = [e.geom["text"] for p in kit.parts for e in p.elements if e.shape == "text" and "\u2026" in e.geom["text"]]
         assert cut == [], (diameter, sheet)
+
+
+def test_no_label_goes_missing_unsaid():
+    """Every star drawn without its name, and every label cut short, is named
+    in the build's notes (at 80 mm the rete has both)."""
+    kit = kit_of("diameter_mm: 80\n")
+    rete = kit.part("rete")
+    named = {e.values.get("name") for e in rete.elements if e.role == "star_label"}
+    unnamed = [e.values["name"] for e in rete.elements if e.role == "star" and e.values["name"] not in named]
+    cut = {e.values.get("full_text") for p in kit.parts for e in p.elements
+           if e.shape == "text" and e.geom["text"].endswith("\u2026")}
+    notes = " ".join(kit.notes)
+    assert unnamed and cut
+    assert all(name in notes for name in unnamed) and all(repr(c) in notes for c in cut)

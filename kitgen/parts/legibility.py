@@ -319,7 +319,8 @@ def ecliptic_band_mm(radius_mm: float, dims, words) -> float:
 def shortened_notes(parts, dims) -> tuple[str, ...]:
     """Notes for the labels that the fitting rule (kitgen.words.fit) had to
     cut short with "…" because even at the legible minimum they did not fit
-    their room: so that no shortened word goes unsaid."""
+    their room, and for the stars the label placer found no room to name:
+    so that no shortened or missing word goes unsaid."""
     out = []
     size = f"{2 * dims.mater_radius_mm:g} mm"
     for part in parts:
@@ -328,4 +329,9 @@ def shortened_notes(parts, dims) -> tuple[str, ...]:
         if cut:
             out.append(f"{part.kind.replace('_', ' ')}: " + ", ".join(repr(c) for c in cut)
                        + f" shortened with '...' to fit at {size}")
+        named = {e.values.get("name") for e in part.elements if e.role == "star_label"}
+        unnamed = [e.values["name"] for e in part.elements if e.role == "star" and e.values["name"] not in named]
+        if unnamed:
+            out.append(f"{part.kind.replace('_', ' ')}: no room for the name of " + ", ".join(unnamed)
+                       + f" at {size}; the star is drawn without it")
     return tuple(out)
