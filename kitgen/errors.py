@@ -56,8 +56,13 @@ class Message:
                 said = None
             if said is not None:
                 return said
-        said = _say(self.key, self.values, None)
-        return said if said is not None else self.key
+        try:
+            said = _say(self.key, self.values, None)
+        except (KeyError, ValueError, IndexError, AttributeError):
+            said = None  # a message is always shown, even a faulty one
+        if said is None:  # no such entry: the key itself, and the values
+            said = f"{self.key} {self.values!r}" if self.values else self.key
+        return said
 
     def __str__(self) -> str:
         return self.text()
