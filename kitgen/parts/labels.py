@@ -48,11 +48,18 @@ def _meets_ring(box, ring) -> bool:
     return near < r1 and far > r0
 
 
+#: How far from its point a label may stand, in units of the offset: the
+#: nearest free place wins, a farther one only when the near ones are taken
+#: (a label a few millimetres off still reads as its star's on a rete).
+NEAR_FIRST = (1.0, 1.8, 2.8)
+
+
 def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), inside_radius_mm=None,
                  keep_out_rings=(), *, measure):
     """For each point (in order of importance) the (at, anchor) of its
-    label: right, left, above, below the point or at a corner, the first
-    of these whose measured box meets no label placed before, no
+    label: right, left, above, below the point or at a corner, at the
+    offset or (when those are taken) farther out, the first of these whose
+    measured box meets no label placed before, no
     ``keep_out`` box, no ring of ``keep_out_rings`` ((center, r_inner,
     r_outer)) and stays inside ``inside_radius_mm``; else ``None`` (the
     label is left out rather than printed over another, over a scale or
@@ -61,11 +68,14 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
     out = []
     for (x, y), text in zip(points, texts):
         h = measure(text, size_pt).height_mm
-        d = offset_mm * 0.75
-        candidates = [((x + offset_mm, y), "start"), ((x - offset_mm, y), "end"),
-                      ((x, y + offset_mm + h / 2), "middle"), ((x, y - offset_mm - h / 2), "middle"),
-                      ((x + d, y + d + h / 2), "start"), ((x - d, y + d + h / 2), "end"),
-                      ((x + d, y - d - h / 2), "start"), ((x - d, y - d - h / 2), "end")]
+        candidates = []
+        for reach in NEAR_FIRST:
+            o = offset_mm * reach
+            d = o * 0.75
+            candidates += [((x + o, y), "start"), ((x - o, y), "end"),
+                           ((x, y + o + h / 2), "middle"), ((x, y - o - h / 2), "middle"),
+                           ((x + d, y + d + h / 2), "start"), ((x - d, y + d + h / 2), "end"),
+                           ((x + d, y - d - h / 2), "start"), ((x - d, y - d - h / 2), "end")]
         choice = None
         for at, anchor in candidates:
             box = text_box_mm(at, text, size_pt, anchor, measure)

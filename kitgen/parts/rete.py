@@ -82,8 +82,10 @@ def rete(ctx: PartContext) -> model.Part:
     pin_box = (-2.5, -2.5, 2.5, 2.5)  # the pin's crosshair
     names = [w.star_name(st.star.label) for st in stars]
     zodiac_boxes = [labels.element_box_mm(e, w) for e in els if e.role == "zodiac_label"]
+    dot = 1.0 * d.scale  # mm: the largest star dot's radius (see kitgen.render.style.star_radius_mm)
+    dot_boxes = [(q[0] - dot, q[1] - dot, q[0] + dot, q[1] + dot) for q in pts]
     places = labels.place_labels(pts, names, d.small_text_pt, d.tick_mm * 1.3,
-                                 keep_out=[pin_box] + zodiac_boxes,
+                                 keep_out=[pin_box] + zodiac_boxes + dot_boxes,
                                  inside_radius_mm=d.plate_radius_mm - labels.MARGIN_MM,
                                  keep_out_rings=[(tuple(c), image.radius_mm - band, image.radius_mm)],
                                  measure=w.measure)
