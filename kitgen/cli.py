@@ -87,9 +87,11 @@ def _cmd_build(args) -> int:
 
 
 def _print_notes(kit) -> None:
-    """Say on stderr what the build thinned to keep every scale legible."""
+    """Say on stderr what the build thinned or shortened to keep every
+    scale legible, one line a note, in the kit's language (the ``notes``
+    section of its template, prefix and all, as errors use ``errors.report``)."""
     for note in kit.notes:
-        print(f"kitgen: note: {note}", file=sys.stderr)
+        print(one_line(Message("notes.report", message=note).text(kit.words)), file=sys.stderr)
 
 
 def _cmd_geometry(args) -> int:
@@ -213,15 +215,19 @@ def _cmd_preview(args) -> int:
     with speaking(recipe.language, recipe.language_file or None):
         kit = build_kit(recipe)
         pictures = render_previews(build_pdf(kit)[1], args.dpi)
-    digits = max(2, len(str(len(pictures))))
-    names = [f"{Path(args.recipe).stem}-page-{k:0{digits}d}.png" for k in range(1, len(pictures) + 1)]
-    for name in names:
-        check_target(folder / name, args.force, (Path(args.recipe),))
-    folder.mkdir(parents=True, exist_ok=True)
-    _print_notes(kit)
-    for name, data in zip(names, pictures):
-        write_atomic(inside_folder(folder, name), data, args.force, (Path(args.recipe),))
-        print(folder / name)
+        digits = max(2, len(str(len(pictures))))
+        names = [f"{Path(args.recipe).stem}-page-{k:0{digits}d}.png" for k in range(1, len(pictures) + 1)]
+        for name in names:
+            check_target(folder / name, args.force, (Path(args.recipe),))
+        try:
+            folder.mkdir(parents=True, exist_ok=True)
+        except OSError as exc:
+            from .outfile import write_error
+            raise write_error(folder, exc, Message("errors.doing_make_folder")) from None
+        _print_notes(kit)
+        for name, data in zip(names, pictures):
+            write_atomic(inside_folder(folder, name), data, args.force, (Path(args.recipe),))
+            print(folder / name)
     return EXIT_OK
 
 

@@ -7,7 +7,9 @@ language templates (``templates/LANG.yaml``) and the values for that
 entry's ``{placeholders}``, kept as a :class:`Message` and put into words
 only when shown.  ``str(exc)`` gives the English text; :meth:`Message.text`
 gives it in any language.  A value may itself be a :class:`Message` (a
-hint, a fragment) or a list, put into words in the same language.
+hint, a fragment), a :class:`Number` (written as the language writes
+numbers) or a list, put into words in the same language.  The build's
+notes (``notes`` section, :attr:`kitgen.kit.Kit.notes`) are messages too.
 
 :func:`one_line` makes any message safe to print as a single line on a
 terminal, and :func:`shown` quotes a value from the input briefly for a
@@ -31,15 +33,42 @@ MAX_MESSAGE_CHARS = 600
 MAX_SHOWN_CHARS = 60
 
 
+class Number:
+    """A number a message says in its language's way (the CLDR decimal
+    sign, the recipe's choice of digits: :meth:`Words.number
+    <kitgen.words.templates.Words.number>`), with ``decimals`` decimals, or
+    with as few as show it whole (at most 3) for ``None``.  Numbers the
+    user typed stay as typed (plain text values); numbers kitgen works out,
+    such as the sizes in the build's notes, are :class:`Number`."""
+
+    def __init__(self, value: float, decimals: int | None = None):
+        self.value = float(value)
+        if decimals is None:
+            tolerance = 1e-6 * max(1.0, abs(self.value))
+            decimals = next((d for d in range(3) if abs(round(self.value, d) - self.value) <= tolerance), 3)
+        self.decimals = int(decimals)
+
+    def text(self, words=None) -> str:
+        if words is not None:
+            return words.number(self.value, self.decimals)
+        return f"{self.value:.{self.decimals}f}"
+
+    def __repr__(self) -> str:
+        return f"Number({self.value!r}, {self.decimals})"
+
+
 class Message:
-    """One entry of the templates' ``errors`` section (``key``, such as
-    ``"errors.unknown_key"``) and the values of its placeholders.
+    """One entry of the templates' ``errors`` or ``notes`` section
+    (``key``, such as ``"errors.unknown_key"``) and the values of its
+    placeholders.
 
     Values are file names, key names and numbers as the user wrote them
-    (numbers are shown as written in a recipe, with a decimal point), other
-    :class:`Message` objects (hints and fragments, so that no English is
-    glued on in the code), :class:`KeyedError` objects, or lists, joined
-    with the language's ``page.list_separator``."""
+    (numbers are shown as written in a recipe, with a decimal point),
+    :class:`Number` objects (numbers kitgen works out, written as the
+    language writes them), other :class:`Message` objects (hints and
+    fragments, so that no English is glued on in the code),
+    :class:`KeyedError` objects, or lists, joined with the language's
+    ``page.list_separator``."""
 
     def __init__(self, key: str, /, **values):
         self.key = key
@@ -89,7 +118,7 @@ def _say(key: str, values: dict, words) -> str | None:
 
 
 def _value_text(value, words) -> str:
-    if isinstance(value, (Message, KeyedError)):
+    if isinstance(value, (Message, KeyedError, Number)):
         return value.text(words)
     if isinstance(value, (list, tuple)):
         sep = (words.template("page.list_separator") if words is not None else None) \

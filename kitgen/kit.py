@@ -9,6 +9,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass, replace
 
+from .errors import Message
 from .geometry.model import Part
 from .layout.pages import default_diameter_mm, kit_sheet
 from .parts import PART_BUILDERS
@@ -27,9 +28,10 @@ class Kit:
     dims: Dimensions
     words: Words
     parts: tuple[Part, ...]
-    #: What the build thinned to keep every scale legible at this size, for
-    #: the command line to tell (kitgen.parts.legibility).
-    notes: tuple[str, ...] = ()
+    #: What the build thinned or shortened to keep every scale legible at
+    #: this size, for the command line to tell (kitgen.parts.legibility):
+    #: messages of the templates' ``notes`` section, said with ``words``.
+    notes: tuple[Message, ...] = ()
 
     def part(self, kind: str) -> Part:
         return next(p for p in self.parts if p.kind == kind)
@@ -53,4 +55,4 @@ def build_kit(recipe: Recipe) -> Kit:
     scales = plan_scales(recipe, sky, dims, words)
     ctx = PartContext(recipe, sky, dims, words, scales)
     parts = tuple(on_material(build(ctx), recipe) for kind, build in PART_BUILDERS.items() if kind in recipe.parts)
-    return Kit(recipe, sky, dims, words, parts, scales.notes + shortened_notes(parts, dims))
+    return Kit(recipe, sky, dims, words, parts, scales.notes + shortened_notes(parts, dims, words))

@@ -44,6 +44,7 @@ _ADVICE = {
     errno.EPERM: Message("errors.write_permission"),
     errno.ENAMETOOLONG: Message("errors.write_name_too_long"),
     errno.EIO: Message("errors.write_io"),
+    errno.ENOTDIR: Message("errors.write_not_folder"),
 }
 
 #: What was being done, for :func:`write_error`.

@@ -1,13 +1,14 @@
 """Every message a user reads comes from the language templates.
 
-- A static check (Python's own ``ast`` parser over kitgen/): every call of
-  :class:`kitgen.errors.UserError`, of :class:`~kitgen.errors.Message` and
-  of every other keyed error class names a key of the templates'
-  ``errors`` section as a string literal, gives exactly that entry's
-  placeholders, and the key is in every shipped language with the same
-  placeholders as English.  A raw English message fails it.
+- A static check (Python's own ``ast`` parser over kitgen/, parts
+  included): every call of :class:`kitgen.errors.UserError`, of
+  :class:`~kitgen.errors.Message` and of every other keyed error class
+  names a key of the templates' ``errors`` or ``notes`` section as a string
+  literal, gives exactly that entry's placeholders, and the key is in every
+  shipped language with the same placeholders as English.  A raw English
+  message fails it.
 - The completeness checks of tests/test_languages.py see the ``errors``
-  entries (keys, placeholders, glyph coverage).
+  and ``notes`` entries (keys, placeholders, glyph coverage).
 - Through the command line, a recipe's ``language`` (or ``language_file``)
   chooses the language of its error: the expected line is built here from
   the template files themselves (read with PyYAML), with the values filled
@@ -60,6 +61,18 @@ def _errors(code: str) -> dict:
     return _flat(_tree(code)["errors"], "errors.")
 
 
+#: The sections whose entries are messages: the command line's errors and
+#: the build's notes (what it thinned or shortened to stay legible).
+MESSAGE_SECTIONS = ("errors", "notes")
+
+
+def _messages(code: str) -> dict:
+    out = {}
+    for section in MESSAGE_SECTIONS:
+        out.update(_flat(_tree(code)[section], f"{section}."))
+    return out
+
+
 def _fields(text: str) -> set[str]:
     return {f for _, f, _, _ in string.Formatter().parse(text) if f is not None}
 
@@ -107,11 +120,13 @@ def _direct_calls():
 
 
 def test_every_message_is_a_template_key_with_its_placeholders():
-    english = _errors("en")
-    others = {code: _errors(code) for code in LANGUAGES}
+    english = _messages("en")
+    others = {code: _messages(code) for code in LANGUAGES}
     problems, used = [], set()
     calls = _direct_calls()
     assert len(calls) > 100  # the walk finds the calls (there are about 150)
+    # ... the notes of kitgen/parts/legibility.py among them
+    assert any(rel == "parts/legibility.py" for rel, *_ in calls)
     for rel, line, fn, node in calls:
         if (rel, fn) in PLUMBING:
             continue
@@ -123,7 +138,7 @@ def test_every_message_is_a_template_key_with_its_placeholders():
         key = first.value
         used.add(key)
         if key not in english:
-            problems.append(f"{where}: {key!r} is not in templates/en.yaml")
+            problems.append(f"{where}: {key!r} is not in the errors or notes of templates/en.yaml")
             continue
         if any(k.arg is None for k in node.keywords) or len(node.args) > 1:
             problems.append(f"{where}: {key!r} takes its values as keyword arguments only")
@@ -160,12 +175,13 @@ def test_the_static_check_catches_a_raw_message(tmp_path):
 def test_the_completeness_checks_see_the_error_messages(code):
     """tests/test_languages.py compares every flattened key (and its
     placeholders) with English and checks the glyphs of every string that
-    ``Words.strings()`` yields: both include the errors section."""
+    ``Words.strings()`` yields: both include the errors and notes sections."""
     from kitgen.words.templates import load_words
 
     from tests.test_languages import _flat as languages_flat
 
-    english = _errors("en")
+    english = _messages("en")
+    assert any(k.startswith("notes.part.") for k in english)
     assert set(english) <= set(languages_flat(_tree(code)))
     strings = {k for k, _ in load_words(code).strings()}
     assert set(english) <= strings
@@ -307,3 +323,150 @@ def test_calibrate_tells_its_errors_in_its_language(tmp_path, capsys):
     assert line == ru["errors.report"].format(
         message=ru["errors.margin_option"].format(value="99", low="6", high="30"))
     assert not out.exists()
+
+
+# -- the build's notes, and messages about sheets and folders ---------------------------------
+
+def _filled(value, code: str) -> str:
+    """A message's text as the templates of ``code`` say it, filled in here
+    from the template files (PyYAML) and the Unicode CLDR (Babel's
+    format_decimal, for the numbers), not by kitgen's own code."""
+    from babel.numbers import format_decimal
+
+    from kitgen.errors import Number
+
+    if isinstance(value, Message):
+        table = _messages(code)
+        return table[value.key].format(**{k: _filled(v, code) for k, v in value.values.items()})
+    if isinstance(value, Number):
+        pattern = "0" + ("." + "0" * value.decimals if value.decimals else "")
+        return format_decimal(round(value.value, value.decimals), format=pattern, locale=code)
+    if isinstance(value, (list, tuple)):
+        return _tree(code)["page"]["list_separator"].join(_filled(v, code) for v in value)
+    return str(value)
+
+
+@pytest.mark.parametrize("code", ["de", "en"])
+def test_the_notes_of_a_small_kit_are_told_in_the_recipes_language(tmp_path, capsys, code):
+    """An 80 mm kit thins scales and shortens labels (see
+    tests/test_legibility.py); the command line tells every note on its own
+    line, in the recipe's language, exactly as its template words it (the
+    template text filled in here), numbers with the language's CLDR decimal
+    sign."""
+    from kitgen.kit import build_kit
+    from kitgen.recipe.load import load_recipe
+
+    recipe = tmp_path / "small.yaml"
+    recipe.write_text(f"latitude: 52.2\nepoch: 2027\nlanguage: {code}\ndiameter_mm: 80\n", encoding="utf-8")
+    out = tmp_path / "small.pdf"
+    assert main(["build", str(recipe), "-o", str(out)]) == 0
+    stdout, err = capsys.readouterr()
+    assert stdout.strip() == str(out) and out.exists() and "Traceback" not in err
+    notes = build_kit(load_recipe(recipe)).notes
+    keys = {n.key for n in notes}
+    assert len(notes) >= 4 and {"notes.shortened", "notes.unnamed_stars"} <= keys
+    report = _messages(code)["notes.report"]
+    assert err.splitlines() == [report.format(message=_filled(n, code)) for n in notes]
+    if code == "de":
+        # German words and the German decimal comma (CLDR de: decimal sign ","), no English.
+        assert all(line.startswith("kitgen: Hinweis: ") for line in err.splitlines())
+        assert "Durchmesser" in err and " would " not in err and " ticks " not in err
+        assert any("0," in line for line in err.splitlines())
+    else:
+        assert all(line.startswith("kitgen: note: ") for line in err.splitlines())
+        assert "0." in err
+
+
+def test_a_note_holds_no_word_of_its_own():
+    """Every note is a notes.* message whose part names are notes.part.*
+    messages and whose numbers are Number values: nothing English is put
+    together in the code."""
+    from kitgen.errors import Number
+    from kitgen.kit import build_kit
+    from kitgen.recipe.load import parse_recipe_text
+
+    kit = build_kit(parse_recipe_text("latitude: 52.2\nepoch: 2027\ndiameter_mm: 80\n"))
+    assert kit.notes
+    for note in kit.notes:
+        assert isinstance(note, Message) and note.key.startswith("notes.")
+        assert isinstance(note.values["part"], Message) and note.values["part"].key.startswith("notes.part.")
+        assert isinstance(note.values["diameter"], Number)
+        for name, value in note.values.items():
+            items = value if isinstance(value, list) else [value]
+            # star names (IAU, or the template's local names) are the only plain text
+            assert all(isinstance(v, (Message, Number)) for v in items) or name == "stars", (note.key, name)
+
+
+def _cli_line(argv, capsys) -> tuple[int, str]:
+    code = main([str(a) for a in argv])
+    _, err = capsys.readouterr()
+    note = _messages("en")["notes.report"].format(message="")
+    lines = [line for line in err.splitlines() if not line.startswith(note)]
+    assert len(lines) == 1 and "Traceback" not in err, err
+    return code, lines[0]
+
+
+def test_a_custom_sheet_is_named_once_in_english(tmp_path, capsys):
+    """'the 250 x 350 mm sheet', never 'sheet sheet' nor 'sheet page': the
+    duplex message for a custom sheet, and the margin message for a named
+    one, in English; German takes the same placeholders."""
+    en, de = _errors("en"), _errors("de")
+    custom = en["errors.sheet_custom"].format(width="250", height="350")
+    assert custom == "250 x 350 mm"
+    recipe = tmp_path / "r.yaml"
+    recipe.write_text("latitude: 40\nsheet: {width_mm: 250, height_mm: 350}\nduplex: long_edge\n"
+                      "diameter_mm: 300\n", encoding="utf-8")
+    code, line = _cli_line(["build", recipe, "-o", tmp_path / "k.pdf"], capsys)
+    assert code == EXIT_USER
+    assert line == en["errors.report"].format(message=en["errors.duplex_mater"].format(sheet=custom))
+    assert "one 250 x 350 mm page" in line and "sheet sheet" not in line and "sheet page" not in line
+    # ISO 216: A5 is 148 mm across, so margins of 30 mm leave 88 mm.
+    from kitgen.layout.sheets import MIN_USABLE_MM
+
+    recipe.write_text("latitude: 40\nsheet: a5\nmargin_mm: 30\n", encoding="utf-8")
+    code, line = _cli_line(["build", recipe, "-o", tmp_path / "k.pdf"], capsys)
+    assert code == EXIT_USER
+    assert line.endswith(en["errors.sheet_margin"].format(key="'margin_mm'", margin="30", usable="88", sheet="a5",
+                                                          needed=f"{MIN_USABLE_MM:g}"))
+    assert "across the a5 sheet;" in line
+    assert not (tmp_path / "k.pdf").exists()
+    for key in ("sheet_custom", "sheet_margin", "duplex_mater", "tile_sheet_too_small"):
+        assert _fields(de[f"errors.{key}"]) == _fields(en[f"errors.{key}"]), key
+
+
+def test_a_preview_folder_that_cannot_be_made_is_a_clean_error(tmp_path, capsys):
+    """The folder for the pictures would have to be made inside a plain
+    file: a mistake in the input (exit 2), told on one line in the recipe's
+    language (German here) as its templates word it, nothing written and
+    the file left as it was."""
+    recipe = tmp_path / "r.yaml"
+    recipe.write_text("latitude: 52.2\nepoch: 2027\nlanguage: de\n", encoding="utf-8")
+    blocker = tmp_path / "blocker"
+    blocker.write_bytes(b"mine")
+    folder = blocker / "look"
+    code, line = _cli_line(["preview", recipe, "-o", folder, "--dpi", "30"], capsys)
+    de = _errors("de")
+    assert code == EXIT_USER
+    assert line == de["errors.report"].format(message=de["errors.write_failed"].format(
+        path=folder, doing=de["errors.doing_make_folder"], advice=de["errors.write_not_folder"]))
+    assert blocker.read_bytes() == b"mine" and sorted(p.name for p in tmp_path.iterdir()) == ["blocker", "r.yaml"]
+
+
+def test_a_number_in_a_message_is_written_as_its_language_writes_numbers():
+    """Number values take the decimal sign (and, when asked, the digits) of
+    the Unicode CLDR as Babel gives them; without a language, a decimal
+    point.  ``None`` decimals: as few as show the number whole."""
+    from babel.numbers import format_decimal
+
+    from kitgen.errors import Number
+    from kitgen.words.templates import load_words
+
+    assert (Number(80.0).decimals, Number(1.5).decimals, Number(0.25).decimals, Number(179.9999999).decimals) == \
+        (0, 1, 2, 0)
+    assert Number(0.4495, 2).text() == "0.45" and Number(80.0).text() == "80"
+    assert Number(0.45, 2).text(load_words("de")) == format_decimal(0.45, format="0.00", locale="de")
+    # Babel gives the arab system's decimal sign; the digits are Unicode's
+    # ARABIC-INDIC DIGIT ZERO to NINE, U+0660 to U+0669.
+    arab = str.maketrans("0123456789", "".join(chr(0x660 + k) for k in range(10)))
+    assert Number(1.5).text(load_words("ar", native_digits=True)) == format_decimal(
+        1.5, format="0.0", locale="ar", numbering_system="arab").translate(arab)

@@ -22,6 +22,11 @@ shadow square's where they would meet.  A label that the fitting rule of
 :mod:`kitgen.words.fit` still has to cut short with "..." at the minimum
 size is named in a note too (:func:`shortened_notes`).
 
+A note is a :class:`kitgen.errors.Message`: a key of the templates'
+``notes`` section and its values (part names as :data:`PART_NAMES`,
+numbers as :class:`kitgen.errors.Number`), put into the kit's language
+only when the command line shows it; no word is written here.
+
 Everything here is a pure function of the recipe, the sky and the sizes,
 computed before the parts are drawn, so every part and the build's notes
 agree.  Lengths in mm; angles in degrees at the edges, radians inside.
@@ -34,6 +39,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from ..errors import Message, Number
 from ..projection.circles import PlaneCircle, project_circle
 from ..projection.stereographic import hemisphere_sign, horizontal_vector, project_vectors
 from ..render.style import stroke_width_mm
@@ -56,6 +62,16 @@ AZIMUTH_LADDER = (5, 10, 15, 30, 45, 90)
 #: Almucantars are numbered every 10 degrees (or every step, if coarser).
 ALTITUDE_LABEL_EVERY_DEG = 10.0
 
+#: Each part as the notes name it (the templates' ``notes.part`` words).
+PART_NAMES = {
+    "plate": Message("notes.part.plate"),
+    "rete": Message("notes.part.rete"),
+    "mater_front": Message("notes.part.mater_front"),
+    "mater_back": Message("notes.part.mater_back"),
+    "rule": Message("notes.part.rule"),
+    "alidade": Message("notes.part.alidade"),
+}
+
 
 @dataclass(frozen=True)
 class Scales:
@@ -71,7 +87,7 @@ class Scales:
     calendar_tick_days: int                   # mater back: 1 (every day) or 5 (1, 5, 10, ...)
     ecliptic_ticks_deg: tuple[int, ...]       # rete: longitudes that carry a tick
     shadow_labels: tuple[float, ...]          # mater back: shadow-square ratios numbered
-    notes: tuple[str, ...] = ()
+    notes: tuple[Message, ...] = ()
 
 
 def gap_mm(pitch_mm: float, width_mm: float) -> float:
@@ -90,10 +106,6 @@ def thinned(requested: float, ladder, pitch_per_unit_mm: float, width_mm: float)
         if gap_mm(pitch_per_unit_mm * s, width_mm) >= MIN_CLEAR_GAP_MM - 1e-9:
             return s
     return steps[-1]
-
-
-def _fmt(x: float) -> str:
-    return f"{x:g}"
 
 
 # -- the plate --------------------------------------------------------------------
@@ -173,7 +185,7 @@ def plan_scales(recipe, sky, dims, words) -> Scales:
     """What every scale carries for this recipe at this size, and the notes
     that say what was thinned."""
     notes = []
-    size = f"{2 * dims.mater_radius_mm:g} mm"
+    size = Number(2 * dims.mater_radius_mm)
     phi = math.radians(recipe.latitude_deg)
     s = hemisphere_sign(recipe.latitude_deg)
     R, disc = dims.equator_radius_mm, dims.outer_tropic_radius_mm
@@ -189,15 +201,15 @@ def plan_scales(recipe, sky, dims, words) -> Scales:
             break
     if step != want:
         g = almucantar_gap_mm(want, phi, s, R, disc)
-        notes.append(f"plate: almucantars every {_fmt(want)} deg would come {g:.2f} mm apart at {size}; "
-                     f"drawn every {_fmt(step)} deg")
+        notes.append(Message("notes.almucantars_thinned", part=PART_NAMES["plate"], wanted=Number(want),
+                             gap=Number(g, 2), diameter=size, step=Number(step)))
     labels = almucantar_labels(step, phi, s, R, disc, dims.tick_mm, text_h)
     every = label_every_deg(step)
     full = [a for a in np.arange(every, 90.0 - 1e-9, every)
             if np.hypot(*almucantar_label_point(a, step, every, phi, s, R)) < disc - dims.tick_mm]
     if labels and len(labels) < len(full):
-        notes.append(f"plate: almucantars numbered up to {_fmt(labels[-1])} deg; higher numbers would overlap "
-                     f"at {size}")
+        notes.append(Message("notes.almucantar_numbers", part=PART_NAMES["plate"], highest=Number(labels[-1]),
+                             diameter=size))
 
     # Azimuths: end on the almucantar 90 - max(10, step); coarser if they crowd there.
     top = 90.0 - max(10.0, step)
@@ -209,44 +221,52 @@ def plan_scales(recipe, sky, dims, words) -> Scales:
             break
     if az_step != want_az:
         g = azimuth_gap_mm(want_az, top, phi, s, R)
-        notes.append(f"plate: azimuths every {_fmt(want_az)} deg would come {g:.2f} mm apart at {size}; "
-                     f"drawn every {_fmt(az_step)} deg")
+        notes.append(Message("notes.azimuths_thinned", part=PART_NAMES["plate"], wanted=Number(want_az),
+                             gap=Number(g, 2), diameter=size, step=Number(az_step)))
 
     # The rings of the mater: uniform pitch round each ring.  A fine tick's
     # neighbour may be a medium one (an hour, a sign, a month's first day):
     # the gap between them is the pitch less half of each width.
     fine = (fine + stroke_width_mm("medium", dims)) / 2
 
-    def ring(name, requested, ladder, pitch_per_unit, width, unit):
+    def ring(requested, ladder, pitch_per_unit, width, note):
+        """The finest tick step that stays legible; ``note(wanted, pitch,
+        got)`` gives the message that says so when it is coarser."""
         got = thinned(requested, ladder, pitch_per_unit, width)
         if got != requested:
-            notes.append(f"{name}: ticks every {_fmt(requested)} {unit} would come "
-                         f"{pitch_per_unit * requested:.2f} mm apart at {size}; ticks every {_fmt(got)} {unit}")
+            notes.append(note(Number(requested), Number(pitch_per_unit * requested, 2), Number(got)))
         return int(got)
 
-    hour = ring("mater front hour ring", 5, MINUTE_LADDER, 2 * math.pi * dims.limb_inner_radius_mm / (24 * 60),
-                fine, "min")
-    degree = ring("mater front degree ring", 1, DEGREE_LADDER, 2 * math.pi * dims.hour_ring_outer_mm / 360, fine,
-                  "deg")
-    altitude = ring("mater back altitude scale", 1, DEGREE_LADDER, 2 * math.pi * dims.back_altitude_ring_mm / 360,
-                    fine, "deg")
-    zodiac = ring("mater back ecliptic scale", 1, DEGREE_LADDER, 2 * math.pi * dims.back_zodiac_ring_mm / 360,
-                  fine, "deg")
+    front, back = PART_NAMES["mater_front"], PART_NAMES["mater_back"]
+    hour = ring(5, MINUTE_LADDER, 2 * math.pi * dims.limb_inner_radius_mm / (24 * 60), fine,
+                lambda wanted, pitch, got: Message("notes.hour_ring", part=front, wanted=wanted, pitch=pitch,
+                                                   diameter=size, got=got))
+    degree = ring(1, DEGREE_LADDER, 2 * math.pi * dims.hour_ring_outer_mm / 360, fine,
+                  lambda wanted, pitch, got: Message("notes.degree_ring", part=front, wanted=wanted, pitch=pitch,
+                                                     diameter=size, got=got))
+    altitude = ring(1, DEGREE_LADDER, 2 * math.pi * dims.back_altitude_ring_mm / 360, fine,
+                    lambda wanted, pitch, got: Message("notes.altitude_scale", part=back, wanted=wanted,
+                                                       pitch=pitch, diameter=size, got=got))
+    zodiac = ring(1, DEGREE_LADDER, 2 * math.pi * dims.back_zodiac_ring_mm / 360, fine,
+                  lambda wanted, pitch, got: Message("notes.ecliptic_scale", part=back, wanted=wanted, pitch=pitch,
+                                                     diameter=size, got=got))
     lons = np.array([lon for _, _, lon in sky.calendar])
     daily = float(np.min(np.diff(np.unwrap(np.radians(lons))))) if len(lons) > 1 else math.radians(0.9533)
-    days = ring("mater back calendar", 1, DAY_LADDER, dims.back_zodiac_ring_mm * abs(daily), fine, "day")
+    days = ring(1, DAY_LADDER, dims.back_zodiac_ring_mm * abs(daily), fine,
+                lambda wanted, pitch, got: Message("notes.calendar", part=back, wanted=wanted, pitch=pitch,
+                                                   diameter=size, got=got))
 
     ecliptic = _ecliptic_ticks(sky, s, R, light, stroke_width_mm("medium", dims))
     if len(ecliptic) < 360:
-        notes.append(f"rete: {360 - len(ecliptic)} of the 360 one-degree ecliptic ticks left out, where they "
-                     f"would leave less than {MIN_CLEAR_GAP_MM:.1f} mm between them at {size}; every 5 deg kept")
+        notes.append(Message("notes.ecliptic_ticks", part=PART_NAMES["rete"], left_out=Number(360 - len(ecliptic)),
+                             total=Number(360), gap=Number(MIN_CLEAR_GAP_MM, 1), diameter=size, kept=Number(5)))
 
     shadow = _shadow_labels(dims, words)
     from .mater_back import LABELLED_RATIOS  # the full set of numbered ratios
     dropped = [r for r in LABELLED_RATIOS if r not in shadow]
     if dropped:
-        notes.append("mater back: no number at shadow-square ratio " + ", ".join(_fmt(r) for r in dropped)
-                     + f" (it would overlap its neighbour at {size})")
+        notes.append(Message("notes.shadow_numbers", part=PART_NAMES["mater_back"],
+                             ratios=[Number(r) for r in dropped], diameter=size))
     return Scales(step, labels, az_step, hour, degree, altitude, zodiac, days, ecliptic, shadow, tuple(notes))
 
 
@@ -316,22 +336,23 @@ def ecliptic_band_mm(radius_mm: float, dims, words) -> float:
     return max(3.5, 0.11 * radius_mm, (tallest + 2 * MARGIN_MM + 0.05) / (1.0 - ECLIPTIC_TICK_TIP))
 
 
-def shortened_notes(parts, dims) -> tuple[str, ...]:
+def shortened_notes(parts, dims, words) -> tuple[Message, ...]:
     """Notes for the labels that the fitting rule (kitgen.words.fit) had to
     cut short with "…" because even at the legible minimum they did not fit
-    their room, and for the stars the label placer found no room to name:
-    so that no shortened or missing word goes unsaid."""
+    their room, and for the stars the label placer found no room to name
+    (by the names ``words`` prints them with): so that no shortened or
+    missing word goes unsaid."""
     out = []
-    size = f"{2 * dims.mater_radius_mm:g} mm"
+    size = Number(2 * dims.mater_radius_mm)
     for part in parts:
         cut = sorted({e.values.get("full_text", e.geom["text"]) for e in part.elements
                       if e.shape == "text" and e.geom["text"].endswith("\u2026")})
         if cut:
-            out.append(f"{part.kind.replace('_', ' ')}: " + ", ".join(repr(c) for c in cut)
-                       + f" shortened with '...' to fit at {size}")
+            out.append(Message("notes.shortened", part=PART_NAMES[part.kind],
+                               labels=[Message("notes.quoted", text=c) for c in cut], diameter=size))
         named = {e.values.get("name") for e in part.elements if e.role == "star_label"}
         unnamed = [e.values["name"] for e in part.elements if e.role == "star" and e.values["name"] not in named]
         if unnamed:
-            out.append(f"{part.kind.replace('_', ' ')}: no room for the name of " + ", ".join(unnamed)
-                       + f" at {size}; the star is drawn without it")
+            out.append(Message("notes.unnamed_stars", part=PART_NAMES[part.kind],
+                               stars=[words.star_name(n) for n in unnamed], diameter=size))
     return tuple(out)
