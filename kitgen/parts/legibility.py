@@ -108,6 +108,18 @@ def thinned(requested: float, ladder, pitch_per_unit_mm: float, width_mm: float)
     return steps[-1]
 
 
+def _first_clear(requested: float, ladder, gap_of_step, width_mm: float) -> float:
+    """The requested step, or the first coarser one of ``ladder``, whose
+    lines (``gap_of_step(step)`` mm apart at their closest) leave
+    :data:`MIN_CLEAR_GAP_MM`; the coarsest tried when none does."""
+    step = requested
+    for candidate in [requested] + [a for a in ladder if a > requested]:
+        step = float(candidate)
+        if gap_mm(gap_of_step(step), width_mm) >= MIN_CLEAR_GAP_MM - 1e-9:
+            break
+    return step
+
+
 # -- the plate --------------------------------------------------------------------
 
 def _almucantar_circles(alts_deg, phi, s, R):
@@ -194,11 +206,7 @@ def plan_scales(recipe, sky, dims, words) -> Scales:
 
     # Almucantars: the requested step, coarser where circles would touch.
     want = float(recipe.altitude_step_deg)
-    step = want
-    for candidate in [want] + [a for a in ALTITUDE_LADDER if a > want]:
-        step = float(candidate)
-        if gap_mm(almucantar_gap_mm(step, phi, s, R, disc), light) >= MIN_CLEAR_GAP_MM - 1e-9:
-            break
+    step = _first_clear(want, ALTITUDE_LADDER, lambda a: almucantar_gap_mm(a, phi, s, R, disc), light)
     if step != want:
         g = almucantar_gap_mm(want, phi, s, R, disc)
         notes.append(Message("notes.almucantars_thinned", part=PART_NAMES["plate"], wanted=Number(want),
@@ -214,11 +222,7 @@ def plan_scales(recipe, sky, dims, words) -> Scales:
     # Azimuths: end on the almucantar 90 - max(10, step); coarser if they crowd there.
     top = 90.0 - max(10.0, step)
     want_az = float(recipe.azimuth_step_deg)
-    az_step = want_az
-    for candidate in [want_az] + [a for a in AZIMUTH_LADDER if a > want_az]:
-        az_step = float(candidate)
-        if gap_mm(azimuth_gap_mm(az_step, top, phi, s, R), fine) >= MIN_CLEAR_GAP_MM - 1e-9:
-            break
+    az_step = _first_clear(want_az, AZIMUTH_LADDER, lambda a: azimuth_gap_mm(a, top, phi, s, R), fine)
     if az_step != want_az:
         g = azimuth_gap_mm(want_az, top, phi, s, R)
         notes.append(Message("notes.azimuths_thinned", part=PART_NAMES["plate"], wanted=Number(want_az),
