@@ -94,6 +94,24 @@ def _print_notes(kit) -> None:
         print(one_line(Message("notes.report", message=note).text(kit.words)), file=sys.stderr)
 
 
+def _write_into_folder(folder: Path, files: dict, args) -> None:
+    """Write ``{file name: bytes}`` into ``folder`` (made if need be): every
+    target is checked before the first is written, names are sanitised so
+    that none can leave the folder, and each file is written atomically."""
+    from .outfile import check_target, inside_folder, safe_file_name, write_atomic, write_error
+
+    files = {safe_file_name(name): data for name, data in files.items()}
+    for name in files:
+        check_target(folder / name, args.force, (Path(args.recipe),))
+    try:
+        folder.mkdir(parents=True, exist_ok=True)
+    except OSError as exc:
+        raise write_error(folder, exc, Message("errors.doing_make_folder")) from None
+    for name, data in files.items():
+        write_atomic(inside_folder(folder, name), data, args.force, (Path(args.recipe),))
+        print(folder / name)
+
+
 def _cmd_geometry(args) -> int:
     from .recipe.load import load_recipe
 
@@ -125,19 +143,7 @@ def _write_geometry(args, kit_recipe) -> int:
     folder = Path(args.output)
     if folder.exists() and not folder.is_dir():
         raise UserError("errors.svg_folder_is_file", path=folder)
-    from .outfile import inside_folder, safe_file_name
-
-    files = {safe_file_name(name): data for name, data in render_svg_files(build_kit(kit_recipe)).items()}
-    for name in files:
-        check_target(folder / name, args.force, (Path(args.recipe),))
-    try:
-        folder.mkdir(parents=True, exist_ok=True)
-    except OSError as exc:
-        from .outfile import write_error
-        raise write_error(folder, exc, Message("errors.doing_make_folder")) from None
-    for name, data in files.items():
-        write_atomic(inside_folder(folder, name), data, args.force, (Path(args.recipe),))
-        print(folder / name)
+    _write_into_folder(folder, render_svg_files(build_kit(kit_recipe)), args)
     return EXIT_OK
 
 
@@ -201,7 +207,6 @@ def _cmd_calibrate(args) -> int:
 
 def _cmd_preview(args) -> int:
     from .kit import build_kit
-    from .outfile import check_target, inside_folder, write_atomic
     from .recipe.load import load_recipe
     from .render.pdf import build_pdf
     from .render.preview import MAX_DPI, MIN_DPI, render_previews
@@ -217,17 +222,8 @@ def _cmd_preview(args) -> int:
         pictures = render_previews(build_pdf(kit)[1], args.dpi)
         digits = max(2, len(str(len(pictures))))
         names = [f"{Path(args.recipe).stem}-page-{k:0{digits}d}.png" for k in range(1, len(pictures) + 1)]
-        for name in names:
-            check_target(folder / name, args.force, (Path(args.recipe),))
-        try:
-            folder.mkdir(parents=True, exist_ok=True)
-        except OSError as exc:
-            from .outfile import write_error
-            raise write_error(folder, exc, Message("errors.doing_make_folder")) from None
+        _write_into_folder(folder, dict(zip(names, pictures)), args)
         _print_notes(kit)
-        for name, data in zip(names, pictures):
-            write_atomic(inside_folder(folder, name), data, args.force, (Path(args.recipe),))
-            print(folder / name)
     return EXIT_OK
 
 

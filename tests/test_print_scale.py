@@ -31,7 +31,7 @@ from kitgen.render.json_export import render_json  # noqa: E402
 from kitgen.render.pdf import render_pdf  # noqa: E402
 from kitgen.words.templates import load_words  # noqa: E402
 
-from .pdf_paths import IDENTITY, apply, mul, read_page  # noqa: E402
+from .pdf_paths import IDENTITY, mul, read_page  # noqa: E402
 
 PT_PER_MM = 72.0 / 25.4
 SX, SY = 0.97, 0.985

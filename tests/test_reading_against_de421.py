@@ -10,7 +10,6 @@ apparent hour angle.  The kit must agree within 1 minute (issue #2).
 from __future__ import annotations
 
 import datetime as dt
-import math
 
 import pytest
 

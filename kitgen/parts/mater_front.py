@@ -9,7 +9,6 @@ one (see kitgen.projection.stereographic for the frame).
 
 from __future__ import annotations
 
-import math
 
 from ..geometry import model
 from ..projection.stereographic import hemisphere_sign

@@ -18,7 +18,7 @@ from ..geometry import model
 from ..projection.circles import project_circle
 from ..projection.stereographic import equatorial_vector, hemisphere_sign, project
 from ..sky.ecliptic import ecliptic_to_equatorial_rad
-from . import curves, labels, legibility
+from . import labels, legibility
 from .context import PartContext
 
 

@@ -8,7 +8,7 @@ from __future__ import annotations
 
 import numpy as np
 
-from .constants import ARCSEC_TO_RAD, DAYS_PER_JULIAN_YEAR, MAS_TO_RAD
+from .constants import ARCSEC_TO_RAD, MAS_TO_RAD
 
 
 def _poly_arcsec(t, coeffs):
