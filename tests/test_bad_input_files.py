@@ -195,8 +195,12 @@ def test_fault_while_writing_keeps_the_earlier_pdf(kit_dir, capsys, monkeypatch,
     assert leftovers(kit_dir) == []
 
 
+# A shell starts background jobs (CI's among them) with SIGINT ignored, and
+# Python then installs no handler of its own; a user's Ctrl-C reaches a
+# foreground process, whose default handler the writer restores first.
 _SLOW_WRITER = textwrap.dedent("""
-    import os, sys, time
+    import os, signal, sys, time
+    signal.signal(signal.SIGINT, signal.default_int_handler)
     from kitgen import outfile
     real_fsync = os.fsync
     def slow_fsync(fd):

@@ -24,9 +24,14 @@ from kitgen.layout.pages import layout_kit
 from kitgen.recipe.load import load_recipe, parse_recipe_text
 from kitgen.recipe.schema import KEYS, KEYS_BY_NAME, Recipe
 from kitgen.sky.stars import named_stars
-from kitgen.words.templates import available_languages
+from kitgen.words.templates import available_languages, load_words
 
 from .test_every_latitude import check_all_finite_and_inside
+
+#: The error line's opening in every language (the templates' errors.report):
+#: a recipe's error is told in its own language once the recipe names one.
+ERROR_PREFIXES = tuple(load_words(code).template("errors.report").split("{message}")[0]
+                       for code in available_languages())
 
 SOURCE = "fuzz.yaml"
 
@@ -292,5 +297,5 @@ def test_command_writes_a_pdf_or_nothing(tmp_path_factory, capsys, text):
         assert sorted(p.name for p in folder.iterdir()) == ["kit.pdf", "r.yaml"]
     else:
         assert code == 2, err
-        assert err.count("\n") == 1 and err.startswith("kitgen: error: ")
+        assert err.count("\n") == 1 and err.startswith(ERROR_PREFIXES), err
         assert sorted(p.name for p in folder.iterdir()) == ["r.yaml"]
