@@ -10,17 +10,13 @@ contrast ratio (its AA level asks 4.5 : 1 for text).
 
 from __future__ import annotations
 
-import io
 
 import pytest
 
 pypdf = pytest.importorskip("pypdf")
 from pypdf.generic import ContentStream  # noqa: E402
 
-from kitgen.kit import build_kit  # noqa: E402
-from kitgen.layout.pages import layout_kit  # noqa: E402
-from kitgen.recipe.load import parse_recipe_text  # noqa: E402
-from kitgen.render.pdf import render_pdf  # noqa: E402
+from .printed import PrintedKit  # noqa: E402
 
 COLOUR_OPS = {"G", "g", "RG", "rg", "K", "k", "CS", "cs", "SC", "sc", "SCN", "scn"}
 RECIPE = "latitude: 52.2\nepoch: 2027\nsheet: a4\ntitle: Larkspur Valley School\n"
@@ -39,17 +35,12 @@ def contrast_on_white(lum: float) -> float:
     return 1.05 / (lum + 0.05)
 
 
-class Printed:
+class Printed(PrintedKit):
     def __init__(self, extra: str):
-        self.kit = build_kit(parse_recipe_text(RECIPE + extra))
-        self.pages = layout_kit(self.kit)
-        self.reader = pypdf.PdfReader(io.BytesIO(render_pdf(self.kit, self.pages)))
+        super().__init__(RECIPE + extra)
         self.ops = [[(op.decode(), [float(v) if isinstance(v, (int, float)) else v for v in operands])
                      for operands, op in ContentStream(p.get_contents(), self.reader).operations]
                     for p in self.reader.pages]
-
-    def text(self, k=0):
-        return " ".join(self.reader.pages[k].extract_text().replace("\u2022", " ").split())
 
 
 @pytest.fixture(scope="module")

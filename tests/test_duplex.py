@@ -27,6 +27,7 @@ from kitgen.recipe.load import parse_recipe_text  # noqa: E402
 from kitgen.render.pdf import render_pdf  # noqa: E402
 
 from .pdf_paths import IDENTITY, mul, read_page  # noqa: E402
+from .printed import page_text  # noqa: E402
 
 PT_PER_MM = 72.0 / 25.4
 RECIPE = "latitude: 52.2\nepoch: 2027\nsheet: a4\ntitle: Larkspur Valley School\n"
@@ -93,7 +94,7 @@ def test_front_and_back_register_through_the_sheet(mode):
 def test_the_first_page_says_which_pages_go_double_sided():
     kit, pages, reader = printed("duplex: long_edge\n")
     k = next(p.number for p in pages if p.duplex == "front")
-    text = " ".join(reader.pages[0].extract_text().replace("\u2022", " ").split())
+    text = page_text(reader, 0)
     assert f"Print pages {k} and {k + 1} on the two sides of one sheet of card, turning it over on the long edge" \
         in text
 

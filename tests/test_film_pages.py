@@ -6,34 +6,21 @@ ink.  The PDFs are read back with pypdf by the PDF specification's rules
 
 from __future__ import annotations
 
-import io
 
 import pytest
 
 pypdf = pytest.importorskip("pypdf")
 
-from kitgen.kit import build_kit  # noqa: E402
-from kitgen.layout.pages import layout_kit  # noqa: E402
-from kitgen.recipe.load import parse_recipe_text  # noqa: E402
-from kitgen.render.pdf import render_pdf  # noqa: E402
 
-from .pdf_paths import mul, read_page  # noqa: E402
+from .pdf_paths import mul  # noqa: E402
+from .printed import PrintedKit  # noqa: E402
 
 PT_PER_MM = 72.0 / 25.4
 RECIPE = "latitude: -33.9\nepoch: 2027\nsheet: letter\ntitle: Southern Cross Science Centre\nfilm_parts: [rule]\n"
 
 
-class Printed:
-    def __init__(self, extra: str):
-        self.kit = build_kit(parse_recipe_text(RECIPE + extra))
-        self.pages = layout_kit(self.kit)
-        self.pdf = render_pdf(self.kit, self.pages)
-        self.reader = pypdf.PdfReader(io.BytesIO(self.pdf))
-        self.read = [read_page(self.reader, p) for p in self.reader.pages]
-
-    def text(self, k: int) -> str:
-        """The page's text, bullets left out (pypdf reads them in among the lines)."""
-        return " ".join(self.reader.pages[k].extract_text().replace("\u2022", " ").split())
+def Printed(extra: str) -> PrintedKit:
+    return PrintedKit(RECIPE + extra)
 
 
 @pytest.fixture(scope="module")

@@ -14,7 +14,6 @@ geometry itself, not with kitgen's own legibility functions.
 
 from __future__ import annotations
 
-import io
 import math
 import subprocess
 import sys
@@ -25,12 +24,10 @@ import pytest
 pypdf = pytest.importorskip("pypdf")
 
 from kitgen.kit import build_kit  # noqa: E402
-from kitgen.layout.pages import layout_kit  # noqa: E402
 from kitgen.recipe.load import parse_recipe_text  # noqa: E402
-from kitgen.render.pdf import render_pdf  # noqa: E402
 from kitgen.render.style import stroke_width_mm  # noqa: E402
 
-from .pdf_paths import read_page  # noqa: E402
+from .printed import PrintedKit  # noqa: E402
 
 PT_PER_MM = 72.0 / 25.4
 MIN_LINE_MM = 0.10     # stated minimum line width (common practice for office printers and film)
@@ -40,16 +37,15 @@ MIN_TICK_MM = 0.4      # stated shortest tick (four thinnest lines)
 MIN_GAP_MM = 0.4       # stated clear paper between neighbouring lines (a half-millimetre rule)
 
 
+LEGIBILITY_RECIPE = "latitude: 52.2\nepoch: 2027\ntitle: Larkspur Valley School\n"
+
+
 def kit_of(text: str):
-    return build_kit(parse_recipe_text("latitude: 52.2\nepoch: 2027\ntitle: Larkspur Valley School\n" + text))
+    return build_kit(parse_recipe_text(LEGIBILITY_RECIPE + text))
 
 
-class Printed:
-    def __init__(self, text: str):
-        self.kit = kit_of(text)
-        self.pages = layout_kit(self.kit)
-        reader = pypdf.PdfReader(io.BytesIO(render_pdf(self.kit, self.pages)))
-        self.read = [read_page(reader, p) for p in reader.pages]
+def Printed(text: str) -> PrintedKit:
+    return PrintedKit(LEGIBILITY_RECIPE + text)
 
 
 @pytest.fixture(scope="module")

@@ -32,6 +32,7 @@ from kitgen.render.pdf import render_pdf  # noqa: E402
 from kitgen.words.templates import load_words  # noqa: E402
 
 from .pdf_paths import IDENTITY, mul, read_page  # noqa: E402
+from .printed import page_text  # noqa: E402
 
 PT_PER_MM = 72.0 / 25.4
 SX, SY = 0.97, 0.985
@@ -132,7 +133,7 @@ def test_a_circle_prints_round_with_the_radius_of_the_geometry_export(scaled):
 
 def test_the_first_page_says_what_scale_the_kit_was_drawn_for(scaled):
     kit, _, reader, _ = scaled
-    text = " ".join(reader.pages[0].extract_text().replace("\u2022", " ").split())
+    text = page_text(reader, 0)
     assert "prints 97 % across and 98.5 % down" in text
 
 

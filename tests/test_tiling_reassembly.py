@@ -10,20 +10,16 @@ shift that sets its alignment marks on its neighbour's.
 
 from __future__ import annotations
 
-import io
 import math
 
 import pytest
 
 pypdf = pytest.importorskip("pypdf")
 
-from kitgen.kit import build_kit  # noqa: E402
-from kitgen.layout.pages import layout_kit  # noqa: E402
 from kitgen.layout.tiling import MARK_RADIUS_MM, OVERLAP_MM, PIN_CLEAR_MM  # noqa: E402
-from kitgen.recipe.load import parse_recipe_text  # noqa: E402
-from kitgen.render.pdf import render_pdf  # noqa: E402
 
-from .pdf_paths import mul, read_page  # noqa: E402
+from .pdf_paths import mul  # noqa: E402
+from .printed import PrintedKit  # noqa: E402
 
 PT_PER_MM = 72.0 / 25.4   # PDF 32000-1:2008, 8.3.2.3: 1/72 in; 25.4 mm an inch
 TOL_MM = 2e-3             # reportlab writes coordinates to 1e-4 pt (3.5e-5 mm)
@@ -31,12 +27,10 @@ TOL_MM = 2e-3             # reportlab writes coordinates to 1e-4 pt (3.5e-5 mm)
 RECIPE = "latitude: 52.2\nepoch: 2027\ntitle: Larkspur Valley School\ndiameter_mm: 400\nsheet: {sheet}\n"
 
 
-class Printed:
+class Printed(PrintedKit):
     def __init__(self, sheet: str):
-        self.kit = build_kit(parse_recipe_text(RECIPE.format(sheet=sheet)))
-        self.pages = layout_kit(self.kit)
-        reader = pypdf.PdfReader(io.BytesIO(render_pdf(self.kit, self.pages)))
-        self.drawn = [read_page(reader, p)[0] for p in reader.pages]
+        super().__init__(RECIPE.format(sheet=sheet))
+        self.drawn = [paths for paths, _ in self.read]
 
 
 @pytest.fixture(scope="module")
