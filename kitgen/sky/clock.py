@@ -1,0 +1,42 @@
+"""The clock correction: minutes to add to the instrument's reading to get
+the time on a clock.
+
+An astrolabe reads local apparent solar time T.  Local mean time is
+T - E (E the equation of time, apparent minus mean, Meeus 1998 ch. 28),
+universal time is that less the longitude (4 min a degree, east
+positive), and zone time is universal time plus the zone's offset, summer
+time included (IANA time zone database).  So
+
+    clock time = T - E + offset - 4 min/deg x longitude
+               = T + [mean - apparent] + (zone meridian - longitude) x 4 min
+                   + summer time,
+
+the zone meridian being 15 deg a standard hour of offset.  Without a
+longitude (or a zone) there is no clock to set: the correction is -E
+alone, which gives local mean time.  One value a day, for the instant of
+12:00 on the zone's clock (E changes by at most 0.5 min a day).
+"""
+
+from __future__ import annotations
+
+import numpy as np
+
+from .equation_of_time import equation_of_time_min
+from .timescale import days_of_year, julian_date_ut
+from .zone import offset_at_noon_min
+
+
+def clock_correction_min(year: int, longitude_deg: float | None = None, timezone: str | None = None):
+    """[(month, day, minutes)] for every date of ``year``: the minutes to
+    add to local apparent solar time to get the clock time of ``timezone``
+    at ``longitude_deg`` (east positive), or local mean time when either
+    is ``None``."""
+    dates = days_of_year(year)
+    if longitude_deg is None or timezone is None:
+        jd = np.array([julian_date_ut(year, m, d, 12.0) for m, d in dates])
+        minutes = -equation_of_time_min(jd)
+    else:
+        offsets = np.array([offset_at_noon_min(timezone, year, m, d)[0] for m, d in dates])
+        jd = np.array([julian_date_ut(year, m, d, 12.0) for m, d in dates]) - offsets / 1440.0
+        minutes = -equation_of_time_min(jd) + offsets - 4.0 * longitude_deg
+    return [(m, d, float(x)) for (m, d), x in zip(dates, minutes)]
