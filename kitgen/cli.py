@@ -62,6 +62,14 @@ def _parser() -> argparse.ArgumentParser:
     v.add_argument("-o", "--output", required=True, help="the folder to write the pictures into")
     v.add_argument("--dpi", type=float, default=100.0, help="resolution, dots per inch, 30 to 300 (default: 100)")
     v.add_argument("--force", action="store_true", help="write over existing files kitgen did not make")
+
+    a = sub.add_parser("batch", help="build a class set: many kits from one set recipe, into one folder")
+    a.add_argument("set", help="the set recipe (YAML): defaults, kits and/or a roster CSV")
+    a.add_argument("-o", "--output", required=True,
+                   help="the folder to write: kits/, print-card.pdf, print-film.pdf, manifest.csv "
+                        "(made fresh; an earlier set's folder is replaced whole)")
+    a.add_argument("-j", "--jobs", type=int, help="worker processes (default: the machine's cores)")
+    a.add_argument("--quiet", action="store_true", help="no progress bar or progress lines")
     return p
 
 
@@ -227,8 +235,30 @@ def _cmd_preview(args) -> int:
     return EXIT_OK
 
 
+def _cmd_batch(args) -> int:
+    """A class set (#12): every kit into one fresh folder, in parallel; a
+    failed kit is said on stderr and in the manifest, the others are
+    built, and the exit status is then 2 (1 for a fault of kitgen's)."""
+    from .batch import run_set, summary_lines
+    from .batch.run import MAX_JOBS
+    from .words.templates import available_languages, load_words
+
+    if args.jobs is not None and not 1 <= args.jobs <= MAX_JOBS:
+        raise UserError("errors.jobs_option", high=MAX_JOBS, value=args.jobs)
+    summary = run_set(args.set, args.output, args.jobs, args.quiet)
+    words = load_words(summary.language) if summary.language in available_languages() else None
+    lines = summary_lines(summary, words)
+    for line in lines[:-1]:
+        print(line, file=sys.stderr)
+    if summary.failures or not args.quiet:
+        print(lines[-1], file=sys.stderr)
+    print(summary.folder)
+    return summary.exit_status
+
+
 COMMANDS = {"build": _cmd_build, "geometry": _cmd_geometry, "new": _cmd_new, "stars": _cmd_stars,
-            "calibrate": _cmd_calibrate, "preview": _cmd_preview}
+            "calibrate": _cmd_calibrate, "preview": _cmd_preview,
+            "batch": _cmd_batch}
 
 
 class _Terminated(BaseException):

@@ -240,7 +240,7 @@ def _validate(tree: dict, source, lines: dict) -> Recipe:
 
 
 #: Recipe keys whose text is printed on the kit.
-_PRINTED_KEYS = ("title", "place")
+_PRINTED_KEYS = ("title", "place", "owner")
 
 
 def _check_drawable(values: dict, source: str, lines: dict) -> None:

@@ -47,6 +47,7 @@ class Recipe:
     native_digits: bool = False
     title: str = ""
     place: str = ""
+    owner: str = ""                # whose kit it is: a pupil's name in a class set (#9, #12)
     stars: StarChoice = field(default_factory=lambda: StarChoice(brightest=32))
     altitude_step_deg: float = 5.0
     azimuth_step_deg: float = 15.0
@@ -103,6 +104,8 @@ KEYS: tuple[Key, ...] = (
         "print numbers in the language's own digits (Arabic-Indic for ar, Devanagari for hi)", example=False),
     Key("title", "title", "string", "title printed on the kit", example="Hilltop Science Club"),
     Key("place", "place", "string", "name of the place the plate is drawn for", example="Hilltop"),
+    Key("owner", "owner", "string", "name of the kit's owner, printed on the kit (a pupil's name in a class set)",
+        example="Mira Quellstone"),
     Key("stars", "stars", "stars",
         "star names from `kitgen stars`, or {brightest: N}, or {magnitude_limit: M}",
         example={"brightest": 32}),

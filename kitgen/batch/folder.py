@@ -1,0 +1,146 @@
+"""The set's output folder, made fresh and swapped in whole (#12).
+
+Everything is written into a temporary folder beside the target
+(``.NAME.RANDOM.kitgen.dir``, the temporary names of
+:mod:`kitgen.outfile`), which takes the target's place only when complete:
+a reader, an interrupt or a crash sees the earlier set or the new one,
+never a mix, and a failed run leaves nothing behind.  An earlier folder is
+replaced only when it is recognisably a set's output (its names are the
+ones written here and its PDFs carry kitgen's signature), so a user's
+folder is never emptied.
+
+A small routine of its own, since the set's folder holds a sub-folder
+(``kits/``); ``outfile`` writes single files.
+"""
+
+from __future__ import annotations
+
+import os
+import shutil
+import tempfile
+from contextlib import contextmanager
+from pathlib import Path
+
+from ..errors import Message, UserError
+from ..outfile import made_by_kitgen, write_error
+
+KITS = "kits"
+MANIFEST = "manifest.csv"
+PRINT_FILES = ("print-card.pdf", "print-film.pdf")
+_OWN_NAMES = {KITS, MANIFEST, *PRINT_FILES}
+
+
+def check_output_folder(folder: Path, inputs=()) -> None:
+    """Refuse, before any work, a target that is a file, that holds one of
+    ``inputs`` (the set file, the roster) or the current folder, or that
+    holds anything a set does not write."""
+    folder = Path(folder)
+    if folder.exists() and not folder.is_dir():
+        raise UserError("errors.batch_folder_is_file", path=folder)
+    if not folder.exists():
+        return
+    real = folder.resolve()
+    for p in [Path.cwd(), *inputs]:
+        p = Path(p).resolve()
+        if p == real or real in p.parents:
+            raise UserError("errors.batch_folder_holds_input", path=folder, input=p)
+    if not _is_set_output(folder):
+        raise UserError("errors.batch_folder_foreign", path=folder)
+
+
+def _is_set_output(folder: Path) -> bool:
+    """Whether every entry of ``folder`` is one a set writes: an empty
+    folder, or the manifest, the print files and ``kits/`` of kitgen PDFs."""
+    for entry in os.scandir(folder):
+        if entry.name not in _OWN_NAMES:
+            return False
+        if entry.name == KITS:
+            if not entry.is_dir(follow_symlinks=False):
+                return False
+            if not all(e.is_file(follow_symlinks=False) and made_by_kitgen(e.path) for e in os.scandir(entry.path)):
+                return False
+        elif not entry.is_file(follow_symlinks=False):
+            return False
+        elif entry.name.endswith(".pdf") and not made_by_kitgen(entry.path):
+            return False
+        elif entry.name == MANIFEST and not _is_manifest(entry.path):
+            return False
+    return True
+
+
+def _is_manifest(path) -> bool:
+    try:
+        with open(path, "rb") as fh:
+            return fh.read(16).startswith(b"kit,owner,")
+    except OSError:
+        return False
+
+
+@contextmanager
+def fresh_folder(folder):
+    """``with fresh_folder(DIR) as tmp:`` write into ``tmp``; on a clean
+    exit ``tmp`` becomes ``DIR`` (an earlier ``DIR``, checked by
+    :func:`check_output_folder`, is removed), on any exception it is
+    removed and ``DIR`` is left as it was."""
+    folder = Path(folder)
+    parent = folder.parent if str(folder.parent) else Path(".")
+    try:
+        parent.mkdir(parents=True, exist_ok=True)
+        tmp = Path(tempfile.mkdtemp(prefix=f".{folder.name[:64]}.", suffix=".kitgen.dir", dir=parent))
+        os.chmod(tmp, 0o777 & ~_umask())   # mkdtemp's is 0700; the folder gets the usual mode
+        (tmp / KITS).mkdir()
+    except OSError as exc:
+        raise write_error(folder, exc, Message("errors.doing_make_folder")) from None
+    try:
+        yield tmp
+        _sync_tree(tmp)
+        _swap_in(tmp, folder)
+    except OSError as exc:
+        shutil.rmtree(tmp, ignore_errors=True)
+        raise write_error(folder, exc) from None
+    except BaseException:
+        shutil.rmtree(tmp, ignore_errors=True)
+        raise
+
+
+def write_file(path: Path, data: bytes) -> None:
+    """A new file in the temporary folder, flushed to the disk."""
+    fd = os.open(path, os.O_WRONLY | os.O_CREAT | os.O_EXCL, 0o666)
+    with os.fdopen(fd, "wb") as fh:
+        fh.write(data)
+        fh.flush()
+        os.fsync(fh.fileno())
+
+
+def _umask() -> int:
+    mask = os.umask(0)
+    os.umask(mask)
+    return mask
+
+
+def _swap_in(tmp: Path, folder: Path) -> None:
+    if not folder.exists():
+        os.rename(tmp, folder)
+        return
+    old = Path(tempfile.mkdtemp(prefix=f".{folder.name[:64]}.", suffix=".kitgen.old", dir=tmp.parent))
+    os.rename(folder, old)   # over the empty folder just made
+    try:
+        os.rename(tmp, folder)
+    except OSError:
+        os.rename(old, folder)
+        raise
+    shutil.rmtree(old, ignore_errors=True)
+
+
+def _sync_tree(tmp: Path) -> None:
+    for path in (tmp / KITS, tmp):
+        try:
+            fd = os.open(path, os.O_RDONLY)
+        except OSError:
+            continue
+        try:
+            os.fsync(fd)
+        except OSError:
+            pass
+        finally:
+            os.close(fd)

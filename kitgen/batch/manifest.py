@@ -1,0 +1,67 @@
+"""The set's ``manifest.csv``: one row a kit, what it is, where its file
+and its pages are, and whether it was built (#12).
+
+Columns (RFC 4180 CSV, UTF-8, ``\\r\\n`` line ends as the RFC writes them):
+
+- ``kit``: the kit's number in the set, from 1;
+- ``owner``, ``title``, ``place``, ``latitude``, ``language``: as the merged
+  recipe gives them (the latitude in degrees, north positive);
+- ``copies``: how many times the kit is in the print files;
+- ``file``: its PDF under ``kits/`` (empty when it failed);
+- ``pages``, ``card_pages``, ``film_pages``: page counts of one copy
+  (the instructions count as card pages);
+- ``card_print_pages``, ``film_print_pages``: where its copies are in
+  ``print-card.pdf`` and ``print-film.pdf``, such as ``5-8 9-12``;
+- ``status``: ``ok``, or the one-line reason it was not built.
+"""
+
+from __future__ import annotations
+
+import csv
+import io
+
+COLUMNS = ("kit", "owner", "title", "place", "latitude", "language", "copies", "file", "pages", "card_pages",
+           "film_pages", "card_print_pages", "film_print_pages", "status")
+STATUS_OK = "ok"
+
+
+def manifest_row(kit, file_name: str, result, spans: dict, error: str) -> dict:
+    """The manifest's row for a :class:`~kitgen.batch.setfile.SetKit`, its
+    file name, its :class:`~kitgen.batch.work.KitResult` (or ``None``), its
+    print-file spans (``{material: [(first, last), ...]}``) and the one-line
+    reason it failed (empty when it was built)."""
+    recipe, tree = kit.recipe, kit.tree
+    if recipe is not None:
+        owner, title, place = getattr(recipe, "owner", ""), recipe.title, recipe.place
+        latitude, language = repr(recipe.latitude_deg), recipe.language
+    else:
+        owner, title, place = (_text(tree.get(k)) for k in ("owner", "title", "place"))
+        latitude, language = _text(tree.get("latitude")), _text(tree.get("language"))
+    ok = not error
+    materials = result.materials if ok else ()
+    status = STATUS_OK if ok else error
+    return {
+        "kit": kit.number, "owner": owner, "title": title, "place": place, "latitude": latitude,
+        "language": language, "copies": kit.copies, "file": f"kits/{file_name}" if ok else "",
+        "pages": len(materials) if ok else "", "card_pages": materials.count("card") if ok else "",
+        "film_pages": materials.count("film") if ok else "",
+        "card_print_pages": _spans(spans.get("card", [])), "film_print_pages": _spans(spans.get("film", [])),
+        "status": status,
+    }
+
+
+def manifest_csv(rows) -> bytes:
+    buf = io.StringIO(newline="")
+    writer = csv.DictWriter(buf, fieldnames=COLUMNS, lineterminator="\r\n")
+    writer.writeheader()
+    for row in rows:
+        writer.writerow(row)
+    return buf.getvalue().encode("utf-8")
+
+
+def _spans(spans) -> str:
+    return " ".join(f"{a}-{b}" for a, b in spans)
+
+
+def _text(value) -> str:
+    return "" if value is None else str(value)

@@ -1,0 +1,164 @@
+"""Build a class set: every kit, in parallel, into one fresh folder (#12).
+
+The order of the work never shows in the output: each kit's file name,
+its place in the print files and its manifest row follow its number in
+the set, and each kit is built alone from its own recipe, so the same set
+gives the same bytes whatever ``jobs`` is and whichever worker finishes
+first.  Workers are long-lived processes (``concurrent.futures``) that
+load fonts, templates and catalogue once (:func:`kitgen.batch.work.warm`).
+"""
+
+from __future__ import annotations
+
+import multiprocessing
+import os
+import signal
+import sys
+import time
+from concurrent.futures import ProcessPoolExecutor, as_completed
+from dataclasses import dataclass
+from pathlib import Path
+
+from ..errors import EXIT_INTERNAL, EXIT_OK, EXIT_USER, Message, one_line
+from ..words.templates import available_languages, load_words
+from .folder import KITS, MANIFEST, check_output_folder, fresh_folder, write_file
+from .manifest import manifest_csv, manifest_row
+from .naming import kit_file_names
+from .printfiles import PrintedKit, print_files
+from .progress import progress
+from .setfile import load_set
+from .work import KitJob, build_one, warm
+
+PRINT_NAMES = {"card": "print-card.pdf", "film": "print-film.pdf"}
+#: Most worker processes one run may ask for.
+MAX_JOBS = 256
+
+
+@dataclass(frozen=True)
+class Summary:
+    """What a set's run did: the folder, how many kits were built of how
+    many, each failed kit's number and one-line reason, whether any of
+    them was kitgen's own fault, and the largest peak memory of a worker."""
+
+    folder: Path
+    total: int
+    built: int
+    failures: tuple[tuple[int, str], ...]
+    internal: bool
+    jobs: int
+    seconds: float
+    peak_rss_kib: int
+    language: str | None = None   # the set's language, to say the summary in
+
+    @property
+    def exit_status(self) -> int:
+        if not self.failures:
+            return EXIT_OK
+        return EXIT_INTERNAL if self.internal else EXIT_USER
+
+
+def default_jobs() -> int:
+    return os.cpu_count() or 1
+
+
+def run_set(set_path, out_dir, jobs: int | None = None, quiet: bool = False, stream=None) -> Summary:
+    """Build the set at ``set_path`` into the folder ``out_dir`` (made
+    fresh), with ``jobs`` worker processes (default: the machine's
+    cores), showing progress on ``stream`` (default stderr) unless
+    ``quiet``.  A fault of the set as a whole raises
+    :class:`~kitgen.errors.UserError` before anything is written; a kit
+    that fails is in the summary and the manifest, and the others are
+    built."""
+    started = time.monotonic()
+    set_path, out_dir = Path(set_path), Path(out_dir)
+    kit_set = load_set(set_path)
+    check_output_folder(out_dir, [set_path, *kit_set.inputs])
+    speak = kit_set.language if kit_set.language in available_languages() else None
+    words = load_words(speak) if speak else None
+    names = kit_file_names(kit_set.kits)
+    errors = {k.number: one_line(k.error.text(words)) for k in kit_set.kits if k.error is not None}
+    jobs_list = [KitJob(k.number, k.recipe, _stamp_name(k)) for k in kit_set.kits if k.error is None]
+    jobs = max(1, min(jobs or default_jobs(), len(jobs_list) or 1))
+    languages = tuple(sorted({j.recipe.language for j in jobs_list}))
+    bar = progress(len(kit_set.kits), quiet, stream)
+    results, internal, peak = {}, False, 0
+    by_number = {k.number: k for k in kit_set.kits}
+    try:
+        with fresh_folder(out_dir) as tmp:
+            for _ in errors:
+                bar.advance()
+            for result in _build_all(jobs_list, jobs, languages, speak):
+                kit = by_number[result.number]
+                peak = max(peak, result.peak_rss_kib)
+                if result.error:
+                    errors[result.number] = result.error
+                    internal = internal or result.internal
+                else:
+                    write_file(tmp / KITS / names[kit.number - 1], result.pdf)
+                    results[result.number] = result
+                bar.advance()
+            built = [PrintedKit(n, r.pdf, r.stamp, r.materials, r.margin_mm, by_number[n].copies)
+                     for n, r in sorted(results.items())]
+            files, spans = print_files(built)
+            for material, data in files.items():
+                write_file(tmp / PRINT_NAMES[material], data)
+            rows = [manifest_row(k, names[k.number - 1], results.get(k.number), spans.get(k.number, {}),
+                                 errors.get(k.number, "")) for k in kit_set.kits]
+            write_file(tmp / MANIFEST, manifest_csv(rows))
+    finally:
+        bar.close()
+    failures = tuple(sorted(errors.items()))
+    return Summary(out_dir, len(kit_set.kits), len(results), failures, internal, jobs,
+                   time.monotonic() - started, peak, speak)
+
+
+def _stamp_name(kit) -> str:
+    recipe = kit.recipe
+    return getattr(recipe, "owner", "") or recipe.title
+
+
+def _build_all(jobs_list, jobs: int, languages, speak):
+    """Each job's :class:`~kitgen.batch.work.KitResult`, as they finish."""
+    if jobs == 1:
+        warm(languages, speak)
+        for job in jobs_list:
+            yield build_one(job)
+        return
+    with ProcessPoolExecutor(max_workers=jobs, mp_context=_context(), initializer=_worker_start,
+                             initargs=(languages, speak)) as pool:
+        futures = [pool.submit(build_one, job) for job in jobs_list]
+        try:
+            for future in as_completed(futures):
+                yield future.result()
+        except BaseException:
+            for future in futures:
+                future.cancel()
+            raise
+
+
+def _worker_start(languages, speak) -> None:
+    """A worker leaves Ctrl-C to the main process, which stops the pool
+    and cleans up, and ends at once on the other signals (it writes
+    nothing); then it warms its caches."""
+    signal.signal(signal.SIGINT, signal.SIG_IGN)
+    for name in ("SIGTERM", "SIGHUP", "SIGQUIT"):
+        if hasattr(signal, name):
+            signal.signal(getattr(signal, name), signal.SIG_DFL)
+    warm(languages, speak)
+
+
+def _context():
+    """Fork where the system has it (Linux: the workers start with
+    kitgen already imported); spawn elsewhere."""
+    methods = multiprocessing.get_all_start_methods()
+    return multiprocessing.get_context("fork" if sys.platform.startswith("linux") and "fork" in methods else "spawn")
+
+
+def summary_lines(summary: Summary, words=None) -> list[str]:
+    """What the command says at the end: one line a failed kit, then the
+    summary line."""
+    lines = [one_line(Message("errors.batch_kit_failed", kit=n, reason=reason).text(words))
+             for n, reason in summary.failures]
+    lines.append(one_line(Message("errors.batch_summary", built=summary.built, total=summary.total,
+                                  failed=len(summary.failures), folder=summary.folder).text(words)))
+    return lines

@@ -1,0 +1,278 @@
+"""Read a class set: one YAML file naming many kits (#12).
+
+A set is a mapping with up to three keys::
+
+    defaults: {latitude: 52.2, language: en}    # any recipe keys
+    kits:                                       # recipes that override them
+      - {owner: Ada, title: Hilltop Club, copies: 2}
+    roster: pupils.csv                          # and/or a table, one row a kit
+
+The roster is UTF-8 CSV with a header whose columns are recipe keys (and
+``copies``); an empty cell takes the default.  Kits are numbered in the
+order they come: the ``kits`` list first, then the roster's rows.
+
+The set file is read as a recipe is (:func:`kitgen.recipe.load.read_text_file`
+and :func:`~kitgen.recipe.load.safe_yaml`: bounded, safe loader, no
+aliases or tags).  Each kit is then its defaults merged with its own keys
+and validated by :func:`kitgen.recipe.load.validate_recipe`, the very
+check ``kitgen build`` makes, so a kit builds as the same recipe would on
+its own.  A mistake in the set's structure stops the run; a mistake in one
+kit is that kit's own one-line reason, naming its list index or row and
+the key, and the other kits still build.
+"""
+
+from __future__ import annotations
+
+import csv
+import difflib
+import io
+from dataclasses import dataclass
+from pathlib import Path
+
+import yaml
+
+from ..errors import Message, UserError, shown
+from ..recipe.load import at_line, read_text_file, safe_yaml, validate_recipe
+from ..recipe.schema import KEYS_BY_NAME, Recipe
+
+#: The keys of a set file.
+SET_KEYS = ("defaults", "kits", "roster")
+#: Most kits one set may hold, and most copies of one kit.
+MAX_KITS = 2000
+MAX_COPIES = 100
+#: A roster of MAX_KITS rows of a dozen short columns stays well under this.
+MAX_ROSTER_BYTES = 2 * 1024 * 1024
+#: The set file's own limits: larger than a recipe's, since it lists kits.
+MAX_SET_BYTES = 1024 * 1024
+MAX_SET_EVENTS = 100_000
+
+KIND_SET = Message("errors.kind_set")
+KIND_ROSTER = Message("errors.kind_roster")
+
+#: Recipe keys whose roster cells are taken as written (text); cells of
+#: the other keys are read as YAML values, so that numbers, booleans,
+#: lists (``[rule]``) and mappings (``{brightest: 10}``) can be written.
+_TEXT_KINDS = ("string", "choice", "latitude")
+
+
+@dataclass(frozen=True)
+class SetKit:
+    """One kit of a set: its number (from 1), where it was given (for
+    messages), its merged recipe tree, how many copies to print, and
+    either the validated recipe or the one-line reason it cannot be built."""
+
+    number: int
+    where: Message
+    tree: dict
+    copies: int
+    recipe: Recipe | None = None
+    error: UserError | None = None
+
+
+@dataclass(frozen=True)
+class KitSet:
+    path: Path
+    kits: tuple[SetKit, ...]
+    language: str | None   # the defaults' language, to speak to the user in
+    inputs: tuple[Path, ...] = ()   # files the set reads besides itself (the roster)
+
+
+def load_set(path) -> KitSet:
+    """Read and check the set file at ``path`` and every kit it names.
+    Raises :class:`UserError` for a fault of the set as a whole."""
+    path = Path(path)
+    text = read_text_file(path, MAX_SET_BYTES, KIND_SET)
+    tree = safe_yaml(text, str(path), KIND_SET, MAX_SET_EVENTS)
+    if not isinstance(tree, dict):
+        raise UserError("errors.set_not_mapping", source=path)
+    _refuse_duplicates(text, path)
+    lines = _top_lines(text)
+    for name in tree:
+        if name not in SET_KEYS:
+            where = at_line(path, lines[name]) if name in lines else path
+            raise UserError("errors.set_unknown_key", where=where, name=shown(name), keys=list(SET_KEYS))
+    defaults = tree.get("defaults") or {}
+    if not isinstance(defaults, dict):
+        raise UserError("errors.set_defaults_not_mapping", where=at_line(path, lines.get("defaults", 1)))
+    if "copies" in defaults:
+        raise UserError("errors.set_copies_in_defaults", where=at_line(path, lines.get("defaults", 1)))
+    defaults = _absolute_language_file(defaults, path.parent)
+    raws: list[tuple[Message, dict]] = []
+    listed = tree.get("kits") or []
+    if not isinstance(listed, list):
+        raise UserError("errors.set_kits_not_list", where=at_line(path, lines.get("kits", 1)))
+    item_lines = _item_lines(text)
+    for index, item in enumerate(listed, start=1):
+        line = item_lines[index - 1] if index <= len(item_lines) else lines.get("kits", 1)
+        where = Message("errors.set_kit_where", source=path, index=index, line=line)
+        raws.append((where, item))
+    inputs = ()
+    if tree.get("roster") is not None:
+        raws += _roster_rows(tree["roster"], path, lines.get("roster", 1))
+        inputs = (path.parent / tree["roster"],)
+    if not raws:
+        raise UserError("errors.set_no_kits", source=path)
+    if len(raws) > MAX_KITS:
+        raise UserError("errors.set_too_many_kits", source=path, count=len(raws), limit=MAX_KITS)
+    kits = tuple(_set_kit(number, where, item, defaults, path.parent)
+                 for number, (where, item) in enumerate(raws, start=1))
+    language = defaults.get("language") if isinstance(defaults.get("language"), str) else None
+    return KitSet(path, kits, language, inputs)
+
+
+def _set_kit(number: int, where: Message, item, defaults: dict, base: Path) -> SetKit:
+    """Merge one kit's keys over the defaults and validate the recipe;
+    a mistake becomes the kit's own error."""
+    if isinstance(item, _RowError):
+        return SetKit(number, where, {}, 1, error=item.error)
+    if not isinstance(item, dict):
+        return SetKit(number, where, {}, 1, error=UserError("errors.set_kit_not_mapping", where=where))
+    item = _absolute_language_file(item, base)
+    tree = {**defaults, **{k: v for k, v in item.items() if k != "copies"}}
+    try:
+        copies = _copies(item.get("copies", 1), where)
+        return SetKit(number, where, tree, copies, recipe=validate_recipe(dict(tree), where))
+    except UserError as exc:
+        return SetKit(number, where, tree, 1, error=exc)
+
+
+def _copies(value, where) -> int:
+    if isinstance(value, bool) or not isinstance(value, int) or not 1 <= value <= MAX_COPIES:
+        raise UserError("errors.set_copies", where=where, high=MAX_COPIES, value=shown(value))
+    return value
+
+
+def _absolute_language_file(tree: dict, base: Path) -> dict:
+    """A ``language_file`` is relative to the file that names it (the set
+    file, for the defaults, the kits list and the roster alike)."""
+    value = tree.get("language_file")
+    if isinstance(value, str) and value and not Path(value).is_absolute():
+        return {**tree, "language_file": str((base / value).resolve())}
+    return tree
+
+
+# -- the roster -------------------------------------------------------------------
+
+def _roster_rows(value, set_path: Path, line: int) -> list[tuple[Message, dict]]:
+    """``(where, row)`` for every row of the roster CSV named by ``value``
+    (relative to the set file)."""
+    if not isinstance(value, str) or not value.strip():
+        raise UserError("errors.set_roster_not_file", where=at_line(set_path, line), value=shown(value))
+    path = set_path.parent / value
+    text = read_text_file(path, MAX_ROSTER_BYTES, KIND_ROSTER)
+    reader = csv.reader(io.StringIO(text, newline=""), strict=True)
+    try:
+        header = next(reader, None)
+        if header is None:
+            raise UserError("errors.roster_empty", path=path)
+        columns = [c.strip() for c in header]
+        _check_columns(columns, path)
+        rows = []
+        for cells in reader:
+            if not any(c.strip() for c in cells):
+                continue   # a blank line
+            where = Message("errors.roster_row_where", source=path, row=reader.line_num)
+            if len(cells) != len(columns):
+                rows.append((where, _RowError(UserError("errors.roster_cells", where=where, count=len(cells),
+                                                        columns=len(columns)))))
+                continue
+            rows.append((where, _row_tree(columns, cells)))
+    except csv.Error as exc:
+        raise UserError("errors.roster_not_csv", where=at_line(path, reader.line_num), problem=str(exc)) from None
+    return rows
+
+
+def _check_columns(columns: list[str], path: Path) -> None:
+    seen = set()
+    for k, name in enumerate(columns, start=1):
+        if not name:
+            raise UserError("errors.roster_empty_column", path=path, column=k)
+        if name in seen:
+            raise UserError("errors.roster_column_twice", path=path, name=shown(name))
+        seen.add(name)
+        if name != "copies" and name not in KEYS_BY_NAME:
+            close = difflib.get_close_matches(name, [*KEYS_BY_NAME, "copies"], n=1)
+            hint = (Message("errors.hint_did_you_mean", name=close[0]) if close
+                    else Message("errors.hint_valid_keys", names=[*KEYS_BY_NAME, "copies"]))
+            raise UserError("errors.roster_unknown_column", path=path, name=shown(name), hint=hint)
+
+
+class _RowError(dict):
+    """A roster row that could not be read: it carries its error."""
+
+    def __init__(self, error: UserError):
+        super().__init__()
+        self.error = error
+
+
+def _row_tree(columns: list[str], cells: list[str]) -> dict:
+    """The row's recipe keys: non-empty cells only, each read as its key
+    reads a value (see :data:`_TEXT_KINDS`)."""
+    tree = {}
+    for name, cell in zip(columns, cells):
+        cell = cell.strip()
+        if not cell:
+            continue
+        key = KEYS_BY_NAME.get(name)
+        if key is not None and key.kind in _TEXT_KINDS:
+            tree[name] = cell
+        else:
+            tree[name] = _cell_value(cell)
+    return tree
+
+
+def _cell_value(cell: str):
+    """A cell read as a YAML value with the recipe's safeguards; a cell
+    that is not valid YAML is kept as text (the key's check then says what
+    it wants)."""
+    try:
+        return safe_yaml(cell, KIND_ROSTER, KIND_ROSTER, 200)
+    except UserError:
+        return cell
+
+
+# -- where things are in the set file ----------------------------------------------
+
+def _compose(text: str):
+    try:
+        return yaml.compose(text, Loader=yaml.SafeLoader)
+    except (yaml.YAMLError, ValueError, RecursionError):
+        return None
+
+
+def _top_lines(text: str) -> dict:
+    node = _compose(text)
+    if not isinstance(node, yaml.MappingNode):
+        return {}
+    return {k.value: k.start_mark.line + 1 for k, _ in node.value if isinstance(k, yaml.ScalarNode)}
+
+
+def _item_lines(text: str) -> list[int]:
+    """The line of each item of the ``kits`` list."""
+    node = _compose(text)
+    if not isinstance(node, yaml.MappingNode):
+        return []
+    for k, v in node.value:
+        if isinstance(k, yaml.ScalarNode) and k.value == "kits" and isinstance(v, yaml.SequenceNode):
+            return [item.start_mark.line + 1 for item in v.value]
+    return []
+
+
+def _refuse_duplicates(text: str, path: Path) -> None:
+    """A key given twice in any mapping of the set (YAML's loader would
+    silently keep the last)."""
+    def walk(node):
+        if isinstance(node, yaml.MappingNode):
+            first = {}
+            for k, v in node.value:
+                if isinstance(k, yaml.ScalarNode):
+                    line = k.start_mark.line + 1
+                    if k.value in first:
+                        raise UserError("errors.key_twice", where=at_line(path, line), name=shown(k.value),
+                                        first=first[k.value])
+                    first[k.value] = line
+                walk(v)
+        elif isinstance(node, yaml.SequenceNode):
+            for item in node.value:
+                walk(item)
+    walk(_compose(text))

@@ -1,0 +1,82 @@
+"""The small stamp on every page of a set's print files: the kit's number
+and its owner (or title), so a printed stack can be sorted (#12).
+
+The stamp is drawn once per kit by reportlab, with the kit's own words
+and fonts (:mod:`kitgen.render.pdf_text`, so an Arabic or Hindi name is
+shaped as on the kit), in invariant mode so that the same kit gives the
+same bytes.  It is then laid on each page of the kit as a form XObject
+(ISO 32000-1:2008, 8.10) in the top margin, right-aligned at the content
+area's edge, after the page's own content wrapped in ``q``/``Q``; the
+page's content stream itself is left as it is.
+"""
+
+from __future__ import annotations
+
+import io
+
+from pypdf.generic import ArrayObject, DecodedStreamObject, DictionaryObject, FloatObject, NameObject
+from reportlab.lib.units import mm
+from reportlab.pdfgen.canvas import Canvas
+
+from ..render import pdf_text
+
+STAMP_PT = 6.0
+#: The stamp's baseline above the top edge of the content area (mm); its
+#: text stays in the margin, which is at least 6 mm.
+STAMP_RISE_MM = 1.0
+_PAD_PT = 2.0
+_NAME = NameObject("/KitgenStamp")
+
+
+def stamp_pdf(kit, number: int, name: str) -> bytes:
+    """A one-page PDF holding only the stamp, its baseline at
+    ``_PAD_PT`` above the page's foot and its left end at 0."""
+    pdf_text.register_fonts()
+    w = kit.words
+    text = w("batch.stamp", number=w.number(number), name=name)
+    width = pdf_text.width_pt(text, STAMP_PT, w, "body")
+    buf = io.BytesIO()
+    c = Canvas(buf, pagesize=(width + _PAD_PT, STAMP_PT + 2 * _PAD_PT), invariant=1, pageCompression=1,
+               lang=w.language)
+    c.setCreator("kitgen")
+    c.setFillGray(0.0)
+    pdf_text.draw_at_baseline(c, 0.0, _PAD_PT, text, STAMP_PT, w, "body")
+    c.showPage()
+    c.save()
+    return buf.getvalue()
+
+
+def stamp_form(writer, overlay):
+    """The stamp's page as a form XObject in ``writer`` (its resources,
+    fonts included, copied in)."""
+    form = DecodedStreamObject()
+    form.set_data(overlay.get_contents().get_data())
+    box = [FloatObject(float(v)) for v in overlay.mediabox]
+    form.update({
+        NameObject("/Type"): NameObject("/XObject"),
+        NameObject("/Subtype"): NameObject("/Form"),
+        NameObject("/BBox"): ArrayObject(box),
+        NameObject("/Resources"): overlay["/Resources"].get_object().clone(writer),
+    })
+    return writer._add_object(form)
+
+
+def stamp_page(writer, page, form_ref, form_width_pt: float, margin_mm: float) -> None:
+    """Lay the stamp on ``page`` (a page already added to ``writer``)."""
+    x0, y0, x1, y1 = (float(v) for v in page.mediabox)
+    x = x1 - margin_mm * mm - form_width_pt
+    y = y1 - margin_mm * mm + STAMP_RISE_MM * mm - _PAD_PT
+    resources = page[NameObject("/Resources")].get_object()
+    own = DictionaryObject({NameObject("/XObject"): DictionaryObject({_NAME: form_ref})})
+    for key, value in resources.items():
+        if key == "/XObject":
+            own[NameObject("/XObject")].update(value.get_object())
+        else:
+            own[NameObject(key)] = value
+    page[NameObject("/Resources")] = own
+    before, after = DecodedStreamObject(), DecodedStreamObject()
+    before.set_data(b"q\n")
+    after.set_data(f"\nQ\nq 1 0 0 1 {x:.3f} {y:.3f} cm {_NAME} Do Q\n".encode("ascii"))
+    contents = page.get(NameObject("/Contents"))
+    old = list(contents.get_object()) if isinstance(contents.get_object(), ArrayObject) else [contents]
+    page[NameObject("/Contents")] = ArrayObject([writer._add_object(before), *old, writer._add_object(after)])

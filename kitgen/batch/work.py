@@ -1,0 +1,101 @@
+"""Build one kit of a set, in a worker process or in the calling one (#12).
+
+A worker is long-lived: :func:`warm` (the pool's initializer) registers the
+fonts, reads the templates of the set's languages and the star catalogue
+once, and every kit after that is built with those caches warm.  The kit
+goes through the very entry points ``kitgen build`` uses
+(:func:`kitgen.kit.build_kit`, :func:`kitgen.render.pdf.build_pdf`), so its
+PDF is byte for byte the one a single build of the same recipe writes.
+Identical recipes in one worker (a kits list without owners, say) are
+built once (:func:`_built`).
+"""
+
+from __future__ import annotations
+
+import sys
+from dataclasses import dataclass
+from functools import lru_cache
+
+from ..errors import Message, UserError, one_line, speaking
+from ..kit import build_kit
+from ..render import pdf_text
+from ..render.pdf import build_pdf
+from ..sky import stars
+from ..words.templates import available_languages, load_words
+from .stamp import stamp_pdf
+
+try:
+    import resource
+except ImportError:   # Windows: no peak memory to tell
+    resource = None
+
+
+@dataclass(frozen=True)
+class KitJob:
+    number: int
+    recipe: object          # kitgen.recipe.schema.Recipe
+    stamp_name: str
+
+
+@dataclass(frozen=True)
+class KitResult:
+    """What a worker sends back: the kit's PDF and its stamp, the material
+    of each page (``card`` or ``film``; instructions count as card), the
+    sheet's margin (where the stamp goes), or the reason it failed."""
+
+    number: int
+    pdf: bytes = b""
+    stamp: bytes = b""
+    materials: tuple[str, ...] = ()
+    margin_mm: float = 0.0
+    error: str = ""
+    internal: bool = False
+    peak_rss_kib: int = 0
+
+
+_SPEAK = {"words": None}
+
+
+def warm(languages: tuple[str, ...] = ("en",), speak: str | None = None) -> None:
+    """The pool's initializer: fonts, templates and catalogue loaded once."""
+    pdf_text.register_fonts()
+    for code in languages:
+        if code in available_languages():
+            load_words(code)
+    stars.catalogue()
+    _SPEAK["words"] = load_words(speak) if speak in available_languages() else None
+
+
+def build_one(job: KitJob) -> KitResult:
+    """Build the kit of ``job``; a failure is its one-line reason."""
+    try:
+        with speaking(job.recipe.language, job.recipe.language_file or None):
+            pdf, stamp, materials, margin = _built(job.recipe, job.number, job.stamp_name)
+        return KitResult(job.number, pdf, stamp, materials, margin, peak_rss_kib=_peak_rss_kib())
+    except UserError as exc:
+        return KitResult(job.number, error=one_line(exc.text(_SPEAK["words"])), peak_rss_kib=_peak_rss_kib())
+    except Exception as exc:  # an internal fault of this kit: the others go on
+        text = Message("errors.internal", kind=type(exc).__name__, detail=exc).text(_SPEAK["words"])
+        return KitResult(job.number, error=one_line(text), internal=True, peak_rss_kib=_peak_rss_kib())
+
+
+@lru_cache(maxsize=8)
+def _kit_pdf(recipe):
+    kit = build_kit(recipe)
+    pages, pdf = build_pdf(kit)
+    materials = tuple("film" if p.kind == "film" else "card" for p in pages)
+    return kit, pdf, materials, pages[0].sheet.margin_mm
+
+
+def _built(recipe, number: int, stamp_name: str):
+    kit, pdf, materials, margin = _kit_pdf(recipe)
+    return pdf, stamp_pdf(kit, number, stamp_name), materials, margin
+
+
+def _peak_rss_kib() -> int:
+    """This process's peak resident memory (KiB; macOS reports bytes), or
+    0 where the system does not tell (Windows)."""
+    if resource is None:
+        return 0
+    peak = resource.getrusage(resource.RUSAGE_SELF).ru_maxrss
+    return peak // 1024 if sys.platform == "darwin" else peak
