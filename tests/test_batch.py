@@ -1,0 +1,280 @@
+"""Class sets, ``kitgen batch`` (#12), against outside readers of its output.
+
+One set of thirteen entries: four in a ``kits:`` list and nine roster
+rows; twelve kits are good (English, Spanish and Russian; north, south and
+the equator; one kit in two copies; a roster column left empty in every
+row), and one roster row has a latitude of 91.  It is built twice, with
+one worker in this process and with two worker processes through
+``python3 -m kitgen`` (as the web page runs it), and each good kit is built
+again alone by ``kitgen build`` from its merged recipe, written out here.
+The kits are small (80 mm, six stars) so the file runs in seconds.
+
+References: pypdf (an independent PDF reader) for pages, page sizes and
+text; Python's csv module (RFC 4180) for the manifest; the template files
+themselves, read with PyYAML, for every expected word.
+"""
+
+from __future__ import annotations
+
+import csv
+import os
+import re
+import subprocess
+import sys
+from importlib import resources
+from pathlib import Path
+
+import pytest
+import yaml
+from pypdf import PdfReader
+
+from kitgen.batch.naming import kit_file_names, kit_stem
+from kitgen.batch.setfile import SetKit
+from kitgen.cli import main
+from kitgen.errors import Message
+
+DEFAULTS = {"latitude": 52.2, "epoch": 2027, "diameter_mm": 80, "stars": {"brightest": 6},
+            "title": "Fernhollow Science Club"}
+LISTED = [
+    {"owner": "Mira Quellstone", "copies": 2},
+    {"owner": "Tavi Renwick", "latitude": -33.9, "language": "es"},
+    {"owner": "Оскар Линдквар", "latitude": "55 45 N", "language": "ru"},
+    {"title": "Equator Field Station", "latitude": 0.5},
+]
+ROSTER_HEADER = "owner,latitude,language,place,copies"
+#: (owner, latitude, language) of each roster row; the place column is
+#: empty in every row, and so is copies.
+ROSTER = [
+    ("Ana Beltrán", "-12.05", "es"), ("Pavel Drozdin", "59.9", "ru"), ("Lena Okonkwo-Fry", "", ""),
+    ("Sami Haddou", "-26.2", ""), ("Rhea Vantongeren", "40.4", "es"), ("Dmitri Solev", "-34.6", "ru"),
+    ("Juno Abernethy", "64.1", "en"), ("Tomasz/Wren", "35.7", ""), ("Bad Row", "91", ""),
+]
+BAD_KIT, BAD_LINE = 13, 10   # the ninth roster row is line 10 of the file (the header is line 1)
+
+
+def _template(code: str) -> dict:
+    return yaml.safe_load(resources.files("kitgen.templates").joinpath(f"{code}.yaml").read_text("utf-8"))
+
+
+def _expected_kits() -> list[dict]:
+    """Each entry's merged recipe, worked out here: the defaults, then the
+    entry's own keys (roster cells only where not empty)."""
+    out = []
+    for item in LISTED:
+        out.append({**DEFAULTS, **{k: v for k, v in item.items() if k != "copies"}})
+    for owner, lat, lang in ROSTER:
+        row = {"owner": owner}
+        if lat:
+            row["latitude"] = lat
+        if lang:
+            row["language"] = lang
+        out.append({**DEFAULTS, **row})
+    return out
+
+
+def _copies(number: int) -> int:
+    return LISTED[number - 1].get("copies", 1) if number <= len(LISTED) else 1
+
+
+@pytest.fixture(scope="module")
+def class_set(tmp_path_factory):
+    root = tmp_path_factory.mktemp("class-set")
+    (root / "set.yaml").write_text(yaml.safe_dump({"defaults": DEFAULTS, "kits": LISTED, "roster": "pupils.csv"},
+                                                  allow_unicode=True, sort_keys=False), encoding="utf-8")
+    lines = [ROSTER_HEADER] + [f"{o},{lat},{lang},," for o, lat, lang in ROSTER]
+    (root / "pupils.csv").write_text("\n".join(lines) + "\n", encoding="utf-8")
+    return root
+
+
+@pytest.fixture(scope="module")
+def one_worker(class_set):
+    status = main(["batch", str(class_set / "set.yaml"), "-o", str(class_set / "out-1"), "--jobs", "1", "--quiet"])
+    return status, class_set / "out-1"
+
+
+@pytest.fixture(scope="module")
+def two_workers(class_set):
+    env = dict(os.environ, PYTHONPATH=str(Path(__file__).resolve().parents[1]))
+    done = subprocess.run([sys.executable, "-m", "kitgen", "batch", str(class_set / "set.yaml"), "-o",
+                           str(class_set / "out-2"), "--jobs", "2"], capture_output=True, text=True, env=env,
+                          timeout=600)
+    return done, class_set / "out-2"
+
+
+def _manifest(folder: Path) -> list[dict]:
+    # Reference: Python's csv module, RFC 4180.
+    with open(folder / "manifest.csv", newline="", encoding="utf-8") as fh:
+        return list(csv.DictReader(fh))
+
+
+def _film_pages(pdf: Path, language: str) -> list[bool]:
+    """Which pages of a kit say they go on film: the template's own
+    ``page.on_film`` words, found by pypdf's text extraction."""
+    on_film = _template(language)["page"]["on_film"]
+    return [on_film in page.extract_text() for page in PdfReader(pdf).pages]
+
+
+def test_manifest_rows_match_the_kits(one_worker):
+    status, out = one_worker
+    rows = _manifest(out)
+    expected = _expected_kits()
+    assert [int(r["kit"]) for r in rows] == list(range(1, len(expected) + 1))
+    for row, kit in zip(rows, expected):
+        n = int(row["kit"])
+        assert row["owner"] == kit.get("owner", "")
+        assert row["title"] == kit["title"]
+        assert int(row["copies"]) == _copies(n)
+        if n == BAD_KIT:
+            continue
+        assert row["status"] == "ok"
+        assert row["language"] == kit.get("language", "en")
+        lat = kit["latitude"]
+        assert float(row["latitude"]) == pytest.approx(55.75 if lat == "55 45 N" else float(lat), abs=1e-9)
+        pdf = out / row["file"]
+        pages = PdfReader(pdf).pages   # Reference: pypdf
+        film = _film_pages(pdf, row["language"])
+        assert int(row["pages"]) == len(pages)
+        assert int(row["film_pages"]) == sum(film) >= 1
+        assert int(row["card_pages"]) == len(pages) - sum(film)
+
+
+def test_a_bad_row_is_named_and_the_others_are_built(one_worker, two_workers):
+    status, out = one_worker
+    assert status == 2
+    bad = _manifest(out)[BAD_KIT - 1]
+    assert bad["file"] == "" and bad["pages"] == ""
+    assert f"row {BAD_LINE}" in bad["status"] and "'latitude'" in bad["status"] and "91" in bad["status"]
+    assert len(list((out / "kits").iterdir())) == BAD_KIT - 1
+    done, _ = two_workers
+    assert done.returncode == 2
+    failed = [line for line in done.stderr.splitlines() if f"kit {BAD_KIT} not built" in line]
+    assert len(failed) == 1 and f"pupils.csv, row {BAD_LINE}: 'latitude'" in failed[0]
+    assert "Traceback" not in done.stderr
+    summary = Message("errors.batch_summary", built=BAD_KIT - 1, total=BAD_KIT, failed=1, folder=out.parent / "out-2")
+    assert done.stderr.splitlines()[-1] == summary.text()
+
+
+def test_each_kit_equals_a_single_build_byte_for_byte(one_worker, tmp_path):
+    status, out = one_worker
+    rows = _manifest(out)
+    for row, kit in zip(rows, _expected_kits()):
+        if row["status"] != "ok":
+            continue
+        recipe = tmp_path / f"kit-{row['kit']}.yaml"
+        recipe.write_text(yaml.safe_dump(kit, allow_unicode=True), encoding="utf-8")
+        single = tmp_path / f"kit-{row['kit']}.pdf"
+        assert main(["build", str(recipe), "-o", str(single)]) == 0
+        # Reference: `kitgen build` of the same merged recipe.
+        assert (out / row["file"]).read_bytes() == single.read_bytes(), row["file"]
+
+
+def test_print_files_hold_every_kits_pages_in_order(one_worker):
+    status, out = one_worker
+    rows = [r for r in _manifest(out) if r["status"] == "ok"]
+    printed = {m: PdfReader(out / f"print-{m}.pdf").pages for m in ("card", "film")}   # Reference: pypdf
+    at = {"card": 0, "film": 0}
+    for material in ("card", "film"):
+        for row in rows:
+            kit_pages = PdfReader(out / row["file"]).pages
+            film = _film_pages(out / row["file"], row["language"])
+            chosen = [p for p, f in zip(kit_pages, film) if f == (material == "film")]
+            words = _template(row["language"])
+            name = row["owner"] or row["title"]
+            stamp = words["batch"]["stamp"].format(number=row["kit"], name=name)
+            spans = []
+            for _ in range(int(row["copies"])):
+                first = at[material] + 1
+                for page in chosen:
+                    got = printed[material][at[material]]
+                    at[material] += 1
+                    assert [float(v) for v in got.mediabox] == [float(v) for v in page.mediabox]
+                    assert page.get_contents().get_data() in got.get_contents().get_data()
+                    assert stamp in got.extract_text()
+                spans.append(f"{first}-{at[material]}")
+            assert row[f"{material}_print_pages"] == " ".join(spans)
+    assert at == {m: len(printed[m]) for m in at}
+
+
+def test_one_and_two_workers_give_the_same_bytes(one_worker, two_workers):
+    _, one = one_worker
+    done, two = two_workers
+    names = sorted(p.relative_to(one) for p in one.rglob("*") if p.is_file())
+    assert names == sorted(p.relative_to(two) for p in two.rglob("*") if p.is_file())
+    for name in names:
+        assert (one / name).read_bytes() == (two / name).read_bytes(), name
+    for name in ("print-card.pdf", "print-film.pdf"):
+        assert "/ID" not in PdfReader(one / name).trailer   # no random file identifier (pypdf)
+
+
+def test_progress_lines_when_not_a_terminal(two_workers):
+    done, out = two_workers
+    pattern = re.escape(_template("en")["errors"]["batch_progress"])
+    pattern = pattern.replace(r"\{done\}", r"(\d+)").replace(r"\{total\}", r"(\d+)")
+    pattern = pattern.replace(r"\{rate\}", r"[\d.]+").replace(r"\{left\}", r"\d+")
+    progress = [re.fullmatch(pattern, line) for line in done.stderr.splitlines()]
+    progress = [m for m in progress if m]
+    assert progress and progress[-1].groups() == (str(BAD_KIT), str(BAD_KIT))
+    assert done.stdout.strip() == str(out)
+
+
+def test_quiet_says_nothing_and_a_rerun_replaces_the_folder(tmp_path):
+    (tmp_path / "two.yaml").write_text(yaml.safe_dump({"defaults": DEFAULTS, "kits": [{"owner": "Ivo"},
+                                                                                      {"owner": "Uma"}]}))
+    out = tmp_path / "out"
+    env = dict(os.environ, PYTHONPATH=str(Path(__file__).resolve().parents[1]))
+    for _ in range(2):   # the second run replaces the first one's folder whole
+        done = subprocess.run([sys.executable, "-m", "kitgen", "batch", str(tmp_path / "two.yaml"), "-o", str(out),
+                               "--quiet", "--jobs", "1"], capture_output=True, text=True, env=env, timeout=300)
+        assert (done.returncode, done.stderr) == (0, "")
+    assert sorted(p.name for p in (out / "kits").iterdir()) == ["001-Ivo.pdf", "002-Uma.pdf"]
+    assert not [p for p in tmp_path.iterdir() if p.name.startswith(".")]   # no temporary folder left
+
+
+def test_a_folder_of_the_users_is_never_replaced(tmp_path, capsys):
+    (tmp_path / "one.yaml").write_text(yaml.safe_dump({"defaults": DEFAULTS, "kits": [{"owner": "Ivo"}]}))
+    mine = tmp_path / "mine"
+    mine.mkdir()
+    (mine / "notes.txt").write_text("keep me")
+    assert main(["batch", str(tmp_path / "one.yaml"), "-o", str(mine), "--quiet"]) == 2
+    assert (mine / "notes.txt").read_text() == "keep me"
+    assert len(capsys.readouterr().err.strip().splitlines()) == 1
+
+
+@pytest.mark.parametrize("text, key", [
+    ("defaults: {latitude: 10}\nkits: [{owner: A}]\nwallpaper: 1\n", "errors.set_unknown_key"),
+    ("defaults: {latitude: 10}\n", "errors.set_no_kits"),
+    ("kits: {owner: A}\n", "errors.set_kits_not_list"),
+    ("defaults: {latitude: 10}\nroster: missing.csv\n", "errors.no_such_file"),
+])
+def test_a_bad_set_is_one_line_and_writes_nothing(tmp_path, capsys, text, key):
+    (tmp_path / "set.yaml").write_text(text)
+    assert main(["batch", str(tmp_path / "set.yaml"), "-o", str(tmp_path / "out")]) == 2
+    err = capsys.readouterr().err.strip().splitlines()
+    # Reference: the English template's own words for the entry.
+    words = [w for w in re.split(r"\{[a-z]+\}", _template("en")["errors"][key.split(".")[1]]) if len(w) > 3]
+    assert len(err) == 1 and err[0].startswith("kitgen: error: ")
+    assert all(w.strip() in err[0] for w in words)
+    assert not (tmp_path / "out").exists()
+
+
+def test_bad_roster_cells_name_their_row_and_key(tmp_path):
+    from kitgen.batch.setfile import load_set
+
+    (tmp_path / "set.yaml").write_text("defaults: {latitude: 10}\nroster: r.csv\n")
+    (tmp_path / "r.csv").write_text("owner,diameter_mm,copies\nA,1000,\nB,,0\nC,90\n")
+    kits = load_set(tmp_path / "set.yaml").kits
+    assert [k.error is not None for k in kits] == [True, True, True]
+    assert "row 2: 'diameter_mm'" in str(kits[0].error)
+    assert "row 3: 'copies'" in str(kits[1].error)
+    assert "row 4:" in str(kits[2].error)
+
+
+def test_file_names_keep_the_letters_and_are_safe():
+    # The characters Windows reserves in names, from Microsoft's "Naming
+    # Files, Paths, and Namespaces" (quoted from memory): < > : " / \ | ? *
+    assert kit_stem("Ana/Beltrán: ..\\x?") == "Ana-Beltrán-..-x"
+    assert kit_stem("../..") == ""
+    assert kit_stem("Оскар\u202eЛ") == "Оскар-Л"
+    kits = [SetKit(n, Message("errors.none"), tree, 1) for n, tree in
+            enumerate([{"owner": "CON"}, {"title": "ab"}, {"owner": "AB"}, {}], start=1)]
+    assert kit_file_names(kits) == ["001-CON.pdf", "002-ab.pdf", "003-AB.pdf", "004.pdf"]
