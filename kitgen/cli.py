@@ -70,6 +70,14 @@ def _parser() -> argparse.ArgumentParser:
                         "(made fresh; an earlier set's folder is replaced whole)")
     a.add_argument("-j", "--jobs", type=int, help="worker processes (default: the machine's cores)")
     a.add_argument("--quiet", action="store_true", help="no progress bar or progress lines")
+
+    w = sub.add_parser("serve", help="a web page on this machine for making kits without a terminal")
+    w.add_argument("--host", help="address to listen on (default: 127.0.0.1, this machine only); "
+                                  "any other address is served with a warning")
+    w.add_argument("--port", type=int, default=0, help="port to listen on (default: a free one)")
+    w.add_argument("--open", action="store_true", help="open the page in the web browser")
+    w.add_argument("--workers", type=int, default=2, help="kits built at once (default: 2)")
+    w.add_argument("--queue", type=int, default=8, help="kits waiting beyond those, before 'busy' (default: 8)")
     return p
 
 
@@ -256,9 +264,17 @@ def _cmd_batch(args) -> int:
     return summary.exit_status
 
 
+def _cmd_serve(args) -> int:
+    from .web.server import serve
+
+    serve(args.host, args.port, host_given=args.host is not None, open_browser=args.open,
+          workers=max(1, args.workers), queue=max(0, args.queue))
+    return EXIT_OK
+
+
 COMMANDS = {"build": _cmd_build, "geometry": _cmd_geometry, "new": _cmd_new, "stars": _cmd_stars,
             "calibrate": _cmd_calibrate, "preview": _cmd_preview,
-            "batch": _cmd_batch}
+            "batch": _cmd_batch, "serve": _cmd_serve}
 
 
 class _Terminated(BaseException):
