@@ -47,9 +47,9 @@ def bind_socket(host: str, port: int) -> socket.socket:
     sock.setsockopt(socket.SOL_SOCKET, socket.SO_REUSEADDR, 1)
     try:
         sock.bind((host.strip("[]"), port))
-    except OSError as exc:
+    except (OSError, OverflowError) as exc:  # OverflowError: a port beyond 65535
         sock.close()
-        raise UserError("errors.serve_cannot_bind", host=host, port=port, reason=exc.strerror or exc) from None
+        raise UserError("errors.serve_cannot_bind", host=host, port=port, reason=getattr(exc, "strerror", None) or exc) from None
     sock.listen(128)
     return sock
 
