@@ -27,16 +27,28 @@ from ..words import fonts
 from ..words.shaping import Line, Run, set_line
 
 
-def register_fonts() -> None:
-    """Register every shipped font with reportlab (once per process)."""
-    registered = set(pdfmetrics.getRegisteredFontNames())
-    for face in fonts.all_faces():
-        if face.name in registered:
-            continue
-        with fonts.font_path(face) as path:
-            ttf = TTFont(face.name, str(path))
-        ttf.hbFont()  # installs reportlab's registry of glyphs that no character maps to
-        pdfmetrics.registerFont(ttf)
+def register_fonts(faces=None) -> None:
+    """Register shipped fonts with reportlab, each once per process:
+    ``faces``, or the DejaVu faces that every page starts with.  A
+    script's own font (Arabic, Devanagari) is registered when a line first
+    needs it (:func:`draw_line`), so a kit pays for reading only the fonts
+    its language uses (#12)."""
+    for face in fonts.DEJAVU.values() if faces is None else faces:
+        _register(face)
+
+
+def _register(face) -> None:
+    if face.name in _REGISTERED or face.name in pdfmetrics.getRegisteredFontNames():
+        _REGISTERED.add(face.name)
+        return
+    with fonts.font_path(face) as path:
+        ttf = TTFont(face.name, str(path))
+    ttf.hbFont()  # installs reportlab's registry of glyphs that no character maps to
+    pdfmetrics.registerFont(ttf)
+    _REGISTERED.add(face.name)
+
+
+_REGISTERED: set[str] = set()
 
 
 def _shaped_str(run: Run) -> ShapedStr:
@@ -71,6 +83,7 @@ def draw_line(c, line: Line, x_pt: float, baseline_pt: float, size_pt: float) ->
         c.addLiteral(f"/Span <</ActualText {_actual_text(line.text)}>> BDC")
     x = x_pt
     for run in line.runs:
+        _register(run.face)
         c.setFont(run.face.name, size_pt)
         c.drawString(x, baseline_pt, _shaped_str(run) if run.shaped else run.text)
         x += run.width_em * size_pt

@@ -241,7 +241,9 @@ def _run(face: Face, text: str, level: int) -> Run:
     return Run(face, text, False, False, (), sum(fonts.advance_em(face, ch) for ch in text))
 
 
-@lru_cache(maxsize=4096)
+#: Lines kept set: enough for the instructions of every shipped language,
+#: which a class set measures again for each kit (#12).
+@lru_cache(maxsize=32768)
 def set_line(text: str, script: str, style: str, prefer_rtl: bool = False) -> Line:
     """``text`` (one line, logical order) set in ``style`` for a language
     written in ``script``; ``prefer_rtl`` for a right-to-left language."""
