@@ -8,12 +8,13 @@ one line, never a traceback, unless ``--debug`` asks for one.
 from __future__ import annotations
 
 import argparse
+import errno
+import os
 import sys
 from pathlib import Path
 
-from . import __version__
-from .errors import (EXIT_INTERNAL, EXIT_INTERRUPTED, EXIT_OK, EXIT_TERMINATED, EXIT_USER, Message, UserError,
-                     one_line, speaking)
+from . import __version__, interrupt
+from .errors import EXIT_INTERNAL, EXIT_INTERRUPTED, EXIT_OK, EXIT_USER, Message, UserError, one_line, speaking
 
 
 class _Parser(argparse.ArgumentParser):
@@ -21,6 +22,15 @@ class _Parser(argparse.ArgumentParser):
 
     def error(self, message):
         self.exit(EXIT_USER, f"kitgen: error: {one_line(message)} (see {self.prog} --help)\n")
+
+    def _print_message(self, message, file=None):
+        """Help and version go to stdout through :func:`_emit`, so that a
+        failed write is said in one line (argparse would keep quiet)."""
+        if message:
+            if file is sys.stdout:  # None too, when stdout is closed: argparse passes sys.stdout
+                _emit(message)
+            else:
+                _tell(message.rstrip("\n"))
 
 
 def _parser() -> argparse.ArgumentParser:
@@ -47,6 +57,11 @@ def _parser() -> argparse.ArgumentParser:
     s.add_argument("--name", help="only stars whose name contains this text")
     s.add_argument("--max-mag", type=float, help="only stars at least this bright (magnitude)")
     s.add_argument("--epoch", type=int, help="year of the listed places (default: this year)")
+
+    w = sub.add_parser("places", help="list the places of the gazetteer (GeoNames) that match a name",
+                       epilog="Place data: GeoNames (geonames.org), CC BY 4.0.")
+    w.add_argument("query", help="a town's name, optionally with region and country: Lisbon, 'Lisbon, PT'")
+    w.add_argument("--limit", type=_place_limit, default=10, help="most places listed, 1 to 100 (default: 10)")
 
     c = sub.add_parser("calibrate", help="write a page of check bars to measure the printer's scale")
     c.add_argument("--sheet", default="a4",
@@ -81,8 +96,37 @@ def _parser() -> argparse.ArgumentParser:
     return p
 
 
-def _default_output(recipe: str, suffix: str) -> Path:
-    return Path(recipe).with_suffix(suffix)
+def _recipe_path(text: str) -> Path:
+    """The recipe's path, checked before any work: not a folder (``.``,
+    ``/``), no name longer than the file system takes."""
+    from .outfile import check_name_length
+    from .recipe.load import RECIPE
+
+    path = Path(text)
+    check_name_length(path)
+    if path.is_dir():
+        raise UserError("errors.is_folder_not_file", path=path, what=RECIPE)
+    return path
+
+
+def _default_output(recipe: Path, suffix: str) -> Path:
+    return recipe.with_suffix(suffix)
+
+
+def _inputs(args, recipe=None) -> tuple:
+    """The files the build reads, never to be written over: the recipe and
+    the language file it names."""
+    found = [Path(args.recipe)]
+    if recipe is not None and recipe.language_file:
+        found.append(Path(recipe.language_file))
+    return tuple(found)
+
+
+def _output_path(text: str) -> Path:
+    from .outfile import check_name_length
+
+    check_name_length(text)
+    return Path(text)
 
 
 def _cmd_build(args) -> int:
@@ -91,14 +135,16 @@ def _cmd_build(args) -> int:
     from .recipe.load import load_recipe
     from .render.pdf import build_pdf
 
-    out = Path(args.output) if args.output else _default_output(args.recipe, ".pdf")
-    check_target(out, args.force, (Path(args.recipe),))
-    recipe = load_recipe(args.recipe)
+    path = _recipe_path(args.recipe)
+    out = _output_path(args.output) if args.output else _default_output(path, ".pdf")
+    check_target(out, args.force, _inputs(args))
+    recipe = load_recipe(path)
     with speaking(recipe.language, recipe.language_file or None):
+        check_target(out, args.force, _inputs(args, recipe))
         kit = build_kit(recipe)
-        write_atomic(out, build_pdf(kit)[1], args.force, (Path(args.recipe),))
+        write_atomic(out, build_pdf(kit)[1], args.force, _inputs(args, recipe))
     _print_notes(kit)
-    print(out)
+    _emit(f"{out}\n")
     return EXIT_OK
 
 
@@ -107,32 +153,30 @@ def _print_notes(kit) -> None:
     scale legible, one line a note, in the kit's language (the ``notes``
     section of its template, prefix and all, as errors use ``errors.report``)."""
     for note in kit.notes:
-        print(one_line(Message("notes.report", message=note).text(kit.words)), file=sys.stderr)
+        _tell(one_line(Message("notes.report", message=note).text(kit.words)))
 
 
-def _write_into_folder(folder: Path, files: dict, args) -> None:
-    """Write ``{file name: bytes}`` into ``folder`` (made if need be): every
-    target is checked before the first is written, names are sanitised so
-    that none can leave the folder, and each file is written atomically."""
-    from .outfile import check_target, inside_folder, safe_file_name, write_atomic, write_error
+def _write_folder(folder: Path, files: dict, args, recipe, own) -> None:
+    """Write ``{file name: bytes}`` as the folder ``folder``, whole
+    (:func:`kitgen.outfile.write_folder_atomic`), then list the files."""
+    from .outfile import write_folder_atomic
 
-    files = {safe_file_name(name): data for name, data in files.items()}
-    for name in files:
-        check_target(folder / name, args.force, (Path(args.recipe),))
-    try:
-        folder.mkdir(parents=True, exist_ok=True)
-    except OSError as exc:
-        raise write_error(folder, exc, Message("errors.doing_make_folder")) from None
-    for name, data in files.items():
-        write_atomic(inside_folder(folder, name), data, args.force, (Path(args.recipe),))
-        print(folder / name)
+    written = write_folder_atomic(folder, files, args.force, _inputs(args, recipe), own)
+    _emit("".join(f"{p}\n" for p in written))
 
 
 def _cmd_geometry(args) -> int:
     from .recipe.load import load_recipe
 
-    kit_recipe = load_recipe(args.recipe)
+    path = _recipe_path(args.recipe)
+    if args.output:
+        _output_path(args.output)
+    else:
+        _check_stdout_not_input(path)
+    kit_recipe = load_recipe(path)
     with speaking(kit_recipe.language, kit_recipe.language_file or None):
+        if not args.output:
+            _check_stdout_not_input(*_inputs(args, kit_recipe))
         return _write_geometry(args, kit_recipe)
 
 
@@ -144,13 +188,13 @@ def _write_geometry(args, kit_recipe) -> int:
         from .render.json_export import render_json
 
         if args.output:
-            check_target(Path(args.output), args.force, (Path(args.recipe),))
+            check_target(Path(args.output), args.force, _inputs(args, kit_recipe))
         data = render_json(build_kit(kit_recipe))
         if args.output:
-            write_atomic(Path(args.output), data, args.force, (Path(args.recipe),))
-            print(args.output)
+            write_atomic(Path(args.output), data, args.force, _inputs(args, kit_recipe))
+            _emit(f"{args.output}\n")
         else:
-            sys.stdout.buffer.write(data)
+            _emit(data)
         return EXIT_OK
     from .render.svg import render_svg_files
 
@@ -159,7 +203,8 @@ def _write_geometry(args, kit_recipe) -> int:
     folder = Path(args.output)
     if folder.exists() and not folder.is_dir():
         raise UserError("errors.svg_folder_is_file", path=folder)
-    _write_into_folder(folder, render_svg_files(build_kit(kit_recipe)), args)
+    _write_folder(folder, render_svg_files(build_kit(kit_recipe)), args, kit_recipe,
+                  lambda name: name.endswith(".svg"))
     return EXIT_OK
 
 
@@ -169,13 +214,13 @@ def _cmd_new(args) -> int:
 
     text = starter_recipe().encode("utf-8")
     if args.output:
-        out = Path(args.output)
+        out = _output_path(args.output)
         if out.exists():
             raise UserError("errors.new_exists", path=out)
         write_atomic(out, text)
-        print(out)
+        _emit(f"{out}\n")
     else:
-        sys.stdout.buffer.write(text)
+        _emit(text)
     return EXIT_OK
 
 
@@ -190,13 +235,13 @@ def _cmd_stars(args) -> int:
     stars = filter_stars(args.name, args.max_mag)
     if not stars:
         raise UserError("errors.no_star_matches")
-    sys.stdout.write(format_star_table(stars, epoch + 0.5, load_words("en")))
+    _emit(format_star_table(stars, epoch + 0.5, load_words("en")))
     return EXIT_OK
 
 
 def _cmd_calibrate(args) -> int:
     from .layout.calibration import calibration_page
-    from .layout.sheets import MAX_MARGIN_MM, MIN_MARGIN_MM, SheetError, make_sheet, parse_sheet_option
+    from .paper import MAX_MARGIN_MM, MIN_MARGIN_MM, SheetError, make_sheet, parse_sheet_option
     from .outfile import check_target, write_atomic
     from .render.calibration_pdf import render_calibration_pdf
     from .words.templates import load_words
@@ -214,31 +259,37 @@ def _cmd_calibrate(args) -> int:
         raise UserError.of(exc, key="--margin") from None
     words = load_words(args.language)
     name = value if isinstance(value, str) else f"{value[0]:g}x{value[1]:g}mm"
-    out = Path(args.output) if args.output else Path(f"calibration-{name}.pdf")
+    out = _output_path(args.output) if args.output else Path(f"calibration-{name}.pdf")
     check_target(out, args.force)
     write_atomic(out, render_calibration_pdf(calibration_page(sheet), words), args.force)
-    print(out)
+    _emit(f"{out}\n")
     return EXIT_OK
 
 
 def _cmd_preview(args) -> int:
+    import re
+
     from .kit import build_kit
+    from .outfile import safe_file_name
     from .recipe.load import load_recipe
     from .render.pdf import build_pdf
     from .render.preview import MAX_DPI, MIN_DPI, render_previews
 
     if not MIN_DPI <= args.dpi <= MAX_DPI:
         raise UserError("errors.dpi_option", value=f"{args.dpi:g}", low=f"{MIN_DPI:g}", high=f"{MAX_DPI:g}")
-    folder = Path(args.output)
+    path = _recipe_path(args.recipe)
+    folder = _output_path(args.output)
     if folder.exists() and not folder.is_dir():
         raise UserError("errors.preview_folder_is_file", path=folder)
-    recipe = load_recipe(args.recipe)
+    recipe = load_recipe(path)
     with speaking(recipe.language, recipe.language_file or None):
         kit = build_kit(recipe)
         pictures = render_previews(build_pdf(kit)[1], args.dpi)
         digits = max(2, len(str(len(pictures))))
-        names = [f"{Path(args.recipe).stem}-page-{k:0{digits}d}.png" for k in range(1, len(pictures) + 1)]
-        _write_into_folder(folder, dict(zip(names, pictures)), args)
+        stem = safe_file_name(path.stem)
+        names = [f"{stem}-page-{k:0{digits}d}.png" for k in range(1, len(pictures) + 1)]
+        series = re.compile(re.escape(stem) + r"-page-[0-9]+\.png")
+        _write_folder(folder, dict(zip(names, pictures)), args, recipe, series.fullmatch)
         _print_notes(kit)
     return EXIT_OK
 
@@ -264,6 +315,7 @@ def _cmd_batch(args) -> int:
     return summary.exit_status
 
 
+
 def _cmd_serve(args) -> int:
     from .web.server import serve
 
@@ -272,73 +324,177 @@ def _cmd_serve(args) -> int:
     return EXIT_OK
 
 
+def _place_limit(text: str) -> int:
+    try:
+        value = int(text)
+    except ValueError:
+        value = 0
+    if not 1 <= value <= 100:
+        raise argparse.ArgumentTypeError(f"--limit must be a whole number from 1 to 100, got {text!r}")
+    return value
+
+
+def _cmd_places(args) -> int:
+    """The places matching the query, best first, one a line: ``Name,
+    REGION, CC``, latitude, longitude, time zone and population, separated
+    by tabs.  No match: the one-line message that a recipe's ``place``
+    would give, with close spellings."""
+    from .places import PlaceError, resolve, search
+
+    found = search(args.query, limit=args.limit)
+    if not found:
+        try:
+            found = [resolve(args.query)]
+        except PlaceError as exc:
+            raise UserError.of(exc) from None
+    for p in found:
+        print(f"{p.label()}\t{p.latitude_deg:.5f}\t{p.longitude_deg:.5f}\t{p.timezone}\t{p.population}")
+    return EXIT_OK
+
+
 COMMANDS = {"build": _cmd_build, "geometry": _cmd_geometry, "new": _cmd_new, "stars": _cmd_stars,
             "calibrate": _cmd_calibrate, "preview": _cmd_preview,
-            "batch": _cmd_batch, "serve": _cmd_serve}
+            "batch": _cmd_batch, "serve": _cmd_serve, "places": _cmd_places}
 
 
-class _Terminated(BaseException):
-    """Raised by the SIGTERM handler so that a killed build cleans up as an
-    interrupted one does (``write_atomic`` removes its temporary file)."""
-
-
-def _on_sigterm(signum, frame):
-    raise _Terminated()
-
-
-def main(argv=None) -> int:
+def main(argv=None, handlers_installed: bool = False) -> int:
     """Run one command; returns the exit status.  ``--debug`` may stand
-    anywhere on the line and lets failures raise with their traceback."""
-    import signal
+    anywhere on the line and lets failures raise with their traceback.
+    The handlers of the terminating signals (:mod:`kitgen.interrupt`) go
+    in first, unless the entry point (:mod:`kitgen.start`) put them in
+    already, and come out again at the end."""
+    previous = None if handlers_installed else interrupt.install()
+    try:
+        return _main(argv)
+    finally:
+        interrupt.restore(previous)
 
+
+def _main(argv) -> int:
     argv = list(sys.argv[1:] if argv is None else argv)
     debug = "--debug" in argv
     argv = [a for a in argv if a != "--debug"]
-    parser = _parser()
-    args = parser.parse_args(argv)
-    if not args.command:
-        parser.print_help(sys.stderr)
-        return EXIT_USER
+    args = None
     try:
-        previous = signal.signal(signal.SIGTERM, _on_sigterm)
-    except ValueError:  # not the main thread: leave signals alone
-        previous = None
-    try:
-        return COMMANDS[args.command](args)
+        parser = _parser()
+        try:
+            args = parser.parse_args(argv)
+        except SystemExit as exc:  # --help, --version, or a usage mistake already said on stderr
+            code = exc.code if isinstance(exc.code, int) else EXIT_USER
+            if code == EXIT_OK:
+                _flush_stdout(wrote=True)
+            return code
+        if not args.command:
+            parser.print_help(sys.stderr)
+            return EXIT_USER
+        status = COMMANDS[args.command](args)
+        _flush_stdout()
+        return status
     except UserError as exc:
         if debug:
             raise
         words = _words_of(exc, args)
-        print(one_line(Message("errors.report", message=exc).text(words)), file=sys.stderr)
+        _tell(one_line(Message("errors.report", message=exc).text(words)))
         return EXIT_USER
     except KeyboardInterrupt:
-        print(Message("errors.interrupted").text(), file=sys.stderr)
+        _tell(Message("errors.interrupted").text())
         return EXIT_INTERRUPTED
-    except _Terminated:
-        print(Message("errors.terminated").text(), file=sys.stderr)
-        return EXIT_TERMINATED
-    except BrokenPipeError:
-        _quiet_stdout()
-        return EXIT_OK
+    except interrupt.Stopped as exc:
+        _tell(Message("errors.terminated").text())
+        return exc.exit_status
     except Exception as exc:  # an internal fault: one line unless --debug
         if debug:
             raise
-        print(one_line(Message("errors.internal", kind=type(exc).__name__, detail=exc).text()), file=sys.stderr)
+        _tell(one_line(Message("errors.internal", kind=type(exc).__name__, detail=exc).text()))
         return EXIT_INTERNAL
-    finally:
-        if previous is not None:
-            signal.signal(signal.SIGTERM, previous)
+
+
+def _tell(line: str) -> None:
+    """Say one line on stderr; if stderr itself cannot take it (closed, a
+    full disk), nothing more can be said, and the exit status speaks."""
+    try:
+        print(line, file=sys.stderr, flush=True)
+    except (OSError, ValueError, AttributeError):
+        _quiet(sys.stderr)
+
+
+def _emit(data) -> None:
+    """Write ``data`` (text or bytes) to stdout and flush it, so that a
+    failure (a full disk, a closed descriptor, a closed pipe) is met here
+    and said in one line (:func:`_stdout_error`), never by Python at exit."""
+    try:
+        if sys.stdout is None:  # started with stdout closed (``>&-``)
+            raise OSError(errno.EBADF, "closed")
+        if isinstance(data, bytes):
+            sys.stdout.flush()
+            sys.stdout.buffer.write(data)
+        else:
+            sys.stdout.write(data)
+        sys.stdout.flush()
+    except (OSError, ValueError) as exc:
+        _quiet(sys.stdout)
+        raise _stdout_error(exc) from None
+
+
+def _flush_stdout(wrote: bool = False) -> None:
+    """Flush stdout inside the command, so a failure is reported in one
+    line; ``wrote``: something was meant to be on it (``--help``), so a
+    closed stdout is a failure too."""
+    if sys.stdout is None:
+        if wrote:
+            raise _stdout_error(OSError(errno.EBADF, "closed"))
+        return
+    try:
+        sys.stdout.flush()
+    except (OSError, ValueError) as exc:
+        _quiet(sys.stdout)
+        raise _stdout_error(exc) from None
+
+
+def _stdout_error(exc: BaseException) -> UserError:
+    """The one line for a write to stdout that failed."""
+    from .outfile import write_advice
+
+    code = getattr(exc, "errno", None)
+    if code == errno.EPIPE:
+        advice = Message("errors.stdout_pipe")
+    elif code == errno.EBADF or isinstance(exc, ValueError):
+        advice = Message("errors.stdout_closed")
+    else:
+        advice = write_advice(exc)
+    return UserError("errors.stdout_failed", advice=advice)
+
+
+def _check_stdout_not_input(*inputs) -> None:
+    """Refuse a stdout that the shell pointed at one of the build's inputs
+    (``kitgen geometry r.yaml > r.yaml``): the same file system and inode
+    as fd 1."""
+    if sys.stdout is None:
+        return
+    try:
+        out = os.fstat(sys.stdout.fileno())
+    except (OSError, ValueError, AttributeError):
+        return
+    for path in inputs:
+        try:
+            st = os.stat(path)
+        except (OSError, ValueError):
+            continue
+        if (st.st_dev, st.st_ino) == (out.st_dev, out.st_ino):
+            raise UserError("errors.stdout_is_input", path=path)
 
 
 def _words_of(exc: UserError, args):
     """The words to say ``exc`` in: the language file or the language the
     recipe asked for (:func:`kitgen.errors.speaking`), else a command's own
     ``--language``, else ``None`` (English)."""
-    from .words.templates import available_languages, load_words, load_words_file
+    from .recipe.load import load_language_file
+    from .template_files import available_languages
+    from .words.templates import load_words, words_from_tree
 
     try:
         if exc.language_file:
-            return load_words_file(exc.language_file)
+            return words_from_tree(load_language_file(exc.language_file))
         language = exc.language or getattr(args, "language", None)
         if isinstance(language, str) and language in available_languages():
             return load_words(language)
@@ -347,15 +503,15 @@ def _words_of(exc: UserError, args):
     return None
 
 
-def _quiet_stdout() -> None:
-    """After a closed pipe (``kitgen stars | head``), point stdout at the
-    null device so that Python's final flush reports nothing."""
-    import os
-
+def _quiet(stream) -> None:
+    """After a failed write, point ``stream``'s descriptor at the null
+    device and drop what is buffered, so that Python's final flush at exit
+    adds no second message."""
     try:
         devnull = os.open(os.devnull, os.O_WRONLY)
-        os.dup2(devnull, sys.stdout.fileno())
-    except (OSError, ValueError):
+        os.dup2(devnull, stream.fileno())
+        os.close(devnull)
+    except (OSError, ValueError, AttributeError):
         pass
 
 

@@ -21,6 +21,8 @@ from __future__ import annotations
 import contextlib
 import unicodedata
 
+from .template_files import shipped_table
+
 EXIT_OK = 0
 EXIT_INTERNAL = 1
 EXIT_USER = 2
@@ -101,8 +103,6 @@ class Message:
 
 
 def _english(key: str) -> str | None:
-    from .words.templates import shipped_table
-
     value = shipped_table("en").get(key)
     return value if isinstance(value, str) else None
 

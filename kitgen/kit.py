@@ -1,8 +1,9 @@
 """Build a kit: the one way through the pipeline.
 
-recipe -> sky -> dimensions -> parts.  :func:`build_kit` is a pure function
-of the recipe (and of the shipped catalogue and templates): the same recipe
-gives the same kit, byte for byte, whoever builds it and wherever.
+recipe -> plan -> sky, dimensions -> parts.  :func:`build_kit` is a pure
+function of the recipe (and of the shipped catalogue and templates): the
+same recipe gives the same kit, byte for byte, whoever builds it and
+wherever.  :func:`build_from_plan` does the same from a plan.
 """
 
 from __future__ import annotations
@@ -11,48 +12,81 @@ from dataclasses import dataclass, replace
 
 from .errors import Message
 from .geometry.model import Part
-from .layout.pages import default_diameter_mm, kit_sheet
 from .parts import PART_BUILDERS
 from .parts.context import PartContext
 from .parts.dimensions import Dimensions, dimensions
 from .parts.legibility import plan_scales, shortened_notes
+from .plan.model import Plan
+from .plan.resolve import plan_kit
 from .recipe.schema import Recipe
-from .sky.almanac import SkyForKit, sky_for_kit
-from .words.templates import Words, load_words, load_words_file
+from .sky.almanac import SkyForKit
+from .words.templates import Words
 
 
 @dataclass(frozen=True)
 class Kit:
-    recipe: Recipe
-    sky: SkyForKit
+    plan: Plan
     dims: Dimensions
-    words: Words
     parts: tuple[Part, ...]
     #: What the build thinned or shortened to keep every scale legible at
     #: this size, for the command line to tell (kitgen.parts.legibility):
     #: messages of the templates' ``notes`` section, said with ``words``.
     notes: tuple[Message, ...] = ()
 
-    def part(self, kind: str) -> Part:
-        return next(p for p in self.parts if p.kind == kind)
+    @property
+    def words(self) -> Words:
+        return self.plan.words
+
+    @property
+    def sky(self) -> SkyForKit:
+        return self.plan.sky
+
+    def part(self, key: str) -> Part:
+        """The part with this id, or the first of this kind."""
+        return next((p for p in self.parts if p.id == key), None) or next(p for p in self.parts if p.kind == key)
+
+    def parts_of(self, kind: str) -> list[Part]:
+        return [p for p in self.parts if p.kind == kind]
 
 
-def on_material(part: Part, recipe: Recipe) -> Part:
-    """The part on transparency film when the recipe's ``film_parts``
-    lists it (the rete is drawn for film always)."""
-    if part.kind in recipe.film_parts and part.material != "film":
+def part_id(kind: str) -> str:
+    """The id of the one part of a kind (``mater_front`` -> ``mater-front``)."""
+    return kind.replace("_", "-")
+
+
+def on_material(part: Part, plan: Plan) -> Part:
+    """The part on transparency film when the plan's ``film_parts`` lists
+    it (the rete is drawn for film always)."""
+    if part.kind in plan.printing.film_parts and part.material != "film":
         return replace(part, material="film")
     return part
 
 
+def build_from_plan(plan: Plan) -> Kit:
+    """Every part of the planned kit, as geometry in mm: one plate per
+    planned plate (ids ``plate-1``...), one of every other part."""
+    dims = dimensions(plan.diameter_mm, plan.sky.obliquity_rad)
+    kit_scales = plan_scales(plan, plan.plates[0], dims)
+    notes = list(kit_scales.notes)
+    parts = []
+    for kind, build in PART_BUILDERS.items():
+        if kind not in plan.parts:
+            continue
+        if kind != "plate":
+            ctx = PartContext(plan, dims, kit_scales)
+            parts.append(replace(on_material(build(ctx), plan), id=part_id(kind)))
+            continue
+        for plate in plan.plates:
+            scales = kit_scales if plate is plan.plates[0] else plan_scales(plan, plate, dims)
+            if plate is not plan.plates[0]:
+                notes += [n for n in scales.notes if n.values.get("part") is not None
+                          and n.values["part"].key == "notes.part.plate_numbered"]
+            ctx = PartContext(plan, dims, scales, plate)
+            parts.append(replace(on_material(build(ctx), plan), id=plate.id))
+    parts = tuple(parts)
+    return Kit(plan, dims, parts, tuple(notes) + shortened_notes(parts, dims, plan.words))
+
+
 def build_kit(recipe: Recipe) -> Kit:
     """Every part of the kit the recipe describes, as geometry in mm."""
-    sky = sky_for_kit(recipe)
-    words = (load_words_file(recipe.language_file, recipe.native_digits) if recipe.language_file
-             else load_words(recipe.language, recipe.native_digits))
-    diameter = recipe.diameter_mm or default_diameter_mm(kit_sheet(recipe), recipe.print_scale)
-    dims = dimensions(diameter, sky.obliquity_rad)
-    scales = plan_scales(recipe, sky, dims, words)
-    ctx = PartContext(recipe, sky, dims, words, scales)
-    parts = tuple(on_material(build(ctx), recipe) for kind, build in PART_BUILDERS.items() if kind in recipe.parts)
-    return Kit(recipe, sky, dims, words, parts, scales.notes + shortened_notes(parts, dims, words))
+    return build_from_plan(plan_kit(recipe))

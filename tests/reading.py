@@ -24,8 +24,10 @@ def _wrap(a: float) -> float:
     return (a + 180.0) % 360.0 - 180.0
 
 
-def _part(geom: dict, kind: str) -> dict:
-    return next(p for p in geom["parts"] if p["kind"] == kind)
+def _part(geom: dict, key: str) -> dict:
+    """The part with id ``key`` (JSON version 2), else the first of kind ``key``."""
+    return next((p for p in geom["parts"] if p.get("id") == key), None) or next(
+        p for p in geom["parts"] if p["kind"] == key)
 
 
 def _interpolate_on_ticks(ticks, value_key, direction_deg, center=(0.0, 0.0)):
@@ -62,8 +64,8 @@ def sun_point_on_rete(geom, longitude_deg: float) -> np.ndarray:
     return c + ecl["radius"] * np.array([math.cos(math.radians(a)), math.sin(math.radians(a))])
 
 
-def turned_to_almucantar(geom, point, altitude_deg: float, morning: bool) -> np.ndarray:
-    plate = _part(geom, "plate")
+def turned_to_almucantar(geom, point, altitude_deg: float, morning: bool, plate_id: str = "plate") -> np.ndarray:
+    plate = _part(geom, plate_id)
     alm = next(e for e in plate["elements"] if e["role"] in ("almucantar", "horizon")
                and abs(e["altitude_deg"] - altitude_deg) < 1e-9 and e["shape"] in ("circle", "arc"))
     c, r = np.array(alm["center"]), alm["radius"]
@@ -88,9 +90,10 @@ def hour_from_front(geom, point) -> float:
     return _interpolate_on_ticks(ticks, "hour", _angle(point)) % 24.0
 
 
-def read_time(geom, month: int, day: int, altitude_deg: float, morning: bool) -> float:
-    """Local apparent solar time (hours) read from the kit's geometry."""
+def read_time(geom, month: int, day: int, altitude_deg: float, morning: bool, plate_id: str = "plate") -> float:
+    """Local apparent solar time (hours) read from the kit's geometry, with
+    the plate ``plate_id`` (the first plate by default) in the mater."""
     lon = sun_longitude_from_back(geom, month, day)
     p = sun_point_on_rete(geom, lon)
-    q = turned_to_almucantar(geom, p, altitude_deg, morning)
+    q = turned_to_almucantar(geom, p, altitude_deg, morning, plate_id)
     return hour_from_front(geom, q)

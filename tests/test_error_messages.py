@@ -276,14 +276,17 @@ def test_recipe_with_no_valid_language_is_told_in_english(tmp_path, capsys, text
     assert en["errors.report"].format(message="") == "kitgen: error: "
 
 
-def test_an_error_found_while_building_is_told_in_the_recipes_language(tmp_path, capsys):
+def test_a_star_off_the_rete_is_told_in_the_recipes_language(tmp_path, capsys):
     """Polaris (Dec about +89 degrees, any star catalogue) never rises at
-    latitude 40 S, so it is off a southern rete: the build, not the loader,
-    refuses it, still in the recipe's language."""
-    code, line, _ = _build(tmp_path, capsys, "language: fr\nlatitude: -40\nstars: [Polaris]\n")
+    latitude 40 S, so it is off a southern rete: refused with the line of
+    its key, in the recipe's language."""
+    code, line, recipe = _build(tmp_path, capsys, "language: fr\nlatitude: -40\nstars: [Polaris]\n")
     fr = _errors("fr")
     assert code == EXIT_USER
-    assert line == fr["errors.report"].format(message=fr["errors.star_outside"].format(name="Polaris"))
+    where = fr["errors.at_line"].format(source=recipe, line=3)
+    label = fr["errors.key_label"].format(where=where, name="stars")
+    problem = fr["errors.star_outside"].format(name="Polaris")
+    assert line == fr["errors.report"].format(message=fr["errors.key_problem"].format(label=label, problem=problem))
 
 
 def test_a_recipes_own_language_file_tells_the_errors(tmp_path, capsys):
@@ -421,7 +424,7 @@ def test_a_custom_sheet_is_named_once_in_english(tmp_path, capsys):
     assert line == en["errors.report"].format(message=en["errors.duplex_mater"].format(sheet=custom))
     assert "one 250 x 350 mm page" in line and "sheet sheet" not in line and "sheet page" not in line
     # ISO 216: A5 is 148 mm across, so margins of 30 mm leave 88 mm.
-    from kitgen.layout.sheets import MIN_USABLE_MM
+    from kitgen.paper import MIN_USABLE_MM
 
     recipe.write_text("latitude: 40\nsheet: a5\nmargin_mm: 30\n", encoding="utf-8")
     code, line = _cli_line(["build", recipe, "-o", tmp_path / "k.pdf"], capsys)

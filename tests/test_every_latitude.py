@@ -248,7 +248,7 @@ def check_all_finite_and_inside(kit) -> None:
 
 
 def check_plate(kit) -> None:
-    lat = kit.recipe.latitude_deg
+    lat = kit.plan.latitude_deg
     phi = math.radians(lat)
     plate = kit.part("plate")
     equator = plate.with_role("equator")
@@ -286,14 +286,14 @@ def check_plate(kit) -> None:
     # Completeness: the true curves inside the disc are all drawn.
     zen = zenith_vector(phi)
     wanted = [("horizon", 0.0)]
-    if kit.recipe.twilight:
+    if kit.plan.drawing.twilight:
         wanted.append(("twilight", -18.0))
     # The layout may thin the almucantars to keep them legible at this size
     # (never closer than asked): every multiple of the step drawn is drawn.
     drawn_alts = sorted({e.values["altitude_deg"] for e in plate.with_role("almucantar")})
     assert drawn_alts, "no almucantar"
     step = drawn_alts[0]
-    assert step >= kit.recipe.altitude_step_deg - 1e-9
+    assert step >= kit.plan.drawing.altitude_step_deg - 1e-9
     wanted += [("almucantar", float(a)) for a in np.arange(step, 90.0 - 1e-9, step)]
     for role, alt in wanted:
         true = project(sphere_circle(zen, math.radians(90.0 - alt)), lat, R)

@@ -95,6 +95,8 @@ def _value(key):
         return st.sampled_from(available_languages())
     if key.name == "language_file":
         return None  # needs a file of its own; see test_bad_input_hostile
+    if key.kind == "plates":
+        return None  # stands instead of 'latitude'; see test_plates.py
     if key.kind == "string":
         return PRINTABLE
     if key.name == "sheet":
@@ -213,7 +215,13 @@ def load_text(text: str):
 @examples(800)
 @given(tree=well_formed())
 def test_loader_accepts_every_well_formed_recipe(tree):
-    recipe = parse_recipe_text(dump(tree), SOURCE)
+    try:
+        recipe = parse_recipe_text(dump(tree), SOURCE)
+    except UserError as exc:
+        # Named stars that a rete of the latitude's hemisphere cannot carry
+        # are the one refusal a well-formed recipe may meet.
+        assert exc.message.values["problem"].key in ("errors.star_outside", "errors.stars_outside"), exc
+        return
     assert isinstance(recipe, Recipe)
     if isinstance(tree["latitude"], (int, float)):
         assert recipe.latitude_deg == pytest.approx(tree["latitude"], abs=1e-12)
@@ -267,8 +275,8 @@ def test_loader_bytes_from_a_file(tmp_path_factory, data):
 @examples(200)
 @given(tree=well_formed())
 def test_builder_gives_a_valid_kit_or_a_clean_error(tree):
-    recipe = parse_recipe_text(dump(tree), SOURCE)
     try:
+        recipe = parse_recipe_text(dump(tree), SOURCE)
         kit = build_kit(recipe)
         pages = layout_kit(kit)
     except UserError as exc:

@@ -25,7 +25,7 @@ pypdf = pytest.importorskip("pypdf")
 
 from kitgen.kit import build_kit  # noqa: E402
 from kitgen.recipe.load import parse_recipe_text  # noqa: E402
-from kitgen.render.style import stroke_width_mm  # noqa: E402
+from kitgen.geometry.style import stroke_width_mm  # noqa: E402
 
 from .printed import PrintedKit  # noqa: E402
 

@@ -27,7 +27,7 @@ MM_PER_IN = 25.4          # exact, by the 1959 international yard and pound agre
 PT_PER_MM = PT_PER_IN / MM_PER_IN
 
 #: Portrait sheet sizes in points, from the standards themselves (not from
-#: kitgen.layout.sheets): ISO 216 gives A4 and A3 in mm, ANSI/ASME Y14.1
+#: kitgen.paper): ISO 216 gives A4 and A3 in mm, ANSI/ASME Y14.1
 #: gives Letter (ANSI A) and Tabloid (ANSI B) in inches.
 SHEETS_PT = {
     "a5": (148 * PT_PER_MM, 210 * PT_PER_MM),        # ISO 216: A5 = 148 x 210 mm
@@ -238,7 +238,7 @@ def test_check_bar_drawn_283_46_pt_with_end_ticks(rendered):
 
 def test_line_widths_stay_legible(rendered):
     """Every line width set is at least 0.1 mm = 0.283 pt (common practice
-    for office printers and film; see kitgen.render.style)."""
+    for office printers and film; see kitgen.geometry.style)."""
     for pdf_page in rendered.reader.pages:
         widths = [float(ops[0]) for ops, op in ContentStream(pdf_page.get_contents(), rendered.reader).operations
                   if op == b"w"]

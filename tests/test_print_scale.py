@@ -24,7 +24,7 @@ from kitgen.errors import UserError  # noqa: E402
 from kitgen.kit import build_kit  # noqa: E402
 from kitgen.layout.calibration import calibration_page  # noqa: E402
 from kitgen.layout.pages import CHECK_BAR_MM, check_bar_mm, layout_kit  # noqa: E402
-from kitgen.layout.sheets import make_sheet  # noqa: E402
+from kitgen.paper import make_sheet  # noqa: E402
 from kitgen.recipe.load import parse_recipe_text  # noqa: E402
 from kitgen.render.calibration_pdf import render_calibration_pdf  # noqa: E402
 from kitgen.render.json_export import render_json  # noqa: E402

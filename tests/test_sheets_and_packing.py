@@ -15,7 +15,7 @@ import pytest
 from kitgen.errors import UserError
 from kitgen.kit import build_kit
 from kitgen.layout.pages import FOOTER_MM, GAP_MM, content_area_mm, layout_kit
-from kitgen.layout.sheets import SHEET_SIZES_MM, make_sheet
+from kitgen.paper import SHEET_SIZES_MM, make_sheet
 from kitgen.recipe.load import parse_recipe_text
 
 MM_PER_IN = 25.4  # exact, by the 1959 international yard and pound agreement

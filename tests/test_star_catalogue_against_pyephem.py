@@ -20,8 +20,8 @@ import numpy as np
 import pytest
 
 from kitgen.errors import UserError
-from kitgen.recipe.schema import StarChoice
-from kitgen.sky.stars import catalogue, find_star, named_stars, places_at_epoch, select_stars
+from kitgen.recipe.load import parse_recipe_text
+from kitgen.sky.stars import catalogue, closest_name, find_star, named_stars, outside, places_at_epoch, select_stars
 
 ARCSEC_PER_RAD = 180.0 / math.pi * 3600.0
 MATCH_RADIUS_ARCSEC = 60.0
@@ -147,13 +147,13 @@ def test_places_at_epoch_agree_with_erfa(epoch_year):
 
 
 def test_find_star_suggests_a_close_name():
+    assert find_star("Betelguese") is None and closest_name("Betelguese") == "Betelgeuse"
+    assert closest_name("Rigel Kent") == "Rigil Kentaurus"
     with pytest.raises(UserError) as err:
-        find_star("Betelguese", where="stars")
+        parse_recipe_text("latitude: 48\nstars: [Vega, Betelguese]\n")
     message = str(err.value)
-    assert message == "stars: unknown star 'Betelguese'; did you mean 'Betelgeuse'?"
+    assert message == "recipe, line 2: 'stars': unknown star 'Betelguese'; did you mean 'Betelgeuse'?"
     assert "\n" not in message
-    with pytest.raises(UserError, match=r"^unknown star 'Rigel Kent'; did you mean 'Rigil Kentaurus'\?$"):
-        find_star("Rigel Kent")
     # Case, accents and spacing do not matter; HIP numbers work.
     assert find_star("  fómalhaut ").name == "Fomalhaut"
     assert find_star("hip 32349").name == "Sirius"
@@ -170,15 +170,18 @@ def test_named_star_outside_the_rete_is_refused():
     def fits(ra_deg, dec_deg):
         return np.asarray(dec_deg) > -40.0
 
-    assert [s.name for s in select_stars(StarChoice(names=("sirius", "Sirius")), 2026, fits)] == ["Sirius"]
-    with pytest.raises(UserError, match=r"^star 'Acrux' is outside the rete for this latitude$"):
-        select_stars(StarChoice(names=("Sirius", "Acrux")), 2026, fits)
+    assert [s.name for s in select_stars(("sirius", "Sirius"), None, None, 2026, fits)] == ["Sirius"]
+    assert outside(("Sirius", "Acrux"), 2026, fits) == ["Acrux"]
+    # A northern rete reaches down to about -21.4 deg (the Tropic of
+    # Capricorn less the rim's margin), so the recipe refuses Acrux there.
+    with pytest.raises(UserError, match=r"^recipe, line 2: 'stars': star 'Acrux' is outside the rete for this latitude$"):
+        parse_recipe_text("latitude: 48\nstars: [Sirius, Acrux]\n")
     # The five brightest named stars that fit are PyEphem's five brightest
     # in V north of -40 deg (Hp orders them slightly differently).
     ephem_bright = sorted((v, n) for n, _, dec, v in _ephem_entries() if dec > -40.0)
     ephem_five = {find_star(n).name for _, n in ephem_bright[:5]}
-    brightest = select_stars(StarChoice(brightest=5), 2026, fits)
+    brightest = select_stars((), 5, None, 2026, fits)
     assert {s.name for s in brightest} == ephem_five
     assert [s.mag for s in brightest] == sorted(s.mag for s in brightest)
-    faint = select_stars(StarChoice(magnitude_limit=3.0), 2026, fits)
+    faint = select_stars((), None, 3.0, 2026, fits)
     assert any(not s.name for s in faint) and all(s.mag <= 3.0 for s in faint)

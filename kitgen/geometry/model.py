@@ -18,7 +18,7 @@ from dataclasses import dataclass, field
 from typing import Any
 
 #: Stroke classes.  Parts choose one per element; renderers map each to a
-#: line weight and dash pattern scaled to the instrument (see kitgen.render.style).
+#: line weight and dash pattern scaled to the instrument (see kitgen.geometry.style).
 STROKES = ("cut", "fold", "heavy", "medium", "light", "fine", "none")
 
 SHAPES = ("circle", "arc", "segment", "polyline", "point", "text")
@@ -49,7 +49,7 @@ class Element:
 
 @dataclass(frozen=True)
 class Part:
-    """A piece of the kit to be cut out: its kind, material and elements.
+    """A piece of the kit to be cut out: its kind, id, material and elements.
 
     ``extent_mm`` is the half-width of the square box centred on the pin that
     holds every element (for circular parts: the cut radius), or for long
@@ -62,6 +62,9 @@ class Part:
     bounds_mm: tuple[float, float, float, float]
     values: dict[str, Any] = field(default_factory=dict)
     title: str = ""
+    #: The part's identity in the kit (``plate-1``, ``plate-2``, ``rete``,
+    #: ``mater-front``...): what file names, page labels and notes name it by.
+    id: str = ""
 
     @property
     def width_mm(self) -> float:

@@ -8,7 +8,8 @@ surely draws nothing there.  Lengths in mm, in the part's frame.
 
 from __future__ import annotations
 
-PT_TO_MM = 25.4 / 72.0
+from ..paper import MM_PER_PT as PT_TO_MM
+
 #: Room (mm) round a point for its largest mark (a pin's crosshair, a
 #: bright star's dot).
 POINT_ROOM_MM = 3.0

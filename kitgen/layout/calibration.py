@@ -13,7 +13,7 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass
 
-from .sheets import MM_PER_INCH, Sheet
+from ..paper import MM_PER_INCH, Sheet
 
 #: Room (mm) kept for the bars: the column for the two bars down the
 #: right-hand side, the band for the two bars across the foot.

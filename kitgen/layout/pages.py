@@ -31,18 +31,13 @@ from itertools import product
 from ..errors import UserError
 from ..geometry.model import Part
 from .packing import Box, Packer, extent, place
-from .sheets import SheetError, Sheet, make_sheet, sheet_name, sheet_words
+from ..paper import (FOOTER_MM, GAP_MM, PT_PER_MM, TITLE_BAND_MM, Sheet, content_area_mm, page_size_mm, sheet_name,
+                     sheet_words)
 from .tiling import PIECE_BAND_MM, Piece, tile
 
-#: Height (mm) of the footer band above the bottom margin.
-FOOTER_MM = 14.0
-#: Space (mm) between parts, and between the parts and the footer: room for
-#: the blade between two cut lines.
-GAP_MM = 4.0
-#: Size (pt) of the part titles printed above each part, and the band (mm)
-#: kept for them.
+#: Size (pt) of the part titles printed above each part (the band kept for
+#: them is kitgen.paper.TITLE_BAND_MM).
 TITLE_PT = 8.0
-TITLE_BAND_MM = 5.0
 #: A generous estimate of the advance of one character, in em, for the
 #: width kept for a title (DejaVu Sans Bold averages below 0.65 em for Latin
 #: text; from its metrics).
@@ -65,9 +60,6 @@ LONG_RATIO = 1.5
 REGISTRATION_INSET_MM = 8.0
 REGISTRATION_CLEAR_MM = 8.0
 
-PT_PER_MM = 72.0 / 25.4
-
-DUPLEX_MODES = ("none", "long_edge", "short_edge")
 
 
 @dataclass(frozen=True)
@@ -162,21 +154,6 @@ class Page:
     def media_mm(self) -> tuple[float, float]:
         """The sheet as the PDF's page (mm): width and height as printed."""
         return page_size_mm(self.sheet, self.landscape)
-
-
-def page_size_mm(sheet: Sheet, landscape: bool, scale=(1.0, 1.0)) -> tuple[float, float]:
-    """Width and height (mm) of the page as printed, times ``scale``."""
-    w, h = sheet.width_mm, sheet.height_mm
-    w, h = (h, w) if landscape else (w, h)
-    return (w * scale[0], h * scale[1])
-
-
-def content_area_mm(sheet: Sheet, landscape: bool, scale=(1.0, 1.0)) -> tuple[float, float, float, float]:
-    """``(xmin, ymin, xmax, ymax)`` where parts may go: inside the margins,
-    above the footer band and the gap over it."""
-    w, h = page_size_mm(sheet, landscape, scale)
-    m = sheet.margin_mm
-    return (m, m + FOOTER_MM + GAP_MM, w - m, h - m)
 
 
 def page_content_mm(page: Page) -> tuple[float, float, float, float]:
@@ -330,7 +307,7 @@ def _pack(items: list[_Item], sheet: Sheet, scale) -> list[tuple[bool, tuple[Pla
 def _order_key(order):
     def key(pl: Placement):
         piece = pl.piece
-        return (order[pl.part.kind], piece.row if piece else 0, piece.column if piece else 0)
+        return (order[pl.part.id], piece.row if piece else 0, piece.column if piece else 0)
     return key
 
 
@@ -394,44 +371,24 @@ def _duplex_pages(front: Part, back: Part, sheet: Sheet, scale, mode: str):
 
 # -- the kit ----------------------------------------------------------------------------
 
-def kit_sheet(recipe) -> Sheet:
-    """The recipe's sheet with its margin; a one-line error naming the key
-    when the margin leaves too little of it."""
-    try:
-        return make_sheet(recipe.sheet, recipe.margin_mm)
-    except SheetError as exc:
-        raise UserError.of(exc) from None
-
-
-def default_diameter_mm(sheet: Sheet, scale=(1.0, 1.0)) -> float:
-    """The largest mater, in whole 5 mm from 80 to 600 mm, that fits one
-    page of the sheet (printed at ``scale``) with its title and 3 mm to
-    spare on each side (room for the cut line's ink and a little misfeed)."""
-    room = 0.0
-    for landscape in (False, True):
-        x0, y0, x1, y1 = content_area_mm(sheet, landscape, scale)
-        room = max(room, min(x1 - x0, y1 - y0 - TITLE_BAND_MM) - 6.0)
-    return float(min(600, max(80, int(room // 5) * 5)))
-
-
 def layout_kit(kit, instruction_pages: int = 1) -> tuple[Page, ...]:
     """The kit's pages in print order: instructions (on one page, or on
     ``instruction_pages`` where the words need more room: see
     kitgen.render.pdf.build_pdf), card pages (the duplex pair first), film
     pages."""
-    recipe = kit.recipe
-    sh = kit_sheet(recipe)
-    scale = tuple(recipe.print_scale)
-    order = {p.kind: i for i, p in enumerate(kit.parts)}
+    printing = kit.plan.printing
+    sh = printing.sheet
+    scale = tuple(printing.print_scale)
+    order = {p.id: i for i, p in enumerate(kit.parts)}
     # (kind, landscape, placements, marks, duplex side)
     drafts: list[tuple] = [("instructions", False, (), (), "")] * max(1, int(instruction_pages))
     card = [p for p in kit.parts if p.material == "card"]
     kinds = {p.kind for p in card}
-    if recipe.duplex != "none" and not {"mater_front", "mater_back"} <= kinds:
+    if printing.duplex != "none" and not {"mater_front", "mater_back"} <= kinds:
         raise UserError("errors.duplex_parts")
-    if recipe.duplex != "none":
+    if printing.duplex != "none":
         front, back = kit.part("mater_front"), kit.part("mater_back")
-        (fp, fm), (bp, bm) = _duplex_pages(front, back, sh, scale, recipe.duplex)
+        (fp, fm), (bp, bm) = _duplex_pages(front, back, sh, scale, printing.duplex)
         drafts += [("card", False, (fp,), fm, "front"), ("card", False, (bp,), bm, "back")]
         card = [p for p in card if p.kind not in ("mater_front", "mater_back")]
     for landscape, placed in _layout_material(card, sh, scale, order, kit.words):
@@ -440,10 +397,10 @@ def layout_kit(kit, instruction_pages: int = 1) -> tuple[Page, ...]:
     for landscape, placed in _layout_material(film, sh, scale, order, kit.words):
         drafts.append(("film", landscape, placed, (), ""))
     total = len(drafts)
-    return tuple(Page(k, total, kind, sh, landscape, placed, kind == "film" and recipe.film_mirror, scale,
+    return tuple(Page(k, total, kind, sh, landscape, placed, kind == "film" and printing.film_mirror, scale,
                       marks, side)
                  for k, (kind, landscape, placed, marks, side) in enumerate(drafts, start=1))
 
 
-def describe_sheet(recipe) -> str:
-    return sheet_name(recipe.sheet)
+def describe_sheet(printing) -> str:
+    return sheet_name(printing.sheet_value)

@@ -33,7 +33,7 @@ def alidade(ctx: PartContext) -> model.Part:
            model.point("pin", (half + hole_at, -width / 2), hole="sight"),
            model.point("pin", (-half - hole_at, -width / 2), hole="sight")]
     # The words keep clear of the pins' crosshairs (PIN_CROSS_HALF_MM in
-    # kitgen.render.style, 2 mm) and of the fold lines: the name on the
+    # kitgen.geometry.style, 2 mm) and of the fold lines: the name on the
     # left arm, the caution on the right arm, and on each vane, between its
     # fold and its pinhole, "fold up" set along the fold.
     m, cross = labels.MARGIN_MM, 2.0

@@ -1,11 +1,12 @@
-"""What every part function receives: the recipe, the sky, the sizes and
-the words.  Parts are pure functions of this context."""
+"""What every part function receives: the plan, the sky, the sizes, the
+words and, for a plate, which plate.  Parts are pure functions of this
+context; none reads the recipe."""
 
 from __future__ import annotations
 
 from dataclasses import dataclass
 
-from ..recipe.schema import Recipe
+from ..plan.model import Plan, PlatePlan
 from ..sky.almanac import SkyForKit
 from ..words.templates import Words
 from .dimensions import Dimensions
@@ -14,8 +15,19 @@ from .legibility import Scales
 
 @dataclass(frozen=True)
 class PartContext:
-    recipe: Recipe
-    sky: SkyForKit
+    plan: Plan
     dims: Dimensions
-    words: Words
-    scales: Scales       # what each scale carries at this size (kitgen.parts.legibility)
+    scales: Scales                 # what each scale carries at this size (kitgen.parts.legibility)
+    plate: PlatePlan | None = None  # the plate being drawn (plate parts only)
+
+    @property
+    def sky(self) -> SkyForKit:
+        return self.plan.sky
+
+    @property
+    def words(self) -> Words:
+        return self.plan.words
+
+    @property
+    def hemisphere_sign(self) -> int:
+        return self.plan.hemisphere_sign

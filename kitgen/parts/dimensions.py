@@ -14,7 +14,7 @@ Text sizes and tick lengths follow the instrument (in proportion to a
 * ticks: :data:`MIN_TICK_MM` = 0.8 mm for the shortest tick, some 8 line
   widths, so a tick reads as a tick and not as a dot.
 
-Line weights follow the same rule in :mod:`kitgen.render.style` (no line
+Line weights follow the same rule in :mod:`kitgen.geometry.style` (no line
 under 0.10 mm), and scales too fine for the size are thinned by
 :mod:`kitgen.parts.legibility`.
 """

@@ -17,6 +17,7 @@ import math
 
 from ..geometry import model
 from ..words.fit import line_offsets_mm
+from ..words.measure import text_corners_mm
 from . import curves
 
 #: Clearance (mm) kept between a label and the lines that bound its room
@@ -133,7 +134,6 @@ def chord_mm(radius_mm: float, span_deg: float) -> float:
 def element_box_mm(el, words, style: str = "label"):
     """The axis-aligned box (mm) that holds a text element's measured,
     turned extent."""
-    from ..words.measure import text_corners_mm
 
     ext = words.measure(el.geom["text"], el.geom["size_pt"], style)
     pts = text_corners_mm(el.geom["at"], ext.width_mm, ext.height_mm, el.geom["angle_deg"], el.geom["anchor"])

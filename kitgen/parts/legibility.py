@@ -8,7 +8,7 @@ silently unreadable.  The rule, in one number:
 
 * :data:`MIN_CLEAR_GAP_MM` = 0.4 mm of clear paper between two neighbouring
   lines, whatever their own width.  With the thinnest line of 0.10 mm
-  (``kitgen.render.style``) that is a pitch of 0.5 mm, the finest
+  (``kitgen.geometry.style``) that is a pitch of 0.5 mm, the finest
   graduation of a common steel rule (half millimetres): the finest scale
   people are used to reading by eye (common practice).  It also keeps
   toner and ink, which spread a few hundredths of a millimetre on each side
@@ -41,8 +41,11 @@ import numpy as np
 
 from ..errors import Message, Number
 from ..projection.circles import PlaneCircle, project_circle
-from ..projection.stereographic import hemisphere_sign, horizontal_vector, project_vectors
-from ..render.style import stroke_width_mm
+from ..projection.stereographic import horizontal_vector, project_vectors
+from ..geometry.style import stroke_width_mm
+from .ecliptic_points import ecliptic_points_mm
+from .labels import MARGIN_MM, text_box_mm
+from .shadow_square import LABELLED_RATIOS, decimals, shadow_mark, shadow_side_mm
 
 MIN_CLEAR_GAP_MM = 0.4
 MIN_LABEL_GAP_MM = 0.4
@@ -193,39 +196,49 @@ def azimuth_gap_mm(step_deg: float, top_deg: float, phi: float, s: int, R: float
 
 # -- the whole plan -------------------------------------------------------------------
 
-def plan_scales(recipe, sky, dims, words) -> Scales:
-    """What every scale carries for this recipe at this size, and the notes
-    that say what was thinned."""
+def plate_name(plan, plate) -> Message:
+    """A plate as the notes name it: "the plate", or "plate 2" on a kit of
+    several plates."""
+    if len(plan.plates) == 1:
+        return PART_NAMES["plate"]
+    return Message("notes.part.plate_numbered", number=Number(plate.number))
+
+
+def plan_scales(plan, plate, dims) -> Scales:
+    """What every scale carries for this plan at this size (the plate's
+    scales for ``plate``), and the notes that say what was thinned."""
+    sky, words = plan.sky, plan.words
     notes = []
     size = Number(2 * dims.mater_radius_mm)
-    phi = math.radians(recipe.latitude_deg)
-    s = hemisphere_sign(recipe.latitude_deg)
+    phi = math.radians(plate.latitude_deg)
+    s = plan.hemisphere_sign
     R, disc = dims.equator_radius_mm, dims.outer_tropic_radius_mm
     fine, light = stroke_width_mm("fine", dims), stroke_width_mm("light", dims)
     text_h = words.measure("0123456789", dims.small_text_pt).height_mm
+    plate_part = plate_name(plan, plate)
 
     # Almucantars: the requested step, coarser where circles would touch.
-    want = float(recipe.altitude_step_deg)
+    want = float(plan.drawing.altitude_step_deg)
     step = _first_clear(want, ALTITUDE_LADDER, lambda a: almucantar_gap_mm(a, phi, s, R, disc), light)
     if step != want:
         g = almucantar_gap_mm(want, phi, s, R, disc)
-        notes.append(Message("notes.almucantars_thinned", part=PART_NAMES["plate"], wanted=Number(want),
+        notes.append(Message("notes.almucantars_thinned", part=plate_part, wanted=Number(want),
                              gap=Number(g, 2), diameter=size, step=Number(step)))
     labels = almucantar_labels(step, phi, s, R, disc, dims.tick_mm, text_h)
     every = label_every_deg(step)
     full = [a for a in np.arange(every, 90.0 - 1e-9, every)
             if np.hypot(*almucantar_label_point(a, step, every, phi, s, R)) < disc - dims.tick_mm]
     if labels and len(labels) < len(full):
-        notes.append(Message("notes.almucantar_numbers", part=PART_NAMES["plate"], highest=Number(labels[-1]),
+        notes.append(Message("notes.almucantar_numbers", part=plate_part, highest=Number(labels[-1]),
                              diameter=size))
 
     # Azimuths: end on the almucantar 90 - max(10, step); coarser if they crowd there.
     top = 90.0 - max(10.0, step)
-    want_az = float(recipe.azimuth_step_deg)
+    want_az = float(plan.drawing.azimuth_step_deg)
     az_step = _first_clear(want_az, AZIMUTH_LADDER, lambda a: azimuth_gap_mm(a, top, phi, s, R), fine)
     if az_step != want_az:
         g = azimuth_gap_mm(want_az, top, phi, s, R)
-        notes.append(Message("notes.azimuths_thinned", part=PART_NAMES["plate"], wanted=Number(want_az),
+        notes.append(Message("notes.azimuths_thinned", part=plate_part, wanted=Number(want_az),
                              gap=Number(g, 2), diameter=size, step=Number(az_step)))
 
     # The rings of the mater: uniform pitch round each ring.  A fine tick's
@@ -266,7 +279,6 @@ def plan_scales(recipe, sky, dims, words) -> Scales:
                              total=Number(360), gap=Number(MIN_CLEAR_GAP_MM, 1), diameter=size, kept=Number(5)))
 
     shadow = _shadow_labels(dims, words)
-    from .mater_back import LABELLED_RATIOS  # the full set of numbered ratios
     dropped = [r for r in LABELLED_RATIOS if r not in shadow]
     if dropped:
         notes.append(Message("notes.shadow_numbers", part=PART_NAMES["mater_back"],
@@ -278,7 +290,6 @@ def _ecliptic_ticks(sky, s, R, light_mm: float, medium_mm: float) -> tuple[int, 
     """Rete: every 5 degrees of longitude (drawn ``medium``), and each
     degree between (drawn ``light``) whose tick leaves :data:`MIN_CLEAR_GAP_MM`
     to both neighbours: their distance less half of each line's width."""
-    from .rete import ecliptic_points_mm
 
     pts = ecliptic_points_mm(np.arange(0.0, 361.0, 1.0), sky.obliquity_rad, s, R)
     d = np.hypot(*(pts[1:] - pts[:-1]).T)          # d[k]: from k to k+1 degrees
@@ -300,15 +311,12 @@ def _shadow_labels(dims, words) -> tuple[float, ...]:
     ratio) from the corner inwards, each number whose box keeps
     :data:`MIN_LABEL_GAP_MM` from every number kept before it, on both
     squares (the others are left without a number)."""
-    from .labels import text_box_mm
-    from .mater_back import LABELLED_RATIOS, _decimals, shadow_mark, shadow_side_mm
-
     L = shadow_side_mm(dims)
     g = MIN_LABEL_GAP_MM / 2
 
     def box(ratio, sx):
         _, _, at, anchor = shadow_mark(dims, L, ratio, sx)
-        b = text_box_mm(at, words.number(ratio, _decimals(ratio)), dims.small_text_pt, anchor, words.measure)
+        b = text_box_mm(at, words.number(ratio, decimals(ratio)), dims.small_text_pt, anchor, words.measure)
         return (b[0] - g, b[1] - g, b[2] + g, b[3] + g)
 
     def meets(a, b):
@@ -334,8 +342,6 @@ def ecliptic_band_mm(radius_mm: float, dims, words) -> float:
     radius, at least 3.5 mm, and at least enough to hold the tallest sign
     name at the label size beside the 10-degree ticks, with the labels'
     margin above and below (kitgen.parts.labels.MARGIN_MM)."""
-    from .labels import MARGIN_MM
-
     tallest = max(words.measure(name, dims.small_text_pt).height_mm for name in words.items("zodiac.signs"))
     return max(3.5, 0.11 * radius_mm, (tallest + 2 * MARGIN_MM + 0.05) / (1.0 - ECLIPTIC_TICK_TIP))
 
@@ -348,15 +354,19 @@ def shortened_notes(parts, dims, words) -> tuple[Message, ...]:
     missing word goes unsaid."""
     out = []
     size = Number(2 * dims.mater_radius_mm)
+    several = sum(p.kind == "plate" for p in parts) > 1
     for part in parts:
+        name = PART_NAMES[part.kind]
+        if several and part.kind == "plate":
+            name = Message("notes.part.plate_numbered", number=Number(int(part.id.rsplit("-", 1)[1])))
         cut = sorted({e.values.get("full_text", e.geom["text"]) for e in part.elements
                       if e.shape == "text" and e.geom["text"].endswith("\u2026")})
         if cut:
-            out.append(Message("notes.shortened", part=PART_NAMES[part.kind],
+            out.append(Message("notes.shortened", part=name,
                                labels=[Message("notes.quoted", text=c) for c in cut], diameter=size))
         named = {e.values.get("name") for e in part.elements if e.role == "star_label"}
         unnamed = [e.values["name"] for e in part.elements if e.role == "star" and e.values["name"] not in named]
         if unnamed:
-            out.append(Message("notes.unnamed_stars", part=PART_NAMES[part.kind],
+            out.append(Message("notes.unnamed_stars", part=name,
                                stars=[words.star_name(n) for n in unnamed], diameter=size))
     return tuple(out)

@@ -15,16 +15,7 @@ import math
 from ..geometry import model
 from . import curves, labels
 from .context import PartContext
-
-#: Ratios of height to distance marked on the shadow square; the tangent of
-#: the altitude read where the alidade crosses the square.
-SHADOW_RATIOS = (0.1, 0.2, 0.3, 0.4, 0.5, 0.6, 0.7, 0.8, 0.9, 1.0, 1.25, 1.5, 2.0, 2.5, 3.0, 4.0, 5.0, 10.0)
-
-
-#: The marks that carry a number; the others are left bare so that the
-#: numbers along the square's foot do not crowd.
-LABELLED_RATIOS = (0.2, 0.4, 0.6, 0.8, 1.0, 1.5, 2.0, 3.0, 5.0, 10.0)
-
+from .shadow_square import LABELLED_RATIOS, SHADOW_RATIOS, decimals, shadow_mark, shadow_side_mm
 
 def longitude_direction_deg(longitude_deg: float) -> float:
     """Direction on the back (degrees ccw from +x) of ecliptic longitude."""
@@ -49,9 +40,9 @@ def mater_back(ctx: PartContext) -> model.Part:
     # Title, place and epoch inside the calendar ring, each fitted to the
     # chord of that ring at the far edge of its room.
     for role, y_frac, h_frac, text, size, style in (
-            ("title", 0.55, 0.22, ctx.recipe.title or w("kit.default_title"), d.title_pt, "bold"),
-            ("place", 0.40, 0.09, ctx.recipe.place, d.text_pt, "label"),
-            ("epoch", 0.28, 0.09, w("mater_back.epoch", year=w.number(ctx.recipe.epoch)), d.small_text_pt, "label")):
+            ("title", 0.55, 0.22, ctx.plan.title or w("kit.default_title"), d.title_pt, "bold"),
+            ("place", 0.40, 0.09, ctx.plan.site.place, d.text_pt, "label"),
+            ("epoch", 0.28, 0.09, w("mater_back.epoch", year=w.number(ctx.plan.epoch)), d.small_text_pt, "label")):
         if text:
             y, h = r_cal * y_frac, r_cal * h_frac
             room = 2 * math.sqrt((r_cal - labels.MARGIN_MM) ** 2 - (y + h / 2) ** 2)
@@ -135,25 +126,6 @@ def _calendar_scale(ctx, r0, r1):
     return out
 
 
-def shadow_side_mm(dims) -> float:
-    """Side (mm) of each of the two shadow squares."""
-    return dims.back_calendar_ring_mm * 0.62
-
-
-def shadow_mark(d, L, ratio, sx):
-    """A ratio's mark on the shadow square of side ``L`` (``sx`` = 1 for
-    the right-hand square, -1 for the left): the point it marks, the end of
-    its tick, where its number stands and how the number is anchored."""
-    if ratio == 1.0:
-        return ((sx * L, -L), (sx * (L - d.tick_mm * 1.1), -L + d.tick_mm * 1.1),
-                (sx * (L + d.tick_mm * 1.6), -L - d.tick_mm * 1.6), "middle")
-    if ratio < 1.0:
-        return ((sx * L, -L * ratio), (sx * (L - d.tick_mm * 1.5), -L * ratio),
-                (sx * (L - d.tick_mm * 2.2), -L * ratio), "end" if sx > 0 else "start")
-    return ((sx * L / ratio, -L), (sx * L / ratio, -L + d.tick_mm * 1.5), (sx * L / ratio, -L + d.tick_mm * 3.0),
-            "middle")
-
-
 def _shadow_square(d, w, r_cal, labelled=LABELLED_RATIOS):
     """Two shadow squares below the horizontal: the alidade's lower end
     crosses a side where 10 x tan(altitude) (vertical sides) or
@@ -171,18 +143,10 @@ def _shadow_square(d, w, r_cal, labelled=LABELLED_RATIOS):
             out.append(model.segment("shadow_tick", at, tick_end, "light", at=at, ratio=ratio))
             if ratio not in labelled:
                 continue
-            out.append(model.text("shadow_label", lab, w.number(ratio, _decimals(ratio)), d.small_text_pt,
+            out.append(model.text("shadow_label", lab, w.number(ratio, decimals(ratio)), d.small_text_pt,
                                   anchor=anchor, ratio=ratio))
     y = -L - d.tick_mm * 3.5
     room = min(2 * math.sqrt((r_cal - labels.MARGIN_MM) ** 2 - (abs(y) + d.tick_mm) ** 2), 2 * L)
     out += labels.fitted_text("shadow_caption", (0.0, y), w("mater_back.shadow_caption"), d.small_text_pt, w,
                               room, 3 * d.tick_mm)
     return out
-
-
-def _decimals(ratio: float) -> int:
-    """Fewest decimals that write a shadow-square ratio exactly."""
-    for n in (0, 1, 2):
-        if abs(round(ratio, n) - ratio) < 1e-9:
-            return n
-    return 2

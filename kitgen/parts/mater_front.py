@@ -11,7 +11,6 @@ from __future__ import annotations
 
 
 from ..geometry import model
-from ..projection.stereographic import hemisphere_sign
 from . import curves
 from .context import PartContext
 from .plate import key_tab_mm
@@ -24,7 +23,7 @@ def hour_angle_deg(hour: float, sign: int) -> float:
 
 def mater_front(ctx: PartContext) -> model.Part:
     d, w = ctx.dims, ctx.words
-    s = hemisphere_sign(ctx.recipe.latitude_deg)
+    s = ctx.hemisphere_sign
     r_in, r_mid, r_out = d.limb_inner_radius_mm, d.hour_ring_outer_mm, d.mater_radius_mm
     ring = r_mid - r_in
     els = [model.circle("cut", (0.0, 0.0), r_out, "cut"),

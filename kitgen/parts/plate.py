@@ -14,7 +14,7 @@ import math
 import numpy as np
 
 from ..geometry import model
-from ..projection.stereographic import (equatorial_vector, hemisphere_sign, horizontal_vector,
+from ..projection.stereographic import (equatorial_vector, horizontal_vector,
                                         project_vectors)
 from . import curves, labels, legibility
 from .context import PartContext
@@ -25,10 +25,12 @@ TWILIGHT_ALTITUDE_DEG = -18.0  # astronomical twilight (common practice; e.g. Ex
 
 
 def plate(ctx: PartContext) -> model.Part:
-    """The plate for ``ctx.recipe.latitude_deg``, seen from the front."""
-    lat_deg = ctx.recipe.latitude_deg
+    """The plate for ``ctx.plate``'s latitude, seen from the front, drawn
+    for the kit's hemisphere (an equator plate of a southern kit is a
+    southern plate)."""
+    lat_deg = ctx.plate.latitude_deg
     phi = math.radians(lat_deg)
-    s = hemisphere_sign(lat_deg)
+    s = ctx.hemisphere_sign
     d = ctx.dims
     R, disc = d.equator_radius_mm, d.outer_tropic_radius_mm
     eps = ctx.sky.obliquity_rad
@@ -47,12 +49,12 @@ def plate(ctx: PartContext) -> model.Part:
     for alt in np.arange(step, 90.0 - 1e-9, step):
         els += curves.whole_circle("almucantar", zenith, math.radians(90.0 - alt), s, R, disc, "light",
                                    altitude_deg=float(alt))
-    if ctx.recipe.twilight:
+    if ctx.plan.drawing.twilight:
         els += curves.whole_circle("twilight", zenith, math.radians(90.0 - TWILIGHT_ALTITUDE_DEG), s, R, disc,
                                    "medium", altitude_deg=TWILIGHT_ALTITUDE_DEG)
     top = 90.0 - max(10.0, step)
     els += _azimuths(phi, s, R, disc, ctx.scales.azimuth_step_deg, top)
-    if ctx.recipe.unequal_hours:
+    if ctx.plan.drawing.unequal_hours:
         els += _unequal_hours(phi, eps, s, R, disc)
 
     els.append(model.segment("meridian", (0.0, -disc), (0.0, disc), "medium"))
@@ -63,8 +65,27 @@ def plate(ctx: PartContext) -> model.Part:
     els += _labels(ctx, phi, s, R, disc, zenith)
     els.append(model.point("pin", (0.0, 0.0), hole="centre"))
     r = d.plate_radius_mm + d.tick_mm * 4
-    return model.Part("plate", "card", tuple(els), (-r, -r, r, r), {"latitude_deg": lat_deg},
-                      ctx.words("plate.title"))
+    return model.Part("plate", "card", tuple(els), (-r, -r, r, r),
+                      {"latitude_deg": lat_deg, "place": ctx.plate.place, "number": ctx.plate.number},
+                      plate_title(ctx))
+
+
+def plate_title(ctx: PartContext) -> str:
+    """The plate's title: "Plate" on a one-plate kit; with its number and
+    latitude where the kit has several, so that each is named apart."""
+    w = ctx.words
+    if len(ctx.plan.plates) == 1:
+        return w("plate.title")
+    return w("plate.title_numbered", number=w.number(ctx.plate.number),
+             latitude=latitude_text(w, ctx.plate.latitude_deg))
+
+
+def plate_label_text(ctx: PartContext) -> str:
+    """What the plate prints of itself: its latitude, after its place's
+    name where it has one."""
+    w = ctx.words
+    latitude = latitude_text(w, ctx.plate.latitude_deg)
+    return w("plate.place_latitude", place=ctx.plate.place, latitude=latitude) if ctx.plate.place else latitude
 
 
 def key_tab_mm(dims) -> tuple[float, float]:
@@ -148,7 +169,7 @@ def _labels(ctx, phi, s, R, disc, zenith):
         p = project_vectors(v, s, R)
         if np.all(np.isfinite(p)) and np.hypot(*p) < disc - 2 * d.tick_mm:
             out.append(model.text("cardinal", p, w(key), d.text_pt, azimuth_deg=az))
-    if ctx.recipe.unequal_hours and abs(math.degrees(phi)) < 90.0 - math.degrees(ctx.sky.obliquity_rad):
+    if ctx.plan.drawing.unequal_hours and abs(math.degrees(phi)) < 90.0 - math.degrees(ctx.sky.obliquity_rad):
         # Numbered halfway between the equator and the outer tropic.
         dec_label = -s * ctx.sky.obliquity_rad / 2
         h0 = math.acos(max(-1.0, min(1.0, -math.tan(phi) * math.tan(dec_label))))
@@ -162,7 +183,7 @@ def _labels(ctx, phi, s, R, disc, zenith):
     # there is shorter than the words.
     # Where even there it is too long for the minimum size, it gets the
     # height of two lines, so the fitting rule can break it.
-    text = latitude_text(w, ctx.recipe.latitude_deg)
+    text = plate_label_text(ctx)
     h = max(2.0 * d.tick_mm, w.measure(text, d.text_pt).height_mm + 2 * labels.MARGIN_MM)
     slack = d.tick_mm + 2 * labels.MARGIN_MM + 0.5
 
@@ -176,6 +197,6 @@ def _labels(ctx, phi, s, R, disc, zenith):
         down = reach(max(w.measure(x, MIN_TEXT_PT).width_mm for x in (head, tail)))
     y = -min(disc * 0.9, max(disc * 0.6, down))
     room = math.sqrt((disc - labels.MARGIN_MM) ** 2 - (abs(y) + h / 2) ** 2) - d.tick_mm
-    out += labels.fitted_text("plate_label", (d.tick_mm, y), latitude_text(w, ctx.recipe.latitude_deg),
+    out += labels.fitted_text("plate_label", (d.tick_mm, y), text,
                               d.text_pt, w, room, h, anchor="start")
     return out

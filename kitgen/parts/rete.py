@@ -16,20 +16,14 @@ import numpy as np
 
 from ..geometry import model
 from ..projection.circles import project_circle
-from ..projection.stereographic import equatorial_vector, hemisphere_sign, project
-from ..sky.ecliptic import ecliptic_to_equatorial_rad
+from ..projection.stereographic import equatorial_vector, project
 from . import labels, legibility
 from .context import PartContext
-
-
-def ecliptic_points_mm(longitude_deg, obliquity_rad, sign, equator_radius_mm):
-    """Rete coordinates (mm) of ecliptic longitudes (degrees)."""
-    ra, dec = ecliptic_to_equatorial_rad(np.radians(longitude_deg), obliquity_rad)
-    return project(-ra, dec, sign, equator_radius_mm)
+from .ecliptic_points import ecliptic_points_mm
 
 
 def rete(ctx: PartContext) -> model.Part:
-    s = hemisphere_sign(ctx.recipe.latitude_deg)
+    s = ctx.hemisphere_sign
     d, w = ctx.dims, ctx.words
     R = d.equator_radius_mm
     eps = ctx.sky.obliquity_rad
@@ -82,7 +76,7 @@ def rete(ctx: PartContext) -> model.Part:
     pin_box = (-2.5, -2.5, 2.5, 2.5)  # the pin's crosshair
     names = [w.star_name(st.star.label) for st in stars]
     zodiac_boxes = [labels.element_box_mm(e, w) for e in els if e.role == "zodiac_label"]
-    dot = 1.0 * d.scale  # mm: the largest star dot's radius (see kitgen.render.style.star_radius_mm)
+    dot = 1.0 * d.scale  # mm: the largest star dot's radius (see kitgen.geometry.style.star_radius_mm)
     dot_boxes = [(q[0] - dot, q[1] - dot, q[0] + dot, q[1] + dot) for q in pts]
     places = labels.place_labels(pts, names, d.small_text_pt, d.tick_mm * 1.3,
                                  keep_out=[pin_box] + zodiac_boxes + dot_boxes,

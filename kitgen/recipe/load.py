@@ -23,8 +23,15 @@ from pathlib import Path
 import yaml
 
 from ..errors import Message, UserError, shown, speaking
+from ..sky.rete_rim import epoch_obliquity_rad, rete_fits
+from ..sky.stars import closest_name, find_star, outside
+from ..template_files import available_languages
+from ..words import fonts, locale
+from ..words.templates import MAX_LANGUAGE_FILE_BYTES, check_language_tree
 from .latitude import LatitudeError, parse_latitude
-from .schema import KEYS_BY_NAME, MAX_STAR_NAMES, MAX_TEXT_CHARS, Recipe, StarChoice, current_year
+from .site import resolve_site
+from .schema import (KEYS_BY_NAME, MAX_PLATES, MAX_STAR_NAMES, MAX_TEXT_CHARS, PlateSpec, Recipe, StarChoice,
+                     current_year)
 
 #: A recipe is a few hundred bytes; refuse anything absurdly large unread.
 MAX_RECIPE_BYTES = 256 * 1024
@@ -181,6 +188,9 @@ def parse_recipe_text(text: str, source=RECIPE) -> Recipe:
         raw_latitude = nodes.get("latitude", (0, None))[1]
         if raw_latitude is not None and ":" in raw_latitude:
             tree["latitude"] = raw_latitude
+        raw_longitude = nodes.get("longitude", (0, None))[1]
+        if raw_longitude is not None and ":" in raw_longitude:
+            tree["longitude"] = raw_longitude
         return validate_recipe(tree, source, lines)
 
 
@@ -189,8 +199,6 @@ def recipe_language(tree: dict, source=RECIPE) -> tuple[str | None, str | None]:
     can tell: ``(language, language_file)``, the first the code of a
     shipped template, the second the path of a language file that passes
     its checks (it wins); ``None`` for what the tree does not tell."""
-    from ..words.templates import available_languages, check_language_file
-
     code = tree.get("language")
     language = code if isinstance(code, str) and code in available_languages() else None
     value = tree.get("language_file")
@@ -198,11 +206,39 @@ def recipe_language(tree: dict, source=RECIPE) -> tuple[str | None, str | None]:
         base = Path(str(source)).parent if Path(str(source)).is_file() else Path.cwd()
         path = (base / value).resolve()
         try:
-            check_language_file(path)
+            load_language_file(path)
             return language, str(path)
         except UserError:
             pass
     return language, None
+
+
+def load_language_file(path) -> dict:
+    """Read and check a language file; every problem is one
+    :class:`UserError` line (the missing keys all listed).  The file is
+    read as a recipe is (a bounded read, so /dev/zero cannot fill the
+    memory; anchors, tags, merge keys and deep nesting refused before YAML's
+    safe loader builds anything), so no code runs and nothing is fetched."""
+    p = Path(path)
+    text = read_text_file(p, MAX_LANGUAGE_FILE_BYTES, LANGUAGE_FILE)
+    source = Message("errors.source_language_file", path=p)
+    tree = safe_yaml(text, source, LANGUAGE_FILE, max_events=50_000)
+    check_language_tree(tree, source)
+    return tree
+
+
+def resolve_language_file(value: str, source: str, where) -> str:
+    """The recipe key ``language_file``: a path relative to the recipe's
+    folder (or to the current folder for a recipe that is no file),
+    checked at once so that a bad language file is refused like a bad
+    recipe.  Returns the absolute path."""
+    base = Path(str(source)).parent if Path(str(source)).is_file() else Path.cwd()
+    path = (base / value).resolve()
+    try:
+        load_language_file(path)
+    except UserError as exc:
+        raise UserError("errors.language_file_problem", where=where, problem=exc) from None
+    return str(path)
 
 
 def load_recipe(path) -> Recipe:
@@ -230,11 +266,18 @@ def _validate(tree: dict, source, lines: dict) -> Recipe:
         key = KEYS_BY_NAME[name]
         values[key.attr] = _check(key, value, where)
         if key.name == "language_file" and values[key.attr]:
-            from ..words.templates import resolve_language_file
             values[key.attr] = resolve_language_file(values[key.attr], source, where)
+    if values.get("plates"):
+        if "latitude_deg" in values:
+            raise UserError("errors.plates_and_latitude", source=source)
+        south = any(p.latitude_deg < 0 for p in values["plates"])
+        values["latitude_deg"] = next(p.latitude_deg for p in values["plates"]
+                                      if not south or p.latitude_deg < 0)
+    resolve_site(values, source, at_line(source, lines["place"]) if "place" in lines else source)
     if "latitude_deg" not in values:
         raise UserError("errors.latitude_required", source=source)
     values.setdefault("epoch", current_year())
+    _check_stars_fit(values, source, lines)
     _check_drawable(values, source, lines)
     return Recipe(**values)
 
@@ -250,12 +293,9 @@ def _check_drawable(values: dict, source: str, lines: dict) -> None:
     texts = {k: values.get(KEYS_BY_NAME[k].attr) for k in _PRINTED_KEYS if k in KEYS_BY_NAME}
     if not any(texts.values()):
         return
-    from ..words import fonts, locale
-
     code = values.get("language", "en")
     if values.get("language_file"):
-        from ..words.templates import check_language_file
-        code = check_language_file(values["language_file"])["language"]
+        code = load_language_file(values["language_file"])["language"]
     script = locale.script(code)
     for name, text in texts.items():
         if not text:
@@ -303,6 +343,8 @@ class KeyHelp(Message):
 
 def _check(key, value, where):
     label = Message("errors.key_label", where=where, name=key.name)
+    if key.kind == "plates":
+        return _check_plates(value, label, where)
     if key.kind == "latitude":
         try:
             return parse_latitude(value)
@@ -334,7 +376,6 @@ def _check(key, value, where):
         if bad:
             raise UserError("errors.control_character", label=label, code=f"{ord(bad):04X}")
         if key.name == "language":
-            from ..words.templates import available_languages
             if value not in available_languages():
                 raise UserError("errors.unknown_language", label=label, value=shown(value),
                                 codes=available_languages())
@@ -370,8 +411,69 @@ def _check(key, value, where):
     raise AssertionError(key.kind)
 
 
+def _check_plates(value, label: Message, where) -> tuple[PlateSpec, ...]:
+    """``plates:``: a list of 1 to MAX_PLATES latitudes, each in any form
+    ``latitude:`` takes, or ``{latitude: L, place: NAME}``."""
+    if not isinstance(value, list) or not value:
+        raise UserError("errors.plates_not_list", label=label, limit=MAX_PLATES)
+    if len(value) > MAX_PLATES:
+        raise UserError("errors.plates_too_many", label=label, limit=MAX_PLATES, count=len(value))
+    plates = []
+    for k, entry in enumerate(value, start=1):
+        place = ""
+        if isinstance(entry, dict):
+            unknown = [str(n) for n in entry if n not in ("latitude", "place")]
+            if unknown or "latitude" not in entry:
+                raise UserError("errors.plate_entry", label=label, number=k)
+            place = entry.get("place", "")
+            if not isinstance(place, str) or len(place) > MAX_TEXT_CHARS or _text_problem(place):
+                raise UserError("errors.plate_entry", label=label, number=k)
+            entry = entry["latitude"]
+        try:
+            latitude = parse_latitude(entry)
+        except LatitudeError as exc:
+            raise UserError("errors.plate_latitude", label=label, number=k, problem=exc) from None
+        plates.append(PlateSpec(latitude, place.strip()))
+    north = any(p.latitude_deg > 0 for p in plates)
+    south = any(p.latitude_deg < 0 for p in plates)
+    if north and south:
+        raise UserError("errors.plates_mixed", label=label)
+    return tuple(plates)
+
+
+def _known_star(name: str, where):
+    """The catalogue star called ``name``; an unknown name is refused with
+    the closest known name as a suggestion."""
+    star = find_star(name)
+    if star is not None:
+        return star
+    close = closest_name(name)
+    hint = Message("errors.hint_did_you_mean", name=close) if close else Message("errors.hint_star_list")
+    shown_name = " ".join(str(name).split())
+    if where:
+        raise UserError("errors.unknown_star_at", where=where, name=shown_name, hint=hint)
+    raise UserError("errors.unknown_star", name=shown_name, hint=hint)
+
+
+def _check_stars_fit(values: dict, source, lines: dict) -> None:
+    """Named stars must lie on the rete of the recipe's hemisphere."""
+    names = values.get("stars", StarChoice()).names
+    if not names:
+        return
+    plates = values.get("plates") or ()
+    south = values["latitude_deg"] < 0 or any(p.latitude_deg < 0 for p in plates)
+    sign = -1 if south else 1
+    off = outside(names, values["epoch"] + 0.5, rete_fits(sign, epoch_obliquity_rad(values["epoch"])))
+    if not off:
+        return
+    label = Message("errors.key_label", where=at_line(source, lines["stars"]) if "stars" in lines else source,
+                    name="stars")
+    problem = (Message("errors.star_outside", name=off[0]) if len(off) == 1
+               else Message("errors.stars_outside", names=[f"'{n}'" for n in off]))
+    raise UserError("errors.key_problem", label=label, problem=problem)
+
+
 def _check_stars(value, label: Message) -> StarChoice:
-    from ..sky.stars import find_star
 
     if isinstance(value, list):
         if not value:
@@ -384,7 +486,7 @@ def _check_stars(value, label: Message) -> StarChoice:
                 raise UserError("errors.star_name_not_text", label=label, value=shown(v))
             if len(v) > MAX_STAR_NAME_CHARS or _text_problem(v):
                 raise UserError("errors.no_star_name", label=label, value=shown(v))
-            names.append(find_star(v, label).label)
+            names.append(_known_star(v, label).label)
         return StarChoice(names=tuple(dict.fromkeys(names)))
     if isinstance(value, dict) and len(value) == 1:
         (rule, n), = value.items()

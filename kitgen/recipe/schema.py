@@ -13,8 +13,11 @@ import math
 from dataclasses import dataclass, field
 from typing import Any, Callable
 
-from ..layout.scale import parse_print_scale
-from ..layout.sheets import DEFAULT_MARGIN_MM, MAX_MARGIN_MM, MIN_MARGIN_MM, SHEET_SIZES_MM, parse_sheet
+from .longitude import parse_longitude
+from .site import parse_timezone
+
+from .print_scale import parse_print_scale
+from ..paper import DEFAULT_MARGIN_MM, MAX_MARGIN_MM, MIN_MARGIN_MM, SHEET_SIZES_MM, parse_sheet
 
 SHEETS = tuple(SHEET_SIZES_MM)
 PARTS = ("plate", "rete", "mater_front", "mater_back", "rule", "alidade")
@@ -35,6 +38,19 @@ class StarChoice:
     names: tuple[str, ...] = ()
     brightest: int | None = None
     magnitude_limit: float | None = None
+
+
+#: The most plates one kit carries (a travelling show's towns; the
+#: classical instrument came with a handful).
+MAX_PLATES = 8
+
+
+@dataclass(frozen=True)
+class PlateSpec:
+    """One plate the recipe asks for: its latitude and the place named on it."""
+
+    latitude_deg: float
+    place: str = ""
 
 
 @dataclass(frozen=True)
@@ -59,8 +75,15 @@ class Recipe:
     print_scale: tuple[float, float] = (1.0, 1.0)  # measured print scale (x, y) the kit compensates
     film_mirror: bool = False
     film_parts: tuple[str, ...] = ()  # parts printed on film besides the rete
-    colour: bool = False              # colour accents (kitgen.render.style.ACCENTS)
+    colour: bool = False              # colour accents (kitgen.geometry.style.ACCENTS)
     duplex: str = "none"
+    #: The site (#10): longitude (east positive) and IANA time zone, as
+    #: given or looked up from ``place`` (kitgen.recipe.site); None unknown.
+    longitude_deg: float | None = None
+    timezone: str | None = None
+    #: The plates, when the recipe lists them under ``plates:``; empty for
+    #: the one-plate form (``latitude:`` and ``place:``).
+    plates: tuple[PlateSpec, ...] = ()
 
 
 def current_year() -> int:
@@ -87,6 +110,10 @@ class Key:
 KEYS: tuple[Key, ...] = (
     Key("latitude", "latitude_deg", "latitude", "degrees, north positive, -90 to 90 (48.2, 33.9S, 40 26 46 N)",
         -90.0, 90.0, example=48.2),
+    Key("plates", "plates", "plates",
+        f"several plates for one mater and rete, up to {MAX_PLATES}, all in one hemisphere: a list of latitudes "
+        "or of {latitude: L, place: NAME} (instead of 'latitude')",
+        1, MAX_PLATES, example=[{"latitude": 52.2, "place": "Hilltop"}, {"latitude": 48.9, "place": "Riverside"}]),
     Key("epoch", "epoch", "integer", f"year of the star places and calendar, {EPOCH_MIN} to {EPOCH_MAX}",
         EPOCH_MIN, EPOCH_MAX, example=2027),
     Key("sheet", "sheet", "parsed", f"paper sheet: {', '.join(SHEETS)}, or {{width_mm: W, height_mm: H}} "
@@ -103,7 +130,14 @@ KEYS: tuple[Key, ...] = (
     Key("native_digits", "native_digits", "bool",
         "print numbers in the language's own digits (Arabic-Indic for ar, Devanagari for hi)", example=False),
     Key("title", "title", "string", "title printed on the kit", example="Hilltop Science Club"),
-    Key("place", "place", "string", "name of the place the plate is drawn for", example="Hilltop"),
+    Key("place", "place", "string",
+        "name of the place: printed on the kit, and looked up in the gazetteer (GeoNames)"
+        " when no latitude is given: 'Lisbon' or 'Lisbon, PT'", example="Hilltop"),
+    Key("longitude", "longitude_deg", "parsed", "degrees, east positive, -180 to 180 (-9.14, 9.14W, 9 8 24 W)",
+        example=16.37, parse=parse_longitude),
+    Key("timezone", "timezone", "parsed",
+        "IANA time zone of the clocks at the place, such as Europe/Lisbon (default: the looked-up place's)",
+        example="Europe/Vienna", parse=parse_timezone),
     Key("owner", "owner", "string", "name of the kit's owner, printed on the kit (a pupil's name in a class set)",
         example="Mira Quellstone"),
     Key("stars", "stars", "stars",

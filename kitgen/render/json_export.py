@@ -1,17 +1,21 @@
 """The JSON renderer: the geometry model as the documented contract.
 
-``{"format": "kitgen-geometry", "version": 1, "units": "mm", "epoch": Y,
-"parts": [...]}``; each part ``{"kind", "material", "bounds_mm",
-"elements": [...]}`` (the plate also ``latitude_deg``), each element its
-``shape``, ``role``, shape fields and role values.  Schema: DEVELOPERS.md.
+``{"format": "kitgen-geometry", "version": 2, "units": "mm", "epoch": Y,
+"latitude_deg": L, "plates": [...], "parts": [...]}``; each plate ``{"id",
+"latitude_deg", "place"}``; each part ``{"id", "kind", "material",
+"bounds_mm", "elements": [...]}`` (a plate also ``latitude_deg``, ``place``
+and ``number``), each element its ``shape``, ``role``, shape fields and
+role values.  Schema and changes from version 1: DEVELOPERS.md.
 """
 
 from __future__ import annotations
 
 import json
 
+from ..sky.site_almanac import almanac_for_site, hh_mm
+
 FORMAT_NAME = "kitgen-geometry"
-FORMAT_VERSION = 1
+FORMAT_VERSION = 2
 
 
 def _plain(value):
@@ -32,15 +36,44 @@ def element_dict(el) -> dict:
 
 
 def part_dict(part) -> dict:
-    out = {"kind": part.kind, "material": part.material, "bounds_mm": list(part.bounds_mm)}
+    out = {"id": part.id, "kind": part.kind, "material": part.material, "bounds_mm": list(part.bounds_mm)}
     out.update({k: _plain(v) for k, v in part.values.items()})
     out["elements"] = [element_dict(e) for e in part.elements]
     return out
 
 
 def geometry_dict(kit) -> dict:
-    return {"format": FORMAT_NAME, "version": FORMAT_VERSION, "units": "mm", "epoch": kit.recipe.epoch,
-            "latitude_deg": kit.recipe.latitude_deg, "parts": [part_dict(p) for p in kit.parts]}
+    plan = kit.plan
+    plates = [{"id": p.id, "latitude_deg": p.latitude_deg, "place": p.place} for p in plan.plates]
+    return {"format": FORMAT_NAME, "version": FORMAT_VERSION, "units": "mm", "epoch": plan.epoch,
+            "latitude_deg": plan.latitude_deg, "plates": plates, "parts": [part_dict(p) for p in kit.parts],
+            **site_and_almanac(kit)}
+
+
+def site_and_almanac(kit) -> dict:
+    """The ``site`` and ``almanac`` keys (#10): where the kit is for, and
+    its clock correction and sunrise and sunset table for the epoch year.
+    The almanac is computed here from the site (kitgen.sky.site_almanac)
+    until the plan carries it."""
+    plan = getattr(kit, "plan", None)
+    if plan is not None:
+        s, epoch = plan.site, plan.epoch
+        site = (s.latitude_deg, s.longitude_deg, s.timezone, s.place)
+    else:
+        r, epoch = kit.recipe, kit.recipe.epoch
+        site = (r.latitude_deg, r.longitude_deg, r.timezone, r.place)
+    almanac = almanac_for_site(epoch, site[0], site[1], site[2])
+    return {
+        "site": dict(zip(("latitude_deg", "longitude_deg", "timezone", "place"), site)),
+        "almanac": {
+            "time": almanac.time,
+            "clock_correction": [{"month": m, "day": d, "minutes": round(x, 3)}
+                                 for m, d, x in almanac.clock_correction],
+            "sun_rise_set": [{"month": r.month, "day": r.day, "rise": r.rise, "set": r.set,
+                              "day_length": hh_mm(r.day_length_min) if r.day_length_min < 1440 else "24:00",
+                              "reason": r.reason} for r in almanac.sun_rise_set],
+        },
+    }
 
 
 def render_json(kit) -> bytes:

@@ -21,9 +21,9 @@ from reportlab.pdfgen.canvas import Canvas
 
 from ..layout.bounds import element_box_mm, meets, turn_box
 from ..layout.pages import CHECK_BAR_MM, FOOTER_MM, TITLE_PT, Page, check_bar_mm, page_content_mm
-from ..parts.format import latitude_text
-from . import pdf_marks, pdf_text, style
-from .pdf_text import Block
+from ..layout.instructions import Block, kit_latitudes, kit_line, kit_title, story
+from ..geometry import style
+from . import pdf_marks, pdf_text
 
 FONT = "KitSans"
 
@@ -40,10 +40,6 @@ MIN_FURNITURE_PT = 5.0
 def register_fonts() -> None:
     """Register the shipped TTF fonts with reportlab (once per process)."""
     pdf_text.register_fonts()
-
-
-def kit_title(kit) -> str:
-    return kit.recipe.title or kit.words("kit.default_title")
 
 
 # -- parts ---------------------------------------------------------------------
@@ -207,79 +203,12 @@ def _footer(c: Canvas, kit, page: Page) -> None:
     if note:
         note_w_mm = pdf_text.draw_at_baseline(c, right * mm, (m + FOOTER_MM - 3.0) * mm, note, NOTE_PT, w,
                                               "bold", "right") / mm + 5.0
-    line = w("page.kit_line", title=kit_title(kit), latitude=latitude_text(w, kit.recipe.latitude_deg),
-             year=w.number(kit.recipe.epoch))
+    line = kit_line(kit)
     size = _fitted_pt(line, w, "body", 8.0, usable - note_w_mm)
     pdf_text.draw_at_baseline(c, m * mm, (m + FOOTER_MM - 3.0) * mm, line, size, w, "body")
 
 
 # -- the instructions page ------------------------------------------------------
-
-def _page_list(words, pages, kind) -> tuple[int, str]:
-    numbers = [words.number(p.number) for p in pages if p.kind == kind]
-    return len(numbers), words("page.list_separator").join(numbers)
-
-
-def print_notes(kit, pages) -> list[str]:
-    """What the first page says about how the kit was drawn for printing:
-    for grey-scale or colour, which side of the film takes the ink, for
-    which print scale."""
-    w = kit.words
-    notes = [w("printing.colour") if kit.recipe.colour else w("printing.greyscale")]
-    film = [p for p in pages if p.kind == "film"]
-    if film:
-        notes.append(w("printing.film_mirrored") if any(p.mirrored for p in film) else w("printing.film_plain"))
-    front = next((p for p in pages if p.duplex == "front"), None)
-    if front is not None:
-        key = "printing.duplex_long" if kit.recipe.duplex == "long_edge" else "printing.duplex_short"
-        notes.append(w(key, front=w.number(front.number), back=w.number(front.number + 1)))
-    sx, sy = pages[0].print_scale
-    if (sx, sy) != (1.0, 1.0):
-        notes.append(w("printing.scaled", x=_percent(w, sx), y=_percent(w, sy), length=w.number(CHECK_BAR_MM)))
-    return notes
-
-
-def _percent(words, factor: float) -> str:
-    """A scale factor as a percentage, with the fewest decimals (up to
-    two) that write it."""
-    p = factor * 100.0
-    decimals = next((d for d in (0, 1) if abs(round(p, d) - p) < 1e-9), 2)
-    return words.number(p, decimals)
-
-
-def _story(kit, pages) -> list[Block]:
-    """The instructions page, as paragraphs for pdf_text.draw_blocks."""
-    w = kit.words
-    length = w.number(CHECK_BAR_MM)
-
-    def numbered(key):
-        return [Block("item", s, w.number(k) + ".") for k, s in enumerate(w.items(key), start=1)]
-
-    out = [Block("title", w("instructions.title")),
-           Block("body", w("page.kit_line", title=kit_title(kit), latitude=latitude_text(w, kit.recipe.latitude_deg),
-                           year=w.number(kit.recipe.epoch))),
-           Block("heading", w("instructions.cautions_heading"))]
-    out += [Block("caution", s, "!") for s in w.items("instructions.cautions")]
-    out.append(Block("heading", w("instructions.print_heading")))
-    for kind, key in (("card", "instructions.print_card"), ("film", "instructions.print_film")):
-        n, listed = _page_list(w, pages, kind)
-        if n:
-            out.append(Block("item", w(key + ("_one" if n == 1 else "_many"), pages=listed), "\u2022"))
-    out.append(Block("item", w("instructions.print_scale", length=length, percent=w.number(100)), "\u2022"))
-    out += [Block("item", s, "\u2022") for s in print_notes(kit, pages)]
-    out += [Block("heading", w("instructions.cut_heading")), Block("body", w("instructions.cut"))]
-    if any(pl.piece is not None for p in pages for pl in p.placements):
-        out.append(Block("body", w("printing.tiles")))
-    out += [Block("heading", w("instructions.stack_heading")), Block("body", w("instructions.stack_intro"))]
-    out += numbered("instructions.stack")
-    out.append(Block("body", w("instructions.fastener")))
-    out.append(Block("heading", w("instructions.time_heading")))
-    out += numbered("instructions.time_steps")
-    out.append(Block("body", w("instructions.time_note")))
-    out.append(Block("heading", w("instructions.height_heading")))
-    out += numbered("instructions.height_steps")
-    return out
-
 
 class InstructionsOverflow(ValueError):
     """The instructions need more pages than the layout gave them."""
@@ -325,7 +254,7 @@ def _instructions(c: Canvas, kit, page: Page, pages) -> None:
     """This page's share of the instructions."""
     x0, y0, x1, y1 = page_content_mm(page)
     mine = [p for p in pages if p.kind == "instructions"]
-    split = split_story(_story(kit, pages), (x1 - x0) * mm, (y1 - y0) * mm, kit.words, len(mine))
+    split = split_story(story(kit, pages), (x1 - x0) * mm, (y1 - y0) * mm, kit.words, len(mine))
     if split is None:
         raise InstructionsOverflow(f"the instructions need more than {len(mine)} page(s)")
     size, chunks = split
@@ -374,7 +303,7 @@ def render_pdf(kit, pages) -> bytes:
     c = Canvas(buf, pagesize=(first.media_mm[0] * mm, first.media_mm[1] * mm), invariant=1, pageCompression=1,
                initialFontName=FONT, initialFontSize=10, lang=kit.words.language)
     c.setTitle(kit_title(kit))
-    c.setSubject(latitude_text(kit.words, kit.recipe.latitude_deg))
+    c.setSubject(kit_latitudes(kit))
     c.setAuthor("")
     c.setCreator("kitgen")
     for page in pages:
@@ -385,7 +314,7 @@ def render_pdf(kit, pages) -> bytes:
         if page.kind == "instructions":
             _instructions(c, kit, page, pages)
         for placement in page.placements:
-            _draw_placement(c, placement, kit.dims, kit.words, kit.recipe.colour)
+            _draw_placement(c, placement, kit.dims, kit.words, kit.plan.printing.colour)
         for mark in page.marks:
             pdf_marks.draw_registration(c, mark)
         _footer(c, kit, page)

@@ -15,7 +15,7 @@ from ..layout.tiling import MARK_ARM_MM, MARK_RADIUS_MM
 from . import pdf_text
 
 #: Line widths (mm) of the marks: thin enough to place precisely, at least
-#: the legible minimum of kitgen.render.style (0.10 mm).
+#: the legible minimum of kitgen.geometry.style (0.10 mm).
 MARK_LINE_MM = 0.15
 FRAME_LINE_MM = 0.12
 SEAM_LINE_MM = 0.25

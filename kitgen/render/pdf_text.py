@@ -23,6 +23,7 @@ from reportlab.lib.units import mm
 from reportlab.pdfbase import pdfmetrics
 from reportlab.pdfbase.ttfonts import ShapedStr, ShapeData, TTFont
 
+from ..layout.instructions import Block
 from ..words import fonts
 from ..words.shaping import Line, Run, set_line
 
@@ -131,16 +132,6 @@ def fitted_pt(string: str, size_pt: float, width_limit_pt: float, words, style: 
 
 
 # -- paragraphs -------------------------------------------------------------------
-
-@dataclass(frozen=True)
-class Block:
-    """A paragraph of the text pages: ``kind`` is ``title``, ``heading``,
-    ``body``, ``item`` or ``caution``; ``bullet`` is printed before an item."""
-
-    kind: str
-    text: str
-    bullet: str = ""
-
 
 #: Per kind: (size relative to the body, style, space before and after in
 #: body sizes, indent of the text in body sizes).

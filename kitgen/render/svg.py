@@ -11,7 +11,7 @@ from __future__ import annotations
 import math
 from xml.sax.saxutils import escape, quoteattr
 
-from .style import stroke_width_mm
+from ..geometry.style import stroke_width_mm
 
 _GROUPS = ("cut", "fold", "draw", "text")
 _FOLD_DASH_MM = "2 1.2"
@@ -119,5 +119,5 @@ def render_part_svg(part, kit) -> bytes:
 
 
 def render_svg_files(kit) -> dict[str, bytes]:
-    """``{file name: SVG bytes}``, one file per part."""
-    return {f"{part.kind}.svg": render_part_svg(part, kit) for part in kit.parts}
+    """``{file name: SVG bytes}``, one file per part, named by its id."""
+    return {f"{part.id}.svg": render_part_svg(part, kit) for part in kit.parts}

@@ -1,4 +1,4 @@
-"""Everything the kit needs from the sky for one recipe, computed once.
+"""Everything the kit needs from the sky, computed once for a plan.
 
 The epoch's obliquity, the Sun's longitude on every date of the epoch year
 and the places of the chosen stars at the epoch.  Degrees at the edges.
@@ -7,17 +7,11 @@ and the places of the chosen stars at the epoch.  Degrees at the edges.
 from __future__ import annotations
 
 from dataclasses import dataclass
+from typing import Sequence
 
-import numpy as np
-
-from ..recipe.schema import Recipe
-from .obliquity import mean_obliquity_rad
+from .rete_rim import epoch_obliquity_rad, rete_fits
 from .stars import Star, places_at_epoch, select_stars
 from .sun import calendar_longitudes_deg
-
-#: Stars closer than this to the rete's rim (the outer tropic) are left off,
-#: so that a pointer and its name fit on the film.
-RIM_MARGIN_DEG = 2.0
 
 
 @dataclass(frozen=True)
@@ -35,21 +29,14 @@ class SkyForKit:
     stars: tuple[PlacedStar, ...]
 
 
-def epoch_centuries_tt(epoch: int) -> float:
-    """The epoch as Julian centuries of TT from J2000.0 (the middle of the
-    epoch year is used: the kit is for the whole year)."""
-    return (epoch + 0.5 - 2000.0) / 100.0
-
-
-def sky_for_kit(recipe: Recipe) -> SkyForKit:
-    eps = float(mean_obliquity_rad(epoch_centuries_tt(recipe.epoch)))
-    sign = 1 if recipe.latitude_deg >= 0 else -1
-    limit_deg = -np.degrees(eps) + RIM_MARGIN_DEG
-
-    def fits(ra_deg, dec_deg):
-        return sign * np.asarray(dec_deg) > limit_deg
-
-    chosen = select_stars(recipe.stars, recipe.epoch + 0.5, fits)
-    ra, dec = places_at_epoch(chosen, recipe.epoch + 0.5)
+def sky_for_kit(epoch: int, hemisphere_sign: int, star_names: Sequence[str] = (), brightest: int | None = None,
+                magnitude_limit: float | None = None) -> SkyForKit:
+    """The sky of a kit for ``epoch`` on a rete of the given hemisphere
+    (+1 north, -1 south), with the stars chosen by name, as the N
+    brightest, or down to a magnitude (:func:`kitgen.sky.stars.select_stars`)."""
+    eps = epoch_obliquity_rad(epoch)
+    fits = rete_fits(hemisphere_sign, eps)
+    chosen = select_stars(star_names, brightest, magnitude_limit, epoch + 0.5, fits)
+    ra, dec = places_at_epoch(chosen, epoch + 0.5)
     placed = tuple(PlacedStar(st, float(a), float(d)) for st, a, d in zip(chosen, ra, dec))
-    return SkyForKit(recipe.epoch, eps, tuple(calendar_longitudes_deg(recipe.epoch)), placed)
+    return SkyForKit(epoch, eps, tuple(calendar_longitudes_deg(epoch)), placed)

@@ -22,8 +22,6 @@ from typing import Callable, Iterable, Sequence
 
 import numpy as np
 
-from ..errors import Message, UserError
-from ..recipe.schema import StarChoice
 from .precession import mean_place_deg
 
 _HIP_RE = re.compile(r"^hip\s*(\d+)$")
@@ -78,25 +76,22 @@ def _index() -> dict[str, Star]:
     return index
 
 
-def find_star(name: str, where: str = "") -> Star:
+def find_star(name: str) -> Star | None:
     """The star called ``name`` (an IAU name, or ``HIP 1234``), matched
-    without regard to case, accents or spacing.  An unknown name raises
-    :class:`UserError` with the closest known name as a suggestion."""
+    without regard to case, accents or spacing; ``None`` if there is none."""
     key = _fold(str(name))
     hip = _HIP_RE.match(key)
     if hip:
         key = f"hip {int(hip.group(1))}"
-    star = _index().get(key)
-    if star is not None:
-        return star
+    return _index().get(key)
+
+
+def closest_name(name: str) -> str | None:
+    """The IAU name closest in spelling to ``name`` (difflib's ratio of at
+    least 0.6), for a suggestion; ``None`` if none is close."""
     folded_names = {_fold(s.name): s.name for s in named_stars()}
-    close = difflib.get_close_matches(key, list(folded_names), n=1, cutoff=0.6)
-    hint = (Message("errors.hint_did_you_mean", name=folded_names[close[0]]) if close
-            else Message("errors.hint_star_list"))
-    shown = " ".join(str(name).split())
-    if where:
-        raise UserError("errors.unknown_star_at", where=where, name=shown, hint=hint)
-    raise UserError("errors.unknown_star", name=shown, hint=hint)
+    close = difflib.get_close_matches(_fold(str(name)), list(folded_names), n=1, cutoff=0.6)
+    return folded_names[close[0]] if close else None
 
 
 def named_stars() -> tuple[Star, ...]:
@@ -130,37 +125,39 @@ def _fitting(stars: Sequence[Star], epoch_year: float, fits: FitTest) -> np.ndar
     return ok
 
 
-def select_stars(choice: StarChoice, epoch_year: float, fits: FitTest) -> list[Star]:
+def select_stars(names: Sequence[str], brightest: int | None, magnitude_limit: float | None,
+                 epoch_year: float, fits: FitTest) -> list[Star]:
     """The stars a rete carries.
 
     ``fits(ra_deg, dec_deg)`` says, for arrays of places at the epoch, which
-    lie on the rete.  Named stars come in the given order (duplicates
-    dropped) and each must fit, else :class:`UserError`; ``brightest=N``
-    gives the N brightest named stars that fit; ``magnitude_limit=M`` every
-    star, named or not, of magnitude M or brighter that fits.
+    lie on the rete.  Named stars (names the catalogue knows, checked by the
+    recipe) come in the given order, duplicates dropped, those that do not
+    fit left out (see :func:`outside`); ``brightest=N`` gives the N
+    brightest named stars that fit; ``magnitude_limit=M`` every star, named
+    or not, of magnitude M or brighter that fits.
     """
-    if choice.names:
-        chosen: list[Star] = []
-        for name in choice.names:
-            star = find_star(name, where="stars")
-            if star not in chosen:
-                chosen.append(star)
+    if names:
+        chosen = list(dict.fromkeys(find_star(n) for n in names))
+        if None in chosen:
+            raise ValueError("select_stars() needs names the catalogue knows")
         ok = _fitting(chosen, epoch_year, fits)
-        outside = [s.label for s, inside in zip(chosen, ok) if not inside]
-        if len(outside) == 1:
-            raise UserError("errors.star_outside", name=outside[0])
-        if outside:
-            raise UserError("errors.stars_outside", names=[f"'{n}'" for n in outside])
-        return chosen
-    if choice.brightest is not None:
+        return [s for s, inside in zip(chosen, ok) if inside]
+    if brightest is not None:
         pool = list(named_stars())
         ok = _fitting(pool, epoch_year, fits)
-        return [s for s, inside in zip(pool, ok) if inside][: max(0, int(choice.brightest))]
-    if choice.magnitude_limit is not None:
-        pool = [s for s in catalogue() if s.mag <= choice.magnitude_limit]
+        return [s for s, inside in zip(pool, ok) if inside][: max(0, int(brightest))]
+    if magnitude_limit is not None:
+        pool = [s for s in catalogue() if s.mag <= magnitude_limit]
         ok = _fitting(pool, epoch_year, fits)
         return [s for s, inside in zip(pool, ok) if inside]
     return []
+
+
+def outside(names: Sequence[str], epoch_year: float, fits: FitTest) -> list[str]:
+    """The labels of the named stars that ``fits`` leaves off the rete."""
+    stars = [find_star(n) for n in names]
+    ok = _fitting([s for s in stars if s], epoch_year, fits)
+    return [s.label for s, inside in zip([s for s in stars if s], ok) if not inside]
 
 
 def filter_stars(name_substring: str | None = None, max_mag: float | None = None) -> list[Star]:

@@ -14,62 +14,21 @@ from __future__ import annotations
 
 import string
 import unicodedata
-from functools import lru_cache
-from importlib import resources
-from pathlib import Path
 
 import yaml
 
 from ..errors import Message, UserError
+from ..template_files import STAR_NAMES, available_languages, shipped_table, shipped_tree
+from ..template_files import split_tree as _split
 from . import fonts, locale
 from .fit import Fitted, fit_label
 from .measure import Extent, extent
 
 #: Keys that describe a template rather than print words.
 META_KEYS = ("language", "reviewed_by_native_speaker")
-#: A section of optional local star names (IAU name -> local name).
-STAR_NAMES = "star_names"
 #: A language file is a few kilobytes; refuse anything absurdly large unread.
 MAX_LANGUAGE_FILE_BYTES = 256 * 1024
 MAX_STRING_CHARS = 600
-
-
-def available_languages() -> list[str]:
-    """Language codes that have a shipped template."""
-    folder = resources.files("kitgen.templates")
-    return sorted(p.name[:-5] for p in folder.iterdir() if p.name.endswith(".yaml"))
-
-
-def _flatten(tree, prefix=""):
-    out = {}
-    for key, value in tree.items():
-        name = f"{prefix}{key}"
-        if isinstance(value, dict):
-            out.update(_flatten(value, name + "."))
-        elif isinstance(value, list):
-            out[name] = [str(v) for v in value]
-        else:
-            out[name] = str(value)
-    return out
-
-
-def _split(tree: dict) -> tuple[dict, dict]:
-    """(flattened words, star names) of a template tree."""
-    tree = dict(tree)
-    stars = tree.pop(STAR_NAMES, None) or {}
-    return _flatten(tree), {str(k): str(v) for k, v in stars.items()}
-
-
-@lru_cache(maxsize=None)
-def shipped_tree(language: str) -> dict:
-    text = resources.files("kitgen.templates").joinpath(f"{language}.yaml").read_text(encoding="utf-8")
-    return yaml.safe_load(text)
-
-
-@lru_cache(maxsize=None)
-def shipped_table(language: str) -> dict:
-    """The flattened words of a shipped template (star names aside)."""
-    return _split(shipped_tree(language))[0]
 
 
 def word_keys(table: dict) -> set[str]:
@@ -164,29 +123,12 @@ def load_words(language: str, native_digits: bool = False) -> Words:
     return Words(language, table, stars, native_digits)
 
 
-def load_words_file(path, native_digits: bool = False) -> Words:
-    """A user's own language file, in the same format as the templates,
-    checked by :func:`check_language_file` first."""
-    tree = check_language_file(path)
+def words_from_tree(tree: dict, native_digits: bool = False) -> Words:
+    """The words of a language tree already checked by
+    :func:`check_language_tree` (a recipe's own language file, read by
+    :func:`kitgen.recipe.load.load_language_file`)."""
     table, stars = _split(tree)
     return Words(str(tree["language"]), table, stars, native_digits)
-
-
-def check_language_file(path) -> dict:
-    """Read and check a language file; every problem is one
-    :class:`UserError` line (the missing keys all listed).  The file is
-    read with YAML's safe loader, so no code runs, and nothing is fetched."""
-    # Read and parsed as a recipe is (size-limited read, so /dev/zero cannot
-    # fill the memory; anchors, tags, merge keys and deep nesting refused
-    # before YAML's safe loader builds anything).
-    from ..recipe.load import LANGUAGE_FILE, read_text_file, safe_yaml
-
-    p = Path(path)
-    text = read_text_file(p, MAX_LANGUAGE_FILE_BYTES, LANGUAGE_FILE)
-    source = Message("errors.source_language_file", path=p)
-    tree = safe_yaml(text, source, LANGUAGE_FILE, max_events=50_000)
-    check_language_tree(tree, source)
-    return tree
 
 
 def check_language_tree(tree, source) -> None:
@@ -237,17 +179,3 @@ def check_language_tree(tree, source) -> None:
             if lost:
                 chars = [f"U+{ord(c):04X} {unicodedata.name(c, '?')}" for c in sorted(lost)]
                 raise UserError("errors.language_chars", source=source, key=key, chars=chars)
-
-
-def resolve_language_file(value: str, source: str, where) -> str:
-    """The recipe key ``language_file``: a path relative to the recipe's
-    folder (or to the current folder for a recipe that is no file),
-    checked at once so that a bad language file is refused like a bad
-    recipe.  Returns the absolute path."""
-    base = Path(str(source)).parent if Path(str(source)).is_file() else Path.cwd()
-    path = (base / value).resolve()
-    try:
-        check_language_file(path)
-    except UserError as exc:
-        raise UserError("errors.language_file_problem", where=where, problem=exc) from None
-    return str(path)

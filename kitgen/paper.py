@@ -23,7 +23,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
-from ..errors import KeyedError, Message, shown
+from .errors import KeyedError, Message, shown
 
 MM_PER_INCH = 25.4  # exact, by the 1959 international yard and pound agreement
 
@@ -170,3 +170,44 @@ def parse_sheet_option(text: str):
     if t and t[0].isdigit():
         raise SheetError("errors.sheet_option_unreadable", value=shown(text), names=list(SHEET_SIZES_MM))
     return parse_sheet(text)
+
+
+# -- the printable area of a page ------------------------------------------------------------
+
+#: Points to the millimetre: a point is 1/72 inch (PDF 32000-1:2008, 8.3.2.3),
+#: an inch 25.4 mm.
+PT_PER_MM = 72.0 / MM_PER_INCH
+MM_PER_PT = MM_PER_INCH / 72.0
+#: Height (mm) of the footer band above the bottom margin.
+FOOTER_MM = 14.0
+#: Space (mm) between parts, and between the parts and the footer: room for
+#: the blade between two cut lines.
+GAP_MM = 4.0
+#: The band (mm) kept above each part for its title.
+TITLE_BAND_MM = 5.0
+
+
+def page_size_mm(sheet: Sheet, landscape: bool, scale=(1.0, 1.0)) -> tuple[float, float]:
+    """Width and height (mm) of the page as printed, times ``scale``."""
+    w, h = sheet.width_mm, sheet.height_mm
+    w, h = (h, w) if landscape else (w, h)
+    return (w * scale[0], h * scale[1])
+
+
+def content_area_mm(sheet: Sheet, landscape: bool, scale=(1.0, 1.0)) -> tuple[float, float, float, float]:
+    """``(xmin, ymin, xmax, ymax)`` where parts may go: inside the margins,
+    above the footer band and the gap over it."""
+    w, h = page_size_mm(sheet, landscape, scale)
+    m = sheet.margin_mm
+    return (m, m + FOOTER_MM + GAP_MM, w - m, h - m)
+
+
+def default_diameter_mm(sheet: Sheet, scale=(1.0, 1.0)) -> float:
+    """The largest mater, in whole 5 mm from 80 to 600 mm, that fits one
+    page of the sheet (printed at ``scale``) with its title and 3 mm to
+    spare on each side (room for the cut line's ink and a little misfeed)."""
+    room = 0.0
+    for landscape in (False, True):
+        x0, y0, x1, y1 = content_area_mm(sheet, landscape, scale)
+        room = max(room, min(x1 - x0, y1 - y0 - TITLE_BAND_MM) - 6.0)
+    return float(min(600, max(80, int(room // 5) * 5)))

@@ -1,0 +1,80 @@
+"""The plan's frozen data: plates, sky, sizes, words and printing options.
+
+Nothing here reads the recipe; :mod:`kitgen.plan.resolve` fills these in.
+Angles in degrees, lengths in millimetres.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+from ..paper import Sheet
+from ..sky.almanac import SkyForKit
+from ..words.templates import Words
+
+
+@dataclass(frozen=True)
+class PlatePlan:
+    """One plate of the kit: its id (``plate-1``, ``plate-2``...), its
+    number, the latitude it is drawn for and the place named on it."""
+
+    id: str
+    number: int
+    latitude_deg: float
+    place: str = ""
+
+
+@dataclass(frozen=True)
+class Site:
+    """Where the kit is used: the first plate's latitude, and the longitude
+    and time zone where the recipe gives them (east positive)."""
+
+    latitude_deg: float
+    longitude_deg: float | None = None
+    timezone: str | None = None
+    place: str = ""
+
+
+@dataclass(frozen=True)
+class Drawing:
+    """What the plates draw, as the recipe asked (before legibility)."""
+
+    altitude_step_deg: float = 5.0
+    azimuth_step_deg: float = 15.0
+    twilight: bool = True
+    unequal_hours: bool = True
+
+
+@dataclass(frozen=True)
+class Printing:
+    """The sheet and how the kit is printed."""
+
+    sheet: Sheet
+    sheet_value: object            # the recipe's sheet: a name or (width_mm, height_mm)
+    print_scale: tuple[float, float] = (1.0, 1.0)
+    film_mirror: bool = False
+    film_parts: tuple[str, ...] = ()
+    colour: bool = False
+    duplex: str = "none"
+
+
+@dataclass(frozen=True)
+class Plan:
+    """Everything a build needs, resolved once."""
+
+    title: str
+    epoch: int
+    hemisphere_sign: int           # +1: a northern instrument, -1: a southern one
+    plates: tuple[PlatePlan, ...]
+    site: Site
+    sky: SkyForKit
+    diameter_mm: float
+    words: Words
+    drawing: Drawing
+    printing: Printing
+    parts: tuple[str, ...]         # the kinds of part the kit prints
+
+    @property
+    def latitude_deg(self) -> float:
+        """The first plate's latitude (the kit's own, on a one-plate kit)."""
+        return self.plates[0].latitude_deg

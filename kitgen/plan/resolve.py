@@ -1,0 +1,73 @@
+"""From a validated recipe to the frozen plan of one build.
+
+:func:`plan_kit` is the one place where the recipe is read after
+validation: it resolves the plates and their ids, the hemisphere, the sky
+(epoch, obliquity, calendar, chosen stars), the mater's diameter, the
+words and the printing options.  Everything below takes what it needs
+from the plan.
+"""
+
+from __future__ import annotations
+
+from ..errors import UserError
+from ..paper import SheetError, default_diameter_mm, make_sheet
+from ..recipe.load import load_language_file
+from ..recipe.schema import Recipe
+from ..sky.almanac import sky_for_kit
+from ..words.templates import Words, load_words, words_from_tree
+from .model import Drawing, Plan, PlatePlan, Printing, Site
+
+
+def plan_words(recipe: Recipe) -> Words:
+    """The words of the recipe's language, or of its own language file."""
+    if recipe.language_file:
+        return words_from_tree(load_language_file(recipe.language_file), recipe.native_digits)
+    return load_words(recipe.language, recipe.native_digits)
+
+
+def plan_plates(recipe: Recipe) -> tuple[PlatePlan, ...]:
+    """The plates, numbered from 1 in the recipe's order; the one-plate
+    form takes the recipe's latitude and place."""
+    specs = recipe.plates or ((recipe.latitude_deg, recipe.place),)
+    plates = []
+    for k, spec in enumerate(specs, start=1):
+        latitude, place = (spec if isinstance(spec, tuple) else (spec.latitude_deg, spec.place))
+        plates.append(PlatePlan(f"plate-{k}", k, float(latitude), place))
+    return tuple(plates)
+
+
+def hemisphere_of(plates) -> int:
+    """+1 for a northern instrument, -1 for a southern one: southern as soon
+    as one plate lies south of the equator (an equator plate goes with
+    either; the recipe refuses a mix)."""
+    return -1 if any(p.latitude_deg < 0 for p in plates) else 1
+
+
+def plan_kit(recipe: Recipe) -> Plan:
+    """Everything the build of ``recipe`` needs, resolved once."""
+    plates = plan_plates(recipe)
+    sign = hemisphere_of(plates)
+    try:
+        sheet = make_sheet(recipe.sheet, recipe.margin_mm)
+    except SheetError as exc:
+        raise UserError.of(exc) from None
+    scale = tuple(recipe.print_scale)
+    stars = recipe.stars
+    sky = sky_for_kit(recipe.epoch, sign, stars.names, stars.brightest, stars.magnitude_limit)
+    site = Site(plates[0].latitude_deg, getattr(recipe, "longitude_deg", None), getattr(recipe, "timezone", None),
+                recipe.place)
+    return Plan(
+        title=recipe.title,
+        epoch=recipe.epoch,
+        hemisphere_sign=sign,
+        plates=plates,
+        site=site,
+        sky=sky,
+        diameter_mm=float(recipe.diameter_mm or default_diameter_mm(sheet, scale)),
+        words=plan_words(recipe),
+        drawing=Drawing(float(recipe.altitude_step_deg), float(recipe.azimuth_step_deg), recipe.twilight,
+                        recipe.unequal_hours),
+        printing=Printing(sheet, recipe.sheet, scale, recipe.film_mirror, tuple(recipe.film_parts), recipe.colour,
+                          recipe.duplex),
+        parts=tuple(recipe.parts),
+    )

@@ -1,0 +1,58 @@
+"""The shipped language templates as files: which there are, and their trees.
+
+The lowest layer of the words: it reads ``templates/LANG.yaml`` from the
+package with YAML's safe loader and knows nothing else of kitgen, so that
+:mod:`kitgen.errors` can say a message in English and
+:mod:`kitgen.words.templates` can build a language's words from the same
+files, without either importing the other.
+"""
+
+from __future__ import annotations
+
+from functools import lru_cache
+from importlib import resources
+
+import yaml
+
+#: A section of optional local star names (IAU name -> local name).
+STAR_NAMES = "star_names"
+
+
+def available_languages() -> list[str]:
+    """Language codes that have a shipped template."""
+    folder = resources.files("kitgen.templates")
+    return sorted(p.name[:-5] for p in folder.iterdir() if p.name.endswith(".yaml"))
+
+
+@lru_cache(maxsize=None)
+def shipped_tree(language: str) -> dict:
+    """The shipped template of ``language`` as YAML gives it (trusted data)."""
+    text = resources.files("kitgen.templates").joinpath(f"{language}.yaml").read_text(encoding="utf-8")
+    return yaml.safe_load(text)
+
+
+def flatten(tree, prefix: str = "") -> dict:
+    """``{"a": {"b": "x"}}`` as ``{"a.b": "x"}``; lists kept as lists of text."""
+    out = {}
+    for key, value in tree.items():
+        name = f"{prefix}{key}"
+        if isinstance(value, dict):
+            out.update(flatten(value, name + "."))
+        elif isinstance(value, list):
+            out[name] = [str(v) for v in value]
+        else:
+            out[name] = str(value)
+    return out
+
+
+def split_tree(tree: dict) -> tuple[dict, dict]:
+    """(flattened words, star names) of a template tree."""
+    tree = dict(tree)
+    stars = tree.pop(STAR_NAMES, None) or {}
+    return flatten(tree), {str(k): str(v) for k, v in stars.items()}
+
+
+@lru_cache(maxsize=None)
+def shipped_table(language: str) -> dict:
+    """The flattened words of a shipped template (star names aside)."""
+    return split_tree(shipped_tree(language))[0]
