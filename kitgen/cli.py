@@ -422,14 +422,19 @@ def _emit(data) -> None:
     """Write ``data`` (text or bytes) to stdout and flush it, so that a
     failure (a full disk, a closed descriptor, a closed pipe) is met here
     and said in one line (:func:`_stdout_error`), never by Python at exit."""
+    from .outfile import write_all
+
     try:
         if sys.stdout is None:  # started with stdout closed (``>&-``)
             raise OSError(errno.EBADF, "closed")
-        if isinstance(data, bytes):
-            sys.stdout.flush()
-            sys.stdout.buffer.write(data)
+        buffer = getattr(sys.stdout, "buffer", None)
+        if buffer is None:  # a text-only stream put in place of stdout
+            sys.stdout.write(data if isinstance(data, str) else data.decode("utf-8", "replace"))
         else:
-            sys.stdout.write(data)
+            if isinstance(data, str):
+                data = data.encode(getattr(sys.stdout, "encoding", None) or "utf-8", "replace")
+            sys.stdout.flush()
+            write_all(buffer, data)
         sys.stdout.flush()
     except (OSError, ValueError) as exc:
         _quiet(sys.stdout)

@@ -213,10 +213,12 @@ _SLOW_WRITER = textwrap.dedent("""
 """)
 
 
-@pytest.mark.parametrize("sig, code", [(signal.SIGINT, EXIT_INTERRUPTED), (signal.SIGTERM, EXIT_TERMINATED)])
+@pytest.mark.parametrize("sig, code", [(signal.SIGINT, EXIT_INTERRUPTED), (signal.SIGTERM, EXIT_TERMINATED),
+                                       (signal.SIGHUP, 128 + signal.SIGHUP), (signal.SIGQUIT, 128 + signal.SIGQUIT)])
 def test_real_signal_while_writing_keeps_the_earlier_pdf(kit_dir, built_pdf, sig, code):
     """A real process, stopped by a real signal while its temporary file
-    is complete but not yet renamed."""
+    is complete but not yet renamed; hang-up and quit as interrupt and
+    SIGTERM (#11), exit 128 + the signal's number (the shells' convention)."""
     out = kit_dir / "kit.pdf"
     out.write_bytes(built_pdf)
     ready = kit_dir.parent / f"ready-{kit_dir.name}"
@@ -365,10 +367,22 @@ def test_sanitised_names_stay_in_the_folder(tmp_path, name):
     stem = safe[: -len(".svg")]
     assert stem and not stem.startswith((".", "-"))
     assert "/" not in safe and "\\" not in safe and "\x00" not in safe
-    assert len(stem) <= outfile.MAX_NAME_CHARS
-    assert all(c.isascii() and (c.isalnum() or c in "._-") for c in safe)
+    assert len(stem.encode("utf-8")) <= outfile.MAX_STEM_BYTES + 9  # + "-" and 8 hex digits
+    assert all(c.isalnum() or c in "._-" for c in safe)
     target = outfile.inside_folder(tmp_path, safe)
     assert target.resolve().parent == tmp_path.resolve()
+
+
+def test_sanitised_names_never_collide_and_keep_unicode():
+    """Two different names never give one file name (#11): a changed name
+    carries a checksum of the original; letters of every script are kept."""
+    names = HOSTILE_NAMES + ["école", "ecole", "École", "e\u0301cole", "学校", "مدرسة", "a b", "a-b", "a_b",
+                             "a/b", "a\\b", "é" * 200, "é" * 201]
+    safe = {}
+    for name in names:
+        safe.setdefault(outfile.safe_file_name(name, ".png"), set()).add(name)
+    assert all(len(v) == 1 for v in safe.values()), {k: v for k, v in safe.items() if len(v) > 1}
+    assert outfile.safe_file_name("学校") == "学校" and outfile.safe_file_name("école") == "école"
 
 
 def test_ordinary_part_names_are_kept():
