@@ -24,8 +24,8 @@ def _stopped_while_starting(exc: BaseException) -> int:
     try:
         from .errors import Message
 
-        key = "errors.terminated" if isinstance(exc, interrupt.Stopped) else "errors.interrupted"
-        print(Message(key).text(), file=sys.stderr)
+        said = Message("errors.terminated") if isinstance(exc, interrupt.Stopped) else Message("errors.interrupted")
+        print(said.text(), file=sys.stderr)
     except BaseException:  # nothing more can be said, even if a second signal comes
         pass
     return status
