@@ -380,6 +380,9 @@ def write_folder_atomic(folder, files: dict, force: bool = False, protect: tuple
     parent = folder.parent if str(folder.parent) else Path(".")
     try:
         parent.mkdir(parents=True, exist_ok=True)
+    except FileExistsError:  # a part of the path is a file
+        raise write_error(folder, OSError(errno.ENOTDIR, os.strerror(errno.ENOTDIR)),
+                          Message("errors.doing_make_folder")) from None
     except OSError as exc:
         raise write_error(folder, exc, Message("errors.doing_make_folder")) from None
     clean_stale(parent)
