@@ -43,7 +43,8 @@ from hypothesis import HealthCheck, example, given, settings
 from hypothesis import strategies as st
 
 from kitgen.kit import build_kit
-from kitgen.layout.pages import content_area_mm, layout_kit
+from kitgen.layout.pages import layout_kit
+from kitgen.paper import content_area_mm
 from kitgen.recipe.load import validate_recipe
 from kitgen.recipe.schema import SHEETS
 
@@ -286,8 +287,7 @@ def check_plate(kit) -> None:
     # Completeness: the true curves inside the disc are all drawn.
     zen = zenith_vector(phi)
     wanted = [("horizon", 0.0)]
-    if kit.plan.drawing.twilight:
-        wanted.append(("twilight", -18.0))
+    wanted += [("twilight", t) for t in kit.plan.drawing.twilight_deg]
     # The layout may thin the almucantars to keep them legible at this size
     # (never closer than asked): every multiple of the step drawn is drawn.
     drawn_alts = sorted({e.values["altitude_deg"] for e in plate.with_role("almucantar")})

@@ -18,7 +18,8 @@ pypdf = pytest.importorskip("pypdf")
 from pypdf.generic import ContentStream  # noqa: E402
 
 from kitgen.kit import build_kit  # noqa: E402
-from kitgen.layout.pages import FOOTER_MM, TITLE_BAND_MM, check_bar_mm, layout_kit  # noqa: E402
+from kitgen.layout.pages import check_bar_mm, layout_kit  # noqa: E402
+from kitgen.paper import FOOTER_MM, TITLE_BAND_MM  # noqa: E402
 from kitgen.recipe.load import parse_recipe_text  # noqa: E402
 from kitgen.render.pdf import render_pdf  # noqa: E402
 

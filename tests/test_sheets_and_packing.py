@@ -14,7 +14,8 @@ import pytest
 
 from kitgen.errors import UserError
 from kitgen.kit import build_kit
-from kitgen.layout.pages import FOOTER_MM, GAP_MM, content_area_mm, layout_kit
+from kitgen.layout.pages import layout_kit
+from kitgen.paper import FOOTER_MM, GAP_MM, content_area_mm
 from kitgen.paper import SHEET_SIZES_MM, make_sheet
 from kitgen.recipe.load import parse_recipe_text
 

@@ -31,8 +31,7 @@ from itertools import product
 from ..errors import UserError
 from ..geometry.model import Part
 from .packing import Box, Packer, extent, place
-from ..paper import (FOOTER_MM, GAP_MM, PT_PER_MM, TITLE_BAND_MM, Sheet, content_area_mm, page_size_mm, sheet_name,
-                     sheet_words)
+from ..paper import GAP_MM, PT_PER_MM, TITLE_BAND_MM, Sheet, content_area_mm, page_size_mm, sheet_words
 from .tiling import PIECE_BAND_MM, Piece, tile
 
 #: Size (pt) of the part titles printed above each part (the band kept for
@@ -59,7 +58,6 @@ LONG_RATIO = 1.5
 #: area, and the room (mm) they keep from the mater.
 REGISTRATION_INSET_MM = 8.0
 REGISTRATION_CLEAR_MM = 8.0
-
 
 
 @dataclass(frozen=True)
@@ -402,5 +400,3 @@ def layout_kit(kit, instruction_pages: int = 1) -> tuple[Page, ...]:
                  for k, (kind, landscape, placed, marks, side) in enumerate(drafts, start=1))
 
 
-def describe_sheet(printing) -> str:
-    return sheet_name(printing.sheet_value)

@@ -49,11 +49,6 @@ from .shadow_square import LABELLED_RATIOS, decimals, shadow_mark, shadow_side_m
 
 MIN_CLEAR_GAP_MM = 0.4
 MIN_LABEL_GAP_MM = 0.4
-#: The shortest tick drawn anywhere, at the smallest instrument (80 mm):
-#: four times the thinnest line, so that a tick reads as a stroke and not
-#: as a dot (ring ticks are shares of their ring, which grows with the
-#: instrument, so 80 mm is where they are shortest).
-MIN_TICK_DRAWN_MM = 0.4
 
 #: The ladders scales are thinned along; each step keeps every mark of
 #: the coarser ones, so the long ticks stay where they were.

@@ -51,33 +51,6 @@ def circle_inside_disc(center, radius_mm: float, disc_radius_mm: float):
     return [(_norm_deg(towards_origin - g), _norm_deg(towards_origin - g) + 2 * g)]
 
 
-def intersect_ranges(a: tuple[float, float], b: tuple[float, float]):
-    """Intersection of two counter-clockwise angular ranges (degrees, end >
-    start, span <= 360); a list of 0, 1 or 2 ranges."""
-    out = []
-    a0, a1 = a
-    for shift in (-360.0, 0.0, 360.0):
-        b0, b1 = b[0] + shift, b[1] + shift
-        lo, hi = max(a0, b0), min(a1, b1)
-        if hi - lo > 1e-9:
-            out.append((lo, hi))
-    return out
-
-
-def arc_range_through(center, p_start, p_mid, p_end):
-    """The counter-clockwise range (start_deg, end_deg) of the arc of a
-    circle about ``center`` that runs from ``p_start`` to ``p_end`` through
-    ``p_mid`` (all three on the circle)."""
-    def ang(p):
-        return math.degrees(math.atan2(p[1] - center[1], p[0] - center[0])) % 360.0
-
-    a0, am, a1 = ang(p_start), ang(p_mid), ang(p_end)
-    span = (a1 - a0) % 360.0
-    if (am - a0) % 360.0 <= span:
-        return (a0, a0 + span)
-    return (a1, a1 + (360.0 - span))
-
-
 def line_inside_disc(point, direction, disc_radius_mm: float):
     """The chord of the line (``point``, unit ``direction``) inside the disc
     about the origin, as two end points, or ``None``."""

@@ -83,12 +83,6 @@ def project(hour_angle_rad, declination_rad, sign: int, equator_radius_mm: float
     return project_vectors(equatorial_vector(hour_angle_rad, declination_rad), sign, equator_radius_mm)
 
 
-def declination_radius_mm(declination_rad, sign: int, equator_radius_mm: float):
-    """Radius in mm of the circle of declination ``declination_rad``:
-    R tan(pi/4 - s*dec/2) (Snyder 1987, eq. 21-33, polar aspect)."""
-    return equator_radius_mm * np.tan(np.pi / 4.0 - sign * np.asarray(declination_rad) / 2.0)
-
-
 def unproject(xy_mm, sign: int, equator_radius_mm: float):
     """Inverse projection: (x, y) mm on the part to unit vectors of the
     equatorial frame of the place (Snyder 1987, eq. 21-37 in vector form)."""

@@ -9,12 +9,12 @@ read the same facts.
 from __future__ import annotations
 
 import datetime as _dt
-import math
 from dataclasses import dataclass, field
 from typing import Any, Callable
 
 from .longitude import parse_longitude
 from .site import parse_timezone
+from .twilight import DEFAULT as DEFAULT_TWILIGHT, parse_twilight
 
 from .print_scale import parse_print_scale
 from ..paper import DEFAULT_MARGIN_MM, MAX_MARGIN_MM, MIN_MARGIN_MM, SHEET_SIZES_MM, parse_sheet
@@ -68,7 +68,7 @@ class Recipe:
     altitude_step_deg: float = 5.0
     azimuth_step_deg: float = 15.0
     diameter_mm: float | None = None
-    twilight: bool = True
+    twilight: tuple[str, ...] = DEFAULT_TWILIGHT  # civil, nautical, astronomical (kitgen.recipe.twilight)
     unequal_hours: bool = True
     parts: tuple[str, ...] = PARTS
     margin_mm: float = DEFAULT_MARGIN_MM
@@ -77,6 +77,12 @@ class Recipe:
     film_parts: tuple[str, ...] = ()  # parts printed on film besides the rete
     colour: bool = False              # colour accents (kitgen.geometry.style.ACCENTS)
     duplex: str = "none"
+    #: Laser cutters (#9): the SVG's colours of cut, score and engraved
+    #: lines, as ((name, "#RRGGBB"), ...), and the diameters (mm) of the
+    #: cut holes at the pins (defaults: kitgen.geometry.style).
+    cutter_colours: tuple[tuple[str, str], ...] = tuple(CUTTER_COLOURS.items())
+    pin_hole_mm: float = PIN_HOLE_MM
+    sight_hole_mm: float = SIGHT_HOLE_MM
     #: The site (#10): longitude (east positive) and IANA time zone, as
     #: given or looked up from ``place`` (kitgen.recipe.site); None unknown.
     longitude_deg: float | None = None
@@ -161,7 +167,9 @@ KEYS: tuple[Key, ...] = (
         "mater front and back on the two sides of one sheet, for a printer that turns it over on the long or "
         "short edge, with marks to check the two sides meet; none (the default): separate pages glued back to back",
         choices=DUPLEX, example="none"),
-    Key("twilight", "twilight", "bool", "draw the -18 degree twilight limit", example=True),
+    Key("twilight", "twilight", "parsed",
+        "twilight circles to draw: civil (-6°), nautical (-12°), astronomical (-18°), a list of these, or none "
+        "(true: astronomical)", example="astronomical", parse=parse_twilight),
     Key("unequal_hours", "unequal_hours", "bool", "draw the unequal (temporal) hour curves", example=True),
     Key("parts", "parts", "parts", f"which parts to print, of: {', '.join(PARTS)}", choices=PARTS,
         example=list(PARTS)),
@@ -174,5 +182,3 @@ MAX_STAR_NAMES = 200
 MAX_TEXT_CHARS = 120
 
 
-def is_finite_number(value) -> bool:
-    return isinstance(value, (int, float)) and not isinstance(value, bool) and math.isfinite(value)

@@ -20,7 +20,8 @@ from reportlab.lib.units import mm
 from reportlab.pdfgen.canvas import Canvas
 
 from ..layout.bounds import element_box_mm, meets, turn_box
-from ..layout.pages import CHECK_BAR_MM, FOOTER_MM, TITLE_PT, Page, check_bar_mm, page_content_mm
+from ..layout.pages import CHECK_BAR_MM, TITLE_PT, Page, check_bar_mm, page_content_mm
+from ..paper import FOOTER_MM
 from ..layout.instructions import Block, kit_latitudes, kit_line, kit_title, story
 from ..geometry import style
 from . import pdf_marks, pdf_text

@@ -6,8 +6,6 @@ import math
 J2000_JD = 2451545.0
 #: Days in a Julian century.
 DAYS_PER_JULIAN_CENTURY = 36525.0
-#: Days in a Julian year.
-DAYS_PER_JULIAN_YEAR = 365.25
 #: Arcseconds to radians.
 ARCSEC_TO_RAD = math.pi / (180.0 * 3600.0)
 #: Milliarcseconds to radians.

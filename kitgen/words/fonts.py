@@ -44,20 +44,12 @@ SCRIPT_FACES = {
              "bold": Face("KitDevanagari-Bold", "NotoSansDevanagari-Bold.ttf")},
 }
 
-#: Scripts whose text must be shaped (contextual forms, conjuncts, marks
-#: that move); other runs are set glyph by glyph from the character map.
-COMPLEX_SCRIPTS = frozenset(SCRIPT_FACES)
-
 
 def all_faces() -> list[Face]:
     faces = {f.name: f for f in DEJAVU.values()}
     for styles in SCRIPT_FACES.values():
         faces.update({f.name: f for f in styles.values()})
     return list(faces.values())
-
-
-def face_named(name: str) -> Face:
-    return next(f for f in all_faces() if f.name == name)
 
 
 def stack(script: str, style: str) -> tuple[Face, ...]:

@@ -15,10 +15,8 @@ from __future__ import annotations
 import string
 import unicodedata
 
-import yaml
-
 from ..errors import Message, UserError
-from ..template_files import STAR_NAMES, available_languages, shipped_table, shipped_tree
+from ..template_files import STAR_NAMES, available_languages, shipped_tree
 from ..template_files import split_tree as _split
 from . import fonts, locale
 from .fit import Fitted, fit_label
