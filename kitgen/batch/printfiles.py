@@ -33,34 +33,48 @@ class PrintedKit:
     copies: int
 
 
-def print_files(kits) -> tuple[dict[str, bytes], dict[int, dict[str, list[tuple[int, int]]]]]:
-    """``({material: pdf bytes}, {kit number: {material: [(first, last), ...]}})``:
-    the two print files and where each copy of each kit's pages landed in
-    them (page numbers from 1)."""
-    writers = {m: _writer() for m in MATERIALS}
-    counts = {m: 0 for m in MATERIALS}
-    ranges: dict[int, dict[str, list[tuple[int, int]]]] = {}
-    readers = {k.number: PdfReader(io.BytesIO(k.pdf)) for k in kits}
-    stamps = {k.number: PdfReader(io.BytesIO(k.stamp)).pages[0] for k in kits}
-    for material in MATERIALS:
-        writer = writers[material]
-        for kit in kits:
+class PrintFiles:
+    """The two print files, filled kit by kit in kit order (so that they
+    can grow while later kits are still being built): :meth:`add` each
+    built kit, then :meth:`finish`."""
+
+    def __init__(self):
+        self.writers = {m: _writer() for m in MATERIALS}
+        self.counts = {m: 0 for m in MATERIALS}
+        #: {kit number: {material: [(first, last), ...]}}, page numbers from 1.
+        self.ranges: dict[int, dict[str, list[tuple[int, int]]]] = {}
+
+    def add(self, kit: PrintedKit) -> None:
+        reader = PdfReader(io.BytesIO(kit.pdf))
+        overlay = PdfReader(io.BytesIO(kit.stamp)).pages[0]
+        spans = self.ranges.setdefault(kit.number, {m: [] for m in MATERIALS})
+        for material in MATERIALS:
             chosen = [i for i, m in enumerate(kit.materials) if m == material]
-            spans = ranges.setdefault(kit.number, {m: [] for m in MATERIALS})[material]
             if not chosen:
                 continue
-            overlay = stamps[kit.number]
+            writer = self.writers[material]
             form = stamp_form(writer, overlay)
-            width = float(overlay.mediabox.right)
             for _ in range(kit.copies):
-                first = counts[material] + 1
+                first = self.counts[material] + 1
                 for i in chosen:
-                    page = writer.add_page(readers[kit.number].pages[i])
-                    stamp_page(writer, page, form, width, kit.margin_mm)
-                counts[material] += len(chosen)
-                spans.append((first, counts[material]))
-    files = {m: _bytes(writers[m]) for m in MATERIALS if counts[m]}
-    return files, ranges
+                    page = writer.add_page(reader.pages[i])
+                    stamp_page(writer, page, form, float(overlay.mediabox.right), kit.margin_mm)
+                self.counts[material] += len(chosen)
+                spans[material].append((first, self.counts[material]))
+
+    def finish(self) -> dict[str, bytes]:
+        """``{material: pdf bytes}`` for each material that has pages."""
+        return {m: _bytes(self.writers[m]) for m in MATERIALS if self.counts[m]}
+
+
+def print_files(kits) -> tuple[dict[str, bytes], dict[int, dict[str, list[tuple[int, int]]]]]:
+    """``({material: pdf bytes}, {kit number: {material: [(first, last), ...]}})``:
+    the two print files of ``kits`` (in kit order) and where each copy of
+    each kit's pages landed in them (page numbers from 1)."""
+    files = PrintFiles()
+    for kit in kits:
+        files.add(kit)
+    return files.finish(), files.ranges
 
 
 def _writer() -> PdfWriter:

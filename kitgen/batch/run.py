@@ -16,7 +16,7 @@ import signal
 import sys
 import time
 from concurrent.futures import ProcessPoolExecutor, as_completed
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 from pathlib import Path
 
 from ..errors import EXIT_INTERNAL, EXIT_OK, EXIT_USER, Message, one_line
@@ -24,7 +24,7 @@ from ..words.templates import available_languages, load_words
 from .folder import KITS, MANIFEST, check_output_folder, fresh_folder, write_file
 from .manifest import manifest_csv, manifest_row
 from .naming import kit_file_names
-from .printfiles import PrintedKit, print_files
+from .printfiles import PrintedKit, PrintFiles
 from .progress import progress
 from .setfile import load_set
 from .work import KitJob, build_one, warm
@@ -87,6 +87,7 @@ def run_set(set_path, out_dir, jobs: int | None = None, quiet: bool = False, str
         with fresh_folder(out_dir) as tmp:
             for _ in errors:
                 bar.advance()
+            printing, waiting, next_number = PrintFiles(), {}, 1
             for result in _build_all(jobs_list, jobs, languages, speak):
                 kit = by_number[result.number]
                 peak = max(peak, result.peak_rss_kib)
@@ -95,13 +96,14 @@ def run_set(set_path, out_dir, jobs: int | None = None, quiet: bool = False, str
                     internal = internal or result.internal
                 else:
                     write_file(tmp / KITS / names[kit.number - 1], result.pdf)
-                    results[result.number] = result
+                    results[result.number] = replace(result, pdf=b"", stamp=b"")   # the manifest's part
+                waiting[result.number] = result
+                next_number = _print_ready(printing, waiting, next_number, by_number)
                 bar.advance()
-            built = [PrintedKit(n, r.pdf, r.stamp, r.materials, r.margin_mm, by_number[n].copies)
-                     for n, r in sorted(results.items())]
-            files, spans = print_files(built)
-            for material, data in files.items():
+            _print_ready(printing, waiting, next_number, by_number, last=True)
+            for material, data in printing.finish().items():
                 write_file(tmp / PRINT_NAMES[material], data)
+            spans = printing.ranges
             rows = [manifest_row(k, names[k.number - 1], results.get(k.number), spans.get(k.number, {}),
                                  errors.get(k.number, "")) for k in kit_set.kits]
             write_file(tmp / MANIFEST, manifest_csv(rows))
@@ -110,6 +112,22 @@ def run_set(set_path, out_dir, jobs: int | None = None, quiet: bool = False, str
     failures = tuple(sorted(errors.items()))
     return Summary(out_dir, len(kit_set.kits), len(results), failures, internal, jobs,
                    time.monotonic() - started, peak, speak)
+
+
+def _print_ready(printing, waiting: dict, next_number: int, by_number: dict, last: bool = False) -> int:
+    """Add to the print files, in kit order, every kit up to the first one
+    not yet built (kits that failed, or were never built, are skipped);
+    the print files so grow while later kits are still being built.
+    Returns the number of the next kit to add."""
+    while next_number in by_number and (next_number in waiting or by_number[next_number].error is not None
+                                        or last):
+        result = waiting.pop(next_number, None)
+        if result is not None and not result.error:
+            kit = by_number[next_number]
+            printing.add(PrintedKit(next_number, result.pdf, result.stamp, result.materials, result.margin_mm,
+                                    kit.copies))
+        next_number += 1
+    return next_number
 
 
 def _stamp_name(kit) -> str:

@@ -1,0 +1,214 @@
+"""Benchmark of class sets (#12), side by side in one run, against a floor.
+
+The floor is bare reportlab drawing the very primitives a kit exports
+(``kitgen geometry``'s JSON: circles, arcs, segments, polylines, dots and
+text) with the same shipped fonts, embedded, one part a page: what any
+program that writes these kits as PDF must at least spend.  Measured:
+
+(a) one ``kitgen build`` as a whole process against one floor process
+    drawing the same kit;
+(b) a set of N kits (default 100) built by ``kitgen batch --jobs 1``
+    against one floor process drawing the same N geometries;
+(c) the same set with one and with two workers;
+(d) bytes of a kit's PDF in every shipped language;
+(e) peak resident memory of a worker.
+
+Run: ``python3 benchmarks/batch_speed.py [--kits N]`` (``--kits 10`` for a
+quick look).  It prints each measure as a figure and a ratio beside its
+target, and exits 0 when all are met.  Targets are checked here, never in
+a timed test.
+"""
+
+from __future__ import annotations
+
+import argparse
+import csv
+import json
+import os
+import subprocess
+import sys
+import tempfile
+import time
+from pathlib import Path
+
+import yaml
+
+TARGETS = {"a": ("<=", 1.5), "b": ("<=", 1.3), "c": (">=", 1.8), "d": ("<=", 150.0), "e": ("<=", 150.0)}
+LANGUAGES = ("en", "es", "fr", "de", "pt", "it", "el", "ru", "ar", "hi")
+ROOT = Path(__file__).resolve().parents[1]
+
+
+def _set_recipe(n: int) -> dict:
+    """N kits of a realistic class set: A4, the default size and stars,
+    latitudes from 60 S to 60 N, the ten languages in turn, a pupil's
+    name on each (invented)."""
+    kits = [{"owner": f"Pupil {k:03d}", "latitude": round(-60 + 120 * k / max(1, n - 1), 2),
+             "language": LANGUAGES[k % len(LANGUAGES)]} for k in range(n)]
+    return {"defaults": {"epoch": 2027, "sheet": "a4", "title": "Benchmark Valley School"}, "kits": kits}
+
+
+def _run(args, **kw) -> float:
+    env = dict(os.environ, PYTHONPATH=str(ROOT))
+    t = time.perf_counter()
+    subprocess.run([sys.executable, *args], check=kw.get("check", True), env=env, stdout=subprocess.DEVNULL,
+                   stderr=subprocess.DEVNULL)
+    return time.perf_counter() - t
+
+
+def _export_geometries(set_recipe: dict, folder: Path) -> list[Path]:
+    """Each kit's exported geometry (JSON), made before any timing."""
+    from kitgen.kit import build_kit
+    from kitgen.recipe.load import validate_recipe
+    from kitgen.render.json_export import render_json
+
+    paths = []
+    for k, kit in enumerate(set_recipe["kits"]):
+        recipe = validate_recipe({**set_recipe["defaults"], **kit})
+        path = folder / f"geometry-{k:03d}.json"
+        path.write_bytes(render_json(build_kit(recipe)))
+        paths.append(path)
+    return paths
+
+
+# -- the floor: bare reportlab ------------------------------------------------------
+
+def floor(paths, out_folder) -> None:
+    """Draw each exported geometry as a PDF with reportlab only."""
+    from reportlab.lib.units import mm
+    from reportlab.pdfbase import pdfmetrics
+    from reportlab.pdfbase.ttfonts import TTFont
+    from reportlab.pdfgen.canvas import Canvas
+
+    fonts = ROOT / "kitgen" / "fonts"
+    faces = {"latin": "DejaVuSansCondensed.ttf", "arab": "NotoSansArabic-Regular.ttf",
+             "deva": "NotoSansDevanagari-Regular.ttf"}
+    widths = {"cut": 0.35, "fold": 0.2, "heavy": 0.35, "medium": 0.25, "light": 0.15, "fine": 0.1}
+    registered = set()
+
+    def font_for(text: str) -> str:
+        script = ("arab" if any("\u0600" <= c <= "\u06ff" for c in text)
+                  else "deva" if any("\u0900" <= c <= "\u097f" for c in text) else "latin")
+        if script not in registered:
+            pdfmetrics.registerFont(TTFont(f"Floor-{script}", str(fonts / faces[script])))
+            registered.add(script)
+        return f"Floor-{script}"
+
+    for k, path in enumerate(paths):
+        geometry = json.loads(Path(path).read_text(encoding="utf-8"))
+        c = Canvas(str(Path(out_folder) / f"floor-{k:03d}.pdf"), invariant=1, pageCompression=1)
+        for part in geometry["parts"]:
+            x0, y0, x1, y1 = part["bounds_mm"]
+            c.setPageSize(((x1 - x0 + 20) * mm, (y1 - y0 + 20) * mm))
+            c.translate((10 - x0) * mm, (10 - y0) * mm)
+            for el in part["elements"]:
+                shape = el["shape"]
+                if shape == "text":
+                    c.setFont(font_for(el["text"]), el["size_pt"])
+                    c.drawCentredString(el["at"][0] * mm, el["at"][1] * mm, el["text"])
+                    continue
+                if shape == "point":
+                    c.circle(el["at"][0] * mm, el["at"][1] * mm, 0.3 * mm, stroke=0, fill=1)
+                    continue
+                if el.get("stroke") == "none":
+                    continue
+                c.setLineWidth(widths.get(el.get("stroke"), 0.2) * mm)
+                if shape == "circle":
+                    c.circle(el["center"][0] * mm, el["center"][1] * mm, el["radius"] * mm, stroke=1, fill=0)
+                elif shape == "arc":
+                    (cx, cy), r = el["center"], el["radius"]
+                    p = c.beginPath()
+                    p.arc((cx - r) * mm, (cy - r) * mm, (cx + r) * mm, (cy + r) * mm, el["start_deg"],
+                          el["end_deg"] - el["start_deg"])
+                    c.drawPath(p, stroke=1, fill=0)
+                elif shape == "segment":
+                    c.line(el["from"][0] * mm, el["from"][1] * mm, el["to"][0] * mm, el["to"][1] * mm)
+                elif shape == "polyline":
+                    pts = el["points"]
+                    p = c.beginPath()
+                    p.moveTo(pts[0][0] * mm, pts[0][1] * mm)
+                    for x, y in pts[1:]:
+                        p.lineTo(x * mm, y * mm)
+                    if el.get("closed"):
+                        p.close()
+                    c.drawPath(p, stroke=1, fill=0)
+            c.showPage()
+        c.save()
+
+
+# -- the measures -----------------------------------------------------------------------
+
+def measure(n: int) -> dict:
+    from kitgen.batch import run_set
+
+    work = Path(tempfile.mkdtemp(prefix="kitgen-bench-"))
+    set_recipe = _set_recipe(n)
+    (work / "set.yaml").write_text(yaml.safe_dump(set_recipe, allow_unicode=True), encoding="utf-8")
+    one = {**set_recipe["defaults"], **set_recipe["kits"][0]}
+    (work / "one.yaml").write_text(yaml.safe_dump(one, allow_unicode=True), encoding="utf-8")
+    geometries = _export_geometries(set_recipe, work)
+    floor_cmd = [str(Path(__file__).resolve()), "--floor", str(work)]
+    out = {}
+
+    kitgen_one = min(_run(["-m", "kitgen", "build", str(work / "one.yaml"), "-o", str(work / "one.pdf")])
+                     for _ in range(3))
+    floor_one = min(_run([*floor_cmd, str(geometries[0])]) for _ in range(3))
+    out["a"] = (kitgen_one, floor_one)
+
+    set_one = _run(["-m", "kitgen", "batch", str(work / "set.yaml"), "-o", str(work / "out-1"), "--jobs", "1",
+                    "--quiet"])
+    floor_all = _run([*floor_cmd, *map(str, geometries)])
+    out["b"] = (set_one, floor_all)
+    set_two = _run(["-m", "kitgen", "batch", str(work / "set.yaml"), "-o", str(work / "out-2"), "--jobs", "2",
+                    "--quiet"])
+    out["c"] = (set_one, set_two)
+
+    sizes: dict[str, list[float]] = {}
+    with open(work / "out-1" / "manifest.csv", newline="", encoding="utf-8") as fh:
+        for row in csv.DictReader(fh):
+            sizes.setdefault(row["language"], []).append((work / "out-1" / row["file"]).stat().st_size / 1024)
+    out["d"] = {code: max(sizes[code]) for code in LANGUAGES if code in sizes}
+
+    summary = run_set(work / "set.yaml", work / "out-mem", jobs=2, quiet=True)
+    out["e"] = summary.peak_rss_kib / 1024
+    return out
+
+
+def report(n: int, m: dict) -> bool:
+    ok = True
+
+    def line(key, what, figure, ratio_text, value):
+        nonlocal ok
+        sense, target = TARGETS[key]
+        met = value <= target if sense == "<=" else value >= target
+        ok = ok and met
+        print(f"({key}) {what:<44} {figure:<34} {ratio_text:<10} target {sense} {target:g}  "
+              f"{'met' if met else 'NOT MET'}")
+
+    k1, f1 = m["a"]
+    line("a", "one kitgen build vs floor (whole processes)", f"{k1:.2f} s vs {f1:.2f} s", f"{k1 / f1:.2f}x", k1 / f1)
+    s1, fa = m["b"]
+    line("b", f"{n} kits, one process vs floor", f"{s1:.1f} s vs {fa:.1f} s", f"{s1 / fa:.2f}x", s1 / fa)
+    s1, s2 = m["c"]
+    line("c", f"{n} kits, 1 worker vs 2 workers", f"{s1:.1f} s vs {s2:.1f} s", f"{s1 / s2:.2f}x", s1 / s2)
+    for code, kib in m["d"].items():
+        line("d", f"bytes per kit, {code} (largest)", f"{kib:.0f} KB", "", kib)
+    line("e", "peak memory of a worker", f"{m['e']:.0f} MB", "", m["e"])
+    return ok
+
+
+def main() -> int:
+    p = argparse.ArgumentParser(description=__doc__.split("\n")[0])
+    p.add_argument("--kits", type=int, default=100, help="kits in the set (default 100; 10 for a quick run)")
+    p.add_argument("--floor", nargs="+", help=argparse.SUPPRESS)
+    args = p.parse_args()
+    if args.floor:
+        floor(args.floor[1:], args.floor[0])
+        return 0
+    print(f"machine: {os.cpu_count()} cores, Python {sys.version.split()[0]}, {sys.platform}")
+    ok = report(args.kits, measure(args.kits))
+    print("all targets met" if ok else "some targets not met")
+    return 0 if ok else 1
+
+
+if __name__ == "__main__":
+    sys.exit(main())
