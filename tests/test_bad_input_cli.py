@@ -70,7 +70,7 @@ def build_fails(tmp_path, capsys, text, *needles, code=EXIT_USER, name="r.yaml")
     ("latitude: [40, 5]\n", ["line 1", "'latitude'", "a latitude is a number or text such as", "40 26 46 N"]),
     ("latitude: 40\nepoch: soon\n", ["line 2", "'epoch' must be a number", "1900 to 2100"]),
     ("latitude: 40\nepoch: 2027.5\n", ["'epoch' must be a whole number"]),
-    ("latitude: 40\ntwilight: maybe\n", ["'twilight' must be true or false", "'maybe'"]),
+    ("latitude: 40\ntwilight: maybe\n", ["'twilight': must be true or false, or civil", "'maybe'"]),
     ("latitude: 40\ntitle: [a, b]\n", ["'title' must be text", "put it in quotes"]),
     ("latitude: 40\nsheet: 4\n", ["'sheet'", "a4"]),
     ("latitude: 40\nstars: Sirius\n", ["'stars' must be a list of star names", "{brightest: N}"]),

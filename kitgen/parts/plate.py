@@ -1,7 +1,7 @@
 """The plate (climate) for one latitude: the observer's sky, projected.
 
 Horizon, almucantars (circles of equal altitude), azimuth curves, equator
-and tropics, meridian and east-west line, the -18 deg twilight limit and
+and tropics, meridian and east-west line, the twilight circles asked for and
 the unequal hours below the horizon.  Every circle of the sphere is drawn
 as its exact image circle (see kitgen.projection.circles); the unequal
 hours are no circles and are drawn through exactly computed points.
@@ -20,8 +20,6 @@ from . import curves, labels, legibility
 from .context import PartContext
 from .dimensions import MIN_TEXT_PT
 from .format import latitude_text
-
-TWILIGHT_ALTITUDE_DEG = -18.0  # astronomical twilight (common practice; e.g. Explanatory Supplement 1992)
 
 
 def plate(ctx: PartContext) -> model.Part:
@@ -49,9 +47,9 @@ def plate(ctx: PartContext) -> model.Part:
     for alt in np.arange(step, 90.0 - 1e-9, step):
         els += curves.whole_circle("almucantar", zenith, math.radians(90.0 - alt), s, R, disc, "light",
                                    altitude_deg=float(alt))
-    if ctx.plan.drawing.twilight:
-        els += curves.whole_circle("twilight", zenith, math.radians(90.0 - TWILIGHT_ALTITUDE_DEG), s, R, disc,
-                                   "medium", altitude_deg=TWILIGHT_ALTITUDE_DEG)
+    for twilight_deg in ctx.plan.drawing.twilight_deg:
+        els += curves.whole_circle("twilight", zenith, math.radians(90.0 - twilight_deg), s, R, disc,
+                                   "medium", altitude_deg=twilight_deg)
     top = 90.0 - max(10.0, step)
     els += _azimuths(phi, s, R, disc, ctx.scales.azimuth_step_deg, top)
     if ctx.plan.drawing.unequal_hours:

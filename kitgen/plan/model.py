@@ -10,6 +10,7 @@ from dataclasses import dataclass
 
 from ..paper import Sheet
 from ..sky.almanac import SkyForKit
+from ..sky.site_almanac import Almanac
 from ..words.templates import Words
 
 
@@ -27,7 +28,8 @@ class PlatePlan:
 @dataclass(frozen=True)
 class Site:
     """Where the kit is used: the first plate's latitude, and the longitude
-    and time zone where the recipe gives them (east positive)."""
+    (east positive) and IANA time zone as the recipe gives them or its
+    place's gazetteer record has them (#10); ``None`` where unknown."""
 
     latitude_deg: float
     longitude_deg: float | None = None
@@ -41,7 +43,7 @@ class Drawing:
 
     altitude_step_deg: float = 5.0
     azimuth_step_deg: float = 15.0
-    twilight: bool = True
+    twilight_deg: tuple[float, ...] = (-18.0,)  # the Sun's altitudes of the twilight circles drawn
     unequal_hours: bool = True
 
 
@@ -56,6 +58,12 @@ class Printing:
     film_parts: tuple[str, ...] = ()
     colour: bool = False
     duplex: str = "none"
+    #: Laser cutters (#9): the SVG's colours of cut, score and engraved
+    #: lines, and the diameters (mm) of the cut holes at the pins.
+    cutter_colours: tuple[tuple[str, str], ...] = (("cut", "#FF0000"), ("score", "#0000FF"),
+                                                   ("engrave", "#000000"))
+    pin_hole_mm: float = 1.8
+    sight_hole_mm: float = 1.0
 
 
 @dataclass(frozen=True)
@@ -73,6 +81,7 @@ class Plan:
     drawing: Drawing
     printing: Printing
     parts: tuple[str, ...]         # the kinds of part the kit prints
+    almanac: Almanac               # the site's clock correction and sunrise table for the epoch year (#10)
 
     @property
     def latitude_deg(self) -> float:

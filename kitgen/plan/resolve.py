@@ -13,7 +13,9 @@ from ..errors import UserError
 from ..paper import SheetError, default_diameter_mm, make_sheet
 from ..recipe.load import load_language_file
 from ..recipe.schema import Recipe
+from ..recipe.twilight import twilight_altitudes_deg
 from ..sky.almanac import sky_for_kit
+from ..sky.site_almanac import almanac_for_site
 from ..words.templates import Words, load_words, words_from_tree
 from .model import Drawing, Plan, PlatePlan, Printing, Site
 
@@ -43,6 +45,14 @@ def hemisphere_of(plates) -> int:
     return -1 if any(p.latitude_deg < 0 for p in plates) else 1
 
 
+def plan_site(recipe: Recipe, plates) -> Site:
+    """The site (#10): the first plate's latitude, and the recipe's
+    longitude and time zone (given, or its place's as looked up by
+    kitgen.recipe.site); the place's name as printed."""
+    longitude = None if recipe.longitude_deg is None else float(recipe.longitude_deg)
+    return Site(plates[0].latitude_deg, longitude, recipe.timezone or None, recipe.place)
+
+
 def plan_kit(recipe: Recipe) -> Plan:
     """Everything the build of ``recipe`` needs, resolved once."""
     plates = plan_plates(recipe)
@@ -53,9 +63,8 @@ def plan_kit(recipe: Recipe) -> Plan:
         raise UserError.of(exc) from None
     scale = tuple(recipe.print_scale)
     stars = recipe.stars
-    sky = sky_for_kit(recipe.epoch, sign, stars.names, stars.brightest, stars.magnitude_limit)
-    site = Site(plates[0].latitude_deg, getattr(recipe, "longitude_deg", None), getattr(recipe, "timezone", None),
-                recipe.place)
+    site = plan_site(recipe, plates)
+    sky = sky_for_kit(recipe.epoch, sign, stars.names, stars.brightest, stars.magnitude_limit, site.longitude_deg)
     return Plan(
         title=recipe.title,
         epoch=recipe.epoch,
@@ -65,9 +74,11 @@ def plan_kit(recipe: Recipe) -> Plan:
         sky=sky,
         diameter_mm=float(recipe.diameter_mm or default_diameter_mm(sheet, scale)),
         words=plan_words(recipe),
-        drawing=Drawing(float(recipe.altitude_step_deg), float(recipe.azimuth_step_deg), recipe.twilight,
-                        recipe.unequal_hours),
+        drawing=Drawing(float(recipe.altitude_step_deg), float(recipe.azimuth_step_deg),
+                        twilight_altitudes_deg(recipe.twilight), recipe.unequal_hours),
         printing=Printing(sheet, recipe.sheet, scale, recipe.film_mirror, tuple(recipe.film_parts), recipe.colour,
-                          recipe.duplex),
+                          recipe.duplex, tuple(recipe.cutter_colours), float(recipe.pin_hole_mm),
+                          float(recipe.sight_hole_mm)),
         parts=tuple(recipe.parts),
+        almanac=almanac_for_site(recipe.epoch, site.latitude_deg, site.longitude_deg, site.timezone),
     )

@@ -12,7 +12,7 @@ from __future__ import annotations
 
 import json
 
-from ..sky.site_almanac import almanac_for_site, hh_mm
+from ..sky.site_almanac import hh_mm
 
 FORMAT_NAME = "kitgen-geometry"
 FORMAT_VERSION = 2
@@ -52,19 +52,12 @@ def geometry_dict(kit) -> dict:
 
 def site_and_almanac(kit) -> dict:
     """The ``site`` and ``almanac`` keys (#10): where the kit is for, and
-    its clock correction and sunrise and sunset table for the epoch year.
-    The almanac is computed here from the site (kitgen.sky.site_almanac)
-    until the plan carries it."""
-    plan = getattr(kit, "plan", None)
-    if plan is not None:
-        s, epoch = plan.site, plan.epoch
-        site = (s.latitude_deg, s.longitude_deg, s.timezone, s.place)
-    else:
-        r, epoch = kit.recipe, kit.recipe.epoch
-        site = (r.latitude_deg, r.longitude_deg, r.timezone, r.place)
-    almanac = almanac_for_site(epoch, site[0], site[1], site[2])
+    its clock correction and sunrise and sunset table for the epoch year,
+    as the plan resolved them (kitgen.plan.resolve)."""
+    s, almanac = kit.plan.site, kit.plan.almanac
     return {
-        "site": dict(zip(("latitude_deg", "longitude_deg", "timezone", "place"), site)),
+        "site": {"latitude_deg": s.latitude_deg, "longitude_deg": s.longitude_deg, "timezone": s.timezone,
+                 "place": s.place},
         "almanac": {
             "time": almanac.time,
             "clock_correction": [{"month": m, "day": d, "minutes": round(x, 3)}

@@ -42,9 +42,14 @@ def longitude_at_noon_ut_deg(year: int, month: int, day: int) -> float:
     return float(np.degrees(apparent_longitude_rad(t)))
 
 
-def calendar_longitudes_deg(year: int):
-    """[(month, day, longitude_deg)] for every date of ``year`` at 12:00 UT."""
+def calendar_longitudes_deg(year: int, site_longitude_deg: float | None = None):
+    """[(month, day, longitude_deg)] for every date of ``year``: the Sun's
+    longitude at 12:00 UT, or, given the site's longitude (degrees, east
+    positive), at the site's local mean noon, 12 h - longitude/15 of UT
+    (#10).  (Apparent noon differs by the equation of time, at most 16
+    minutes, in which the Sun moves 0.011 deg: a hair on any calendar.)"""
     dates = days_of_year(year)
-    jd = np.array([julian_date_ut(year, m, d, 12.0) for m, d in dates])
+    noon_ut_h = 12.0 - (site_longitude_deg or 0.0) / 15.0
+    jd = np.array([julian_date_ut(year, m, d, noon_ut_h) for m, d in dates])
     lam = np.degrees(apparent_longitude_rad(julian_centuries_tt(julian_date_tt(jd))))
     return [(m, d, float(x)) for (m, d), x in zip(dates, lam)]
