@@ -109,7 +109,10 @@ def language_name(code: str) -> str:
 
 
 def _file_stem(tree: dict) -> str:
-    stem = re.sub(r"[^A-Za-z0-9]+", "-", str(tree.get("place") or tree.get("title") or "")).strip("-")[:40]
+    """A plain ASCII file name for a download: the place or title, else
+    ``astrolabe-`` and the latitude as typed."""
+    named = str(tree.get("place") or tree.get("title") or "")
+    stem = re.sub(r"[^A-Za-z0-9.]+", "-", named or f"astrolabe {tree.get('latitude', '')}").strip("-.")[:40]
     return stem.lower() or "astrolabe"
 
 

@@ -92,8 +92,9 @@
     const later = debounce(update, DEBOUNCE_MS);
     form.addEventListener("input", function (ev) { if (ev.target.name !== "roster") { later(); } });
     form.addEventListener("change", function (ev) { if (ev.target.name !== "roster") { later(); } });
-    form.kitgenPreview = update;
-    update();
+    // A page given back with values (no JavaScript's preview, a mistake)
+    // is drawn at once; an empty form waits for the first change.
+    if (form.elements["latitude"].value || (form.elements["place"] && form.elements["place"].value)) { update(); }
   }
 
   function setupPages(form) {
