@@ -25,6 +25,7 @@ from __future__ import annotations
 import base64
 import contextlib
 import io
+import logging
 import re
 import shutil
 import tempfile
@@ -43,7 +44,7 @@ from starlette.responses import FileResponse, HTMLResponse, JSONResponse, Redire
 from starlette.routing import Mount, Route
 from starlette.staticfiles import StaticFiles
 
-from ..errors import UserError
+from ..errors import Message, UserError, one_line
 from ..kit import build_kit
 from ..recipe.schema import Recipe
 from ..render.json_export import render_json
@@ -61,6 +62,8 @@ try:  # the gazetteer of #10; the page asks for latitude and longitude without i
     from .. import places as gazetteer
 except ImportError:
     gazetteer = None
+
+log = logging.getLogger("kitgen.web")
 
 #: Largest form body (a recipe's fields are a few hundred bytes).
 MAX_FORM_BYTES = 64 * 1024
@@ -229,6 +232,15 @@ class Web:
         return Response(text, status_code=status, media_type="text/plain; charset=utf-8",
                         headers={"Retry-After": "2"} if status == 503 else None)
 
+    def internal(self, request: Request, exc: Exception) -> Response:
+        """An internal fault: the traceback to the server's log, and to the
+        user the command line's one line (``errors.internal``), status 500."""
+        log.exception("building a kit failed")
+        text = one_line(Message("errors.internal", kind=type(exc).__name__, detail=exc).text(self.words(request)))
+        if "application/json" in request.headers.get("accept", "") or request.url.path.startswith("/api/"):
+            return JSONResponse({"ok": False, "errors": {"": text}}, status_code=500)
+        return Response(text, status_code=500, media_type="text/plain; charset=utf-8")
+
     def tree_and_recipe(self, request: Request, form):
         """``(tree, recipe, errors, values)`` of a submitted form."""
         items = [(k, v) for k, v in form.multi_items() if isinstance(v, str)]
@@ -275,6 +287,8 @@ class Web:
                 return self.plain(request, "busy", 503)
             except UserError as exc:
                 errors = {forms.field_of(exc) or "": exc.text(words)}
+            except Exception as exc:  # kitgen's own fault: one line to the user, the traceback to the log
+                return self.internal(request, exc)
         status = 422 if errors else 200
         return self.render(request, "page.html", status, fields=self.field_view(language, values, errors),
                            errors=errors, previews=previews)
@@ -299,6 +313,8 @@ class Web:
                                 headers={"Retry-After": "2"})
         except UserError as exc:
             return JSONResponse({"ok": False, "errors": {forms.field_of(exc) or "": exc.text(words)}}, 422)
+        except Exception as exc:  # kitgen's own fault: one line to the user, the traceback to the log
+            return self.internal(request, exc)
 
     async def preview(self, request: Request) -> Response:
         return await self.api(request, "preview")
