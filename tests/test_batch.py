@@ -278,3 +278,19 @@ def test_file_names_keep_the_letters_and_are_safe():
     kits = [SetKit(n, Message("errors.none"), tree, 1) for n, tree in
             enumerate([{"owner": "CON"}, {"title": "ab"}, {"owner": "AB"}, {}], start=1)]
     assert kit_file_names(kits) == ["001-CON.pdf", "002-ab.pdf", "003-AB.pdf", "004.pdf"]
+
+
+def test_a_latitude_written_with_colons_reads_as_in_a_recipe(tmp_path):
+    # YAML 1.1 reads a plain 40:26:46 as a base-60 integer (the YAML 1.1
+    # int type's "sexagesimal" form); a set keeps it as written, as a
+    # single recipe does.  Reference: the recipe loader on the same line.
+    from kitgen.batch.setfile import load_set
+    from kitgen.recipe.load import load_recipe
+
+    (tmp_path / "set.yaml").write_text("defaults: {epoch: 2027, latitude: 40:26:46}\n"
+                                       "kits:\n  - {owner: A}\n  - {owner: B, latitude: -33:52:00}\n")
+    (tmp_path / "north.yaml").write_text("epoch: 2027\nlatitude: 40:26:46\n")
+    (tmp_path / "south.yaml").write_text("epoch: 2027\nlatitude: -33:52:00\n")
+    kits = load_set(tmp_path / "set.yaml").kits
+    assert kits[0].recipe.latitude_deg == load_recipe(tmp_path / "north.yaml").latitude_deg
+    assert kits[1].recipe.latitude_deg == load_recipe(tmp_path / "south.yaml").latitude_deg

@@ -86,6 +86,7 @@ def load_set(path) -> KitSet:
     if not isinstance(tree, dict):
         raise UserError("errors.set_not_mapping", source=path)
     _refuse_duplicates(text, path)
+    _keep_sexagesimal_latitudes(text, tree)
     lines = _top_lines(text)
     for name in tree:
         if name not in SET_KEYS:
@@ -276,3 +277,30 @@ def _refuse_duplicates(text: str, path: Path) -> None:
             for item in node.value:
                 walk(item)
     walk(_compose(text))
+
+
+def _keep_sexagesimal_latitudes(text: str, tree: dict) -> None:
+    """A plain ``latitude: 40:26:46`` is a base-60 number to YAML 1.1; keep
+    it as written, as the recipe loader does, for the defaults and every
+    kit of the list."""
+    node = _compose(text)
+    if not isinstance(node, yaml.MappingNode):
+        return
+    for k, v in node.value:
+        if not isinstance(k, yaml.ScalarNode):
+            continue
+        if k.value == "defaults" and isinstance(tree.get("defaults"), dict):
+            _raw_latitude(v, tree["defaults"])
+        elif k.value == "kits" and isinstance(v, yaml.SequenceNode) and isinstance(tree.get("kits"), list):
+            for item_node, item in zip(v.value, tree["kits"]):
+                if isinstance(item, dict):
+                    _raw_latitude(item_node, item)
+
+
+def _raw_latitude(node, mapping: dict) -> None:
+    if not isinstance(node, yaml.MappingNode):
+        return
+    for k, v in node.value:
+        if (isinstance(k, yaml.ScalarNode) and k.value == "latitude" and isinstance(v, yaml.ScalarNode)
+                and v.style is None and ":" in v.value):
+            mapping["latitude"] = v.value
