@@ -188,6 +188,16 @@ def speaking(language: str | None = None, language_file: str | None = None):
         raise
 
 
+def few(items, most: int = 4) -> list:
+    """At most ``most`` of ``items`` for a message, then how many more
+    (``errors.and_more``): a long list comes after the message's reason and
+    never pushes it out of the line."""
+    items = list(items)
+    if len(items) <= most + 1:
+        return items
+    return items[:most] + [Message("errors.and_more", count=len(items) - most)]
+
+
 def _visible(ch: str) -> str:
     if ch in "\t\n\r\v\f":
         return " "

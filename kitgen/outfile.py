@@ -20,7 +20,7 @@ import time
 import unicodedata
 from pathlib import Path
 
-from .errors import Message, UserError
+from .errors import Message, UserError, few
 
 #: How each kind of kitgen output says who made it.  A file counts as
 #: kitgen's own only when it starts as that format starts and carries the
@@ -437,9 +437,9 @@ def _folder_plan(folder: Path, files: dict, force: bool, protect: tuple, own) ->
             foreign.append(entry.name)
         keep.append(entry.name)
     if others:
-        raise UserError("errors.folder_not_files", path=folder, names=_few(others))
+        raise UserError("errors.folder_not_files", path=folder, names=few(others, 3))
     if foreign and not force:
-        raise UserError("errors.folder_foreign", path=folder, names=_few(foreign))
+        raise UserError("errors.folder_foreign", path=folder, names=few(foreign, 3))
     return keep, gone
 
 
@@ -452,13 +452,6 @@ def _discard(folder: Path, names) -> None:
         os.rmdir(folder)
     except OSError:
         pass
-
-
-def _few(names: list, most: int = 3) -> list:
-    """At most ``most`` names, then how many more (for a message)."""
-    if len(names) <= most:
-        return list(names)
-    return list(names[:most]) + [Message("errors.and_more", count=len(names) - most)]
 
 
 def _write_synced(path: Path, data: bytes) -> None:

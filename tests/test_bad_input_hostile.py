@@ -11,6 +11,8 @@ an unsafe loader construct Python objects (PyYAML's documented
 
 from __future__ import annotations
 
+import os
+
 import socket
 from pathlib import Path
 
@@ -88,11 +90,42 @@ def test_huge_file(tmp_path):
 
 
 def test_device_without_end(tmp_path):
-    """A recipe path that never ends (``/dev/zero``) is read no further
-    than the limit."""
+    """A recipe path that never ends (``/dev/zero``) is not read at all: a
+    device is no regular file (#11)."""
     with pytest.raises(UserError) as err:
         load_recipe("/dev/zero")
+    assert "is not a regular file" in str(err.value)
+
+
+def test_a_large_regular_file_is_read_no_further_than_the_limit(tmp_path):
+    big = tmp_path / "big.yaml"
+    with open(big, "wb") as fh:
+        fh.truncate(10 * 1024 * 1024)   # a sparse file of zeros
+    with pytest.raises(UserError) as err:
+        load_recipe(big)
     assert "larger than 256 KiB" in str(err.value)
+
+
+def test_a_fifo_is_refused_without_waiting(tmp_path):
+    """A FIFO with no writer would block open(2) and read(2) for ever
+    (POSIX fifo(7)); it is opened without blocking and refused."""
+    fifo = tmp_path / "r.yaml"
+    os.mkfifo(fifo)
+    with pytest.raises(UserError) as err:
+        load_recipe(fifo)
+    assert "is not a regular file" in str(err.value)
+
+
+@pytest.mark.parametrize("encoding, named", [("utf-32", "UTF-32"), ("utf-32-le", "UTF-32"), ("utf-32-be", "UTF-32"),
+                                             ("utf-16", "UTF-16"), ("utf-16-le", "UTF-16"), ("utf-16-be", "UTF-16")])
+def test_other_unicode_encodings_are_named(tmp_path, encoding, named):
+    """With or without a byte-order mark (The Unicode Standard, 23.8), the
+    encoding is named as it is: UTF-32 is not UTF-16."""
+    p = tmp_path / "r.yaml"
+    p.write_bytes("latitude: 52.2\nepoch: 2027\ntitle: Larkspur Valley School\n".encode(encoding))
+    with pytest.raises(UserError) as err:
+        load_recipe(p)
+    assert f"the file is {named} text" in str(err.value)
 
 
 def test_too_many_values(tmp_path):
@@ -181,7 +214,8 @@ def test_star_name_that_is_a_paragraph(tmp_path):
     ("azimuth_step_deg", "-15", "outside 5 to 90"),
     ("diameter_mm", "1.0e+12", "'diameter_mm' is 1e+12, outside 80 to 600"),
     ("diameter_mm", "0", "'diameter_mm' is 0, outside 80 to 600"),
-    ("epoch", "99999999999999999999999", "'epoch' is 1e+23, outside 1900 to 2100"),
+    ("epoch", "99999999999999999999999", "'epoch' is 99999999999999999999999, outside 1900 to 2100"),
+    ("altitude_step_deg", "30.0000001", "'altitude_step_deg' is 30.0000001, outside 1 to 30"),  # never "is 30"
 ])
 def test_extreme_steps_and_sizes(tmp_path, key, value, needle):
     refused(tmp_path, f"latitude: 40\n{key}: {value}\n", needle)
@@ -226,7 +260,7 @@ def test_hostile_language_file(tmp_path, language_file_key, content, needle):
 
 
 def test_language_file_that_never_ends(tmp_path, language_file_key):
-    refused(tmp_path, "latitude: 40\nlanguage_file: /dev/zero\n", "'language_file'", "larger than")
+    refused(tmp_path, "latitude: 40\nlanguage_file: /dev/zero\n", "'language_file'", "is not a regular file")
 
 
 # -- no network ------------------------------------------------------------------------------

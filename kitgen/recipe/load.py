@@ -17,15 +17,17 @@ from __future__ import annotations
 
 import difflib
 import math
+import os
+import stat
 import unicodedata
 from pathlib import Path
 
 import yaml
 
-from ..errors import Message, UserError, shown, speaking
+from ..errors import Message, UserError, few, shown, speaking
 from ..sky.rete_rim import epoch_obliquity_rad, rete_fits
-from ..sky.stars import closest_name, find_star, outside
-from ..template_files import available_languages
+from ..sky.stars import closest_name, find_star, fold_name, outside, select_stars
+from ..template_files import STAR_NAMES, available_languages, shipped_tree
 from ..words import fonts, locale
 from ..words.templates import MAX_LANGUAGE_FILE_BYTES, check_language_tree
 from .latitude import LatitudeError, parse_latitude
@@ -66,7 +68,12 @@ def read_text_file(path, max_bytes: int = MAX_RECIPE_BYTES, what: Message = RECI
     the kind of file (:data:`RECIPE`, :data:`LANGUAGE_FILE`)."""
     p = Path(path)
     try:
-        with open(p, "rb") as fh:
+        # O_NONBLOCK: a FIFO or a device is refused below, never waited on
+        with open(p, "rb", opener=lambda name, flags: os.open(name, flags | os.O_NONBLOCK)) as fh:
+            if not stat.S_ISREG(os.fstat(fh.fileno()).st_mode):
+                if stat.S_ISDIR(os.fstat(fh.fileno()).st_mode):
+                    raise IsADirectoryError(p)
+                raise UserError("errors.not_regular_file", path=p, what=what)
             data = fh.read(max_bytes + 1)
     except FileNotFoundError:
         raise UserError("errors.no_such_file", path=p, name=p.name, what=what) from None
@@ -78,8 +85,9 @@ def read_text_file(path, max_bytes: int = MAX_RECIPE_BYTES, what: Message = RECI
         raise UserError("errors.cannot_read", path=p, reason=exc.strerror or exc) from None
     if len(data) > max_bytes:
         raise UserError("errors.file_too_large", path=p, kib=max_bytes // 1024, what=what)
-    if data.startswith((b"\xff\xfe", b"\xfe\xff")):
-        raise UserError("errors.utf16", path=p, what=what)
+    encoding = _other_encoding(data)
+    if encoding:
+        raise UserError("errors.other_encoding", path=p, what=what, encoding=encoding)
     if b"\x00" in data:
         raise UserError("errors.not_text_file", path=p, what=what)
     try:
@@ -88,6 +96,30 @@ def read_text_file(path, max_bytes: int = MAX_RECIPE_BYTES, what: Message = RECI
         line = data[: exc.start].count(b"\n") + 1
         raise UserError("errors.not_utf8", where=at_line(p, line), byte=f"{data[exc.start]:02x}",
                         what=what) from None
+
+
+#: Byte-order marks (The Unicode Standard, 16.0, section 23.8, table 23-4),
+#: the longer first: UTF-32's little-endian mark begins as UTF-16's does.
+_BOMS = ((b"\xff\xfe\x00\x00", "UTF-32"), (b"\x00\x00\xfe\xff", "UTF-32"), (b"\xff\xfe", "UTF-16"),
+         (b"\xfe\xff", "UTF-16"))
+
+
+def _other_encoding(data: bytes) -> str | None:
+    """The Unicode encoding other than UTF-8 that ``data`` is written in,
+    by its byte-order mark or, without one, by the zero bytes that ASCII
+    text has in UTF-16 (every second byte) or UTF-32 (three in four);
+    ``None`` for anything else."""
+    for bom, name in _BOMS:
+        if data.startswith(bom):
+            return name
+    head = data[:512]
+    if len(head) >= 8 and b"\x00" in head:
+        zeros = [head[k::4].count(0) / len(head[k::4]) for k in range(4)]
+        if sum(z > 0.9 for z in zeros) == 3 and len(head) % 4 == 0:
+            return "UTF-32"
+        if len(head) % 2 == 0 and (zeros[0] > 0.9 and zeros[2] > 0.9) != (zeros[1] > 0.9 and zeros[3] > 0.9):
+            return "UTF-16"
+    return None
 
 
 def _check_structure(text: str, source, what: Message = RECIPE, max_events: int = MAX_EVENTS) -> None:
@@ -223,8 +255,31 @@ def load_language_file(path) -> dict:
     text = read_text_file(p, MAX_LANGUAGE_FILE_BYTES, LANGUAGE_FILE)
     source = Message("errors.source_language_file", path=p)
     tree = safe_yaml(text, source, LANGUAGE_FILE, max_events=50_000)
-    check_language_tree(tree, source)
+    check_language_tree(tree, source, tree_lines(text))
     return tree
+
+
+def tree_lines(text: str) -> dict:
+    """For each key of a YAML mapping, nested ones as ``a.b``: the line
+    (1-based) of its value, for messages.  Empty when the text is no
+    mapping; only called on text that :func:`safe_yaml` accepted."""
+    try:
+        node = yaml.compose(text, Loader=yaml.SafeLoader)
+    except (yaml.YAMLError, ValueError, RecursionError):
+        return {}
+    out: dict = {}
+
+    def walk(node, prefix: str, depth: int) -> None:
+        if not isinstance(node, yaml.MappingNode) or depth > MAX_DEPTH:
+            return
+        for k, v in node.value:
+            if isinstance(k, yaml.ScalarNode):
+                name = prefix + k.value
+                out.setdefault(name, v.start_mark.line + 1)
+                walk(v, name + ".", depth + 1)
+
+    walk(node, "", 0)
+    return out
 
 
 def resolve_language_file(value: str, source: str, where) -> str:
@@ -256,6 +311,7 @@ def validate_recipe(tree: dict, source=RECIPE, lines: dict | None = None) -> Rec
 
 def _validate(tree: dict, source, lines: dict) -> Recipe:
     values: dict = {}
+    local_stars = _local_star_names(tree, source) if "stars" in tree else {}
     for name, value in tree.items():
         where = at_line(source, lines[name]) if isinstance(name, str) and name in lines else source
         if not isinstance(name, str) or name not in KEYS_BY_NAME:
@@ -264,7 +320,7 @@ def _validate(tree: dict, source, lines: dict) -> Recipe:
                     else Message("errors.hint_valid_keys", names=list(KEYS_BY_NAME)))
             raise UserError("errors.unknown_key", where=where, name=shown(name), hint=hint)
         key = KEYS_BY_NAME[name]
-        values[key.attr] = _check(key, value, where)
+        values[key.attr] = _check(key, value, where, local_stars)
         if key.name == "language_file" and values[key.attr]:
             values[key.attr] = resolve_language_file(values[key.attr], source, where)
     if values.get("plates"):
@@ -318,6 +374,41 @@ def finite_number(value) -> bool:
     return math.isfinite(value)
 
 
+#: No number in a recipe is anywhere near this large (the largest bound of
+#: any key is a few thousand); larger ones are refused before any
+#: conversion, which for an integer of hundreds of digits would overflow.
+MAX_MAGNITUDE = 1e12
+
+
+def _huge_number(value, depth: int = 0):
+    """The first number in ``value`` (or in its lists and mappings, keys
+    included) whose size is beyond :data:`MAX_MAGNITUDE`; ``None`` if none is."""
+    if isinstance(value, bool) or depth > MAX_DEPTH:
+        return None
+    if isinstance(value, int):
+        return value if abs(value) > MAX_MAGNITUDE else None
+    if isinstance(value, float):
+        return value if math.isfinite(value) and abs(value) > MAX_MAGNITUDE else None
+    items = list(value.items()) if isinstance(value, dict) else [(None, v) for v in value] \
+        if isinstance(value, (list, tuple)) else []
+    for k, v in items:
+        for x in (k, v):
+            found = _huge_number(x, depth + 1)
+            if found is not None:
+                return found
+    return None
+
+
+def typed(value) -> str:
+    """A number from the input as the user wrote it, for a message: the
+    shortest text that reads back as the same number (so 30.0000001 is
+    never shown as 30 beside a bound of 30)."""
+    if isinstance(value, float):
+        short = f"{value:g}"
+        return short if float(short) == value else repr(value)
+    return shown(value)
+
+
 def _text_problem(value: str) -> str | None:
     """The first character of ``value`` that cannot be printed, or
     ``None``: control characters and lone surrogates (which no font can
@@ -341,7 +432,7 @@ class KeyHelp(Message):
                          choices=list(key.choices))
 
 
-def _check(key, value, where):
+def _check(key, value, where, local_stars: dict | None = None):
     label = Message("errors.key_label", where=where, name=key.name)
     if key.kind == "plates":
         return _check_plates(value, label, where)
@@ -364,7 +455,7 @@ def _check(key, value, where):
         if key.kind == "integer" and not (isinstance(value, int) or float(value).is_integer()):
             raise UserError("errors.not_whole", label=label, help=about, value=shown(value))
         if not key.low <= value <= key.high:
-            raise UserError("errors.out_of_range", label=label, value=f"{value:g}", low=low, high=high, help=about)
+            raise UserError("errors.out_of_range", label=label, value=typed(value), low=low, high=high, help=about)
         return int(value) if key.kind == "integer" else float(value)
     if key.kind == "string":
         if not isinstance(value, (str, int, float)) or isinstance(value, bool):
@@ -402,8 +493,11 @@ def _check(key, value, where):
             raise UserError("errors.unknown_part", label=label, value=shown(bad[0]), parts=parts)
         return tuple(dict.fromkeys(value))
     if key.kind == "stars":
-        return _check_stars(value, label)
+        return _check_stars(value, label, local_stars or {})
     if key.kind == "parsed":
+        huge = _huge_number(value)
+        if huge is not None:
+            raise UserError("errors.number_far", label=label, value=shown(huge), help=KeyHelp(key))
         try:
             return key.parse(value)
         except ValueError as exc:
@@ -456,24 +550,50 @@ def _known_star(name: str, where):
 
 
 def _check_stars_fit(values: dict, source, lines: dict) -> None:
-    """Named stars must lie on the rete of the recipe's hemisphere."""
-    names = values.get("stars", StarChoice()).names
-    if not names:
-        return
+    """Named stars must lie on the rete of the recipe's hemisphere, and a
+    rule (a magnitude limit, the N brightest) must give the rete at least
+    one star: a choice that selects nothing is a mistake, not a kit."""
+    choice = values.get("stars", StarChoice())
     plates = values.get("plates") or ()
     south = values["latitude_deg"] < 0 or any(p.latitude_deg < 0 for p in plates)
     sign = -1 if south else 1
-    off = outside(names, values["epoch"] + 0.5, rete_fits(sign, epoch_obliquity_rad(values["epoch"])))
-    if not off:
-        return
+    fits = rete_fits(sign, epoch_obliquity_rad(values["epoch"]))
     label = Message("errors.key_label", where=at_line(source, lines["stars"]) if "stars" in lines else source,
                     name="stars")
+    if not choice.names:
+        if choice.magnitude_limit is not None and not select_stars(
+                (), choice.brightest, choice.magnitude_limit, values["epoch"] + 0.5, fits):
+            brightest = min(s.mag for s in select_stars((), None, 9.9, values["epoch"] + 0.5, fits))
+            raise UserError("errors.stars_none_selected", label=label, value=typed(choice.magnitude_limit),
+                            brightest=typed(brightest))
+        return
+    off = outside(choice.names, values["epoch"] + 0.5, fits)
+    if not off:
+        return
     problem = (Message("errors.star_outside", name=off[0]) if len(off) == 1
-               else Message("errors.stars_outside", names=[f"'{n}'" for n in off]))
+               else Message("errors.stars_outside", names=few([f"'{n}'" for n in off]), count=len(off)))
     raise UserError("errors.key_problem", label=label, problem=problem)
 
 
-def _check_stars(value, label: Message) -> StarChoice:
+def _local_star_names(tree: dict, source) -> dict:
+    """The star names the recipe's language prints (its ``star_names``:
+    the Arabic traditional names, say), folded as the catalogue folds
+    names, each to its IAU name: a pupil may write the name the kit
+    prints.  Empty when the language is not yet known to be good."""
+    language, language_file = recipe_language(tree, source)
+    try:
+        if language_file:
+            names = load_language_file(language_file).get(STAR_NAMES) or {}
+        elif language:
+            names = shipped_tree(language).get(STAR_NAMES) or {}
+        else:
+            names = {}
+    except UserError:
+        names = {}
+    return {fold_name(str(local)): str(iau) for iau, local in names.items()}
+
+
+def _check_stars(value, label: Message, local_stars: dict) -> StarChoice:
 
     if isinstance(value, list):
         if not value:
@@ -486,7 +606,7 @@ def _check_stars(value, label: Message) -> StarChoice:
                 raise UserError("errors.star_name_not_text", label=label, value=shown(v))
             if len(v) > MAX_STAR_NAME_CHARS or _text_problem(v):
                 raise UserError("errors.no_star_name", label=label, value=shown(v))
-            names.append(_known_star(v, label).label)
+            names.append(_known_star(local_stars.get(fold_name(v), v), label).label)
         return StarChoice(names=tuple(dict.fromkeys(names)))
     if isinstance(value, dict) and len(value) == 1:
         (rule, n), = value.items()

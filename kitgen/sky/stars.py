@@ -66,6 +66,12 @@ def _fold(text: str) -> str:
     return " ".join(bare.casefold().split())
 
 
+def fold_name(text: str) -> str:
+    """A star's name as names are matched: without regard to case,
+    accents or spacing (:func:`find_star`)."""
+    return _fold(text)
+
+
 @lru_cache(maxsize=1)
 def _index() -> dict[str, Star]:
     index = {}

@@ -15,7 +15,7 @@ from __future__ import annotations
 import string
 import unicodedata
 
-from ..errors import Message, UserError
+from ..errors import Message, UserError, few
 from ..template_files import STAR_NAMES, available_languages, shipped_tree
 from ..template_files import split_tree as _split
 from . import fonts, locale
@@ -129,10 +129,62 @@ def words_from_tree(tree: dict, native_digits: bool = False) -> Words:
     return Words(str(tree["language"]), table, stars, native_digits)
 
 
-def check_language_tree(tree, source) -> None:
+def plain_field_problem(text: str) -> str | None:
+    """The first replacement field of ``text`` that is not a plain
+    ``{name}`` (a format spec such as ``{x:>999999}``, a conversion such as
+    ``{x!r}``, an attribute or index such as ``{x.y}`` or ``{x[0]}``, or an
+    empty ``{}``), as written; ``None`` when all are plain.  Only plain
+    fields are allowed: the others could make ``str.format`` build huge
+    strings or reach into the values.  Raises ``ValueError`` for an
+    unmatched brace (Python's format string syntax)."""
+    for _, field, spec, conversion in string.Formatter().parse(text):
+        if field is None:
+            continue
+        if not field.isidentifier() or spec or conversion is not None:
+            return "{" + field + ("!" + conversion if conversion is not None else "") + (":" + spec if spec else "") + "}"
+    return None
+
+
+def _script_name(code: str) -> str:
+    """An ISO 15924 script code with its English name from CLDR, for a
+    message: ``Hans (Simplified Han)``."""
+    name = locale.cldr_locale("en").scripts.get(code)
+    return f"{code} ({name})" if name else code
+
+
+def _char_names(chars) -> list:
+    return few([f"U+{ord(c):04X} {unicodedata.name(c, '?')}" for c in sorted(chars)], 4)
+
+
+def check_cldr_drawable(code: str, source) -> None:
+    """Refuse a language whose CLDR data (the month names, wide and short,
+    the decimal sign and the locale's own digits) holds a character no
+    shipped font of its script draws: the kit could not print its calendar
+    (the Unicode CLDR through Babel, as :mod:`kitgen.words.locale` reads it)."""
+    script = locale.script(code)
+    faces = tuple(fonts.stack(script, "label")) + tuple(fonts.stack(script, "bold"))
+    data = {"calendar.months (CLDR)": locale.month_names(code),
+            "calendar.months_short (CLDR)": locale.month_names(code, "abbreviated"),
+            "numbers (CLDR)": [locale.format_number(1.5, 1, code),
+                               locale.format_number(1234567890, 0, code, native_digits=True)]}
+    for key, texts in data.items():
+        lost = set().union(*(fonts.missing_chars(t, faces) for t in texts))
+        if lost:
+            raise UserError("errors.language_script", where=source, key=key, script=_script_name(script),
+                            chars=_char_names(lost))
+
+
+def check_language_tree(tree, source, lines: dict | None = None) -> None:
     """Check a language tree against the English template: the same keys,
-    the same placeholders, lists of the same length, plain text only, a
-    language code that CLDR knows, and every character in the fonts."""
+    the same plain ``{name}`` placeholders, lists of the same length, plain
+    text only, a language code that CLDR knows, and every character, the
+    CLDR month names and digits it brings in too, in the shipped fonts.
+    ``lines`` (dotted key -> line in the file) lets a message name the line."""
+    lines = lines or {}
+
+    def where(key: str):
+        return Message("errors.at_line", source=source, line=lines[key]) if key in lines else source
+
     if not isinstance(tree, dict):
         raise UserError("errors.language_not_mapping", source=source)
     code = tree.get("language")
@@ -147,6 +199,7 @@ def check_language_tree(tree, source) -> None:
     stars = tree.get(STAR_NAMES) or {}
     if not isinstance(stars, dict) or not all(isinstance(v, str) for v in stars.values()):
         raise UserError("errors.language_star_names", source=source, section=STAR_NAMES)
+    check_cldr_drawable(code, source)
     english, _ = _split(shipped_tree("en"))
     try:
         table, _ = _split(tree)
@@ -164,16 +217,26 @@ def check_language_tree(tree, source) -> None:
         if isinstance(want, list) != isinstance(got, list) or (isinstance(want, list) and len(want) != len(got)):
             n = len(want) if isinstance(want, list) else 1
             raise UserError("errors.language_list_length", source=source, key=key, count=n)
-        try:
-            if placeholders(want) != placeholders(got):
-                fields = ["{" + f + "}" for f in sorted(placeholders(want))] or Message("errors.none")
-                raise UserError("errors.language_placeholders", source=source, key=key, fields=fields)
-        except ValueError:
-            raise UserError("errors.language_unmatched_brace", source=source, key=key) from None
         for text in got if isinstance(got, list) else [got]:
             if len(text) > MAX_STRING_CHARS:
-                raise UserError("errors.language_string_long", source=source, key=key, limit=MAX_STRING_CHARS)
+                raise UserError("errors.language_string_long", source=where(key), key=key, limit=MAX_STRING_CHARS)
+            try:
+                odd = plain_field_problem(text)
+            except ValueError:
+                raise UserError("errors.language_unmatched_brace", source=where(key), key=key) from None
+            if odd:
+                raise UserError("errors.language_format_field", where=where(key), key=key, field=odd)
+        if placeholders(want) != placeholders(got):
+            fields = ["{" + f + "}" for f in sorted(placeholders(want))] or Message("errors.none")
+            raise UserError("errors.language_placeholders", source=where(key), key=key, fields=fields)
+        for text in got if isinstance(got, list) else [got]:
             lost = fonts.missing_chars(text, faces)
             if lost:
-                chars = [f"U+{ord(c):04X} {unicodedata.name(c, '?')}" for c in sorted(lost)]
-                raise UserError("errors.language_chars", source=source, key=key, chars=chars)
+                raise UserError("errors.language_script", where=where(key), key=key,
+                                script=_script_name(locale.script(code)), chars=_char_names(lost))
+    for name, local in stars.items():
+        lost = fonts.missing_chars(local, faces)
+        if lost:
+            key = f"{STAR_NAMES}.{name}"
+            raise UserError("errors.language_script", where=where(key), key=key,
+                            script=_script_name(locale.script(code)), chars=_char_names(lost))
