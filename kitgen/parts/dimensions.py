@@ -29,6 +29,12 @@ from dataclasses import dataclass
 MIN_TEXT_PT = 5.0
 MIN_TITLE_PT = 8.0
 MIN_TICK_MM = 0.8
+#: Narrowest ring of the mater's back that carries ticks, numbers and
+#: names (the ecliptic-longitude and calendar rings): enough, at the
+#: 5 pt minimum, for the tallest sign or month name and the digits of
+#: every shipped language (kitgen.parts.ring_numbers.ring_needed_mm,
+#: 5.63 mm in Arabic, checked by tests/test_back_and_rete.py).
+MIN_NAMED_RING_MM = 5.7
 
 
 @dataclass(frozen=True)
@@ -78,6 +84,6 @@ def dimensions(diameter_mm: float, obliquity_rad: float) -> Dimensions:
         title_pt=max(MIN_TITLE_PT, 11.0 * s),
         tick_mm=max(MIN_TICK_MM, 1.2 * s),
         back_altitude_ring_mm=r * 0.90,
-        back_zodiac_ring_mm=r * 0.80,
-        back_calendar_ring_mm=r * 0.68,
+        back_zodiac_ring_mm=r * 0.90 - max(0.10 * r, MIN_NAMED_RING_MM),
+        back_calendar_ring_mm=r * 0.90 - max(0.10 * r, MIN_NAMED_RING_MM) - max(0.12 * r, MIN_NAMED_RING_MM),
     )

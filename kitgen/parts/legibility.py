@@ -41,10 +41,11 @@ import numpy as np
 
 from ..errors import Message, Number
 from ..projection.circles import PlaneCircle, project_circle
-from ..projection.stereographic import horizontal_vector, project_vectors
+from ..projection.stereographic import equatorial_vector, horizontal_vector, project_vectors
 from ..geometry.style import stroke_width_mm
 from .ecliptic_points import ecliptic_points_mm
-from .labels import MARGIN_MM, text_box_mm
+from .labels import text_box_mm
+from .ring_numbers import SIGN_NUMBERS_DEG, number_row, ring_needed_mm
 from .shadow_square import LABELLED_RATIOS, decimals, shadow_mark, shadow_side_mm
 
 MIN_CLEAR_GAP_MM = 0.4
@@ -86,6 +87,7 @@ class Scales:
     ecliptic_ticks_deg: tuple[int, ...]       # rete: longitudes that carry a tick
     shadow_labels: tuple[float, ...]          # mater back: shadow-square ratios numbered
     notes: tuple[Message, ...] = ()
+    ecliptic_numbers_deg: tuple[int, ...] = ()  # rete: longitudes numbered (10 and 20 of each sign)
 
 
 def gap_mm(pitch_mm: float, width_mm: float) -> float:
@@ -273,12 +275,19 @@ def plan_scales(plan, plate, dims) -> Scales:
         notes.append(Message("notes.ecliptic_ticks", part=PART_NAMES["rete"], left_out=Number(360 - len(ecliptic)),
                              total=Number(360), gap=Number(MIN_CLEAR_GAP_MM, 1), diameter=size, kept=Number(5)))
 
+    numbers = ecliptic_numbers(sky, s, R, dims, words)
+    skipped = [lon for lon in range(360) if lon % 30 in SIGN_NUMBERS_DEG and lon not in numbers]
+    if skipped:
+        notes.append(Message("notes.ecliptic_numbers", part=PART_NAMES["rete"],
+                             longitudes=[Number(lon) for lon in skipped], diameter=size))
+
     shadow = _shadow_labels(dims, words)
     dropped = [r for r in LABELLED_RATIOS if r not in shadow]
     if dropped:
         notes.append(Message("notes.shadow_numbers", part=PART_NAMES["mater_back"],
                              ratios=[Number(r) for r in dropped], diameter=size))
-    return Scales(step, labels, az_step, hour, degree, altitude, zodiac, days, ecliptic, shadow, tuple(notes))
+    return Scales(step, labels, az_step, hour, degree, altitude, zodiac, days, ecliptic, shadow, tuple(notes),
+                  numbers)
 
 
 def _ecliptic_ticks(sky, s, R, light_mm: float, medium_mm: float) -> tuple[int, ...]:
@@ -328,17 +337,42 @@ def _shadow_labels(dims, words) -> tuple[float, ...]:
     return tuple(sorted(out))
 
 
-#: Rete: the share of the ecliptic band the 10-degree ticks reach into.
-ECLIPTIC_TICK_TIP = 0.42
-
-
 def ecliptic_band_mm(radius_mm: float, dims, words) -> float:
     """Width (mm) of the rete's ecliptic band: a share of the ecliptic's
-    radius, at least 3.5 mm, and at least enough to hold the tallest sign
-    name at the label size beside the 10-degree ticks, with the labels'
-    margin above and below (kitgen.parts.labels.MARGIN_MM)."""
+    radius, at least 3.5 mm, and at least enough to hold, past the ticks,
+    the row of numbers and the tallest sign name at the label size, with
+    the labels' margins (kitgen.parts.ring_numbers)."""
     tallest = max(words.measure(name, dims.small_text_pt).height_mm for name in words.items("zodiac.signs"))
-    return max(3.5, 0.11 * radius_mm, (tallest + 2 * MARGIN_MM + 0.05) / (1.0 - ECLIPTIC_TICK_TIP))
+    return max(3.5, 0.11 * radius_mm, ring_needed_mm(words, dims.small_text_pt, tallest))
+
+
+def ecliptic_numbers(sky, s, R, dims, words) -> tuple[int, ...]:
+    """Rete: the longitudes numbered, 10 and 20 of each sign, each whose
+    number (measured) keeps :data:`MIN_LABEL_GAP_MM` from the ticks of
+    the sign's bounds and from the other number, 10 degrees away on
+    either side, where the projection crowds the ecliptic least near the
+    pin (measured along the chord at the row of numbers)."""
+    from_pole = project_circle(_ecliptic_pole(sky.obliquity_rad), math.pi / 2, s, R)
+    c, r = np.asarray(from_pole.center_mm), from_pole.radius_mm
+    band = ecliptic_band_mm(r, dims, words)
+    lift, h = number_row(words, dims.small_text_pt, band)
+    shrink = (r - lift - h / 2) / r
+    out = []
+    for lon in range(360):
+        if lon % 30 not in SIGN_NUMBERS_DEG:
+            continue
+        me, before, after = ecliptic_points_mm(np.array([lon, lon - 10.0, lon + 10.0]), sky.obliquity_rad, s, R)
+        width = words.measure(words.number(lon % 30), dims.small_text_pt).width_mm
+        room = min(np.hypot(*(me - before)), np.hypot(*(me - after))) * shrink
+        if room >= width + MIN_LABEL_GAP_MM:
+            out.append(lon)
+    return tuple(out)
+
+
+def _ecliptic_pole(obliquity_rad: float):
+    """The ecliptic's north pole in the equatorial frame of the rete
+    (right ascension 270 deg, at hour angle -270 deg)."""
+    return equatorial_vector(-math.radians(270.0), math.pi / 2 - obliquity_rad)
 
 
 def shortened_notes(parts, dims, words) -> tuple[Message, ...]:

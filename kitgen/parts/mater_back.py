@@ -14,6 +14,7 @@ import math
 
 from ..geometry import model
 from . import curves, labels
+from .ring_numbers import NUMBERED_TICK, SHORT_TICK, SIGN_NUMBERS_DEG, names_from_edge_mm, number_row
 from .context import PartContext
 from .shadow_square import LABELLED_RATIOS, SHADOW_RATIOS, decimals, shadow_mark, shadow_side_mm
 
@@ -32,7 +33,13 @@ def mater_back(ctx: PartContext) -> model.Part:
            model.arc("scale_edge", (0.0, 0.0), r_alt, 0.0, 180.0, "medium"),
            model.circle("scale_edge", (0.0, 0.0), r_zod, "medium"),
            model.circle("scale_edge", (0.0, 0.0), r_cal, "medium"),
-           model.segment("scale_edge", (-R, 0.0), (R, 0.0), "light")]
+           # The horizontal: the altitude scale's base and the shadow
+           # square's top, broken across the calendar ring, whose numbers
+           # stand there at the equinoxes (the zodiac ring's first ticks
+           # of Aries and Libra lie along it).
+           model.segment("scale_edge", (-R, 0.0), (-r_zod, 0.0), "light"),
+           model.segment("scale_edge", (-r_cal, 0.0), (r_cal, 0.0), "light"),
+           model.segment("scale_edge", (r_zod, 0.0), (R, 0.0), "light")]
     els += _altitude_scale(d, w, r_alt, R, ctx.scales.altitude_tick_deg)
     els += _zodiac_scale(d, w, r_zod, r_alt, ctx.scales.zodiac_tick_deg)
     els += _calendar_scale(ctx, r_cal, r_zod)
@@ -40,9 +47,9 @@ def mater_back(ctx: PartContext) -> model.Part:
     # Title, place and epoch inside the calendar ring, each fitted to the
     # chord of that ring at the far edge of its room.
     for role, y_frac, h_frac, text, size, style in (
-            ("title", 0.55, 0.22, ctx.plan.title or w("kit.default_title"), d.title_pt, "bold"),
-            ("place", 0.40, 0.09, ctx.plan.site.place, d.text_pt, "label"),
-            ("epoch", 0.28, 0.09, w("mater_back.epoch", year=w.number(ctx.plan.epoch)), d.small_text_pt, "label")):
+            ("title", 0.50, 0.22, ctx.plan.title or w("kit.default_title"), d.title_pt, "bold"),
+            ("place", 0.35, 0.09, ctx.plan.site.place, d.text_pt, "label"),
+            ("epoch", 0.24, 0.09, w("mater_back.epoch", year=w.number(ctx.plan.epoch)), d.small_text_pt, "label")):
         if text:
             y, h = r_cal * y_frac, r_cal * h_frac
             room = 2 * math.sqrt((r_cal - labels.MARGIN_MM) ** 2 - (y + h / 2) ** 2)
@@ -68,29 +75,57 @@ def _altitude_scale(d, w, r0, r1, every_deg=1):
 
 
 def _zodiac_scale(d, w, r0, r1, every_deg=1):
+    """Ecliptic longitude, every degree, from the ring's inner edge out:
+    ticks, then the numbers 10 and 20 of each sign at their ticks' tips,
+    then the sign's name (the rete's ecliptic is labelled alike,
+    kitgen.parts.rete)."""
     out, ring = [], r1 - r0
     signs = w.items("zodiac.signs")
     for lon in range(360):
         if lon % 30 == 0:
             length, stroke = ring, "medium"
         else:
-            length = ring * (0.4 if lon % 10 == 0 else 0.28 if lon % 5 == 0 else 0.15)
+            length = ring * (NUMBERED_TICK if lon % 5 == 0 else SHORT_TICK)
             stroke = "light" if lon % 5 == 0 else "fine"
         if lon % every_deg:
             stroke = "none"  # thinned at this size (kitgen.parts.legibility): kept, not drawn
         out.append(curves.radial_tick("zodiac_tick", longitude_direction_deg(lon), r0, r0 + length, r0, stroke,
                                       longitude_deg=float(lon)))
-    # The names stand between the tips of the 10-degree ticks (0.4 of the
-    # ring) and the ring's outer edge, within their own 30 degrees.
-    r_label = r0 + 0.70 * ring
+    lift, h = number_row(w, d.small_text_pt, ring)
+    r_num = r0 + lift + h / 2
+    for lon in range(360):
+        if lon % 30 in SIGN_NUMBERS_DEG:
+            out.append(curves.ring_text("zodiac_number", w.number(lon % 30), longitude_direction_deg(lon), r_num,
+                                        d.small_text_pt, longitude_deg=float(lon)))
+    # The names stand between the numbers and the ring's outer edge,
+    # within their own 30 degrees.
+    inner = r0 + names_from_edge_mm(w, d.small_text_pt, ring)
+    r_label = (inner + r1) / 2
     for k in range(12):
         out += labels.ring_label("zodiac_label", signs[k], longitude_direction_deg(30 * k + 15), r_label,
                                  d.small_text_pt, w, labels.chord_mm(r_label, 28.0) - 2 * labels.MARGIN_MM,
-                                 0.6 * ring - 2 * labels.MARGIN_MM, longitude_deg=30.0 * k + 15.0)
+                                 r1 - inner - 2 * labels.MARGIN_MM, longitude_deg=30.0 * k + 15.0)
     return out
 
 
+def numbered_days(lons_by_date, r_mm, width_mm, gap_mm):
+    """The days of each month numbered on a calendar ring of radius
+    ``r_mm``: the 10th and the 20th always, and the 5th, 15th and 25th
+    where every number, ``width_mm`` wide at most, keeps ``gap_mm`` from
+    its neighbours and from the month's boundary ticks (measured along the
+    ring at the closest days of the year)."""
+    days = sorted(lons_by_date)
+    lon = [lons_by_date[k] for k in days]
+    steps = [((b - a) % 360.0) for a, b in zip(lon, lon[1:] + lon[:1])]
+    daily_mm = r_mm * math.radians(min(steps))
+    fives = 5 * daily_mm >= width_mm + gap_mm and 4 * daily_mm >= width_mm / 2 + gap_mm
+    return (5, 10, 15, 20, 25) if fives else (10, 20)
+
+
 def _calendar_scale(ctx, r0, r1):
+    """One tick a day, from the ring's outer edge in: the months' first days
+    across the ring, the days numbered at their ticks' tips (at least the
+    10th and the 20th), and the month's name nearest the centre."""
     d, w = ctx.dims, ctx.words
     out, ring = [], r1 - r0
     months = w.items("calendar.months")
@@ -103,7 +138,7 @@ def _calendar_scale(ctx, r0, r1):
             length, stroke = ring, "medium"
             first[month] = lon
         else:
-            length = ring * (0.42 if day % 10 == 0 else 0.3 if day % 5 == 0 else 0.16)
+            length = ring * (NUMBERED_TICK if day % 5 == 0 else SHORT_TICK)
             stroke = "light" if day % 5 == 0 else "fine"
         # Where daily ticks are too fine for this size (kitgen.parts.legibility)
         # only every 5th day and the 1st are drawn, but not a month's last

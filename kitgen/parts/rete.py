@@ -17,7 +17,8 @@ import numpy as np
 from ..geometry import model
 from ..projection.circles import project_circle
 from ..projection.stereographic import equatorial_vector, project
-from . import labels, legibility
+from . import curves, labels, legibility
+from .ring_numbers import NUMBERED_TICK, SHORT_TICK, SIGN_NUMBERS_DEG, names_from_edge_mm, number_row
 from .context import PartContext
 from .ecliptic_points import ecliptic_points_mm
 
@@ -44,26 +45,35 @@ def rete(ctx: PartContext) -> model.Part:
     lons = np.arange(0.0, 360.0, 1.0)
     pts = ecliptic_points_mm(lons, eps, s, R)
     drawn = set(ctx.scales.ecliptic_ticks_deg)  # 1-degree ticks drawn only where they have room
+    # Laid out as the mater back's ecliptic scale (kitgen.parts.ring_numbers),
+    # from the ecliptic inwards: ticks, the numbers 10 and 20 of each sign,
+    # then the sign's name.
     for lon, p in zip(lons, pts):
         u = (c - p) / np.linalg.norm(c - p)
         if lon % 30 == 0:
             length = band
-        elif lon % 10 == 0:
-            length = band * 0.4
-        elif lon % 5 == 0:
-            length = band * 0.3
         else:
-            length = band * 0.18
+            length = band * (NUMBERED_TICK if lon % 5 == 0 else SHORT_TICK)
         stroke = ("light" if lon % 5 else "medium") if int(lon) in drawn else "none"  # "none": kept, not drawn
         els.append(model.segment("ecliptic_tick", p, p + u * length, stroke,
                                  at=(float(p[0]), float(p[1])), longitude_deg=float(lon)))
+    lift, digits_h = number_row(w, d.small_text_pt, band)
+    r_num = image.radius_mm - lift - digits_h / 2
+    for lon in ctx.scales.ecliptic_numbers_deg:
+        p = ecliptic_points_mm(np.array([float(lon)]), eps, s, R)[0]
+        ang = math.degrees(math.atan2(p[1] - c[1], p[0] - c[0]))
+        els.append(curves.ring_text("ecliptic_number", w.number(lon % 30), ang, r_num, d.small_text_pt,
+                                    center=tuple(c), longitude_deg=float(lon)))
     signs = w.items("zodiac.signs")
     mids = ecliptic_points_mm(np.arange(15.0, 360.0, 30.0), eps, s, R)
-    # Each name sits in the inner part of the band, clear of the 10-degree
-    # ticks (0.4 of the band), and within its own 30 degrees.
-    tick_tip = 0.42 * band
-    r_label = image.radius_mm - (tick_tip + band) / 2
+    # Each name sits in the inner part of the band, past the numbers (or,
+    # in a sign too crowded for them, right past the ticks), and within
+    # its own 30 degrees.
+    numbered = set(ctx.scales.ecliptic_numbers_deg)
     for k, p in enumerate(mids):
+        crowded = not numbered & {30 * k + n for n in SIGN_NUMBERS_DEG}
+        tick_tip = lift if crowded else names_from_edge_mm(w, d.small_text_pt, band)
+        r_label = image.radius_mm - (tick_tip + band) / 2
         ang = math.degrees(math.atan2(p[1] - c[1], p[0] - c[0]))
         ends = ecliptic_points_mm(np.array([30.0 * k + 1.0, 30.0 * k + 29.0]), eps, s, R)
         room = float(np.hypot(*(ends[1] - ends[0]))) * r_label / image.radius_mm - 2 * labels.MARGIN_MM

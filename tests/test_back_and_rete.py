@@ -1,0 +1,155 @@
+"""The mater's back and the rete read without counting (#9): the calendar's
+days numbered beside their ticks, the 10 and 20 of every zodiac sign
+numbered on the back and on the rete's ecliptic alike, and no tick drawn
+over those numbers.
+
+References: the lengths of the months from Python's ``calendar`` module
+(the proleptic Gregorian calendar); the ticks' own ``at`` from the JSON
+contract (whose places are checked against DE421 in
+test_reading_against_de421.py and test_kit_against_references.py); the
+numbers' boxes measured with the shipped fonts' outlines
+(``Words.measure``) and turned as the PDF sets them.
+"""
+
+from __future__ import annotations
+
+import calendar
+import math
+
+import pytest
+
+from kitgen.kit import build_kit
+from kitgen.parts.dimensions import MIN_NAMED_RING_MM
+from kitgen.parts.ring_numbers import ring_needed_mm
+from kitgen.recipe.load import parse_recipe_text
+from kitgen.words.measure import text_corners_mm
+from kitgen.words.templates import load_words
+
+LANGUAGES = ("en", "es", "fr", "de", "pt", "it", "el", "ru", "ar", "hi")
+NOT_PLATE = "parts: [rete, mater_front, mater_back, rule, alidade]\n"
+
+
+def kit_of(text: str):
+    return build_kit(parse_recipe_text("epoch: 2027\n" + text))
+
+
+@pytest.fixture(scope="module", params=[("latitude: 52.2\n", 180), ("latitude: -33.9\n", 80),
+                                        ("latitude: 0.5\nlanguage: ar\n", 120)],
+                ids=["north-180", "south-80", "equator-ar-120"])
+def kit(request):
+    head, diameter = request.param
+    return kit_of(head + f"diameter_mm: {diameter}\n" + NOT_PLATE)
+
+
+def _box(el, words):
+    ext = words.measure(el.geom["text"], el.geom["size_pt"])
+    return text_corners_mm(el.geom["at"], ext.width_mm, ext.height_mm, el.geom["angle_deg"], el.geom["anchor"])
+
+
+def _segment_meets_box(p, q, corners) -> bool:
+    """Whether segment pq meets the turned box (Liang-Barsky clipping in
+    the box's own frame)."""
+    (x0, y0), (x1, y1), _, (x3, y3) = corners
+    ux, uy = x1 - x0, y1 - y0
+    vx, vy = x3 - x0, y3 - y0
+    lu, lv = math.hypot(ux, uy), math.hypot(vx, vy)
+    ux, uy, vx, vy = ux / lu, uy / lu, vx / lv, vy / lv
+
+    def local(pt):
+        dx, dy = pt[0] - x0, pt[1] - y0
+        return dx * ux + dy * uy, dx * vx + dy * vy
+
+    (a0, b0), (a1, b1) = local(p), local(q)
+    t0, t1 = 0.0, 1.0
+    for d, lo, hi, start in ((a1 - a0, 0.0, lu, a0), (b1 - b0, 0.0, lv, b0)):
+        if abs(d) < 1e-12:
+            if start < lo or start > hi:
+                return False
+            continue
+        ta, tb = (lo - start) / d, (hi - start) / d
+        t0, t1 = max(t0, min(ta, tb)), min(t1, max(ta, tb))
+        if t0 > t1:
+            return False
+    return True
+
+
+def test_days_10_and_20_of_every_month_numbered_beside_their_ticks(kit):
+    back, w = kit.part("mater_back"), kit.words
+    ticks = {(e.values["month"], e.values["day"]): e for e in back.elements if e.role == "calendar_tick"}
+    numbers = {(e.values["month"], e.values["day"]): e for e in back.elements if e.role == "day_label"}
+    for month in range(1, 13):
+        # Python's calendar: the month's length in the proleptic Gregorian calendar
+        days = calendar.monthrange(kit.plan.epoch, month)[1]
+        assert sum(m == month for m, _ in ticks) == days
+        assert ticks[(month, 1)].stroke != "none"  # the month's boundary is drawn
+        for day in (10, 20):
+            label, tick = numbers[(month, day)], ticks[(month, day)]
+            assert label.geom["text"] == w.number(day)
+            # beside its tick: within 4 mm of the point it marks
+            assert math.dist(label.geom["at"], tick.values["at"]) < 4.0, (month, day)
+    # every 5 where there is room: at 180 mm there is (5-day pitch ~6 mm, a number ~2.6 mm)
+    if 2 * kit.dims.mater_radius_mm >= 180:
+        assert {d for _, d in numbers} == {5, 10, 15, 20, 25}
+
+
+def _sign_numbers(part, role, words):
+    out = {}
+    for e in part.elements:
+        if e.role == role:
+            lon = e.values["longitude_deg"]
+            out[int(round(lon))] = e
+            assert e.geom["text"] == words.number(int(round(lon)) % 30)
+    return out
+
+
+def test_zodiac_10_and_20_numbered_on_back_and_rete_alike(kit):
+    w = kit.words
+    back = _sign_numbers(kit.part("mater_back"), "zodiac_number", w)
+    wanted = {30 * k + n for k in range(12) for n in (10, 20)}
+    assert set(back) == wanted
+    ticks = {int(round(e.values["longitude_deg"])): e for e in kit.part("mater_back").elements
+             if e.role == "zodiac_tick"}
+    for lon, label in back.items():
+        assert math.dist(label.geom["at"], ticks[lon].values["at"]) < 4.0
+    rete = _sign_numbers(kit.part("rete"), "ecliptic_number", w)
+    rticks = {int(round(e.values["longitude_deg"])): e for e in kit.part("rete").elements
+              if e.role == "ecliptic_tick"}
+    for lon, label in rete.items():
+        assert math.dist(label.geom["at"], rticks[lon].values["at"]) < 4.0
+    # The same numbers for the same longitudes; on the rete, a number too
+    # crowded to print near the pin is said in the notes.
+    assert set(rete) <= wanted
+    said = [n for n in kit.notes if n.key == "notes.ecliptic_numbers"]
+    if set(rete) != wanted:
+        assert [int(x.value) for x in said[0].values["longitudes"]] == sorted(wanted - set(rete))
+    else:
+        assert not said
+
+
+def test_the_default_rete_numbers_every_sign():
+    kit = kit_of("latitude: 52.2\n" + NOT_PLATE)
+    rete = {e.values["longitude_deg"] for e in kit.part("rete").elements if e.role == "ecliptic_number"}
+    assert len(rete) == 24
+
+
+def test_no_tick_over_the_numbers(kit):
+    w = kit.words
+    for kind, number_role, tick_roles in (("mater_back", ("day_label", "zodiac_number"),
+                                            ("calendar_tick", "zodiac_tick", "scale_edge")),
+                                           ("rete", ("ecliptic_number",), ("ecliptic_tick",))):
+        part = kit.part(kind)
+        segs = [e for e in part.elements if e.shape == "segment" and e.role in tick_roles and e.stroke != "none"]
+        for label in (e for e in part.elements if e.role in number_role):
+            corners = _box(label, w)
+            hit = [s for s in segs if _segment_meets_box(s.geom["from"], s.geom["to"], corners)]
+            assert not hit, (kind, label.values, [s.values for s in hit][:3])
+
+
+@pytest.mark.parametrize("language", LANGUAGES)
+def test_named_rings_hold_numbers_and_names_at_the_minimum_size(language):
+    """The back's narrowest named ring holds the ticks, the digits and the
+    tallest sign or month name at 5 pt, measured in every language."""
+    w = load_words(language)
+    names = list(w.items("zodiac.signs")) + list(w.items("calendar.months")) + list(w.items("calendar.months_short"))
+    tallest = max(w.measure(n, 5.0).height_mm for n in names)
+    assert ring_needed_mm(w, 5.0, tallest) <= MIN_NAMED_RING_MM
