@@ -74,10 +74,25 @@ ACCENTS = {
     "unequal_hour": (0.420, 0.227, 0.478),   # plum, #6B3A7A
 }
 
-#: Pin marks (mm, fixed sizes) and the smallest dot drawn (mm).
+#: Pin marks (mm, fixed sizes) and the smallest dot drawn (mm).  The
+#: holes are cut circles of a physical size, not of the kit's scale: the
+#: centre hole takes the shank of a brass paper fastener (about 2 mm across,
+#: from memory of common ones; recipe key ``pin_hole_mm``), the alidade's
+#: vane holes are pinholes that throw a small spot of sunlight (recipe key
+#: ``sight_hole_mm``; 1 mm is common practice for pinhole sights).
 PIN_CROSS_HALF_MM = 2.0
-PIN_HOLE_RADIUS_MM = 0.9
+PIN_HOLE_MM = 1.8
+SIGHT_HOLE_MM = 1.0
 MIN_DOT_RADIUS_MM = 0.35
+
+#: The colours laser-cutter software sorts an SVG's jobs by (common practice
+#: of cutting services; each service states its own, hence the recipe key
+#: ``cutter_colours``): cut through in pure red, score (the folds) in pure
+#: blue, engrave in black.  Cut and score lines are hairlines of
+#: :data:`HAIRLINE_MM` (0.001 in, the width services ask for, from memory):
+#: thin, but never zero, so every program still draws them.
+CUTTER_COLOURS = {"cut": "#FF0000", "score": "#0000FF", "engrave": "#000000"}
+HAIRLINE_MM = 0.0254
 
 
 @dataclass(frozen=True)
@@ -135,11 +150,12 @@ def dot_radius_mm(dims) -> float:
     return max(MIN_DOT_RADIUS_MM, 0.45 * _scale(dims))
 
 
-def pin_hole_radius_mm(dims) -> float:
-    """Radius (mm) of the hole circle drawn at a pin.  It marks a physical
-    size, the shank of a paper fastener (about 2 mm across, from memory of
-    common ones), so it does not grow with the kit."""
-    return PIN_HOLE_RADIUS_MM
+def pin_hole_radius_mm(hole: str, pin_hole_mm: float = PIN_HOLE_MM, sight_hole_mm: float = SIGHT_HOLE_MM) -> float:
+    """Radius (mm) of the cut circle at a pin: ``hole`` is ``centre`` (the
+    fastener's hole) or ``sight`` (an alidade vane's pinhole); diameters as
+    the recipe states them.  A physical size, so it does not grow with the
+    kit."""
+    return (sight_hole_mm if hole == "sight" else pin_hole_mm) / 2.0
 
 
 def pin_cross_half_mm(dims) -> float:

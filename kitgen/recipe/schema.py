@@ -16,7 +16,9 @@ from .longitude import parse_longitude
 from .site import parse_timezone
 from .twilight import DEFAULT as DEFAULT_TWILIGHT, parse_twilight
 
+from .cutter import parse_cutter_colours
 from .print_scale import parse_print_scale
+from ..geometry.style import CUTTER_COLOURS, PIN_HOLE_MM, SIGHT_HOLE_MM
 from ..paper import DEFAULT_MARGIN_MM, MAX_MARGIN_MM, MIN_MARGIN_MM, SHEET_SIZES_MM, parse_sheet
 
 SHEETS = tuple(SHEET_SIZES_MM)
@@ -170,6 +172,14 @@ KEYS: tuple[Key, ...] = (
     Key("twilight", "twilight", "parsed",
         "twilight circles to draw: civil (-6°), nautical (-12°), astronomical (-18°), a list of these, or none "
         "(true: astronomical)", example="astronomical", parse=parse_twilight),
+    Key("cutter_colours", "cutter_colours", "parsed",
+        "colours of the SVG's lines for a laser cutter: cut (through), score (folds) and engrave (everything "
+        "else), as #RRGGBB", example=dict(CUTTER_COLOURS), parse=parse_cutter_colours),
+    Key("pin_hole_mm", "pin_hole_mm", "number",
+        "diameter of the hole cut at the centre of each part for the paper fastener, mm", 0.5, 8.0,
+        example=PIN_HOLE_MM),
+    Key("sight_hole_mm", "sight_hole_mm", "number", "diameter of the pinholes in the alidade's vanes, mm",
+        0.3, 4.0, example=SIGHT_HOLE_MM),
     Key("unequal_hours", "unequal_hours", "bool", "draw the unequal (temporal) hour curves", example=True),
     Key("parts", "parts", "parts", f"which parts to print, of: {', '.join(PARTS)}", choices=PARTS,
         example=list(PARTS)),

@@ -14,6 +14,7 @@ from reportlab.lib.units import mm
 from reportlab.pdfgen.canvas import Canvas
 
 from . import pdf_text
+from .pdf import ask_actual_size
 from .pdf_text import Block
 
 #: Line widths (mm): the bar itself and its ticks.
@@ -73,6 +74,7 @@ def render_calibration_pdf(page, words) -> bytes:
     c.setTitle(words("calibrate.title"))
     c.setAuthor("")
     c.setCreator("kitgen")
+    ask_actual_size(c)
     c.setLineCap(0)
     c.setStrokeGray(0.0)
     c.setFillGray(0.0)

@@ -25,6 +25,7 @@ from ..paper import FOOTER_MM
 from ..layout.instructions import Block, kit_latitudes, kit_line, kit_title, story
 from ..geometry import style
 from . import pdf_marks, pdf_text
+from .ink import Holes, holes_of, inks
 
 FONT = "KitSans"
 
@@ -36,6 +37,14 @@ FOOTER_PT = 7.0
 PAGE_NUMBER_PT = 9.0
 NOTE_PT = 9.0
 MIN_FURNITURE_PT = 5.0
+
+
+def ask_actual_size(c: Canvas) -> None:
+    """Ask viewers to print at actual size: the catalog's
+    ``/ViewerPreferences`` with ``/PrintScaling /None`` (ISO 32000-1:2008,
+    12.2, table 150), so a print dialog does not start at "fit to page"
+    and shrink every scale."""
+    c.setViewerPreference("PrintScaling", "None")
 
 
 def register_fonts() -> None:
@@ -74,49 +83,34 @@ def _text(c: Canvas, x_mm, y_mm, string, size_pt, words, text_style, anchor="mid
     pdf_text.draw_text(c, x_mm, y_mm, string, size_pt, words, text_style, anchor, angle_deg)
 
 
-def _point(c: Canvas, pen: _Pen, el) -> None:
-    dims = pen.dims
-    x, y = (v * mm for v in el.geom["at"])
-    c.setFillGray(0.0)
-    if el.role == "pin":
-        pen.use("medium")
-        c.circle(x, y, style.pin_hole_radius_mm(dims) * mm, stroke=1, fill=0)
-        h = style.pin_cross_half_mm(dims) * mm
-        c.line(x - h, y, x + h, y)
-        c.line(x, y - h, x, y + h)
-    elif el.role == "star":
-        c.circle(x, y, style.star_radius_mm(el.values.get("mag", 2.0), dims) * mm, stroke=0, fill=1)
-    else:
-        c.circle(x, y, style.dot_radius_mm(dims) * mm, stroke=0, fill=1)
-
-
-def draw_element(c: Canvas, pen: _Pen, el) -> None:
-    """One element, in the part's frame (the canvas is at the part's pin)."""
-    g = el.geom
-    if el.shape == "text":
-        text_style = "bold" if el.role in _BOLD_ROLES else "label"
+def draw_ink(c: Canvas, pen: _Pen, ink) -> None:
+    """One ink (kitgen.render.ink), in the part's frame (the canvas is at
+    the part's pin)."""
+    g = ink.geom
+    if ink.shape == "text":
+        text_style = "bold" if ink.role in _BOLD_ROLES else "label"
         _text(c, g["at"][0], g["at"][1], g["text"], g["size_pt"], pen.words, text_style, g["anchor"], g["angle_deg"])
         return
-    if el.shape == "point":
-        _point(c, pen, el)
+    if ink.shape == "dot":
+        cx, cy = g["center"]
+        c.setFillGray(0.0)
+        c.circle(cx * mm, cy * mm, g["radius"] * mm, stroke=0, fill=1)
         return
-    if el.stroke == "none":
-        return
-    pen.use(el.stroke, el.role)
-    if el.shape == "circle":
+    pen.use(ink.stroke, ink.role)
+    if ink.shape == "circle":
         cx, cy = g["center"]
         c.circle(cx * mm, cy * mm, g["radius"] * mm, stroke=1, fill=0)
-    elif el.shape == "arc":
+    elif ink.shape == "arc":
         cx, cy = g["center"]
         r = g["radius"]
         p = c.beginPath()
         p.arc((cx - r) * mm, (cy - r) * mm, (cx + r) * mm, (cy + r) * mm,
               startAng=g["start_deg"], extent=g["end_deg"] - g["start_deg"])
         c.drawPath(p, stroke=1, fill=0)
-    elif el.shape == "segment":
+    elif ink.shape == "segment":
         (x0, y0), (x1, y1) = g["from"], g["to"]
         c.line(x0 * mm, y0 * mm, x1 * mm, y1 * mm)
-    elif el.shape == "polyline":
+    elif ink.shape == "polyline":
         pts = g["points"]
         p = c.beginPath()
         p.moveTo(pts[0][0] * mm, pts[0][1] * mm)
@@ -127,10 +121,19 @@ def draw_element(c: Canvas, pen: _Pen, el) -> None:
         c.drawPath(p, stroke=1, fill=0)
 
 
-def _draw_placement(c: Canvas, placement, dims, words, colour: bool = False) -> None:
+def draw_element(c: Canvas, pen: _Pen, el, holes: Holes = Holes()) -> None:
+    """One element, as its inks (none for a line thinned away)."""
+    for ink in inks(el, pen.dims, holes):
+        draw_ink(c, pen, ink)
+
+
+def _draw_placement(c: Canvas, placement, dims, words, printing) -> None:
     """A placed part, or the window of it that a piece shows (clipped to
-    the window; elements wholly outside it are left out)."""
+    the window; elements wholly outside it are left out), in a marked-content
+    sequence tagged ``/KitPart`` whose properties name the part's id
+    (ISO 32000-1:2008, 14.6), so a reader can tell the parts apart."""
     piece = placement.piece
+    c.addLiteral(f"/KitPart <</Part ({placement.part.id})>> BDC")
     c.saveState()
     c.translate(placement.x_mm * mm, placement.y_mm * mm)
     if piece is not None:
@@ -142,11 +145,13 @@ def _draw_placement(c: Canvas, placement, dims, words, colour: bool = False) -> 
         c.rotate(placement.rotation_deg)
     c.setLineCap(0)
     c.setLineJoin(1)
-    pen = _Pen(c, dims, words, colour)
+    pen = _Pen(c, dims, words, printing.colour)
+    holes = holes_of(printing)
     for el in placement.part.elements:
         if piece is None or meets(turn_box(element_box_mm(el), placement.rotation_deg), piece.window_mm):
-            draw_element(c, pen, el)
+            draw_element(c, pen, el, holes)
     c.restoreState()
+    c.addLiteral("EMC")
     if piece is not None:
         label = words("tile.piece", name=piece.name, count=words.number(piece.count))
         pdf_marks.draw_piece_marks(c, placement, words, label)
@@ -307,6 +312,7 @@ def render_pdf(kit, pages) -> bytes:
     c.setSubject(kit_latitudes(kit))
     c.setAuthor("")
     c.setCreator("kitgen")
+    ask_actual_size(c)
     for page in pages:
         media_w, media_h = page.media_mm
         c.setPageSize((media_w * mm, media_h * mm))
@@ -315,7 +321,7 @@ def render_pdf(kit, pages) -> bytes:
         if page.kind == "instructions":
             _instructions(c, kit, page, pages)
         for placement in page.placements:
-            _draw_placement(c, placement, kit.dims, kit.words, kit.plan.printing.colour)
+            _draw_placement(c, placement, kit.dims, kit.words, kit.plan.printing)
         for mark in page.marks:
             pdf_marks.draw_registration(c, mark)
         _footer(c, kit, page)

@@ -21,7 +21,8 @@ from dataclasses import dataclass
 
 from reportlab.lib.units import mm
 from reportlab.pdfbase import pdfmetrics
-from reportlab.pdfbase.ttfonts import ShapedStr, ShapeData, TTFont
+from reportlab.pdfbase.pdfdoc import PDFName
+from reportlab.pdfbase.ttfonts import ShapedStr, ShapeData, TTFont, makeToUnicodeCMap
 
 from ..layout.instructions import Block
 from ..words import fonts
@@ -43,13 +44,49 @@ def _register(face) -> None:
         _REGISTERED.add(face.name)
         return
     with fonts.font_path(face) as path:
-        ttf = TTFont(face.name, str(path))
+        ttf = TaggedTTFont(face.name, str(path))
     ttf.hbFont()  # installs reportlab's registry of glyphs that no character maps to
     pdfmetrics.registerFont(ttf)
     _REGISTERED.add(face.name)
 
 
 _REGISTERED: set[str] = set()
+
+
+def subset_tag(k: int) -> str:
+    """The ``k``-th subset tag of a document: six upper-case letters,
+    AAAAAA, AAAAAB, ... (counting in base 26)."""
+    letters = []
+    for _ in range(6):
+        k, r = divmod(k, 26)
+        letters.append(chr(ord("A") + r))
+    return "".join(reversed(letters))
+
+
+class TaggedTTFont(TTFont):
+    """A TrueType font whose embedded subsets each get a tag of their own
+    in the document.  ISO 32000-1:2008, 9.6.4 (font subsets): the tag is
+    six upper-case letters, and "different subsets in the same PDF file
+    shall have different tags"; reportlab numbers the subsets of each font
+    from AAAAAA, so two fonts (regular and bold) would share a tag.  Here
+    the tags count on across the document's fonts, in the order reportlab
+    writes them, so the same kit still gives the same bytes."""
+
+    def addObjects(self, doc):
+        state = self.state[doc]   # reportlab drops it once the objects are made
+        subsets = [list(s) for s in state.subsets]
+        names = [self.getSubsetInternalName(n, doc)[1:] for n in range(len(subsets))]
+        super().addObjects(doc)
+        fonts_dict = doc.idToObject["BasicFonts"].dict
+        for name, subset in zip(names, subsets):
+            font = fonts_dict[name]
+            old = font.BaseFont
+            count = getattr(doc, "_kitgen_subset_tags", 0)
+            doc._kitgen_subset_tags = count + 1
+            new = subset_tag(count) + old[6:]
+            font.BaseFont = new
+            doc.idToObject["fontDescriptor:" + old].dict["FontName"] = PDFName(new)
+            doc.idToObject["toUnicodeCMap:" + old].content = makeToUnicodeCMap(new, subset)
 
 
 def _shaped_str(run: Run) -> ShapedStr:

@@ -1,9 +1,22 @@
-"""The SVG renderer: one file per part, in true millimetres.
+"""The SVG renderer: one file per part, in true millimetres, for laser cutters.
 
-Cut lines go in a group of their own (``id="cut"``, hairline, no fill), as
-laser cutters expect, apart from the drawn lines (``id="draw"``), fold lines
-(``id="fold"``) and text (``id="text"``).  SVG's y axis points down, so y
-is negated and arc and text angles are mirrored.
+Each element becomes the inks of :mod:`kitgen.render.ink` (the same the PDF
+draws), grouped by what a laser cutter does with them, in the colours its
+software sorts jobs by (the recipe's ``cutter_colours``; by default the
+common convention of kitgen.geometry.style.CUTTER_COLOURS):
+
+* ``<g id="cut">``: cut lines and the pin and vane holes (circles of the
+  recipe's ``pin_hole_mm`` and ``sight_hole_mm``), red hairlines;
+* ``<g id="score">``: fold lines, blue hairlines, dashed as printed;
+* ``<g id="engrave">``: every other line, in the PDF's line widths and
+  dashes, black (a colour kit's accents as in the PDF), the dots of stars
+  and marked points, and the text.
+
+Every group and element carries its stroke class as its ``class``.  No
+invisible element is written: lines thinned away by the legibility pass
+(stroke ``none``) are left out, and every stroke has a width above zero.
+SVG's y axis points down, so y is negated and arc and text angles are
+mirrored.
 """
 
 from __future__ import annotations
@@ -11,10 +24,9 @@ from __future__ import annotations
 import math
 from xml.sax.saxutils import escape, quoteattr
 
-from ..geometry.style import stroke_width_mm
+from ..geometry import style
+from .ink import holes_of, part_inks
 
-_GROUPS = ("cut", "fold", "draw", "text")
-_FOLD_DASH_MM = "2 1.2"
 _FONT = "DejaVu Sans, sans-serif"
 
 
@@ -25,6 +37,10 @@ def _f(v: float) -> str:
 
 def _xy(p) -> tuple[str, str]:
     return _f(p[0]), _f(-p[1])
+
+
+def _hex(rgb) -> str:
+    return "#" + "".join(f"{round(c * 255):02X}" for c in rgb)
 
 
 def _arc_path(g) -> str:
@@ -40,79 +56,77 @@ def _arc_path(g) -> str:
     return f'<path d="M {x0} {y0} A {_f(r)} {_f(r)} 0 {large} 0 {x1} {y1}"/>'
 
 
-def _shape(el, kit) -> str:
-    g = el.geom
-    if el.shape == "circle":
+def _shape(ink) -> str:
+    g = ink.geom
+    if ink.shape in ("circle", "dot"):
         x, y = _xy(g["center"])
         return f'<circle cx="{x}" cy="{y}" r="{_f(g["radius"])}"/>'
-    if el.shape == "arc":
+    if ink.shape == "arc":
         return _arc_path(g)
-    if el.shape == "segment":
+    if ink.shape == "segment":
         (x0, y0), (x1, y1) = _xy(g["from"]), _xy(g["to"])
         return f'<line x1="{x0}" y1="{y0}" x2="{x1}" y2="{y1}"/>'
-    if el.shape == "polyline":
+    if ink.shape == "polyline":
         pts = " ".join(",".join(_xy(p)) for p in g["points"])
         tag = "polygon" if g["closed"] else "polyline"
         return f'<{tag} points="{pts}"/>'
-    if el.shape == "point":
-        x, y = _xy(g["at"])
-        if el.role == "pin":
-            arm = 2.0
-            px, py = g["at"]
-            return (f'<circle cx="{x}" cy="{y}" r="0.6"/>'
-                    f'<line x1="{_f(px - arm)}" y1="{y}" x2="{_f(px + arm)}" y2="{y}"/>'
-                    f'<line x1="{x}" y1="{_f(-py - arm)}" x2="{x}" y2="{_f(-py + arm)}"/>')
-        radius = 0.35
-        if el.role == "star":
-            radius = max(0.3, 0.9 - 0.18 * el.values.get("mag", 2.0))
-        return f'<circle cx="{x}" cy="{y}" r="{_f(radius)}" fill="black"/>'
-    if el.shape == "text":
+    if ink.shape == "text":
         x, y = _xy(g["at"])
         anchor = {"start": "start", "middle": "middle", "end": "end"}[g["anchor"]]
         size_mm = g["size_pt"] * 25.4 / 72.0
         return (f'<text x="{x}" y="{y}" font-size="{_f(size_mm)}" text-anchor="{anchor}" '
                 f'dominant-baseline="central" transform="rotate({_f(-g["angle_deg"])} {x} {y})">'
                 f'{escape(g["text"])}</text>')
-    raise ValueError(el.shape)
+    raise ValueError(ink.shape)
 
 
-def _group_of(el) -> str:
-    if el.shape == "text":
-        return "text"
-    if el.stroke == "cut":
-        return "cut"
-    if el.stroke == "fold":
-        return "fold"
-    return "draw"
+def _dash(st) -> str:
+    return f' stroke-dasharray="{" ".join(_f(d) for d in st.dash_mm)}"' if st.dash_mm else ""
 
 
 def render_part_svg(part, kit) -> bytes:
     """One part as a standalone SVG document, 1 user unit = 1 mm."""
+    printing = kit.plan.printing
+    colours = dict(printing.cutter_colours)
+    engrave = colours["engrave"]
     x0, y0, x1, y1 = part.bounds_mm
     w, h = x1 - x0, y1 - y0
-    groups: dict[str, list[str]] = {g: [] for g in _GROUPS}
-    by_width: dict[str, list[str]] = {}
-    for el in part.elements:
-        grp = _group_of(el)
-        if grp == "draw":
-            by_width.setdefault(_f(stroke_width_mm(el.stroke, kit.dims)), []).append(_shape(el, kit))
+    cut, score, dots, texts = [], [], [], []
+    lines: dict[tuple[str, str], list[str]] = {}   # (stroke class, colour) -> elements
+    for ink in part_inks(part, kit.dims, holes_of(printing)):
+        if ink.shape == "text":
+            texts.append(_shape(ink))
+        elif ink.shape == "dot":
+            dots.append(_shape(ink))
+        elif ink.stroke == "cut":
+            cut.append(_shape(ink))
+        elif ink.stroke == "fold":
+            score.append(_shape(ink))
         else:
-            groups[grp].append(_shape(el, kit))
-    draw = "".join(f'<g stroke-width="{wd}">{"".join(items)}</g>' for wd, items in sorted(by_width.items()))
-    cut_w = _f(stroke_width_mm("cut", kit.dims))
-    fold_w = _f(stroke_width_mm("fold", kit.dims))
-    title = quoteattr(part.title)
+            ink_colour = style.line_colour(ink.stroke, ink.role, printing.colour)
+            colour = _hex(ink_colour[1]) if ink_colour[0] == "rgb" else engrave
+            lines.setdefault((ink.stroke, colour), []).append(_shape(ink))
+    hair = _f(style.HAIRLINE_MM)
+    fold = style.stroke_style("fold", kit.dims)
+    engraved = []
+    for (stroke, colour), items in sorted(lines.items()):
+        st = style.stroke_style(stroke, kit.dims)
+        engraved.append(f'<g class="{stroke}" stroke="{colour}" stroke-width="{_f(st.width_mm)}"{_dash(st)}>'
+                        f'{"".join(items)}</g>')
     out = [
         '<?xml version="1.0" encoding="UTF-8"?>\n',
         "<!-- made by kitgen -->\n",
         f'<svg xmlns="http://www.w3.org/2000/svg" width="{_f(w)}mm" height="{_f(h)}mm" '
         f'viewBox="{_f(x0)} {_f(-y1)} {_f(w)} {_f(h)}">\n',
         f"<title>{escape(part.title)}</title>\n",
-        f'<g id="draw" data-part={title} fill="none" stroke="black" stroke-linecap="round">{draw}</g>\n',
-        f'<g id="fold" fill="none" stroke="black" stroke-width="{fold_w}" '
-        f'stroke-dasharray="{_FOLD_DASH_MM}">{"".join(groups["fold"])}</g>\n',
-        f'<g id="text" fill="black" font-family="{_FONT}">{"".join(groups["text"])}</g>\n',
-        f'<g id="cut" fill="none" stroke="black" stroke-width="{cut_w}">{"".join(groups["cut"])}</g>\n',
+        f'<g id="engrave" data-part={quoteattr(part.id)} fill="none" stroke-linecap="butt">'
+        f'{"".join(engraved)}'
+        + (f'<g class="dot" fill="{engrave}" stroke="none">{"".join(dots)}</g>' if dots else "")
+        + (f'<g class="none" fill="{engrave}" stroke="none" font-family="{_FONT}">{"".join(texts)}</g>'
+           if texts else "") + "</g>\n",
+        f'<g id="score" class="fold" fill="none" stroke="{colours["score"]}" stroke-width="{hair}"{_dash(fold)}>'
+        f'{"".join(score)}</g>\n',
+        f'<g id="cut" class="cut" fill="none" stroke="{colours["cut"]}" stroke-width="{hair}">{"".join(cut)}</g>\n',
         "</svg>\n",
     ]
     return "".join(out).encode("utf-8")

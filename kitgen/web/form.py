@@ -33,7 +33,7 @@ MAIN_FIELDS = ("place", "latitude", "longitude", "timezone", "language", "sheet"
                "owner", "title")
 #: Keys the page leaves to a recipe file (whole-kit structure rather than a
 #: teacher's choice), besides the path-valued ones.
-NOT_ON_PAGE = frozenset({"parts", "plates"})
+NOT_ON_PAGE = frozenset({"parts", "plates", "cutter_colours", "pin_hole_mm", "sight_hole_mm"})
 
 #: Form fields that are not recipe keys.
 CSRF_FIELD = "csrf_token"

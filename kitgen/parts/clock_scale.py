@@ -1,0 +1,145 @@
+"""The clock correction on the mater's back, read at the calendar's date (#10).
+
+A narrow ring just inside the calendar ring, cut into runs of days whose
+correction rounds to the same whole minute: the alidade laid on a date of
+the calendar crosses this ring in the run of that date, and the number
+written in the run is what to add to the instrument's reading to get the
+clock's time (the plan's almanac, :mod:`kitgen.sky.site_almanac`; the
+equation of time alone, for local mean time, when the site has no
+longitude).  The run boundaries stand halfway between two days' calendar
+ticks, so that the ring is read as the calendar is.
+
+The ticks between runs stand at the ring's outer edge and the numbers
+below them, each centred on its run; where runs are shorter than their
+numbers (near the turn of the year the correction changes by a minute
+every two days) only every other run is numbered, its neighbours' numbers
+being one more and one less.  On a kit too small for the ring and the
+title together, the ring is left out (the instructions carry the table).  The horizontal through the centre
+crosses the ring at the equinoxes; no number stands on it.  Each run is
+also an undrawn arc carrying its dates and minutes, so that the JSON
+says exactly what the ring says.  Lengths in mm, directions in degrees
+counter-clockwise from +x, as on the rest of the back.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+from ..geometry import model
+from . import curves, labels
+from .context import PartContext
+
+
+#: Shortest tick (mm) between two runs (the kit's legible minimum,
+#: kitgen.parts.dimensions.MIN_TICK_MM).
+MIN_RUN_TICK_MM = 0.8
+
+
+#: The top of the title's room on the back, as a share of the radius it
+#: is fitted in (kitgen.parts.mater_back: centre 0.47, height 0.22).
+TITLE_TOP = 0.58
+
+
+@dataclass(frozen=True)
+class ClockScale:
+    elements: tuple[model.Element, ...]
+    inner_radius_mm: float     # the ring's inner edge: what lies inside must keep within it
+
+
+def _direction_deg(longitude_deg: float) -> float:
+    """Direction on the back of ecliptic longitude (as kitgen.parts.mater_back)."""
+    return 180.0 - longitude_deg
+
+
+def runs(calendar, correction):
+    """[(first index, last index, minutes)]: the days of the year in runs of
+    the same whole-minute correction, in date order, a run over the turn of
+    the year kept whole (its first index then beyond its last)."""
+    minutes = [int(round(x)) for _, _, x in correction]
+    n = len(minutes)
+    starts = [k for k in range(n) if minutes[k] != minutes[k - 1]] or [0]
+    out = []
+    for a, b in zip(starts, starts[1:] + starts[:1]):
+        out.append((a, (b - 1) % n, minutes[a]))
+    return out
+
+
+def _numbers(w, numbers, r_text: float, size_pt: float):
+    """The runs' numbers under their ticks: the longest runs first, each
+    where it keeps a margin from the numbers already placed and off the
+    horizontal; a run too short keeps its number only when its neighbours
+    leave room (so at worst every other run of a fast-changing season is
+    numbered, its neighbours one more and one less)."""
+    placed, out = [], []
+    for span, mid, minutes, month, day in sorted(numbers, key=lambda x: -x[0]):
+        text = signed(w, minutes)
+        half = math.degrees((w.measure(text, size_pt).width_mm / 2.0 + labels.MARGIN_MM) / r_text)
+        if any(abs((mid - axis + 180.0) % 360.0 - 180.0) < half for axis in (0.0, 180.0)):
+            continue
+        if any(abs((mid - other + 180.0) % 360.0 - 180.0) < half + other_half for other, other_half in placed):
+            continue
+        placed.append((mid, half))
+        out.append(curves.ring_text("clock_number", text, mid, r_text, size_pt, minutes=minutes, month=month,
+                                    day=day))
+    return out
+
+
+def _title_fits(ctx: PartContext, r_inner_mm: float) -> bool:
+    """Whether the back's title, at its own size, still fits inside the
+    ring (the top of its room at :data:`TITLE_TOP` of the radius, as
+    kitgen.parts.mater_back sets it).  On a small kit it does not: the ring
+    is left out and the correction is printed in the instructions only."""
+    w = ctx.words
+    width = w.measure(ctx.plan.title or w("kit.default_title"), ctx.dims.title_pt, "bold").width_mm
+    r = r_inner_mm - labels.MARGIN_MM
+    return (width / 2.0) ** 2 + (TITLE_TOP * r_inner_mm) ** 2 <= r * r
+
+
+def signed(words, minutes: int) -> str:
+    """A correction as the ring writes it: +12, −3, 0."""
+    if minutes == 0:
+        return words.number(0)
+    return words("clock_scale.plus" if minutes > 0 else "clock_scale.minus", n=words.number(abs(minutes)))
+
+
+def clock_scale(ctx: PartContext, r_outer_mm: float) -> ClockScale:
+    """The ring of the clock correction inside radius ``r_outer_mm`` (the
+    calendar ring's inner edge), and its caption near the centre."""
+    d, w = ctx.dims, ctx.words
+    cal = ctx.sky.calendar
+    almanac = ctx.plan.almanac
+    size = d.small_text_pt
+    h = w.measure(w.number(0) + w.number(8), size).height_mm
+    tick = max(MIN_RUN_TICK_MM, 0.8 * d.tick_mm)
+    r1 = r_outer_mm - labels.MARGIN_MM
+    r0 = r1 - tick - h - 3 * labels.MARGIN_MM
+    r_text = r0 + labels.MARGIN_MM + h / 2
+    n = len(cal)
+    lon = [x for _, _, x in cal]
+
+    def edge_deg(k):
+        """Direction of the boundary before day ``k``, halfway from the day before."""
+        a, b = lon[k - 1], lon[k]
+        return _direction_deg(a + ((b - a) % 360.0) / 2.0)
+
+    if not _title_fits(ctx, r0 - labels.MARGIN_MM):
+        return ClockScale((), r_outer_mm)
+    els = [model.circle("clock_edge", (0.0, 0.0), r0, "light"),
+           model.circle("clock_edge", (0.0, 0.0), r1, "light")]
+    numbers = []
+    for first, last, minutes in runs(cal, almanac.clock_correction):
+        start, end = edge_deg(first), edge_deg((last + 1) % n)
+        span = (start - end) % 360.0 or 360.0
+        (m0, d0, _), (m1, d1, _) = cal[first], cal[last]
+        els.append(model.arc("clock_run", (0.0, 0.0), r_text, end % 360.0, end % 360.0 + span, "none",
+                             minutes=minutes, from_month=m0, from_day=d0, to_month=m1, to_day=d1))
+        els.append(curves.radial_tick("clock_tick", start, r1 - tick, r1, r1, "light", month=m0, day=d0))
+        numbers.append((span, end + span / 2.0, minutes, m0, d0))
+    els += _numbers(w, numbers, r_text, size)
+    key = "clock_scale.caption_zone" if almanac.time == "zone" else "clock_scale.caption_mean"
+    y, room_h = 0.12 * r0, 0.085 * r0
+    room = 2.0 * math.sqrt(max((r0 - labels.MARGIN_MM) ** 2 - (y + room_h / 2) ** 2, 0.0))
+    els += labels.fitted_text("clock_caption", (0.0, y), w(key, zone=ctx.plan.site.timezone or ""), size, w,
+                              room, room_h)
+    return ClockScale(tuple(els), r0 - labels.MARGIN_MM)
