@@ -15,6 +15,7 @@ import math
 from ..geometry import model
 from . import curves, labels
 from .ring_numbers import NUMBERED_TICK, SHORT_TICK, SIGN_NUMBERS_DEG, names_from_edge_mm, number_row
+from .clock_scale import clock_scale
 from .context import PartContext
 from .shadow_square import LABELLED_RATIOS, SHADOW_RATIOS, decimals, shadow_mark, shadow_side_mm
 
@@ -43,13 +44,15 @@ def mater_back(ctx: PartContext) -> model.Part:
     els += _altitude_scale(d, w, r_alt, R, ctx.scales.altitude_tick_deg)
     els += _zodiac_scale(d, w, r_zod, r_alt, ctx.scales.zodiac_tick_deg)
     els += _calendar_scale(ctx, r_cal, r_zod)
+    clock = clock_scale(ctx, r_cal)
+    els, r_cal = els + list(clock.elements), clock.inner_radius_mm
     els += _shadow_square(d, w, r_cal, ctx.scales.shadow_labels)
     # Title, place and epoch inside the calendar ring, each fitted to the
     # chord of that ring at the far edge of its room.
     for role, y_frac, h_frac, text, size, style in (
-            ("title", 0.50, 0.22, ctx.plan.title or w("kit.default_title"), d.title_pt, "bold"),
-            ("place", 0.35, 0.09, ctx.plan.site.place, d.text_pt, "label"),
-            ("epoch", 0.24, 0.09, w("mater_back.epoch", year=w.number(ctx.plan.epoch)), d.small_text_pt, "label")):
+            ("title", 0.47, 0.22, ctx.plan.title or w("kit.default_title"), d.title_pt, "bold"),
+            ("place", 0.33, 0.09, ctx.plan.site.place, d.text_pt, "label"),
+            ("epoch", 0.225, 0.09, w("mater_back.epoch", year=w.number(ctx.plan.epoch)), d.small_text_pt, "label")):
         if text:
             y, h = r_cal * y_frac, r_cal * h_frac
             room = 2 * math.sqrt((r_cal - labels.MARGIN_MM) ** 2 - (y + h / 2) ** 2)
