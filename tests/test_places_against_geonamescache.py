@@ -122,6 +122,10 @@ def test_search_ranks_exact_then_prefix_by_population():
     prefix = search("Springf", limit=5)
     assert all(fold(p.name).startswith("springf") for p in prefix)
     assert search("", limit=5) == [] and search("Lisbon", limit=0) == []
+    # A qualifier still being typed filters nothing yet; once whole, it does.
+    assert [p.country_code for p in search("Lisbon, P", limit=3)][:1] == ["PT"]
+    assert len(search("Lisbon, P", limit=3)) == 3
+    assert {p.country_code for p in search("Lisbon, PT", limit=3)} == {"PT"}
 
 
 def test_cache_file_gives_the_same_index_as_the_package(tmp_path, monkeypatch):

@@ -158,10 +158,14 @@ def search(query: str, limit: int = 10) -> list[Place]:
     best first: places of exactly that name, then places whose name starts
     with it, or else close spellings; in each group
     places whose own name matches come before those that match by an
-    alternate name, and larger places before smaller."""
+    alternate name, and larger places before smaller.  A qualifier that
+    names no country or region is left out, as one still being typed."""
     index = place_index()
-    q = _parse(index, query) if isinstance(query, str) else None
-    if q is None or not q.name or limit < 1:
+    if not isinstance(query, str) or limit < 1:
+        return []
+    # A qualifier still being typed ("Lisbon, P") is no filter yet.
+    q = _parse(index, query) or _parse(index, query.split(",")[0])
+    if q is None or not q.name:
         return []
     rows = _own_first(index, _matches(index, q, prefix=False), q.name, False, limit)
     rows += _own_first(index, _matches(index, q, prefix=True), q.name, True, limit)
