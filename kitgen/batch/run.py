@@ -58,7 +58,12 @@ class Summary:
 
 
 def default_jobs() -> int:
-    return os.cpu_count() or 1
+    """The cores this process may run on (its CPU affinity where the
+    system tells it, as in a container), else all the machine's."""
+    try:
+        return len(os.sched_getaffinity(0)) or 1
+    except (AttributeError, OSError):
+        return os.cpu_count() or 1
 
 
 def run_set(set_path, out_dir, jobs: int | None = None, quiet: bool = False, stream=None) -> Summary:
