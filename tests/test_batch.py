@@ -294,3 +294,21 @@ def test_a_latitude_written_with_colons_reads_as_in_a_recipe(tmp_path):
     kits = load_set(tmp_path / "set.yaml").kits
     assert kits[0].recipe.latitude_deg == load_recipe(tmp_path / "north.yaml").latitude_deg
     assert kits[1].recipe.latitude_deg == load_recipe(tmp_path / "south.yaml").latitude_deg
+
+
+def test_print_files_pass_the_checks_of_single_kits(one_worker):
+    """As tests/test_pdf_validity.py checks every PDF kitgen writes: pypdf
+    in strict mode reads every page, and qpdf --check finds no syntax or
+    stream error (skipped, saying so, where qpdf is not installed)."""
+    import shutil
+
+    _, out = one_worker
+    for name in ("print-card.pdf", "print-film.pdf"):
+        reader = PdfReader(out / name, strict=True)   # Reference: pypdf, strict
+        for page in reader.pages:
+            page.extract_text()
+    if shutil.which("qpdf") is None:
+        pytest.skip("qpdf is not installed (.ci/run installs it)")
+    for name in ("print-card.pdf", "print-film.pdf"):
+        done = subprocess.run(["qpdf", "--check", str(out / name)], capture_output=True, text=True)
+        assert done.returncode == 0, done.stdout + done.stderr   # Reference: qpdf
