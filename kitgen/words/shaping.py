@@ -14,7 +14,13 @@ Direction follows the Unicode Bidirectional Algorithm (UAX #9, "Unicode
 Bidirectional Algorithm", revision for Unicode 15), for one paragraph
 without explicit embeddings: rules W1-W7, N1-N2, I1-I2 and L1-L2.  That is
 all the kit's strings need: Arabic words with digits, signs and the Latin
-IAU names of stars.
+IAU names of stars.  Isolates (LRI, RLI, FSI ... PDI, UAX #9 section 2.4)
+are laid out separately: the text between an initiator and its PDI is set
+as a paragraph of its own (FSI takes the direction of its first strong
+character, P2-P3) and stands in the line around it as one neutral
+character (X5a-X5c, X6a), so a title written in the other direction never
+reorders the words around it (:meth:`kitgen.words.templates.Words.__call__`
+isolates such values).
 """
 
 from __future__ import annotations
@@ -83,6 +89,41 @@ class Line:
 
 
 # -- UAX #9 -------------------------------------------------------------------
+
+LRI, RLI, FSI, PDI = "\u2066", "\u2067", "\u2068", "\u2069"
+_INITIATORS = (LRI, RLI, FSI)
+#: What an isolate stands as in the line around it: OBJECT REPLACEMENT
+#: CHARACTER, of bidirectional class ON, a neutral (as X6a makes the
+#: initiator and its PDI).
+_STAND_IN = "\ufffc"
+
+
+def isolates(text: str) -> tuple[str, list[tuple[str, str]]]:
+    """``text`` with each outermost isolate replaced by one stand-in
+    character, and the isolates' (initiator, content) in order.  An
+    initiator without its PDI runs to the end of the text (BD9); a PDI
+    without an initiator is dropped."""
+    outer, found = [], []
+    i, n = 0, len(text)
+    while i < n:
+        ch = text[i]
+        if ch in _INITIATORS:
+            depth, j = 1, i + 1
+            while j < n and depth:
+                depth += text[j] in _INITIATORS
+                depth -= text[j] == PDI
+                j += 1
+            end = j - 1 if depth == 0 else j
+            found.append((ch, text[i + 1:end]))
+            outer.append(_STAND_IN)
+            i = j
+        elif ch == PDI:
+            i += 1
+        else:
+            outer.append(ch)
+            i += 1
+    return "".join(outer), found
+
 
 def _classes(text: str) -> list[str]:
     return [unicodedata.bidirectional(ch) or "L" for ch in text]
@@ -248,23 +289,48 @@ def set_line(text: str, script: str, style: str, prefer_rtl: bool = False) -> Li
     """``text`` (one line, logical order) set in ``style`` for a language
     written in ``script``; ``prefer_rtl`` for a right-to-left language."""
     stack = fonts.stack(script, style)
-    rtl = paragraph_is_rtl(text, prefer_rtl)
+    # P2 skips the isolates; a line of a right-to-left language with no
+    # strong letter of its own outside them keeps the language's direction (HL1)
+    outer, found = isolates(text)
+    outer = outer.replace(_STAND_IN, "")
+    rtl = paragraph_is_rtl(outer, prefer_rtl) or bool(prefer_rtl and found and not any(
+        c in ("L", "R", "AL") for c in _classes(outer)))
     middle = fonts.middle_em(stack[0])
     if not text:
         return Line(text, (), 0.0, middle, middle, middle, rtl)
-    levels = embedding_levels(text, rtl)
-    faces = _faces_for(text, stack)
-    pieces: list[tuple[Face, int, str]] = []
-    for ch, face, level in zip(text, faces, levels):
-        if pieces and pieces[-1][0] == face and pieces[-1][1] == level:
+    visual = tuple(_visual_runs(text, stack, rtl))
+    top, bottom = _ink(visual, middle)
+    return Line(text, visual, sum(r.width_em for r in visual), middle, top, bottom, rtl)
+
+
+def _visual_runs(text: str, stack: tuple[Face, ...], rtl: bool) -> list[Run]:
+    """The runs of ``text`` as a paragraph of direction ``rtl``, in visual
+    order; each isolate set as a paragraph of its own, its runs kept
+    together where its stand-in character falls."""
+    outer, found = isolates(text)
+    if not outer:
+        return []
+    levels = embedding_levels(outer, rtl)
+    faces = _faces_for(outer, stack)
+    pieces: list[tuple[Face | None, int, str]] = []
+    for ch, face, level in zip(outer, faces, levels):
+        if ch == _STAND_IN:
+            pieces.append((None, level, ch))
+        elif pieces and pieces[-1][0] == face and pieces[-1][1] == level:
             pieces[-1] = (face, level, pieces[-1][2] + ch)
         else:
             pieces.append((face, level, ch))
-    runs = [_run(face, piece, level) for face, level, piece in pieces]
+    inner = iter(found)
+    runs: list[list[Run]] = []
+    for face, level, piece in pieces:
+        if face is None:
+            initiator, content = next(inner)
+            inner_rtl = initiator == RLI or (initiator == FSI and paragraph_is_rtl(isolates(content)[0], False))
+            runs.append(_visual_runs(content, stack, inner_rtl))
+        else:
+            runs.append([_run(face, piece, level)])
     order = visual_order([level for _, level, _ in pieces])
-    visual = tuple(runs[k] for k in order)
-    top, bottom = _ink(visual, middle)
-    return Line(text, visual, sum(r.width_em for r in visual), middle, top, bottom, rtl)
+    return [run for k in order for run in runs[k]]
 
 
 def _ink(runs, middle: float) -> tuple[float, float]:

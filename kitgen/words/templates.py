@@ -62,7 +62,23 @@ class Words:
             raise KeyError(f"template {self.language!r} has no key {key!r}") from None
         if isinstance(template, list):
             raise KeyError(f"template key {key!r} is a list; use items()")
-        return template.format(**values) if values else template
+        if not values:
+            return template
+        return template.format(**{name: self.isolated(v) for name, v in values.items()})
+
+    def isolated(self, value):
+        """``value`` as it goes into a template: text holding a letter
+        written in the other direction than this language (an Arabic title
+        in an English kit, a Latin one in an Arabic kit) is wrapped in FIRST
+        STRONG ISOLATE ... POP DIRECTIONAL ISOLATE (UAX #9, 2.4), so that it
+        never reorders the words around it (:mod:`kitgen.words.shaping`
+        lays isolates out separately); anything else is left as it is."""
+        if not isinstance(value, str):
+            return value
+        other = ("L",) if self.rtl else ("R", "AL")
+        if any(unicodedata.bidirectional(ch) in other for ch in value):
+            return "\u2068" + value + "\u2069"
+        return value
 
     def template(self, key: str) -> str | None:
         """The template text of ``key`` as written, ``{placeholders}`` and
