@@ -335,3 +335,18 @@ def test_a_roster_that_is_not_text_is_told_beside_its_field(client):
                            files={"roster": ("class.csv", b"\xff\xfe\x00o\x00w", "text/csv")})
     assert response.status_code == 422
     assert error_beside(response.text, "roster") == template("en")["web.error.roster_not_text"]
+
+
+def test_a_service_behind_a_proxy_answers_its_own_names_only(tmp_path, monkeypatch):
+    from kitgen.web.app import service
+
+    monkeypatch.setenv("KITGEN_WEB_DIR", str(tmp_path / "shared"))
+    monkeypatch.setenv("KITGEN_WEB_HOSTS", "kits.example.org, www.kits.example.org")
+    with TestClient(service(), base_url="http://kits.example.org") as c:
+        assert c.get("/").status_code == 200
+        assert c.get("/", headers={"host": "www.kits.example.org:443"}).status_code == 200
+        assert c.get("/", headers={"host": "127.0.0.1"}).status_code == 421
+    assert (tmp_path / "shared").is_dir()  # a shared folder is the operator's: it stays
+    monkeypatch.delenv("KITGEN_WEB_HOSTS")
+    with pytest.raises(SystemExit):
+        service()

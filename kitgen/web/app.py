@@ -22,15 +22,13 @@ written, inside the server's private temporary folder.
 
 from __future__ import annotations
 
-import base64
 import contextlib
-import io
 import logging
+import os
 import re
 import shutil
 import tempfile
-import zipfile
-from dataclasses import MISSING, replace
+from dataclasses import MISSING
 from dataclasses import fields as dataclass_fields
 from functools import lru_cache
 from pathlib import Path
@@ -44,16 +42,11 @@ from starlette.responses import FileResponse, HTMLResponse, JSONResponse, Redire
 from starlette.routing import Mount, Route
 from starlette.staticfiles import StaticFiles
 
-from ..errors import Message, UserError, one_line
-from ..kit import build_kit
+from ..errors import Message, one_line
 from ..recipe.schema import Recipe
-from ..render.json_export import render_json
-from ..render.pdf import build_pdf
-from ..render.preview import render_previews
-from ..render.svg import render_svg_files
 from ..words.templates import available_languages, load_words
 from . import form as forms
-from . import sets
+from . import jobs, sets
 from .guard import CSRF_COOKIE, CSRF_HEADER, Guard, TooLarge, csrf_ok, new_token
 from .language import choose
 from .pool import BuildPool, Busy
@@ -69,8 +62,6 @@ log = logging.getLogger("kitgen.web")
 MAX_FORM_BYTES = 64 * 1024
 #: Largest class-set upload (a roster of a few hundred pupils and the form).
 MAX_UPLOAD_BYTES = 512 * 1024
-#: Resolution of the PDF's page previews, dots per inch.
-PAGES_DPI = 40.0
 #: Most suggestions a search returns; longest search text.
 MAX_SUGGESTIONS = 8
 MAX_QUERY_CHARS = 80
@@ -117,44 +108,6 @@ def _file_stem(tree: dict) -> str:
     named = str(tree.get("place") or tree.get("title") or "")
     stem = re.sub(r"[^A-Za-z0-9.]+", "-", named or f"astrolabe {tree.get('latitude', '')}").strip("-.")[:40]
     return stem.lower() or "astrolabe"
-
-
-def _inline_svg(data: bytes) -> str:
-    """An SVG document as markup to put in the page (no XML declaration)."""
-    text = data.decode("utf-8")
-    return text[text.index("<svg"):]
-
-
-# The builds, run on the pool's threads.
-
-def _build_preview(recipe, words) -> dict:
-    small = replace(recipe, parts=tuple(p for p in ("plate", "rete") if p in recipe.parts) or recipe.parts)
-    kit = build_kit(small)
-    svgs: dict[str, str] = {}
-    for name, data in render_svg_files(kit).items():  # plate.svg, or plate-1.svg... for several plates
-        svgs.setdefault(re.match(r"[a-z_]*", name).group(), _inline_svg(data))
-    return {"svgs": svgs, "notes": [note.text(words) for note in kit.notes]}
-
-
-def _build_pages(recipe) -> list[str]:
-    pdf = build_pdf(build_kit(recipe))[1]
-    return ["data:image/png;base64," + base64.b64encode(png).decode("ascii")
-            for png in render_previews(pdf, PAGES_DPI)]
-
-
-def _build_file(recipe, fmt: str, tree: dict, heading: str) -> bytes:
-    if fmt == "yaml":
-        return forms.recipe_yaml(tree, heading)
-    kit = build_kit(recipe)
-    if fmt == "pdf":
-        return build_pdf(kit)[1]
-    if fmt == "json":
-        return render_json(kit)
-    out = io.BytesIO()
-    with zipfile.ZipFile(out, "w", zipfile.ZIP_DEFLATED) as z:
-        for name, data in render_svg_files(kit).items():
-            z.writestr(name, data)
-    return out.getvalue()
 
 
 class Web:
@@ -235,8 +188,13 @@ class Web:
     def internal(self, request: Request, exc: Exception) -> Response:
         """An internal fault: the traceback to the server's log, and to the
         user the command line's one line (``errors.internal``), status 500."""
-        log.exception("building a kit failed")
-        text = one_line(Message("errors.internal", kind=type(exc).__name__, detail=exc).text(self.words(request)))
+        if isinstance(exc, jobs.Internal):
+            log.error("building a kit failed:\n%s", exc.trace)
+            kind, detail = exc.kind, exc.detail
+        else:
+            log.error("building a kit failed", exc_info=exc)
+            kind, detail = type(exc).__name__, str(exc)
+        text = one_line(Message("errors.internal", kind=kind, detail=detail).text(self.words(request)))
         if "application/json" in request.headers.get("accept", "") or request.url.path.startswith("/api/"):
             return JSONResponse({"ok": False, "errors": {"": text}}, status_code=500)
         return Response(text, status_code=500, media_type="text/plain; charset=utf-8")
@@ -278,15 +236,15 @@ class Web:
             try:
                 if fmt in FORMATS:
                     heading = say(words, "recipe_heading")
-                    data = await self.pool.run(_build_file, recipe, fmt, tree, heading)
+                    data = await self.pool.run(jobs.download, recipe, language, fmt, tree, heading)
                     name = _file_stem(tree) + SUFFIX[fmt]
                     return Response(data, media_type=MEDIA[fmt], headers={
                         "Content-Disposition": f'attachment; filename="{name}"', "Cache-Control": "no-store"})
-                previews = await self.pool.run(_build_preview, recipe, words)
+                previews = await self.pool.run(jobs.preview, recipe, language)
             except Busy:
                 return self.plain(request, "busy", 503)
-            except UserError as exc:
-                errors = {forms.field_of(exc) or "": exc.text(words)}
+            except jobs.Refused as exc:
+                errors = {exc.field: exc.text}
             except Exception as exc:  # kitgen's own fault: one line to the user, the traceback to the log
                 return self.internal(request, exc)
         status = 422 if errors else 200
@@ -297,7 +255,8 @@ class Web:
         form, refused = await self.read_form(request)
         if refused:
             return refused
-        words = self.words(request)
+        language = self.page_language(request)
+        words = _words(language)
         try:
             tree, recipe, errors, _ = self.tree_and_recipe(request, form)
         except forms.FormError as exc:
@@ -306,13 +265,13 @@ class Web:
             return JSONResponse({"ok": False, "errors": errors}, status_code=422)
         try:
             if what == "preview":
-                return JSONResponse({"ok": True, **await self.pool.run(_build_preview, recipe, words)})
-            return JSONResponse({"ok": True, "pages": await self.pool.run(_build_pages, recipe)})
+                return JSONResponse({"ok": True, **await self.pool.run(jobs.preview, recipe, language)})
+            return JSONResponse({"ok": True, "pages": await self.pool.run(jobs.pages, recipe, language)})
         except Busy:
             return JSONResponse({"ok": False, "busy": True, "errors": {"": say(words, "busy")}}, status_code=503,
                                 headers={"Retry-After": "2"})
-        except UserError as exc:
-            return JSONResponse({"ok": False, "errors": {forms.field_of(exc) or "": exc.text(words)}}, 422)
+        except jobs.Refused as exc:
+            return JSONResponse({"ok": False, "errors": {exc.field: exc.text}}, 422)
         except Exception as exc:  # kitgen's own fault: one line to the user, the traceback to the log
             return self.internal(request, exc)
 
@@ -426,16 +385,18 @@ def _refusal_words(scope) -> dict:
     return {"too_large": say(words, "error.too_large"), "wrong_host": say(words, "error.wrong_host")}
 
 
-def create_app(workdir: str | Path | None = None, workers: int = 2, queue: int = 8, loopback_only: bool = True):
+def create_app(workdir: str | Path | None = None, workers: int = 2, queue: int = 8, loopback_only: bool = True,
+               allowed_hosts: tuple[str, ...] = ()):
     """The ASGI application.  ``workdir`` is the private folder for class
     sets (a new temporary one, removed at shutdown, when not given; give
     several workers one shared folder); ``workers`` and ``queue`` bound
     the build pool; ``loopback_only`` answers only requests addressed to
-    the loopback names."""
+    the loopback names, ``allowed_hosts`` only those addressed to these
+    names (a service behind a reverse proxy)."""
     own = workdir is None
     root = Path(tempfile.mkdtemp(prefix="kitgen-serve-")) if own else Path(workdir)
     root.mkdir(parents=True, exist_ok=True, mode=0o700)
-    web = Web(root, BuildPool(workers, queue), BuildPool(1, 2), loopback_only)
+    web = Web(root, BuildPool(workers, queue, processes=True), BuildPool(1, 2), loopback_only)
 
     @contextlib.asynccontextmanager
     async def lifespan(app):
@@ -463,6 +424,20 @@ def create_app(workdir: str | Path | None = None, workers: int = 2, queue: int =
     app = Starlette(routes=routes, lifespan=lifespan, exception_handlers={TooLarge: web.too_large})
     app.state.web = web
     limits = {"/": MAX_FORM_BYTES, "/sets": MAX_UPLOAD_BYTES + MAX_FORM_BYTES}
-    guarded = Guard(app, limits, loopback_only, _refusal_words)
+    guarded = Guard(app, limits, loopback_only, _refusal_words, allowed_hosts)
     guarded.web = web
     return guarded
+
+
+def service():
+    """The application for several workers behind a reverse proxy, set up
+    from the environment (``uvicorn --factory kitgen.web.app:service``):
+    ``KITGEN_WEB_DIR`` the class sets' folder that every worker shares
+    (required), ``KITGEN_WEB_HOSTS`` the host names the proxy passes on
+    (comma-separated, required), ``KITGEN_WEB_BUILDS`` and
+    ``KITGEN_WEB_QUEUE`` each worker's pool (default 2 and 8)."""
+    folder, hosts = os.environ.get("KITGEN_WEB_DIR"), os.environ.get("KITGEN_WEB_HOSTS", "")
+    if not folder or not hosts.strip():
+        raise SystemExit("kitgen.web.app:service needs KITGEN_WEB_DIR and KITGEN_WEB_HOSTS (see README.md)")
+    return create_app(folder, int(os.environ.get("KITGEN_WEB_BUILDS", "2")), int(os.environ.get("KITGEN_WEB_QUEUE", "8")),
+                      loopback_only=False, allowed_hosts=tuple(hosts.split(",")))

@@ -57,13 +57,16 @@ def csrf_ok(cookie: str | None, sent: str | None) -> bool:
     return hmac.compare_digest(cookie.encode("utf-8", "replace"), sent.encode("utf-8", "replace"))
 
 
-def host_is_loopback(host_header: str) -> bool:
+def host_name(host_header: str) -> str:
+    """The name in a ``Host`` header, without its port."""
     host = host_header.strip().lower()
     if host.startswith("["):
-        host = host[: host.find("]") + 1]
-    elif ":" in host:
-        host = host.rsplit(":", 1)[0]
-    return host in LOOPBACK_NAMES
+        return host[: host.find("]") + 1]
+    return host.rsplit(":", 1)[0] if ":" in host else host
+
+
+def host_is_loopback(host_header: str) -> bool:
+    return host_name(host_header) in LOOPBACK_NAMES
 
 
 class TooLarge(Exception):
@@ -74,15 +77,23 @@ class TooLarge(Exception):
 class Guard:
     """ASGI middleware: the size limits, the host check and the headers.
     ``limits`` maps a path prefix to its largest body in bytes (the longest
-    matching prefix wins); ``loopback_only`` turns the host check on;
+    matching prefix wins); ``loopback_only`` turns the host check on, and
+    ``allowed_hosts`` (names, for a service behind a reverse proxy) makes
+    it check for those names instead;
     ``messages(scope)`` gives the words for a refusal,
     ``{"too_large": ..., "wrong_host": ...}``."""
 
-    def __init__(self, app, limits: dict[str, int], loopback_only: bool, messages):
+    def __init__(self, app, limits: dict[str, int], loopback_only: bool, messages, allowed_hosts=()):
         self.app = app
         self.limits = sorted(limits.items(), key=lambda kv: -len(kv[0]))
         self.loopback_only = loopback_only
+        self.allowed_hosts = frozenset(h.strip().lower() for h in allowed_hosts if h.strip())
         self.messages = messages
+
+    def _host_ok(self, host_header: str) -> bool:
+        if self.allowed_hosts:
+            return host_name(host_header) in self.allowed_hosts
+        return not self.loopback_only or host_is_loopback(host_header)
 
     def _limit(self, path: str) -> int:
         return next(limit for prefix, limit in self.limits if path.startswith(prefix))
@@ -99,7 +110,7 @@ class Guard:
             await send(message)
 
         headers = {k.decode("latin-1").lower(): v.decode("latin-1") for k, v in scope.get("headers", [])}
-        if self.loopback_only and not host_is_loopback(headers.get("host", "")):
+        if not self._host_ok(headers.get("host", "")):
             return await self._refuse(scope, receive, send_with_headers, 421, "wrong_host")
         limit = self._limit(scope.get("path", "/"))
         length = headers.get("content-length")

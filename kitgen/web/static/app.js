@@ -9,7 +9,7 @@
 "use strict";
 
 (function () {
-  const DEBOUNCE_MS = 200;      // the preview follows within half a second
+  const DEBOUNCE_MS = 150;      // the preview follows within half a second
   const SEARCH_MS = 150;
 
   function debounce(fn, ms) {
