@@ -350,3 +350,22 @@ def test_a_service_behind_a_proxy_answers_its_own_names_only(tmp_path, monkeypat
     monkeypatch.delenv("KITGEN_WEB_HOSTS")
     with pytest.raises(SystemExit):
         service()
+
+
+def test_a_roster_may_carry_each_pupils_latitude(client):
+    if not sets.batch_available():
+        pytest.skip("this kitgen has no batch command (#12)")
+    roster = "owner,latitude\nAda,52.2\nBilal,-33.9\n".encode()
+    started = client.post("/sets", data={"csrf_token": token(client)},
+                          files={"roster": ("class.csv", roster, "text/csv")}, follow_redirects=False)
+    assert started.status_code == 303, started.text
+    where = started.headers["location"].split("?")[0]
+    deadline = time.monotonic() + 120
+    while (state := client.get(where + "/status").json())["state"] == "running":
+        assert time.monotonic() < deadline
+        time.sleep(0.5)
+    assert state["state"] == "done" and state["done"] == state["total"] == 2, state
+    # Without a site in the form or the roster, the form says so beside the latitude.
+    missing = client.post("/sets", data={"csrf_token": token(client)},
+                          files={"roster": ("class.csv", b"owner\nAda\n", "text/csv")})
+    assert missing.status_code == 422 and error_beside(missing.text, "latitude")

@@ -321,9 +321,11 @@ class Web:
                 errors["roster"] = say(words, "error.roster_not_text")
             elif sets.roster_rows(text) > sets.MAX_ROSTER_ROWS:
                 errors["roster"] = say(words, "error.roster_too_long", limit=sets.MAX_ROSTER_ROWS)
-        if "latitude" not in tree and "place" not in tree:
+        located = {"latitude", "place", "plates"} & (set(tree) | sets.roster_columns(text))
+        if not located:  # the site must come from the form or from the roster's own columns
             tree["latitude"] = ""
-        _, field_errors = forms.check_form(tree, words)
+        check = tree if "latitude" in tree or "place" in tree or "plates" in tree else {**tree, "latitude": 0}
+        _, field_errors = forms.check_form(check, words)
         errors.update(field_errors)
         if errors:
             values = {k: v for k, v in items if k not in forms.CONTROL_FIELDS}

@@ -12,6 +12,8 @@ guess another's set; finished sets are removed after :data:`KEEP_SECONDS`.
 
 from __future__ import annotations
 
+import csv
+import io
 import json
 import os
 import re
@@ -50,6 +52,15 @@ def batch_available() -> bool:
 def roster_rows(text: str) -> int:
     """Pupils in a roster: its non-empty lines after the header."""
     return max(0, sum(1 for line in text.splitlines() if line.strip()) - 1)
+
+
+def roster_columns(text: str) -> set[str]:
+    """The column names of a roster's header line."""
+    try:
+        header = next(csv.reader(io.StringIO(text)), [])
+    except csv.Error:
+        return set()
+    return {name.strip() for name in header}
 
 
 def set_folder(root: Path, set_id: str) -> Path | None:
