@@ -369,3 +369,34 @@ def test_a_roster_may_carry_each_pupils_latitude(client):
     missing = client.post("/sets", data={"csrf_token": token(client)},
                           files={"roster": ("class.csv", b"owner\nAda\n", "text/csv")})
     assert missing.status_code == 422 and error_beside(missing.text, "latitude")
+
+
+def test_serving_beyond_loopback_warns_and_loopback_does_not(monkeypatch, capsys, tmp_path):
+    """The address is printed; a non-loopback --host (here 192.0.2.7, RFC
+    5737's documentation range, never really bound: the socket is a
+    loopback one) gets the template's warning on stderr."""
+    import socket
+
+    import uvicorn
+
+    from kitgen.web import server
+
+    bound = []
+
+    def loopback_socket(host, port):
+        bound.append(host)
+        s = socket.socket(socket.AF_INET, socket.SOCK_STREAM)
+        s.bind(("127.0.0.1", 0))
+        return s
+
+    monkeypatch.setattr(server, "bind_socket", loopback_socket)
+    monkeypatch.setattr(uvicorn.Server, "run", lambda self, sockets=None: None)
+    monkeypatch.setattr(server, "create_app", lambda **kw: create_app(workdir=tmp_path / "work", **kw))
+    server.serve("192.0.2.7", 0, host_given=True)
+    out, err = capsys.readouterr()
+    assert bound == ["192.0.2.7"]
+    assert out.startswith("http://127.0.0.1:")
+    assert err.strip() == template("en")["errors.serve_beyond_loopback"].format(host="192.0.2.7")
+    server.serve(None, 0)
+    out, err = capsys.readouterr()
+    assert bound[-1] == "127.0.0.1" and out.startswith("http://127.0.0.1:") and err == ""

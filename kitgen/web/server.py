@@ -61,12 +61,13 @@ def url_of(sock: socket.socket) -> str:
 
 
 def serve(host: str | None = None, port: int = 0, host_given: bool = False, open_browser: bool = False,
-          workers: int = 2, queue: int = 8, log=sys.stderr) -> None:
-    """Run the page until interrupted."""
+          workers: int = 2, queue: int = 8, log=None) -> None:
+    """Run the page until interrupted; the warning goes to ``log``
+    (standard error by default)."""
     host = check_bind(host, host_given)
     loopback = is_loopback(host)
     if not loopback:
-        print(one_line(Message("errors.serve_beyond_loopback", host=host).text()), file=log)
+        print(one_line(Message("errors.serve_beyond_loopback", host=host).text()), file=log or sys.stderr)
     sock = bind_socket(host, port)
     url = url_of(sock)
     app = create_app(workers=workers, queue=queue, loopback_only=loopback)
