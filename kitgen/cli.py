@@ -14,7 +14,8 @@ import sys
 from pathlib import Path
 
 from . import __version__, interrupt
-from .errors import EXIT_INTERNAL, EXIT_INTERRUPTED, EXIT_OK, EXIT_USER, Message, UserError, one_line, speaking
+from .errors import (EXIT_INTERNAL, EXIT_INTERRUPTED, EXIT_OK, EXIT_USER, Message, UserError, one_line, speaking,
+                     typed)
 
 
 class _Parser(argparse.ArgumentParser):
@@ -251,7 +252,7 @@ def _cmd_calibrate(args) -> int:
     except SheetError as exc:
         raise UserError("errors.sheet_option", problem=exc) from None
     if not MIN_MARGIN_MM <= args.margin <= MAX_MARGIN_MM:
-        raise UserError("errors.margin_option", value=f"{args.margin:g}", low=f"{MIN_MARGIN_MM:g}",
+        raise UserError("errors.margin_option", value=typed(args.margin), low=f"{MIN_MARGIN_MM:g}",
                         high=f"{MAX_MARGIN_MM:g}")
     try:
         sheet = make_sheet(value, args.margin)
@@ -276,7 +277,7 @@ def _cmd_preview(args) -> int:
     from .render.preview import MAX_DPI, MIN_DPI, render_previews
 
     if not MIN_DPI <= args.dpi <= MAX_DPI:
-        raise UserError("errors.dpi_option", value=f"{args.dpi:g}", low=f"{MIN_DPI:g}", high=f"{MAX_DPI:g}")
+        raise UserError("errors.dpi_option", value=typed(args.dpi), low=f"{MIN_DPI:g}", high=f"{MAX_DPI:g}")
     path = _recipe_path(args.recipe)
     folder = _output_path(args.output)
     if folder.exists() and not folder.is_dir():

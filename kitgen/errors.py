@@ -188,6 +188,55 @@ def speaking(language: str | None = None, language_file: str | None = None):
         raise
 
 
+def typed(value) -> str:
+    """A number from the input as the user wrote it, for a message: the
+    shortest text that reads back as the same number, so that 30.0000001
+    is never shown as 30 beside a bound of 30; an integer of many digits
+    shortened as :func:`shown` shortens any value."""
+    if isinstance(value, float):
+        short = f"{value:g}"
+        return short if float(short) == value else repr(value)
+    if isinstance(value, int) and not isinstance(value, bool) and abs(value) < 10 ** 20:
+        return str(value)
+    return shown(value)
+
+
+def bound(value: float, side: str, decimals: int = 2) -> str:
+    """A bound for a message, rounded outward to at most ``decimals``
+    decimals (``side`` "low" rounds up, "high" down), so a value shown
+    beside it and refused is never on the bound's allowed side."""
+    import math
+
+    scale = 10 ** decimals
+    x = math.ceil(value * scale - 1e-9) if side == "low" else math.floor(value * scale + 1e-9)
+    return f"{x / scale:.{decimals}f}".rstrip("0").rstrip(".")
+
+
+def short_of(value: float, needed: float) -> str:
+    """A quantity that falls short of ``needed``, for a message saying so:
+    rounded down, with as few decimals (up to 3) as keep it below the
+    ``needed`` shown beside it (never "120 ... at least 120")."""
+    import math
+
+    for decimals in range(4):
+        scale = 10 ** decimals
+        text = f"{math.floor(value * scale) / scale:.{decimals}f}"
+        if float(text) < needed:
+            return text
+    return f"{value:.3f}"
+
+
+def beyond(value: float, low: float, high: float) -> str:
+    """A number kitgen worked out that lies outside ``low`` to ``high``,
+    for a message saying so: with as few decimals as still show it outside
+    (-90.00027777 as -90.0003, 90.0000001 as 90.0000001)."""
+    for decimals in range(12):
+        text = f"{value:.{decimals}f}"
+        if not low <= float(text) <= high:
+            return text
+    return repr(float(value))
+
+
 def few(items, most: int = 4) -> list:
     """At most ``most`` of ``items`` for a message, then how many more
     (``errors.and_more``): a long list comes after the message's reason and

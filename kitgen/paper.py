@@ -23,7 +23,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
-from .errors import KeyedError, Message, shown
+from .errors import KeyedError, Message, bound, short_of, shown, typed
 
 MM_PER_INCH = 25.4  # exact, by the 1959 international yard and pound agreement
 
@@ -104,8 +104,8 @@ def parse_sheet(value):
                 v = _number(value[k], k) * factor
                 if not MIN_SIDE_MM - 1e-9 <= v <= MAX_SIDE_MM + 1e-9:
                     low, high = MIN_SIDE_MM / factor, MAX_SIDE_MM / factor
-                    raise SheetError("errors.sheet_side_range", key=k, value=f"{value[k]:g}", low=f"{low:.3g}",
-                                     high=f"{high:.3g}", unit=unit)
+                    raise SheetError("errors.sheet_side_range", key=k, value=typed(value[k]), low=bound(low, "low"),
+                                     high=bound(high, "high"), unit=unit)
                 sides.append(v)
             return (sides[0], sides[1])
     unknown = sorted(str(k) for k in keys - {"width_mm", "height_mm", "width_in", "height_in"})
@@ -144,8 +144,8 @@ def make_sheet(value, margin_mm: float = DEFAULT_MARGIN_MM) -> Sheet:
     if s.usable_width_mm < MIN_USABLE_MM - 1e-9:
         told = name if isinstance(value, str) else Message("errors.sheet_custom", width=f"{value[0]:g}",
                                                             height=f"{value[1]:g}")
-        raise SheetError("errors.sheet_margin", key="'margin_mm'", margin=f"{margin_mm:g}",
-                         usable=f"{s.usable_width_mm:.0f}", sheet=told, needed=f"{MIN_USABLE_MM:g}")
+        raise SheetError("errors.sheet_margin", key="'margin_mm'", margin=typed(margin_mm),
+                         usable=short_of(s.usable_width_mm, MIN_USABLE_MM), sheet=told, needed=f"{MIN_USABLE_MM:g}")
     return s
 
 
@@ -167,7 +167,8 @@ def parse_sheet_option(text: str):
             except ValueError:
                 break
             return parse_sheet(sides)
-    if t and t[0].isdigit():
+    if t and t[0].isdigit() or t.strip() not in SHEET_SIZES_MM:
+        # the hint in command-line syntax (250x350mm), not the recipe's YAML
         raise SheetError("errors.sheet_option_unreadable", value=shown(text), names=list(SHEET_SIZES_MM))
     return parse_sheet(text)
 

@@ -215,8 +215,8 @@ def test_str_of_an_error_is_the_english_template_filled_in():
     from kitgen.words.templates import load_words
 
     arabic = _tree("ar")["page"]["list_separator"]
-    listed = Message("errors.stars_outside", names=["'Vega'", "'Deneb'"]).text(load_words("ar"))
-    assert listed == _errors("ar")["errors.stars_outside"].format(names=arabic.join(["'Vega'", "'Deneb'"]))
+    listed = Message("errors.stars_outside", names=["'Vega'", "'Deneb'"], count=2).text(load_words("ar"))
+    assert listed == _errors("ar")["errors.stars_outside"].format(names=arabic.join(["'Vega'", "'Deneb'"]), count=2)
 
 
 # -- through the command line ------------------------------------------------------------

@@ -14,7 +14,7 @@ from __future__ import annotations
 import math
 import re
 
-from ..errors import KeyedError
+from ..errors import KeyedError, beyond
 
 ACCEPTED_FORMS = "48.2, -33.9, 33.9S, 40 26 46 N, 40°26′46″N, 40d26m46sN"
 #: Longest text read as a latitude (the longest form above is 14 characters).
@@ -82,5 +82,5 @@ def parse_latitude(value) -> float:
 
 def _in_range(lat: float) -> float:
     if not -90.0 <= lat <= 90.0:
-        raise LatitudeError("errors.latitude_range", value=f"{lat:g}")
+        raise LatitudeError("errors.latitude_range", value=beyond(lat, -90.0, 90.0))
     return lat

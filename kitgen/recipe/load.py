@@ -24,7 +24,8 @@ from pathlib import Path
 
 import yaml
 
-from ..errors import Message, UserError, few, shown, speaking
+from ..errors import Message, UserError, few, shown, speaking, typed
+from ..paper import DEFAULT_MARGIN_MM, SheetError, make_sheet
 from ..sky.rete_rim import epoch_obliquity_rad, rete_fits
 from ..sky.stars import closest_name, find_star, fold_name, outside, select_stars
 from ..template_files import STAR_NAMES, available_languages, shipped_tree
@@ -333,6 +334,7 @@ def _validate(tree: dict, source, lines: dict) -> Recipe:
     if "latitude_deg" not in values:
         raise UserError("errors.latitude_required", source=source)
     values.setdefault("epoch", current_year())
+    _check_sheet_room(values, source, lines)
     _check_stars_fit(values, source, lines)
     _check_drawable(values, source, lines)
     return Recipe(**values)
@@ -397,16 +399,6 @@ def _huge_number(value, depth: int = 0):
             if found is not None:
                 return found
     return None
-
-
-def typed(value) -> str:
-    """A number from the input as the user wrote it, for a message: the
-    shortest text that reads back as the same number (so 30.0000001 is
-    never shown as 30 beside a bound of 30)."""
-    if isinstance(value, float):
-        short = f"{value:g}"
-        return short if float(short) == value else repr(value)
-    return shown(value)
 
 
 def _text_problem(value: str) -> str | None:
@@ -573,6 +565,20 @@ def _check_stars_fit(values: dict, source, lines: dict) -> None:
     problem = (Message("errors.star_outside", name=off[0]) if len(off) == 1
                else Message("errors.stars_outside", names=few([f"'{n}'" for n in off]), count=len(off)))
     raise UserError("errors.key_problem", label=label, problem=problem)
+
+
+def _check_sheet_room(values: dict, source, lines: dict) -> None:
+    """The sheet and the margin together must leave room for the check
+    bar: refused here, with the line of the margin (or the sheet) in the
+    recipe, not later by the layout with no line."""
+    if "sheet" not in values and "margin_mm" not in values:
+        return
+    try:
+        make_sheet(values.get("sheet", "a4"), values.get("margin_mm", DEFAULT_MARGIN_MM))
+    except SheetError as exc:
+        name = "margin_mm" if "margin_mm" in lines else "sheet"
+        where = at_line(source, lines[name]) if name in lines else source
+        raise UserError("errors.key_problem", label=where, problem=exc) from None  # the problem names the key
 
 
 def _local_star_names(tree: dict, source) -> dict:

@@ -11,7 +11,7 @@ from __future__ import annotations
 
 import math
 
-from ..errors import KeyedError, shown
+from ..errors import KeyedError, shown, typed
 
 #: The scales accepted.  "Fit to page" of A4 onto Letter prints at 94 %
 #: (279.4 / 297); a printer that is off by more than 15 % is mismeasured.
@@ -29,7 +29,7 @@ def _factor(value, what: str) -> float:
     if isinstance(value, bool) or not isinstance(value, (int, float)) or not math.isfinite(value):
         raise ScaleError("errors.scale_not_number", name=name, value=shown(value))
     if not MIN_SCALE <= value <= MAX_SCALE:
-        raise ScaleError("errors.scale_range", name=name, value=f"{value:g}", low=f"{MIN_SCALE:g}",
+        raise ScaleError("errors.scale_range", name=name, value=typed(value), low=f"{MIN_SCALE:g}",
                          high=f"{MAX_SCALE:g}")
     return float(value)
 
