@@ -10,7 +10,9 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 from .pages import CHECK_BAR_MM
+from ..parts.clock_scale import signed
 from ..parts.format import latitude_text
+from ..words.locale import format_date
 
 
 @dataclass(frozen=True)
@@ -114,7 +116,145 @@ def story(kit, pages) -> list[Block]:
     out.append(Block("body", w("instructions.fastener")))
     out.append(Block("heading", w("instructions.time_heading")))
     out += numbered("instructions.time_steps")
+    out += clock_step(kit, len(w.items("instructions.time_steps")) + 1)
     out.append(Block("body", w("instructions.time_note")))
+    out += sun_example_blocks(kit) + correction_blocks(kit)
     out.append(Block("heading", w("instructions.height_heading")))
     out += numbered("instructions.height_steps")
+    out += sunrise_blocks(kit) + star_blocks(kit)
+    return out
+
+
+# Clock time, sunrise and the stars (#10): from the plan's almanac
+# (kitgen.sky.site_almanac) and worked examples (kitgen.sky.worked_example);
+# every word from the templates' almanac section.
+
+#: Days of the correction table: every seventh day from 1 January.
+WEEK_DAYS = 7
+
+
+def clock_text(words, hours: float) -> str:
+    """A time of day, ``H:MM`` to the nearest minute, in the kit's digits."""
+    minutes = int(round(hours * 60.0)) % 1440
+    h, m = divmod(minutes, 60)
+    return f"{words.number(h)}:{words.number(m // 10)}{words.number(m % 10)}"
+
+
+def _date(kit, month: int, day: int, with_year: bool = True) -> str:
+    w = kit.words
+    return format_date(kit.plan.epoch, month, day, w.language, w.native_digits, with_year)
+
+
+def _place(kit) -> str:
+    return kit.plan.site.place or latitude_text(kit.words, kit.plan.site.latitude_deg)
+
+
+def _zoned(kit) -> bool:
+    return kit.plan.almanac.time == "zone"
+
+
+def clock_name(kit) -> str:
+    """What the corrected time is: a clock of the site's zone, or local mean time."""
+    w = kit.words
+    return w("almanac.clock_zone", zone=kit.plan.site.timezone) if _zoned(kit) else w("almanac.clock_mean")
+
+
+def sun_place(words, longitude_deg: float) -> str:
+    """The Sun's place as the back's ecliptic ring shows it: degrees within a sign."""
+    lon = longitude_deg % 360.0
+    sign = int(lon // 30.0)
+    return words("almanac.sun_place", degrees=words.number(int(lon - 30.0 * sign)),
+                 sign=words.items("zodiac.signs")[sign])
+
+
+def clock_step(kit, number: int) -> list[Block]:
+    """The time-telling procedure's last step: to clock time."""
+    w = kit.words
+    text = w("almanac.clock_step", zone=kit.plan.site.timezone) if _zoned(kit) else w("almanac.clock_step_mean")
+    return [Block("item", text, w.number(number) + ".")]
+
+
+def sun_example_blocks(kit) -> list[Block]:
+    """The worked example by the Sun, at the site and in the epoch year."""
+    ex = kit.plan.examples.sun
+    if ex is None:
+        return []
+    w = kit.words
+    solar_min = int(round(ex.solar_hours * 60.0))
+    text = w("almanac.sun_example", place=_place(kit), date=_date(kit, ex.month, ex.day),
+             date_short=_date(kit, ex.month, ex.day, False),
+             altitude=w.number(ex.altitude_deg), sun_place=sun_place(w, ex.sun_longitude_deg),
+             solar=clock_text(w, solar_min / 60.0), correction=signed(w, ex.correction_min),
+             clock=clock_text(w, (solar_min + ex.correction_min) / 60.0), clock_name=clock_name(kit))
+    return [Block("heading", w("almanac.sun_example_heading")), Block("body", text)]
+
+
+def _month_rows(kit, entries) -> list[Block]:
+    """One item a month: ``entries`` is [(month, text)] in date order."""
+    w = kit.words
+    months = w.items("calendar.months")
+    out = []
+    for month in range(1, 13):
+        texts = [t for m, t in entries if m == month]
+        if texts:
+            out.append(Block("item", w("almanac.month_row", month=months[month - 1],
+                                       entries=w("page.list_separator").join(texts)), "\u2022"))
+    return out
+
+
+def correction_blocks(kit) -> list[Block]:
+    """The clock correction by week, as the ring on the back gives it."""
+    w = kit.words
+    rows = kit.plan.almanac.clock_correction[::WEEK_DAYS]
+    entries = [(m, w("almanac.correction_entry", day=w.number(d), minutes=signed(w, int(round(x)))))
+               for m, d, x in rows]
+    intro = w("almanac.correction_intro", clock_name=clock_name(kit), year=w.number(kit.plan.epoch))
+    return [Block("heading", w("almanac.correction_heading")), Block("body", intro)] + _month_rows(kit, entries)
+
+
+def _length(words, minutes: float) -> str:
+    h, m = divmod(int(round(minutes)), 60)
+    return words("almanac.length", hours=words.number(h), minutes=words.number(m))
+
+
+def sunrise_blocks(kit) -> list[Block]:
+    """The kit's own way to sunrise, sunset and the day's length, and the
+    site's table by half month to check it."""
+    w = kit.words
+    out = [Block("heading", w("almanac.sun_heading"))]
+    out += [Block("item", s, w.number(k) + ".") for k, s in enumerate(w.items("almanac.sun_steps"), start=1)]
+    out.append(Block("body", w("almanac.sun_note")))
+    out.append(Block("body", w("almanac.sun_table_intro", place=_place(kit), year=w.number(kit.plan.epoch),
+                               clock_name=clock_name(kit))))
+    entries = []
+    for r in kit.plan.almanac.sun_rise_set:
+        day = w.number(r.day)
+        if r.reason == "polar_day":
+            entries.append((r.month, w("almanac.polar_day", day=day)))
+        elif r.reason == "polar_night":
+            entries.append((r.month, w("almanac.polar_night", day=day)))
+        else:
+            entries.append((r.month, w("almanac.rise_set_entry", day=day, rise=clock_text(w, r.rise_min / 60.0),
+                                       set=clock_text(w, r.set_min / 60.0), length=_length(w, r.day_length_min))))
+    return out + _month_rows(kit, entries)
+
+
+def star_blocks(kit) -> list[Block]:
+    """Telling the time by a star, and the site's example."""
+    w = kit.words
+    out = [Block("heading", w("almanac.star_heading"))]
+    out += [Block("item", s, w.number(k) + ".") for k, s in enumerate(w.items("almanac.star_steps"), start=1)]
+    ex = kit.plan.examples.star
+    if ex is None:
+        return out
+    star = w.star_name(kit.sky.stars[ex.star_index].star.label)
+    solar_min = int(round(ex.solar_hours * 60.0))
+    out.append(Block("body", w("almanac.star_example", place=_place(kit), date=_date(kit, ex.month, ex.day),
+                               date_short=_date(kit, ex.month, ex.day, False),
+                               star=star, altitude=w.number(ex.altitude_deg),
+                               side=w("almanac.east" if ex.east else "almanac.west"),
+                               sun_place=sun_place(w, ex.sun_longitude_deg), solar=clock_text(w, solar_min / 60.0),
+                               correction=signed(w, ex.correction_min),
+                               clock=clock_text(w, (solar_min + ex.correction_min) / 60.0),
+                               clock_name=clock_name(kit))))
     return out

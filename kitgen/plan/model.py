@@ -11,6 +11,7 @@ from dataclasses import dataclass
 from ..paper import Sheet
 from ..sky.almanac import SkyForKit
 from ..sky.site_almanac import Almanac
+from ..sky.worked_example import WorkedExamples
 from ..words.templates import Words
 
 
@@ -82,6 +83,7 @@ class Plan:
     printing: Printing
     parts: tuple[str, ...]         # the kinds of part the kit prints
     almanac: Almanac               # the site's clock correction and sunrise table for the epoch year (#10)
+    examples: WorkedExamples       # the instructions' worked examples by the Sun and a star (#10)
 
     @property
     def latitude_deg(self) -> float:

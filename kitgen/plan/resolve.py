@@ -16,6 +16,7 @@ from ..recipe.schema import Recipe
 from ..recipe.twilight import twilight_altitudes_deg
 from ..sky.almanac import sky_for_kit
 from ..sky.site_almanac import almanac_for_site
+from ..sky.worked_example import worked_examples
 from ..words.templates import Words, load_words, words_from_tree
 from .model import Drawing, Plan, PlatePlan, Printing, Site
 
@@ -65,6 +66,7 @@ def plan_kit(recipe: Recipe) -> Plan:
     stars = recipe.stars
     site = plan_site(recipe, plates)
     sky = sky_for_kit(recipe.epoch, sign, stars.names, stars.brightest, stars.magnitude_limit, site.longitude_deg)
+    almanac = almanac_for_site(recipe.epoch, site.latitude_deg, site.longitude_deg, site.timezone)
     return Plan(
         title=recipe.title,
         epoch=recipe.epoch,
@@ -80,5 +82,6 @@ def plan_kit(recipe: Recipe) -> Plan:
                           recipe.duplex, tuple(recipe.cutter_colours), float(recipe.pin_hole_mm),
                           float(recipe.sight_hole_mm)),
         parts=tuple(recipe.parts),
-        almanac=almanac_for_site(recipe.epoch, site.latitude_deg, site.longitude_deg, site.timezone),
+        almanac=almanac,
+        examples=worked_examples(site.latitude_deg, sky, almanac),
     )

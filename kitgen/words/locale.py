@@ -8,11 +8,13 @@ language file holds only the words of the instrument.
 
 from __future__ import annotations
 
+import datetime as _dt
 import unicodedata
 from functools import lru_cache
 
 from babel import Locale, UnknownLocaleError
 from babel.core import get_global
+from babel.dates import format_skeleton
 from babel.numbers import format_decimal
 
 #: The first digit of each CLDR numbering system kitgen can print
@@ -101,4 +103,18 @@ def format_number(value: float, decimals: int, code: str, native_digits: bool = 
                           numbering_system=system)
     if system != "latn":
         text = text.translate(str.maketrans("0123456789", digits(system)))
+    return text
+
+
+def format_date(year: int, month: int, day: int, code: str, native_digits: bool = False,
+                with_year: bool = True) -> str:
+    """A date as the locale writes it in running text (CLDR's skeleton
+    ``yMMMMd``, or ``MMMMd`` without the year: "15 mars 2027", "15. März",
+    Russian "15 марта" in the genitive), with the locale's own digits when
+    asked."""
+    text = format_skeleton("yMMMMd" if with_year else "MMMMd", _dt.date(year, month, day), locale=cldr_locale(code))
+    if native_digits:
+        system = native_numbering_system(code)
+        if system != "latn":
+            text = text.translate(str.maketrans("0123456789", digits(system)))
     return text

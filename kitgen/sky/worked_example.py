@@ -1,0 +1,158 @@
+"""Worked examples for the instructions (#10, #9): telling the time by the
+Sun and by a star at the kit's own site in its epoch year, with the numbers
+a pupil sees at each step.
+
+The examples are worked with the kit's own astronomy, as its parts draw
+it: the Sun's longitude of the calendar (at the site's noon), the epoch's
+obliquity of the rete, the stars' places at the epoch, and the printed
+clock correction rounded to the whole minute the ring shows.  So the
+time an example gives is the time the paper instrument gives, to the
+rounding of the printed numbers.  The spherical triangle is the usual one
+(Smart, *Textbook on Spherical Astronomy*, 6th ed. 1977, ch. II):
+
+    sin h = sin(phi) sin(delta) + cos(phi) cos(delta) cos(H),
+
+H the hour angle, west positive; local apparent solar time is
+12 h + H(Sun), and the sidereal time H(star) + RA(star) = H(Sun) + RA(Sun).
+
+The Sun's example is a morning in the epoch year when the Sun stands
+between 15 and 60 deg at 10:00 local apparent time; the star's, an evening
+at 21:00 (20:00 or 22:00) on the almanac's clock when the Sun is at
+least 12 deg below the horizon, with the brightest named star of the rete
+between 20 and 70 deg, at least two hours from the meridian.  Degrees at
+the edges, radians inside, times in hours.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+from .almanac import SkyForKit
+from .site_almanac import Almanac
+
+#: Months tried for the examples, those of the school year first.
+MONTH_ORDER = (3, 10, 4, 9, 5, 11, 2, 1, 12, 6, 8, 7)
+#: The day of the month of an example.
+EXAMPLE_DAY = 15
+#: The Sun's hour angle of the morning example: 10:00 apparent time.
+SUN_HOUR_ANGLE_DEG = -30.0
+SUN_ALTITUDE_RANGE_DEG = (15.0, 60.0)
+#: Clock times tried for the star's example (hours), the Sun's greatest
+#: altitude then (nautical twilight over) and the star's room.
+EVENING_HOURS = (21.0, 22.0, 20.0)
+DARK_SUN_DEG = -12.0
+STAR_ALTITUDE_RANGE_DEG = (20.0, 70.0)
+STAR_MIN_HOUR_ANGLE_DEG = 30.0
+
+
+@dataclass(frozen=True)
+class SunExample:
+    month: int
+    day: int
+    sun_longitude_deg: float     # as the calendar gives it
+    altitude_deg: float          # the measured altitude (whole degrees)
+    solar_hours: float           # local apparent solar time the instrument reads
+    correction_min: int          # the ring's number on that date
+    clock_hours: float           # solar time + correction
+
+
+@dataclass(frozen=True)
+class StarExample:
+    month: int
+    day: int
+    star_index: int              # which of the sky's placed stars
+    altitude_deg: float          # the measured altitude (whole degrees)
+    east: bool                   # the star rises (east of the meridian)
+    sun_longitude_deg: float
+    solar_hours: float
+    correction_min: int
+    clock_hours: float
+
+
+@dataclass(frozen=True)
+class WorkedExamples:
+    sun: SunExample | None       # None where the Sun never stands right (polar night all year)
+    star: StarExample | None     # None where no night or no star suits
+
+
+def _altitude_rad(phi: float, dec: float, hour_angle: float) -> float:
+    return math.asin(max(-1.0, min(1.0, math.sin(phi) * math.sin(dec)
+                                   + math.cos(phi) * math.cos(dec) * math.cos(hour_angle))))
+
+
+def hour_angle_rad(phi: float, dec: float, altitude: float) -> float | None:
+    """|H| (radians) at which a body of declination ``dec`` stands at
+    ``altitude`` seen from latitude ``phi``, or None if it never does."""
+    c = (math.sin(altitude) - math.sin(phi) * math.sin(dec)) / (math.cos(phi) * math.cos(dec))
+    return math.acos(c) if -1.0 <= c <= 1.0 else None
+
+
+def sun_place_rad(longitude_deg: float, obliquity_rad: float) -> tuple[float, float]:
+    """(right ascension, declination) of the Sun at ecliptic longitude
+    ``longitude_deg``, latitude 0 (Smart 1977, ch. II)."""
+    lam = math.radians(longitude_deg)
+    ra = math.atan2(math.cos(obliquity_rad) * math.sin(lam), math.cos(lam)) % (2 * math.pi)
+    return ra, math.asin(math.sin(obliquity_rad) * math.sin(lam))
+
+
+def _day(sky: SkyForKit, almanac: Almanac, month: int, day: int) -> tuple[float, int]:
+    """The calendar's Sun longitude and the ring's whole-minute correction."""
+    lon = next(x for m, d, x in sky.calendar if (m, d) == (month, day))
+    corr = next(x for m, d, x in almanac.clock_correction if (m, d) == (month, day))
+    return lon, int(round(corr))
+
+
+def sun_example(latitude_deg: float, sky: SkyForKit, almanac: Almanac) -> SunExample | None:
+    """A morning measurement of the Sun and the clock time it gives."""
+    phi = math.radians(latitude_deg)
+    for month in MONTH_ORDER:
+        lon, corr = _day(sky, almanac, month, EXAMPLE_DAY)
+        _, dec = sun_place_rad(lon, sky.obliquity_rad)
+        alt = math.degrees(_altitude_rad(phi, dec, math.radians(SUN_HOUR_ANGLE_DEG)))
+        if not SUN_ALTITUDE_RANGE_DEG[0] <= alt <= SUN_ALTITUDE_RANGE_DEG[1]:
+            continue
+        measured = float(round(alt))
+        h = hour_angle_rad(phi, dec, math.radians(measured))
+        solar = 12.0 - math.degrees(h) / 15.0
+        return SunExample(month, EXAMPLE_DAY, lon, measured, solar, corr, solar + corr / 60.0)
+    return None
+
+
+def star_example(latitude_deg: float, sky: SkyForKit, almanac: Almanac) -> StarExample | None:
+    """An evening measurement of a bright named star and the clock time it
+    gives."""
+    phi = math.radians(latitude_deg)
+    order = sorted((k for k, s in enumerate(sky.stars) if s.star.name), key=lambda k: sky.stars[k].star.mag)
+    for month in MONTH_ORDER:
+        lon, corr = _day(sky, almanac, month, EXAMPLE_DAY)
+        sun_ra, sun_dec = sun_place_rad(lon, sky.obliquity_rad)
+        for clock in EVENING_HOURS:
+            solar = clock - corr / 60.0
+            sun_h = math.radians((solar - 12.0) * 15.0)
+            if math.degrees(_altitude_rad(phi, sun_dec, sun_h)) > DARK_SUN_DEG:
+                continue
+            sidereal = sun_ra + sun_h
+            for k in order:
+                st = sky.stars[k]
+                ra, dec = math.radians(st.ra_deg), math.radians(st.dec_deg)
+                h_star = (sidereal - ra + math.pi) % (2 * math.pi) - math.pi
+                alt = math.degrees(_altitude_rad(phi, dec, h_star))
+                if not (STAR_ALTITUDE_RANGE_DEG[0] <= alt <= STAR_ALTITUDE_RANGE_DEG[1]
+                        and abs(math.degrees(h_star)) >= STAR_MIN_HOUR_ANGLE_DEG):
+                    continue
+                measured = float(round(alt))
+                east = h_star < 0
+                h = hour_angle_rad(phi, dec, math.radians(measured))
+                if h is None:
+                    continue
+                star_h = -h if east else h
+                read_sun_h = ra + star_h - sun_ra
+                read = (12.0 + math.degrees(read_sun_h) / 15.0) % 24.0
+                return StarExample(month, EXAMPLE_DAY, k, measured, east, lon, read, corr, read + corr / 60.0)
+    return None
+
+
+def worked_examples(latitude_deg: float, sky: SkyForKit, almanac: Almanac) -> WorkedExamples:
+    """Both examples for the site (see the module docstring)."""
+    return WorkedExamples(sun_example(latitude_deg, sky, almanac), star_example(latitude_deg, sky, almanac))
