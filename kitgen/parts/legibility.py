@@ -148,38 +148,47 @@ def almucantar_gap_mm(step_deg: float, phi: float, s: int, R: float, disc: float
     return best
 
 
-def almucantar_label_point(alt_deg: float, step_deg: float, label_every_deg: float, phi: float, s: int,
-                           R: float):
-    """Where an almucantar's number stands: on the meridian, on the noon
-    side of the zenith, a little above its circle (mm)."""
-    lift = min(step_deg, label_every_deg) * 0.45
-    v = horizontal_vector(math.radians(alt_deg + lift), 0.0 if phi < 0 else math.pi, phi)
-    return project_vectors(v, s, R)
-
-
 def label_every_deg(step_deg: float) -> float:
+    """Almucantars are numbered every 10 degrees, or every step where the
+    step is coarser (a multiple of the step)."""
     return step_deg * max(1, round(ALTITUDE_LABEL_EVERY_DEG / step_deg))
 
 
 def almucantar_labels(step_deg, phi, s, R, disc, tick_mm, text_height_mm) -> tuple[float, ...]:
-    """The almucantars numbered: every ``label_every_deg`` from the horizon
-    up, each number in the band between its circle and the next one above
-    on the meridian, stopping below the first band narrower than the
-    numbers' height and :data:`MIN_LABEL_GAP_MM` (there the number would sit
-    on the lines)."""
+    """The almucantars numbered: every ``label_every_deg`` (each wherever
+    it is drawn, see kitgen.parts.plate_labels) and, where the circles are
+    5 degrees apart or closer, the multiples of 5 between them, from the
+    horizon up while on the meridian the circles next to one leave room
+    for its number set on it (half its height and :data:`MIN_LABEL_GAP_MM`
+    on each side; the first one without room and those above it stay
+    unnumbered)."""
     every = label_every_deg(step_deg)
-    south = 0.0 if phi < 0 else math.pi
-    out = []
-    for alt in np.arange(every, 90.0 - 1e-9, every):
-        p = almucantar_label_point(alt, step_deg, every, phi, s, R)
-        if not (np.all(np.isfinite(p)) and np.hypot(*p) < disc - tick_mm):
+    out = [float(a) for a in np.arange(every, 90.0 - 1e-9, every)]
+    if every <= 5.0 or step_deg > 5.0 or abs(5.0 / step_deg - round(5.0 / step_deg)) > 1e-9:
+        return tuple(out)
+    for alt in np.arange(5.0, 90.0 - 1e-9, 10.0):
+        room = _meridian_room_mm(float(alt), step_deg, phi, s, R, disc - tick_mm)
+        if room is None:
             continue
-        ends = project_vectors(horizontal_vector(np.radians([alt, min(alt + step_deg, 90.0)]),
-                                                 np.full(2, south), phi), s, R)
-        if abs(ends[1][1] - ends[0][1]) < text_height_mm + MIN_LABEL_GAP_MM:
+        if room < text_height_mm / 2 + MIN_LABEL_GAP_MM:
             break
         out.append(float(alt))
-    return tuple(out)
+    return tuple(sorted(out))
+
+
+def _meridian_room_mm(alt_deg, step_deg, phi, s, R, inside_mm):
+    """The least distance (mm) along the meridian from the almucantar
+    ``alt_deg`` to its neighbours ``step_deg`` above and below, at those
+    of its two meridian points inside ``inside_mm``; None where neither is."""
+    best = None
+    for az in (0.0, math.pi):
+        alts = np.radians([alt_deg - step_deg, alt_deg, min(alt_deg + step_deg, 90.0)])
+        p = project_vectors(horizontal_vector(alts, np.full(3, az), phi), s, R)
+        if not (np.all(np.isfinite(p[1])) and np.hypot(*p[1]) < inside_mm):
+            continue
+        gaps = [float(np.hypot(*(p[1] - p[0]))), float(np.hypot(*(p[2] - p[1])))]
+        best = min([g for g in gaps if math.isfinite(g)] + ([best] if best is not None else []))
+    return best
 
 
 def azimuth_gap_mm(step_deg: float, top_deg: float, phi: float, s: int, R: float) -> float:
@@ -223,11 +232,14 @@ def plan_scales(plan, plate, dims) -> Scales:
                              gap=Number(g, 2), diameter=size, step=Number(step)))
     labels = almucantar_labels(step, phi, s, R, disc, dims.tick_mm, text_h)
     every = label_every_deg(step)
-    full = [a for a in np.arange(every, 90.0 - 1e-9, every)
-            if np.hypot(*almucantar_label_point(a, step, every, phi, s, R)) < disc - dims.tick_mm]
-    if labels and len(labels) < len(full):
-        notes.append(Message("notes.almucantar_numbers", part=plate_part, highest=Number(labels[-1]),
-                             diameter=size))
+    if every > 5.0 and step <= 5.0 and abs(5.0 / step - round(5.0 / step)) < 1e-9:
+        fives = [float(a) for a in np.arange(5.0, 90.0 - 1e-9, 10.0)
+                 if _meridian_room_mm(float(a), step, phi, s, R, disc - dims.tick_mm) is not None]
+        kept = [a for a in labels if a in fives]
+        if len(kept) < len(fives):
+            notes.append(Message("notes.almucantar_numbers", part=plate_part, fine=Number(5),
+                                 highest=Number(kept[-1] if kept else 0.0), coarse=Number(every),
+                                 diameter=size))
 
     # Azimuths: end on the almucantar 90 - max(10, step); coarser if they crowd there.
     top = 90.0 - max(10.0, step)

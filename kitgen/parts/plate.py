@@ -16,7 +16,8 @@ import numpy as np
 from ..geometry import model
 from ..projection.stereographic import (equatorial_vector, horizontal_vector,
                                         project_vectors)
-from . import curves, labels, legibility
+from ..geometry.style import stroke_width_mm
+from . import breaks, curves, labels, legibility, plate_labels
 from .context import PartContext
 from .dimensions import MIN_TEXT_PT
 from .format import latitude_text
@@ -60,7 +61,10 @@ def plate(ctx: PartContext) -> model.Part:
     z = project_vectors(zenith, s, R)
     if np.hypot(*z) <= disc:
         els.append(model.point("zenith", z))
-    els += _labels(ctx, phi, s, R, disc, zenith)
+    words = _labels(ctx, phi, s, R, disc, els)
+    boxes = [breaks.text_box(e, ctx.words) for e in words]
+    els = breaks.break_around(els, boxes, labels.MARGIN_MM, lambda stroke: stroke_width_mm(stroke, d))
+    els += words
     els.append(model.point("pin", (0.0, 0.0), hole="centre"))
     r = d.plate_radius_mm + d.tick_mm * 4
     return model.Part("plate", "card", tuple(els), (-r, -r, r, r),
@@ -148,34 +152,48 @@ def _unequal_hours(phi, eps, s, R, disc):
     return out
 
 
-def _labels(ctx, phi, s, R, disc, zenith):
-    d, w = ctx.dims, ctx.words
-    out = []
-    # Almucantar numbers on the meridian, on the noon side of the zenith.
-    step = ctx.scales.altitude_step_deg
-    label_every = legibility.label_every_deg(step)
-    for alt in ctx.scales.almucantar_labels_deg:
-        # The number stands just above its circle, clear of the line.
-        p = legibility.almucantar_label_point(alt, step, label_every, phi, s, R)
-        if np.all(np.isfinite(p)) and np.hypot(*p) < disc - d.tick_mm:
-            out.append(model.text("almucantar_label", (p[0] + d.tick_mm, p[1]), w.number(alt), d.small_text_pt,
-                                  anchor="start", altitude_deg=float(alt)))
-    # Cardinal points just above the horizon.
+def _labels(ctx, phi, s, R, disc, strokes):
+    """The plate's words and numbers (see :mod:`kitgen.parts.plate_labels`),
+    most needed first, each clear of those set before it: the latitude,
+    the cardinal points, the almucantars' tens, the unequal hours, the
+    azimuths, the names of the horizon, equator, tropics and twilight line,
+    then the almucantars' fives where there is room."""
+    w, eps = ctx.words, ctx.sky.obliquity_rad
+    first = _latitude_label(ctx, disc)
+    lab = plate_labels.PlateLabeller(ctx, strokes, disc, [breaks.text_box(e, w) for e in first])
     for az, key in ((0.0, "cardinal.north"), (90.0, "cardinal.east"), (180.0, "cardinal.south"),
                     (270.0, "cardinal.west")):
-        v = horizontal_vector(math.radians(3.0), math.radians(az), phi)
-        p = project_vectors(v, s, R)
-        if np.all(np.isfinite(p)) and np.hypot(*p) < disc - 2 * d.tick_mm:
-            out.append(model.text("cardinal", p, w(key), d.text_pt, azimuth_deg=az))
-    if ctx.plan.drawing.unequal_hours and abs(math.degrees(phi)) < 90.0 - math.degrees(ctx.sky.obliquity_rad):
-        # Numbered halfway between the equator and the outer tropic.
-        dec_label = -s * ctx.sky.obliquity_rad / 2
-        h0 = math.acos(max(-1.0, min(1.0, -math.tan(phi) * math.tan(dec_label))))
-        for k in range(1, 12):
-            ha = h0 + k * (2 * math.pi - 2 * h0) / 12.0
-            p = project_vectors(equatorial_vector(ha, dec_label), s, R)
-            if np.hypot(*p) < disc:
-                out.append(model.text("unequal_hour_label", p, w.number(k), d.small_text_pt, hour=k))
+        lab.cardinal(az, key, phi, s, R, disc)
+    step = ctx.scales.altitude_step_deg
+    every = legibility.label_every_deg(step)
+    numbered = ctx.scales.almucantar_labels_deg
+    tens = [a for a in numbered if _multiple(a, every)]
+    for alt in tens:
+        lab.almucantar(alt, True)
+    if ctx.plan.drawing.unequal_hours and abs(math.degrees(phi)) < 90.0 - math.degrees(eps):
+        for k in range(1, 13):
+            lab.unequal_hour(k, phi, s, R, eps)
+    az_step = ctx.scales.azimuth_step_deg
+    azimuths = [a for a in np.arange(0.0, 360.0 - 1e-9, az_step) if not _multiple(a, 90.0)]
+    for az in sorted(azimuths, key=lambda a: (not _multiple(a, 30.0), a)):
+        lab.azimuth(float(az), phi, s, R)
+    lab.curve_name("horizon", "plate.line_horizon")
+    lab.curve_name("equator", "plate.line_equator")
+    lab.curve_name("tropic", "plate.line_tropic_cancer", declination_deg=math.degrees(eps))
+    lab.curve_name("tropic", "plate.line_tropic_capricorn", declination_deg=-math.degrees(eps))
+    lab.curve_name("twilight", "plate.line_twilight")
+    for alt in numbered:
+        if alt not in tens:
+            lab.almucantar(alt, False)
+    return first + lab.out
+
+
+def _multiple(value: float, of: float) -> bool:
+    return abs(value / of - round(value / of)) < 1e-9
+
+
+def _latitude_label(ctx, disc):
+    d, w = ctx.dims, ctx.words
     # The latitude, from beside the meridian to the edge of the drawing;
     # raised from 0.9 of the disc's radius where a small plate's chord
     # there is shorter than the words.
@@ -195,6 +213,5 @@ def _labels(ctx, phi, s, R, disc, zenith):
         down = reach(max(w.measure(x, MIN_TEXT_PT).width_mm for x in (head, tail)))
     y = -min(disc * 0.9, max(disc * 0.6, down))
     room = math.sqrt((disc - labels.MARGIN_MM) ** 2 - (abs(y) + h / 2) ** 2) - d.tick_mm
-    out += labels.fitted_text("plate_label", (d.tick_mm, y), text,
+    return labels.fitted_text("plate_label", (d.tick_mm, y), text,
                               d.text_pt, w, room, h, anchor="start")
-    return out

@@ -1,0 +1,292 @@
+"""Lines broken around labels: no drawn line crosses a printed character.
+
+A label is a turned rectangle (:class:`Box`): the measured extent of its
+text (``Words.measure``, the shipped fonts' advances and outlines), grown
+by a clearance.  Every stroke of a part (circle, arc, segment, polyline)
+that passes through such a box is cut there and drawn as the pieces
+outside it, each exact: a circle's pieces are arcs of the same circle, a
+segment's and a polyline's pieces run along the same lines.  Leaving a gap
+in the lines round a number or a name is common practice on printed scales
+and maps.
+
+Pure plane geometry in mm; angles in degrees at the edges (as the geometry
+model stores them), radians inside.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+from ..geometry import model
+
+#: Pieces shorter than this (mm) are dropped: a stub between two labels
+#: would print as a dot, not as a line.
+MIN_PIECE_MM = 0.25
+
+
+@dataclass(frozen=True)
+class Box:
+    """A rectangle centred on ``center``, its long side along the unit
+    vector (cos a, sin a) with ``angle_rad`` = a, ``half_w`` along it and
+    ``half_h`` across it (mm)."""
+
+    center: tuple[float, float]
+    angle_rad: float
+    half_w: float
+    half_h: float
+
+    def grown(self, by_mm: float) -> "Box":
+        return Box(self.center, self.angle_rad, self.half_w + by_mm, self.half_h + by_mm)
+
+    def local(self, x: float, y: float) -> tuple[float, float]:
+        """(x, y) in the box's own frame (its centre at 0, its side along x)."""
+        dx, dy = x - self.center[0], y - self.center[1]
+        c, s = math.cos(self.angle_rad), math.sin(self.angle_rad)
+        return (c * dx + s * dy, -s * dx + c * dy)
+
+    def corners(self):
+        c, s = math.cos(self.angle_rad), math.sin(self.angle_rad)
+        out = []
+        for dx, dy in ((-self.half_w, -self.half_h), (self.half_w, -self.half_h),
+                       (self.half_w, self.half_h), (-self.half_w, self.half_h)):
+            out.append((self.center[0] + c * dx - s * dy, self.center[1] + s * dx + c * dy))
+        return out
+
+    def contains(self, x: float, y: float) -> bool:
+        u, v = self.local(x, y)
+        return abs(u) < self.half_w and abs(v) < self.half_h
+
+    @property
+    def radius(self) -> float:
+        """Half of the diagonal: every point of the box is this close to its centre."""
+        return math.hypot(self.half_w, self.half_h)
+
+
+def text_box(el, words, style: str = "label") -> Box:
+    """The box of a text element: its measured extent, turned as it is set
+    (the line's middle height on ``at``, see :mod:`kitgen.geometry.model`)."""
+    g = el.geom
+    ext = words.measure(g["text"], g["size_pt"], style)
+    a = math.radians(g["angle_deg"])
+    shift = {"start": ext.width_mm / 2, "middle": 0.0, "end": -ext.width_mm / 2}[g["anchor"]]
+    c = (g["at"][0] + math.cos(a) * shift, g["at"][1] + math.sin(a) * shift)
+    return Box(c, a, ext.width_mm / 2, ext.height_mm / 2)
+
+
+def boxes_overlap(a: Box, b: Box) -> bool:
+    """Whether two boxes overlap (separating-axis test for convex polygons)."""
+    pa, pb = a.corners(), b.corners()
+    for angle in (a.angle_rad, a.angle_rad + math.pi / 2, b.angle_rad, b.angle_rad + math.pi / 2):
+        ux, uy = math.cos(angle), math.sin(angle)
+        ra = [x * ux + y * uy for x, y in pa]
+        rb = [x * ux + y * uy for x, y in pb]
+        if max(ra) <= min(rb) or max(rb) <= min(ra):
+            return False
+    return True
+
+
+# -- where a stroke runs inside a box ---------------------------------------------
+
+def segment_inside(p, q, box: Box):
+    """The parameter interval (t0, t1) of the segment p + t (q - p), 0 <= t
+    <= 1, inside the box, or None (Liang and Barsky's clipping, 1984)."""
+    x0, y0 = box.local(*p)
+    x1, y1 = box.local(*q)
+    t0, t1 = 0.0, 1.0
+    for d, lo, hi, s in ((x1 - x0, -box.half_w, box.half_w, x0), (y1 - y0, -box.half_h, box.half_h, y0)):
+        if abs(d) < 1e-15:
+            if s <= lo or s >= hi:
+                return None
+            continue
+        a, b = (lo - s) / d, (hi - s) / d
+        if a > b:
+            a, b = b, a
+        t0, t1 = max(t0, a), min(t1, b)
+        if t0 >= t1:
+            return None
+    return (t0, t1)
+
+
+def circle_inside(center, radius_mm: float, box: Box):
+    """The angular ranges (a, b) in radians, counter-clockwise from +x about
+    ``center``, b > a, of the circle inside the box."""
+    cx, cy = box.local(*center)
+    r = radius_mm
+    if math.hypot(cx, cy) - r > box.radius:
+        return []
+    hits = []
+    for edge, half, other in ((box.half_w, box.half_h, 0), (-box.half_w, box.half_h, 0),
+                              (box.half_h, box.half_w, 1), (-box.half_h, box.half_w, 1)):
+        # Edge x = edge (other == 0) or y = edge (other == 1), |along| <= half.
+        d = edge - (cx if other == 0 else cy)
+        room = (r - d) * (r + d)   # r^2 - d^2 without cancellation
+        if room < 0.0:
+            continue
+        for along in (math.sqrt(room), -math.sqrt(room)):
+            centre_along = cy if other == 0 else cx
+            if abs(centre_along + along) <= half:
+                hits.append(math.atan2(along, d) if other == 0 else math.atan2(d, along))
+    if not hits:
+        return [(0.0, 2 * math.pi)] if _inside_local(box, cx + r, cy) else []
+    hits = sorted(set(h % (2 * math.pi) for h in hits))
+    out = []
+    for i, a in enumerate(hits):
+        b = hits[(i + 1) % len(hits)]
+        if b <= a:
+            b += 2 * math.pi
+        m = (a + b) / 2
+        if _inside_local(box, cx + r * math.cos(m), cy + r * math.sin(m)):
+            out.append((a + box.angle_rad, b + box.angle_rad))
+    return out
+
+
+def _inside_local(box: Box, u: float, v: float) -> bool:
+    return abs(u) < box.half_w and abs(v) < box.half_h
+
+
+def meets(el, box: Box) -> bool:
+    """Whether the stroke element ``el`` runs through ``box``."""
+    if not may_meet(el, box):
+        return False
+    g = el.geom
+    if el.shape in ("circle", "arc"):
+        ranges = circle_inside(g["center"], g["radius"], box)
+        if el.shape == "circle":
+            return bool(ranges)
+        lo, hi = math.radians(g["start_deg"]), math.radians(g["end_deg"])
+        return bool(_clip_to_range(ranges, lo, hi))
+    if el.shape == "segment":
+        return segment_inside(g["from"], g["to"], box) is not None
+    if el.shape == "polyline":
+        pts = g["points"]
+        pairs = list(zip(pts, pts[1:])) + ([(pts[-1], pts[0])] if g["closed"] else [])
+        rr, (x, y) = box.radius, box.center
+        return any(segment_inside(p, q, box) is not None for p, q in pairs
+                   if min(p[0], q[0]) - rr <= x <= max(p[0], q[0]) + rr
+                   and min(p[1], q[1]) - rr <= y <= max(p[1], q[1]) + rr)
+    return False
+
+
+def _clip_to_range(ranges, lo: float, hi: float):
+    """The parts of angular ranges (radians, any turn) within [lo, hi]."""
+    out = []
+    for a, b in ranges:
+        w = b - a
+        a = lo + (a - lo) % (2 * math.pi)
+        for start in (a - 2 * math.pi, a):
+            s, e = max(lo, start), min(hi, start + w)
+            if e > s:
+                out.append((s, e))
+    return out
+
+
+def _complement(cuts, lo: float, hi: float):
+    """[lo, hi] less the union of the intervals ``cuts``."""
+    out, at = [], lo
+    for a, b in sorted(cuts):
+        if a > at:
+            out.append((at, a))
+        at = max(at, b)
+    if at < hi:
+        out.append((at, hi))
+    return out
+
+
+# -- breaking ------------------------------------------------------------------------
+
+def break_element(el, boxes) -> list:
+    """The pieces of the stroke element ``el`` outside every box of
+    ``boxes`` (already grown by the clearance and half the line's width)."""
+    g = el.geom
+    near = [b for b in boxes if may_meet(el, b)]
+    if not near:
+        return [el]
+    if el.shape in ("circle", "arc"):
+        c, r = g["center"], g["radius"]
+        if el.shape == "circle":
+            lo, hi = 0.0, 2 * math.pi
+        else:
+            lo, hi = math.radians(g["start_deg"]), math.radians(g["end_deg"])
+        cuts = [x for b in near for x in _clip_to_range(circle_inside(c, r, b), lo, hi)]
+        if not cuts:
+            return [el]
+        keep = _complement(cuts, lo, hi)
+        if el.shape == "circle" and len(keep) > 1 and keep[0][0] == lo and keep[-1][1] == hi:
+            keep = [(keep[-1][0], keep[0][1] + 2 * math.pi)] + keep[1:-1]
+        return [model.arc(el.role, c, r, math.degrees(a), math.degrees(b), el.stroke, **el.values)
+                for a, b in keep if (b - a) * r >= MIN_PIECE_MM]
+    if el.shape == "segment":
+        p, q = g["from"], g["to"]
+        cuts = [t for t in (segment_inside(p, q, b) for b in near) if t is not None]
+        if not cuts:
+            return [el]
+        length = math.dist(p, q)
+        return [model.segment(el.role, _lerp(p, q, a), _lerp(p, q, b), el.stroke, **el.values)
+                for a, b in _complement(cuts, 0.0, 1.0) if (b - a) * length >= MIN_PIECE_MM]
+    if el.shape == "polyline":
+        return _break_polyline(el, near)
+    return [el]
+
+
+def may_meet(el, box: Box) -> bool:
+    """A quick test that rules out most far boxes."""
+    g = el.geom
+    if el.shape not in ("circle", "arc", "segment", "polyline"):
+        return False
+    x, y = box.center
+    if el.shape in ("circle", "arc"):
+        return abs(math.dist(g["center"], (x, y)) - g["radius"]) <= box.radius
+    pts = [g["from"], g["to"]] if el.shape == "segment" else g["points"]
+    xs, ys = [p[0] for p in pts], [p[1] for p in pts]
+    rr = box.radius
+    return min(xs) - rr <= x <= max(xs) + rr and min(ys) - rr <= y <= max(ys) + rr
+
+
+def _lerp(p, q, t):
+    return (p[0] + (q[0] - p[0]) * t, p[1] + (q[1] - p[1]) * t)
+
+
+def _break_polyline(el, boxes) -> list:
+    pts = list(el.geom["points"])
+    if el.geom["closed"]:
+        pts.append(pts[0])
+    runs, run = [], []
+    for p, q in zip(pts, pts[1:]):
+        if not run:
+            run = [p]
+        cuts = [t for t in (segment_inside(p, q, b) for b in boxes) if t is not None]
+        if not cuts:
+            run.append(q)
+            continue
+        keep = _complement(cuts, 0.0, 1.0)
+        for a, b in keep:
+            if a > 0.0:          # a gap before this piece: the run ends
+                runs.append(run)
+                run = [_lerp(p, q, a)]
+            run.append(_lerp(p, q, b))
+        if not keep or keep[-1][1] < 1.0:   # a gap at the segment's end
+            runs.append(run)
+            run = []
+    runs.append(run)
+    out = []
+    for r in runs:
+        clean = [p for i, p in enumerate(r) if i == 0 or p != r[i - 1]]
+        if len(clean) >= 2 and sum(math.dist(a, b) for a, b in zip(clean, clean[1:])) >= MIN_PIECE_MM:
+            out.append(model.polyline(el.role, clean, False, el.stroke, **el.values))
+    return out
+
+
+def break_around(elements, boxes, clearance_mm: float, width_of) -> list:
+    """Every element of ``elements``, strokes cut where they run through a
+    box of ``boxes`` grown by ``clearance_mm`` and half the stroke's width
+    (``width_of(stroke)``, mm); cut lines, folds, points, text and undrawn
+    strokes are kept as they are."""
+    out = []
+    for el in elements:
+        if el.shape == "text" or el.shape == "point" or el.stroke in ("none", "cut", "fold"):
+            out.append(el)
+            continue
+        grow = clearance_mm + width_of(el.stroke) / 2
+        out += break_element(el, [b.grown(grow) for b in boxes])
+    return out

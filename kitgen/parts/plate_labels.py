@@ -1,0 +1,401 @@
+"""The plate's numbers and names, each set where it reads, none on a line.
+
+Every almucantar that is a multiple of 10 degrees (of the numbering step
+where that is coarser) carries its number where it crosses the meridian,
+above and below the zenith; a circle that meets the meridian only outside
+the drawing is numbered where it meets the east-west line, else at its
+ends on the rim.  Multiples of 5 degrees are numbered on the meridian too
+where their neighbours leave room.  Azimuths are numbered just below the
+horizon on their own line continued (at the rim where the horizon point is
+outside the drawing); the cardinal letters stand beside the horizon's
+points, clear of the pin, the meridian, the east-west line, the equator
+and the horizon; unequal hours are numbered between their lines; horizon,
+equator, tropics and twilight line are named along the curve (common
+practice on printed astrolabe plates).
+
+Every label is measured with the shipped fonts (``Words.measure``) and
+tried at points along its curve (or round its point), nearest first; the
+first place whose box stays inside the drawing, meets no label set before
+and no line it must not cover is taken.  Lines it may cover are broken
+round it afterwards (:mod:`kitgen.parts.breaks`), so no drawn line crosses
+a printed character.  Lengths in mm, angles in radians inside.
+"""
+
+from __future__ import annotations
+
+import math
+
+import numpy as np
+
+from ..geometry import model
+from ..geometry.style import dot_radius_mm, pin_cross_half_mm, stroke_width_mm
+from ..projection.stereographic import equatorial_vector, horizontal_vector, project_vectors
+from .breaks import Box, boxes_overlap, meets
+from .labels import MARGIN_MM
+
+STROKE_SHAPES = ("circle", "arc", "segment", "polyline")
+#: Clear paper (mm) kept between two labels.
+LABEL_GAP_MM = 0.4
+#: How far (mm, along its curve) a number may slide from where it belongs.
+SLIDE_MM = 12.0
+#: Step (mm) between the places tried.
+STEP_MM = 0.25
+
+
+class Room:
+    """The free room of the drawing: a disc less the labels set so far."""
+
+    def __init__(self, disc_mm: float, dims, keep_out=()):
+        self.disc = disc_mm - MARGIN_MM
+        self.dims = dims
+        self.taken: list[Box] = list(keep_out)
+
+    def inside(self, box: Box) -> bool:
+        return all(math.hypot(x, y) <= self.disc for x, y in box.corners())
+
+    def clear_of_labels(self, box: Box) -> bool:
+        g = box.grown(LABEL_GAP_MM / 2)
+        for t in self.taken:
+            if math.dist(g.center, t.center) < g.radius + t.radius and boxes_overlap(g, t):
+                return False
+        return True
+
+    def clear_of(self, box: Box, elements) -> bool:
+        for el in elements:
+            grow = MARGIN_MM + stroke_width_mm(el.stroke, self.dims) / 2
+            if meets(el, box.grown(grow)):
+                return False
+        return True
+
+    def free(self, box: Box, protected=()) -> bool:
+        return self.inside(box) and self.clear_of_labels(box) and self.clear_of(box, protected)
+
+
+def upright(angle_rad: float) -> float:
+    """A text direction turned so that the text reads from below or the right."""
+    a = (angle_rad + math.pi / 2) % math.pi - math.pi / 2
+    return a
+
+
+def points_along(el, near, step_mm: float = STEP_MM, reach_mm: float = SLIDE_MM):
+    """(x, y, tangent angle) of points along a stroke element, every
+    ``step_mm`` up to ``reach_mm`` either way from its point nearest
+    ``near``, nearest first (the +x side first at equal distance)."""
+    g = el.geom
+    out = []
+    if el.shape in ("circle", "arc"):
+        (cx, cy), r = g["center"], g["radius"]
+        t0 = math.atan2(near[1] - cy, near[0] - cx)
+        lo, hi = (-math.inf, math.inf) if el.shape == "circle" else \
+            (math.radians(g["start_deg"]), math.radians(g["end_deg"]))
+        if el.shape == "arc":
+            t0 = lo + (t0 - lo) % (2 * math.pi)
+            if t0 > hi:  # nearest end
+                t0 = hi if (t0 - hi) < (lo + 2 * math.pi - t0) else lo
+        n = int(min(reach_mm, math.pi * r) / step_mm)
+        for k in range(n + 1):
+            for sgn in ((1,) if k == 0 else (1, -1)):
+                t = t0 + sgn * k * step_mm / r
+                if lo <= t <= hi:
+                    out.append((cx + r * math.cos(t), cy + r * math.sin(t), t + math.pi / 2))
+        out.sort(key=lambda p: (round(math.dist(p[:2], near) / step_mm), -p[0]))
+        return out
+    pts = [g["from"], g["to"]] if el.shape == "segment" else list(g["points"])
+    p = np.asarray(pts, dtype=float)
+    seg = np.hypot(*(p[1:] - p[:-1]).T)
+    s = np.concatenate([[0.0], np.cumsum(seg)])
+    if s[-1] <= 0:
+        return out
+    # the nearest point of the line to ``near``
+    best, s0 = math.inf, 0.0
+    for i in range(len(p) - 1):
+        d = p[i + 1] - p[i]
+        ll = float(d @ d)
+        t = 0.0 if ll == 0 else float(np.clip((np.asarray(near) - p[i]) @ d / ll, 0.0, 1.0))
+        q = p[i] + t * d
+        dd = math.dist(q, near)
+        if dd < best:
+            best, s0 = dd, s[i] + t * seg[i]
+    n = int(reach_mm / step_mm)
+    for k in range(n + 1):
+        for sgn in ((1,) if k == 0 else (1, -1)):
+            sk = s0 + sgn * k * step_mm
+            if 0.0 <= sk <= s[-1]:
+                i = min(int(np.searchsorted(s, sk, side="right")) - 1, len(p) - 2)
+                t = (sk - s[i]) / seg[i] if seg[i] > 0 else 0.0
+                q = p[i] + t * (p[i + 1] - p[i])
+                a = math.atan2(*(p[i + 1] - p[i])[::-1])
+                out.append((float(q[0]), float(q[1]), a))
+    return out
+
+
+def around(point, step_mm: float, reach_mm: float, prefer=(0.0, 0.0)):
+    """Points round ``point`` on a square grid ``step_mm`` apart, within
+    ``reach_mm``, nearest first; at equal distance those towards the unit
+    direction ``prefer`` first."""
+    n = int(reach_mm / step_mm)
+    out = []
+    for i in range(-n, n + 1):
+        for j in range(-n, n + 1):
+            dx, dy = i * step_mm, j * step_mm
+            d = math.hypot(dx, dy)
+            if d <= reach_mm:
+                out.append((round(d / step_mm), -(dx * prefer[0] + dy * prefer[1]), point[0] + dx, point[1] + dy))
+    out.sort()
+    return [(x, y) for _, _, x, y in out]
+
+
+class PlateLabeller:
+    """Sets the plate's labels one after another into a :class:`Room`."""
+
+    def __init__(self, ctx, elements, disc_mm: float, keep_out=()):
+        self.ctx, self.w, self.d = ctx, ctx.words, ctx.dims
+        self.els = list(elements)
+        d = self.d
+        pin = pin_cross_half_mm(d) + MARGIN_MM
+        keep = [Box((0.0, 0.0), 0.0, pin, pin)] + list(keep_out)
+        for el in self.els:
+            if el.shape == "point":
+                r = dot_radius_mm(d) + MARGIN_MM
+                keep.append(Box(el.geom["at"], 0.0, r, r))
+        self.room = Room(disc_mm, d, keep)
+        self.out: list[model.Element] = []
+        self.reference = [e for e in self.els if e.role in ("meridian", "east_west")]
+
+    def role(self, *roles):
+        return [e for e in self.els if e.role in roles and e.stroke != "none"]
+
+    def box(self, x, y, text, size_pt, angle_rad=0.0) -> Box:
+        ext = self.w.measure(text, size_pt)
+        return Box((x, y), angle_rad, ext.width_mm / 2, ext.height_mm / 2)
+
+    def put(self, role, box: Box, text, size_pt, **values) -> model.Element:
+        el = model.text(role, box.center, text, size_pt, math.degrees(box.angle_rad), "middle", **values)
+        self.room.taken.append(box)
+        self.out.append(el)
+        return el
+
+    def first_free(self, candidates, text, size_pt, protected, along=False):
+        """The first free box among the candidate points."""
+        for c in candidates:
+            angle = upright(c[2]) if along else 0.0
+            b = self.box(c[0], c[1], text, size_pt, angle)
+            if self.room.free(b, protected):
+                return b
+        return None
+
+    # -- the labels ---------------------------------------------------------------
+
+    def cardinal(self, az_deg: float, key: str, phi: float, s: int, R: float, disc: float):
+        """A cardinal letter beside the horizon's point of azimuth ``az_deg``
+        on the sky side, clear of the pin, meridian, east-west line, equator
+        and horizon."""
+        d = self.d
+        v = horizontal_vector(np.radians([0.0, 3.0]), np.full(2, math.radians(az_deg)), phi)
+        p0, p1 = project_vectors(v, s, R)
+        if not (np.all(np.isfinite(p0)) and np.hypot(*p0) < disc - 2 * d.tick_mm):
+            return None
+        up = p1 - p0
+        n = float(np.hypot(*up))
+        prefer = (up / n) if n > 0 else np.zeros(2)
+        text = self.w(key)
+        size = d.text_pt
+        h = self.w.measure(text, size).height_mm
+        protected = self.reference + self.role("equator", "horizon")
+        for c in around(p0 + prefer * h, STEP_MM, max(4 * h, 6.0), prefer):
+            b = self.box(c[0], c[1], text, size)
+            if self.room.free(b, protected):
+                return self.put("cardinal", b, text, size, azimuth_deg=az_deg)
+        return None
+
+    def almucantar(self, alt: float, number_everywhere: bool):
+        """An almucantar's number: where it crosses the meridian (both
+        sides of the zenith); else where it meets the east-west line; else
+        at its ends on the rim.  A multiple of 5 (``number_everywhere``
+        false) only on the meridian and only where it covers no other
+        almucantar."""
+        els = [e for e in self.role("almucantar", "horizon") if abs(e.values["altitude_deg"] - alt) < 1e-9]
+        if not els:
+            return []
+        text, size = self.w.number(alt), self.d.small_text_pt
+        protected = self.reference + self.role("horizon")
+        if not number_everywhere:
+            protected = protected + [e for e in self.role("almucantar", "horizon")
+                                     if abs(e.values["altitude_deg"] - alt) > 1e-9]
+        placed = []
+        for anchors in self._almucantar_anchors(els, number_everywhere):
+            for el, a in anchors:
+                b = self.first_free(points_along(el, a), text, size, protected)
+                if b is not None:
+                    placed.append(self.put("almucantar_label", b, text, size, altitude_deg=float(alt)))
+            if placed:
+                return placed
+        if number_everywhere:
+            # Nowhere clear of the lines it must not cover: on the circle
+            # wherever it is free of other labels (the lines break round it).
+            for el in els:
+                mid = _midpoint(el)
+                b = self.first_free(points_along(el, mid, reach_mm=1e4), text, size, ())
+                if b is not None:
+                    return [self.put("almucantar_label", b, text, size, altitude_deg=float(alt))]
+        return []
+
+    def _almucantar_anchors(self, els, everywhere):
+        """Groups of (element, point): the meridian crossings, then (for
+        multiples of 10) the east-west crossings and the rim ends."""
+        disc = self.room.disc
+        meridian, east_west, ends = [], [], []
+        for el in els:
+            if el.shape not in ("circle", "arc"):
+                continue
+            (cx, cy), r = el.geom["center"], el.geom["radius"]
+            for vertical, group in ((True, meridian), (False, east_west)):
+                for q in _circle_meets_line(cx, cy, r, vertical):
+                    if math.hypot(*q) < disc and _on_element(el, q):
+                        group.append((el, q))
+            if el.shape == "arc":
+                for t in (el.geom["start_deg"], el.geom["end_deg"]):
+                    t = math.radians(t)
+                    ends.append((el, (cx + r * math.cos(t), cy + r * math.sin(t))))
+        return [meridian] if not everywhere else [meridian, east_west, ends]
+
+    def azimuth(self, az: float, phi: float, s: int, R: float):
+        """An azimuth's number on its line continued below the horizon, or,
+        where the horizon's point is outside the drawing, at its end on
+        the rim."""
+        text, size = self.w.number(az), self.d.small_text_pt
+        A = math.radians(az)
+        p0 = project_vectors(horizontal_vector(0.0, A, phi), s, R)
+        protected = self.reference + self.role("horizon", "azimuth")
+        if np.all(np.isfinite(p0)) and np.hypot(*p0) < self.room.disc:
+            alts = np.radians(-np.arange(0.2, 30.0, 0.2))
+            pts = project_vectors(horizontal_vector(alts, np.full_like(alts, A), phi), s, R)
+            cands = [(x, y, 0.0) for x, y in pts if math.isfinite(x) and math.isfinite(y)
+                     and math.dist((x, y), p0) < SLIDE_MM]
+            b = self.first_free(cands, text, size, protected)
+            if b is not None:
+                return self.put("azimuth_label", b, text, size, azimuth_deg=float(az))
+            return None
+        protected = self.reference + self.role("horizon")
+        for el in self.role("azimuth"):
+            if abs(el.values["azimuth_deg"] - az) > 1e-9:
+                continue
+            for end in _ends(el):
+                if abs(math.hypot(*end) - (self.room.disc + MARGIN_MM)) < 1e-3:
+                    b = self.first_free(points_along(el, end, reach_mm=2 * SLIDE_MM), text, size, protected)
+                    if b is not None:
+                        return self.put("azimuth_label", b, text, size, azimuth_deg=float(az))
+        return None
+
+    def unequal_hour(self, k: int, phi: float, s: int, R: float, eps: float):
+        """Hour ``k`` numbered between lines k - 1 and k (the horizon
+        being lines 0 and 12), upright, at the declination where it fits,
+        nearest the middle of the band between the equator and the outer
+        tropic."""
+        text, size = self.w.number(k), self.d.small_text_pt
+        decs = np.radians(np.linspace(-math.degrees(eps), math.degrees(eps), 97))
+        x = -np.tan(phi) * np.tan(decs)
+        ok = np.abs(x) < 1.0
+        if ok.sum() < 2:
+            return None
+        decs, h0 = decs[ok], np.arccos(x[ok])
+        ha = h0 + (k - 0.5) * (2 * np.pi - 2 * h0) / 12.0
+        pts = project_vectors(equatorial_vector(ha, decs), s, R)
+        want = -s * eps / 2
+        order = np.argsort(np.abs(decs - want))
+        protected = self.reference + self.role("unequal_hour", "horizon")
+        cands = [(float(pts[i][0]), float(pts[i][1]), 0.0) for i in order if np.all(np.isfinite(pts[i]))]
+        b = self.first_free(cands, text, size, protected)
+        if b is None:
+            b = self.first_free(cands, text, size, self.reference)
+        if b is not None:
+            return self.put("unequal_hour_label", b, text, size, hour=k)
+        return None
+
+    def curve_name(self, role: str, key: str, **match):
+        """A curve's name set along it, where it covers fewest lines."""
+        els = [e for e in self.role(role) if all(abs(e.values[k] - v) < 1e-6 for k, v in match.items())]
+        if not els:
+            return None
+        text, size = self.w(key), self.d.small_text_pt
+        protected = self.reference
+        others = [e for e in self.els if e.shape in STROKE_SHAPES and e.stroke not in ("none", "cut")
+                  and e.role not in ("meridian", "east_west") and not (e.role == role and e in els)]
+        # On the curve (the curve broken round it); where it cannot be,
+        # beside it, on either side (the outer tropic is the drawing's edge).
+        ext = self.w.measure(text, size)
+        aside = ext.height_mm / 2 + MARGIN_MM + stroke_width_mm(els[0].stroke, self.d) / 2 + 0.05
+        radius = min((e.geom["radius"] for e in els if "radius" in e.geom), default=math.inf)
+        bulge = 1.2 * (ext.width_mm / 2) ** 2 / (2 * radius) + 0.05  # a straight line's rise off its arc
+        best = None
+        for offset in (0.0, -aside, aside, -aside - bulge, aside + bulge):
+            for el in els:
+                for c in points_along(el, _midpoint(el), step_mm=1.0, reach_mm=4 * self.room.disc):
+                    a = c[2]
+                    x, y = c[0] - math.sin(a) * offset, c[1] + math.cos(a) * offset
+                    b = self.box(x, y, text, size, upright(a))
+                    if not self.room.free(b, protected + (els if offset else [])):
+                        continue
+                    g = b.grown(MARGIN_MM + 0.3)
+                    cost = sum(1 for e in others if meets(e, g))
+                    if best is None or cost < best[0]:
+                        best = (cost, b)
+                    if cost == 0:
+                        break
+                if best is not None and best[0] == 0:
+                    break
+            if best is not None:
+                break
+        if best is None:
+            return None
+        return self.put("curve_label", best[1], text, size, curve=role, **match)
+
+
+def _midpoint(el):
+    g = el.geom
+    if el.shape == "circle":
+        c, r = g["center"], g["radius"]
+        return (c[0], c[1] - r)
+    if el.shape == "arc":
+        c, r = g["center"], g["radius"]
+        t = math.radians((g["start_deg"] + g["end_deg"]) / 2)
+        return (c[0] + r * math.cos(t), c[1] + r * math.sin(t))
+    pts = [g["from"], g["to"]] if el.shape == "segment" else g["points"]
+    if el.shape == "segment":
+        return ((pts[0][0] + pts[1][0]) / 2, (pts[0][1] + pts[1][1]) / 2)
+    return pts[len(pts) // 2]
+
+
+def _ends(el):
+    g = el.geom
+    if el.shape == "segment":
+        return [g["from"], g["to"]]
+    if el.shape == "polyline":
+        return [g["points"][0], g["points"][-1]]
+    if el.shape == "arc":
+        c, r = g["center"], g["radius"]
+        return [(c[0] + r * math.cos(math.radians(t)), c[1] + r * math.sin(math.radians(t)))
+                for t in (g["start_deg"], g["end_deg"])]
+    return []
+
+
+def _circle_meets_line(cx, cy, r, vertical: bool):
+    """Where the circle meets the meridian (x = 0) or the east-west line (y = 0)."""
+    d = cx if vertical else cy
+    room = (r - abs(d)) * (r + abs(d))
+    if room < 0:
+        return []
+    h = math.sqrt(room)
+    if vertical:
+        return [(0.0, cy + h), (0.0, cy - h)]
+    return [(cx + h, 0.0), (cx - h, 0.0)]
+
+
+def _on_element(el, q) -> bool:
+    if el.shape == "circle":
+        return True
+    c = el.geom["center"]
+    t = math.degrees(math.atan2(q[1] - c[1], q[0] - c[0]))
+    lo, hi = el.geom["start_deg"], el.geom["end_deg"]
+    t = lo + (t - lo) % 360.0
+    return t <= hi

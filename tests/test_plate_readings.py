@@ -1,0 +1,259 @@
+"""Every reading on the plate numbered, and no printed character crossed
+by a drawn line (#9).
+
+References:
+
+* Snyder, *Map Projections: A Working Manual*, USGS PP 1395 (1987),
+  ch. 21: the stereographic image of a circle of the sphere is a circle
+  (p. 155), and a point at polar angle t from the visible pole lies at
+  rho = R tan(t / 2) from the centre (eq. 21-33 with 2 R k0 = R, the
+  equator's radius).  An almucantar's two meridian points, at polar angles
+  (90 deg - |phi|) -+ (90 deg - a) towards the noon side, give its exact
+  image circle: the diameter between them.
+* Meeus, *Astronomical Algorithms* (2nd ed. 1998), eq. 15.1: the
+  semi-diurnal arc cos H0 = -tan(phi) tan(d), for the unequal hours.
+* The ink boxes of the words are measured with the shipped fonts by the
+  kit's own ``Words`` (fontTools advances, HarfBuzz for shaped scripts),
+  the measure the PDF sets them with; the lines are sampled every 0.02 mm,
+  a different method from the exact gaps the kit cuts in them.
+"""
+
+from __future__ import annotations
+
+import math
+
+import numpy as np
+import pytest
+from hypothesis import HealthCheck, example, given, settings
+from hypothesis import strategies as st
+
+from kitgen.geometry.style import dot_radius_mm, pin_cross_half_mm, stroke_width_mm
+from kitgen.kit import build_kit
+from kitgen.recipe.load import validate_recipe
+from kitgen.words.measure import text_corners_mm
+
+EPOCH = 2027
+STROKES = ("circle", "arc", "segment", "polyline")
+#: Latitudes the issue names (#9), the poles, the equator, the tropics and
+#: polar circles (their 2027 values, IAU 2006 obliquity, rounded), and a few between.
+LATITUDES = [-90.0, -66.56, -64.0, -45.0, -33.9, -23.44, -10.0, 0.0, 0.5, 12.0, 23.44, 40.0, 52.2, 64.0,
+             66.56, 75.0, 89.5, 90.0]
+
+
+def kit_of(**recipe):
+    return build_kit(validate_recipe({"epoch": EPOCH, "parts": ["plate"], **recipe}))
+
+
+def plates(kit):
+    return [p for p in kit.parts if p.kind == "plate"]
+
+
+def meridian_circle(alt_deg: float, lat_deg: float, R: float):
+    """(centre y, radius) of the almucantar's image from its two meridian
+    points (Snyder 1987, eq. 21-33; see the module's docstring)."""
+    z = math.radians(90.0 - alt_deg)
+    t0 = math.radians(90.0 - abs(lat_deg))
+    y1, y2 = R * math.tan((t0 - z) / 2), R * math.tan((t0 + z) / 2)
+    return (y1 + y2) / 2, abs(y2 - y1) / 2
+
+
+def text_box(el, words):
+    """The text's measured box: centre, unit direction, half width, half height."""
+    g = el.geom
+    ext = words.measure(g["text"], g["size_pt"], "bold" if el.role == "title" else "label")
+    corners = np.array(text_corners_mm(g["at"], ext.width_mm, ext.height_mm, g["angle_deg"], g["anchor"]))
+    a = math.radians(g["angle_deg"])
+    return corners.mean(axis=0), np.array([math.cos(a), math.sin(a)]), ext.width_mm / 2, ext.height_mm / 2
+
+
+def distance_to_box(points, box):
+    """Distance (mm) of each point to the box (0 inside)."""
+    c, u, hw, hh = box
+    d = np.asarray(points, dtype=float) - c
+    along = d @ u
+    across = d @ np.array([-u[1], u[0]])
+    return np.hypot(np.maximum(np.abs(along) - hw, 0.0), np.maximum(np.abs(across) - hh, 0.0))
+
+
+def samples_near(el, centre, reach_mm, step_mm=0.02):
+    """Points of a stroke every ``step_mm`` within about ``reach_mm`` of ``centre``."""
+    g = el.geom
+    if el.shape in ("circle", "arc"):
+        c, r = np.array(g["center"]), g["radius"]
+        if abs(np.hypot(*(centre - c)) - r) > reach_mm:
+            return np.zeros((0, 2))
+        mid = math.atan2(centre[1] - c[1], centre[0] - c[0])
+        half = min(math.pi, 2 * reach_mm / r)
+        t = mid + np.arange(-half, half, step_mm / r)
+        if el.shape == "arc":
+            lo, hi = math.radians(g["start_deg"]), math.radians(g["end_deg"])
+            t = t[(lo + (t - lo) % (2 * math.pi)) <= hi]
+        return c + r * np.stack([np.cos(t), np.sin(t)], axis=1)
+    pts = [g["from"], g["to"]] if el.shape == "segment" else list(g["points"])
+    out = []
+    for p, q in zip(pts, pts[1:]):
+        p, q = np.array(p), np.array(q)
+        n = max(2, int(np.hypot(*(q - p)) / step_mm) + 2)
+        seg = p + np.linspace(0.0, 1.0, n)[:, None] * (q - p)
+        out.append(seg[np.hypot(*(seg - centre).T) <= reach_mm])
+    return np.concatenate(out) if out else np.zeros((0, 2))
+
+
+def crossings(part, kit):
+    """Every (text, role of the line) where a drawn line's ink touches a
+    character's measured box."""
+    w, dims = kit.words, kit.dims
+    strokes = [e for e in part.elements if e.shape in STROKES and e.stroke != "none"]
+    # What the renderers draw at a point: the pin's cross, and a dot.
+    h = pin_cross_half_mm(dims)
+    dots = [np.array(e.geom["at"]) for e in part.elements if e.shape == "point" and e.role != "pin"]
+    bad = []
+    for el in part.elements:
+        if el.shape != "text" or not el.geom["text"].strip():
+            continue
+        box = text_box(el, w)
+        reach = math.hypot(box[2], box[3]) + 2.0
+        for s in strokes:
+            pts = samples_near(s, box[0], reach)
+            if len(pts) and distance_to_box(pts, box).min() < stroke_width_mm(s.stroke, dims) / 2:
+                bad.append((el.geom["text"], s.role))
+        cross = np.array([(x, 0.0) for x in np.linspace(-h, h, 401)] + [(0.0, y) for y in np.linspace(-h, h, 401)])
+        if distance_to_box(cross, box).min() < stroke_width_mm("medium", dims) / 2:
+            bad.append((el.geom["text"], "pin"))
+        for p in dots:
+            if distance_to_box([p], box)[0] < dot_radius_mm(dims):
+                bad.append((el.geom["text"], "dot"))
+    return bad
+
+
+# -- every almucantar numbered ---------------------------------------------------------
+
+def check_tens_numbered(kit):
+    for part in plates(kit):
+        lat = part.values["latitude_deg"]
+        R = kit.dims.equator_radius_mm
+        drawn = {round(e.values["altitude_deg"], 6) for e in part.with_role("almucantar") if e.stroke != "none"}
+        tens = sorted(a for a in drawn if abs(a / 10.0 - round(a / 10.0)) < 1e-9)
+        labels = part.with_role("almucantar_label")
+        for alt in tens:
+            mine = [e for e in labels if abs(e.values["altitude_deg"] - alt) < 1e-9]
+            assert mine, (lat, alt, "no number")
+            assert all(e.geom["text"] == kit.words.number(alt) for e in mine)
+            # Snyder: the almucantar's exact image circle, about (0, yc).
+            yc, r = meridian_circle(alt, lat, R)
+            d = [abs(math.hypot(e.geom["at"][0], e.geom["at"][1] - yc) - r) for e in mine]
+            assert min(d) <= 3.0, (lat, alt, min(d))
+
+
+@pytest.mark.parametrize("lat", LATITUDES)
+def test_every_ten_degree_almucantar_is_numbered_beside_its_circle(lat):
+    check_tens_numbered(kit_of(latitude=lat))
+
+
+@pytest.mark.parametrize("lat, diameter, language", [(0.5, 80, "en"), (-33.9, 120, "ar"), (52.2, 300, "hi"),
+                                                     (64.0, 600, "ru"), (-64.0, 80, "el")])
+def test_numbered_at_other_sizes_and_languages(lat, diameter, language):
+    check_tens_numbered(kit_of(latitude=lat, diameter_mm=diameter, language=language))
+
+
+def test_an_equator_plate_in_a_southern_kit_is_southern_and_numbered():
+    kit = kit_of(plates=[-33.9, 0.0])
+    assert kit.plan.hemisphere_sign == -1
+    check_tens_numbered(kit)
+    for part in plates(kit):
+        check_both_sides_of_the_zenith(part, kit)
+
+
+def check_both_sides_of_the_zenith(part, kit):
+    """An almucantar of altitude a meets the meridian at polar angles
+    (90 deg - |phi|) -+ (90 deg - a) (Snyder 1987, ch. 21); each of those
+    inside the drawing (within the outer tropic, polar angle 90 deg + eps,
+    less the numbers' margin) carries the number beside the meridian.
+    (The sign of y is the side of the pin the point is on, as in the plate's frame.)"""
+    lat = part.values["latitude_deg"]
+    R, disc = kit.dims.equator_radius_mm, kit.dims.outer_tropic_radius_mm
+    for alt in (10.0, 20.0, 30.0, 40.0, 50.0, 60.0, 70.0, 80.0):
+        z, t0 = math.radians(90.0 - alt), math.radians(90.0 - abs(lat))
+        ys = [R * math.tan((t0 - z) / 2), R * math.tan((t0 + z) / 2)]
+        mine = [e.geom["at"] for e in part.with_role("almucantar_label") if e.values["altitude_deg"] == alt]
+        for y in ys:
+            if abs(y) < disc - 4.0:
+                # beside the crossing (further along the circle only where the pin is in the way)
+                near = min((math.hypot(x, yy - y) for x, yy in mine), default=math.inf)
+                assert near < (12.0 if abs(y) < 4.0 else 6.0), (lat, alt, y, mine)
+
+
+@pytest.mark.parametrize("lat", [-33.9, 0.0, 0.5, 52.2, 64.0])
+def test_numbered_on_both_sides_of_the_zenith(lat):
+    kit = kit_of(latitude=lat)
+    check_both_sides_of_the_zenith(plates(kit)[0], kit)
+
+
+def test_the_default_plate_names_its_lines_and_numbers_its_hours_and_azimuths():
+    kit = kit_of(latitude=52.2)
+    part = plates(kit)[0]
+    w = kit.words
+    names = {e.geom["text"] for e in part.with_role("curve_label")}
+    # templates/en.yaml's words
+    assert names == {w("plate.line_horizon"), w("plate.line_equator"), w("plate.line_tropic_cancer"),
+                     w("plate.line_tropic_capricorn"), w("plate.line_twilight")}
+    assert {e.values["azimuth_deg"] % 30 for e in part.with_role("azimuth_label")} == {0.0, 15.0}
+    hours = part.with_role("unequal_hour_label")
+    assert sorted(e.values["hour"] for e in hours) == list(range(1, 13))
+    # Meeus eq. 15.1: hour k lies between lines k - 1 and k, k/12 of the
+    # way along the night arc of its declination.
+    phi = math.radians(52.2)
+    R = kit.dims.equator_radius_mm
+    for e in hours:
+        x, y = e.geom["at"]
+        q = (x * x + y * y) / R / R
+        v = np.array([2 * x / R, 2 * y / R, 1 - q]) / (1 + q)   # Snyder eq. 21-37 (northern view)
+        dec = math.asin(v[2])
+        ha = math.atan2(v[0], v[1]) % (2 * math.pi)              # x towards hour angle +90 deg
+        h0 = math.acos(-math.tan(phi) * math.tan(dec))
+        share = (ha - h0) / (2 * math.pi - 2 * h0) * 12
+        assert e.values["hour"] - 1 < share < e.values["hour"], (e.values["hour"], share)
+
+
+@pytest.mark.parametrize("lat", [0.0, 0.5, -33.9, 52.2, 90.0])
+def test_cardinal_letters_clear_of_pin_meridian_and_equator(lat):
+    kit = kit_of(latitude=lat)
+    part = plates(kit)[0]
+    R = kit.dims.equator_radius_mm
+    h = pin_cross_half_mm(kit.dims)
+    letters = part.with_role("cardinal")
+    assert letters
+    for el in letters:
+        c, u, hw, hh = box = text_box(el, kit.words)
+        corners = [c + sx * hw * u + sy * hh * np.array([-u[1], u[0]]) for sx in (-1, 1) for sy in (-1, 1)]
+        xs = [p[0] for p in corners]
+        assert min(xs) > 0 or max(xs) < 0, (lat, el.geom["text"], "on the meridian")
+        radii = [math.hypot(*p) for p in corners]
+        # the equator: the circle of radius R about the pin (Snyder eq. 21-33, t = 90 deg)
+        assert min(radii) > R or max(radii) < R, (lat, el.geom["text"], "on the equator")
+        ring = np.array([(R * math.cos(t), R * math.sin(t)) for t in np.linspace(0, 2 * math.pi, 20000)])
+        assert distance_to_box(ring, box).min() > 0.0
+        assert distance_to_box([(0.0, 0.0)], box)[0] > h, (lat, el.geom["text"], "on the pin")
+
+
+# -- nothing over a word ---------------------------------------------------------------
+
+@pytest.mark.parametrize("lat", LATITUDES)
+def test_no_character_on_the_plate_is_crossed_by_a_line(lat):
+    kit = kit_of(latitude=lat)
+    for part in plates(kit):
+        assert not crossings(part, kit), (lat, crossings(part, kit)[:5])
+
+
+@settings(max_examples=12, deadline=None, suppress_health_check=[HealthCheck.too_slow])
+@given(lat=st.floats(-90.0, 90.0), diameter=st.floats(80.0, 600.0),
+       language=st.sampled_from(["en", "ar", "hi", "el", "ru", "de"]),
+       step=st.sampled_from([2.0, 5.0, 10.0]))
+@example(lat=52.2, diameter=80.0, language="hi", step=5.0)
+@example(lat=-33.9, diameter=600.0, language="ar", step=2.0)
+@example(lat=0.5, diameter=120.0, language="en", step=5.0)
+def test_no_character_crossed_at_any_size_or_language(lat, diameter, language, step):
+    kit = kit_of(latitude=lat, diameter_mm=diameter, language=language, altitude_step_deg=step)
+    part = plates(kit)[0]
+    assert not crossings(part, kit), (lat, diameter, language, crossings(part, kit)[:5])
+    check_tens_numbered(kit)
