@@ -84,7 +84,10 @@ def _altitude_rad(phi: float, dec: float, hour_angle: float) -> float:
 def hour_angle_rad(phi: float, dec: float, altitude: float) -> float | None:
     """|H| (radians) at which a body of declination ``dec`` stands at
     ``altitude`` seen from latitude ``phi``, or None if it never does."""
-    c = (math.sin(altitude) - math.sin(phi) * math.sin(dec)) / (math.cos(phi) * math.cos(dec))
+    denominator = math.cos(phi) * math.cos(dec)
+    if abs(denominator) < 1e-9:
+        return None
+    c = (math.sin(altitude) - math.sin(phi) * math.sin(dec)) / denominator
     return math.acos(c) if -1.0 <= c <= 1.0 else None
 
 
@@ -114,6 +117,8 @@ def sun_example(latitude_deg: float, sky: SkyForKit, almanac: Almanac) -> SunExa
             continue
         measured = float(round(alt))
         h = hour_angle_rad(phi, dec, math.radians(measured))
+        if h is None:  # at a pole the Sun's altitude tells no time
+            continue
         solar = 12.0 - math.degrees(h) / 15.0
         return SunExample(month, EXAMPLE_DAY, lon, measured, solar, corr, solar + corr / 60.0)
     return None
