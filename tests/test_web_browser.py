@@ -150,7 +150,10 @@ def test_the_preview_follows_the_kits_language(browser, site):
 
 
 def test_the_page_switches_to_arabic_right_to_left(browser, site):
+    """What was typed stays, and the kit's words follow the page's."""
     browser.get(site + "/?lang=en")
+    browser.find_element(By.ID, "f-latitude").send_keys("31.2")
+    browser.find_element(By.ID, "f-title").send_keys("Cedar Hill Club")
     browser.find_element(By.ID, "ui-ar").click()
     wait(browser, lambda d: d.find_element(By.TAG_NAME, "html").get_attribute("lang") == "ar")
     root = browser.find_element(By.TAG_NAME, "html")
@@ -158,6 +161,11 @@ def test_the_page_switches_to_arabic_right_to_left(browser, site):
     assert browser.find_element(By.TAG_NAME, "h1").text == template("ar")["web.heading"]
     assert browser.find_element(By.CSS_SELECTOR, "label[for=f-latitude]").text == template("ar")["web.label.latitude"]
     assert browser.execute_script("return getComputedStyle(document.body).direction") == "rtl"
+    assert browser.find_element(By.ID, "f-latitude").get_attribute("value") == "31.2"
+    assert browser.find_element(By.ID, "f-title").get_attribute("value") == "Cedar Hill Club"
+    assert browser.find_element(By.ID, "f-language").get_attribute("value") == "ar"
+    wait(browser, lambda d: template("ar")["plate.title"]
+         in d.find_element(By.CSS_SELECTOR, "#preview-plate .svg").get_attribute("innerHTML"))
 
 
 def test_pdf_download(browser, site, downloads):

@@ -400,3 +400,12 @@ def test_serving_beyond_loopback_warns_and_loopback_does_not(monkeypatch, capsys
     server.serve(None, 0)
     out, err = capsys.readouterr()
     assert bound[-1] == "127.0.0.1" and out.startswith("http://127.0.0.1:") and err == ""
+
+
+def test_the_address_fills_the_form_but_never_a_path_key(client):
+    page = client.get("/?lang=fr&latitude=45.75&title=Club+des+Tilleuls&language=de&language_file=/etc/passwd"
+                      "&film_mirror=false&film_mirror=true").text
+    assert 'value="45.75"' in page and 'value="Club des Tilleuls"' in page
+    assert '<option value="de" selected' in page
+    assert "/etc/passwd" not in page
+    assert re.search(r'id="f-film_mirror" name="film_mirror" value="true" checked', page)

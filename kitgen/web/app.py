@@ -43,7 +43,7 @@ from starlette.routing import Mount, Route
 from starlette.staticfiles import StaticFiles
 
 from ..errors import Message, one_line
-from ..recipe.schema import Recipe
+from ..recipe.schema import KEYS_BY_NAME, MAX_TEXT_CHARS, Recipe
 from ..words.templates import available_languages, load_words
 from . import form as forms
 from . import jobs, sets
@@ -215,8 +215,15 @@ class Web:
     # Handlers.
 
     async def index(self, request: Request) -> Response:
+        """The page; recipe keys in the query fill its fields (the page's
+        language switch carries the form over that way), nothing is built."""
         language = self.page_language(request)
         values = {"language": language}
+        for name, value in list(request.query_params.multi_items())[:forms.MAX_QUERY_VALUES]:
+            base = name.split(".", 1)[0]
+            if base in KEYS_BY_NAME and base not in forms.PATH_KEYS and len(value) <= MAX_TEXT_CHARS:
+                values.setdefault(name + "[]", []).append(value)
+                values[name] = value
         return self.render(request, "page.html", fields=self.field_view(language, values, {}), errors={},
                            previews=None)
 

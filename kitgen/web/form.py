@@ -22,7 +22,7 @@ import yaml
 
 from ..errors import UserError
 from ..recipe.load import KeyHelp, validate_recipe
-from ..recipe.schema import KEYS, KEYS_BY_NAME, PARTS, Recipe
+from ..recipe.schema import KEYS, KEYS_BY_NAME, MAX_TEXT_CHARS, PARTS, Recipe
 
 #: Keys whose value names a file on the machine that reads the recipe.
 PATH_KEYS = frozenset({"language_file"} | {k.name for k in KEYS if k.name.endswith("_file")})
@@ -41,6 +41,9 @@ CONTROL_FIELDS = frozenset({CSRF_FIELD, "format", "roster"})
 
 #: Most values one field may carry (a list of parts, say).
 MAX_VALUES_PER_FIELD = len(PARTS) + 2
+#: Most values a page's address may carry to fill the form (each at most
+#: a recipe's longest text, MAX_TEXT_CHARS).
+MAX_QUERY_VALUES = 100
 
 
 @dataclass(frozen=True)

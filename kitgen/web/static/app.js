@@ -216,9 +216,29 @@
     }, 700);
   }
 
+  // The page's language switch keeps what was typed: the fields go along in
+  // the address (their names are the recipe keys), the kit's language with
+  // the page's.
+  function setupLanguageLinks(form) {
+    document.querySelectorAll("nav a[hreflang]").forEach(function (a) {
+      a.addEventListener("click", function (ev) {
+        const query = formBody(form);
+        query.delete("csrf_token");
+        for (const [name, value] of [...query.entries()]) {
+          if (value === "") { query.delete(name, value); }
+        }
+        query.set("language", a.hreflang);
+        query.set("lang", a.hreflang);
+        ev.preventDefault();
+        location.assign("/?" + query.toString());
+      });
+    });
+  }
+
   document.addEventListener("DOMContentLoaded", function () {
     const form = document.getElementById("kit");
     if (form) {
+      setupLanguageLinks(form);
       setupPreview(form);
       setupPages(form);
       setupPlaces(form);
