@@ -132,6 +132,9 @@ def test_town_search_suggests_and_fills_the_coordinates(browser, site):
     assert place.get_attribute("value") == expected[0].name
     wait(browser, lambda d: updates(d) > seen)
     assert "<svg" in browser.find_element(By.CSS_SELECTOR, "#preview-plate .svg").get_attribute("innerHTML")
+    # Typing another town drops the picked one's coordinates.
+    place.send_keys(Keys.BACKSPACE)
+    assert latitude.get_attribute("value") == ""
 
 
 def test_the_preview_follows_the_kits_language(browser, site):

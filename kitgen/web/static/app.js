@@ -149,6 +149,7 @@
       setField("latitude", p.latitude);
       setField("longitude", p.longitude);
       setField("timezone", p.timezone);
+      input.dataset.picked = "1";
       close();
       form.dispatchEvent(new Event("change"));
     }
@@ -181,7 +182,15 @@
         .then(function (body) { if (input.value.trim() === q) { show(body.places || []); } });
     }, SEARCH_MS);
 
-    input.addEventListener("input", search);
+    input.addEventListener("input", function () {
+      // Coordinates that came with a picked place go when the place changes,
+      // so that a plate is never drawn for the town typed before.
+      if (input.dataset.picked) {
+        for (const name of ["latitude", "longitude", "timezone"]) { setField(name, ""); }
+        delete input.dataset.picked;
+      }
+      search();
+    });
     input.addEventListener("keydown", function (ev) {
       if (list.hidden) { return; }
       if (ev.key === "ArrowDown") { ev.preventDefault(); mark(Math.min(active + 1, found.length - 1)); }
