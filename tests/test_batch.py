@@ -312,3 +312,26 @@ def test_print_files_pass_the_checks_of_single_kits(one_worker):
     for name in ("print-card.pdf", "print-film.pdf"):
         done = subprocess.run(["qpdf", "--check", str(out / name)], capture_output=True, text=True)
         assert done.returncode == 0, done.stdout + done.stderr   # Reference: qpdf
+
+
+def test_a_terminal_gets_a_progress_bar():
+    # Reference: tqdm's own bar format, "n/total [elapsed<left, rate]".
+    import io
+
+    from kitgen.batch.progress import progress
+
+    class Terminal(io.StringIO):
+        def isatty(self):
+            return True
+
+    stream = Terminal()
+    bar = progress(3, stream=stream)
+    for _ in range(3):
+        bar.advance()
+    bar.close()
+    shown = stream.getvalue()
+    assert "3/3" in shown and "kit/s" in shown
+    assert re.search(r"\[\d\d:\d\d<\d\d:\d\d", shown)   # elapsed < time left
+    quiet = Terminal()
+    progress(3, quiet=True, stream=quiet).advance()
+    assert quiet.getvalue() == ""

@@ -9,6 +9,7 @@ says nothing.
 
 from __future__ import annotations
 
+import shutil
 import sys
 import time
 
@@ -44,8 +45,11 @@ class _Silent:
 class _Bar:
     def __init__(self, total: int, stream):
         tqdm.tqdm.monitor_interval = 0   # no monitor thread (worker processes may be forked)
-        self.bar = tqdm.tqdm(total=total, file=stream, unit="kit", desc="kitgen", dynamic_ncols=True,
-                             leave=True)
+        # The terminal's size, or 80 x 24 where it reports none (a
+        # pseudo-terminal of zero size), where tqdm would draw nothing.
+        size = shutil.get_terminal_size((80, 24))
+        self.bar = tqdm.tqdm(total=total, file=stream, unit="kit", desc="kitgen", ncols=min(size.columns, 100),
+                             nrows=size.lines, leave=True)
 
     def advance(self) -> None:
         self.bar.update(1)
