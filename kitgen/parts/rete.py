@@ -17,6 +17,7 @@ import numpy as np
 from ..geometry import model
 from ..projection.circles import project_circle
 from ..projection.stereographic import equatorial_vector, project
+from ..words.symbols import ZODIAC_SIGNS
 from . import curves, labels, legibility
 from .ring_numbers import NUMBERED_TICK, SHORT_TICK, SIGN_NUMBERS_DEG, names_from_edge_mm, number_row
 from .context import PartContext
@@ -79,7 +80,7 @@ def rete(ctx: PartContext) -> model.Part:
         room = float(np.hypot(*(ends[1] - ends[0]))) * r_label / image.radius_mm - 2 * labels.MARGIN_MM
         els += labels.ring_label("zodiac_label", signs[k], ang, r_label, d.small_text_pt, w, room,
                                  band - tick_tip - 2 * labels.MARGIN_MM, center=tuple(c),
-                                 longitude_deg=30.0 * k + 15.0)
+                                 short=ZODIAC_SIGNS[k], longitude_deg=30.0 * k + 15.0)
 
     stars = sorted(ctx.sky.stars, key=lambda st: st.star.mag)
     pts = [project(-math.radians(st.ra_deg), math.radians(st.dec_deg), s, R) for st in stars]

@@ -9,7 +9,8 @@ The rule, applied in this order (the first step that fits wins):
    at the largest size from its own size down to the minimum that fits;
 4. two lines, broken at the space that leaves the longer line shortest,
    at the largest size down to the minimum at which both lines fit the
-   width and the two lines the height;
+   width and the two lines the height; then three lines, broken the same
+   way, for a long caption in a small kit;
 5. otherwise the label is cut at the minimum size and ends with "…", so it
    never runs out of its room.  No shipped language reaches this step
    (the tests check it); a language file of one's own may.
@@ -61,21 +62,35 @@ def fit_label(text: str, size_pt: float, max_width_mm: float, measure, min_pt: f
         s = size_for((short,), size_pt)
         if s is not None:
             return Fitted((short,), s, 3)
-    best = None
-    words = text.split(" ")
-    for k in range(1, len(words)):
-        lines = (" ".join(words[:k]), " ".join(words[k:]))
-        longer = max(measure(x, size_pt).width_mm for x in lines)
-        if best is None or longer < best[0]:
-            best = (longer, lines)
-    if best is not None:
-        s = size_for(best[1], size_pt)
-        if s is not None:
-            return Fitted(best[1], s, 4)
+    for n_lines in (2, 3):
+        lines = _balanced(text.split(" "), n_lines, lambda x: measure(x, size_pt).width_mm)
+        if lines is not None:
+            s = size_for(lines, size_pt)
+            if s is not None:
+                return Fitted(lines, s, 4)
     cut = text
     while cut and measure(cut + "…", min_pt).width_mm > max_width_mm:
         cut = cut[:-1]
     return Fitted((cut.rstrip() + "…",), min_pt, 5)
+
+
+def _balanced(words: list[str], n_lines: int, width) -> tuple[str, ...] | None:
+    """``words`` broken into ``n_lines`` lines at the spaces that leave the
+    longest line shortest (every way tried: a label has few words);
+    ``None`` when there are too few words."""
+    if len(words) < n_lines:
+        return None
+    best = None
+    cuts = [()]
+    for _ in range(n_lines - 1):
+        cuts = [c + (k,) for c in cuts for k in range((c[-1] if c else 0) + 1, len(words))]
+    for c in cuts[:5000]:
+        bounds = (0, *c, len(words))
+        lines = tuple(" ".join(words[a:b]) for a, b in zip(bounds, bounds[1:]))
+        longest = max(width(x) for x in lines)
+        if best is None or longest < best[0]:
+            best = (longest, lines)
+    return best[1] if best else None
 
 
 def line_offsets_mm(n_lines: int, line_height_mm: float) -> list[float]:
