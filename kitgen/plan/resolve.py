@@ -83,5 +83,5 @@ def plan_kit(recipe: Recipe) -> Plan:
                           float(recipe.sight_hole_mm)),
         parts=tuple(recipe.parts),
         almanac=almanac,
-        examples=worked_examples(site.latitude_deg, sky, almanac),
+        examples=worked_examples(site.latitude_deg, sky, almanac, float(recipe.altitude_step_deg)),
     )

@@ -15,6 +15,8 @@ rounding of the printed numbers.  The spherical triangle is the usual one
 H the hour angle, west positive; local apparent solar time is
 12 h + H(Sun), and the sidereal time H(star) + RA(star) = H(Sun) + RA(Sun).
 
+Each measured altitude is that of the nearest almucantar the plates draw
+(a multiple of 10 deg with the usual steps), as a pupil would set it.
 The Sun's example is a morning in the epoch year when the Sun stands
 between 15 and 60 deg at 10:00 local apparent time; the star's, an evening
 at 21:00 (20:00 or 22:00) on the almanac's clock when the Sun is at
@@ -51,7 +53,7 @@ class SunExample:
     month: int
     day: int
     sun_longitude_deg: float     # as the calendar gives it
-    altitude_deg: float          # the measured altitude (whole degrees)
+    altitude_deg: float          # the measured altitude (on an almucantar)
     solar_hours: float           # local apparent solar time the instrument reads
     correction_min: int          # the ring's number on that date
     clock_hours: float           # solar time + correction
@@ -62,7 +64,7 @@ class StarExample:
     month: int
     day: int
     star_index: int              # which of the sky's placed stars
-    altitude_deg: float          # the measured altitude (whole degrees)
+    altitude_deg: float          # the measured altitude (on an almucantar)
     east: bool                   # the star rises (east of the meridian)
     sun_longitude_deg: float
     solar_hours: float
@@ -106,8 +108,20 @@ def _day(sky: SkyForKit, almanac: Almanac, month: int, day: int) -> tuple[float,
     return lon, int(round(corr))
 
 
-def sun_example(latitude_deg: float, sky: SkyForKit, almanac: Almanac) -> SunExample | None:
-    """A morning measurement of the Sun and the clock time it gives."""
+def altitude_grid_deg(altitude_step_deg: float) -> float:
+    """The altitudes the examples measure: multiples of 10 deg where the
+    plates' almucantars fall on them (steps of 1, 2, 5 or 10 deg), else of
+    the step itself, so that the example's almucantar is one drawn."""
+    return 10.0 if abs(10.0 / altitude_step_deg - round(10.0 / altitude_step_deg)) < 1e-9 else altitude_step_deg
+
+
+def _measured(altitude_deg: float, grid_deg: float) -> float:
+    return float(round(altitude_deg / grid_deg) * grid_deg)
+
+
+def sun_example(latitude_deg: float, sky: SkyForKit, almanac: Almanac, grid_deg: float = 10.0) -> SunExample | None:
+    """A morning measurement of the Sun, on an almucantar of the grid, and
+    the clock time it gives."""
     phi = math.radians(latitude_deg)
     for month in MONTH_ORDER:
         lon, corr = _day(sky, almanac, month, EXAMPLE_DAY)
@@ -115,16 +129,16 @@ def sun_example(latitude_deg: float, sky: SkyForKit, almanac: Almanac) -> SunExa
         alt = math.degrees(_altitude_rad(phi, dec, math.radians(SUN_HOUR_ANGLE_DEG)))
         if not SUN_ALTITUDE_RANGE_DEG[0] <= alt <= SUN_ALTITUDE_RANGE_DEG[1]:
             continue
-        measured = float(round(alt))
+        measured = _measured(alt, grid_deg)
         h = hour_angle_rad(phi, dec, math.radians(measured))
-        if h is None:  # at a pole the Sun's altitude tells no time
+        if h is None or measured <= 0.0:  # at a pole the Sun's altitude tells no time
             continue
         solar = 12.0 - math.degrees(h) / 15.0
         return SunExample(month, EXAMPLE_DAY, lon, measured, solar, corr, solar + corr / 60.0)
     return None
 
 
-def star_example(latitude_deg: float, sky: SkyForKit, almanac: Almanac) -> StarExample | None:
+def star_example(latitude_deg: float, sky: SkyForKit, almanac: Almanac, grid_deg: float = 10.0) -> StarExample | None:
     """An evening measurement of a bright named star and the clock time it
     gives."""
     phi = math.radians(latitude_deg)
@@ -146,7 +160,7 @@ def star_example(latitude_deg: float, sky: SkyForKit, almanac: Almanac) -> StarE
                 if not (STAR_ALTITUDE_RANGE_DEG[0] <= alt <= STAR_ALTITUDE_RANGE_DEG[1]
                         and abs(math.degrees(h_star)) >= STAR_MIN_HOUR_ANGLE_DEG):
                     continue
-                measured = float(round(alt))
+                measured = _measured(alt, grid_deg)
                 east = h_star < 0
                 h = hour_angle_rad(phi, dec, math.radians(measured))
                 if h is None:
@@ -158,6 +172,10 @@ def star_example(latitude_deg: float, sky: SkyForKit, almanac: Almanac) -> StarE
     return None
 
 
-def worked_examples(latitude_deg: float, sky: SkyForKit, almanac: Almanac) -> WorkedExamples:
-    """Both examples for the site (see the module docstring)."""
-    return WorkedExamples(sun_example(latitude_deg, sky, almanac), star_example(latitude_deg, sky, almanac))
+def worked_examples(latitude_deg: float, sky: SkyForKit, almanac: Almanac,
+                    altitude_step_deg: float = 5.0) -> WorkedExamples:
+    """Both examples for the site (see the module docstring), measured on
+    almucantars the plates draw at ``altitude_step_deg``."""
+    grid = altitude_grid_deg(altitude_step_deg)
+    return WorkedExamples(sun_example(latitude_deg, sky, almanac, grid),
+                          star_example(latitude_deg, sky, almanac, grid))
