@@ -67,8 +67,7 @@ def downloads(tmp_path_factory):
     return tmp_path_factory.mktemp("downloads")
 
 
-@pytest.fixture(scope="module")
-def browser(tmp_path_factory, downloads):
+def _chromium(tmp_path_factory, downloads, javascript: bool = True):
     options = webdriver.ChromeOptions()
     options.binary_location = CHROMIUM
     for arg in ("--headless=new", "--no-sandbox", "--disable-gpu", "--disable-background-networking",
@@ -76,11 +75,19 @@ def browser(tmp_path_factory, downloads):
                 "--lang=en-US", "--window-size=1280,1000",
                 f"--user-data-dir={tmp_path_factory.mktemp('chromium-profile')}"):
         options.add_argument(arg)
-    options.add_experimental_option("prefs", {"download.default_directory": str(downloads),
-                                              "download.prompt_for_download": False,
-                                              "intl.accept_languages": "en-US,en"})
+    prefs = {"download.default_directory": str(downloads), "download.prompt_for_download": False,
+             "intl.accept_languages": "en-US,en"}
+    if not javascript:
+        prefs["profile.managed_default_content_settings.javascript"] = 2
+    options.add_experimental_option("prefs", prefs)
     driver = webdriver.Chrome(service=Service(DRIVER), options=options)
     driver.execute_cdp_cmd("Browser.setDownloadBehavior", {"behavior": "allow", "downloadPath": str(downloads)})
+    return driver
+
+
+@pytest.fixture(scope="module")
+def browser(tmp_path_factory, downloads):
+    driver = _chromium(tmp_path_factory, downloads)
     try:
         yield driver
     finally:
@@ -291,3 +298,28 @@ def test_text_contrast_is_at_least_4_5(browser, site):
         assert len(pairs) > 30
         low = [(what, fg, bg, round(contrast(fg, bg), 2)) for what, fg, bg in pairs if contrast(fg, bg) < 4.5]
         assert not low, low
+
+
+def test_the_form_works_without_javascript(tmp_path_factory, downloads, site):
+    """A browser with JavaScript off: the preview button posts the form and
+    the page comes back with the plate and rete drawn; a mistake comes back
+    beside its field; the PDF downloads."""
+    driver = _chromium(tmp_path_factory, downloads, javascript=False)
+    try:
+        driver.get(site + "/?lang=en")
+        # Scripts are off: the button that only a script can serve stays hidden.
+        assert driver.find_element(By.ID, "show-pages").get_attribute("hidden") is not None
+        driver.find_element(By.ID, "f-latitude").send_keys("95")
+        driver.find_element(By.ID, "show-preview").click()
+        wait(driver, lambda d: d.find_element(By.ID, "error-latitude").is_displayed())
+        latitude = driver.find_element(By.ID, "f-latitude")
+        latitude.clear()
+        latitude.send_keys("-12.05")
+        driver.find_element(By.ID, "show-preview").click()
+        wait(driver, lambda d: d.find_elements(By.CSS_SELECTOR, "#preview-rete .svg svg"))
+        assert driver.find_element(By.ID, "f-latitude").get_attribute("value") == "-12.05"
+        before = {p.name for p in downloads.iterdir()}
+        driver.find_element(By.ID, "download-pdf").click()
+        check_kit_pdf(downloaded(downloads, ".pdf", before).read_bytes(), A4_PT)
+    finally:
+        driver.quit()
