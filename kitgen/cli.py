@@ -8,6 +8,7 @@ one line, never a traceback, unless ``--debug`` asks for one.
 from __future__ import annotations
 
 import argparse
+import contextlib
 import errno
 import os
 import sys
@@ -140,13 +141,41 @@ def _cmd_build(args) -> int:
     out = _output_path(args.output) if args.output else _default_output(path, ".pdf")
     check_target(out, args.force, _inputs(args))
     recipe = load_recipe(path)
-    with speaking(recipe.language, recipe.language_file or None):
+    with speaking(recipe.language, recipe.language_file or None), _at_recipe_line(path):
         check_target(out, args.force, _inputs(args, recipe))
         kit = build_kit(recipe)
         write_atomic(out, build_pdf(kit)[1], args.force, _inputs(args, recipe))
     _print_notes(kit)
     _emit(f"{out}\n")
     return EXIT_OK
+
+
+#: Mistakes found only while the kit is laid out, and the recipe key whose
+#: value they are about: the message gets that key's line in the recipe.
+_BUILD_ERROR_KEYS = {"errors.tile_sheet_too_small": "sheet", "errors.duplex_mater": "duplex",
+                     "errors.duplex_parts": "duplex"}
+
+
+@contextlib.contextmanager
+def _at_recipe_line(path: Path):
+    """Within the block, a mistake that the build finds in a recipe value
+    (:data:`_BUILD_ERROR_KEYS`) is told with that value's line in the
+    recipe, as the loader tells its own."""
+    try:
+        yield
+    except UserError as exc:
+        name = _BUILD_ERROR_KEYS.get(exc.key)
+        if name is None:
+            raise
+        from .recipe.load import at_line, read_text_file, tree_lines
+
+        try:
+            line = tree_lines(read_text_file(path)).get(name)
+        except UserError:
+            line = None
+        if line is None:
+            raise
+        raise UserError("errors.key_problem", label=at_line(path, line), problem=exc) from None
 
 
 def _print_notes(kit) -> None:
@@ -175,7 +204,7 @@ def _cmd_geometry(args) -> int:
     else:
         _check_stdout_not_input(path)
     kit_recipe = load_recipe(path)
-    with speaking(kit_recipe.language, kit_recipe.language_file or None):
+    with speaking(kit_recipe.language, kit_recipe.language_file or None), _at_recipe_line(path):
         if not args.output:
             _check_stdout_not_input(*_inputs(args, kit_recipe))
         return _write_geometry(args, kit_recipe)
@@ -283,7 +312,7 @@ def _cmd_preview(args) -> int:
     if folder.exists() and not folder.is_dir():
         raise UserError("errors.preview_folder_is_file", path=folder)
     recipe = load_recipe(path)
-    with speaking(recipe.language, recipe.language_file or None):
+    with speaking(recipe.language, recipe.language_file or None), _at_recipe_line(path):
         kit = build_kit(recipe)
         pictures = render_previews(build_pdf(kit)[1], args.dpi)
         digits = max(2, len(str(len(pictures))))

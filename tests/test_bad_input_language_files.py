@@ -144,3 +144,21 @@ def test_many_stars_off_the_rete_the_reason_comes_first(tmp_path):
     reason = msg.index("outside the rete")
     assert reason < msg.index(south[0]) and "more" in msg[reason:]
     assert south[-1] not in msg
+
+
+@pytest.mark.parametrize("text, line, needle", [
+    ("latitude: 40\nepoch: 2027\nsheet: a5\ndiameter_mm: 300\nduplex: long_edge\n", 5, "'duplex' needs the mater"),
+    ("latitude: 40\nepoch: 2027\nduplex: long_edge\nparts: [rete]\n", 3, "'duplex' prints the mater"),
+    ("latitude: 40\nsheet: {width_mm: 150, height_mm: 300}\nmargin_mm: 15.1\n", 3, "leaves 119 mm"),
+])
+def test_mistakes_found_late_still_name_the_recipe_line(tmp_path, capsys, text, line, needle):
+    """A value the build (not the loader) finds wrong is told with its line
+    in the recipe too (#11); and a shortfall is never rounded up to the
+    bound it falls short of ("leaves 120 mm ... at least 120 mm")."""
+    from kitgen.cli import main
+
+    (tmp_path / "r.yaml").write_text(text, encoding="utf-8")
+    assert main(["build", str(tmp_path / "r.yaml"), "-o", str(tmp_path / "k.pdf")]) == 2
+    err = capsys.readouterr().err.strip().splitlines()[-1]
+    assert f"r.yaml, line {line}: " in err and needle in err
+    assert not (tmp_path / "k.pdf").exists()
