@@ -338,10 +338,10 @@ def _cmd_batch(args) -> int:
     words = load_words(summary.language) if summary.language in available_languages() else None
     lines = summary_lines(summary, words)
     for line in lines[:-1]:
-        print(line, file=sys.stderr)
+        _tell(line)
     if summary.failures or not args.quiet:
-        print(lines[-1], file=sys.stderr)
-    print(summary.folder)
+        _tell(lines[-1])
+    _emit(f"{summary.folder}\n")
     return summary.exit_status
 
 
@@ -377,8 +377,8 @@ def _cmd_places(args) -> int:
             found = [resolve(args.query)]
         except PlaceError as exc:
             raise UserError.of(exc) from None
-    for p in found:
-        print(f"{p.label()}\t{p.latitude_deg:.5f}\t{p.longitude_deg:.5f}\t{p.timezone}\t{p.population}")
+    _emit("".join(f"{p.label()}\t{p.latitude_deg:.5f}\t{p.longitude_deg:.5f}\t{p.timezone}\t{p.population}\n"
+                  for p in found))
     return EXIT_OK
 
 

@@ -59,7 +59,7 @@ def kit_dir(tmp_path):
 
 @pytest.mark.skipif(not os.path.exists("/dev/full"), reason="no /dev/full on this system")
 @pytest.mark.parametrize("args", [["new"], ["stars"], ["geometry", "r.yaml"], ["--help"],
-                                  ["build", "r.yaml", "-o", "kit.pdf"]])
+                                  ["build", "r.yaml", "-o", "kit.pdf"], ["places", "Lisbon"]])
 def test_stdout_on_a_full_disk(kit_dir, args):
     with open("/dev/full", "wb") as full:
         run = kitgen(*args, cwd=kit_dir, stdout=full, stderr=subprocess.PIPE)
