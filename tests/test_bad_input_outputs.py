@@ -337,3 +337,26 @@ def test_stale_temporaries_are_removed_on_the_next_run(kit_dir, capsys):
     assert main(["build", str(kit_dir / "r.yaml"), "-o", str(kit_dir / "kit.pdf")]) == 0
     names = sorted(p.name for p in kit_dir.iterdir())
     assert names == sorted([foreign.name, fresh.name, "kit.pdf", "r.yaml"])
+
+
+def test_svg_folder_of_a_smaller_kit_holds_only_its_files(kit_dir, capsys):
+    """geometry --format svg for a full kit, then for a kit of one part
+    into the same folder: the folder then holds that part's file alone
+    (the earlier kit's were kitgen's own), and the user's note beside them
+    stays, with --force, as the very same file."""
+    full = kit_dir / "full.yaml"
+    full.write_text("latitude: 52.2\nepoch: 2027\n", encoding="utf-8")
+    svg = kit_dir / "svg"
+    assert main(["geometry", str(full), "--format", "svg", "-o", str(svg)]) == 0
+    assert len(list(svg.iterdir())) >= 6
+    note = svg / "notes.txt"
+    note.write_text("cut the rete first")
+    inode = note.stat().st_ino
+    one = kit_dir / "one.yaml"
+    one.write_text("latitude: 52.2\nepoch: 2027\nparts: [rule]\n", encoding="utf-8")
+    assert main(["geometry", str(one), "--format", "svg", "-o", str(svg)]) == EXIT_USER  # the note is not kitgen's
+    assert main(["geometry", str(one), "--format", "svg", "-o", str(svg), "--force"]) == 0
+    assert sorted(p.name for p in svg.iterdir()) == ["notes.txt", "rule.svg"]
+    assert note.stat().st_ino == inode and note.read_text() == "cut the rete first"
+    out = capsys.readouterr().out.splitlines()
+    assert out[-1].endswith("rule.svg")

@@ -223,10 +223,10 @@ def check_language_tree(tree, source, lines: dict | None = None) -> None:
         raise UserError("errors.language_values", source=source) from None
     missing = sorted(word_keys(english) - word_keys(table))
     if missing:
-        raise UserError("errors.language_missing_keys", source=source, keys=missing)
+        raise UserError("errors.language_missing_keys", source=source, keys=few(missing, 8))
     unknown = sorted(word_keys(table) - word_keys(english))
     if unknown:
-        raise UserError("errors.language_unknown_keys", source=source, keys=unknown)
+        raise UserError("errors.language_unknown_keys", source=source, keys=few(unknown, 8))
     faces = set(fonts.stack(locale.script(code), "label")) | set(fonts.stack(locale.script(code), "bold"))
     for key in sorted(word_keys(english)):
         want, got = english[key], table[key]
