@@ -395,13 +395,14 @@ def _refusal_words(scope) -> dict:
 
 
 def create_app(workdir: str | Path | None = None, workers: int = 2, queue: int = 8, loopback_only: bool = True,
-               allowed_hosts: tuple[str, ...] = ()):
+               allowed_hosts: tuple[str, ...] = (), warm: bool = False):
     """The ASGI application.  ``workdir`` is the private folder for class
     sets (a new temporary one, removed at shutdown, when not given; give
     several workers one shared folder); ``workers`` and ``queue`` bound
     the build pool; ``loopback_only`` answers only requests addressed to
     the loopback names, ``allowed_hosts`` only those addressed to these
-    names (a service behind a reverse proxy)."""
+    names (a service behind a reverse proxy); ``warm`` starts the build
+    workers at once rather than with the first request."""
     own = workdir is None
     root = Path(tempfile.mkdtemp(prefix="kitgen-serve-")) if own else Path(workdir)
     root.mkdir(parents=True, exist_ok=True, mode=0o700)
@@ -409,6 +410,8 @@ def create_app(workdir: str | Path | None = None, workers: int = 2, queue: int =
 
     @contextlib.asynccontextmanager
     async def lifespan(app):
+        if warm:
+            web.pool.warm(jobs.warm)
         try:
             yield
         finally:
@@ -449,4 +452,4 @@ def service():
     if not folder or not hosts.strip():
         raise SystemExit("kitgen.web.app:service needs KITGEN_WEB_DIR and KITGEN_WEB_HOSTS (see README.md)")
     return create_app(folder, int(os.environ.get("KITGEN_WEB_BUILDS", "2")), int(os.environ.get("KITGEN_WEB_QUEUE", "8")),
-                      loopback_only=False, allowed_hosts=tuple(hosts.split(",")))
+                      loopback_only=False, allowed_hosts=tuple(hosts.split(",")), warm=True)

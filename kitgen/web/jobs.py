@@ -24,6 +24,7 @@ from dataclasses import replace
 
 from ..errors import UserError
 from ..kit import build_kit
+from ..recipe.load import validate_recipe
 from ..render.json_export import render_json
 from ..render.pdf import build_pdf
 from ..render.preview import render_previews
@@ -116,4 +117,6 @@ def download(recipe, language: str, fmt: str, tree: dict, heading: str) -> bytes
 
 
 def warm() -> None:
-    """Nothing: importing this module in a new worker loads kitgen."""
+    """Build one small preview, so that a new worker has loaded kitgen,
+    its fonts and its catalogue before the first teacher asks."""
+    preview(validate_recipe({"latitude": 45.0, "epoch": 2026}), "en")

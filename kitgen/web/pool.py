@@ -75,5 +75,11 @@ class BuildPool:
         """``fn(*args)`` on a worker thread, awaited (see :meth:`start`)."""
         return await asyncio.wrap_future(self.start(fn, *args))
 
+    def warm(self, fn) -> None:
+        """Run ``fn`` once on each worker, outside the admission count, so
+        that the first teacher does not wait for a worker to start."""
+        for _ in range(self.workers):
+            self._executor.submit(fn)
+
     def shutdown(self) -> None:
         self._executor.shutdown(wait=True, cancel_futures=True)

@@ -70,7 +70,7 @@ def serve(host: str | None = None, port: int = 0, host_given: bool = False, open
         print(one_line(Message("errors.serve_beyond_loopback", host=host).text()), file=log or sys.stderr)
     sock = bind_socket(host, port)
     url = url_of(sock)
-    app = create_app(workers=workers, queue=queue, loopback_only=loopback)
+    app = create_app(workers=workers, queue=queue, loopback_only=loopback, warm=True)
     print(url, flush=True)
     if open_browser:
         webbrowser.open(url)
