@@ -409,3 +409,14 @@ def test_the_address_fills_the_form_but_never_a_path_key(client):
     assert '<option value="de" selected' in page
     assert "/etc/passwd" not in page
     assert re.search(r'id="f-film_mirror" name="film_mirror" value="true" checked', page)
+
+
+def test_a_download_keeps_the_places_own_letters(client):
+    """RFC 6266, 4.3: filename* in RFC 8187's encoding, beside a plain filename."""
+    from urllib.parse import unquote
+
+    response = post(client, "/kit", {"latitude": "69.65", "place": "Tromsø", "format": "yaml"})
+    disposition = response.headers["content-disposition"]
+    plain = re.search(r'filename="([^"]+)"', disposition).group(1)
+    own = unquote(re.search(r"filename\*=UTF-8''(\S+)", disposition).group(1))
+    assert plain.isascii() and plain.endswith(".yaml") and own == "Tromsø.yaml"

@@ -22,6 +22,7 @@ written, inside the server's private temporary folder.
 
 from __future__ import annotations
 
+import asyncio
 import contextlib
 import logging
 import os
@@ -32,6 +33,7 @@ from dataclasses import MISSING
 from dataclasses import fields as dataclass_fields
 from functools import lru_cache
 from pathlib import Path
+from urllib.parse import quote
 
 import babel
 from jinja2 import Environment, PackageLoader, select_autoescape
@@ -42,6 +44,7 @@ from starlette.responses import FileResponse, HTMLResponse, JSONResponse, Redire
 from starlette.routing import Mount, Route
 from starlette.staticfiles import StaticFiles
 
+from ..batch.naming import kit_stem
 from ..errors import Message, one_line
 from ..recipe.schema import KEYS_BY_NAME, MAX_TEXT_CHARS, Recipe
 from ..words.templates import available_languages, load_words
@@ -102,12 +105,16 @@ def language_name(code: str) -> str:
     return babel.Locale.parse(code).get_display_name(code) or code
 
 
-def _file_stem(tree: dict) -> str:
-    """A plain ASCII file name for a download: the place or title, else
-    ``astrolabe-`` and the latitude as typed."""
-    named = str(tree.get("place") or tree.get("title") or "")
-    stem = re.sub(r"[^A-Za-z0-9.]+", "-", named or f"astrolabe {tree.get('latitude', '')}").strip("-.")[:40]
-    return stem.lower() or "astrolabe"
+def _attachment(tree: dict, suffix: str) -> str:
+    """The ``Content-Disposition`` of a download, named after the place or
+    title (else ``astrolabe-`` and the latitude as typed): the name in its
+    own letters as RFC 6266 allows (``filename*``, RFC 8187's UTF-8
+    encoding, made safe by the class sets' own rule), and a plain ASCII
+    one for older browsers."""
+    named = str(tree.get("place") or tree.get("title") or "") or f"astrolabe {tree.get('latitude', '')}"
+    plain = re.sub(r"[^A-Za-z0-9.]+", "-", named).strip("-.")[:40].lower() or "astrolabe"
+    own = kit_stem(named) or plain
+    return f"attachment; filename=\"{plain}{suffix}\"; filename*=UTF-8''{quote(own + suffix, safe='')}"
 
 
 class Web:
@@ -244,9 +251,8 @@ class Web:
                 if fmt in FORMATS:
                     heading = say(words, "recipe_heading")
                     data = await self.pool.run(jobs.download, recipe, language, fmt, tree, heading)
-                    name = _file_stem(tree) + SUFFIX[fmt]
                     return Response(data, media_type=MEDIA[fmt], headers={
-                        "Content-Disposition": f'attachment; filename="{name}"', "Cache-Control": "no-store"})
+                        "Content-Disposition": _attachment(tree, SUFFIX[fmt]), "Cache-Control": "no-store"})
                 previews = await self.pool.run(jobs.preview, recipe, language)
             except Busy:
                 return self.plain(request, "busy", 503)
@@ -412,6 +418,8 @@ def create_app(workdir: str | Path | None = None, workers: int = 2, queue: int =
     async def lifespan(app):
         if warm:
             web.pool.warm(jobs.warm)
+            if gazetteer is not None:  # its index is read once; the first search should not wait for it
+                await asyncio.to_thread(gazetteer.search, "a", limit=1)
         try:
             yield
         finally:
