@@ -420,3 +420,12 @@ def test_a_download_keeps_the_places_own_letters(client):
     plain = re.search(r'filename="([^"]+)"', disposition).group(1)
     own = unquote(re.search(r"filename\*=UTF-8''(\S+)", disposition).group(1))
     assert plain.isascii() and plain.endswith(".yaml") and own == "Tromsø.yaml"
+
+
+def test_a_field_of_several_forms_reads_as_the_recipes_yaml(client):
+    """twilight: civil, or a list: the field's text is read as the same text
+    in a recipe file would be (the recipe's own safe YAML reader), so a
+    tag is only text."""
+    assert post(client, "/api/preview", {"latitude": "52.2", "twilight": "[civil, nautical]"}).status_code == 200
+    hostile = post(client, "/api/preview", {"latitude": "52.2", "twilight": "!!python/object/apply:os.system [id]"})
+    assert hostile.status_code == 422 and "twilight" in hostile.json()["errors"]

@@ -21,7 +21,7 @@ from dataclasses import dataclass
 import yaml
 
 from ..errors import UserError
-from ..recipe.load import KeyHelp, validate_recipe
+from ..recipe.load import KeyHelp, safe_yaml, validate_recipe
 from ..recipe.schema import KEYS, KEYS_BY_NAME, MAX_TEXT_CHARS, PARTS, Recipe
 
 #: Keys whose value names a file on the machine that reads the recipe.
@@ -127,6 +127,21 @@ def _stars(text: str):
     return [n.strip() for n in t.split(",") if n.strip()]
 
 
+def _yaml_value(text: str):
+    """A field whose key takes more than one form (``twilight: civil`` or
+    ``[civil, nautical]``, ``rete_limit_deg: -40``) read as the same text
+    in a recipe would be, through the recipe's own bounded, safe YAML
+    reader; text it cannot read is passed on as text, for the validation
+    to say what is wrong."""
+    t = text.strip()
+    if len(t) > MAX_TEXT_CHARS:
+        return t
+    try:
+        return safe_yaml(t)
+    except UserError:
+        return t
+
+
 def form_tree(items: list[tuple[str, str]]) -> dict:
     """The recipe tree of a submitted form (``(name, value)`` pairs in the
     order sent): empty fields left out (the recipe's default then holds),
@@ -168,6 +183,8 @@ def form_tree(items: list[tuple[str, str]]) -> dict:
             tree[base] = _stars(value)
         elif key.kind == "latitude":
             tree[base] = value.strip()
+        elif key.kind == "parsed":
+            tree[base] = _yaml_value(value)
         else:
             tree[base] = value
     scale = tree.get("print_scale")
