@@ -65,6 +65,9 @@ def _parser() -> argparse.ArgumentParser:
     w.add_argument("query", help="a town's name, optionally with region and country: Lisbon, 'Lisbon, PT'")
     w.add_argument("--limit", type=_place_limit, default=10, help="most places listed, 1 to 100 (default: 10)")
 
+    k = sub.add_parser("check", help="report how well the kit tells the time, read from its own geometry (#10)")
+    k.add_argument("recipe", help="the recipe (YAML)")
+
     c = sub.add_parser("calibrate", help="write a page of check bars to measure the printer's scale")
     c.add_argument("--sheet", default="a4",
                    help="a5, a4, a3, letter, legal, tabloid, or the sides and unit such as 250x350mm or 9x12in "
@@ -364,6 +367,22 @@ def _place_limit(text: str) -> int:
     return value
 
 
+def _cmd_check(args) -> int:
+    """The accuracy report (kitgen.check) on stdout, in the kit's language."""
+    from .check.accuracy import check_kit
+    from .check.report import report_lines
+    from .kit import build_kit
+    from .recipe.load import load_recipe
+
+    path = _recipe_path(args.recipe)
+    recipe = load_recipe(path)
+    with speaking(recipe.language, recipe.language_file or None), _at_recipe_line(path):
+        kit = build_kit(recipe)
+        lines = report_lines(kit, check_kit(kit))
+    _emit("".join(line + "\n" for line in lines))
+    return EXIT_OK
+
+
 def _cmd_places(args) -> int:
     """The places matching the query, best first, one a line: ``Name,
     REGION, CC``, latitude, longitude, time zone and population, separated
@@ -384,7 +403,7 @@ def _cmd_places(args) -> int:
 
 COMMANDS = {"build": _cmd_build, "geometry": _cmd_geometry, "new": _cmd_new, "stars": _cmd_stars,
             "calibrate": _cmd_calibrate, "preview": _cmd_preview,
-            "batch": _cmd_batch, "serve": _cmd_serve, "places": _cmd_places}
+            "batch": _cmd_batch, "serve": _cmd_serve, "places": _cmd_places, "check": _cmd_check}
 
 
 def main(argv=None, handlers_installed: bool = False) -> int:
