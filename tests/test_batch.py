@@ -335,3 +335,15 @@ def test_a_terminal_gets_a_progress_bar():
     quiet = Terminal()
     progress(3, quiet=True, stream=quiet).advance()
     assert quiet.getvalue() == ""
+
+
+@pytest.mark.parametrize("jobs", ["0", "999", "two"])
+def test_a_bad_jobs_count_is_one_line(tmp_path, capsys, jobs):
+    (tmp_path / "one.yaml").write_text(yaml.safe_dump({"defaults": DEFAULTS, "kits": [{"owner": "Ivo"}]}))
+    try:
+        status = main(["batch", str(tmp_path / "one.yaml"), "-o", str(tmp_path / "out"), "--jobs", jobs])
+    except SystemExit as exc:   # argparse's own refusal of a value that is no number
+        status = exc.code
+    err = capsys.readouterr().err.strip().splitlines()
+    assert status == 2 and len(err) == 1 and err[0].startswith("kitgen: error: ") and "--jobs" in err[0]
+    assert not (tmp_path / "out").exists()
