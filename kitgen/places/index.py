@@ -134,6 +134,24 @@ class PlaceIndex:
         return self.main_blob[self.main_offsets[row]:self.main_offsets[row + 1] - 1]  # less its line feed
 
     @cached_property
+    def countries_by_name(self) -> dict[str, list[int]]:
+        """Country numbers by folded ISO code and folded English name."""
+        out: dict[str, list[int]] = {}
+        for i, (code, name) in enumerate(zip(self.country_codes, self.country_names)):
+            for key in {code.casefold(), fold(name)}:
+                out.setdefault(key, []).append(i)
+        return out
+
+    @cached_property
+    def regions_by_code(self) -> dict[str, list[int]]:
+        """Region numbers by folded GeoNames first-level division code."""
+        out: dict[str, list[int]] = {}
+        for i, code in enumerate(self.regions):
+            if code:
+                out.setdefault(fold(code), []).append(i)
+        return out
+
+    @cached_property
     def distinct_names(self) -> list[str]:
         """Every place's folded main name, once each (for suggestions)."""
         return self.distinct_blob.decode("utf-8").split("\n")

@@ -78,14 +78,11 @@ class _Query:
 
 
 def _country_numbers(index: PlaceIndex, text: str) -> list[int]:
-    f = fold(text)
-    return [i for i, (code, name) in enumerate(zip(index.country_codes, index.country_names))
-            if f == code.casefold() or f == fold(name)]
+    return index.countries_by_name.get(fold(text), [])
 
 
 def _region_numbers(index: PlaceIndex, text: str) -> list[int]:
-    f = fold(text)
-    return [i for i, r in enumerate(index.regions) if r and fold(r) == f]
+    return index.regions_by_code.get(fold(text), [])
 
 
 def _parse(index: PlaceIndex, query: str) -> _Query | None:
@@ -153,13 +150,21 @@ def _own_first(index: PlaceIndex, rows: np.ndarray, folded: str, prefix: bool, l
     return (own + other)[:limit]
 
 
+def _rows(index: PlaceIndex, q: _Query, limit: int) -> list[int]:
+    """Exact matches, then prefix matches, own names first in each."""
+    rows = _own_first(index, _matches(index, q, prefix=False), q.name, False, limit)
+    rows += _own_first(index, _matches(index, q, prefix=True), q.name, True, limit)
+    return list(dict.fromkeys(rows))[:limit]
+
+
 def search(query: str, limit: int = 10) -> list[Place]:
     """Up to ``limit`` places for ``query`` (see the module docstring),
     best first: places of exactly that name, then places whose name starts
     with it, or else close spellings; in each group
     places whose own name matches come before those that match by an
     alternate name, and larger places before smaller.  A qualifier that
-    names no country or region is left out, as one still being typed."""
+    names no country or region, or none with a place of that name, is
+    left out, as one still being typed."""
     index = place_index()
     if not isinstance(query, str) or limit < 1:
         return []
@@ -167,9 +172,9 @@ def search(query: str, limit: int = 10) -> list[Place]:
     q = _parse(index, query) or _parse(index, query.split(",")[0])
     if q is None or not q.name:
         return []
-    rows = _own_first(index, _matches(index, q, prefix=False), q.name, False, limit)
-    rows += _own_first(index, _matches(index, q, prefix=True), q.name, True, limit)
-    rows = list(dict.fromkeys(rows))[:limit]
+    rows = _rows(index, q, limit)
+    if not rows and q.filters != ((None, None),):
+        rows = _rows(index, _Query(q.name, ((None, None),)), limit)  # a qualifier still being typed
     if not rows and len(q.name) >= 3:
         rows = _fuzzy_rows(index, q, limit)
     return [_place(index, r) for r in rows]
