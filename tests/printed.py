@@ -11,7 +11,7 @@ import pypdf
 from kitgen.kit import build_kit
 from kitgen.layout.pages import layout_kit
 from kitgen.recipe.load import parse_recipe_text
-from kitgen.render.pdf import render_pdf
+from kitgen.render.pdf import build_pdf
 
 from .pdf_paths import read_page
 
@@ -25,8 +25,7 @@ def page_text(reader, k: int = 0) -> str:
 class PrintedKit:
     def __init__(self, recipe_text: str):
         self.kit = build_kit(parse_recipe_text(recipe_text))
-        self.pages = layout_kit(self.kit)
-        self.pdf = render_pdf(self.kit, self.pages)
+        self.pages, self.pdf = build_pdf(self.kit)   # the instructions on as many pages as they need
         self.reader = pypdf.PdfReader(io.BytesIO(self.pdf))
 
     def text(self, k: int = 0) -> str:

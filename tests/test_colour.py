@@ -71,13 +71,19 @@ def test_the_colour_kit_has_dark_colours(colour):
 def test_nothing_depends_on_colour_alone(grey, colour):
     """Take the colour operators out of both kits' pages: what is left (every
     path, width, dash and word, page by page, the first page's sentence
-    about grey-scale or colour aside) is the same, so the colour kit printed
+    about grey-scale or colour aside, the instruction pages) is the same, so the colour kit printed
     in grey shows all that the grey kit does."""
     assert len(grey.ops) == len(colour.ops)
     for k, (a, b) in enumerate(zip(grey.ops, colour.ops)):
-        if k == 0:
+        if grey.pages[k].kind == "instructions":
             continue
-        assert [x for x in a if x[0] not in COLOUR_OPS] == [x for x in b if x[0] not in COLOUR_OPS], k
+        # A shown string's bytes are codes of the font subset, numbered in the
+        # order characters are first used in the document, so they are compared
+        # as the words they read (pypdf's text extraction) instead.
+        shapes = [[x if x[0] not in ("Tj", "TJ") else (x[0],) for x in ops if x[0] not in COLOUR_OPS]
+                  for ops in (a, b)]
+        assert shapes[0] == shapes[1], k
+        assert grey.text(k) == colour.text(k), k
 
 
 def test_the_first_page_says_grey_scale_or_colour(grey, colour):

@@ -24,7 +24,7 @@ from kitgen.errors import UserError  # noqa: E402
 from kitgen.kit import build_kit  # noqa: E402
 from kitgen.layout.pages import layout_kit  # noqa: E402
 from kitgen.recipe.load import parse_recipe_text  # noqa: E402
-from kitgen.render.pdf import render_pdf  # noqa: E402
+from kitgen.render.pdf import build_pdf  # noqa: E402
 
 from .pdf_paths import IDENTITY, mul, read_page  # noqa: E402
 from .printed import page_text  # noqa: E402
@@ -36,8 +36,8 @@ MIRROR = (-1.0, 0.0, 0.0, 1.0, 0.0, 0.0)
 
 def printed(extra: str):
     kit = build_kit(parse_recipe_text(RECIPE + extra))
-    pages = layout_kit(kit)
-    reader = pypdf.PdfReader(io.BytesIO(render_pdf(kit, pages)))
+    pages, pdf = build_pdf(kit)
+    reader = pypdf.PdfReader(io.BytesIO(pdf))
     return kit, pages, reader
 
 

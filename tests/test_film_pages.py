@@ -12,6 +12,8 @@ import pytest
 pypdf = pytest.importorskip("pypdf")
 
 
+from kitgen.paper import FOOTER_MM  # noqa: E402
+
 from .pdf_paths import mul  # noqa: E402
 from .printed import PrintedKit  # noqa: E402
 
@@ -36,7 +38,7 @@ def mirrored():
 def test_film_pages_hold_film_parts_only(mirrored):
     """The rete and the recipe's film_parts (the rule) are on film pages,
     every other part on card pages; no page mixes the two."""
-    for page in mirrored.pages[1:]:
+    for page in (p for p in mirrored.pages if p.kind != "instructions"):
         materials = {pl.part.material for pl in page.placements}
         assert materials == {page.kind}
         for pl in page.placements:
@@ -44,12 +46,21 @@ def test_film_pages_hold_film_parts_only(mirrored):
     assert all(p.mirrored == (p.kind == "film") for p in mirrored.pages)
 
 
+def _in_footer(page, y_pt: float) -> bool:
+    """Below the top of the footer band (kitgen.paper.FOOTER_MM above the
+    bottom margin), where no part goes."""
+    return y_pt < (page.sheet.margin_mm + FOOTER_MM) * PT_PER_MM
+
+
 def test_mirrored_film_pages_are_exact_mirror_images(plain, mirrored):
-    """Same layout; on each film page every painted point of the mirrored
-    PDF is the plain one's reflected in the page's vertical midline,
-    x -> W - x (pt, to 1e-3 pt: reportlab writes 1e-4 pt), with the same line widths; each text's
-    rendering matrix (Tm x CTM, 9.4.4) is the plain one's followed by the
-    reflection [-1 0 0 1 W 0], so every glyph is drawn mirrored."""
+    """Same layout; on each film page every painted point of the parts in
+    the mirrored PDF is the plain one's reflected in the page's vertical
+    midline, x -> W - x (pt, to 1e-3 pt: reportlab writes 1e-4 pt), with
+    the same line widths; each text's rendering matrix (Tm x CTM, 9.4.4) is
+    the plain one's followed by the reflection [-1 0 0 1 W 0], so every
+    glyph of the parts is drawn mirrored.  The footer (check bar, page
+    number, kit line, material note) is read as the page leaves the
+    printer, so it is drawn exactly as on the plain page, upright (#9)."""
     assert [(p.kind, p.landscape, len(p.placements)) for p in plain.pages] == \
            [(p.kind, p.landscape, len(p.placements)) for p in mirrored.pages]
     film = [k for k, p in enumerate(plain.pages) if p.kind == "film"]
@@ -59,15 +70,28 @@ def test_mirrored_film_pages_are_exact_mirror_images(plain, mirrored):
         flip = (-1.0, 0.0, 0.0, 1.0, w_pt, 0.0)
         (paths_p, texts_p), (paths_m, texts_m) = plain.read[k], mirrored.read[k]
         assert len(paths_p) == len(paths_m) and len(texts_p) == len(texts_m)
+        page = plain.pages[k]
+        footer_paths = 0
         for a, b in zip(paths_p, paths_m):
             assert a.op == b.op and a.line_width == b.line_width
-            want = [v for x, y in a.device_points() for v in (w_pt - x, y)]
+            if all(_in_footer(page, y) for _, y in a.device_points()):
+                footer_paths += 1
+                want = [v for p in a.device_points() for v in p]
+            else:
+                want = [v for x, y in a.device_points() for v in (w_pt - x, y)]
             got = [v for p in b.device_points() for v in p]
             assert got == pytest.approx(want, abs=1e-3)
+        footer_texts = 0
         for a, b in zip(texts_p, texts_m):
-            assert b.matrix == pytest.approx(mul(a.matrix, flip), abs=1e-6)
-            assert b.matrix[0] * b.matrix[3] - b.matrix[1] * b.matrix[2] < 0  # mirrored glyphs
             assert a.matrix[0] * a.matrix[3] - a.matrix[1] * a.matrix[2] > 0
+            if _in_footer(page, a.matrix[5]):
+                footer_texts += 1
+                assert b.matrix == pytest.approx(a.matrix, abs=1e-6)
+                assert b.matrix[0] * b.matrix[3] - b.matrix[1] * b.matrix[2] > 0  # upright glyphs
+            else:
+                assert b.matrix == pytest.approx(mul(a.matrix, flip), abs=1e-6)
+                assert b.matrix[0] * b.matrix[3] - b.matrix[1] * b.matrix[2] < 0  # mirrored glyphs
+        assert footer_paths >= 3 and footer_texts >= 3   # the check bar and its ticks; number, note, kit line
 
 
 def test_card_pages_are_untouched_by_mirroring(plain, mirrored):

@@ -35,7 +35,7 @@ from pypdf.generic import ContentStream  # noqa: E402
 from kitgen.kit import build_kit  # noqa: E402
 from kitgen.layout.pages import layout_kit  # noqa: E402
 from kitgen.recipe.load import parse_recipe_text  # noqa: E402
-from kitgen.render.pdf import render_pdf  # noqa: E402
+from kitgen.render.pdf import build_pdf  # noqa: E402
 from kitgen.words import fonts  # noqa: E402
 from kitgen.words.measure import text_corners_mm  # noqa: E402
 
@@ -70,8 +70,7 @@ class Built:
                   f"native_digits: {'true' if native else 'false'}\n")
         self.code = code
         self.kit = build_kit(parse_recipe_text(recipe))
-        self.pages = layout_kit(self.kit)
-        self.pdf = render_pdf(self.kit, self.pages)
+        self.pages, self.pdf = build_pdf(self.kit)
         doc = pdfium.PdfDocument(self.pdf)
         spans = _actual_texts(self.pdf)
         self.page_texts = [doc[i].get_textpage().get_text_range() + " " + " ".join(spans[i])

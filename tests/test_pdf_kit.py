@@ -18,10 +18,10 @@ pypdf = pytest.importorskip("pypdf")
 from pypdf.generic import ContentStream  # noqa: E402
 
 from kitgen.kit import build_kit  # noqa: E402
-from kitgen.layout.pages import check_bar_mm, layout_kit  # noqa: E402
+from kitgen.layout.pages import check_bar_mm  # noqa: E402
 from kitgen.paper import FOOTER_MM, TITLE_BAND_MM  # noqa: E402
 from kitgen.recipe.load import parse_recipe_text  # noqa: E402
-from kitgen.render.pdf import render_pdf  # noqa: E402
+from kitgen.render.pdf import build_pdf, render_pdf  # noqa: E402
 
 PT_PER_IN = 72.0          # PDF 32000-1:2008, 8.3.2.3: default user space unit is 1/72 inch
 MM_PER_IN = 25.4          # exact, by the 1959 international yard and pound agreement
@@ -54,8 +54,7 @@ class Rendered:
     def __init__(self, sheet: str):
         self.sheet = sheet
         self.kit = build_kit(parse_recipe_text(RECIPE.format(sheet=sheet)))
-        self.pages = layout_kit(self.kit)
-        self.pdf = render_pdf(self.kit, self.pages)
+        self.pages, self.pdf = build_pdf(self.kit)
         self.reader = pypdf.PdfReader(io.BytesIO(self.pdf))
 
 
@@ -260,8 +259,9 @@ def test_layout_places_every_part_once_inside_the_margins(rendered):
     parts' boxes overlap."""
     placed = [pl.part.kind for page in rendered.pages for pl in page.placements]
     assert sorted(placed) == sorted(p.kind for p in rendered.kit.parts)
-    assert rendered.pages[0].kind == "instructions" and not rendered.pages[0].placements
-    for page in rendered.pages[1:]:
+    assert rendered.pages[0].kind == "instructions"
+    assert all(not p.placements for p in rendered.pages if p.kind == "instructions")
+    for page in (p for p in rendered.pages if p.kind != "instructions"):
         assert page.placements
         assert {pl.part.material for pl in page.placements} == {page.kind}
         boxes = [pl.box_mm for pl in page.placements]
@@ -330,11 +330,11 @@ def test_turned_parts_keep_their_size(a4):
 def test_same_input_same_bytes(a4):
     """Rendering again, in this process and in a fresh one, gives the same bytes."""
     assert render_pdf(a4.kit, a4.pages) == a4.pdf
-    assert render_pdf(a4.kit, layout_kit(a4.kit)) == a4.pdf
-    code = ("import sys; from kitgen.kit import build_kit; from kitgen.layout.pages import layout_kit;"
-            "from kitgen.recipe.load import parse_recipe_text; from kitgen.render.pdf import render_pdf;"
+    assert build_pdf(a4.kit)[1] == a4.pdf
+    code = ("import sys; from kitgen.kit import build_kit;"
+            "from kitgen.recipe.load import parse_recipe_text; from kitgen.render.pdf import build_pdf;"
             f"k = build_kit(parse_recipe_text({RECIPE.format(sheet='a4')!r}));"
-            "sys.stdout.buffer.write(render_pdf(k, layout_kit(k)))")
+            "sys.stdout.buffer.write(build_pdf(k)[1])")
     fresh = subprocess.run([sys.executable, "-c", code], check=True, capture_output=True, timeout=120).stdout
     assert fresh == a4.pdf
 

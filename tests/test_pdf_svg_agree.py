@@ -24,9 +24,8 @@ from pypdf.generic import ContentStream
 
 from kitgen.geometry import style
 from kitgen.kit import build_kit
-from kitgen.layout.pages import layout_kit
 from kitgen.recipe.load import parse_recipe_text
-from kitgen.render.pdf import render_pdf
+from kitgen.render.pdf import build_pdf
 from kitgen.render.svg import render_svg_files
 
 from .test_svg_for_cutters import painted, visible
@@ -90,7 +89,7 @@ def pdf_class(paint, dims) -> str:
                                         "latitude: -33.9\nepoch: 2027\ncolour: true\nlanguage: hi\n"])
 def kit_outputs(request):
     kit = build_kit(parse_recipe_text(request.param))
-    pdf = render_pdf(kit, layout_kit(kit))
+    pdf = build_pdf(kit)[1]
     svgs = {name[:-4]: ET.fromstring(data) for name, data in render_svg_files(kit).items()}
     return kit, pdf_paints(pdf), svgs
 

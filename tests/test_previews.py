@@ -18,7 +18,7 @@ Image = pytest.importorskip("PIL.Image")
 from kitgen.kit import build_kit  # noqa: E402
 from kitgen.layout.pages import layout_kit  # noqa: E402
 from kitgen.recipe.load import parse_recipe_text  # noqa: E402
-from kitgen.render.pdf import render_pdf  # noqa: E402
+from kitgen.render.pdf import build_pdf  # noqa: E402
 from kitgen.render.preview import encode_png, render_previews  # noqa: E402
 
 PNG_SIGNATURE = b"\x89PNG\r\n\x1a\n"  # ISO/IEC 15948:2004, 5.2
@@ -30,8 +30,7 @@ DPI = 30.0
 @pytest.fixture(scope="module")
 def printed():
     kit = build_kit(parse_recipe_text(RECIPE))
-    pages = layout_kit(kit)
-    pdf = render_pdf(kit, pages)
+    pages, pdf = build_pdf(kit)
     return pages, pdf, render_previews(pdf, DPI)
 
 
@@ -79,7 +78,7 @@ def test_preview_command(tmp_path):
     assert run.returncode == 0, run.stderr
     files = sorted((tmp_path / "look").iterdir())
     assert [f.name for f in files] == [f"larkspur-page-{k:02d}.png" for k in range(1, len(files) + 1)]
-    assert len(files) == len(layout_kit(build_kit(parse_recipe_text(RECIPE))))
+    assert len(files) == len(build_pdf(build_kit(parse_recipe_text(RECIPE)))[0])
     # again, over its own pictures: fine
     assert _run("preview", "larkspur.yaml", "-o", "look", "--dpi", "30", cwd=tmp_path).returncode == 0
     # never over a user's file, never a traceback

@@ -23,12 +23,12 @@ pypdf = pytest.importorskip("pypdf")
 from kitgen.errors import UserError  # noqa: E402
 from kitgen.kit import build_kit  # noqa: E402
 from kitgen.layout.calibration import calibration_page  # noqa: E402
-from kitgen.layout.pages import CHECK_BAR_MM, check_bar_mm, layout_kit  # noqa: E402
+from kitgen.layout.pages import CHECK_BAR_MM, check_bar_mm  # noqa: E402
 from kitgen.paper import make_sheet  # noqa: E402
 from kitgen.recipe.load import parse_recipe_text  # noqa: E402
 from kitgen.render.calibration_pdf import render_calibration_pdf  # noqa: E402
 from kitgen.render.json_export import render_json  # noqa: E402
-from kitgen.render.pdf import render_pdf  # noqa: E402
+from kitgen.render.pdf import build_pdf, render_pdf  # noqa: E402
 from kitgen.words.templates import load_words  # noqa: E402
 
 from .pdf_paths import IDENTITY, mul, read_page  # noqa: E402
@@ -42,8 +42,8 @@ RECIPE = "latitude: 48.2\nepoch: 2027\nsheet: a4\ntitle: Larkspur Valley School\
 @pytest.fixture(scope="module")
 def scaled():
     kit = build_kit(parse_recipe_text(RECIPE + f"print_scale: {{x: {SX}, y: {SY}}}\n"))
-    pages = layout_kit(kit)
-    reader = pypdf.PdfReader(io.BytesIO(render_pdf(kit, pages)))
+    pages, pdf = build_pdf(kit)
+    reader = pypdf.PdfReader(io.BytesIO(pdf))
     return kit, pages, reader, [read_page(reader, p) for p in reader.pages]
 
 

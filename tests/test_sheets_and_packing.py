@@ -246,19 +246,24 @@ def test_fewest_pages_for_each_material(diameter, sheet):
 
 def test_instructions_go_on_to_a_second_page_when_their_words_need_it():
     """On A5 (ISO 216: 148 x 210 mm), in Greek, with duplex, mirrored film and
-    a print scale to explain, the instructions need two pages: the layout
-    gives them two, each page says its number of the total, the first keeps
-    the cautions and the print plan, and the part pages follow."""
+    a print scale to explain, the instructions need more than one page: the
+    layout gives them as many as they need, at no less than 9 pt, each page
+    says its number of the total, the first keeps the cautions and the print
+    plan, and the part pages follow."""
     pypdf = pytest.importorskip("pypdf")
     import io
 
-    from kitgen.render.pdf import build_pdf
+    from kitgen.layout.pages import layout_kit
+    from kitgen.render.pdf import MIN_INSTRUCTION_PT, build_pdf, instructions_split
 
     k = kit("sheet: a5\nlanguage: el\nduplex: long_edge\nfilm_mirror: true\nprint_scale: 0.97\n"
             "diameter_mm: 110\n")
     pages, pdf = build_pdf(k)
     kinds = [p.kind for p in pages]
-    assert kinds[:2] == ["instructions", "instructions"] and "instructions" not in kinds[2:]
+    n_text = kinds.count("instructions")
+    assert n_text >= 2 and kinds[:n_text] == ["instructions"] * n_text
+    assert instructions_split(k, pages)[0] >= MIN_INSTRUCTION_PT == 9.0
+    assert instructions_split(k, layout_kit(k, n_text - 1)) is None   # no fewer pages would do
     reader = pypdf.PdfReader(io.BytesIO(pdf))
     n = len(pages)
     def flat(t):  # pypdf reads the bullets ("!" and "\u2022") in among the lines
@@ -268,6 +273,6 @@ def test_instructions_go_on_to_a_second_page_when_their_words_need_it():
     assert flat(k.words.items("instructions.cautions")[0]) in first
     assert flat(k.words("instructions.print_heading")) in first
     front = next(p.number for p in pages if p.duplex == "front")
-    assert front == 3
+    assert front == n_text + 1
     for i, page in enumerate(reader.pages, start=1):
         assert k.words("page.number", k=k.words.number(i), n=k.words.number(n)) in page.extract_text()

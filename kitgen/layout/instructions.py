@@ -88,6 +88,40 @@ def _percent(words, factor: float) -> str:
     return words.number(p, decimals)
 
 
+#: The part kinds each item of the templates' ``instructions.stack`` list
+#: puts on the pin, in the list's order (the alidade, the mater, the plate,
+#: the rete, the rule).
+STACK_ITEM_PARTS = (("alidade",), ("mater_front", "mater_back"), ("plate",), ("rete",), ("rule",))
+
+
+def stack_blocks(kit) -> list[Block]:
+    """The stack on the pin, numbered, with only the parts the kit prints;
+    the mater glued back to back only when its two sides are separate pages
+    (with ``duplex`` they are one sheet, and alone there is nothing to
+    glue: #9)."""
+    w = kit.words
+    printed = set(kit.plan.parts)
+    items = []
+    for text, kinds in zip(w.items("instructions.stack"), STACK_ITEM_PARTS):
+        if not printed & set(kinds):
+            continue
+        if kinds == ("mater_front", "mater_back"):
+            if kit.plan.printing.duplex != "none":
+                text = w("instructions.stack_mater_duplex")
+            elif not set(kinds) <= printed:
+                text = w("instructions.stack_mater_plain")
+        items.append(text)
+    return [Block("item", s, w.number(k) + ".") for k, s in enumerate(items, start=1)]
+
+
+def glossary_blocks(kit) -> list[Block]:
+    """A short glossary in pupils' words: the trade's terms the plate, the
+    rete and the instructions use (#9)."""
+    w = kit.words
+    return ([Block("heading", w("instructions.glossary_heading"))]
+            + [Block("item", s, "\u2022") for s in w.items("instructions.glossary")])
+
+
 def story(kit, pages) -> list[Block]:
     """The instructions page, as paragraphs for pdf_text.draw_blocks."""
     w = kit.words
@@ -112,7 +146,7 @@ def story(kit, pages) -> list[Block]:
     if any(pl.piece is not None for p in pages for pl in p.placements):
         out.append(Block("body", w("printing.tiles")))
     out += [Block("heading", w("instructions.stack_heading")), Block("body", w("instructions.stack_intro"))]
-    out += numbered("instructions.stack")
+    out += stack_blocks(kit)
     out.append(Block("body", w("instructions.fastener")))
     out.append(Block("heading", w("instructions.time_heading")))
     out += numbered("instructions.time_steps")
@@ -121,6 +155,7 @@ def story(kit, pages) -> list[Block]:
     out += sun_example_blocks(kit) + correction_blocks(kit)
     out.append(Block("heading", w("instructions.height_heading")))
     out += numbered("instructions.height_steps")
+    out += glossary_blocks(kit)
     out += sunrise_blocks(kit) + star_blocks(kit)
     return out
 

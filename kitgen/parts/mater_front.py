@@ -9,6 +9,7 @@ one (see kitgen.projection.stereographic for the frame).
 
 from __future__ import annotations
 
+import math
 
 from ..geometry import model
 from . import curves
@@ -19,6 +20,21 @@ from .plate import key_tab_mm
 def hour_angle_deg(hour: float, sign: int) -> float:
     """Direction (degrees ccw from +x) of local apparent solar time ``hour``."""
     return 90.0 - sign * 15.0 * (hour - 12.0)
+
+
+def upright_hour_label(w, hour: int, sign: int, r_tips_mm: float, r_ring_mm: float, size_pt: float):
+    """The numeral of ``hour``, upright (never turned, so a 6 cannot be
+    read as a 9 however the instrument is held: #9), centred on the hour's
+    ray between the longest ticks' tips (``r_tips_mm``) and the ring's outer
+    circle, as far out as its measured box allows."""
+    text = w.number(hour)
+    ext = w.measure(text, size_pt)
+    a = math.radians(hour_angle_deg(hour, sign))
+    half = abs(math.cos(a)) * ext.width_mm / 2.0 + abs(math.sin(a)) * ext.height_mm / 2.0   # along the ray
+    room = r_ring_mm - r_tips_mm
+    gap = max(0.0, min(0.3 * (room - 2.0 * half), 0.6))
+    r = max(r_tips_mm + half, r_ring_mm - half - gap) if room >= 2.0 * half else (r_tips_mm + r_ring_mm) / 2.0
+    return model.text("hour_label", (r * math.cos(a), r * math.sin(a)), text, size_pt, 0.0, hour=hour)
 
 
 def mater_front(ctx: PartContext) -> model.Part:
@@ -45,8 +61,7 @@ def mater_front(ctx: PartContext) -> model.Part:
         els.append(curves.radial_tick("hour_tick", hour_angle_deg(hour, s), r_in, r_in + length, r_in, stroke,
                                       hour=hour))
     for hour in range(24):
-        els.append(curves.ring_text("hour_label", w.number(hour), hour_angle_deg(hour, s), r_in + 0.72 * ring,
-                                    d.text_pt, hour=hour))
+        els.append(upright_hour_label(w, hour, s, r_in + 0.42 * ring, r_mid, d.text_pt))
     deg_ring = r_out - r_mid
     for deg in range(360):
         length = deg_ring * (0.45 if deg % 15 == 0 else 0.28 if deg % 5 == 0 else 0.16)

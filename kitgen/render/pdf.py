@@ -220,8 +220,12 @@ class InstructionsOverflow(ValueError):
     """The instructions need more pages than the layout gave them."""
 
 
-#: Body sizes (pt) tried for the instructions, largest first.
-INSTRUCTION_SIZES_PT = tuple(10.5 - 0.5 * k for k in range(10))   # 10.5 down to 6
+#: Body sizes (pt) tried for the instructions, largest first.  Never below
+#: MIN_INSTRUCTION_PT, the size a class reads on a handout (#9): common
+#: practice in print for continuous reading is 9 to 12 pt (values from
+#: experience, not from a standard); longer words go on to more pages.
+MIN_INSTRUCTION_PT = 9.0
+INSTRUCTION_SIZES_PT = (10.5, 10.0, 9.5, MIN_INSTRUCTION_PT)
 
 
 def split_story(blocks, width_pt: float, height_pt: float, words, n_pages: int):
@@ -256,11 +260,20 @@ def split_story(blocks, width_pt: float, height_pt: float, words, n_pages: int):
     return None
 
 
+def instructions_split(kit, pages):
+    """``(size_pt, chunks)`` of the instructions on the layout's
+    instruction pages (see :func:`split_story`), or ``None`` when they need
+    more pages."""
+    mine = [p for p in pages if p.kind == "instructions"]
+    x0, y0, x1, y1 = page_content_mm(mine[0])
+    return split_story(story(kit, pages), (x1 - x0) * mm, (y1 - y0) * mm, kit.words, len(mine))
+
+
 def _instructions(c: Canvas, kit, page: Page, pages) -> None:
     """This page's share of the instructions."""
     x0, y0, x1, y1 = page_content_mm(page)
     mine = [p for p in pages if p.kind == "instructions"]
-    split = split_story(story(kit, pages), (x1 - x0) * mm, (y1 - y0) * mm, kit.words, len(mine))
+    split = instructions_split(kit, pages)
     if split is None:
         raise InstructionsOverflow(f"the instructions need more than {len(mine)} page(s)")
     size, chunks = split
@@ -271,20 +284,21 @@ def _instructions(c: Canvas, kit, page: Page, pages) -> None:
 
 # -- the document ----------------------------------------------------------------
 
-def page_transform(c: Canvas, page: Page) -> None:
+def page_transform(c: Canvas, page: Page, mirror: bool = True) -> None:
     """From the page as it measures in print (mm, the layout's page) to the
     PDF's page: mirrored left to right for a mirrored film page (so the ink
-    lies under the film once it is turned over), then drawn at 1 / scale in
-    each direction so that a printer that prints at ``print_scale`` gives
-    true sizes."""
+    lies under the film once it is turned over; ``mirror=False`` for the
+    footer, which is read as the page comes out of the printer), then drawn
+    at 1 / scale in each direction so that a printer that prints at
+    ``print_scale`` gives true sizes."""
     sx, sy = page.print_scale
-    if page.mirrored:
+    if page.mirrored and mirror:
         c.transform(-1.0, 0.0, 0.0, 1.0, page.media_mm[0] * mm, 0.0)
     if (sx, sy) != (1.0, 1.0):
         c.scale(1.0 / sx, 1.0 / sy)
 
 
-def build_pdf(kit, max_instruction_pages: int = 3):
+def build_pdf(kit, max_instruction_pages: int = 8):
     """The kit laid out and rendered: ``(pages, pdf_bytes)``, with the
     instructions on as few pages as their words need (on small sheets and
     in long-worded languages, more than one)."""
@@ -292,6 +306,8 @@ def build_pdf(kit, max_instruction_pages: int = 3):
 
     for n in range(1, max_instruction_pages + 1):
         pages = layout_kit(kit, n)
+        if instructions_split(kit, pages) is None:   # measured before drawing anything
+            continue
         try:
             return pages, render_pdf(kit, pages)
         except InstructionsOverflow:
@@ -324,6 +340,9 @@ def render_pdf(kit, pages) -> bytes:
             _draw_placement(c, placement, kit.dims, kit.words, kit.plan.printing)
         for mark in page.marks:
             pdf_marks.draw_registration(c, mark)
+        c.restoreState()
+        c.saveState()
+        page_transform(c, page, mirror=False)   # the footer reads the right way round as printed (#9)
         _footer(c, kit, page)
         c.restoreState()
         c.showPage()

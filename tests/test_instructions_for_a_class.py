@@ -1,0 +1,111 @@
+"""Instructions a class can follow (#9): never below 9 pt (more pages
+instead), no step that contradicts the kit's options, hour numerals that
+cannot be turned into each other, film footers printed the right way
+round, a glossary in every language.
+
+The PDF is read back with pypdf by PDF 32000-1:2008 (9.4.4: a glyph's
+size on the page is the Tf size scaled by the text rendering matrix
+Tm x CTM; see pdf_paths.py).  9 pt as the smallest size for continuous
+reading on a handout is common practice in print (from experience, not
+from a standard).
+"""
+
+from __future__ import annotations
+
+import math
+
+import pytest
+
+from kitgen.kit import build_kit
+from kitgen.layout.instructions import story
+from kitgen.layout.pages import layout_kit
+from kitgen.paper import FOOTER_MM
+from kitgen.recipe.load import parse_recipe_text
+from kitgen.words.templates import available_languages, load_words
+
+from .printed import PrintedKit
+
+PT_PER_MM = 72.0 / 25.4
+MIN_PT = 9.0
+
+
+@pytest.mark.parametrize("recipe", [
+    "latitude: 52.2\nepoch: 2027\n",
+    "latitude: 28.6\nepoch: 2027\nsheet: a5\nlanguage: hi\n",
+    "latitude: 37.9\nepoch: 2027\nsheet: a5\nlanguage: el\nduplex: long_edge\nfilm_mirror: true\n"
+    "print_scale: 0.97\ndiameter_mm: 110\n",
+    "latitude: 24.5\nepoch: 2027\nsheet: letter\nlanguage: ar\n",
+])
+def test_no_instruction_text_below_9_pt(recipe):
+    printed = PrintedKit(recipe)
+    sizes = []
+    for page, (paths, texts) in zip(printed.pages, printed.read):
+        if page.kind != "instructions":
+            continue
+        sx, sy = page.print_scale
+        band_pt = (page.sheet.margin_mm + FOOTER_MM) * PT_PER_MM / sy
+        for t in texts:
+            if t.matrix[5] < band_pt:          # the footer: check bar note, page number, kit line
+                continue
+            a, b, c, d = t.matrix[:4]
+            scale = math.sqrt(abs(a * d - b * c))   # Tm x CTM's scale: the glyph's size per Tf unit
+            sizes.append(t.size * scale * sx)          # as printed at the recipe's print_scale
+    assert sizes and min(sizes) >= MIN_PT - 1e-6, min(sizes)
+
+
+def _text_blocks(recipe: str):
+    printed = PrintedKit(recipe)
+    return printed, [b.text for b in story(printed.kit, printed.pages)]
+
+
+def test_duplex_has_no_gluing_step():
+    w = load_words("en")
+    glue = w.items("instructions.stack")[1]
+    printed, texts = _text_blocks("latitude: 52.2\nepoch: 2027\nduplex: long_edge\n")
+    assert glue not in texts and w("instructions.stack_mater_duplex") in texts
+    # "glue" only where the page says there is nothing to glue
+    front = next(p.number for p in printed.pages if p.duplex == "front")
+    nothing = {w("instructions.stack_mater_duplex"),
+               w("printing.duplex_long", front=w.number(front), back=w.number(front + 1))}
+    assert {t for t in texts if "glue" in t.lower()} <= nothing, [t for t in texts if "glue" in t.lower()]
+    _, texts = _text_blocks("latitude: 52.2\nepoch: 2027\n")
+    assert glue in texts   # separate pages: glued back to back
+
+
+def test_the_stack_lists_only_the_parts_printed():
+    w = load_words("en")
+    stack = w.items("instructions.stack")
+    _, texts = _text_blocks("latitude: 52.2\nepoch: 2027\nparts: [plate, rete, rule]\n")
+    assert [s for s in stack if s in texts] == [stack[2], stack[3], stack[4]]
+    _, texts = _text_blocks("latitude: 52.2\nepoch: 2027\nparts: [mater_front, plate]\n")
+    assert w("instructions.stack_mater_plain") in texts and stack[1] not in texts
+
+
+@pytest.mark.parametrize("language", sorted(available_languages()))
+def test_a_glossary_in_every_language(language):
+    kit = build_kit(parse_recipe_text(f"latitude: 40\nepoch: 2027\nlanguage: {language}\n"))
+    texts = [b.text for b in story(kit, layout_kit(kit))]
+    w = kit.words
+    assert w("instructions.glossary_heading") in texts
+    items = w.items("instructions.glossary")
+    assert len(items) == 6 and all(i in texts for i in items)
+
+
+def test_the_english_glossary_names_the_terms_of_the_trade():
+    text = " ".join(load_words("en").items("instructions.glossary")).lower()
+    for term in ("almucantar", "azimuth", "ecliptic longitude", "unequal hours", "twilight", "zenith"):
+        assert term in text, term
+
+
+def test_hour_numerals_are_upright():
+    """Every hour numeral on the mater's front is drawn at angle 0: turning
+    the instrument cannot make a 6 of a 9, and all read as printed."""
+    for latitude in (52.2, -33.9):
+        kit = build_kit(parse_recipe_text(f"latitude: {latitude}\nepoch: 2027\n"))
+        labels = kit.part("mater_front").with_role("hour_label")
+        assert len(labels) == 24
+        assert all(e.geom["angle_deg"] == 0.0 for e in labels)
+        inner = kit.dims.limb_inner_radius_mm
+        outer = kit.dims.hour_ring_outer_mm
+        for e in labels:   # inside the hour ring
+            assert inner < math.hypot(*e.geom["at"]) < outer
