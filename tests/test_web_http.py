@@ -143,6 +143,10 @@ def test_oversized_bodies_are_refused_with_413(client):
     upload = client.post("/sets", data={"csrf_token": token(client), "latitude": "1"},
                          files={"roster": ("r.csv", b"owner\n" + b"x" * 700_000, "text/csv")})
     assert upload.status_code == 413
+    # A roster just over its own limit, in a body within the route's.
+    upload = client.post("/sets", data={"csrf_token": token(client), "latitude": "1"},
+                         files={"roster": ("r.csv", b"owner\n" + b"x" * (512 * 1024), "text/csv")})
+    assert upload.status_code == 413
 
 
 def test_csrf_is_enforced_on_every_post(client):

@@ -326,6 +326,8 @@ class Web:
             errors["roster"] = say(words, "error.roster_required")
         else:
             data = await roster.read(MAX_UPLOAD_BYTES + 1)
+            if len(data) > MAX_UPLOAD_BYTES:
+                return self.plain(request, "error.too_large", 413)
             try:
                 text = data.decode("utf-8-sig")
             except UnicodeDecodeError:
