@@ -16,6 +16,7 @@ from .parts import PART_BUILDERS
 from .parts.context import PartContext
 from .parts.dimensions import Dimensions, dimensions
 from .parts.legibility import plan_scales, shortened_notes
+from .parts.rete import rim_notes
 from .plan.model import Plan
 from .plan.resolve import plan_kit
 from .recipe.schema import Recipe
@@ -65,7 +66,7 @@ def on_material(part: Part, plan: Plan) -> Part:
 def build_from_plan(plan: Plan) -> Kit:
     """Every part of the planned kit, as geometry in mm: one plate per
     planned plate (ids ``plate-1``...), one of every other part."""
-    dims = dimensions(plan.diameter_mm, plan.sky.obliquity_rad)
+    dims = dimensions(plan.diameter_mm, plan.sky.obliquity_rad, plan.sky.rim_deg, plan.hemisphere_sign)
     kit_scales = plan_scales(plan, plan.plates[0], dims)
     notes = list(kit_scales.notes)
     parts = []
@@ -84,6 +85,7 @@ def build_from_plan(plan: Plan) -> Kit:
             ctx = PartContext(plan, dims, scales, plate)
             parts.append(replace(on_material(build(ctx), plan), id=plate.id))
     parts = tuple(parts)
+    notes += rim_notes(plan)
     return Kit(plan, dims, parts, tuple(notes) + shortened_notes(parts, dims, plan.words))
 
 

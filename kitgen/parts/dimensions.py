@@ -1,7 +1,7 @@
 """The sizes of every part, derived from the mater's diameter.
 
 One place holds the proportions, so that every part agrees: the plate fits
-inside the limb, the rete's rim is the outer tropic, the rule reaches the
+inside the limb, the rete's rim is the plates' too, the rule reaches the
 hour ring, the alidade spans the back.  Lengths in mm, text sizes in pt.
 
 Text sizes and tick lengths follow the instrument (in proportion to a
@@ -21,8 +21,9 @@ under 0.10 mm), and scales too fine for the size are thinned by
 
 from __future__ import annotations
 
-import math
 from dataclasses import dataclass
+
+from ..sky.rete_rim import plate_and_rim_radii_mm, rim_radius_factor, tropic_rim_deg
 
 #: Smallest text printed, pt.  Common practice in print: 5 pt sans-serif is
 #: the smallest size most readers can read unaided on a laser print.
@@ -43,7 +44,7 @@ class Dimensions:
     limb_inner_radius_mm: float    # inner edge of the hour ring
     hour_ring_outer_mm: float      # between the hour ring and the degree ring
     plate_radius_mm: float         # the plate's cut circle, inside the limb
-    outer_tropic_radius_mm: float  # the rete's rim; the edge of the plate's drawing
+    outer_tropic_radius_mm: float  # the rete's rim (the outer tropic or beyond); the edge of the plate's drawing
     equator_radius_mm: float
     text_pt: float                 # ordinary label size
     small_text_pt: float
@@ -54,30 +55,39 @@ class Dimensions:
     back_calendar_ring_mm: float   # mater back: inner edge of the calendar scale
 
     @property
+    def rim_radius_mm(self) -> float:
+        """The rim of the rete and of the plates' drawing (the field's
+        older name says outer tropic: the rim lies there or beyond)."""
+        return self.outer_tropic_radius_mm
+
+    @property
     def scale(self) -> float:
         """Size relative to a 180 mm mater (the A4 default)."""
         return self.mater_radius_mm / 90.0
 
 
-def dimensions(diameter_mm: float, obliquity_rad: float) -> Dimensions:
-    """Proportions of the kit for a mater of ``diameter_mm`` and the
-    epoch's obliquity (which sets where the outer tropic falls)."""
+def dimensions(diameter_mm: float, obliquity_rad: float, rim_deg: float | None = None,
+               hemisphere_sign: int = 1) -> Dimensions:
+    """Proportions of the kit for a mater of ``diameter_mm``, the epoch's
+    obliquity and the rim's declination ``rim_deg`` (degrees, signed; the
+    outer tropic when None), which together set the projection's scale."""
     r = diameter_mm / 2.0
     s = r / 90.0
     limb_inner = r * 0.84
     # A gap between the plate's edge and the hour ring holds the slot for the
-    # plate's key, so that the key covers no hour tick.
-    plate = limb_inner - max(3.0, 4.0 * s)
-    tropic = plate - max(2.0, 2.5 * s)
-    # The outer tropic (declination -eps in the view frame) has radius
-    # R tan(pi/4 + eps/2): Snyder 1987, eq. 21-33.
-    equator = tropic / math.tan(math.pi / 4 + obliquity_rad / 2)
+    # plate's key, so that the key covers no hour tick (kitgen.sky.rete_rim).
+    plate, rim = plate_and_rim_radii_mm(diameter_mm)
+    if rim_deg is None:
+        rim_deg = tropic_rim_deg(hemisphere_sign, obliquity_rad)
+    # The rim (declination delta) has radius R tan(pi/4 - sign delta/2):
+    # Snyder 1987, eq. 21-33.
+    equator = rim / rim_radius_factor(rim_deg, hemisphere_sign)
     return Dimensions(
         mater_radius_mm=r,
         limb_inner_radius_mm=limb_inner,
         hour_ring_outer_mm=r * 0.93,
         plate_radius_mm=plate,
-        outer_tropic_radius_mm=tropic,
+        outer_tropic_radius_mm=rim,
         equator_radius_mm=equator,
         text_pt=max(MIN_TEXT_PT, 6.5 * s),
         small_text_pt=max(MIN_TEXT_PT, 5.2 * s),

@@ -14,9 +14,11 @@ import math
 
 import numpy as np
 
+from ..errors import Message, Number
 from ..geometry import model
 from ..projection.circles import project_circle
 from ..projection.stereographic import equatorial_vector, project
+from ..sky.rete_rim import MAX_RIM_DEG, rim_for_stars_deg
 from ..words.symbols import ZODIAC_SIGNS
 from . import curves, labels, legibility
 from .ring_numbers import NUMBERED_TICK, SHORT_TICK, SIGN_NUMBERS_DEG, names_from_edge_mm, number_row
@@ -104,3 +106,21 @@ def rete(ctx: PartContext) -> model.Part:
     els.append(model.point("pin", (0.0, 0.0), hole="centre"))
     r = d.plate_radius_mm
     return model.Part("rete", "film", tuple(els), (-r, -r, r, r), {}, w("rete.title"))
+
+
+def rim_notes(plan) -> tuple[Message, ...]:
+    """The build's note naming the bright stars that rise well above the
+    horizon at the kit's latitudes but lie beyond the rim (#9), with the
+    ``rete_limit_deg`` that brings them in (kitgen.sky.rete_rim)."""
+    beyond = plan.sky.beyond_rim
+    if not beyond or "rete" not in plan.parts:
+        return ()
+    value = rim_for_stars_deg([p.dec_deg for p in beyond], plan.hemisphere_sign)
+    if abs(value) > MAX_RIM_DEG:
+        beyond = [p for p in beyond if abs(rim_for_stars_deg([p.dec_deg], plan.hemisphere_sign)) <= MAX_RIM_DEG]
+        if not beyond:
+            return ()
+        value = rim_for_stars_deg([p.dec_deg for p in beyond], plan.hemisphere_sign)
+    return (Message("notes.stars_beyond_rim", part=legibility.PART_NAMES["rete"],
+                    stars=[plan.words.star_name(p.star.label) for p in beyond],
+                    rim=Number(round(plan.sky.rim_deg, 1)), value=Number(value)),)

@@ -84,6 +84,7 @@ class Plan:
     parts: tuple[str, ...]         # the kinds of part the kit prints
     almanac: Almanac               # the site's clock correction and sunrise table for the epoch year (#10)
     examples: WorkedExamples       # the instructions' worked examples by the Sun and a star (#10)
+    owner: str = ""                # whose kit it is, printed small on every part (#9)
 
     @property
     def latitude_deg(self) -> float:

@@ -15,6 +15,7 @@ from ..recipe.load import load_language_file
 from ..recipe.schema import Recipe
 from ..recipe.twilight import twilight_altitudes_deg
 from ..sky.almanac import sky_for_kit
+from ..sky.rete_rim import kit_rim_deg
 from ..sky.site_almanac import almanac_for_site
 from ..sky.worked_example import worked_examples
 from ..words.templates import Words, load_words, words_from_tree
@@ -65,7 +66,11 @@ def plan_kit(recipe: Recipe) -> Plan:
     scale = tuple(recipe.print_scale)
     stars = recipe.stars
     site = plan_site(recipe, plates)
-    sky = sky_for_kit(recipe.epoch, sign, stars.names, stars.brightest, stars.magnitude_limit, site.longitude_deg)
+    diameter = float(recipe.diameter_mm or default_diameter_mm(sheet, scale))
+    latitudes = tuple(p.latitude_deg for p in plates)
+    rim = kit_rim_deg(recipe.rete_limit_deg, latitudes, sign, recipe.epoch, diameter)
+    sky = sky_for_kit(recipe.epoch, sign, stars.names, stars.brightest, stars.magnitude_limit, site.longitude_deg,
+                      rim, latitudes)
     almanac = almanac_for_site(recipe.epoch, site.latitude_deg, site.longitude_deg, site.timezone)
     return Plan(
         title=recipe.title,
@@ -74,7 +79,7 @@ def plan_kit(recipe: Recipe) -> Plan:
         plates=plates,
         site=site,
         sky=sky,
-        diameter_mm=float(recipe.diameter_mm or default_diameter_mm(sheet, scale)),
+        diameter_mm=diameter,
         words=plan_words(recipe),
         drawing=Drawing(float(recipe.altitude_step_deg), float(recipe.azimuth_step_deg),
                         twilight_altitudes_deg(recipe.twilight), recipe.unequal_hours),
@@ -84,4 +89,5 @@ def plan_kit(recipe: Recipe) -> Plan:
         parts=tuple(recipe.parts),
         almanac=almanac,
         examples=worked_examples(site.latitude_deg, sky, almanac, float(recipe.altitude_step_deg)),
+        owner=recipe.owner,
     )

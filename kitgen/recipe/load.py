@@ -25,9 +25,9 @@ from pathlib import Path
 import yaml
 
 from ..errors import Message, UserError, few, shown, speaking, typed
-from ..paper import DEFAULT_MARGIN_MM, SheetError, make_sheet
-from ..sky.rete_rim import epoch_obliquity_rad, rete_fits
-from ..sky.stars import closest_name, find_star, fold_name, outside, select_stars
+from ..paper import DEFAULT_MARGIN_MM, SheetError, default_diameter_mm, make_sheet
+from ..sky.rete_rim import MAX_RIM_DEG, epoch_obliquity_rad, kit_rim_deg, rete_fits, rim_for_stars_deg
+from ..sky.stars import closest_name, find_star, fold_name, outside, places_at_epoch, select_stars
 from ..template_files import STAR_NAMES, available_languages, shipped_tree
 from ..words import fonts, locale
 from ..words.templates import MAX_LANGUAGE_FILE_BYTES, check_language_tree
@@ -549,7 +549,9 @@ def _check_stars_fit(values: dict, source, lines: dict) -> None:
     plates = values.get("plates") or ()
     south = values["latitude_deg"] < 0 or any(p.latitude_deg < 0 for p in plates)
     sign = -1 if south else 1
-    fits = rete_fits(sign, epoch_obliquity_rad(values["epoch"]))
+    latitudes = [p.latitude_deg for p in plates] or [values["latitude_deg"]]
+    rim = kit_rim_deg(values.get("rete_limit_deg"), latitudes, sign, values["epoch"], _kit_diameter_mm(values))
+    fits = rete_fits(sign, epoch_obliquity_rad(values["epoch"]), rim)
     label = Message("errors.key_label", where=at_line(source, lines["stars"]) if "stars" in lines else source,
                     name="stars")
     if not choice.names:
@@ -564,6 +566,10 @@ def _check_stars_fit(values: dict, source, lines: dict) -> None:
         return
     problem = (Message("errors.star_outside", name=off[0]) if len(off) == 1
                else Message("errors.stars_outside", names=few([f"'{n}'" for n in off]), count=len(off)))
+    _, dec = places_at_epoch([find_star(n) for n in off], values["epoch"] + 0.5)
+    needed = rim_for_stars_deg(dec, sign)
+    if abs(needed) <= MAX_RIM_DEG:
+        raise UserError("errors.stars_beyond_rim", label=label, problem=problem, value=f"{needed:g}")
     raise UserError("errors.key_problem", label=label, problem=problem)
 
 
@@ -579,6 +585,18 @@ def _check_sheet_room(values: dict, source, lines: dict) -> None:
         name = "margin_mm" if "margin_mm" in lines else "sheet"
         where = at_line(source, lines[name]) if name in lines else source
         raise UserError("errors.key_problem", label=where, problem=exc) from None  # the problem names the key
+
+
+def _kit_diameter_mm(values: dict) -> float:
+    """The mater's diameter the kit will have (as the plan finds it):
+    the recipe's, or the largest that its sheet holds."""
+    if values.get("diameter_mm"):
+        return float(values["diameter_mm"])
+    try:
+        sheet = make_sheet(values.get("sheet", "a4"), values.get("margin_mm", DEFAULT_MARGIN_MM))
+    except SheetError:
+        return 180.0  # any size: the plan refuses the sheet in its own words
+    return default_diameter_mm(sheet, tuple(values.get("print_scale", (1.0, 1.0))))
 
 
 def _local_star_names(tree: dict, source) -> dict:

@@ -18,6 +18,7 @@ from .twilight import DEFAULT as DEFAULT_TWILIGHT, parse_twilight
 
 from .cutter import parse_cutter_colours
 from .print_scale import parse_print_scale
+from .rete_limit import parse_rete_limit
 from ..geometry.style import CUTTER_COLOURS, PIN_HOLE_MM, SIGHT_HOLE_MM
 from ..paper import DEFAULT_MARGIN_MM, MAX_MARGIN_MM, MIN_MARGIN_MM, SHEET_SIZES_MM, parse_sheet
 
@@ -67,6 +68,7 @@ class Recipe:
     place: str = ""
     owner: str = ""                # whose kit it is: a pupil's name in a class set (#9, #12)
     stars: StarChoice = field(default_factory=lambda: StarChoice(brightest=32))
+    rete_limit_deg: float | None = None  # the rim's declination; None: from the latitude (#9)
     altitude_step_deg: float = 5.0
     azimuth_step_deg: float = 15.0
     diameter_mm: float | None = None
@@ -151,6 +153,10 @@ KEYS: tuple[Key, ...] = (
     Key("stars", "stars", "stars",
         "star names from `kitgen stars`, or {brightest: N}, or {magnitude_limit: M}",
         example={"brightest": 32}),
+    Key("rete_limit_deg", "rete_limit_deg", "parsed",
+        "declination of the rim of the rete and the plates, 23.5 to 80 degrees beyond the equator (-40 on a "
+        "northern kit, 40 on a southern one); default: from the latitude, so that the bright stars that rise well "
+        "above the horizon fit", example=-40, parse=parse_rete_limit),
     Key("altitude_step_deg", "altitude_step_deg", "number", "step between almucantars, degrees", 1.0, 30.0,
         example=5),
     Key("azimuth_step_deg", "azimuth_step_deg", "number", "step between azimuth curves, degrees", 5.0, 90.0,
