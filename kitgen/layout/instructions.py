@@ -157,6 +157,7 @@ def story(kit, pages) -> list[Block]:
     out += numbered("instructions.height_steps")
     out += glossary_blocks(kit)
     out += sunrise_blocks(kit) + star_blocks(kit)
+    out += worksheet_blocks(kit)
     return out
 
 
@@ -292,4 +293,47 @@ def star_blocks(kit) -> list[Block]:
                                correction=signed(w, ex.correction_min),
                                clock=clock_text(w, (solar_min + ex.correction_min) / 60.0),
                                clock_name=clock_name(kit))))
+    return out
+
+
+def _worksheet_values(kit, q) -> dict:
+    """A question's numbers, dates and times as the kit's language writes them."""
+    w = kit.words
+    v = dict(q.values)
+    out = {"place": _place(kit), "year": w.number(kit.plan.epoch), "clock_name": clock_name(kit)}
+    if "month" in v:
+        out["date"] = _date(kit, v["month"], v["day"], False)
+    if "altitude_deg" in v:
+        out["altitude"] = w.number(v["altitude_deg"], 0 if float(v["altitude_deg"]).is_integer() else 1)
+    if "solar_hours" in v:
+        solar_min = int(round(v["solar_hours"] * 60.0))
+        out["solar"] = clock_text(w, solar_min / 60.0)
+        out["clock"] = clock_text(w, (solar_min + v["correction_min"]) / 60.0)
+    if "correction_min" in v:
+        out["correction"] = signed(w, v["correction_min"])
+    if "day_length_hours" in v:
+        out["length"] = _length(w, v["day_length_hours"] * 60.0)
+    if "star_index" in v:
+        out["star"] = w.star_name(kit.sky.stars[v["star_index"]].star.label)
+    for key in ("ratio", "distance_m", "eye_m", "height_m"):
+        if key in v:
+            out[key.removesuffix("_m")] = w.number(v[key], 0 if float(v[key]).is_integer() else 1)
+    return out
+
+
+def worksheet_blocks(kit) -> list[Block]:
+    """The worksheet, when the recipe asks for one: the questions, then the
+    answer key on a page of its own for the teacher."""
+    questions = kit.plan.worksheet
+    if not questions:
+        return []
+    w = kit.words
+    values = [_worksheet_values(kit, q) for q in questions]
+    out = [Block("page_break", ""), Block("heading", w("worksheet.heading", **values[0])),
+           Block("body", w("worksheet.intro", **values[0]))]
+    out += [Block("item", w("worksheet.q_" + q.kind, **v), w.number(k) + ".")
+            for k, (q, v) in enumerate(zip(questions, values), start=1)]
+    out += [Block("page_break", ""), Block("heading", w("worksheet.key_heading", **values[0]))]
+    out += [Block("item", w("worksheet.a_" + q.kind, **v), w.number(k) + ".")
+            for k, (q, v) in enumerate(zip(questions, values), start=1)]
     return out

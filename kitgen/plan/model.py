@@ -12,6 +12,7 @@ from ..paper import Sheet
 from ..sky.almanac import SkyForKit
 from ..sky.site_almanac import Almanac
 from ..sky.worked_example import WorkedExamples
+from ..sky.worksheet import Question
 from ..words.templates import Words
 
 
@@ -84,6 +85,7 @@ class Plan:
     parts: tuple[str, ...]         # the kinds of part the kit prints
     almanac: Almanac               # the site's clock correction and sunrise table for the epoch year (#10)
     examples: WorkedExamples       # the instructions' worked examples by the Sun and a star (#10)
+    worksheet: tuple[Question, ...] = ()  # the worksheet's questions, when the recipe asks for one (#10)
     owner: str = ""                # whose kit it is, printed small on every part (#9)
 
     @property

@@ -18,6 +18,7 @@ from ..sky.almanac import sky_for_kit
 from ..sky.rete_rim import kit_rim_deg
 from ..sky.site_almanac import almanac_for_site
 from ..sky.worked_example import worked_examples
+from ..sky.worksheet import worksheet_questions
 from ..words.templates import Words, load_words, words_from_tree
 from .model import Drawing, Plan, PlatePlan, Printing, Site
 
@@ -89,5 +90,6 @@ def plan_kit(recipe: Recipe) -> Plan:
         parts=tuple(recipe.parts),
         almanac=almanac,
         examples=worked_examples(site.latitude_deg, sky, almanac, float(recipe.altitude_step_deg)),
+        worksheet=worksheet_questions(site.latitude_deg, sky, almanac) if recipe.worksheet else (),
         owner=recipe.owner,
     )

@@ -74,6 +74,7 @@ class Recipe:
     diameter_mm: float | None = None
     twilight: tuple[str, ...] = DEFAULT_TWILIGHT  # civil, nautical, astronomical (kitgen.recipe.twilight)
     unequal_hours: bool = True
+    worksheet: bool = False        # questions for the class, with an answer key (#10)
     parts: tuple[str, ...] = PARTS
     margin_mm: float = DEFAULT_MARGIN_MM
     print_scale: tuple[float, float] = (1.0, 1.0)  # measured print scale (x, y) the kit compensates
@@ -187,6 +188,8 @@ KEYS: tuple[Key, ...] = (
     Key("sight_hole_mm", "sight_hole_mm", "number", "diameter of the pinholes in the alidade's vanes, mm",
         0.3, 4.0, example=SIGHT_HOLE_MM),
     Key("unequal_hours", "unequal_hours", "bool", "draw the unequal (temporal) hour curves", example=True),
+    Key("worksheet", "worksheet", "bool",
+        "add a worksheet of questions for the site and year, with an answer key on its own page", example=False),
     Key("parts", "parts", "parts", f"which parts to print, of: {', '.join(PARTS)}", choices=PARTS,
         example=list(PARTS)),
 )

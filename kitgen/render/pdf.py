@@ -228,22 +228,36 @@ MIN_INSTRUCTION_PT = 9.0
 INSTRUCTION_SIZES_PT = (10.5, 10.0, 9.5, MIN_INSTRUCTION_PT)
 
 
+#: A block kind that starts a new page (the worksheet's answer key, #10).
+PAGE_BREAK = "page_break"
+
+
 def split_story(blocks, width_pt: float, height_pt: float, words, n_pages: int):
     """``(size_pt, chunks)``: the largest body size at which the blocks,
     taken in order, fill at most ``n_pages`` boxes of this size (a heading
     never left alone at the foot of a page), and the blocks of each page;
     or ``None`` when even the smallest size needs more pages."""
     probe = Block("body", "x")
+    breaks = {k for k, b in enumerate(blocks) if b.kind == PAGE_BREAK}   # a forced new page (#10)
     for size in INSTRUCTION_SIZES_PT:
+        if n_pages == 1 and breaks:
+            return None
         if n_pages == 1:   # the common case: one measure of the whole
             if pdf_text.blocks_height_pt(blocks, width_pt, size, words) <= height_pt:
                 return size, [list(blocks)]
             continue
-        alone = [pdf_text.blocks_height_pt([b], width_pt, size, words) for b in blocks]
+        alone = [0.0 if k in breaks else pdf_text.blocks_height_pt([b], width_pt, size, words)
+                 for k, b in enumerate(blocks)]
         base = pdf_text.blocks_height_pt([probe], width_pt, size, words)
-        after = [pdf_text.blocks_height_pt([probe, b], width_pt, size, words) - base for b in blocks]
+        after = [0.0 if k in breaks else pdf_text.blocks_height_pt([probe, b], width_pt, size, words) - base
+                 for k, b in enumerate(blocks)]
         chunks, current, used = [], [], 0.0
         for k, block in enumerate(blocks):
+            if k in breaks:
+                if current:
+                    chunks.append(current)
+                current, used = [], 0.0
+                continue
             if current and used + after[k] > height_pt:
                 moved = []
                 if blocks[current[-1]].kind == "heading" and len(current) > 1:
@@ -253,7 +267,7 @@ def split_story(blocks, width_pt: float, height_pt: float, words, n_pages: int):
                 used = alone[moved[0]] if moved else 0.0
             used += after[k] if current else alone[k]
             current.append(k)
-        chunks.append(current)
+        chunks = [ch for ch in chunks + [current] if ch]
         heights = [alone[ch[0]] + sum(after[i] for i in ch[1:]) for ch in chunks]
         if len(chunks) <= n_pages and max(heights) <= height_pt:
             return size, [[blocks[i] for i in ch] for ch in chunks]

@@ -1,0 +1,158 @@
+"""The worksheet (#10, ``worksheet: true``): its answers against what
+tests/reading.py reads from the exported geometry, against Skyfield with
+DE421 (the skyfield-data copy, nothing downloaded) and the IANA zone rules
+(zoneinfo), and the answer key on a page of its own (read back with pypdf).
+"""
+
+from __future__ import annotations
+
+import datetime as dt
+import io
+import zoneinfo
+
+import pypdf
+import pytest
+
+from kitgen.kit import build_kit
+from kitgen.recipe.load import parse_recipe_text
+from kitgen.render.json_export import geometry_dict
+from kitgen.render.pdf import build_pdf
+
+from .reading import read_time
+from .skyfield_reference import ephemeris
+from .test_clock_on_kit import ring_correction_min
+
+LAT, LON, TZ, EPOCH = 45.76, 4.84, "Europe/Paris", 2027
+RECIPE = f"latitude: {LAT}\nlongitude: {LON}\ntimezone: {TZ}\nepoch: {EPOCH}\nworksheet: true\n"
+
+
+@pytest.fixture(scope="module")
+def kit():
+    return build_kit(parse_recipe_text(RECIPE))
+
+
+def _answers(kit) -> dict:
+    return {q.kind: dict(q.values) for q in kit.plan.worksheet}
+
+
+def _site():
+    from skyfield.api import wgs84
+
+    ts, eph = ephemeris()
+    return ts, eph, eph["earth"] + wgs84.latlon(LAT, LON)
+
+
+def _crossing_zone_hours(body, day: dt.date, altitude_deg: float, rising: bool, start_h: float, end_h: float):
+    """Zone clock time (hours) on ``day`` at which ``body`` (unrefracted)
+    crosses ``altitude_deg`` between ``start_h`` and ``end_h`` of UT."""
+    ts, eph, site = _site()
+    base = dt.datetime(day.year, day.month, day.day, tzinfo=dt.timezone.utc)
+
+    def f(h):
+        t = ts.from_datetime(base + dt.timedelta(hours=h))
+        return site.at(t).observe(body).apparent().altaz()[0].degrees - altitude_deg
+
+    grid = [start_h + k * 0.25 for k in range(int((end_h - start_h) / 0.25) + 1)]
+    lo, hi = next((a, b) for a, b in zip(grid, grid[1:]) if f(a) * f(b) < 0 and (f(b) > f(a)) == rising)
+    for _ in range(40):
+        mid = (lo + hi) / 2
+        if f(mid) * f(lo) <= 0:
+            hi = mid
+        else:
+            lo = mid
+    local = (base + dt.timedelta(hours=(lo + hi) / 2)).astimezone(zoneinfo.ZoneInfo(TZ))
+    return local.hour + local.minute / 60 + local.second / 3600
+
+
+def _apart_min(a_h, b_h):
+    return abs((a_h - b_h + 12) % 24 - 12) * 60
+
+
+def test_six_to_ten_questions(kit):
+    assert 6 <= len(kit.plan.worksheet) <= 10
+    assert {"noon_altitude", "sunrise", "afternoon", "height", "star_rise"} <= set(_answers(kit))
+
+
+def test_afternoon_time_as_the_kit_reads_it_and_de421(kit):
+    a = _answers(kit)["afternoon"]
+    geom = geometry_dict(kit)
+    solar = read_time(geom, a["month"], a["day"], a["altitude_deg"], False)
+    assert _apart_min(solar, a["solar_hours"]) < 1.0
+    assert ring_correction_min(geom, a["month"], a["day"]) == a["correction_min"]
+    _, eph, _ = _site()
+    truth = _crossing_zone_hours(eph["sun"], dt.date(EPOCH, a["month"], a["day"]), a["altitude_deg"], False,
+                                 12.0, 21.0)
+    assert _apart_min(a["solar_hours"] + a["correction_min"] / 60, truth) < 2.0
+
+
+def test_noon_altitude_against_de421(kit):
+    """The Sun's greatest altitude that day (DE421, unrefracted) within 0.05 deg."""
+    a = _answers(kit)["noon_altitude"]
+    ts, eph, site = _site()
+    base = dt.datetime(EPOCH, a["month"], a["day"], tzinfo=dt.timezone.utc)
+    noon_ut = 12.0 - LON / 15.0
+    best = max(site.at(ts.from_datetime(base + dt.timedelta(hours=noon_ut + k / 60))).observe(eph["sun"])
+               .apparent().altaz()[0].degrees for k in range(-30, 31))
+    assert abs(best - a["altitude_deg"]) < 0.05
+
+
+def test_sunrise_and_day_length_against_de421(kit):
+    """Sunrise on the astrolabe's horizon (the Sun's centre at 0 deg, no
+    refraction, as the answer says) in zone time within 2 minutes; the
+    day's length within 2 minutes."""
+    a = _answers(kit)["sunrise"]
+    _, eph, _ = _site()
+    day = dt.date(EPOCH, a["month"], a["day"])
+    rise = _crossing_zone_hours(eph["sun"], day, 0.0, True, 0.0, 12.0)
+    setting = _crossing_zone_hours(eph["sun"], day, 0.0, False, 12.0, 23.5)
+    assert _apart_min(a["solar_hours"] + a["correction_min"] / 60, rise) < 2.0
+    assert abs(a["day_length_hours"] - (setting - rise)) * 60 < 2.0
+
+
+def test_star_rise_against_de421(kit):
+    """The star's rising (its catalogue place, proper motion applied by
+    Skyfield, unrefracted) in zone time within 3 minutes: the kit reads
+    the evening with the calendar's Sun of that noon, some hours old, which
+    costs up to about 2 minutes (see kitgen check), and the printed
+    correction is rounded to the minute."""
+    from skyfield.api import Star
+
+    a = _answers(kit)["star_rise"]
+    st = kit.sky.stars[a["star_index"]].star
+    star = Star(ra_hours=st.ra_deg / 15.0, dec_degrees=st.dec_deg, ra_mas_per_year=st.pm_ra_cosdec_mas_yr,
+                dec_mas_per_year=st.pm_dec_mas_yr)
+    truth = _crossing_zone_hours(star, dt.date(EPOCH, a["month"], a["day"]), 0.0, True, 14.0, 24.0)
+    assert _apart_min(a["solar_hours"] + a["correction_min"] / 60, truth) < 3.0
+
+
+def test_longest_day_against_de421(kit):
+    """The date of the greatest noon altitude by DE421, within a day."""
+    a = _answers(kit)["longest_day"]
+    ts, eph, site = _site()
+
+    def noon_alt(day):
+        t = ts.utc(EPOCH, 6, day, 12.0 - LON / 15.0)
+        return site.at(t).observe(eph["sun"]).apparent().altaz()[0].degrees
+
+    best = max(range(15, 28), key=noon_alt)
+    assert a["month"] == 6 and abs(a["day"] - best) <= 1
+
+
+def test_answer_key_on_a_page_of_its_own(kit):
+    w = kit.words
+    _, data = build_pdf(kit)
+    pages = [p.extract_text() for p in pypdf.PdfReader(io.BytesIO(data)).pages]
+    key_heading = w("worksheet.key_heading", place="", year=w.number(EPOCH)).split(":")[0]
+    sheet_heading = w("worksheet.heading", place="", year=w.number(EPOCH)).split(":")[0]
+    key_pages = [k for k, t in enumerate(pages) if key_heading in t]
+    sheet_pages = [k for k, t in enumerate(pages) if sheet_heading in t]
+    assert len(key_pages) == 1 and sheet_pages and key_pages[0] not in sheet_pages
+    height = _answers(kit)["height"]
+    # The key's page holds the answers and no question.
+    assert w.number(height["height_m"], 1) in pages[key_pages[0]]
+    assert "?" not in pages[key_pages[0]]
+
+
+def test_no_worksheet_unless_asked():
+    kit = build_kit(parse_recipe_text(f"latitude: {LAT}\nepoch: {EPOCH}\n"))
+    assert kit.plan.worksheet == ()
