@@ -12,18 +12,19 @@ page can still print a star's IAU name in Latin letters.  Only fonts in
 
 from __future__ import annotations
 
-from dataclasses import dataclass
 from functools import lru_cache
 from importlib import resources
+from typing import NamedTuple
 
 from fontTools.ttLib import TTFont
 
 STYLES = ("label", "body", "bold")
 
 
-@dataclass(frozen=True)
-class Face:
-    """One shipped font file; ``name`` is the name it is registered under."""
+class Face(NamedTuple):
+    """One shipped font file; ``name`` is the name it is registered under.
+    A named tuple, whose hash is C's: every measure looks a face up in
+    caches, hundreds of thousands of times for a class set (#12)."""
 
     name: str
     filename: str
