@@ -151,16 +151,25 @@ def _calendar_scale(ctx, r0, r1):
             stroke = "none"
         out.append(curves.radial_tick("calendar_tick", longitude_direction_deg(lon), r1 - length, r1, r1, stroke,
                                       month=month, day=day, longitude_deg=lon))
+    lift, h = number_row(w, d.small_text_pt, ring)
+    r_num = r1 - lift - h / 2
+    widest = max(w.measure(w.number(n), d.small_text_pt).width_mm for n in (5, 10, 15, 20, 25))
+    numbered = numbered_days({(m, dd): lon for m, dd, lon in ctx.sky.calendar}, r_num, widest,
+                             2 * labels.MARGIN_MM)
+    for month, day, lon in ctx.sky.calendar:
+        if day in numbered:
+            out.append(curves.ring_text("day_label", w.number(day), longitude_direction_deg(lon), r_num,
+                                        d.small_text_pt, month=month, day=day))
+    # The months' names between the ring's inner edge and the numbers.
+    outer = r1 - names_from_edge_mm(w, d.small_text_pt, ring)
+    r_label = (r0 + outer) / 2
     for month in range(1, 13):
         a, b = first[month], first[month % 12 + 1]
-        mid = a + ((b - a) % 360.0) / 2.0
-        # Between the ring's inner edge and the tips of the 10-day ticks
-        # (0.42 of the ring from its outer edge), within the month.
         span = (b - a) % 360.0
-        r_label = r0 + 0.29 * ring
+        mid = a + span / 2.0
         out += labels.ring_label("month_label", months[month - 1], longitude_direction_deg(mid), r_label,
                                  d.small_text_pt, w, labels.chord_mm(r_label, span - 2.0) - 2 * labels.MARGIN_MM,
-                                 0.58 * ring - 2 * labels.MARGIN_MM, short=short[month - 1], month=month)
+                                 outer - r0 - 2 * labels.MARGIN_MM, short=short[month - 1], month=month)
     return out
 
 
