@@ -9,8 +9,10 @@ replaced only when it is recognisably a set's output (its names are the
 ones written here and its PDFs carry kitgen's signature), so a user's
 folder is never emptied.
 
-A small routine of its own, since the set's folder holds a sub-folder
-(``kits/``); ``outfile`` writes single files.
+The swap itself is :mod:`kitgen.outfile`'s (#11): one ``renameat2`` with
+``RENAME_EXCHANGE`` on Linux, elsewhere two renames with the terminating
+signals held; ``outfile.write_folder_atomic`` itself writes flat folders
+only, and the set's folder holds a sub-folder (``kits/``).
 """
 
 from __future__ import annotations
@@ -21,8 +23,9 @@ import tempfile
 from contextlib import contextmanager
 from pathlib import Path
 
+from .. import outfile
 from ..errors import Message, UserError
-from ..outfile import made_by_kitgen, write_error
+from ..outfile import TEMP_DIR_SUFFIX, made_by_kitgen, write_error
 
 KITS = "kits"
 MANIFEST = "manifest.csv"
@@ -86,7 +89,7 @@ def fresh_folder(folder):
     parent = folder.parent if str(folder.parent) else Path(".")
     try:
         parent.mkdir(parents=True, exist_ok=True)
-        tmp = Path(tempfile.mkdtemp(prefix=f".{folder.name[:64]}.", suffix=".kitgen.dir", dir=parent))
+        tmp = Path(tempfile.mkdtemp(prefix=outfile._temp_prefix(folder.name), suffix=TEMP_DIR_SUFFIX, dir=parent))
         os.chmod(tmp, 0o777 & ~_umask())   # mkdtemp's is 0700; the folder gets the usual mode
         (tmp / KITS).mkdir()
     except OSError as exc:
@@ -119,17 +122,11 @@ def _umask() -> int:
 
 
 def _swap_in(tmp: Path, folder: Path) -> None:
-    if not folder.exists():
-        os.rename(tmp, folder)
-        return
-    old = Path(tempfile.mkdtemp(prefix=f".{folder.name[:64]}.", suffix=".kitgen.old", dir=tmp.parent))
-    os.rename(folder, old)   # over the empty folder just made
-    try:
-        os.rename(tmp, folder)
-    except OSError:
-        os.rename(old, folder)
-        raise
-    shutil.rmtree(old, ignore_errors=True)
+    """``tmp`` in the place of ``folder`` (outfile's swap), then the
+    earlier folder, checked to be a set's own, removed."""
+    old = outfile._swap_in(tmp, folder)
+    if old is not None:
+        shutil.rmtree(old, ignore_errors=True)
 
 
 def _sync_tree(tmp: Path) -> None:
