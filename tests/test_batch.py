@@ -347,3 +347,26 @@ def test_a_bad_jobs_count_is_one_line(tmp_path, capsys, jobs):
     err = capsys.readouterr().err.strip().splitlines()
     assert status == 2 and len(err) == 1 and err[0].startswith("kitgen: error: ") and "--jobs" in err[0]
     assert not (tmp_path / "out").exists()
+
+
+def test_a_killed_runs_leftovers_go_and_nothing_else(tmp_path):
+    """What a run killed with SIGKILL leaves (a temporary folder named as
+    kitgen names them, older than outfile.STALE_SECONDS) is removed by the
+    next run into the same folder when it holds only a set's files; a
+    temporary-looking folder holding anything else stays (common practice:
+    never delete what one cannot recognise as one's own)."""
+    import time as _time
+
+    from kitgen.outfile import STALE_SECONDS
+
+    (tmp_path / "one.yaml").write_text(yaml.safe_dump({"defaults": DEFAULTS, "kits": [{"owner": "Ivo"}]}))
+    old = _time.time() - STALE_SECONDS - 60
+    ours, theirs = tmp_path / ".out.abc123.kitgen.dir", tmp_path / ".out.xyz789.kitgen.dir"
+    (ours / "kits").mkdir(parents=True)
+    (ours / "manifest.csv").write_text("kit,owner,title\n")
+    theirs.mkdir()
+    (theirs / "notes.txt").write_text("keep me")
+    for folder in (ours, theirs):
+        os.utime(folder, (old, old))
+    assert main(["batch", str(tmp_path / "one.yaml"), "-o", str(tmp_path / "out"), "--quiet", "--jobs", "1"]) == 0
+    assert not ours.exists() and (theirs / "notes.txt").read_text() == "keep me"

@@ -20,12 +20,13 @@ from __future__ import annotations
 import os
 import shutil
 import tempfile
+import time
 from contextlib import contextmanager
 from pathlib import Path
 
 from .. import outfile
 from ..errors import Message, UserError
-from ..outfile import TEMP_DIR_SUFFIX, made_by_kitgen, write_error
+from ..outfile import OLD_DIR_SUFFIX, STALE_SECONDS, TEMP_DIR_SUFFIX, made_by_kitgen, write_error
 
 KITS = "kits"
 MANIFEST = "manifest.csv"
@@ -89,6 +90,7 @@ def fresh_folder(folder):
     parent = folder.parent if str(folder.parent) else Path(".")
     try:
         parent.mkdir(parents=True, exist_ok=True)
+        _clean_stale(parent, folder.name)
         tmp = Path(tempfile.mkdtemp(prefix=outfile._temp_prefix(folder.name), suffix=TEMP_DIR_SUFFIX, dir=parent))
         os.chmod(tmp, 0o777 & ~_umask())   # mkdtemp's is 0700; the folder gets the usual mode
         (tmp / KITS).mkdir()
@@ -113,6 +115,27 @@ def write_file(path: Path, data: bytes) -> None:
         fh.write(data)
         fh.flush()
         os.fsync(fh.fileno())
+
+
+def _clean_stale(parent: Path, name: str) -> None:
+    """Remove what a killed run (SIGKILL, a machine stopped) left for this
+    folder: temporary folders of kitgen's naming, older than
+    ``outfile.STALE_SECONDS``, holding nothing but a set's own files."""
+    prefix = outfile._temp_prefix(name)
+    now = time.time()
+    try:
+        entries = list(os.scandir(parent))
+    except OSError:
+        return
+    for entry in entries:
+        if not (entry.name.startswith(prefix) and entry.name.endswith((TEMP_DIR_SUFFIX, OLD_DIR_SUFFIX))):
+            continue
+        try:
+            stale = entry.is_dir(follow_symlinks=False) and now - entry.stat().st_mtime > STALE_SECONDS
+            if stale and _is_set_output(Path(entry.path)):
+                shutil.rmtree(entry.path, ignore_errors=True)
+        except OSError:
+            continue
 
 
 def _umask() -> int:
