@@ -1,11 +1,14 @@
 """The mater's back: altitude scale, ecliptic-longitude and calendar
-scales, and the shadow square for heights.
+scales, the clock correction ring (kitgen.parts.clock_scale) and the
+shadow square for heights.
 
 Seen from the back, with the alidade pivoted at the centre.  Ecliptic
 longitude lam lies at the direction 180 - lam deg (ccw from +x): the year
 runs clockwise, the March equinox on the left.  Each day's tick sits at the
-Sun's apparent longitude at 12:00 UT of that date in the epoch year, so the
-alidade laid on a date reads the Sun's longitude on the next ring.
+Sun's apparent longitude at the site's local mean noon of that date in the
+epoch year (12:00 UT where the site has no longitude), so the alidade laid
+on a date reads the Sun's longitude on the next ring and the clock
+correction on the inner one.
 """
 
 from __future__ import annotations
