@@ -153,3 +153,54 @@ def test_named_rings_hold_numbers_and_names_at_the_minimum_size(language):
     names = list(w.items("zodiac.signs")) + list(w.items("calendar.months")) + list(w.items("calendar.months_short"))
     tallest = max(w.measure(n, 5.0).height_mm for n in names)
     assert ring_needed_mm(w, 5.0, tallest) <= MIN_NAMED_RING_MM
+
+
+def _drawn_pieces(part):
+    """Every drawn line of a part as short straight pieces (arcs and
+    circles cut into chords of at most 0.2 mm sagitta-free length)."""
+    for e in part.elements:
+        if e.stroke in ("none", None) or e.shape == "text":
+            continue
+        g = e.geom
+        if e.shape == "segment":
+            yield g["from"], g["to"]
+        elif e.shape == "polyline":
+            pts = list(g["points"]) + ([g["points"][0]] if g.get("closed") else [])
+            yield from zip(pts, pts[1:])
+        elif e.shape in ("circle", "arc"):
+            (cx, cy), r = g["center"], g["radius"]
+            a0, a1 = (0.0, 360.0) if e.shape == "circle" else (g["start_deg"], g["end_deg"])
+            n = max(8, int(math.radians(a1 - a0) * r / 0.2) + 1)
+            pts = [(cx + r * math.cos(math.radians(a0 + (a1 - a0) * k / n)),
+                    cy + r * math.sin(math.radians(a0 + (a1 - a0) * k / n))) for k in range(n + 1)]
+            yield from zip(pts, pts[1:])
+
+
+OWNER = "Mira Quellstone"  # an invented pupil
+
+
+@pytest.mark.parametrize("head", ["latitude: 52.2\n", "latitude: -33.9\ndiameter_mm: 100\n",
+                                  "latitude: 0.5\nlanguage: hi\n"])
+def test_the_owner_on_every_part(head):
+    """The owner's name, whole, at the legible minimum or larger, inside the
+    part, crossed by no drawn line and over no star's dot.  (The plates are
+    another module's; #9 leaves their name to it.)"""
+    kit = kit_of(head + f"owner: {OWNER}\n")
+    w = kit.words
+    for part in kit.parts:
+        if part.kind == "plate":
+            continue
+        owners = [e for e in part.elements if e.role == "owner"]
+        assert [e.geom["text"] for e in owners] == [OWNER], part.id
+        label = owners[0]
+        assert label.geom["size_pt"] >= 5.0
+        corners = _box(label, w)
+        x0, y0, x1, y1 = part.bounds_mm
+        assert all(x0 <= x <= x1 and y0 <= y <= y1 for x, y in corners)
+        hit = [(p, q) for p, q in _drawn_pieces(part) if _segment_meets_box(p, q, corners)]
+        assert not hit, (part.id, hit[:2])
+        for star in (e for e in part.elements if e.role == "star"):
+            (sx, sy), r = star.values["at"] if "at" in star.values else star.geom["at"], 0.0
+            assert not _segment_meets_box((sx - 0.6, sy), (sx + 0.6, sy), corners), star.values["name"]
+    without = kit_of(head)
+    assert not [e for p in without.parts for e in p.elements if e.role == "owner"]

@@ -38,8 +38,14 @@ def alidade(ctx: PartContext) -> model.Part:
     # fold and its pinhole, "fold up" set along the fold.
     m, cross = labels.MARGIN_MM, 2.0
     arm = half - cross - 2 * m
-    els += labels.fitted_text("part_label", (-(half + cross) / 2, -width / 2), w("alidade.title"),
-                              d.small_text_pt, w, arm, width - 2 * m)
+    left = arm
+    if ctx.plan.owner:
+        # The owner's name (#9) on the outer half of the left arm.
+        left = arm / 2 - m
+        els += labels.fitted_text("owner", (-half + m + left / 2, -width / 2), ctx.plan.owner, d.small_text_pt, w,
+                                  left, width - 2 * m)
+    els += labels.fitted_text("part_label", (-cross - m - left / 2, -width / 2), w("alidade.title"),
+                              d.small_text_pt, w, left, width - 2 * m)
     els += labels.fitted_text("caution", ((half + cross) / 2, -width / 2), w("alidade.caution"),
                               d.small_text_pt, w, arm, width - 2 * m)
     gap = hole_at - cross

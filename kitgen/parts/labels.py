@@ -39,6 +39,16 @@ def _overlap(a, b) -> bool:
     return a[0] < b[2] and b[0] < a[2] and a[1] < b[3] and b[1] < a[3]
 
 
+def boxes_meet(a, b) -> bool:
+    """Whether two boxes (xmin, ymin, xmax, ymax) overlap."""
+    return _overlap(a, b)
+
+
+def meets_ring(box, ring) -> bool:
+    """Whether a box meets the annulus ``ring`` = (center, r_inner, r_outer)."""
+    return _meets_ring(box, ring)
+
+
 def _meets_ring(box, ring) -> bool:
     """Whether a box meets the annulus ``ring`` = (center, r_inner, r_outer)."""
     (cx, cy), r0, r1 = ring

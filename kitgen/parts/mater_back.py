@@ -50,12 +50,13 @@ def mater_back(ctx: PartContext) -> model.Part:
     clock = clock_scale(ctx, r_cal)
     els, r_cal = els + list(clock.elements), clock.inner_radius_mm
     els += _shadow_square(d, w, r_cal, ctx.scales.shadow_labels)
-    # Title, place and epoch inside the calendar ring, each fitted to the
+    # Title, place, epoch and owner inside the calendar ring, each fitted to the
     # chord of that ring at the far edge of its room.
     for role, y_frac, h_frac, text, size, style in (
             ("title", 0.47, 0.22, ctx.plan.title or w("kit.default_title"), d.title_pt, "bold"),
             ("place", 0.33, 0.09, ctx.plan.site.place, d.text_pt, "label"),
-            ("epoch", 0.225, 0.09, w("mater_back.epoch", year=w.number(ctx.plan.epoch)), d.small_text_pt, "label")):
+            ("epoch", 0.225, 0.09, w("mater_back.epoch", year=w.number(ctx.plan.epoch)), d.small_text_pt, "label"),
+            ("owner", 0.76, 0.09, ctx.plan.owner, d.small_text_pt, "label")):  # whose kit it is (#9)
         if text:
             y, h = r_cal * y_frac, r_cal * h_frac
             room = 2 * math.sqrt((r_cal - labels.MARGIN_MM) ** 2 - (y + h / 2) ** 2)

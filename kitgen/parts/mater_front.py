@@ -12,7 +12,7 @@ from __future__ import annotations
 import math
 
 from ..geometry import model
-from . import curves
+from . import curves, labels
 from .context import PartContext
 from .plate import key_tab_mm
 
@@ -76,6 +76,11 @@ def mater_front(ctx: PartContext) -> model.Part:
     tw, tl = key_tab_mm(d)
     y = -(d.plate_radius_mm + 0.5 * tl)
     els.append(model.segment("cut", (-(tw / 2 + 0.5), y), (tw / 2 + 0.5, y), "cut", purpose="key_slot"))
+    if ctx.plan.owner:
+        # Whose kit it is (#9), in the blank middle that the plate covers.
+        y, h = 0.5 * d.plate_radius_mm, 3.0 * d.tick_mm
+        room = 2 * (d.plate_radius_mm ** 2 - (y + h / 2) ** 2) ** 0.5
+        els += labels.fitted_text("owner", (0.0, y), ctx.plan.owner, d.small_text_pt, w, room, h)
     els.append(model.point("pin", (0.0, 0.0), hole="centre"))
     r = r_out
     return model.Part("mater_front", "card", tuple(els), (-r, -r, r, r), {}, w("mater_front.title"))

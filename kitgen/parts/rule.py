@@ -28,9 +28,14 @@ def rule(ctx: PartContext) -> model.Part:
            model.segment("fiducial", (0.0, -tail), (0.0, length), "heavy"),
            model.point("pin", (0.0, 0.0), hole="centre")]
     # The name runs along the body, from clear of the pin's crosshair (2 mm)
-    # to where the tip starts to narrow.
+    # to where the tip starts to narrow; the owner's name (#9), if any, on
+    # the outer half.
     lo, hi = 2.0 + labels.MARGIN_MM, tip_start * 0.9 - labels.MARGIN_MM
-    els += labels.fitted_text("part_label", (-width * 0.5, (lo + hi) / 2), w("rule.title"), d.small_text_pt, w,
-                              hi - lo, width - 2 * labels.MARGIN_MM, angle_deg=90.0)
+    mid = (lo + hi) / 2 if ctx.plan.owner else hi
+    els += labels.fitted_text("part_label", (-width * 0.5, (lo + mid) / 2), w("rule.title"), d.small_text_pt, w,
+                              mid - lo - labels.MARGIN_MM, width - 2 * labels.MARGIN_MM, angle_deg=90.0)
+    if ctx.plan.owner:
+        els += labels.fitted_text("owner", (-width * 0.5, (mid + hi) / 2), ctx.plan.owner, d.small_text_pt, w,
+                                  hi - mid - labels.MARGIN_MM, width - 2 * labels.MARGIN_MM, angle_deg=90.0)
     return model.Part("rule", "card", tuple(els), (-width - 1.0, -tail - 1.0, boss + 1.0, length + 1.0), {},
                       w("rule.title"))
