@@ -109,3 +109,14 @@ def test_hour_numerals_are_upright():
         outer = kit.dims.hour_ring_outer_mm
         for e in labels:   # inside the hour ring
             assert inner < math.hypot(*e.geom["at"]) < outer
+
+
+def test_a_tiled_kit_says_which_marks_to_pierce():
+    """With parts in pieces, the instructions say that the diamonds on the
+    seams are never pierced, and only the circled crosses are (#9)."""
+    printed, texts = _text_blocks("latitude: 52.2\nepoch: 2027\ndiameter_mm: 400\n")
+    w = printed.kit.words
+    assert any(pl.piece is not None for p in printed.pages for pl in p.placements)
+    assert w("printing.tiles_pierce") in texts
+    _, texts = _text_blocks("latitude: 52.2\nepoch: 2027\n")
+    assert w("printing.tiles_pierce") not in texts

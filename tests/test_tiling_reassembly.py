@@ -16,7 +16,8 @@ import pytest
 
 pypdf = pytest.importorskip("pypdf")
 
-from kitgen.layout.tiling import MARK_RADIUS_MM, OVERLAP_MM, PIN_CLEAR_MM  # noqa: E402
+from kitgen.layout.pages import outside_part, turned_bounds  # noqa: E402
+from kitgen.layout.tiling import MARK_BAND_MM, MARK_HALF_MM, OVERLAP_MM, PIN_CLEAR_MM  # noqa: E402
 
 from .pdf_paths import mul  # noqa: E402
 from .printed import PrintedKit  # noqa: E402
@@ -122,7 +123,8 @@ def test_the_large_parts_are_tiled_and_every_piece_fits_its_page(tiled):
 def test_neighbours_overlap_and_share_their_marks(tiled):
     """Neighbours overlap by the stated overlap; the marks on their seam
     are at the same point of the part on both, on the seam, the middle of
-    the overlap; and no seam runs within PIN_CLEAR_MM of the pin."""
+    the overlap; every piece but A1 shares marks with a piece laid before
+    it; and no seam runs within PIN_CLEAR_MM of the pin."""
     for kind in TILED_KINDS:
         pieces = {(pl.piece.column, pl.piece.row): pl.piece for _, pl in pieces_of(tiled, kind)}
         for (i, j), p in pieces.items():
@@ -141,21 +143,53 @@ def test_neighbours_overlap_and_share_their_marks(tiled):
                 assert overlap == pytest.approx(OVERLAP_MM, abs=1e-9)
                 assert any(s == pytest.approx(seam) for s in q.seams_mm)
                 shared = set(p.marks_mm) & set(q.marks_mm)
-                assert shared, (kind, p.name, q.name)
                 for m in shared:
                     assert m[0 if di else 1] == pytest.approx(seam[1], abs=1e-9)
 
 
+def test_every_piece_is_matched_to_one_laid_before(tiled):
+    """Laid in reading order, each piece after A1 shares a mark with a
+    piece laid before it (the assembly test below then lays it there)."""
+    for kind in TILED_KINDS:
+        pieces = sorted((pl.piece for _, pl in pieces_of(tiled, kind)), key=lambda p: (p.row, p.column))
+        for k, p in enumerate(pieces[1:], start=1):
+            assert any(set(p.marks_mm) & set(q.marks_mm) for q in pieces[:k]), (kind, p.name)
+
+
+def test_marks_lie_off_the_finished_part(tiled):
+    """Every alignment mark, its whole diamond, lies outside the part: beyond
+    a round part's cut rim (the distance from the pin, less the mark's half
+    diagonal, more than the rim's radius), or outside the box of any other
+    part; so it is cut away with the waste (#9)."""
+    count = 0
+    for kind in TILED_KINDS:
+        for _, pl in pieces_of(tiled, kind):
+            part = pl.part
+            x0, y0, x1, y1 = turned_bounds(part.bounds_mm, pl.rotation_deg)
+            rims = [e.geom["radius"] for e in part.elements if e.shape == "circle" and e.stroke == "cut"
+                    and e.geom["center"] == (0.0, 0.0) and e.geom["radius"] >= x1 - 1e-6]
+            for mx, my in pl.piece.marks_mm:
+                count += 1
+                if rims:   # a round part: its cut rim reaches its box
+                    assert math.hypot(mx, my) - MARK_HALF_MM > max(rims), (kind, mx, my)
+                else:
+                    assert (mx + MARK_HALF_MM < x0 or mx - MARK_HALF_MM > x1
+                            or my + MARK_HALF_MM < y0 or my - MARK_HALF_MM > y1), (kind, mx, my)
+                assert outside_part(part, pl.rotation_deg)(mx, my, MARK_HALF_MM)
+    assert count > 0
+
+
 def test_marks_are_drawn_where_the_layout_says(tiled):
-    """Each alignment mark's circle passes through the four points at its
-    radius from its centre, on the page (page coordinates, pt)."""
+    """Each alignment mark is a diamond whose corners lie at its half
+    diagonal from its centre, across and along the page (page coordinates,
+    pt)."""
     for k, page in enumerate(tiled.pages):
         nodes = {_key(x / PT_PER_MM, y / PT_PER_MM) for p in tiled.drawn[k] if _same(p.ctm, (1, 0, 0, 1, 0, 0))
                  for x, y in p.device_nodes()}
         for pl in page.placements:
             for mx, my in (pl.piece.marks_mm if pl.piece else ()):
                 x, y = pl.x_mm + mx, pl.y_mm + my
-                for dx, dy in ((MARK_RADIUS_MM, 0), (0, MARK_RADIUS_MM), (-MARK_RADIUS_MM, 0), (0, -MARK_RADIUS_MM)):
+                for dx, dy in ((MARK_HALF_MM, 0), (0, MARK_HALF_MM), (-MARK_HALF_MM, 0), (0, -MARK_HALF_MM)):
                     assert _key(x + dx, y + dy) in nodes, (page.number, pl.piece.name)
 
 
@@ -256,8 +290,9 @@ def test_trimmed_pieces_cover_the_part_box_without_gaps(tiled, kind):
     and cover the part's whole box (in the placed frame)."""
     pieces = [pl for _, pl in pieces_of(tiled, kind)]
     pl0 = pieces[0]
-    from kitgen.layout.pages import turned_bounds
     bx0, by0, bx1, by1 = turned_bounds(pl0.part.bounds_mm, pl0.rotation_deg)
+    b = MARK_BAND_MM   # the grid covers the box grown by the marks' band
+    bx0, by0, bx1, by1 = bx0 - b, by0 - b, bx1 + b, by1 + b
     cols = sorted({pl.piece.column for pl in pieces})
     rows = sorted({pl.piece.row for pl in pieces})
     left = {pl.piece.column: next((a for ax, a in pl.piece.seams_mm if ax == "x"), pl.piece.window_mm[0])

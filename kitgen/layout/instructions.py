@@ -145,6 +145,7 @@ def story(kit, pages) -> list[Block]:
     out += [Block("heading", w("instructions.cut_heading")), Block("body", w("instructions.cut"))]
     if any(pl.piece is not None for p in pages for pl in p.placements):
         out.append(Block("body", w("printing.tiles")))
+        out.append(Block("body", w("printing.tiles_pierce")))
     out += [Block("heading", w("instructions.stack_heading")), Block("body", w("instructions.stack_intro"))]
     out += stack_blocks(kit)
     out.append(Block("body", w("instructions.fastener")))

@@ -32,7 +32,7 @@ from ..errors import UserError
 from ..geometry.model import Part
 from .packing import Box, Packer, extent, place
 from ..paper import GAP_MM, PT_PER_MM, TITLE_BAND_MM, Sheet, content_area_mm, page_size_mm, sheet_words
-from .tiling import PIECE_BAND_MM, Piece, tile
+from .tiling import MARK_CLEAR_MM, PIECE_BAND_MM, Piece, outside_box, tile
 
 #: Size (pt) of the part titles printed above each part (the band kept for
 #: them is kitgen.paper.TITLE_BAND_MM).
@@ -236,6 +236,21 @@ def _whole_item(part: Part, areas) -> _Item | None:
     return _Item(part, tuple(options)) if options else None
 
 
+def outside_part(part: Part, rotation_deg: float):
+    """The ``outside(x, y, r)`` test of :func:`kitgen.layout.tiling.tile`
+    for a part turned ``rotation_deg``: beyond the rim of a round part (its
+    cut circle about the pin that reaches its box) by MARK_CLEAR_MM, else
+    outside its box."""
+    box = turned_bounds(part.bounds_mm, rotation_deg)
+    reach = max(abs(v) for v in box)
+    rims = [e.geom["radius"] for e in part.elements if e.shape == "circle" and e.stroke == "cut"
+            and max(abs(c) for c in e.geom["center"]) < 1e-9 and e.geom["radius"] >= reach - 1e-6]
+    if not rims:
+        return outside_box(box)
+    rim = max(rims) + MARK_CLEAR_MM
+    return lambda x, y, r: math.hypot(x, y) - r > rim
+
+
 def _tilings(part: Part, areas, words) -> list[tuple[_Item, ...]]:
     """For each way the part may be turned, its fewest pieces (over the page
     orientations), as items to pack."""
@@ -244,7 +259,7 @@ def _tilings(part: Part, areas, words) -> list[tuple[_Item, ...]]:
         ext = turned_bounds(part.bounds_mm, rot)
         best = None
         for aw, ah in areas:
-            pieces = tile(ext, aw, ah - PIECE_BAND_MM)
+            pieces = tile(ext, aw, ah - PIECE_BAND_MM, outside=outside_part(part, rot))
             area = sum(p.width_mm * p.height_mm for p in pieces)
             if best is None or (len(pieces), area) < (len(best), sum(p.width_mm * p.height_mm for p in best)):
                 best = pieces

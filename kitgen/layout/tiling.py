@@ -16,6 +16,16 @@ meet, and taped at the back.  Laid in reading order (A1, B1, ..., A2, B2,
 piece shows the same geometry at that point, so the taped pieces make the
 part exactly.
 
+The alignment marks stay off the finished part (#9): the grid covers the
+part's box grown by :data:`MARK_BAND_MM` on every side, and a mark goes
+only where it lies wholly outside the part (the caller's ``outside`` test:
+beyond a round part's rim, or in the band), on card that is cut away when
+the part is cut out.  A mark is a diamond with a stroke across the seam,
+unlike the circled cross of a pin, so nobody pierces it.  A seam stretch
+with no room outside the part (inside a grid of three or more pieces each
+way) has no mark: that piece is matched by its other seams and by the
+part's own lines, which run on across the seam.
+
 Pieces are named by column letter and row number, ``A1`` at the top left.
 Lengths in mm.
 """
@@ -31,9 +41,13 @@ from dataclasses import dataclass
 OVERLAP_MM = 12.0
 #: Band (mm) above each piece for its title, its name and the assembly map.
 PIECE_BAND_MM = 12.0
-#: Alignment mark: a circle with a cross, centred on the seam.
-MARK_RADIUS_MM = 2.5
-MARK_ARM_MM = 4.0
+#: Alignment mark: a diamond (a square on its corner) of this half
+#: diagonal, centred on the seam, with a stroke across the seam as long.
+MARK_HALF_MM = 2.5
+#: Room (mm) added around the part's box for the marks, and the least gap
+#: (mm) between a mark and the part.
+MARK_BAND_MM = 7.0
+MARK_CLEAR_MM = 1.0
 #: No seam passes nearer than this (mm) to the pin, so the pin's hole and
 #: the fastener's head sit on whole card.
 PIN_CLEAR_MM = 10.0
@@ -101,7 +115,8 @@ def _spans(lo: float, hi: float, n: int, overlap_mm: float, room_mm: float) -> l
     ``overlap_mm``: equal, unless a seam would pass within
     :data:`PIN_CLEAR_MM` of the pin (the origin); then every seam is moved
     by the least amount that clears it, the first and last windows taking
-    up the difference, as far as ``room_mm`` allows."""
+    up the difference, as far as ``room_mm`` allows; ``None`` when it
+    does not allow it."""
     if n == 1:
         return [(lo, hi)]
     length = (hi - lo + (n - 1) * overlap_mm) / n
@@ -112,30 +127,63 @@ def _spans(lo: float, hi: float, n: int, overlap_mm: float, room_mm: float) -> l
         if all(abs(sm + d) >= PIN_CLEAR_MM - 1e-9 for sm in seams) and length + abs(d) <= room_mm + 1e-9:
             break
     else:
-        d = 0.0
+        return None   # no room to move the seams off the pin: the caller takes one window more
     cuts = [sm + d for sm in seams]
     starts = [lo] + [c - overlap_mm / 2.0 for c in cuts]
     ends = [c + overlap_mm / 2.0 for c in cuts] + [hi]
     return list(zip(starts, ends))
 
 
-def _mark_positions(lo: float, hi: float) -> list[float]:
-    """Where marks go along a seam's free stretch: a quarter of the way in
-    from each end, or the middle of a short stretch."""
-    if hi - lo < 6 * MARK_RADIUS_MM:
-        return [(lo + hi) / 2.0]
-    return [lo + (hi - lo) / 4.0, hi - (hi - lo) / 4.0]
-
-
-def tile(extent_mm, room_w_mm: float, room_h_mm: float, overlap_mm: float = OVERLAP_MM) -> tuple[Piece, ...]:
-    """The pieces of a part whose placed box is ``extent_mm`` (xmin, ymin,
-    xmax, ymax), each window at most ``room_w_mm`` x ``room_h_mm``; in
-    reading order (the top row first, left to right)."""
+def outside_box(extent_mm):
+    """The ``outside`` test of a part that fills its box: a disc of radius
+    ``r`` at (x, y) is outside when it clears the box by MARK_CLEAR_MM."""
     x0, y0, x1, y1 = extent_mm
+    c = MARK_CLEAR_MM
+
+    def outside(x: float, y: float, r: float) -> bool:
+        return x + r < x0 - c or x - r > x1 + c or y + r < y0 - c or y - r > y1 + c
+    return outside
+
+
+def _mark_positions(lo: float, hi: float, on_seam) -> list[float]:
+    """Where marks go along a seam's free stretch ``lo..hi``: the nearest
+    place to each end where ``on_seam(t)`` says a mark is wholly outside
+    the part (searched in 0.5 mm steps); one mark on a short stretch, none
+    where no place is outside."""
+    a, b = lo + MARK_HALF_MM, hi - MARK_HALF_MM
+    if b < a:
+        return []
+    steps = int((b - a) / 0.5)
+    ts = [a + 0.5 * k for k in range(steps + 1)]
+    first = next((t for t in ts if on_seam(t)), None)
+    last = next((t for t in reversed(ts) if on_seam(t)), None)
+    if first is None:
+        return []
+    if last - first < 4 * MARK_HALF_MM:
+        return [first]
+    return [first, last]
+
+
+def tile(extent_mm, room_w_mm: float, room_h_mm: float, overlap_mm: float = OVERLAP_MM,
+         outside=None) -> tuple[Piece, ...]:
+    """The pieces of a part whose placed box is ``extent_mm`` (xmin, ymin,
+    xmax, ymax), grown by MARK_BAND_MM for the marks, each window at most
+    ``room_w_mm`` x ``room_h_mm``; in reading order (the top row first,
+    left to right).  ``outside(x, y, r)`` says whether a disc lies wholly
+    outside the part (default: outside its box)."""
+    outside = outside or outside_box(extent_mm)
+    b = MARK_BAND_MM
+    x0, y0, x1, y1 = extent_mm[0] - b, extent_mm[1] - b, extent_mm[2] + b, extent_mm[3] + b
     nx = pieces_needed(x1 - x0, room_w_mm, overlap_mm)
     ny = pieces_needed(y1 - y0, room_h_mm, overlap_mm)
-    xs = _spans(x0, x1, nx, overlap_mm, room_w_mm)
-    ys = list(reversed(_spans(y0, y1, ny, overlap_mm, room_h_mm)))  # row 0 at the top
+    xs, ys = _spans(x0, x1, nx, overlap_mm, room_w_mm), _spans(y0, y1, ny, overlap_mm, room_h_mm)
+    while xs is None:
+        nx += 1
+        xs = _spans(x0, x1, nx, overlap_mm, room_w_mm)
+    while ys is None:
+        ny += 1
+        ys = _spans(y0, y1, ny, overlap_mm, room_h_mm)
+    ys = list(reversed(ys))   # row 0 at the top
     seam_x = [xs[i][0] + overlap_mm / 2.0 for i in range(1, nx)]     # left seam of column i
     seam_y = [ys[j][1] - overlap_mm / 2.0 for j in range(1, ny)]     # top seam of row j
     marks = []
@@ -143,12 +191,12 @@ def tile(extent_mm, room_w_mm: float, room_h_mm: float, overlap_mm: float = OVER
         for j, (lo, hi) in enumerate(ys):
             free_lo = lo + (overlap_mm if j < ny - 1 else 0.0)
             free_hi = hi - (overlap_mm if j > 0 else 0.0)
-            marks += [(x, y) for y in _mark_positions(free_lo, free_hi)]
+            marks += [(x, y) for y in _mark_positions(free_lo, free_hi, lambda t: outside(x, t, MARK_HALF_MM))]
     for j, y in enumerate(seam_y, start=1):
         for i, (lo, hi) in enumerate(xs):
             free_lo = lo + (overlap_mm if i > 0 else 0.0)
             free_hi = hi - (overlap_mm if i < nx - 1 else 0.0)
-            marks += [(x, y) for x in _mark_positions(free_lo, free_hi)]
+            marks += [(x, y) for x in _mark_positions(free_lo, free_hi, lambda t: outside(t, y, MARK_HALF_MM))]
     out = []
     for j, (wy0, wy1) in enumerate(ys):
         for i, (wx0, wx1) in enumerate(xs):

@@ -11,7 +11,7 @@ from __future__ import annotations
 from reportlab.lib.units import mm
 
 from ..layout.pages import PIECE_LABEL_PT, TITLE_PT, map_cell_mm
-from ..layout.tiling import MARK_ARM_MM, MARK_RADIUS_MM
+from ..layout.tiling import MARK_HALF_MM
 from . import pdf_text
 
 #: Line widths (mm) of the marks: thin enough to place precisely, at least
@@ -33,12 +33,19 @@ def _line(c, x0, y0, x1, y1) -> None:
 
 
 def alignment_mark(c, x_mm: float, y_mm: float) -> None:
-    """A circle with a cross through it, centred on a seam: cut along the
-    seam, each piece keeps half of it, and the halves meet when the pieces
-    lie as they should."""
-    c.circle(x_mm * mm, y_mm * mm, MARK_RADIUS_MM * mm, stroke=1, fill=0)
-    _line(c, x_mm - MARK_ARM_MM, y_mm, x_mm + MARK_ARM_MM, y_mm)
-    _line(c, x_mm, y_mm - MARK_ARM_MM, x_mm, y_mm + MARK_ARM_MM)
+    """A diamond (a square on its corner) centred on a seam, outside the
+    part (kitgen.layout.tiling): cut along the seam, each piece keeps a
+    triangle whose tips lie on the seam, and the tips meet when the pieces
+    lie as they should.  Nothing like the circled cross of a pin, so it is
+    never pierced."""
+    h = MARK_HALF_MM
+    p = c.beginPath()
+    p.moveTo((x_mm + h) * mm, y_mm * mm)
+    p.lineTo(x_mm * mm, (y_mm + h) * mm)
+    p.lineTo((x_mm - h) * mm, y_mm * mm)
+    p.lineTo(x_mm * mm, (y_mm - h) * mm)
+    p.close()
+    c.drawPath(p, stroke=1, fill=0)
 
 
 def draw_piece_marks(c, placement, words, label: str) -> None:
