@@ -16,13 +16,16 @@ model stores them), radians inside.
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
+from dataclasses import dataclass, field
+
+import numpy as np
 
 from ..geometry import model
 
-#: Pieces shorter than this (mm) are dropped: a stub between two labels
+#: Pieces shorter than this (mm) are dropped: a stub between two labels,
+#: or between a label and the rim,
 #: would print as a dot, not as a line.
-MIN_PIECE_MM = 0.25
+MIN_PIECE_MM = 0.8
 
 
 @dataclass(frozen=True)
@@ -35,6 +38,7 @@ class Box:
     angle_rad: float
     half_w: float
     half_h: float
+    radius: float = field(init=False, repr=False, compare=False)
 
     def grown(self, by_mm: float) -> "Box":
         return Box(self.center, self.angle_rad, self.half_w + by_mm, self.half_h + by_mm)
@@ -57,10 +61,9 @@ class Box:
         u, v = self.local(x, y)
         return abs(u) < self.half_w and abs(v) < self.half_h
 
-    @property
-    def radius(self) -> float:
-        """Half of the diagonal: every point of the box is this close to its centre."""
-        return math.hypot(self.half_w, self.half_h)
+    def __post_init__(self):
+        # Half of the diagonal: every point of the box is this close to its centre.
+        object.__setattr__(self, "radius", math.hypot(self.half_w, self.half_h))
 
 
 def text_box(el, words, style: str = "label") -> Box:
@@ -160,12 +163,30 @@ def meets(el, box: Box) -> bool:
         return segment_inside(g["from"], g["to"], box) is not None
     if el.shape == "polyline":
         pts = g["points"]
-        pairs = list(zip(pts, pts[1:])) + ([(pts[-1], pts[0])] if g["closed"] else [])
+        if g["closed"]:
+            pts = tuple(pts) + (pts[0],)
+        lo, hi = _segment_bounds(pts)
         rr, (x, y) = box.radius, box.center
-        return any(segment_inside(p, q, box) is not None for p, q in pairs
-                   if min(p[0], q[0]) - rr <= x <= max(p[0], q[0]) + rr
-                   and min(p[1], q[1]) - rr <= y <= max(p[1], q[1]) + rr)
+        near = np.nonzero((lo[:, 0] - rr <= x) & (x <= hi[:, 0] + rr) & (lo[:, 1] - rr <= y) & (y <= hi[:, 1] + rr))[0]
+        return any(segment_inside(pts[i], pts[i + 1], box) is not None for i in near)
     return False
+
+
+_BOUNDS: dict = {}
+
+
+def _segment_bounds(points):
+    """Lower and upper corners of each segment's bounding box, as arrays
+    (kept for the points' tuple, which the cache holds, so its id is not reused)."""
+    hit = _BOUNDS.get(id(points))
+    if hit is not None and hit[0] is points:
+        return hit[1]
+    p = np.asarray(points, dtype=float)
+    out = (np.minimum(p[:-1], p[1:]), np.maximum(p[:-1], p[1:]))
+    if len(_BOUNDS) > 4096:
+        _BOUNDS.clear()
+    _BOUNDS[id(points)] = (points, out)
+    return out
 
 
 def _clip_to_range(ranges, lo: float, hi: float):
@@ -237,10 +258,12 @@ def may_meet(el, box: Box) -> bool:
     x, y = box.center
     if el.shape in ("circle", "arc"):
         return abs(math.dist(g["center"], (x, y)) - g["radius"]) <= box.radius
-    pts = [g["from"], g["to"]] if el.shape == "segment" else g["points"]
-    xs, ys = [p[0] for p in pts], [p[1] for p in pts]
     rr = box.radius
-    return min(xs) - rr <= x <= max(xs) + rr and min(ys) - rr <= y <= max(ys) + rr
+    if el.shape == "segment":
+        (x0, y0), (x1, y1) = g["from"], g["to"]
+        return min(x0, x1) - rr <= x <= max(x0, x1) + rr and min(y0, y1) - rr <= y <= max(y0, y1) + rr
+    lo, hi = _segment_bounds(g["points"])
+    return lo[:, 0].min() - rr <= x <= hi[:, 0].max() + rr and lo[:, 1].min() - rr <= y <= hi[:, 1].max() + rr
 
 
 def _lerp(p, q, t):
@@ -251,11 +274,16 @@ def _break_polyline(el, boxes) -> list:
     pts = list(el.geom["points"])
     if el.geom["closed"]:
         pts.append(pts[0])
+    lo, hi = _segment_bounds(tuple(pts))
+    rr = np.array([b.radius for b in boxes])
+    cx = np.array([b.center[0] for b in boxes])
+    cy = np.array([b.center[1] for b in boxes])
+    near = (lo[:, 0:1] - rr <= cx) & (cx <= hi[:, 0:1] + rr) & (lo[:, 1:2] - rr <= cy) & (cy <= hi[:, 1:2] + rr)
     runs, run = [], []
-    for p, q in zip(pts, pts[1:]):
+    for i, (p, q) in enumerate(zip(pts, pts[1:])):
         if not run:
             run = [p]
-        cuts = [t for t in (segment_inside(p, q, b) for b in boxes) if t is not None]
+        cuts = [t for t in (segment_inside(p, q, boxes[j]) for j in np.nonzero(near[i])[0]) if t is not None]
         if not cuts:
             run.append(q)
             continue

@@ -156,7 +156,7 @@ def _labels(ctx, phi, s, R, disc, strokes):
     """The plate's words and numbers (see :mod:`kitgen.parts.plate_labels`),
     most needed first, each clear of those set before it: the latitude,
     the cardinal points, the almucantars' tens, the unequal hours, the
-    azimuths, the names of the horizon, equator, tropics and twilight line,
+    azimuths, the names of the horizon, equator, tropics and twilight lines,
     then the almucantars' fives where there is room."""
     w, eps = ctx.words, ctx.sky.obliquity_rad
     first = _latitude_label(ctx, disc)
@@ -177,11 +177,12 @@ def _labels(ctx, phi, s, R, disc, strokes):
     azimuths = [a for a in np.arange(0.0, 360.0 - 1e-9, az_step) if not _multiple(a, 90.0)]
     for az in sorted(azimuths, key=lambda a: (not _multiple(a, 30.0), a)):
         lab.azimuth(float(az), phi, s, R)
-    lab.curve_name("horizon", "plate.line_horizon")
-    lab.curve_name("equator", "plate.line_equator")
-    lab.curve_name("tropic", "plate.line_tropic_cancer", declination_deg=math.degrees(eps))
-    lab.curve_name("tropic", "plate.line_tropic_capricorn", declination_deg=-math.degrees(eps))
-    lab.curve_name("twilight", "plate.line_twilight")
+    lab.curve_name("horizon", w("plate.line_horizon"))
+    lab.curve_name("equator", w("plate.line_equator"))
+    lab.curve_name("tropic", w("plate.line_tropic_cancer"), declination_deg=math.degrees(eps))
+    lab.curve_name("tropic", w("plate.line_tropic_capricorn"), declination_deg=-math.degrees(eps))
+    for alt in ctx.plan.drawing.twilight_deg:
+        lab.curve_name("twilight", w("plate.line_twilight", altitude=w.number(alt)), altitude_deg=alt)
     for alt in numbered:
         if alt not in tens:
             lab.almucantar(alt, False)

@@ -238,6 +238,12 @@ class PlateLabeller:
                 b = self.first_free(points_along(el, mid, reach_mm=1e4), text, size, ())
                 if b is not None:
                     return [self.put("almucantar_label", b, text, size, altitude_deg=float(alt))]
+            # A small circle round the pin or among numbers: beside it.
+            for el in els:
+                for c in points_along(el, _midpoint(el), step_mm=0.5, reach_mm=1e4):
+                    b = self.first_free([(x, y, 0.0) for x, y in around(c, STEP_MM, 2.5)], text, size, ())
+                    if b is not None:
+                        return [self.put("almucantar_label", b, text, size, altitude_deg=float(alt))]
         return []
 
     def _almucantar_anchors(self, els, everywhere):
@@ -312,12 +318,12 @@ class PlateLabeller:
             return self.put("unequal_hour_label", b, text, size, hour=k)
         return None
 
-    def curve_name(self, role: str, key: str, **match):
+    def curve_name(self, role: str, text: str, **match):
         """A curve's name set along it, where it covers fewest lines."""
         els = [e for e in self.role(role) if all(abs(e.values[k] - v) < 1e-6 for k, v in match.items())]
         if not els:
             return None
-        text, size = self.w(key), self.d.small_text_pt
+        size = self.d.small_text_pt
         protected = self.reference
         others = [e for e in self.els if e.shape in STROKE_SHAPES and e.stroke not in ("none", "cut")
                   and e.role not in ("meridian", "east_west") and not (e.role == role and e in els)]
