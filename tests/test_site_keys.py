@@ -161,6 +161,11 @@ def test_unknown_time_zone(tmp_path, capsys):
                       "'timezone'", "IANA", "did you mean 'Europe/Lisbon'")
 
 
+@pytest.mark.parametrize("value", ["[]", "{a: 1}", "5", "true", "'../../etc/passwd'", "'Europe/Lisbon '", "''"])
+def test_time_zone_of_any_other_type_or_form(tmp_path, capsys, value):
+    fails_in_one_line(tmp_path, capsys, f"latitude: 38.7\nlongitude: -9.1\ntimezone: {value}\n", "'timezone'", "IANA")
+
+
 def test_longitude_without_latitude(tmp_path, capsys):
     fails_in_one_line(tmp_path, capsys, "longitude: 10\nplace: Lisbon, PT\n", "'longitude' is given without 'latitude'")
 

@@ -22,12 +22,16 @@ class UnknownZone(ValueError):
     """Not a zone of the IANA database."""
 
 
-@lru_cache(maxsize=64)
 def zone(name: str) -> zoneinfo.ZoneInfo:
     """The IANA zone ``name`` (such as ``Europe/Lisbon``); raises
-    :class:`UnknownZone` for any other text."""
+    :class:`UnknownZone` for any other text or value."""
     if not isinstance(name, str) or not 0 < len(name) <= MAX_ZONE_CHARS or name != name.strip():
-        raise UnknownZone(name)
+        raise UnknownZone(repr(name)[:MAX_ZONE_CHARS])
+    return _zone(name)
+
+
+@lru_cache(maxsize=64)
+def _zone(name: str) -> zoneinfo.ZoneInfo:
     try:
         return zoneinfo.ZoneInfo(name)
     except (zoneinfo.ZoneInfoNotFoundError, ValueError, OSError):
