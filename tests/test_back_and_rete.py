@@ -14,6 +14,7 @@ numbers' boxes measured with the shipped fonts' outlines
 from __future__ import annotations
 
 import calendar
+import dataclasses
 import math
 
 import pytest
@@ -204,3 +205,45 @@ def test_the_owner_on_every_part(head):
             assert not _segment_meets_box((sx - 0.6, sy), (sx + 0.6, sy), corners), star.values["name"]
     without = kit_of(head)
     assert not [e for p in without.parts for e in p.elements if e.role == "owner"]
+
+
+def _distance_to_segment(c, p, q) -> float:
+    (cx, cy), (px, py), (qx, qy) = c, p, q
+    dx, dy = qx - px, qy - py
+    t = 0.0 if dx == dy == 0 else max(0.0, min(1.0, ((cx - px) * dx + (cy - py) * dy) / (dx * dx + dy * dy)))
+    return math.hypot(cx - px - t * dx, cy - py - t * dy)
+
+
+@pytest.mark.parametrize("head", ["latitude: 52.2\ndiameter_mm: 80\n", "latitude: -33.9\n",
+                                  "latitude: 0.5\nlanguage: ar\ndiameter_mm: 300\n"])
+def test_hang_hole_on_the_meridian_clear_of_every_scale(head):
+    """A hole for the plumb's thread at the top of the mater, on the
+    meridian, the same point through both faces (the back, seen from
+    behind, is the front turned about the vertical axis: (x, y) behind
+    (-x, y)), big enough for a thread (a doubled sewing thread is well
+    under 1 mm across: common practice), and 0.3 mm or more from every
+    other drawn line and word (the labels' margin)."""
+    kit = kit_of(head)
+    holes = {}
+    for kind in ("mater_front", "mater_back"):
+        part = kit.part(kind)
+        (hole,) = [e for e in part.elements if e.role == "hang_hole"]
+        assert hole.shape == "circle" and hole.stroke == "cut"
+        (x, y), r = hole.geom["center"], hole.geom["radius"]
+        assert x == 0.0 and y > 0.0          # on the meridian, at the top
+        assert 2 * r >= 1.4
+        assert y + r < kit.dims.mater_radius_mm  # inside the mater's cut
+        holes[kind] = ((x, y), r)
+        others = [e for e in part.elements if e is not hole]
+        for p, q in _drawn_pieces(dataclasses.replace(part, elements=tuple(others))):
+            if math.hypot(*p) >= kit.dims.mater_radius_mm - 1e-6 and math.hypot(*q) >= kit.dims.mater_radius_mm - 1e-6:
+                continue  # the mater's own cut circle
+            assert _distance_to_segment((x, y), p, q) >= r + 0.3 - 1e-9, (kind, p, q)
+        for label in (e for e in others if e.shape == "text"):
+            corners = _box(label, kit.words)
+            xs, ys = [c[0] for c in corners], [c[1] for c in corners]
+            nx, ny = min(max(x, min(xs)), max(xs)), min(max(y, min(ys)), max(ys))
+            assert math.hypot(nx - x, ny - y) >= r + 0.3 - 1e-9, (kind, label.geom["text"])
+    (fx, fy), fr = holes["mater_front"]
+    (bx, by), br = holes["mater_back"]
+    assert (-fx, fy, fr) == pytest.approx((bx, by, br))

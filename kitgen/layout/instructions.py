@@ -149,6 +149,8 @@ def story(kit, pages) -> list[Block]:
     out += [Block("heading", w("instructions.stack_heading")), Block("body", w("instructions.stack_intro"))]
     out += stack_blocks(kit)
     out.append(Block("body", w("instructions.fastener")))
+    if {"mater_front", "mater_back"} & set(kit.plan.parts):
+        out.append(Block("body", w("instructions.hang")))  # the plumb's thread (#9)
     out.append(Block("heading", w("instructions.time_heading")))
     out += numbered("instructions.time_steps")
     out += clock_step(kit, len(w.items("instructions.time_steps")) + 1)

@@ -61,6 +61,22 @@ class Dimensions:
         return self.outer_tropic_radius_mm
 
     @property
+    def hang_hole_mm(self) -> tuple[float, float]:
+        """(y_mm, radius_mm) of the hole for the plumb's thread (#9), on the
+        meridian at the top of the mater, the same point through both
+        faces: centred in the outer share of the front's degree ring, above
+        the tips of its 5-degree ticks (0.28 of the ring) and of the back's
+        10-degree altitude ticks (0.45 of the back's outer ring), with the
+        labels' margin (0.3 mm) inside and outside; at most 1.5 mm across
+        the radius, enough for a thread doubled into a loop (common
+        practice).  The front's degree 0 carries no number there."""
+        r = self.mater_radius_mm
+        lo = self.hour_ring_outer_mm + 0.28 * (r - self.hour_ring_outer_mm)
+        lo = max(lo, self.back_altitude_ring_mm + 0.45 * (r - self.back_altitude_ring_mm))
+        radius = min(1.5, (r - lo) / 2 - 0.3)
+        return (lo + r) / 2, radius
+
+    @property
     def scale(self) -> float:
         """Size relative to a 180 mm mater (the A4 default)."""
         return self.mater_radius_mm / 90.0

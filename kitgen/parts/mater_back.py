@@ -20,6 +20,7 @@ from . import curves, labels
 from .ring_numbers import NUMBERED_TICK, SHORT_TICK, SIGN_NUMBERS_DEG, names_from_edge_mm, number_row
 from .clock_scale import clock_scale
 from .context import PartContext
+from .mater_front import hang_hole
 from .shadow_square import LABELLED_RATIOS, SHADOW_RATIOS, decimals, shadow_mark, shadow_side_mm
 
 def longitude_direction_deg(longitude_deg: float) -> float:
@@ -61,6 +62,7 @@ def mater_back(ctx: PartContext) -> model.Part:
             y, h = r_cal * y_frac, r_cal * h_frac
             room = 2 * math.sqrt((r_cal - labels.MARGIN_MM) ** 2 - (y + h / 2) ** 2)
             els += labels.fitted_text(role, (0.0, y), text, size, w, room, h, style=style)
+    els.append(hang_hole(d))
     els.append(model.point("pin", (0.0, 0.0), hole="centre"))
     return model.Part("mater_back", "card", tuple(els), (-R, -R, R, R), {}, w("mater_back.title"))
 

@@ -37,6 +37,15 @@ def upright_hour_label(w, hour: int, sign: int, r_tips_mm: float, r_ring_mm: flo
     return model.text("hour_label", (r * math.cos(a), r * math.sin(a)), text, size_pt, 0.0, hour=hour)
 
 
+def hang_hole(dims) -> model.Element:
+    """The hole for the plumb's thread at the top of the mater (#9), cut
+    through both faces at the same point (kitgen.parts.dimensions): hung
+    from a loop of thread through it, the instrument hangs upright while
+    the Sun's altitude is taken."""
+    y, radius = dims.hang_hole_mm
+    return model.circle("hang_hole", (0.0, y), radius, "cut")
+
+
 def mater_front(ctx: PartContext) -> model.Part:
     d, w = ctx.dims, ctx.words
     s = ctx.hemisphere_sign
@@ -64,18 +73,19 @@ def mater_front(ctx: PartContext) -> model.Part:
         els.append(upright_hour_label(w, hour, s, r_in + 0.42 * ring, r_mid, d.text_pt))
     deg_ring = r_out - r_mid
     for deg in range(360):
-        length = deg_ring * (0.45 if deg % 15 == 0 else 0.28 if deg % 5 == 0 else 0.16)
+        length = deg_ring * (0.45 if deg % 15 == 0 and deg else 0.28 if deg % 5 == 0 else 0.16)
         stroke = "light" if deg % 5 == 0 else "fine"
         if deg % ctx.scales.degree_tick_deg:
             stroke = "none"  # thinned at this size (kitgen.parts.legibility): kept, not drawn
         els.append(curves.radial_tick("degree_tick", 90.0 - s * deg, r_mid, r_mid + length, r_mid, stroke,
                                       degree=deg))
-        if deg % 15 == 0:
+        if deg % 15 == 0 and deg:  # at 0, the top, the hang hole stands instead
             els.append(curves.ring_text("degree_label", w.number(deg), 90.0 - s * deg, r_mid + 0.7 * deg_ring,
                                         d.small_text_pt, degree=deg))
     tw, tl = key_tab_mm(d)
     y = -(d.plate_radius_mm + 0.5 * tl)
     els.append(model.segment("cut", (-(tw / 2 + 0.5), y), (tw / 2 + 0.5, y), "cut", purpose="key_slot"))
+    els.append(hang_hole(d))
     if ctx.plan.owner:
         # Whose kit it is (#9), in the blank middle that the plate covers.
         y, h = 0.5 * d.plate_radius_mm, 3.0 * d.tick_mm
