@@ -27,7 +27,7 @@ def parse_timezone(value) -> str:
     database that ``zoneinfo`` reads (the ``tzdata`` package)."""
     text = value if isinstance(value, str) else repr(value)
     try:
-        zone(value)
+        zone(value if isinstance(value, str) else "")  # a list or a mapping is no zone (and not hashable)
     except UnknownZone:
         close = difflib.get_close_matches(text[:MAX_ZONE_CHARS], sorted(known_zones()), n=1, cutoff=0.7)
         hint = Message("errors.hint_did_you_mean", name=close[0]) if close else ""
