@@ -74,3 +74,32 @@ def test_every_font_subset_has_a_tag_of_its_own(reader):
         assert "/FontFile2" in descriptor   # embedded
     assert len(fonts) >= 3                   # regular, bold, condensed at least
     assert len(set(tags)) == len(tags), sorted(tags)
+
+
+def test_two_kits_tag_their_subsets_apart():
+    """Different kits draw different characters, so their subsets differ
+    and so do their tags: merged into one file (a class set's print files)
+    they still follow 9.6.4."""
+    a = _fonts(_kit_pdf("latitude: 52.2\nepoch: 2027\ntitle: Hollybrook Primary\n"))
+    b = _fonts(_kit_pdf("latitude: -33.9\nepoch: 2027\ntitle: Quillon Bay Science Centre\nlanguage: fr\n"))
+    tags_a = {TAG.fullmatch(str(f["/BaseFont"])).group(1) for f in a.values()}
+    tags_b = {TAG.fullmatch(str(f["/BaseFont"])).group(1) for f in b.values()}
+    assert not tags_a & tags_b
+
+
+def test_a_class_sets_print_files_ask_for_actual_size_and_keep_tags_apart(tmp_path):
+    from kitgen.cli import main
+    (tmp_path / "set.yaml").write_text("defaults: {latitude: 53.4, epoch: 2027, title: Hollybrook Primary}\n"
+                                       "kits:\n  - {owner: Ava Pennywhistle}\n"
+                                       "  - {owner: Escuela Gemela del Sur, latitude: 33.4S, language: es}\n")
+    assert main(["batch", str(tmp_path / "set.yaml"), "-o", str(tmp_path / "out"), "--jobs", "1", "--quiet"]) == 0
+    for name in ("print-card.pdf", "print-film.pdf"):
+        reader = pypdf.PdfReader(str(tmp_path / "out" / name))
+        assert reader.trailer["/Root"]["/ViewerPreferences"]["/PrintScaling"] == "/None"
+        subsets = {}
+        for font in _fonts(reader).values():
+            tag = TAG.fullmatch(str(font["/BaseFont"])).group(1)
+            # a subset is known by its face and its glyphs' widths (9.6.2.1 /Widths)
+            subsets.setdefault(tag, set()).add((str(font["/BaseFont"]), tuple(float(w) for w in font["/Widths"])))
+        assert len(subsets) >= 6                               # two kits' fonts at least
+        assert all(len(s) == 1 for s in subsets.values()), [t for t, s in subsets.items() if len(s) > 1]

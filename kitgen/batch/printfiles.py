@@ -15,6 +15,7 @@ import io
 from dataclasses import dataclass
 
 from pypdf import PdfReader, PdfWriter
+from pypdf.generic import NameObject
 
 from .stamp import stamp_form, stamp_page
 
@@ -80,6 +81,8 @@ def print_files(kits) -> tuple[dict[str, bytes], dict[int, dict[str, list[tuple[
 def _writer() -> PdfWriter:
     writer = PdfWriter()
     writer.add_metadata({"/Creator": "kitgen", "/Producer": "kitgen"})
+    # Print dialogs at actual size, as each kit's own PDF asks (ISO 32000-1:2008, 12.2, table 150; #9).
+    writer.create_viewer_preferences().print_scaling = NameObject("/None")
     return writer
 
 

@@ -17,6 +17,7 @@ starting side.
 
 from __future__ import annotations
 
+import hashlib
 from dataclasses import dataclass
 
 from reportlab.lib.units import mm
@@ -53,24 +54,33 @@ def _register(face) -> None:
 _REGISTERED: set[str] = set()
 
 
-def subset_tag(k: int) -> str:
-    """The ``k``-th subset tag of a document: six upper-case letters,
-    AAAAAA, AAAAAB, ... (counting in base 26)."""
-    letters = []
-    for _ in range(6):
-        k, r = divmod(k, 26)
-        letters.append(chr(ord("A") + r))
-    return "".join(reversed(letters))
+def subset_tag(font_name: str, subset, taken: set) -> str:
+    """A subset's tag: six upper-case letters drawn from the SHA-256 of the
+    font's name and the subset's characters, so different subsets get
+    different tags even across kits merged into one file (a class set's
+    print files), and the same kit the same bytes; a tag already ``taken``
+    in the document moves on to the next."""
+    digest = hashlib.sha256((font_name + ":" + ",".join(map(str, subset))).encode()).digest()
+    k = int.from_bytes(digest[:8], "big") % 26 ** 6
+    while True:
+        letters, n = [], k
+        for _ in range(6):
+            n, r = divmod(n, 26)
+            letters.append(chr(ord("A") + r))
+        tag = "".join(reversed(letters))
+        if tag not in taken:
+            return tag
+        k = (k + 1) % 26 ** 6
 
 
 class TaggedTTFont(TTFont):
-    """A TrueType font whose embedded subsets each get a tag of their own
-    in the document.  ISO 32000-1:2008, 9.6.4 (font subsets): the tag is
-    six upper-case letters, and "different subsets in the same PDF file
-    shall have different tags"; reportlab numbers the subsets of each font
-    from AAAAAA, so two fonts (regular and bold) would share a tag.  Here
-    the tags count on across the document's fonts, in the order reportlab
-    writes them, so the same kit still gives the same bytes."""
+    """A TrueType font whose embedded subsets each get a tag of their own.
+    ISO 32000-1:2008, 9.6.4 (font subsets): the tag is six upper-case
+    letters, and "different subsets in the same PDF file shall have
+    different tags"; reportlab numbers the subsets of each font from
+    AAAAAA, so two fonts (regular and bold), or two kits merged into one
+    file, would share a tag.  Here each tag comes from the subset itself
+    (:func:`subset_tag`)."""
 
     def addObjects(self, doc):
         state = self.state[doc]   # reportlab drops it once the objects are made
@@ -81,9 +91,10 @@ class TaggedTTFont(TTFont):
         for name, subset in zip(names, subsets):
             font = fonts_dict[name]
             old = font.BaseFont
-            count = getattr(doc, "_kitgen_subset_tags", 0)
-            doc._kitgen_subset_tags = count + 1
-            new = subset_tag(count) + old[6:]
+            taken = doc.__dict__.setdefault("_kitgen_subset_tags", set())
+            tag = subset_tag(old[7:], subset, taken)
+            taken.add(tag)
+            new = tag + old[6:]
             font.BaseFont = new
             doc.idToObject["fontDescriptor:" + old].dict["FontName"] = PDFName(new)
             doc.idToObject["toUnicodeCMap:" + old].content = makeToUnicodeCMap(new, subset)
