@@ -67,6 +67,8 @@ def _parser() -> argparse.ArgumentParser:
 
     k = sub.add_parser("check", help="report how well the kit tells the time, read from its own geometry (#10)")
     k.add_argument("recipe", help="the recipe (YAML)")
+    k.add_argument("--target", help="minutes: also find the size at which every reading by the Sun at the printed "
+                                    "graduations is within this (0.5 to 60)")
 
     c = sub.add_parser("calibrate", help="write a page of check bars to measure the printer's scale")
     c.add_argument("--sheet", default="a4",
@@ -367,18 +369,34 @@ def _place_limit(text: str) -> int:
     return value
 
 
+def _check_target(text):
+    """``--target`` of ``kitgen check``: minutes, 0.5 to 60, or None."""
+    if text is None:
+        return None
+    try:
+        value = float(text)
+    except ValueError:
+        value = float("nan")
+    if not 0.5 <= value <= 60.0:
+        raise UserError("errors.check_target", value=repr(text[:40]))
+    return value
+
+
 def _cmd_check(args) -> int:
     """The accuracy report (kitgen.check) on stdout, in the kit's language."""
-    from .check.accuracy import check_kit
+    from .check.accuracy import check_kit, diameter_for_target
     from .check.report import report_lines
     from .kit import build_kit
     from .recipe.load import load_recipe
 
+    target = _check_target(args.target)
     path = _recipe_path(args.recipe)
     recipe = load_recipe(path)
     with speaking(recipe.language, recipe.language_file or None), _at_recipe_line(path):
         kit = build_kit(recipe)
-        lines = report_lines(kit, check_kit(kit))
+        accuracy = check_kit(kit)
+        diameter = diameter_for_target(kit, accuracy, target) if target is not None else None
+        lines = report_lines(kit, accuracy, target, diameter)
     _emit("".join(line + "\n" for line in lines))
     return EXIT_OK
 

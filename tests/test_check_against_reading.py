@@ -138,3 +138,35 @@ def test_bad_recipe_is_one_line(tmp_path, capsys):
     code = main(["check", str(tmp_path / "missing.yaml")])
     out, err = capsys.readouterr()
     assert code == 2 and out == "" and len(err.strip().splitlines()) == 1 and "missing.yaml" in err
+
+
+def test_size_for_a_target(kit):
+    """The size found for a target reaches it, the size tried before it
+    does not; and a target below half the hour ring's finest step (5 min,
+    kitgen.parts.legibility) is out of reach at any size."""
+    from dataclasses import replace
+
+    from kitgen.check.accuracy import TRIED_DIAMETERS_MM, diameter_for_target
+    from kitgen.kit import build_from_plan
+
+    accuracy = check_kit(kit, stars=False)
+    target = 5.0
+    diameter = diameter_for_target(kit, accuracy, target)
+    assert diameter is not None
+    bigger = check_kit(build_from_plan(replace(kit.plan, diameter_mm=diameter)), stars=False)
+    assert bigger.sun_graduated.worst_min <= target
+    before = [d for d in TRIED_DIAMETERS_MM if kit.plan.diameter_mm < d < diameter]
+    if before:
+        smaller = check_kit(build_from_plan(replace(kit.plan, diameter_mm=before[-1])), stars=False)
+        assert smaller.sun_graduated.worst_min > target
+    elif diameter != kit.plan.diameter_mm:
+        assert accuracy.sun_graduated.worst_min > target
+    assert diameter_for_target(kit, accuracy, 2.0) is None
+
+
+def test_bad_target_is_one_line(tmp_path, capsys):
+    recipe = tmp_path / "r.yaml"
+    recipe.write_text(RECIPE)
+    code = main(["check", str(recipe), "--target", "soon"])
+    out, err = capsys.readouterr()
+    assert code == 2 and out == "" and len(err.strip().splitlines()) == 1 and "'soon'" in err

@@ -24,11 +24,12 @@ from __future__ import annotations
 
 import math
 import statistics
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 
 from ..sky.equation_of_time import apparent_right_ascension_rad
 from ..sky.sun_rise_set import declination_rad
 from ..sky.timescale import days_of_year, julian_centuries_tt, julian_date_tt, julian_date_ut
+from ..kit import build_from_plan
 from .reading import CALENDAR, ECLIPTIC, HOURS, KitReader
 
 #: Every how many days the Sun is read; the day of the month stars are read.
@@ -42,6 +43,9 @@ MIN_HOUR_ANGLE_DEG = 15.0
 DARK_SUN_DEG = -12.0
 ROUNDS = 4
 SCALES = (CALENDAR, ECLIPTIC, HOURS)
+#: The diameters (mm) tried for a target accuracy, up to the largest a
+#: recipe takes (kitgen.recipe.schema, diameter_mm).
+TRIED_DIAMETERS_MM = (180.0, 240.0, 300.0, 360.0, 420.0, 480.0, 540.0, 600.0)
 
 
 @dataclass(frozen=True)
@@ -133,8 +137,9 @@ def _errors(values) -> Errors | None:
     return Errors(len(values), max(values), statistics.median(values)) if values else None
 
 
-def check_kit(kit) -> Accuracy:
-    """The accuracy of ``kit`` as printed (see the module docstring)."""
+def check_kit(kit, stars: bool = True) -> Accuracy:
+    """The accuracy of ``kit`` as printed (see the module docstring); by
+    the Sun only when ``stars`` is false."""
     reader = KitReader(kit)
     plan = kit.plan
     year, phi = plan.epoch, math.radians(plan.plates[0].latitude_deg)
@@ -152,7 +157,7 @@ def check_kit(kit) -> Accuracy:
                     read = reader.time_by_sun(month, day, alt, morning, graduated)
                     if read is not None:
                         found["sun"][way].append(_minutes(read, truth))
-    stars = [n for n in reader.stars if n and not n.startswith("HIP")]
+    stars = [n for n in reader.stars if n and not n.startswith("HIP")] if stars else []
     star_alts = [a for a in STAR_ALTITUDES_DEG if a in reader.altitudes_deg]
     for name in stars:
         el = reader.stars[name]
@@ -171,3 +176,21 @@ def check_kit(kit) -> Accuracy:
                      if found["sun"][s] or found["star"][s])
     return Accuracy(_errors(found["sun"]["exact"]), _errors(found["sun"]["graduated"]),
                     _errors(found["star"]["exact"]), _errors(found["star"]["graduated"]), len(stars), by_scale)
+
+
+def diameter_for_target(kit, accuracy: Accuracy, target_min: float) -> float | None:
+    """The smallest diameter (mm), this kit's or one of
+    :data:`TRIED_DIAMETERS_MM` above it, at which every reading by the Sun
+    at the printed graduations is within ``target_min``; None if none is.
+    A larger kit draws finer graduations where the smaller one had to thin
+    them (kitgen.parts.legibility); the plan is otherwise the same."""
+    if accuracy.sun_graduated is not None and accuracy.sun_graduated.worst_min <= target_min:
+        return kit.plan.diameter_mm
+    for diameter in TRIED_DIAMETERS_MM:
+        if diameter <= kit.plan.diameter_mm:
+            continue
+        larger = build_from_plan(replace(kit.plan, diameter_mm=diameter))
+        found = check_kit(larger, stars=False).sun_graduated
+        if found is not None and found.worst_min <= target_min:
+            return diameter
+    return None

@@ -12,9 +12,11 @@ def _pair(words, key: str, errors: Errors) -> str:
     return words(key, worst=words.number(errors.worst_min, 1), median=words.number(errors.median_min, 1))
 
 
-def report_lines(kit, accuracy: Accuracy) -> list[str]:
+def report_lines(kit, accuracy: Accuracy, target_min: float | None = None,
+                 diameter_mm: float | None = None) -> list[str]:
     """The report, one line a list item (indented lines belong to the line
-    above)."""
+    above); with a target, the size that reaches it (``diameter_mm``, None
+    for none: :func:`kitgen.check.accuracy.diameter_for_target`)."""
     w, plan = kit.words, kit.plan
     out = [w("check.title", title=plan.title or w("kit.default_title"),
              latitude=latitude_text(w, plan.plates[0].latitude_deg), year=w.number(plan.epoch))]
@@ -33,4 +35,12 @@ def report_lines(kit, accuracy: Accuracy) -> list[str]:
     if scale is not None:
         worst = dict(accuracy.by_scale)[scale]
         out.append(w("check.limit", part=w("check.scale_" + scale), worst=w.number(worst, 1)))
+    if target_min is not None:
+        target = w.number(target_min, 0 if float(target_min).is_integer() else 1)
+        if diameter_mm is None:
+            out.append(w("check.target_none", target=target))
+        elif diameter_mm == plan.diameter_mm:
+            out.append(w("check.target_now", target=target))
+        else:
+            out.append(w("check.target_size", target=target, diameter=w.number(diameter_mm)))
     return out
