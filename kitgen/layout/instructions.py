@@ -206,9 +206,20 @@ def sun_place(words, longitude_deg: float) -> str:
                  sign=words.items("zodiac.signs")[sign])
 
 
+def has_clock_ring(kit) -> bool:
+    """Whether the back carries the clock correction ring (it is left out
+    on a kit too small for it, kitgen.parts.clock_scale)."""
+    return any(e.role == "clock_run" for p in kit.parts_of("mater_back") for e in p.elements)
+
+
 def clock_step(kit, number: int) -> list[Block]:
-    """The time-telling procedure's last step: to clock time."""
+    """The time-telling procedure's last step: to clock time, from the
+    back's ring, or from the table where the kit has no ring."""
     w = kit.words
+    if not has_clock_ring(kit):
+        out = [Block("item", w("almanac.clock_step_table", heading=w("almanac.correction_heading"),
+                               clock_name=clock_name(kit)), w.number(number) + ".")]
+        return out if _zoned(kit) else out + [Block("body", w("almanac.mean_missing"))]
     text = w("almanac.clock_step", zone=kit.plan.site.timezone) if _zoned(kit) else w("almanac.clock_step_mean")
     return [Block("item", text, w.number(number) + ".")]
 
