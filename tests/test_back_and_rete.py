@@ -247,3 +247,72 @@ def test_hang_hole_on_the_meridian_clear_of_every_scale(head):
     (fx, fy), fr = holes["mater_front"]
     (bx, by), br = holes["mater_back"]
     assert (-fx, fy, fr) == pytest.approx((bx, by, br))
+
+
+@pytest.mark.parametrize("head", ["latitude: 0.5\n", "latitude: 52.2\ndiameter_mm: 80\n",
+                                  "latitude: -33.9\ndiameter_mm: 120\nlanguage: ru\n"])
+def test_star_names_beside_their_dots_and_off_the_zodiac(head):
+    """Every drawn star is named beside its dot, or farther out with a leader
+    line from its dot to its name, or said in the notes to be unnamed; no
+    name meets the ecliptic's band, its words or another star's dot; no two
+    drawn dots touch (stars that close are one dot, named for all)."""
+    from kitgen.geometry.style import star_radius_mm
+    kit = kit_of(head + "parts: [rete]\n")
+    rete, w = kit.part("rete"), kit.words
+    stars = [e for e in rete.elements if e.role == "star"]
+    drawn = [e for e in stars if e.stroke != "none"]
+    labels = {e.values["name"]: e for e in rete.elements if e.role == "star_label"}
+    leaders = {e.values["name"]: e for e in rete.elements if e.role == "star_leader"}
+    unnamed = " ".join(n.text(w) for n in kit.notes if n.key == "notes.unnamed_stars")
+    offset = kit.dims.tick_mm * 1.3
+    words = [e for e in rete.elements if e.role in ("zodiac_label", "ecliptic_number")]
+    (band,) = [e for e in rete.elements if e.role == "ecliptic_band"]
+    (ecliptic,) = [e for e in rete.elements if e.role == "ecliptic"]
+    c, r_in, r_out = band.geom["center"], band.geom["radius"], ecliptic.geom["radius"]
+    for star in drawn:
+        name, at = star.values["name"], star.geom["at"]
+        radius = star_radius_mm(star.values["mag"], kit.dims)
+        if name not in labels:
+            assert w.star_name(name) in unnamed, name
+            continue
+        label = labels[name]
+        corners = _box(label, w)
+        xs, ys = [p[0] for p in corners], [p[1] for p in corners]
+        near = (min(max(at[0], min(xs)), max(xs)), min(max(at[1], min(ys)), max(ys)))
+        gap = math.dist(at, near)
+        if name in leaders:
+            a, b = leaders[name].geom["from"], leaders[name].geom["to"]
+            assert math.dist(a, at) <= radius + 0.5 and math.dist(b, near) <= 0.5, name
+        else:
+            assert gap <= 2.8 * offset + 0.5, name   # beside its dot
+        for other in drawn:
+            if other is not star:
+                o = other.geom["at"]
+                ro = star_radius_mm(other.values["mag"], kit.dims)
+                assert not (min(xs) - ro < o[0] < max(xs) + ro and min(ys) - ro < o[1] < max(ys) + ro), (name, other.values["name"])
+        for word in words:
+            assert not any(_segment_meets_box(p, q, corners) for p, q in zip(_box(word, w), _box(word, w)[1:])), name
+        # off the band: every corner and edge midpoint outside the annulus
+        for p in corners + [((corners[k][0] + corners[k - 1][0]) / 2, (corners[k][1] + corners[k - 1][1]) / 2)
+                            for k in range(4)]:
+            d = math.dist(p, c)
+            assert not (r_in < d < r_out), name
+    for a in drawn:
+        for b in drawn:
+            if a is not b:
+                ra, rb = (star_radius_mm(e.values["mag"], kit.dims) for e in (a, b))
+                assert math.dist(a.geom["at"], b.geom["at"]) >= ra + rb
+
+
+def test_doubles_are_one_dot_named_once():
+    """Rigil Kentaurus and Toliman (alpha Centauri A and B, 0.005 deg apart
+    in the shipped catalogue and in Hipparcos) print as one dot, named once
+    for both."""
+    kit = kit_of("latitude: 0.5\nparts: [rete]\n")
+    rete, w = kit.part("rete"), kit.words
+    stars = {e.values["name"]: e for e in rete.elements if e.role == "star"}
+    a, b = stars["Rigil Kentaurus"], stars["Toliman"]
+    assert a.stroke != "none" and b.stroke == "none" and b.values["merged_into"] == "Rigil Kentaurus"
+    (label,) = [e for e in rete.elements if e.role == "star_label" and e.values["name"] == "Rigil Kentaurus"]
+    assert w.star_name("Toliman") in label.geom["text"] and w.star_name("Rigil Kentaurus") in label.geom["text"]
+    assert not [e for e in rete.elements if e.role == "star_label" and e.values["name"] == "Toliman"]

@@ -63,10 +63,54 @@ def _meets_ring(box, ring) -> bool:
 #: nearest free place wins, a farther one only when the near ones are taken
 #: (a label a few millimetres off still reads as its star's on a rete).
 NEAR_FIRST = (1.0, 1.8, 2.8)
+#: Farther places, each joined to its point by a leader line (common
+#: practice in map labelling), tried when the near ones are all taken.
+WITH_LEADER = (4.0, 5.5, 7.5, 10.0)
+
+
+def _segment_meets_box(p, q, box) -> bool:
+    """Whether segment pq meets an axis-aligned box (Liang-Barsky)."""
+    t0, t1 = 0.0, 1.0
+    for d, lo, hi, start in ((q[0] - p[0], box[0], box[2], p[0]), (q[1] - p[1], box[1], box[3], p[1])):
+        if abs(d) < 1e-12:
+            if start < lo or start > hi:
+                return False
+            continue
+        ta, tb = (lo - start) / d, (hi - start) / d
+        t0, t1 = max(t0, min(ta, tb)), min(t1, max(ta, tb))
+        if t0 > t1:
+            return False
+    return True
+
+
+def _segment_meets_ring(p, q, ring) -> bool:
+    """Whether segment pq meets the annulus ``ring`` (sampled every
+    0.1 mm: far finer than any line it keeps apart)."""
+    (cx, cy), r0, r1 = ring
+    n = max(2, int(((q[0] - p[0]) ** 2 + (q[1] - p[1]) ** 2) ** 0.5 / 0.1) + 1)
+    for k in range(n + 1):
+        x, y = p[0] + (q[0] - p[0]) * k / n, p[1] + (q[1] - p[1]) * k / n
+        if r0 <= ((x - cx) ** 2 + (y - cy) ** 2) ** 0.5 <= r1:
+            return True
+    return False
+
+
+def leader_ends(point, box, start_mm: float, gap_mm: float = MARGIN_MM):
+    """The leader from a point to a label's box: from ``start_mm`` out of
+    the point (past its dot) towards the box's nearest point, stopping
+    ``gap_mm`` short of it; None when the box is nearer than that."""
+    x, y = point
+    nx, ny = min(max(x, box[0]), box[2]), min(max(y, box[1]), box[3])
+    dx, dy = nx - x, ny - y
+    dist = (dx * dx + dy * dy) ** 0.5
+    if dist <= start_mm + gap_mm + 0.2:
+        return None
+    ux, uy = dx / dist, dy / dist
+    return ((x + ux * start_mm, y + uy * start_mm), (nx - ux * gap_mm, ny - uy * gap_mm))
 
 
 def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), inside_radius_mm=None,
-                 keep_out_rings=(), *, measure):
+                 keep_out_rings=(), *, measure, leaders_from_mm=None, own_boxes=None):
     """For each point (in order of importance) the (at, anchor) of its
     label: right, left, above, below the point or at a corner, at the
     offset or (when those are taken) farther out, the first of these whose
@@ -74,34 +118,66 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
     ``keep_out`` box, no ring of ``keep_out_rings`` ((center, r_inner,
     r_outer)) and stays inside ``inside_radius_mm``; else ``None`` (the
     label is left out rather than printed over another, over a scale or
-    off the part)."""
+    off the part).
+
+    With ``leaders_from_mm`` (the radius of each point's dot, a list), the
+    result is (at, anchor, leader) and places farther still
+    (:data:`WITH_LEADER`) are tried, each with a leader line from the dot
+    to the label that crosses no box or ring kept out and no label or
+    leader placed before (``leader`` is None for a label near its dot).
+    ``own_boxes`` (one per point, e.g. its dot) are left out of the
+    leader's own point's test."""
     placed = list(keep_out)
+    lines = []
     out = []
-    for (x, y), text in zip(points, texts):
+    reaches = NEAR_FIRST + (WITH_LEADER if leaders_from_mm is not None else ())
+    for k, ((x, y), text) in enumerate(zip(points, texts)):
         h = measure(text, size_pt).height_mm
         candidates = []
-        for reach in NEAR_FIRST:
+        for reach in reaches:
             o = offset_mm * reach
             d = o * 0.75
-            candidates += [((x + o, y), "start"), ((x - o, y), "end"),
-                           ((x, y + o + h / 2), "middle"), ((x, y - o - h / 2), "middle"),
-                           ((x + d, y + d + h / 2), "start"), ((x - d, y + d + h / 2), "end"),
-                           ((x + d, y - d - h / 2), "start"), ((x - d, y - d - h / 2), "end")]
+            if reach > NEAR_FIRST[-1]:  # far out, with a leader: sixteen directions round the point
+                for j in range(16):
+                    a = math.radians(22.5 * j)
+                    ca, sa = math.cos(a), math.sin(a)
+                    anchor = "start" if ca > 0.3 else "end" if ca < -0.3 else "middle"
+                    lift = (h / 2) * (1 if sa > 0 else -1) if anchor == "middle" else 0.0
+                    candidates.append((((x + o * ca, y + o * sa + lift), anchor), reach))
+                continue
+            candidates += [(((x + o, y), "start"), reach), (((x - o, y), "end"), reach),
+                           (((x, y + o + h / 2), "middle"), reach), (((x, y - o - h / 2), "middle"), reach),
+                           (((x + d, y + d + h / 2), "start"), reach), (((x - d, y + d + h / 2), "end"), reach),
+                           (((x + d, y - d - h / 2), "start"), reach), (((x - d, y - d - h / 2), "end"), reach)]
         choice = None
-        for at, anchor in candidates:
+        for (at, anchor), reach in candidates:
             box = text_box_mm(at, text, size_pt, anchor, measure)
             if inside_radius_mm is not None and max(abs(box[0]), abs(box[2])) ** 2 + \
                     max(abs(box[1]), abs(box[3])) ** 2 > inside_radius_mm ** 2:
                 continue
-            if not any(_overlap(box, other) for other in placed) and \
-                    not any(_meets_ring(box, ring) for ring in keep_out_rings):
-                choice = (at, anchor, box)
-                break
+            if any(_overlap(box, other) for other in placed) or \
+                    any(_meets_ring(box, ring) for ring in keep_out_rings) or \
+                    any(_segment_meets_box(a, b, box) for a, b in lines):
+                continue
+            leader = None
+            if reach > NEAR_FIRST[-1]:
+                leader = leader_ends((x, y), box, leaders_from_mm[k] + MARGIN_MM)
+                if leader is None:
+                    continue
+                own = own_boxes[k] if own_boxes is not None else None
+                if any(_segment_meets_box(leader[0], leader[1], other) for other in placed if other is not own) \
+                        or any(_segment_meets_ring(leader[0], leader[1], ring) for ring in keep_out_rings
+                               if not _segment_meets_ring((x, y), (x, y), ring)):  # a dot on a ring must cross it
+                    continue
+            choice = (at, anchor, box, leader)
+            break
         if choice is None:
             out.append(None)
             continue
         placed.append(choice[2])
-        out.append(choice[:2])
+        if choice[3] is not None:
+            lines.append(choice[3])
+        out.append(choice[:2] if leaders_from_mm is None else (choice[0], choice[1], choice[3]))
     return out
 
 

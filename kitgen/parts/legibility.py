@@ -406,7 +406,8 @@ def shortened_notes(parts, dims, words) -> tuple[Message, ...]:
             out.append(Message("notes.shortened", part=name,
                                labels=[Message("notes.quoted", text=c) for c in cut], diameter=size))
         named = {e.values.get("name") for e in part.elements if e.role == "star_label"}
-        unnamed = [e.values["name"] for e in part.elements if e.role == "star" and e.values["name"] not in named]
+        unnamed = [e.values["name"] for e in part.elements if e.role == "star" and e.stroke != "none"
+                   and e.values["name"] not in named]
         if unnamed:
             out.append(Message("notes.unnamed_stars", part=name,
                                stars=[words.star_name(n) for n in unnamed], diameter=size))

@@ -16,6 +16,7 @@ import numpy as np
 
 from ..errors import Message, Number
 from ..geometry import model
+from ..geometry.style import star_radius_mm
 from ..projection.circles import project_circle
 from ..projection.stereographic import equatorial_vector, project
 from ..sky.rete_rim import MAX_RIM_DEG, rim_for_stars_deg
@@ -85,29 +86,58 @@ def rete(ctx: PartContext) -> model.Part:
                                  short=ZODIAC_SIGNS[k], longitude_deg=30.0 * k + 15.0)
 
     stars = sorted(ctx.sky.stars, key=lambda st: st.star.mag)
-    pts = [project(-math.radians(st.ra_deg), math.radians(st.dec_deg), s, R) for st in stars]
+    all_pts = [project(-math.radians(st.ra_deg), math.radians(st.dec_deg), s, R) for st in stars]
+    radii = [star_radius_mm(st.star.mag, d) for st in stars]
+    # Stars whose dots would touch are one dot (the brightest's), named
+    # once for all of them (#9); the others stay in the geometry, undrawn.
+    groups = merged_stars(all_pts, radii)
+    lead = [k for k in range(len(stars)) if groups[k] == k]
+    pts = [all_pts[k] for k in lead]
+    sep = w("page.list_separator")
+    names = [sep.join(w.star_name(stars[j].star.label) for j in range(len(stars)) if groups[j] == k) for k in lead]
     pin_box = (-2.5, -2.5, 2.5, 2.5)  # the pin's crosshair
-    names = [w.star_name(st.star.label) for st in stars]
-    zodiac_boxes = [labels.element_box_mm(e, w) for e in els if e.role == "zodiac_label"]
-    dot = 1.0 * d.scale  # mm: the largest star dot's radius (see kitgen.geometry.style.star_radius_mm)
-    dot_boxes = [(q[0] - dot, q[1] - dot, q[0] + dot, q[1] + dot) for q in pts]
+    zodiac_boxes = [labels.element_box_mm(e, w) for e in els if e.role in ("zodiac_label", "ecliptic_number")]
+    dot_boxes = [(q[0] - radii[k], q[1] - radii[k], q[0] + radii[k], q[1] + radii[k]) for k, q in zip(lead, pts)]
     owner, owner_boxes = _owner_on_film(ctx, tuple(c), image.radius_mm, band, dot_boxes)
     els += owner
+    # A name stands beside its dot, farther out with a leader line where
+    # the near places are taken; never on the ecliptic's band.
     places = labels.place_labels(pts, names, d.small_text_pt, d.tick_mm * 1.3,
                                  keep_out=[pin_box] + zodiac_boxes + dot_boxes + owner_boxes,
-                                 inside_radius_mm=d.plate_radius_mm - labels.MARGIN_MM,
+                                 inside_radius_mm=d.outer_tropic_radius_mm - labels.MARGIN_MM,
                                  keep_out_rings=[(tuple(c), image.radius_mm - band, image.radius_mm)],
-                                 measure=w.measure)
-    for placed, p, name, where in zip(stars, pts, names, places):
-        els.append(model.point("star", p, "heavy", name=placed.star.label, ra_deg=placed.ra_deg,
-                               dec_deg=placed.dec_deg, mag=placed.star.mag))
-        if where is not None:
-            at, anchor = where
-            els.append(model.text("star_label", at, name, d.small_text_pt, anchor=anchor,
-                                  name=placed.star.label))
+                                 measure=w.measure, leaders_from_mm=[radii[k] for k in lead], own_boxes=dot_boxes)
+    where_of = dict(zip(lead, places))
+    for k, (placed, p) in enumerate(zip(stars, all_pts)):
+        first = groups[k]
+        together = [stars[j].star.label for j in range(len(stars)) if groups[j] == first and j != first]
+        extra = {"with_stars": together} if first == k and together else {}
+        if first != k:
+            extra = {"merged_into": stars[first].star.label}
+        els.append(model.point("star", p, "heavy" if first == k else "none", name=placed.star.label,
+                               ra_deg=placed.ra_deg, dec_deg=placed.dec_deg, mag=placed.star.mag, **extra))
+        where = where_of.get(k)
+        if first == k and where is not None:
+            at, anchor, leader = where
+            names_k = [placed.star.label] + together
+            els.append(model.text("star_label", at, names[lead.index(k)], d.small_text_pt, anchor=anchor,
+                                  name=placed.star.label, **({"names": names_k} if together else {})))
+            if leader is not None:
+                els.append(model.segment("star_leader", leader[0], leader[1], "fine", name=placed.star.label))
     els.append(model.point("pin", (0.0, 0.0), hole="centre"))
     r = d.plate_radius_mm
     return model.Part("rete", "film", tuple(els), (-r, -r, r, r), {}, w("rete.title"))
+
+
+def merged_stars(points_mm, radii_mm) -> list[int]:
+    """For each star (brightest first) the index of the star whose dot it
+    is drawn as: its own, or the first brighter one whose dot its own
+    would touch (centres closer than the two radii together)."""
+    out = []
+    for k, (p, r) in enumerate(zip(points_mm, radii_mm)):
+        out.append(next((j for j in range(k) if out[j] == j and
+                         math.hypot(p[0] - points_mm[j][0], p[1] - points_mm[j][1]) < r + radii_mm[j]), k))
+    return out
 
 
 def _owner_on_film(ctx, ecliptic_center, ecliptic_radius_mm, band_mm, dot_boxes):
