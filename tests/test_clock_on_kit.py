@@ -271,3 +271,17 @@ def test_twilight_circles_asked_for(twilight, expected):
         centre = R * math.cos(phi) / (math.sin(phi) + math.sin(h))
         radius = R * math.cos(h) / (math.sin(phi) + math.sin(h))
         assert abs(abs(e.geom["center"][1]) - centre) < 1e-6 and abs(e.geom["radius"] - radius) < 1e-6
+
+
+def test_a_kit_too_small_for_the_ring_points_to_the_table():
+    """On an 80 mm kit with a long title the back has no room for the ring
+    (the title keeps its 8 pt, tests/test_legibility.py): no run is drawn,
+    and the time-telling steps end with the table's correction instead, in
+    the template's words."""
+    kit = build_kit(parse_recipe_text(f"latitude: 52.2\nlongitude: 0.1\ntimezone: Europe/London\nepoch: {EPOCH}\n"
+                                      "diameter_mm: 80\ntitle: Larkspur Valley School\n"))
+    assert not any(e.role == "clock_run" for e in kit.part("mater_back").elements)
+    w = kit.words
+    text = [b.text for b in _story(kit)]
+    assert w("almanac.clock_step_table", heading=w("almanac.correction_heading"),
+             clock_name=w("almanac.clock_zone", zone="Europe/London")) in text
