@@ -20,7 +20,7 @@ def starter_recipe() -> str:
         example = current_year() if key.name == "epoch" else key.example
         value = yaml.safe_dump({key.name: example}, default_flow_style=True, sort_keys=False,
                                allow_unicode=True).strip()[1:-1]
-        if key.name in ("diameter_mm", "language_file", "plates"):
+        if key.name in ("diameter_mm", "language_file", "plates", "rete_limit_deg"):  # defaults worth keeping
             value = "# " + value
         lines.append(f"# {key.help}\n{value}\n")
     return "\n".join(lines)
