@@ -386,7 +386,7 @@ def _cmd_check(args) -> int:
     """The accuracy report (kitgen.check) on stdout, in the kit's language."""
     from .check.accuracy import check_kit, diameter_for_target
     from .check.report import report_lines
-    from .kit import build_kit
+    from .kit import build_from_plan, build_kit
     from .recipe.load import load_recipe
 
     target = _check_target(args.target)
@@ -395,7 +395,7 @@ def _cmd_check(args) -> int:
     with speaking(recipe.language, recipe.language_file or None), _at_recipe_line(path):
         kit = build_kit(recipe)
         accuracy = check_kit(kit)
-        diameter = diameter_for_target(kit, accuracy, target) if target is not None else None
+        diameter = diameter_for_target(kit, accuracy, target, build_from_plan) if target is not None else None
         lines = report_lines(kit, accuracy, target, diameter)
     _emit("".join(line + "\n" for line in lines))
     return EXIT_OK

@@ -10,6 +10,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass, replace
 
+from .check.accuracy import Accuracy, check_kit
 from .errors import Message
 from .geometry.model import Part
 from .parts import PART_BUILDERS
@@ -33,6 +34,9 @@ class Kit:
     #: this size, for the command line to tell (kitgen.parts.legibility):
     #: messages of the templates' ``notes`` section, said with ``words``.
     notes: tuple[Message, ...] = ()
+    #: kitgen check's figures, when the recipe asks for them as a page of
+    #: the kit (``accuracy_page``, #10); None otherwise.
+    accuracy: Accuracy | None = None
 
     @property
     def words(self) -> Words:
@@ -86,7 +90,8 @@ def build_from_plan(plan: Plan) -> Kit:
             parts.append(replace(on_material(build(ctx), plan), id=plate.id))
     parts = tuple(parts)
     notes += rim_notes(plan)
-    return Kit(plan, dims, parts, tuple(notes) + shortened_notes(parts, dims, plan.words))
+    kit = Kit(plan, dims, parts, tuple(notes) + shortened_notes(parts, dims, plan.words))
+    return replace(kit, accuracy=check_kit(kit)) if plan.accuracy_page else kit
 
 
 def build_kit(recipe: Recipe) -> Kit:

@@ -151,7 +151,7 @@ def test_size_for_a_target(kit):
 
     accuracy = check_kit(kit, stars=False)
     target = 5.0
-    diameter = diameter_for_target(kit, accuracy, target)
+    diameter = diameter_for_target(kit, accuracy, target, build_from_plan)
     assert diameter is not None
     bigger = check_kit(build_from_plan(replace(kit.plan, diameter_mm=diameter)), stars=False)
     assert bigger.sun_graduated.worst_min <= target
@@ -161,7 +161,7 @@ def test_size_for_a_target(kit):
         assert smaller.sun_graduated.worst_min > target
     elif diameter != kit.plan.diameter_mm:
         assert accuracy.sun_graduated.worst_min > target
-    assert diameter_for_target(kit, accuracy, 2.0) is None
+    assert diameter_for_target(kit, accuracy, 2.0, build_from_plan) is None
 
 
 def test_bad_target_is_one_line(tmp_path, capsys):
@@ -170,3 +170,26 @@ def test_bad_target_is_one_line(tmp_path, capsys):
     code = main(["check", str(recipe), "--target", "soon"])
     out, err = capsys.readouterr()
     assert code == 2 and out == "" and len(err.strip().splitlines()) == 1 and "'soon'" in err
+
+
+def test_accuracy_as_a_page_of_the_kit(tmp_path):
+    """accuracy_page: true puts the report on a page of its own in the PDF
+    (read back with pypdf), with the figures of kitgen check."""
+    import io
+
+    import pypdf
+
+    from kitgen.render.pdf import build_pdf
+
+    kit = build_kit(parse_recipe_text(RECIPE + "accuracy_page: true\n"))
+    assert kit.accuracy == check_kit(kit)
+    w = kit.words
+    _, data = build_pdf(kit)
+    pages = [" ".join(p.extract_text().split()) for p in pypdf.PdfReader(io.BytesIO(data)).pages]
+    title = w("check.title", title=w("kit.default_title"), latitude="", year="").split(":")[0]
+    found = [t for t in pages if title in t]
+    assert len(found) == 1
+    exact = w("check.exact", worst=w.number(kit.accuracy.sun_exact.worst_min, 1),
+              median=w.number(kit.accuracy.sun_exact.median_min, 1)).strip()
+    assert exact in found[0]
+    assert build_kit(parse_recipe_text(RECIPE)).accuracy is None

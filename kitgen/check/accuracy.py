@@ -29,7 +29,6 @@ from dataclasses import dataclass, replace
 from ..sky.equation_of_time import apparent_right_ascension_rad
 from ..sky.sun_rise_set import declination_rad
 from ..sky.timescale import days_of_year, julian_centuries_tt, julian_date_tt, julian_date_ut
-from ..kit import build_from_plan
 from .reading import CALENDAR, ECLIPTIC, HOURS, KitReader
 
 #: Every how many days the Sun is read; the day of the month stars are read.
@@ -178,18 +177,20 @@ def check_kit(kit, stars: bool = True) -> Accuracy:
                     _errors(found["star"]["exact"]), _errors(found["star"]["graduated"]), len(stars), by_scale)
 
 
-def diameter_for_target(kit, accuracy: Accuracy, target_min: float) -> float | None:
+def diameter_for_target(kit, accuracy: Accuracy, target_min: float, rebuild) -> float | None:
     """The smallest diameter (mm), this kit's or one of
     :data:`TRIED_DIAMETERS_MM` above it, at which every reading by the Sun
     at the printed graduations is within ``target_min``; None if none is.
     A larger kit draws finer graduations where the smaller one had to thin
-    them (kitgen.parts.legibility); the plan is otherwise the same."""
+    them (kitgen.parts.legibility); the plan is otherwise the same.
+    ``rebuild(plan)`` builds a kit (kitgen.kit.build_from_plan, which
+    stands above this module)."""
     if accuracy.sun_graduated is not None and accuracy.sun_graduated.worst_min <= target_min:
         return kit.plan.diameter_mm
     for diameter in TRIED_DIAMETERS_MM:
         if diameter <= kit.plan.diameter_mm:
             continue
-        larger = build_from_plan(replace(kit.plan, diameter_mm=diameter))
+        larger = rebuild(replace(kit.plan, diameter_mm=diameter))
         found = check_kit(larger, stars=False).sun_graduated
         if found is not None and found.worst_min <= target_min:
             return diameter

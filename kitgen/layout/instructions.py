@@ -10,6 +10,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 from .pages import CHECK_BAR_MM
+from ..check.report import report_lines
 from ..parts.clock_scale import signed
 from ..parts.format import latitude_text
 from ..words.locale import format_date
@@ -161,6 +162,7 @@ def story(kit, pages) -> list[Block]:
     out += glossary_blocks(kit)
     out += sunrise_blocks(kit) + star_blocks(kit)
     out += worksheet_blocks(kit)
+    out += accuracy_blocks(kit)
     return out
 
 
@@ -351,3 +353,15 @@ def worksheet_blocks(kit) -> list[Block]:
     out += [Block("item", w("worksheet.a_" + q.kind, **v), w.number(k) + ".")
             for k, (q, v) in enumerate(zip(questions, values), start=1)]
     return out
+
+
+def accuracy_blocks(kit) -> list[Block]:
+    """kitgen check's report as a page of the kit, when the recipe asks
+    for it (``accuracy_page``): its first line the heading, the figures
+    below, in the words the terminal uses (kitgen.check.report)."""
+    accuracy = getattr(kit, "accuracy", None)
+    if accuracy is None:
+        return []
+    lines = report_lines(kit, accuracy)
+    return ([Block("page_break", ""), Block("heading", lines[0])]
+            + [Block("body", line.strip()) for line in lines[1:]])

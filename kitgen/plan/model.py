@@ -86,6 +86,7 @@ class Plan:
     almanac: Almanac               # the site's clock correction and sunrise table for the epoch year (#10)
     examples: WorkedExamples       # the instructions' worked examples by the Sun and a star (#10)
     worksheet: tuple[Question, ...] = ()  # the worksheet's questions, when the recipe asks for one (#10)
+    accuracy_page: bool = False    # kitgen check's report as a page of the kit (#10)
     owner: str = ""                # whose kit it is, printed small on every part (#9)
 
     @property

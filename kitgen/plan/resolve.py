@@ -91,5 +91,6 @@ def plan_kit(recipe: Recipe) -> Plan:
         almanac=almanac,
         examples=worked_examples(site.latitude_deg, sky, almanac, float(recipe.altitude_step_deg)),
         worksheet=worksheet_questions(site.latitude_deg, sky, almanac) if recipe.worksheet else (),
+        accuracy_page=recipe.accuracy_page,
         owner=recipe.owner,
     )

@@ -75,6 +75,7 @@ class Recipe:
     twilight: tuple[str, ...] = DEFAULT_TWILIGHT  # civil, nautical, astronomical (kitgen.recipe.twilight)
     unequal_hours: bool = True
     worksheet: bool = False        # questions for the class, with an answer key (#10)
+    accuracy_page: bool = False    # kitgen check's report as a page of the kit (#10)
     parts: tuple[str, ...] = PARTS
     margin_mm: float = DEFAULT_MARGIN_MM
     print_scale: tuple[float, float] = (1.0, 1.0)  # measured print scale (x, y) the kit compensates
@@ -190,6 +191,8 @@ KEYS: tuple[Key, ...] = (
     Key("unequal_hours", "unequal_hours", "bool", "draw the unequal (temporal) hour curves", example=True),
     Key("worksheet", "worksheet", "bool",
         "add a worksheet of questions for the site and year, with an answer key on its own page", example=False),
+    Key("accuracy_page", "accuracy_page", "bool",
+        "add a page with the accuracy report of `kitgen check` (how well this kit tells the time)", example=False),
     Key("parts", "parts", "parts", f"which parts to print, of: {', '.join(PARTS)}", choices=PARTS,
         example=list(PARTS)),
 )
