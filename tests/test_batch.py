@@ -3,10 +3,10 @@
 One set of thirteen entries: four in a ``kits:`` list and nine roster
 rows; twelve kits are good (English, Spanish and Russian; north, south and
 the equator; one kit in two copies; a roster column left empty in every
-row), and one roster row has a latitude of 91.  It is built twice, with
-one worker in this process and with two worker processes through
-``python3 -m kitgen`` (as the web page runs it), and each good kit is built
-again alone by ``kitgen build`` from its merged recipe, written out here.
+row), and one roster row has a latitude of 91.  It is built twice through
+``python3 -m kitgen batch`` (as a user or the web page runs it), with one
+worker and with two, and each good kit is built again alone by
+``kitgen build`` from its merged recipe, written out here.
 The kits are small (80 mm, six stars) so the file runs in seconds.
 
 References: pypdf (an independent PDF reader) for pages, page sizes and
@@ -86,19 +86,24 @@ def class_set(tmp_path_factory):
     return root
 
 
+def _kitgen(*args, timeout=600):
+    """``python3 -m kitgen ARGS`` in a fresh process, as a user (or the web
+    page) runs it; every build compared here is a process of its own, so
+    no test's leftovers in this one can touch the bytes."""
+    env = dict(os.environ, PYTHONPATH=str(Path(__file__).resolve().parents[1]))
+    return subprocess.run([sys.executable, "-m", "kitgen", *map(str, args)], capture_output=True, text=True,
+                          env=env, timeout=timeout)
+
+
 @pytest.fixture(scope="module")
 def one_worker(class_set):
-    status = main(["batch", str(class_set / "set.yaml"), "-o", str(class_set / "out-1"), "--jobs", "1", "--quiet"])
-    return status, class_set / "out-1"
+    done = _kitgen("batch", class_set / "set.yaml", "-o", class_set / "out-1", "--jobs", "1", "--quiet")
+    return done.returncode, class_set / "out-1"
 
 
 @pytest.fixture(scope="module")
 def two_workers(class_set):
-    env = dict(os.environ, PYTHONPATH=str(Path(__file__).resolve().parents[1]))
-    done = subprocess.run([sys.executable, "-m", "kitgen", "batch", str(class_set / "set.yaml"), "-o",
-                           str(class_set / "out-2"), "--jobs", "2"], capture_output=True, text=True, env=env,
-                          timeout=600)
-    return done, class_set / "out-2"
+    return _kitgen("batch", class_set / "set.yaml", "-o", class_set / "out-2", "--jobs", "2"), class_set / "out-2"
 
 
 def _manifest(folder: Path) -> list[dict]:
@@ -155,17 +160,19 @@ def test_a_bad_row_is_named_and_the_others_are_built(one_worker, two_workers):
 
 
 def test_each_kit_equals_a_single_build_byte_for_byte(one_worker, tmp_path):
+    from concurrent.futures import ThreadPoolExecutor
+
     status, out = one_worker
-    rows = _manifest(out)
-    for row, kit in zip(rows, _expected_kits()):
-        if row["status"] != "ok":
-            continue
-        recipe = tmp_path / f"kit-{row['kit']}.yaml"
-        recipe.write_text(yaml.safe_dump(kit, allow_unicode=True), encoding="utf-8")
-        single = tmp_path / f"kit-{row['kit']}.pdf"
-        assert main(["build", str(recipe), "-o", str(single)]) == 0
-        # Reference: `kitgen build` of the same merged recipe.
-        assert (out / row["file"]).read_bytes() == single.read_bytes(), row["file"]
+    built = [(row, kit) for row, kit in zip(_manifest(out), _expected_kits()) if row["status"] == "ok"]
+    for row, kit in built:
+        (tmp_path / f"kit-{row['kit']}.yaml").write_text(yaml.safe_dump(kit, allow_unicode=True), encoding="utf-8")
+    with ThreadPoolExecutor(2) as pool:   # two `kitgen build` processes at a time
+        done = list(pool.map(lambda r: _kitgen("build", tmp_path / f"kit-{r['kit']}.yaml", "-o",
+                                               tmp_path / f"kit-{r['kit']}.pdf"), [row for row, _ in built]))
+    assert [d.returncode for d in done] == [0] * len(built)
+    for row, _ in built:
+        # Reference: `kitgen build` of the same merged recipe, a process of its own.
+        assert (out / row["file"]).read_bytes() == (tmp_path / f"kit-{row['kit']}.pdf").read_bytes(), row["file"]
 
 
 def test_print_files_hold_every_kits_pages_in_order(one_worker):
@@ -221,10 +228,8 @@ def test_quiet_says_nothing_and_a_rerun_replaces_the_folder(tmp_path):
     (tmp_path / "two.yaml").write_text(yaml.safe_dump({"defaults": DEFAULTS, "kits": [{"owner": "Ivo"},
                                                                                       {"owner": "Uma"}]}))
     out = tmp_path / "out"
-    env = dict(os.environ, PYTHONPATH=str(Path(__file__).resolve().parents[1]))
     for _ in range(2):   # the second run replaces the first one's folder whole
-        done = subprocess.run([sys.executable, "-m", "kitgen", "batch", str(tmp_path / "two.yaml"), "-o", str(out),
-                               "--quiet", "--jobs", "1"], capture_output=True, text=True, env=env, timeout=300)
+        done = _kitgen("batch", tmp_path / "two.yaml", "-o", out, "--quiet", "--jobs", "1")
         assert (done.returncode, done.stderr) == (0, "")
     assert sorted(p.name for p in (out / "kits").iterdir()) == ["001-Ivo.pdf", "002-Uma.pdf"]
     assert not [p for p in tmp_path.iterdir() if p.name.startswith(".")]   # no temporary folder left
