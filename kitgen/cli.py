@@ -158,7 +158,7 @@ def _cmd_build(args) -> int:
 #: Mistakes found only while the kit is laid out, and the recipe key whose
 #: value they are about: the message gets that key's line in the recipe.
 _BUILD_ERROR_KEYS = {"errors.tile_sheet_too_small": "sheet", "errors.duplex_mater": "duplex",
-                     "errors.duplex_parts": "duplex"}
+                     "errors.duplex_parts": "duplex", "errors.accuracy_page_parts": "accuracy_page"}
 
 
 @contextlib.contextmanager
@@ -385,13 +385,17 @@ def _check_target(text):
 def _cmd_check(args) -> int:
     """The accuracy report (kitgen.check) on stdout, in the kit's language."""
     from .check.accuracy import check_kit, diameter_for_target
+    import dataclasses
+
     from .check.report import report_lines
     from .kit import build_from_plan, build_kit
     from .recipe.load import load_recipe
+    from .recipe.schema import PARTS
 
     target = _check_target(args.target)
     path = _recipe_path(args.recipe)
-    recipe = load_recipe(path)
+    # The check is of the whole instrument, whatever parts the recipe prints.
+    recipe = dataclasses.replace(load_recipe(path), parts=PARTS, accuracy_page=False)
     with speaking(recipe.language, recipe.language_file or None), _at_recipe_line(path):
         kit = build_kit(recipe)
         accuracy = check_kit(kit)

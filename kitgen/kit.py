@@ -11,7 +11,8 @@ from __future__ import annotations
 from dataclasses import dataclass, replace
 
 from .check.accuracy import Accuracy, check_kit
-from .errors import Message
+from .check.reading import READING_PARTS
+from .errors import Message, UserError
 from .geometry.model import Part
 from .parts import PART_BUILDERS
 from .parts.context import PartContext
@@ -91,7 +92,12 @@ def build_from_plan(plan: Plan) -> Kit:
     parts = tuple(parts)
     notes += rim_notes(plan)
     kit = Kit(plan, dims, parts, tuple(notes) + shortened_notes(parts, dims, plan.words))
-    return replace(kit, accuracy=check_kit(kit)) if plan.accuracy_page else kit
+    if not plan.accuracy_page:
+        return kit
+    missing = [k for k in READING_PARTS if k not in plan.parts]
+    if missing:
+        raise UserError("errors.accuracy_page_parts", parts=list(READING_PARTS), missing=missing)
+    return replace(kit, accuracy=check_kit(kit))
 
 
 def build_kit(recipe: Recipe) -> Kit:

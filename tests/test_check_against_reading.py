@@ -193,3 +193,23 @@ def test_accuracy_as_a_page_of_the_kit(tmp_path):
               median=w.number(kit.accuracy.sun_exact.median_min, 1)).strip()
     assert exact in found[0]
     assert build_kit(parse_recipe_text(RECIPE)).accuracy is None
+
+
+def test_parts_the_reading_needs(tmp_path, capsys):
+    """kitgen check reads the whole instrument whatever the recipe prints;
+    an accuracy page in a kit without the parts a reading uses is refused
+    in one line naming the key's line (the template's words)."""
+    from kitgen.words.templates import load_words
+
+    recipe = tmp_path / "r.yaml"
+    recipe.write_text(RECIPE + "parts: [plate, rete]\n")
+    assert main(["check", str(recipe)]) == 0
+    capsys.readouterr()
+    recipe.write_text(RECIPE + "parts: [plate, rete]\naccuracy_page: true\n")
+    code = main(["build", str(recipe), "-o", str(tmp_path / "k.pdf")])
+    out, err = capsys.readouterr()
+    w = load_words("en")
+    wanted = w("errors.accuracy_page_parts", parts="plate, rete, mater_front, mater_back",
+               missing="mater_front, mater_back")
+    assert code == 2 and len(err.strip().splitlines()) == 1 and wanted in err and "line 6" in err
+    assert not (tmp_path / "k.pdf").exists()

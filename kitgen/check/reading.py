@@ -23,6 +23,8 @@ from dataclasses import dataclass
 
 #: The scales a reading uses, as ``graduated`` names them.
 CALENDAR, ECLIPTIC, HOURS = "calendar", "ecliptic", "hours"
+#: The parts a reading uses.
+READING_PARTS = ("plate", "rete", "mater_front", "mater_back")
 
 
 def _angle(p) -> float:
