@@ -14,8 +14,9 @@ below them, each centred on its run; where runs are shorter than their
 numbers (near the turn of the year the correction changes by a minute
 every two days) only every other run is numbered, its neighbours' numbers
 being one more and one less.  On a kit too small for the ring and the
-title together, the ring is left out (the instructions carry the table).  The horizontal through the centre
-crosses the ring at the equinoxes; no number stands on it.  Each run is
+title together, the ring is left out (the instructions carry the table).
+The horizontal through the centre crosses the ring at the equinoxes; no
+number stands on it.  Each run is
 also an undrawn arc carrying its dates and minutes, so that the JSON
 says exactly what the ring says.  Lengths in mm, directions in degrees
 counter-clockwise from +x, as on the rest of the back.
@@ -29,12 +30,7 @@ from dataclasses import dataclass
 from ..geometry import model
 from . import curves, labels
 from .context import PartContext
-
-
-#: Shortest tick (mm) between two runs (the kit's legible minimum,
-#: kitgen.parts.dimensions.MIN_TICK_MM).
-MIN_RUN_TICK_MM = 0.8
-
+from .dimensions import MIN_TICK_MM
 
 #: The top of the title's room on the back, as a share of the radius it
 #: is fitted in (kitgen.parts.mater_back: centre 0.47, height 0.22).
@@ -52,7 +48,7 @@ def _direction_deg(longitude_deg: float) -> float:
     return 180.0 - longitude_deg
 
 
-def runs(calendar, correction):
+def runs(correction):
     """[(first index, last index, minutes)]: the days of the year in runs of
     the same whole-minute correction, in date order, a run over the turn of
     the year kept whole (its first index then beyond its last)."""
@@ -69,7 +65,7 @@ def _numbers(w, numbers, r_text: float, size_pt: float):
     """The runs' numbers under their ticks: the longest runs first, each
     where it keeps a margin from the numbers already placed and off the
     horizontal; a run too short keeps its number only when its neighbours
-    leave room (so at worst every other run of a fast-changing season is
+    leave room (so in a fast-changing season about every other run is
     numbered, its neighbours one more and one less)."""
     placed, out = [], []
     for span, mid, minutes, month, day in sorted(numbers, key=lambda x: -x[0]):
@@ -111,7 +107,7 @@ def clock_scale(ctx: PartContext, r_outer_mm: float) -> ClockScale:
     almanac = ctx.plan.almanac
     size = d.small_text_pt
     h = w.measure(w.number(0) + w.number(8), size).height_mm
-    tick = max(MIN_RUN_TICK_MM, 0.8 * d.tick_mm)
+    tick = max(MIN_TICK_MM, 0.8 * d.tick_mm)
     r1 = r_outer_mm - labels.MARGIN_MM
     r0 = r1 - tick - h - 3 * labels.MARGIN_MM
     r_text = r0 + labels.MARGIN_MM + h / 2
@@ -128,7 +124,7 @@ def clock_scale(ctx: PartContext, r_outer_mm: float) -> ClockScale:
     els = [model.circle("clock_edge", (0.0, 0.0), r0, "light"),
            model.circle("clock_edge", (0.0, 0.0), r1, "light")]
     numbers = []
-    for first, last, minutes in runs(cal, almanac.clock_correction):
+    for first, last, minutes in runs(almanac.clock_correction):
         start, end = edge_deg(first), edge_deg((last + 1) % n)
         span = (start - end) % 360.0 or 360.0
         (m0, d0, _), (m1, d1, _) = cal[first], cal[last]
