@@ -79,6 +79,9 @@ def text_box(el, words, style: str = "label") -> Box:
 
 def boxes_overlap(a: Box, b: Box) -> bool:
     """Whether two boxes overlap (separating-axis test for convex polygons)."""
+    if a.angle_rad == 0.0 and b.angle_rad == 0.0:   # both upright: their sides are the axes
+        return (abs(a.center[0] - b.center[0]) < a.half_w + b.half_w
+                and abs(a.center[1] - b.center[1]) < a.half_h + b.half_h)
     pa, pb = a.corners(), b.corners()
     for angle in (a.angle_rad, a.angle_rad + math.pi / 2, b.angle_rad, b.angle_rad + math.pi / 2):
         ux, uy = math.cos(angle), math.sin(angle)
@@ -271,6 +274,9 @@ def _lerp(p, q, t):
 
 
 def _break_polyline(el, boxes) -> list:
+    """A polyline through exact points keeps exact points: a segment that
+    runs through a box is left out whole (the points are a fraction of a
+    millimetre apart, so the gap grows by at most that)."""
     pts = list(el.geom["points"])
     if el.geom["closed"]:
         pts.append(pts[0])
@@ -281,27 +287,20 @@ def _break_polyline(el, boxes) -> list:
     near = (lo[:, 0:1] - rr <= cx) & (cx <= hi[:, 0:1] + rr) & (lo[:, 1:2] - rr <= cy) & (cy <= hi[:, 1:2] + rr)
     runs, run = [], []
     for i, (p, q) in enumerate(zip(pts, pts[1:])):
+        if any(segment_inside(p, q, boxes[j]) is not None for j in np.nonzero(near[i])[0]):
+            if run:
+                runs.append(run)
+            run = []
+            continue
         if not run:
             run = [p]
-        cuts = [t for t in (segment_inside(p, q, boxes[j]) for j in np.nonzero(near[i])[0]) if t is not None]
-        if not cuts:
-            run.append(q)
-            continue
-        keep = _complement(cuts, 0.0, 1.0)
-        for a, b in keep:
-            if a > 0.0:          # a gap before this piece: the run ends
-                runs.append(run)
-                run = [_lerp(p, q, a)]
-            run.append(_lerp(p, q, b))
-        if not keep or keep[-1][1] < 1.0:   # a gap at the segment's end
-            runs.append(run)
-            run = []
-    runs.append(run)
+        run.append(q)
+    if run:
+        runs.append(run)
     out = []
     for r in runs:
-        clean = [p for i, p in enumerate(r) if i == 0 or p != r[i - 1]]
-        if len(clean) >= 2 and sum(math.dist(a, b) for a, b in zip(clean, clean[1:])) >= MIN_PIECE_MM:
-            out.append(model.polyline(el.role, clean, False, el.stroke, **el.values))
+        if len(r) >= 2 and sum(math.dist(a, b) for a, b in zip(r, r[1:])) >= MIN_PIECE_MM:
+            out.append(model.polyline(el.role, r, False, el.stroke, **el.values))
     return out
 
 

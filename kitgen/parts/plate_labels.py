@@ -38,6 +38,8 @@ STROKE_SHAPES = ("circle", "arc", "segment", "polyline")
 LABEL_GAP_MM = 0.4
 #: How far (mm, along its curve) a number may slide from where it belongs.
 SLIDE_MM = 12.0
+#: A name that breaks this many lines or fewer takes the first such place.
+GOOD_ENOUGH = 1
 #: Step (mm) between the places tried.
 STEP_MM = 0.25
 
@@ -134,15 +136,13 @@ def around(point, step_mm: float, reach_mm: float, prefer=(0.0, 0.0)):
     ``reach_mm``, nearest first; at equal distance those towards the unit
     direction ``prefer`` first."""
     n = int(reach_mm / step_mm)
-    out = []
-    for i in range(-n, n + 1):
-        for j in range(-n, n + 1):
-            dx, dy = i * step_mm, j * step_mm
-            d = math.hypot(dx, dy)
-            if d <= reach_mm:
-                out.append((round(d / step_mm), -(dx * prefer[0] + dy * prefer[1]), point[0] + dx, point[1] + dy))
-    out.sort()
-    return [(x, y) for _, _, x, y in out]
+    i, j = np.meshgrid(np.arange(-n, n + 1), np.arange(-n, n + 1))
+    dx, dy = (i * step_mm).ravel(), (j * step_mm).ravel()
+    d = np.hypot(dx, dy)
+    keep = d <= reach_mm
+    dx, dy, d = dx[keep], dy[keep], d[keep]
+    order = np.lexsort((-(dx * prefer[0] + dy * prefer[1]), np.round(d / step_mm)))
+    return [(point[0] + float(dx[k]), point[1] + float(dy[k])) for k in order]
 
 
 class PlateLabeller:
@@ -202,7 +202,7 @@ class PlateLabeller:
         size = d.text_pt
         h = self.w.measure(text, size).height_mm
         protected = self.reference + self.role("equator", "horizon")
-        for c in around(p0 + prefer * h, STEP_MM, max(4 * h, 6.0), prefer):
+        for c in around(p0 + prefer * h, max(STEP_MM, h / 8), max(4 * h, 6.0), prefer):
             b = self.box(c[0], c[1], text, size)
             if self.room.free(b, protected):
                 return self.put("cardinal", b, text, size, azimuth_deg=az_deg)
@@ -336,7 +336,8 @@ class PlateLabeller:
         best = None
         for offset in (0.0, -aside, aside, -aside - bulge, aside + bulge):
             for el in els:
-                for c in points_along(el, _midpoint(el), step_mm=1.0, reach_mm=4 * self.room.disc):
+                for c in points_along(el, _midpoint(el), step_mm=max(2.0, ext.height_mm / 2),
+                                      reach_mm=4 * self.room.disc):
                     a = c[2]
                     x, y = c[0] - math.sin(a) * offset, c[1] + math.cos(a) * offset
                     b = self.box(x, y, text, size, upright(a))
@@ -346,9 +347,9 @@ class PlateLabeller:
                     cost = sum(1 for e in others if meets(e, g))
                     if best is None or cost < best[0]:
                         best = (cost, b)
-                    if cost == 0:
+                    if cost <= GOOD_ENOUGH:
                         break
-                if best is not None and best[0] == 0:
+                if best is not None and best[0] <= GOOD_ENOUGH:
                     break
             if best is not None:
                 break
