@@ -421,7 +421,9 @@ def test_a_custom_sheet_is_named_once_in_english(tmp_path, capsys):
                       "diameter_mm: 300\n", encoding="utf-8")
     code, line = _cli_line(["build", recipe, "-o", tmp_path / "k.pdf"], capsys)
     assert code == EXIT_USER
-    assert line == en["errors.report"].format(message=en["errors.duplex_mater"].format(sheet=custom))
+    # the recipe's line of 'duplex' leads (#11)
+    assert line == en["errors.report"].format(message=en["errors.key_problem"].format(
+        label=en["errors.at_line"].format(source=recipe, line=3), problem=en["errors.duplex_mater"].format(sheet=custom)))
     assert "one 250 x 350 mm page" in line and "sheet sheet" not in line and "sheet page" not in line
     # ISO 216: A5 is 148 mm across, so margins of 30 mm leave 88 mm.
     from kitgen.paper import MIN_USABLE_MM
