@@ -264,6 +264,24 @@ def test_no_character_on_the_plate_is_crossed_by_a_line(lat):
         assert not crossings(part, kit), (lat, crossings(part, kit)[:5])
 
 
+#: The shipped languages (templates/*.yaml).
+LANGUAGES = ("en", "es", "fr", "de", "pt", "it", "el", "ru", "ar", "hi")
+
+
+@pytest.mark.parametrize("language, lat", zip(LANGUAGES, (-33.9, 0.5, 48.9, 52.2, 38.7, 41.9, 37.98, 64.0, -0.5, 23.4)))
+def test_every_language_numbers_and_names_its_plate_clear_of_the_lines(language, lat):
+    kit = kit_of(latitude=lat, language=language)
+    part = plates(kit)[0]
+    assert not crossings(part, kit), (language, crossings(part, kit)[:5])
+    check_tens_numbered(kit)
+    w = kit.words
+    names = {e.geom["text"] for e in part.with_role("curve_label")}
+    # the templates' own words for the lines drawn on this plate
+    assert {w("plate.line_horizon"), w("plate.line_equator")} <= names, (language, names)
+    assert {e.geom["text"] for e in part.with_role("cardinal")} <= {w(f"cardinal.{k}")
+                                                                   for k in ("north", "east", "south", "west")}
+
+
 @settings(max_examples=12, deadline=None, suppress_health_check=[HealthCheck.too_slow])
 @given(lat=st.floats(-90.0, 90.0), diameter=st.floats(80.0, 600.0),
        language=st.sampled_from(["en", "ar", "hi", "el", "ru", "de"]),
