@@ -225,3 +225,31 @@ def element_box_mm(el, words, style: str = "label"):
     pts = text_corners_mm(el.geom["at"], ext.width_mm, ext.height_mm, el.geom["angle_deg"], el.geom["anchor"])
     xs, ys = [p[0] for p in pts], [p[1] for p in pts]
     return (min(xs), min(ys), max(xs), max(ys))
+
+
+def owner_near(owner: str, lines, others, disc_mm: float, size_pt: float, words, keep_out=()):
+    """The owner's name (#9) set as one more line under the label ``lines``
+    (or over them, or mirrored across the meridian), left-aligned with
+    them, at the first of these places that stays inside ``disc_mm`` and
+    keeps :data:`MARGIN_MM` from the boxes of the text elements
+    ``others`` and the boxes ``keep_out``; no element where none does (or
+    without an owner)."""
+    if not owner or not lines:
+        return []
+    m = MARGIN_MM
+    ext = words.measure(owner, size_pt)
+    taken = [element_box_mm(e, words) for e in others] + list(keep_out)
+    top = max(element_box_mm(e, words)[3] for e in lines)
+    bottom = min(element_box_mm(e, words)[1] for e in lines)
+    x = lines[0].geom["at"][0]
+    for y in (bottom - m - ext.height_mm / 2, top + m + ext.height_mm / 2):
+        for at, anchor in (((x, y), "start"), ((-x, y), "end")):
+            box = text_box_mm(at, owner, size_pt, anchor, words.measure)
+            grown = (box[0] - m, box[1] - m, box[2] + m, box[3] + m)
+            corners = [(box[i], box[j]) for i in (0, 2) for j in (1, 3)]
+            if max((cx * cx + cy * cy) ** 0.5 for cx, cy in corners) > disc_mm - m:
+                continue
+            if any(_overlap(grown, t) for t in taken):
+                continue
+            return [model.text("owner", at, owner, size_pt, 0.0, anchor)]
+    return []
