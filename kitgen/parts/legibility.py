@@ -17,8 +17,10 @@ silently unreadable.  The rule, in one number:
 
 Numbers are thinned the same way: a number that would touch its neighbour
 or sit on the lines (at least :data:`MIN_LABEL_GAP_MM` between their boxes)
-is left out: the almucantars' from the first whose band is too narrow, the
-shadow square's where they would meet.  A label that the fitting rule of
+is left out: the almucantars' fives from the first whose neighbours on the
+meridian leave no room (their tens are numbered on every plate, see
+:mod:`kitgen.parts.plate_labels`), the shadow square's where they would
+meet.  A label that the fitting rule of
 :mod:`kitgen.words.fit` still has to cut short with "..." at the minimum
 size is named in a note too (:func:`shortened_notes`).
 

@@ -10,7 +10,7 @@ horizon on their own line continued (at the rim where the horizon point is
 outside the drawing); the cardinal letters stand beside the horizon's
 points, clear of the pin, the meridian, the east-west line, the equator
 and the horizon; unequal hours are numbered between their lines; horizon,
-equator, tropics and twilight line are named along the curve (common
+equator, tropics and twilight lines are named along the curve (common
 practice on printed astrolabe plates).
 
 Every label is measured with the shipped fonts (``Words.measure``) and
@@ -34,7 +34,8 @@ from .breaks import Box, boxes_overlap, meets
 from .labels import MARGIN_MM
 
 STROKE_SHAPES = ("circle", "arc", "segment", "polyline")
-#: Clear paper (mm) kept between two labels.
+#: Clear paper (mm) kept between two labels (as between the shadow
+#: square's numbers, kitgen.parts.legibility.MIN_LABEL_GAP_MM).
 LABEL_GAP_MM = 0.4
 #: How far (mm, along its curve) a number may slide from where it belongs.
 SLIDE_MM = 12.0
@@ -56,7 +57,7 @@ class Room:
         return all(math.hypot(x, y) <= self.disc for x, y in box.corners())
 
     def clear_of_labels(self, box: Box) -> bool:
-        g = box.grown(LABEL_GAP_MM / 2)
+        g = box.grown(LABEL_GAP_MM)   # the whole gap on the new box's side
         for t in self.taken:
             if math.dist(g.center, t.center) < g.radius + t.radius and boxes_overlap(g, t):
                 return False
@@ -75,8 +76,7 @@ class Room:
 
 def upright(angle_rad: float) -> float:
     """A text direction turned so that the text reads from below or the right."""
-    a = (angle_rad + math.pi / 2) % math.pi - math.pi / 2
-    return a
+    return (angle_rad + math.pi / 2) % math.pi - math.pi / 2
 
 
 def points_along(el, near, step_mm: float = STEP_MM, reach_mm: float = SLIDE_MM):
@@ -175,11 +175,10 @@ class PlateLabeller:
         self.out.append(el)
         return el
 
-    def first_free(self, candidates, text, size_pt, protected, along=False):
-        """The first free box among the candidate points."""
+    def first_free(self, candidates, text, size_pt, protected):
+        """The first free upright box centred on one of the candidate points."""
         for c in candidates:
-            angle = upright(c[2]) if along else 0.0
-            b = self.box(c[0], c[1], text, size_pt, angle)
+            b = self.box(c[0], c[1], text, size_pt)
             if self.room.free(b, protected):
                 return b
         return None
