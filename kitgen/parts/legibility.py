@@ -361,25 +361,34 @@ def ecliptic_band_mm(radius_mm: float, dims, words) -> float:
 
 
 def ecliptic_numbers(sky, s, R, dims, words) -> tuple[int, ...]:
-    """Rete: the longitudes numbered, 10 and 20 of each sign, each whose
-    number (measured) keeps :data:`MIN_LABEL_GAP_MM` from the ticks of
-    the sign's bounds and from the other number, 10 degrees away on
-    either side, where the projection crowds the ecliptic least near the
-    pin (measured along the chord at the row of numbers)."""
+    """Rete: the longitudes numbered, 10 and 20 of each sign: each whose
+    number (measured) keeps :data:`MIN_LABEL_GAP_MM` from the tick of its
+    sign's bound 10 degrees away, and both where they keep it from each
+    other too, else the 10 alone; so where the projection crowds the
+    ecliptic near the pin a sign may carry one number or none (distances
+    along the chord at the row of numbers)."""
     from_pole = project_circle(_ecliptic_pole(sky.obliquity_rad), math.pi / 2, s, R)
     c, r = np.asarray(from_pole.center_mm), from_pole.radius_mm
     band = ecliptic_band_mm(r, dims, words)
     lift, h = number_row(words, dims.small_text_pt, band)
     shrink = (r - lift - h / 2) / r
+    bound = stroke_width_mm("medium", dims) / 2 + MIN_LABEL_GAP_MM
+
+    def at_row(lons):
+        pts = ecliptic_points_mm(np.asarray(lons, dtype=float), sky.obliquity_rad, s, R)
+        return c + (pts - c) * shrink
+
+    half = {n: words.measure(words.number(n), dims.small_text_pt).width_mm / 2 for n in SIGN_NUMBERS_DEG}
     out = []
-    for lon in range(360):
-        if lon % 30 not in SIGN_NUMBERS_DEG:
-            continue
-        me, before, after = ecliptic_points_mm(np.array([lon, lon - 10.0, lon + 10.0]), sky.obliquity_rad, s, R)
-        width = words.measure(words.number(lon % 30), dims.small_text_pt).width_mm
-        room = min(np.hypot(*(me - before)), np.hypot(*(me - after))) * shrink
-        if room >= width + MIN_LABEL_GAP_MM:
-            out.append(lon)
+    for start in range(0, 360, 30):
+        first, ten, twenty, last = at_row([start, start + 10, start + 20, start + 30])
+        fits_ten = np.hypot(*(ten - first)) >= half[10] + bound
+        fits_twenty = np.hypot(*(last - twenty)) >= half[20] + bound
+        apart = np.hypot(*(twenty - ten)) >= half[10] + half[20] + MIN_LABEL_GAP_MM
+        if fits_ten:
+            out.append(start + 10)
+        if fits_twenty and (apart or not fits_ten):
+            out.append(start + 20)
     return tuple(out)
 
 
