@@ -11,7 +11,8 @@ References:
   (90 deg - |phi|) -+ (90 deg - a) towards the noon side, give its exact
   image circle: the diameter between them.
 * Meeus, *Astronomical Algorithms* (2nd ed. 1998), eq. 15.1: the
-  semi-diurnal arc cos H0 = -tan(phi) tan(d), for the unequal hours.
+  semi-diurnal arc cos H0 = -tan(phi) tan(d), for the unequal hours; eq.
+  13.5 (equatorial to horizontal coordinates), for the azimuths.
 * The ink boxes of the words are measured with the shipped fonts by the
   kit's own ``Words`` (fontTools advances, HarfBuzz for shaped scripts),
   the measure the PDF sets them with; the lines are sampled every 0.02 mm,
@@ -217,21 +218,59 @@ def test_the_default_plate_names_its_lines_and_numbers_its_hours_and_azimuths():
     assert names == {w("plate.line_horizon"), w("plate.line_equator"), w("plate.line_tropic_cancer"),
                      w("plate.line_tropic_capricorn")} | twilight
     assert {e.values["azimuth_deg"] % 30 for e in part.with_role("azimuth_label")} == {0.0, 15.0}
+    assert sorted(e.values["hour"] for e in part.with_role("unequal_hour_label")) == list(range(1, 13))
+
+
+def sky_vector(xy, lat_deg: float, R: float):
+    """The direction of the sky (equatorial frame of the place: x to hour
+    angle +90 deg, y to the upper meridian, z to the north pole) at a point
+    of a plate: Snyder's inverse stereographic projection (USGS PP 1395,
+    eq. 21-37, in vector form), seen from the north pole for a northern
+    plate and from the south pole (x and z mirrored) for a southern one."""
+    x, y = xy
+    q = (x * x + y * y) / R / R
+    v = np.array([2 * x / R, 2 * y / R, 1 - q]) / (1 + q)
+    return v * (np.array([1.0, 1.0, 1.0]) if lat_deg >= 0 else np.array([-1.0, 1.0, -1.0]))
+
+
+@pytest.mark.parametrize("lat", [52.2, -33.9, 0.5, 12.0, -45.0, 64.0])
+def test_unequal_hours_numbered_between_their_lines(lat):
+    # Meeus eq. 15.1: hour k lies between lines k - 1 and k, that is
+    # between (k - 1)/12 and k/12 of the way along the night arc of the
+    # declination where its number stands.
+    kit = kit_of(latitude=lat)
+    part = plates(kit)[0]
+    phi, R = math.radians(lat), kit.dims.equator_radius_mm
     hours = part.with_role("unequal_hour_label")
     assert sorted(e.values["hour"] for e in hours) == list(range(1, 13))
-    # Meeus eq. 15.1: hour k lies between lines k - 1 and k, k/12 of the
-    # way along the night arc of its declination.
-    phi = math.radians(52.2)
-    R = kit.dims.equator_radius_mm
     for e in hours:
-        x, y = e.geom["at"]
-        q = (x * x + y * y) / R / R
-        v = np.array([2 * x / R, 2 * y / R, 1 - q]) / (1 + q)   # Snyder eq. 21-37 (northern view)
+        v = sky_vector(e.geom["at"], lat, R)
         dec = math.asin(v[2])
-        ha = math.atan2(v[0], v[1]) % (2 * math.pi)              # x towards hour angle +90 deg
+        ha = math.atan2(v[0], v[1]) % (2 * math.pi)
         h0 = math.acos(-math.tan(phi) * math.tan(dec))
         share = (ha - h0) / (2 * math.pi - 2 * h0) * 12
-        assert e.values["hour"] - 1 < share < e.values["hour"], (e.values["hour"], share)
+        assert e.values["hour"] - 1 < share < e.values["hour"], (lat, e.values["hour"], share)
+
+
+@pytest.mark.parametrize("lat", [52.2, -33.9, 0.5, 23.44, -64.0, 75.0])
+def test_azimuth_numbers_stand_on_their_azimuth(lat):
+    # The number's centre is on its vertical circle (continued below the
+    # horizon, or where the line ends at the rim): its azimuth, from
+    # Snyder's inverse projection and the rotation to the horizon (Meeus
+    # eq. 13.5, in vector form: zenith (0, cos phi, sin phi), north point
+    # (0, -sin phi, cos phi), east -x), is the one it prints.
+    kit = kit_of(latitude=lat)
+    part = plates(kit)[0]
+    phi, R = math.radians(lat), kit.dims.equator_radius_mm
+    labels = part.with_role("azimuth_label")
+    assert len(labels) >= 4
+    north = np.array([0.0, -math.sin(phi), math.cos(phi)])
+    for e in labels:
+        v = sky_vector(e.geom["at"], lat, R)
+        az = math.degrees(math.atan2(-v[0], v @ north)) % 360.0
+        off = (az - e.values["azimuth_deg"] + 180.0) % 360.0 - 180.0
+        assert abs(off) < 1e-3, (lat, e.values["azimuth_deg"], az)
+        assert e.geom["text"] == kit.words.number(e.values["azimuth_deg"])
 
 
 @pytest.mark.parametrize("lat", [0.0, 0.5, -33.9, 52.2, 90.0])
