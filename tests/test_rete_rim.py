@@ -104,6 +104,8 @@ def test_rim_of_rete_and_plate_follow_snyder(text, limit):
     # Snyder 1987, eq. 21-33: rho = R tan(pi/4 - sign delta / 2)
     expected = R * math.tan(math.pi / 4 - sign * math.radians(rim_deg) / 2)
     assert rim_circle_mm(rete) == pytest.approx(expected, abs=1e-6)
+    (rim,) = [e for e in rete.elements if e.role == "rim"]
+    assert rim.values["declination_deg"] == rim_deg
     # the plate is drawn out to the same rim, and no farther
     assert plate_reach_mm(plate) == pytest.approx(expected, abs=1e-6)
 

@@ -32,10 +32,12 @@ def rete(ctx: PartContext) -> model.Part:
     d, w = ctx.dims, ctx.words
     R = d.equator_radius_mm
     eps = ctx.sky.obliquity_rad
-    # The film is cut at the plate's edge, a little outside the outer tropic
-    # that bounds the drawing, so the ecliptic never runs into the cut line.
+    # The film is cut at the plate's edge, a little outside the rim (the
+    # outer tropic or beyond, kitgen.sky.rete_rim) that bounds the drawing,
+    # so the ecliptic never runs into the cut line.
     els: list[model.Element] = [model.circle("cut", (0.0, 0.0), d.plate_radius_mm, "cut"),
-                                model.circle("rim", (0.0, 0.0), d.outer_tropic_radius_mm, "fine")]
+                                model.circle("rim", (0.0, 0.0), d.outer_tropic_radius_mm, "fine",
+                                             declination_deg=ctx.sky.rim_deg)]
 
     ecl_pole = equatorial_vector(-math.radians(270.0), math.pi / 2 - eps)
     image = project_circle(ecl_pole, math.pi / 2, s, R)
