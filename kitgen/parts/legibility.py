@@ -238,10 +238,12 @@ def plan_scales(plan, plate, dims) -> Scales:
         fives = [float(a) for a in np.arange(5.0, 90.0 - 1e-9, 10.0)
                  if _meridian_room_mm(float(a), step, phi, s, R, disc - dims.tick_mm) is not None]
         kept = [a for a in labels if a in fives]
-        if len(kept) < len(fives):
+        if kept and len(kept) < len(fives):
             notes.append(Message("notes.almucantar_numbers", part=plate_part, fine=Number(5),
-                                 highest=Number(kept[-1] if kept else 0.0), coarse=Number(every),
-                                 diameter=size))
+                                 highest=Number(kept[-1]), coarse=Number(every), diameter=size))
+        elif fives and not kept:
+            notes.append(Message("notes.almucantar_numbers_coarse", part=plate_part, fine=Number(5),
+                                 coarse=Number(every), diameter=size))
 
     # Azimuths: end on the almucantar 90 - max(10, step); coarser if they crowd there.
     top = 90.0 - max(10.0, step)
