@@ -31,7 +31,7 @@ from kitgen.web.app import create_app
 from .web_support import A4_PT, check_kit_pdf, running_server
 
 webdriver = pytest.importorskip("selenium.webdriver", reason="selenium is in the test extras")
-from selenium.common.exceptions import TimeoutException  # noqa: E402
+from selenium.common.exceptions import StaleElementReferenceException  # noqa: E402
 from selenium.webdriver.chrome.service import Service  # noqa: E402
 from selenium.webdriver.common.by import By  # noqa: E402
 from selenium.webdriver.common.keys import Keys  # noqa: E402
@@ -101,7 +101,10 @@ def site():
 
 
 def wait(driver, condition, timeout=WAIT_S):
-    return WebDriverWait(driver, timeout, poll_frequency=0.05).until(lambda d: condition(d))
+    """``condition`` once it holds; an element of the page being replaced
+    (a form posted without JavaScript) is looked for again."""
+    return WebDriverWait(driver, timeout, poll_frequency=0.05,
+                         ignored_exceptions=(StaleElementReferenceException,)).until(lambda d: condition(d))
 
 
 def updates(driver) -> int:

@@ -204,9 +204,6 @@
   function setupSet() {
     const box = document.getElementById("set-status");
     if (!box || box.dataset.state !== "running") { return; }
-    // The page's own refresh (for a browser without JavaScript) is not needed.
-    const refresh = document.querySelector("meta[http-equiv='refresh']");
-    if (refresh) { refresh.remove(); }
     const bar = document.getElementById("set-progress");
     const text = document.getElementById("set-text");
     const link = document.getElementById("set-download");
