@@ -324,5 +324,11 @@ def test_the_form_works_without_javascript(tmp_path_factory, downloads, site):
         before = {p.name for p in downloads.iterdir()}
         driver.find_element(By.ID, "download-pdf").click()
         check_kit_pdf(downloaded(downloads, ".pdf", before).read_bytes(), A4_PT)
+        if sets.batch_available():  # the set's page refreshes itself until the set is ready
+            roster = tmp_path_factory.mktemp("roster") / "class.csv"
+            roster.write_text("owner\nDana\n", encoding="utf-8")
+            driver.find_element(By.ID, "f-roster").send_keys(str(roster))
+            driver.find_element(By.ID, "build-set").click()
+            wait(driver, lambda d: d.find_element(By.ID, "set-download").is_displayed(), 120)
     finally:
         driver.quit()
