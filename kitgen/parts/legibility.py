@@ -47,7 +47,7 @@ from ..projection.stereographic import equatorial_vector, horizontal_vector, pro
 from ..geometry.style import stroke_width_mm
 from .ecliptic_points import ecliptic_points_mm
 from .labels import text_box_mm
-from .ring_numbers import SIGN_NUMBERS_DEG, number_row, ring_needed_mm
+from .ring_numbers import SIGN_NUMBERS_DEG, number_row, numbers_gap_mm, ring_needed_mm
 from .shadow_square import LABELLED_RATIOS, decimals, shadow_mark, shadow_side_mm
 
 MIN_CLEAR_GAP_MM = 0.4
@@ -365,8 +365,9 @@ def ecliptic_band_mm(radius_mm: float, dims, words) -> float:
 def ecliptic_numbers(sky, s, R, dims, words) -> tuple[int, ...]:
     """Rete: the longitudes numbered, 10 and 20 of each sign: each whose
     number (measured) keeps :data:`MIN_LABEL_GAP_MM` from the tick of its
-    sign's bound 10 degrees away, and both where they keep it from each
-    other too, else the 10 alone; so where the projection crowds the
+    sign's bound 10 degrees away, and both where they keep a digit's width
+    from each other too (kitgen.parts.ring_numbers.numbers_gap_mm), else
+    the 10 alone; so where the projection crowds the
     ecliptic near the pin a sign may carry one number or none (distances
     along the chord at the row of numbers)."""
     from_pole = project_circle(_ecliptic_pole(sky.obliquity_rad), math.pi / 2, s, R)
@@ -386,7 +387,7 @@ def ecliptic_numbers(sky, s, R, dims, words) -> tuple[int, ...]:
         first, ten, twenty, last = at_row([start, start + 10, start + 20, start + 30])
         fits_ten = np.hypot(*(ten - first)) >= half[10] + bound
         fits_twenty = np.hypot(*(last - twenty)) >= half[20] + bound
-        apart = np.hypot(*(twenty - ten)) >= half[10] + half[20] + MIN_LABEL_GAP_MM
+        apart = np.hypot(*(twenty - ten)) >= half[10] + half[20] + numbers_gap_mm(words, dims.small_text_pt)
         if fits_ten:
             out.append(start + 10)
         if fits_twenty and (apart or not fits_ten):

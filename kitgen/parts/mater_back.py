@@ -17,7 +17,8 @@ import math
 
 from ..geometry import model
 from . import curves, labels
-from .ring_numbers import NUMBERED_TICK, SHORT_TICK, SIGN_NUMBERS_DEG, names_from_edge_mm, number_row
+from .ring_numbers import (NUMBERED_TICK, SHORT_TICK, SIGN_NUMBERS_DEG, names_from_edge_mm, number_row,
+                           numbers_gap_mm)
 from .clock_scale import clock_scale
 from .context import PartContext
 from .mater_front import hang_hole
@@ -161,7 +162,7 @@ def _calendar_scale(ctx, r0, r1):
     r_num = r1 - lift - h / 2
     widest = max(w.measure(w.number(n), d.small_text_pt).width_mm for n in (5, 10, 15, 20, 25))
     numbered = numbered_days({(m, dd): lon for m, dd, lon in ctx.sky.calendar}, r_num, widest,
-                             2 * labels.MARGIN_MM)
+                             numbers_gap_mm(w, d.small_text_pt))
     for month, day, lon in ctx.sky.calendar:
         if day in numbered:
             out.append(curves.ring_text("day_label", w.number(day), longitude_direction_deg(lon), r_num,

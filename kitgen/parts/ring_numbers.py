@@ -28,6 +28,13 @@ def digits_height_mm(words, size_pt: float) -> float:
     return words.measure("".join(words.number(k) for k in range(10)), size_pt).height_mm
 
 
+def numbers_gap_mm(words, size_pt: float) -> float:
+    """The least clear paper (mm) between two numbers of one row: a digit's
+    width, so that two neighbours never read as one number (10 and 20 as
+    "1020"; common practice on printed scales)."""
+    return words.measure(words.number(0), size_pt).width_mm
+
+
 def number_row(words, size_pt: float, ring_mm: float) -> tuple[float, float]:
     """(from_edge_mm, height_mm): how far from the ticks' edge a ring's row
     of numbers begins (the numbered ticks' tips and the labels' margin),
