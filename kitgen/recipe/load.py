@@ -248,7 +248,7 @@ def recipe_language(tree: dict, source=RECIPE) -> tuple[str | None, str | None]:
 
 def load_language_file(path) -> dict:
     """Read and check a language file; every problem is one
-    :class:`UserError` line (the missing keys all listed).  The file is
+    :class:`UserError` line (the first missing keys, then how many more).  The file is
     read as a recipe is (a bounded read, so /dev/zero cannot fill the
     memory; anchors, tags, merge keys and deep nesting refused before YAML's
     safe loader builds anything), so no code runs and nothing is fetched."""
