@@ -31,6 +31,7 @@ from hypothesis import strategies as st
 from kitgen.geometry.style import dot_radius_mm, pin_cross_half_mm, stroke_width_mm
 from kitgen.kit import build_kit
 from kitgen.recipe.load import validate_recipe
+from kitgen.recipe.schema import SHEETS
 from kitgen.words.measure import text_corners_mm
 
 EPOCH = 2027
@@ -322,16 +323,17 @@ def test_every_language_numbers_and_names_its_plate_clear_of_the_lines(language,
 
 
 @settings(max_examples=12, deadline=None, suppress_health_check=[HealthCheck.too_slow])
-@given(lat=st.floats(-90.0, 90.0), diameter=st.floats(80.0, 600.0),
-       language=st.sampled_from(["en", "ar", "hi", "el", "ru", "de"]),
-       step=st.sampled_from([2.0, 5.0, 10.0]))
-@example(lat=52.2, diameter=80.0, language="hi", step=5.0)
-@example(lat=-33.9, diameter=600.0, language="ar", step=2.0)
-@example(lat=0.5, diameter=120.0, language="en", step=5.0)
-@example(lat=88.0, diameter=80.0, language="en", step=2.0).via("80 deg round the pin, found by hypothesis")
-@example(lat=78.0, diameter=81.0, language="en", step=2.0).via("found by hypothesis")
-def test_no_character_crossed_at_any_size_or_language(lat, diameter, language, step):
-    kit = kit_of(latitude=lat, diameter_mm=diameter, language=language, altitude_step_deg=step)
+@given(lat=st.floats(-90.0, 90.0), diameter=st.one_of(st.none(), st.floats(80.0, 600.0)),
+       language=st.sampled_from(LANGUAGES), step=st.sampled_from([2.0, 5.0, 10.0]),
+       sheet=st.sampled_from(SHEETS))
+@example(lat=52.2, diameter=80.0, language="hi", step=5.0, sheet="a5")
+@example(lat=-33.9, diameter=600.0, language="ar", step=2.0, sheet="a4")
+@example(lat=0.5, diameter=120.0, language="en", step=5.0, sheet="letter")
+@example(lat=88.0, diameter=80.0, language="en", step=2.0, sheet="a4").via("80 deg round the pin, found by hypothesis")
+@example(lat=78.0, diameter=81.0, language="en", step=2.0, sheet="a4").via("found by hypothesis")
+def test_no_character_crossed_at_any_size_or_language(lat, diameter, language, step, sheet):
+    size = {} if diameter is None else {"diameter_mm": diameter}   # None: the sheet's own size
+    kit = kit_of(latitude=lat, language=language, altitude_step_deg=step, sheet=sheet, **size)
     part = plates(kit)[0]
     assert not crossings(part, kit), (lat, diameter, language, crossings(part, kit)[:5])
     check_tens_numbered(kit)
