@@ -174,7 +174,8 @@ def test_named_star_outside_the_rete_is_refused():
     assert outside(("Sirius", "Acrux"), 2026, fits) == ["Acrux"]
     # A northern rete reaches down to about -21.4 deg (the Tropic of
     # Capricorn less the rim's margin), so the recipe refuses Acrux there.
-    with pytest.raises(UserError, match=r"^recipe, line 2: 'stars': star 'Acrux' is outside the rete for this latitude$"):
+    with pytest.raises(UserError, match=r"^recipe, line 2: 'stars': star 'Acrux' is outside the rete for this "
+                                        r"latitude; 'rete_limit_deg: -\d+' takes the rete's rim far enough"):
         parse_recipe_text("latitude: 48\nstars: [Sirius, Acrux]\n")
     # The five brightest named stars that fit are PyEphem's five brightest
     # in V north of -40 deg (Hp orders them slightly differently).
