@@ -143,10 +143,12 @@ def _cmd_build(args) -> int:
     from .render.pdf import build_pdf
 
     path = _recipe_path(args.recipe)
+    _check_stdout_not_input(path)
     out = _output_path(args.output) if args.output else _default_output(path, ".pdf")
     check_target(out, args.force, _inputs(args))
     recipe = load_recipe(path)
     with speaking(recipe.language, recipe.language_file or None), _at_recipe_line(path):
+        _check_stdout_not_input(*_inputs(args, recipe))
         check_target(out, args.force, _inputs(args, recipe))
         kit = build_kit(recipe)
         write_atomic(out, build_pdf(kit)[1], args.force, _inputs(args, recipe))
@@ -206,12 +208,10 @@ def _cmd_geometry(args) -> int:
     path = _recipe_path(args.recipe)
     if args.output:
         _output_path(args.output)
-    else:
-        _check_stdout_not_input(path)
+    _check_stdout_not_input(path)
     kit_recipe = load_recipe(path)
     with speaking(kit_recipe.language, kit_recipe.language_file or None), _at_recipe_line(path):
-        if not args.output:
-            _check_stdout_not_input(*_inputs(args, kit_recipe))
+        _check_stdout_not_input(*_inputs(args, kit_recipe))
         return _write_geometry(args, kit_recipe)
 
 
@@ -316,8 +316,10 @@ def _cmd_preview(args) -> int:
     folder = _output_path(args.output)
     if folder.exists() and not folder.is_dir():
         raise UserError("errors.preview_folder_is_file", path=folder)
+    _check_stdout_not_input(path)
     recipe = load_recipe(path)
     with speaking(recipe.language, recipe.language_file or None), _at_recipe_line(path):
+        _check_stdout_not_input(*_inputs(args, recipe))
         kit = build_kit(recipe)
         pictures = render_previews(build_pdf(kit)[1], args.dpi)
         digits = max(2, len(str(len(pictures))))

@@ -89,16 +89,19 @@ def test_a_pipe_closed_by_its_reader_is_not_success(kit_dir):
     assert "closed the pipe" in one_line(err)
 
 
-@pytest.mark.parametrize("mode", ["ab", "r+b"])
-def test_stdout_onto_the_recipe_is_refused(kit_dir, mode):
+@pytest.mark.parametrize("mode, args", [("ab", ["geometry"]), ("r+b", ["geometry"]), ("ab", ["build"]),
+                                        ("ab", ["geometry", "-o", "g.json"]), ("ab", ["preview", "-o", "look"])])
+def test_stdout_onto_the_recipe_is_refused(kit_dir, mode, args):
     """``kitgen geometry r.yaml >> r.yaml``: fd 1 is the recipe (same
-    st_dev and st_ino), refused before anything is written."""
+    st_dev and st_ino), refused before anything is written; so is a
+    command that would only list what it wrote there."""
     recipe = kit_dir / "r.yaml"
     with open(recipe, mode) as out:
-        run = kitgen("geometry", "r.yaml", cwd=kit_dir, stdout=out, stderr=subprocess.PIPE)
+        run = kitgen(args[0], "r.yaml", *args[1:], cwd=kit_dir, stdout=out, stderr=subprocess.PIPE)
     assert run.returncode == EXIT_USER
     assert "standard output is the input file" in one_line(run.stderr)
     assert recipe.read_text(encoding="utf-8") == RECIPE
+    assert sorted(p.name for p in kit_dir.iterdir()) == ["r.yaml"]
 
 
 def test_stdout_onto_the_language_file_is_refused(kit_dir):
