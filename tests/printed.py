@@ -9,7 +9,6 @@ from functools import cached_property
 import pypdf
 
 from kitgen.kit import build_kit
-from kitgen.layout.pages import layout_kit
 from kitgen.recipe.load import parse_recipe_text
 from kitgen.render.pdf import build_pdf
 

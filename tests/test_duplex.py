@@ -22,7 +22,6 @@ pypdf = pytest.importorskip("pypdf")
 
 from kitgen.errors import UserError  # noqa: E402
 from kitgen.kit import build_kit  # noqa: E402
-from kitgen.layout.pages import layout_kit  # noqa: E402
 from kitgen.recipe.load import parse_recipe_text  # noqa: E402
 from kitgen.render.pdf import build_pdf  # noqa: E402
 

@@ -33,7 +33,6 @@ from fontTools.ttLib import TTFont  # noqa: E402
 from pypdf.generic import ContentStream  # noqa: E402
 
 from kitgen.kit import build_kit  # noqa: E402
-from kitgen.layout.pages import layout_kit  # noqa: E402
 from kitgen.recipe.load import parse_recipe_text  # noqa: E402
 from kitgen.render.pdf import build_pdf  # noqa: E402
 from kitgen.words import fonts  # noqa: E402

@@ -16,7 +16,6 @@ pypdf = pytest.importorskip("pypdf")
 Image = pytest.importorskip("PIL.Image")
 
 from kitgen.kit import build_kit  # noqa: E402
-from kitgen.layout.pages import layout_kit  # noqa: E402
 from kitgen.recipe.load import parse_recipe_text  # noqa: E402
 from kitgen.render.pdf import build_pdf  # noqa: E402
 from kitgen.render.preview import encode_png, render_previews  # noqa: E402
