@@ -375,3 +375,22 @@ def test_a_killed_runs_leftovers_go_and_nothing_else(tmp_path):
         os.utime(folder, (old, old))
     assert main(["batch", str(tmp_path / "one.yaml"), "-o", str(tmp_path / "out"), "--quiet", "--jobs", "1"]) == 0
     assert not ours.exists() and (theirs / "notes.txt").read_text() == "keep me"
+
+
+def test_file_identifier_check_reads_the_trailer_only():
+    """The print files are refused if pypdf ever writes a file identifier
+    (ISO 32000-1:2008, 14.4: /ID in the trailer), but the same four bytes
+    inside a stream (ASCII85 font data has them by chance) are no
+    identifier.  Reference: pypdf's reading of the trailer."""
+    from pypdf import PdfWriter
+    from pypdf.generic import DecodedStreamObject, NameObject
+
+    from kitgen.batch.printfiles import _bytes
+
+    writer = PdfWriter()
+    page = writer.add_blank_page(100, 100)
+    stream = DecodedStreamObject()
+    stream.set_data(b"% not an identifier: /ID[ <00> <00> ]\n")
+    page[NameObject("/Contents")] = writer._add_object(stream)
+    data = _bytes(writer)
+    assert b"/ID[" in data and "/ID" not in PdfReader(__import__("io").BytesIO(data)).trailer
