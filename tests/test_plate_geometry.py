@@ -180,7 +180,7 @@ def test_almucantars_and_twilight_are_the_classical_circles(plate):
     drawn = {}
     for centre, radius, values in _circles(part, "almucantar") + _circles(part, "twilight"):
         drawn.setdefault(round(values["altitude_deg"], 6), []).append((centre, radius))
-    step = kit.recipe.altitude_step_deg
+    step = kit.plan.drawing.altitude_step_deg
     expected_alts = list(np.arange(step, 90.0 - 1e-9, step)) + [-18.0]
     checked = 0
     for alt in expected_alts:
