@@ -394,3 +394,15 @@ def test_file_identifier_check_reads_the_trailer_only():
     page[NameObject("/Contents")] = writer._add_object(stream)
     data = _bytes(writer)
     assert b"/ID[" in data and "/ID" not in PdfReader(__import__("io").BytesIO(data)).trailer
+
+
+def test_manifest_text_is_never_a_spreadsheet_formula():
+    # Reference: OWASP, "CSV Injection": cells starting with = + - @ (or a
+    # tab or carriage return) are run as formulas by spreadsheet programs.
+    from kitgen.batch.manifest import COLUMNS, manifest_csv
+
+    row = {c: "" for c in COLUMNS}
+    row.update(kit=1, owner="=HYPERLINK(\"http://x\")", title="@SUM(A1)", place="+1", latitude="-33.9", status="ok")
+    got = next(csv.DictReader(manifest_csv([row]).decode("utf-8").splitlines()))
+    assert (got["owner"], got["title"], got["place"]) == ("'=HYPERLINK(\"http://x\")", "'@SUM(A1)", "'+1")
+    assert got["latitude"] == "-33.9"   # a number stays a number

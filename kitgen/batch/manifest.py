@@ -13,6 +13,9 @@ Columns (RFC 4180 CSV, UTF-8, ``\\r\\n`` line ends as the RFC writes them):
 - ``card_print_pages``, ``film_print_pages``: where its copies are in
   ``print-card.pdf`` and ``print-film.pdf``, such as ``5-8 9-12``;
 - ``status``: ``ok``, or the one-line reason it was not built.
+
+A text cell that a spreadsheet would take for a formula (one starting
+with ``=``, ``+``, ``-`` or ``@``) is written with a leading apostrophe.
 """
 
 from __future__ import annotations
@@ -50,13 +53,26 @@ def manifest_row(kit, file_name: str, result, spans: dict, error: str) -> dict:
     }
 
 
+#: Columns of free text, from the set's own values or messages.
+TEXT_COLUMNS = ("owner", "title", "place", "status")
+#: A cell starting so is taken for a formula by spreadsheet programs
+#: (OWASP, "CSV Injection"): such a text cell gets a leading apostrophe.
+_FORMULA_START = ("=", "+", "-", "@", "\t", "\r")
+
+
 def manifest_csv(rows) -> bytes:
     buf = io.StringIO(newline="")
     writer = csv.DictWriter(buf, fieldnames=COLUMNS, lineterminator="\r\n")
     writer.writeheader()
     for row in rows:
-        writer.writerow(row)
+        writer.writerow({k: _inert(v) if k in TEXT_COLUMNS else v for k, v in row.items()})
     return buf.getvalue().encode("utf-8")
+
+
+def _inert(value) -> str:
+    """A text cell that a spreadsheet shows as text, never runs."""
+    text = str(value)
+    return "'" + text if text.startswith(_FORMULA_START) else text
 
 
 def _spans(spans) -> str:
