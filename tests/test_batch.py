@@ -406,3 +406,17 @@ def test_manifest_text_is_never_a_spreadsheet_formula():
     got = next(csv.DictReader(manifest_csv([row]).decode("utf-8").splitlines()))
     assert (got["owner"], got["title"], got["place"]) == ("'=HYPERLINK(\"http://x\")", "'@SUM(A1)", "'+1")
     assert got["latitude"] == "-33.9"   # a number stays a number
+
+
+@pytest.mark.parametrize("sep", [",", ";", "\t"])
+def test_a_roster_separated_as_spreadsheets_save_it(tmp_path, sep):
+    # Common practice: spreadsheets save "CSV" with semicolons (or tabs)
+    # where the comma is the decimal sign.
+    from kitgen.batch.setfile import load_set
+
+    (tmp_path / "set.yaml").write_text("defaults: {latitude: 10, epoch: 2027}\nroster: r.csv\n")
+    lines = ["owner", "latitude"], ["Ana, B.", "-12.5"], ["Ivo", ""]
+    (tmp_path / "r.csv").write_text("\n".join(sep.join(f'"{c}"' if sep in c or "," in c else c for c in row)
+                                              for row in lines) + "\n", encoding="utf-8")
+    kits = load_set(tmp_path / "set.yaml").kits
+    assert [(k.recipe.owner, k.recipe.latitude_deg) for k in kits] == [("Ana, B.", -12.5), ("Ivo", 10.0)]

@@ -8,7 +8,9 @@ A set is a mapping with up to three keys::
     roster: pupils.csv                          # and/or a table, one row a kit
 
 The roster is UTF-8 CSV with a header whose columns are recipe keys (and
-``copies``); an empty cell takes the default.  Kits are numbered in the
+``copies``), separated by commas, or by semicolons or tabs as spreadsheets
+write them where the comma is the decimal sign; an empty cell takes the
+default.  Kits are numbered in the
 order they come: the ``kits`` list first, then the roster's rows.
 
 The set file is read as a recipe is (:func:`kitgen.recipe.load.read_text_file`
@@ -161,7 +163,7 @@ def _roster_rows(value, set_path: Path, line: int) -> list[tuple[Message, dict]]
         raise UserError("errors.set_roster_not_file", where=at_line(set_path, line), value=shown(value))
     path = set_path.parent / value
     text = read_text_file(path, MAX_ROSTER_BYTES, KIND_ROSTER)
-    reader = csv.reader(io.StringIO(text, newline=""), strict=True)
+    reader = csv.reader(io.StringIO(text, newline=""), delimiter=_delimiter(text), strict=True)
     try:
         header = next(reader, None)
         if header is None:
@@ -181,6 +183,14 @@ def _roster_rows(value, set_path: Path, line: int) -> list[tuple[Message, dict]]
     except csv.Error as exc:
         raise UserError("errors.roster_not_csv", where=at_line(path, reader.line_num), problem=str(exc)) from None
     return rows
+
+
+def _delimiter(text: str) -> str:
+    """The roster's separator, told by its header line: a comma, or the
+    semicolon or tab that spreadsheets write where the comma is the
+    decimal sign (a header holds no decimal number)."""
+    header = text.split("\n", 1)[0]
+    return next((d for d in (",", ";", "\t") if d in header), ",")
 
 
 def _check_columns(columns: list[str], path: Path) -> None:
