@@ -79,7 +79,7 @@ def build_one(job: KitJob) -> KitResult:
         return KitResult(job.number, error=one_line(text), internal=True, peak_rss_kib=_peak_rss_kib())
 
 
-@lru_cache(maxsize=8)
+@lru_cache(maxsize=2)   # a kit and its geometry are megabytes: keep only the last two
 def _kit_pdf(recipe):
     kit = build_kit(recipe)
     pages, pdf = build_pdf(kit)
