@@ -184,6 +184,8 @@ FOOTER_MM = 14.0
 #: Space (mm) between parts, and between the parts and the footer: room for
 #: the blade between two cut lines.
 GAP_MM = 4.0
+#: Length (mm) of the check bar printed on every page.
+CHECK_BAR_MM = 100.0
 #: The band (mm) kept above each part for its title.
 TITLE_BAND_MM = 5.0
 

@@ -241,7 +241,8 @@ def test_fewest_pages_for_each_material(diameter, sheet):
         assert len(mine) == lower_bound(_boxes(pages, material), areas, GAP_MM), (diameter, sheet, material)
     kinds = [p.kind for p in pages]
     assert kinds[0] == "instructions"
-    assert kinds == ["instructions"] + ["card"] * kinds.count("card") + ["film"] * kinds.count("film")
+    n_text = kinds.count("instructions")
+    assert kinds == ["instructions"] * n_text + ["card"] * kinds.count("card") + ["film"] * kinds.count("film")
 
 
 def test_instructions_go_on_to_a_second_page_when_their_words_need_it():
@@ -253,8 +254,9 @@ def test_instructions_go_on_to_a_second_page_when_their_words_need_it():
     pypdf = pytest.importorskip("pypdf")
     import io
 
-    from kitgen.layout.pages import layout_kit
-    from kitgen.render.pdf import MIN_INSTRUCTION_PT, build_pdf, instructions_split
+    from kitgen.layout.pages import _draft_pages, instructions_split
+    from kitgen.layout.paragraphs import MIN_BODY_PT
+    from kitgen.render.pdf import build_pdf
 
     k = kit("sheet: a5\nlanguage: el\nduplex: long_edge\nfilm_mirror: true\nprint_scale: 0.97\n"
             "diameter_mm: 110\n")
@@ -262,8 +264,8 @@ def test_instructions_go_on_to_a_second_page_when_their_words_need_it():
     kinds = [p.kind for p in pages]
     n_text = kinds.count("instructions")
     assert n_text >= 2 and kinds[:n_text] == ["instructions"] * n_text
-    assert instructions_split(k, pages)[0] >= MIN_INSTRUCTION_PT == 9.0
-    assert instructions_split(k, layout_kit(k, n_text - 1)) is None   # no fewer pages would do
+    assert instructions_split(k, pages)[0] >= MIN_BODY_PT == 9.0
+    assert instructions_split(k, _draft_pages(k, n_text - 1)) is None   # no fewer pages would do
     reader = pypdf.PdfReader(io.BytesIO(pdf))
     n = len(pages)
     def flat(t):  # pypdf reads the bullets ("!" and "\u2022") in among the lines

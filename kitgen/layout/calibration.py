@@ -14,6 +14,7 @@ import math
 from dataclasses import dataclass
 
 from ..paper import MM_PER_INCH, Sheet
+from .paragraphs import Block
 
 #: Room (mm) kept for the bars: the column for the two bars down the
 #: right-hand side, the band for the two bars across the foot.
@@ -108,3 +109,18 @@ def calibration_page(sheet: Sheet) -> CalibrationPage:
         Bar("y", "in", (column + 24.0, bottom), in_y, 8),
     )
     return CalibrationPage(sheet, bars, (m, bottom, column - 4.0, h - m))
+
+
+def calibration_story(page, words) -> list[Block]:
+    """The calibration page's words, as paragraphs (``calibrate.*`` of the
+    language template), with a worked example of a 97 % printer."""
+    across = next(b for b in page.bars if b.axis == "x" and b.unit == "mm")
+    measured = across.length_mm * 0.97
+    return [Block("title", words("calibrate.title")),
+            Block("body", words("calibrate.intro", percent=words.number(100))),
+            Block("body", words("calibrate.how")),
+            Block("item", "print_scale: {x: " + words.number(0.97, 3).replace(",", ".") + ", y: "
+                  + words.number(0.985, 3).replace(",", ".") + "}", "\u2022"),
+            Block("body", words("calibrate.example", length=words.number(across.length_mm),
+                                measured=words.number(measured, 1), ratio=words.number(0.97, 3))),
+            Block("body", words("calibrate.exact"))]

@@ -1,29 +1,18 @@
 """The instructions' words: what the first page says, as paragraphs.
 
 Written here, from the kit's plan and its laid-out pages, with the kit's
-:class:`~kitgen.words.templates.Words`; a backend only sets the paragraphs
-(:func:`kitgen.render.pdf_text.draw_blocks`).
+:class:`~kitgen.words.templates.Words`; :mod:`kitgen.layout.paragraphs`
+sets them into lines and pages, and a backend only draws those lines.
 """
 
 from __future__ import annotations
 
-from dataclasses import dataclass
-
-from .pages import CHECK_BAR_MM
 from ..check.report import report_lines
 from ..parts.clock_scale import signed
 from ..parts.format import latitude_text
+from ..paper import CHECK_BAR_MM
 from ..words.locale import format_date
-
-
-@dataclass(frozen=True)
-class Block:
-    """A paragraph of the text pages: ``kind`` is ``title``, ``heading``,
-    ``body``, ``item`` or ``caution``; ``bullet`` is printed before an item."""
-
-    kind: str
-    text: str
-    bullet: str = ""
+from .paragraphs import PAGE_BREAK, Block
 
 
 def kit_title(kit) -> str:
@@ -124,7 +113,7 @@ def glossary_blocks(kit) -> list[Block]:
 
 
 def story(kit, pages) -> list[Block]:
-    """The instructions page, as paragraphs for pdf_text.draw_blocks."""
+    """The instructions, as paragraphs for kitgen.layout.paragraphs to set."""
     w = kit.words
     length = w.number(CHECK_BAR_MM)
 
@@ -345,11 +334,11 @@ def worksheet_blocks(kit) -> list[Block]:
         return []
     w = kit.words
     values = [_worksheet_values(kit, q) for q in questions]
-    out = [Block("page_break", ""), Block("heading", w("worksheet.heading", **values[0])),
+    out = [Block(PAGE_BREAK, ""), Block("heading", w("worksheet.heading", **values[0])),
            Block("body", w("worksheet.intro", **values[0]))]
     out += [Block("item", w("worksheet.q_" + q.kind, **v), w.number(k) + ".")
             for k, (q, v) in enumerate(zip(questions, values), start=1)]
-    out += [Block("page_break", ""), Block("heading", w("worksheet.key_heading", **values[0]))]
+    out += [Block(PAGE_BREAK, ""), Block("heading", w("worksheet.key_heading", **values[0]))]
     out += [Block("item", w("worksheet.a_" + q.kind, **v), w.number(k) + ".")
             for k, (q, v) in enumerate(zip(questions, values), start=1)]
     return out
@@ -363,5 +352,5 @@ def accuracy_blocks(kit) -> list[Block]:
     if accuracy is None:
         return []
     lines = report_lines(kit, accuracy)
-    return ([Block("page_break", ""), Block("heading", lines[0])]
+    return ([Block(PAGE_BREAK, ""), Block("heading", lines[0])]
             + [Block("body", line.strip()) for line in lines[1:]])

@@ -25,13 +25,15 @@ bar, the page number, the kit's title and the note of the material.
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 from itertools import product
 
 from ..errors import UserError
 from ..geometry.model import Part
+from .instructions import story
 from .packing import Box, Packer, extent, place
-from ..paper import GAP_MM, PT_PER_MM, TITLE_BAND_MM, Sheet, content_area_mm, page_size_mm, sheet_words
+from ..paper import CHECK_BAR_MM, GAP_MM, PT_PER_MM, TITLE_BAND_MM, Sheet, content_area_mm, page_size_mm, sheet_words
+from .paragraphs import TextOverflow, set_blocks, split_blocks
 from .tiling import MARK_CLEAR_MM, PIECE_BAND_MM, Piece, outside_box, tile
 
 #: Size (pt) of the part titles printed above each part (the band kept for
@@ -46,8 +48,6 @@ TITLE_EM_PER_CHAR = 0.65
 PIECE_LABEL_PT = 7.0
 MAP_CELL_MM = 3.0
 MAP_HEIGHT_MM = 6.5
-#: Length (mm) of the check bar printed on every page.
-CHECK_BAR_MM = 100.0
 #: Where the check bar sits: its left end and height (mm) from the
 #: bottom-left corner of the printable area.
 CHECK_BAR_RISE_MM = 3.0
@@ -139,6 +139,8 @@ class Page:
     print_scale: tuple[float, float] = (1.0, 1.0)
     marks: tuple[Mark, ...] = ()
     duplex: str = ""  # "front" or "back" of a duplex pair
+    #: An instructions page's text, set (kitgen.layout.paragraphs.SetLine).
+    lines: tuple = ()
 
     @property
     def width_mm(self) -> float:
@@ -384,11 +386,49 @@ def _duplex_pages(front: Part, back: Part, sheet: Sheet, scale, mode: str):
 
 # -- the kit ----------------------------------------------------------------------------
 
-def layout_kit(kit, instruction_pages: int = 1) -> tuple[Page, ...]:
-    """The kit's pages in print order: instructions (on one page, or on
-    ``instruction_pages`` where the words need more room: see
-    kitgen.render.pdf.build_pdf), card pages (the duplex pair first), film
-    pages."""
+def layout_kit(kit, instruction_pages: int | None = None) -> tuple[Page, ...]:
+    """The kit's pages in print order: instructions, card pages (the duplex
+    pair first), film pages.  The instructions are set here on as few pages
+    as their words need at no less than :data:`paragraphs.MIN_BODY_PT`
+    (more on small sheets and in long-worded languages, up to
+    :data:`MAX_INSTRUCTION_PAGES`), or on exactly ``instruction_pages``;
+    :class:`paragraphs.TextOverflow` when they do not fit."""
+    counts = [instruction_pages] if instruction_pages else range(1, MAX_INSTRUCTION_PAGES + 1)
+    for n in counts:
+        pages = _draft_pages(kit, n)
+        split = instructions_split(kit, pages)
+        if split is not None:
+            return _with_instructions(kit, pages, split)
+    raise TextOverflow(f"the instructions need more than {counts[-1]} page(s)")
+
+
+#: The most pages the instructions may take.
+MAX_INSTRUCTION_PAGES = 8
+
+
+def instructions_split(kit, pages):
+    """``(size_pt, chunks)`` of the instructions on the pages' instruction
+    pages (:func:`kitgen.layout.paragraphs.split_blocks`), or ``None`` when
+    they need more pages."""
+    mine = [p for p in pages if p.kind == "instructions"]
+    x0, y0, x1, y1 = page_content_mm(mine[0])
+    return split_blocks(story(kit, pages), (x1 - x0) * PT_PER_MM, (y1 - y0) * PT_PER_MM, kit.words, len(mine))
+
+
+def _with_instructions(kit, pages, split) -> tuple[Page, ...]:
+    size, chunks = split
+    out, k = [], 0
+    for page in pages:
+        if page.kind == "instructions":
+            chunk = chunks[k] if k < len(chunks) else []
+            page = replace(page, lines=set_blocks(chunk, page_content_mm(page), kit.words, size))
+            k += 1
+        out.append(page)
+    return tuple(out)
+
+
+def _draft_pages(kit, instruction_pages: int) -> tuple[Page, ...]:
+    """The pages with ``instruction_pages`` pages kept for the instructions."""
     printing = kit.plan.printing
     sh = printing.sheet
     scale = tuple(printing.print_scale)

@@ -3,7 +3,7 @@
 Drawn at exactly 100 %, with no print_scale, so that what the bars
 measure on paper is the printer's own scale.  Lines are black with butt
 caps, so each bar's ink ends where the bar ends; its ticks are centred on
-their true places.  Words come from the language template (``calibrate.*``).
+their true places.  Its words are written by :func:`kitgen.layout.calibration.calibration_story`.
 """
 
 from __future__ import annotations
@@ -14,8 +14,9 @@ from reportlab.lib.units import mm
 from reportlab.pdfgen.canvas import Canvas
 
 from . import pdf_text
-from .pdf import ask_actual_size
-from .pdf_text import Block
+from ..layout.calibration import calibration_story
+from ..layout.paragraphs import fitting_size, set_blocks
+from .pdf import ask_actual_size, draw_set_lines
 
 #: Line widths (mm): the bar itself and its ticks.
 BAR_LINE_MM = 0.2
@@ -51,19 +52,6 @@ def _bar(c: Canvas, bar, words) -> None:
         pdf_text.draw_text(c, x0 - 2.5, y0, name, NAME_PT, words, "bold", "start", 90.0)
 
 
-def _story(page, words) -> list[Block]:
-    across = next(b for b in page.bars if b.axis == "x" and b.unit == "mm")
-    measured = across.length_mm * 0.97
-    return [Block("title", words("calibrate.title")),
-            Block("body", words("calibrate.intro", percent=words.number(100))),
-            Block("body", words("calibrate.how")),
-            Block("item", "print_scale: {x: " + words.number(0.97, 3).replace(",", ".") + ", y: "
-                  + words.number(0.985, 3).replace(",", ".") + "}", "\u2022"),
-            Block("body", words("calibrate.example", length=words.number(across.length_mm),
-                                measured=words.number(measured, 1), ratio=words.number(0.97, 3))),
-            Block("body", words("calibrate.exact"))]
-
-
 def render_calibration_pdf(page, words) -> bytes:
     """The calibration page (a :class:`kitgen.layout.calibration.CalibrationPage`)
     as a one-page PDF (bytes), the same bytes for the same page and words."""
@@ -80,8 +68,9 @@ def render_calibration_pdf(page, words) -> bytes:
     c.setFillGray(0.0)
     for bar in page.bars:
         _bar(c, bar, words)
-    x0, y0, x1, y1 = page.text_box_mm
-    pdf_text.draw_blocks(c, _story(page, words), x0, y0, x1, y1, words)
+    blocks = calibration_story(page, words)
+    size = fitting_size(blocks, page.text_box_mm, words)
+    draw_set_lines(c, set_blocks(blocks, page.text_box_mm, words, size), words)
     c.showPage()
     c.save()
     return buf.getvalue()

@@ -19,11 +19,11 @@ import io
 from reportlab.lib.units import mm
 from reportlab.pdfgen.canvas import Canvas
 
-from ..layout.bounds import element_box_mm, meets, turn_box
-from ..layout.pages import CHECK_BAR_MM, TITLE_PT, Page, check_bar_mm, page_content_mm
-from ..paper import FOOTER_MM
-from ..layout.instructions import Block, kit_latitudes, kit_line, kit_title, story
 from ..geometry import style
+from ..layout.bounds import element_box_mm, meets, turn_box
+from ..layout.instructions import kit_latitudes, kit_line, kit_title
+from ..layout.pages import TITLE_PT, Page, check_bar_mm, layout_kit
+from ..paper import CHECK_BAR_MM, FOOTER_MM
 from . import pdf_marks, pdf_text
 from .ink import Holes, holes_of, inks
 
@@ -216,84 +216,11 @@ def _footer(c: Canvas, kit, page: Page) -> None:
 
 # -- the instructions page ------------------------------------------------------
 
-class InstructionsOverflow(ValueError):
-    """The instructions need more pages than the layout gave them."""
-
-
-#: Body sizes (pt) tried for the instructions, largest first.  Never below
-#: MIN_INSTRUCTION_PT, the size a class reads on a handout (#9): common
-#: practice in print for continuous reading is 9 to 12 pt (values from
-#: experience, not from a standard); longer words go on to more pages.
-MIN_INSTRUCTION_PT = 9.0
-INSTRUCTION_SIZES_PT = (10.5, 10.0, 9.5, MIN_INSTRUCTION_PT)
-
-
-#: A block kind that starts a new page (the worksheet's answer key, #10).
-PAGE_BREAK = "page_break"
-
-
-def split_story(blocks, width_pt: float, height_pt: float, words, n_pages: int):
-    """``(size_pt, chunks)``: the largest body size at which the blocks,
-    taken in order, fill at most ``n_pages`` boxes of this size (a heading
-    never left alone at the foot of a page), and the blocks of each page;
-    or ``None`` when even the smallest size needs more pages."""
-    probe = Block("body", "x")
-    breaks = {k for k, b in enumerate(blocks) if b.kind == PAGE_BREAK}   # a forced new page (#10)
-    for size in INSTRUCTION_SIZES_PT:
-        if n_pages == 1 and breaks:
-            return None
-        if n_pages == 1:   # the common case: one measure of the whole
-            if pdf_text.blocks_height_pt(blocks, width_pt, size, words) <= height_pt:
-                return size, [list(blocks)]
-            continue
-        alone = [0.0 if k in breaks else pdf_text.blocks_height_pt([b], width_pt, size, words)
-                 for k, b in enumerate(blocks)]
-        base = pdf_text.blocks_height_pt([probe], width_pt, size, words)
-        after = [0.0 if k in breaks else pdf_text.blocks_height_pt([probe, b], width_pt, size, words) - base
-                 for k, b in enumerate(blocks)]
-        chunks, current, used = [], [], 0.0
-        for k, block in enumerate(blocks):
-            if k in breaks:
-                if current:
-                    chunks.append(current)
-                current, used = [], 0.0
-                continue
-            if current and used + after[k] > height_pt:
-                moved = []
-                if blocks[current[-1]].kind == "heading" and len(current) > 1:
-                    moved = [current.pop()]
-                chunks.append(current)
-                current = moved
-                used = alone[moved[0]] if moved else 0.0
-            used += after[k] if current else alone[k]
-            current.append(k)
-        chunks = [ch for ch in chunks + [current] if ch]
-        heights = [alone[ch[0]] + sum(after[i] for i in ch[1:]) for ch in chunks]
-        if len(chunks) <= n_pages and max(heights) <= height_pt:
-            return size, [[blocks[i] for i in ch] for ch in chunks]
-    return None
-
-
-def instructions_split(kit, pages):
-    """``(size_pt, chunks)`` of the instructions on the layout's
-    instruction pages (see :func:`split_story`), or ``None`` when they need
-    more pages."""
-    mine = [p for p in pages if p.kind == "instructions"]
-    x0, y0, x1, y1 = page_content_mm(mine[0])
-    return split_story(story(kit, pages), (x1 - x0) * mm, (y1 - y0) * mm, kit.words, len(mine))
-
-
-def _instructions(c: Canvas, kit, page: Page, pages) -> None:
-    """This page's share of the instructions."""
-    x0, y0, x1, y1 = page_content_mm(page)
-    mine = [p for p in pages if p.kind == "instructions"]
-    split = instructions_split(kit, pages)
-    if split is None:
-        raise InstructionsOverflow(f"the instructions need more than {len(mine)} page(s)")
-    size, chunks = split
-    k = mine.index(page)
-    if k < len(chunks):
-        pdf_text.draw_blocks(c, chunks[k], x0, y0, x1, y1, kit.words, body_pt=size, min_pt=size)
+def draw_set_lines(c: Canvas, lines, words) -> None:
+    """Text lines as the layout set them (kitgen.layout.paragraphs)."""
+    for line in lines:
+        pdf_text.draw_at_baseline(c, line.x_mm * mm, line.baseline_mm * mm, line.text, line.size_pt, words,
+                                  line.style, line.align)
 
 
 # -- the document ----------------------------------------------------------------
@@ -312,27 +239,16 @@ def page_transform(c: Canvas, page: Page, mirror: bool = True) -> None:
         c.scale(1.0 / sx, 1.0 / sy)
 
 
-def build_pdf(kit, max_instruction_pages: int = 8):
-    """The kit laid out and rendered: ``(pages, pdf_bytes)``, with the
-    instructions on as few pages as their words need (on small sheets and
-    in long-worded languages, more than one)."""
-    from ..layout.pages import layout_kit
-
-    for n in range(1, max_instruction_pages + 1):
-        pages = layout_kit(kit, n)
-        if instructions_split(kit, pages) is None:   # measured before drawing anything
-            continue
-        try:
-            return pages, render_pdf(kit, pages)
-        except InstructionsOverflow:
-            continue
-    raise InstructionsOverflow(f"the instructions need more than {max_instruction_pages} pages")
+def build_pdf(kit):
+    """The kit laid out and rendered: ``(pages, pdf_bytes)``; the layout
+    sets the instructions on as few pages as their words need."""
+    pages = layout_kit(kit)
+    return pages, render_pdf(kit, pages)
 
 
 def render_pdf(kit, pages) -> bytes:
-    """The kit's pages as one PDF document (bytes); raises
-    :class:`InstructionsOverflow` when the instructions need more pages than
-    the layout gave them (:func:`build_pdf` then asks for more)."""
+    """The kit's pages (:func:`kitgen.layout.pages.layout_kit`) as one PDF
+    document (bytes)."""
     register_fonts()
     buf = io.BytesIO()
     first = pages[0]
@@ -348,8 +264,7 @@ def render_pdf(kit, pages) -> bytes:
         c.setPageSize((media_w * mm, media_h * mm))
         c.saveState()
         page_transform(c, page)
-        if page.kind == "instructions":
-            _instructions(c, kit, page, pages)
+        draw_set_lines(c, page.lines, kit.words)
         for placement in page.placements:
             _draw_placement(c, placement, kit.dims, kit.words, kit.plan.printing)
         for mark in page.marks:

@@ -18,14 +18,12 @@ starting side.
 from __future__ import annotations
 
 import hashlib
-from dataclasses import dataclass
-
 from reportlab.lib.units import mm
 from reportlab.pdfbase import pdfmetrics
 from reportlab.pdfbase.pdfdoc import PDFName
 from reportlab.pdfbase.ttfonts import ShapedStr, ShapeData, TTFont, makeToUnicodeCMap
 
-from ..layout.instructions import Block
+from ..layout.paragraphs import width_pt
 from ..words import fonts
 from ..words.shaping import Line, Run, set_line
 
@@ -167,95 +165,9 @@ def draw_at_baseline(c, x_pt: float, y_pt: float, string: str, size_pt: float, w
     return w
 
 
-def width_pt(string: str, size_pt: float, words, style: str = "body") -> float:
-    return set_line(string, words.script, style, words.rtl).width_em * size_pt
-
-
 def fitted_pt(string: str, size_pt: float, width_limit_pt: float, words, style: str = "body",
               min_pt: float = 5.0) -> float:
     """The size, at most ``size_pt`` and at least ``min_pt``, at which
     ``string`` fits ``width_limit_pt``."""
     w = width_pt(string, size_pt, words, style)
     return size_pt if w <= width_limit_pt else max(min_pt, size_pt * width_limit_pt / w)
-
-
-# -- paragraphs -------------------------------------------------------------------
-
-#: Per kind: (size relative to the body, style, space before and after in
-#: body sizes, indent of the text in body sizes).
-_KINDS = {
-    "title": (1.8, "bold", 0.0, 0.4, 0.0),
-    "heading": (1.2, "bold", 0.7, 0.2, 0.0),
-    "body": (1.0, "body", 0.0, 0.3, 0.0),
-    "item": (1.0, "body", 0.0, 0.15, 1.8),
-    "caution": (1.0, "bold", 0.0, 0.15, 1.8),
-}
-LEADING = 1.25
-
-
-def wrap(text: str, width_limit_pt: float, size_pt: float, words, style: str) -> list[str]:
-    """Break ``text`` at spaces into lines no wider than the limit (a
-    greedy first fit, as a typewriter does; a single word wider than the
-    limit stands alone)."""
-    lines, current = [], ""
-    for word in text.split():
-        trial = f"{current} {word}" if current else word
-        if current and width_pt(trial, size_pt, words, style) > width_limit_pt:
-            lines.append(current)
-            current = word
-        else:
-            current = trial
-    if current:
-        lines.append(current)
-    return lines
-
-
-def _laid(blocks, width_limit_pt: float, body_pt: float, words):
-    """(block, size, style, lines, space before, space after, indent) of each block."""
-    out = []
-    for k, b in enumerate(blocks):
-        scale, style, before, after, indent = _KINDS[b.kind]
-        size = body_pt * scale
-        lines = wrap(b.text, width_limit_pt - indent * body_pt, size, words, style)
-        out.append((b, size, style, lines, before * body_pt if k else 0.0, after * body_pt, indent * body_pt))
-    return out
-
-
-def blocks_height_pt(blocks, width_limit_pt: float, body_pt: float, words) -> float:
-    return sum(before + len(lines) * size * LEADING + after
-               for _, size, _, lines, before, after, _ in _laid(blocks, width_limit_pt, body_pt, words))
-
-
-def draw_blocks(c, blocks, x0_mm: float, y0_mm: float, x1_mm: float, y1_mm: float, words,
-                body_pt: float = 10.5, min_pt: float = 6.0) -> float:
-    """Draw the blocks from the top of the box down, at the largest body
-    size from ``body_pt`` down to ``min_pt`` (in half points) at which they
-    fit; returns the size used.  Raises ValueError if even the smallest
-    does not fit."""
-    width, height = (x1_mm - x0_mm) * mm, (y1_mm - y0_mm) * mm
-    size = body_pt
-    while size > min_pt and blocks_height_pt(blocks, width, size, words) > height:
-        size -= 0.5
-    if blocks_height_pt(blocks, width, size, words) > height:
-        raise ValueError("the instructions do not fit on one page")
-    rtl = words.rtl
-    left, right = x0_mm * mm, x1_mm * mm
-    y = y1_mm * mm
-    for block, s, style, lines, before, after, indent in _laid(blocks, width, size, words):
-        y -= before
-        for k, text in enumerate(lines):
-            lead = s * LEADING
-            baseline = y - lead + (lead - s) / 2 + 0.22 * s
-            if rtl:
-                draw_at_baseline(c, right - indent, baseline, text, s, words, style, "right")
-            else:
-                draw_at_baseline(c, left + indent, baseline, text, s, words, style, "left")
-            if k == 0 and block.bullet:
-                bx = size * 0.4
-                if rtl:
-                    draw_at_baseline(c, right - bx, baseline, block.bullet, s, words, "bold", "right")
-                else:
-                    draw_at_baseline(c, left + bx, baseline, block.bullet, s, words, "bold", "left")
-            y -= lead
-        y -= after
-    return size

@@ -1,0 +1,182 @@
+"""Paragraphs set into lines and shared out over pages.
+
+The instructions (and any text page) are written as :class:`Block`
+paragraphs (:mod:`kitgen.layout.instructions`); here they are wrapped at
+spaces with the widths of the real fonts (the words layer's shaping, the
+same advances the PDF draws), sized, and split over as many pages as they
+need, never below :data:`MIN_BODY_PT`.  The result is a list of
+:class:`SetLine` per page, in millimetres on the page: a backend only
+draws them.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+from ..paper import MM_PER_PT, PT_PER_MM
+from ..words.shaping import set_line
+
+
+@dataclass(frozen=True)
+class Block:
+    """A paragraph of the text pages: ``kind`` is ``title``, ``heading``,
+    ``body``, ``item`` or ``caution`` (or :data:`PAGE_BREAK`, which starts
+    a new page); ``bullet`` is printed before an item."""
+
+    kind: str
+    text: str
+    bullet: str = ""
+
+
+@dataclass(frozen=True)
+class SetLine:
+    """One line of text as set: where its baseline starts (``align`` =
+    ``left``) or ends (``right``), in mm on the page, its size and style."""
+
+    text: str
+    x_mm: float
+    baseline_mm: float
+    size_pt: float
+    style: str
+    align: str
+
+
+class TextOverflow(ValueError):
+    """The paragraphs need more pages than they were given."""
+
+
+#: A block of this kind ends the page: what follows starts a new one.
+PAGE_BREAK = "page_break"
+#: Per kind: (size relative to the body, style, space before and after in
+#: body sizes, indent of the text in body sizes).
+KINDS = {
+    "title": (1.8, "bold", 0.0, 0.4, 0.0),
+    "heading": (1.2, "bold", 0.7, 0.2, 0.0),
+    "body": (1.0, "body", 0.0, 0.3, 0.0),
+    "item": (1.0, "body", 0.0, 0.15, 1.8),
+    "caution": (1.0, "bold", 0.0, 0.15, 1.8),
+}
+#: Line height in body sizes (common practice for body text: 120 to 130 %).
+LEADING = 1.25
+#: Body sizes (pt) tried, largest first.  9 pt is the smallest a class
+#: reads comfortably on paper held at arm's length (common practice for
+#: school texts; from memory); more pages rather than smaller text.
+MIN_BODY_PT = 9.0
+BODY_SIZES_PT = (10.5, 10.0, 9.5, MIN_BODY_PT)
+
+
+def width_pt(string: str, size_pt: float, words, style: str = "body") -> float:
+    """Width (pt) of one line of ``string`` as the shipped fonts set it."""
+    return set_line(string, words.script, style, words.rtl).width_em * size_pt
+
+
+def wrap(text: str, width_limit_pt: float, size_pt: float, words, style: str) -> list[str]:
+    """Break ``text`` at spaces into lines no wider than the limit (a
+    greedy first fit, as a typewriter does; a single word wider than the
+    limit stands alone)."""
+    lines, current = [], ""
+    for word in text.split():
+        trial = f"{current} {word}" if current else word
+        if current and width_pt(trial, size_pt, words, style) > width_limit_pt:
+            lines.append(current)
+            current = word
+        else:
+            current = trial
+    if current:
+        lines.append(current)
+    return lines
+
+
+def _laid(blocks, width_limit_pt: float, body_pt: float, words):
+    """(block, size, style, lines, space before, space after, indent) of each block."""
+    out = []
+    for k, b in enumerate(blocks):
+        scale, style, before, after, indent = KINDS[b.kind]
+        size = body_pt * scale
+        lines = wrap(b.text, width_limit_pt - indent * body_pt, size, words, style)
+        out.append((b, size, style, lines, before * body_pt if k else 0.0, after * body_pt, indent * body_pt))
+    return out
+
+
+def blocks_height_pt(blocks, width_limit_pt: float, body_pt: float, words) -> float:
+    """Height (pt) the blocks take, set one after another."""
+    return sum(before + len(lines) * size * LEADING + after
+               for _, size, _, lines, before, after, _ in _laid(blocks, width_limit_pt, body_pt, words))
+
+
+def set_blocks(blocks, box_mm, words, body_pt: float) -> tuple[SetLine, ...]:
+    """The blocks set from the top of ``box_mm`` = (x0, y0, x1, y1) down at
+    ``body_pt``, flush left (flush right in a right-to-left language), each
+    bullet before its item's first line."""
+    x0, _, x1, y1 = box_mm
+    width = (x1 - x0) * PT_PER_MM
+    rtl = words.rtl
+    align = "right" if rtl else "left"
+    out = []
+    y = y1 * PT_PER_MM
+    for block, s, style, lines, before, after, indent in _laid(blocks, width, body_pt, words):
+        y -= before
+        for k, text in enumerate(lines):
+            lead = s * LEADING
+            baseline = y - lead + (lead - s) / 2 + 0.22 * s
+            x = x1 * PT_PER_MM - indent if rtl else x0 * PT_PER_MM + indent
+            out.append(SetLine(text, x * MM_PER_PT, baseline * MM_PER_PT, s, style, align))
+            if k == 0 and block.bullet:
+                bx = body_pt * 0.4
+                bxx = x1 * PT_PER_MM - bx if rtl else x0 * PT_PER_MM + bx
+                out.append(SetLine(block.bullet, bxx * MM_PER_PT, baseline * MM_PER_PT, s, "bold", align))
+            y -= lead
+        y -= after
+    return tuple(out)
+
+
+def fitting_size(blocks, box_mm, words, sizes=(10.5, 10.0, 9.5, 9.0, 8.5, 8.0, 7.5, 7.0, 6.5, 6.0)) -> float:
+    """The largest of ``sizes`` at which the blocks fit ``box_mm`` on one
+    page (the smallest if none does: a fixed page such as the calibration
+    sheet, whose words are few)."""
+    x0, y0, x1, y1 = box_mm
+    width, height = (x1 - x0) * PT_PER_MM, (y1 - y0) * PT_PER_MM
+    return next((s for s in sizes if blocks_height_pt(blocks, width, s, words) <= height), sizes[-1])
+
+
+def split_blocks(blocks, width_pt: float, height_pt: float, words, n_pages: int):
+    """``(size_pt, chunks)``: the largest body size at which the blocks,
+    taken in order, fill at most ``n_pages`` boxes of this size (a heading
+    never left alone at the foot of a page; a :data:`PAGE_BREAK` block
+    starts a new page), and the blocks of each page; or ``None`` when even
+    :data:`MIN_BODY_PT` needs more pages."""
+    probe = Block("body", "x")
+    breaks = {k for k, b in enumerate(blocks) if b.kind == PAGE_BREAK}
+    for size in BODY_SIZES_PT:
+        if n_pages == 1 and breaks:
+            return None
+        if n_pages == 1:   # the common case: one measure of the whole
+            if blocks_height_pt(blocks, width_pt, size, words) <= height_pt:
+                return size, [list(blocks)]
+            continue
+        alone = [0.0 if k in breaks else blocks_height_pt([b], width_pt, size, words)
+                 for k, b in enumerate(blocks)]
+        base = blocks_height_pt([probe], width_pt, size, words)
+        after = [0.0 if k in breaks else blocks_height_pt([probe, b], width_pt, size, words) - base
+                 for k, b in enumerate(blocks)]
+        chunks, current, used = [], [], 0.0
+        for k, block in enumerate(blocks):
+            if k in breaks:
+                if current:
+                    chunks.append(current)
+                current, used = [], 0.0
+                continue
+            if current and used + after[k] > height_pt:
+                moved = []
+                if blocks[current[-1]].kind == "heading" and len(current) > 1:
+                    moved = [current.pop()]
+                chunks.append(current)
+                current = moved
+                used = alone[moved[0]] if moved else 0.0
+            used += after[k] if current else alone[k]
+            current.append(k)
+        chunks = [ch for ch in chunks + [current] if ch]
+        heights = [alone[ch[0]] + sum(after[i] for i in ch[1:]) for ch in chunks]
+        if len(chunks) <= n_pages and max(heights) <= height_pt:
+            return size, [[blocks[i] for i in ch] for ch in chunks]
+    return None
