@@ -306,7 +306,7 @@ def test_doubles_are_one_dot_named_once():
     """Rigil Kentaurus and Toliman (alpha Centauri A and B, 0.005 deg apart
     in the shipped catalogue and in Hipparcos) print as one dot, named once
     for both."""
-    kit = kit_of("latitude: 0.5\nparts: [rete]\n")
+    kit = kit_of("latitude: 0.5\ndiameter_mm: 300\nparts: [rete]\n")  # a rim far enough south to hold them
     rete, w = kit.part("rete"), kit.words
     stars = {e.values["name"]: e for e in rete.elements if e.role == "star"}
     a, b = stars["Rigil Kentaurus"], stars["Toliman"]

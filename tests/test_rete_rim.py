@@ -27,7 +27,7 @@ import pytest
 from kitgen.errors import UserError
 from kitgen.kit import build_kit
 from kitgen.recipe.load import parse_recipe_text
-from kitgen.sky.rete_rim import RIM_MARGIN_DEG, VISIBLE_ALTITUDE_DEG
+from kitgen.sky.rete_rim import MIN_EQUATOR_RADIUS_MM, RIM_MARGIN_DEG, VISIBLE_ALTITUDE_DEG
 
 EPOCH = 2027
 
@@ -72,8 +72,8 @@ def plate_reach_mm(plate) -> float:
     return far
 
 
-def test_default_near_the_equator_takes_the_southern_sky():
-    kit = kit_of("latitude: 0.5\n")
+def test_default_near_the_equator_takes_the_southern_sky_when_the_size_allows():
+    kit = kit_of("latitude: 0.5\ndiameter_mm: 300\n")
     names = {e.values["name"]: e for e in kit.part("rete").elements if e.role == "star"}
     for name in ("Canopus", "Achernar", "Acrux"):
         dec = ephem_dec_deg(name)
@@ -84,6 +84,26 @@ def test_default_near_the_equator_takes_the_southern_sky():
         # ... and is on the rete, at the catalogue's place for the epoch
         assert name in names
         assert names[name].values["dec_deg"] == pytest.approx(dec, abs=0.01)
+
+
+def test_default_on_a4_near_the_equator_keeps_the_equator_readable():
+    kit = kit_of("latitude: 0.5\nlanguage: en\n")  # A4: a 180 mm mater
+    plate, rete = kit.part("plate-1"), kit.part("rete")
+    # the equator keeps its chosen least radius (a choice of kitgen's, #9) ...
+    assert equator_mm(plate) >= MIN_EQUATOR_RADIUS_MM - 1e-9
+    # ... and the rim is as far as that allows, to the whole degree (Snyder eq. 21-33)
+    rim_mm = rim_circle_mm(rete)
+    farther = MIN_EQUATOR_RADIUS_MM * math.tan(math.pi / 4 + math.radians(abs(kit.sky.rim_deg) + 1) / 2)
+    assert farther > rim_mm
+    # the bright southern stars left off are named in the notes, with the value that brings them in
+    (note,) = [n for n in kit.notes if n.key == "notes.stars_beyond_rim"]
+    value = note.values["value"].value
+    for name in ("Canopus", "Achernar", "Acrux"):
+        dec = ephem_dec_deg(name)  # PyEphem's place
+        assert dec <= kit.sky.rim_deg + RIM_MARGIN_DEG  # off this rete ...
+        assert name in note.values["stars"]
+        assert dec > value + RIM_MARGIN_DEG  # ... and on the one the note offers
+    assert f"rete_limit_deg: {value:g}" in note.text(kit.words)
 
 
 @pytest.mark.parametrize("text,limit", [("latitude: 30\nrete_limit_deg: -50\n", -50.0),

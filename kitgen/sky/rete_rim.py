@@ -35,12 +35,17 @@ RIM_MARGIN_DEG = 2.0
 #: practice in naked-eye observing; the value is a choice).
 VISIBLE_ALTITUDE_DEG = 20.0
 
-#: The least radius (mm) of the equator that the default rim keeps: the
-#: Sun's whole year then stays inside a circle of 2 x 14 x tan(56.7 deg),
-#: some 43 mm across, where the 10-degree almucantars are still drawn apart
-#: (a choice: below it the time read from the plate grows coarse).  A
-#: larger instrument takes a farther rim by default.
-MIN_EQUATOR_RADIUS_MM = 14.0
+#: The least radius (mm) of the equator that the default rim keeps (a
+#: choice, #9).  The Sun's year then spans 22 x (tan 56.7 + tan 33.3 deg),
+#: some 48 mm across the rete, about 150 mm of ecliptic round: enough, at
+#: the 5 pt minimum, for a tick every degree or two, the 10 and 20 of every
+#: sign and each sign's name, and for the horizon, the tropics and the
+#: unequal hours to stand apart on the plate.  At 14 mm (the first choice)
+#: the A4 kit at 0.5 N crowded all of them into the middle third of the
+#: plate and read some 13 minutes of time wrong.  A larger instrument takes
+#: a farther rim by default: at 300 mm the equator keeps 22 mm out to
+#: -68 deg, which holds Canopus, Achernar and Acrux.
+MIN_EQUATOR_RADIUS_MM = 22.0
 
 #: The farthest rim kitgen draws (recipe key ``rete_limit_deg``): beyond
 #: it the equator shrinks to a fifteenth of the rim or less.
