@@ -9,6 +9,8 @@ contract (whose places are checked against DE421 in
 test_reading_against_de421.py and test_kit_against_references.py); the
 numbers' boxes measured with the shipped fonts' outlines
 (``Words.measure``) and turned as the PDF sets them.
+The separation of Rigil Kentaurus and Hadar from PyEphem's star list
+(Hipparcos places).
 """
 
 from __future__ import annotations
@@ -17,8 +19,11 @@ import calendar
 import dataclasses
 import math
 
+import ephem
+import ephem.stars
 import pytest
 
+from kitgen.geometry.style import MIN_DOT_RADIUS_MM, star_radius_mm
 from kitgen.kit import build_kit
 from kitgen.parts.dimensions import MIN_NAMED_RING_MM
 from kitgen.parts.ring_numbers import ring_needed_mm
@@ -254,7 +259,6 @@ def test_star_names_beside_their_dots_and_off_the_zodiac(head):
     line from its dot to its name, or said in the notes to be unnamed; no
     name meets the ecliptic's band, its words or another star's dot; no two
     drawn dots touch (stars that close are one dot, named for all)."""
-    from kitgen.geometry.style import star_radius_mm
     kit = kit_of(head + "parts: [rete]\n")
     rete, w = kit.part("rete"), kit.words
     stars = [e for e in rete.elements if e.role == "star"]
@@ -269,7 +273,7 @@ def test_star_names_beside_their_dots_and_off_the_zodiac(head):
     c, r_in, r_out = band.geom["center"], band.geom["radius"], ecliptic.geom["radius"]
     for star in drawn:
         name, at = star.values["name"], star.geom["at"]
-        radius = star_radius_mm(star.values["mag"], kit.dims)
+        radius = star.values["radius_mm"]
         if name not in labels:
             assert w.star_name(name) in unnamed, name
             continue
@@ -286,7 +290,7 @@ def test_star_names_beside_their_dots_and_off_the_zodiac(head):
         for other in drawn:
             if other is not star:
                 o = other.geom["at"]
-                ro = star_radius_mm(other.values["mag"], kit.dims)
+                ro = other.values["radius_mm"]
                 assert not (min(xs) - ro < o[0] < max(xs) + ro and min(ys) - ro < o[1] < max(ys) + ro), (name, other.values["name"])
         for word in words:
             assert not any(_segment_meets_box(p, q, corners) for p, q in zip(_box(word, w), _box(word, w)[1:])), name
@@ -298,7 +302,7 @@ def test_star_names_beside_their_dots_and_off_the_zodiac(head):
     for a in drawn:
         for b in drawn:
             if a is not b:
-                ra, rb = (star_radius_mm(e.values["mag"], kit.dims) for e in (a, b))
+                ra, rb = (e.values["radius_mm"] for e in (a, b))
                 assert math.dist(a.geom["at"], b.geom["at"]) >= ra + rb
 
 
@@ -314,3 +318,33 @@ def test_doubles_are_one_dot_named_once():
     (label,) = [e for e in rete.elements if e.role == "star_label" and e.values["name"] == "Rigil Kentaurus"]
     assert w.star_name("Toliman") in label.geom["text"] and w.star_name("Rigil Kentaurus") in label.geom["text"]
     assert not [e for e in rete.elements if e.role == "star_label" and e.values["name"] == "Toliman"]
+
+
+@pytest.mark.parametrize("head", ["latitude: -33.9\nsheet: a5\n", "latitude: -33.9\ndiameter_mm: 80\n",
+                                  "latitude: 10\ndiameter_mm: 80\nrete_limit_deg: -70\n"])
+def test_only_stars_closer_than_a_dot_are_merged(head):
+    """Stars are one dot only when their centres are closer than the
+    smallest printed dot is wide; Hadar, 4.4 deg from Rigil Kentaurus by
+    PyEphem's places (Hipparcos), keeps its own dot and is never named in
+    another star's label; dots that would touch are drawn smaller, never
+    under the smallest dot (#9)."""
+    a, b = ephem.stars.star("Rigil Kentaurus"), ephem.stars.star("Hadar")
+    a.compute("2027/7/2"), b.compute("2027/7/2")
+    assert math.degrees(ephem.separation(a, b)) > 4.0
+    kit = kit_of(head + "parts: [rete]\n")
+    rete, w = kit.part("rete"), kit.words
+    stars = {e.values["name"]: e for e in rete.elements if e.role == "star"}
+    assert stars["Hadar"].stroke != "none" and "merged_into" not in stars["Hadar"].values
+    assert not [e for e in rete.elements if e.role == "star_label" and w.star_name("Hadar") in e.geom["text"]
+                and e.values["name"] != "Hadar"]
+    for name, star in stars.items():
+        if "merged_into" in star.values:
+            into = stars[star.values["merged_into"]]
+            assert math.dist(star.geom["at"], into.geom["at"]) < 2 * MIN_DOT_RADIUS_MM, name
+    drawn = [e for e in stars.values() if e.stroke != "none"]
+    for e in drawn:
+        assert MIN_DOT_RADIUS_MM - 1e-9 <= e.values["radius_mm"] <= star_radius_mm(e.values["mag"], kit.dims) + 1e-9
+    for i, e in enumerate(drawn):
+        for f in drawn[i + 1:]:
+            assert math.dist(e.geom["at"], f.geom["at"]) >= 2 * MIN_DOT_RADIUS_MM  # farther apart than a dot is wide
+            assert math.dist(e.geom["at"], f.geom["at"]) >= e.values["radius_mm"] + f.values["radius_mm"] - 1e-9

@@ -16,7 +16,7 @@ import numpy as np
 
 from ..errors import Message, Number
 from ..geometry import model
-from ..geometry.style import star_radius_mm
+from ..geometry.style import MIN_DOT_RADIUS_MM, star_radius_mm
 from ..projection.circles import project_circle
 from ..projection.stereographic import equatorial_vector, project
 from ..sky.rete_rim import MAX_RIM_DEG, rim_for_stars_deg
@@ -89,10 +89,12 @@ def rete(ctx: PartContext) -> model.Part:
 
     stars = sorted(ctx.sky.stars, key=lambda st: st.star.mag)
     all_pts = [project(-math.radians(st.ra_deg), math.radians(st.dec_deg), s, R) for st in stars]
-    radii = [star_radius_mm(st.star.mag, d) for st in stars]
-    # Stars whose dots would touch are one dot (the brightest's), named
-    # once for all of them (#9); the others stay in the geometry, undrawn.
-    groups = merged_stars(all_pts, radii)
+    # Stars closer than the smallest printed dot is wide are one dot (the
+    # brightest's), named once for all of them (#9); the others stay in the
+    # geometry, undrawn.  Dots of stars farther apart that would still touch
+    # are drawn smaller.
+    groups = merged_stars(all_pts)
+    radii = dot_radii_mm(all_pts, [star_radius_mm(st.star.mag, d) for st in stars], groups)
     lead = [k for k in range(len(stars)) if groups[k] == k]
     pts = [all_pts[k] for k in lead]
     sep = w("page.list_separator")
@@ -117,7 +119,8 @@ def rete(ctx: PartContext) -> model.Part:
         if first != k:
             extra = {"merged_into": stars[first].star.label}
         els.append(model.point("star", p, "heavy" if first == k else "none", name=placed.star.label,
-                               ra_deg=placed.ra_deg, dec_deg=placed.dec_deg, mag=placed.star.mag, **extra))
+                               ra_deg=placed.ra_deg, dec_deg=placed.dec_deg, mag=placed.star.mag,
+                               radius_mm=radii[k], **extra))
         where = where_of.get(k)
         if first == k and where is not None:
             at, anchor, leader = where
@@ -131,14 +134,44 @@ def rete(ctx: PartContext) -> model.Part:
     return model.Part("rete", "film", tuple(els), (-r, -r, r, r), {}, w("rete.title"))
 
 
-def merged_stars(points_mm, radii_mm) -> list[int]:
+def merged_stars(points_mm) -> list[int]:
     """For each star (brightest first) the index of the star whose dot it
-    is drawn as: its own, or the first brighter one whose dot its own
-    would touch (centres closer than the two radii together)."""
+    is drawn as: its own, or the first brighter one whose centre is closer
+    to it than the smallest printed dot is wide (2 x
+    :data:`~kitgen.geometry.style.MIN_DOT_RADIUS_MM`): two such dots could
+    not be printed apart at any size, so they read as one star (alpha
+    Centauri A and B, Rigil Kentaurus and Toliman, 0.0003 deg apart).
+    Stars farther apart keep their own dots and names, however small the
+    rete (Hadar, 4 deg from Rigil Kentaurus, some 0.8 mm on an 80 mm
+    southern kit)."""
     out = []
-    for k, (p, r) in enumerate(zip(points_mm, radii_mm)):
+    for k, p in enumerate(points_mm):
         out.append(next((j for j in range(k) if out[j] == j and
-                         math.hypot(p[0] - points_mm[j][0], p[1] - points_mm[j][1]) < r + radii_mm[j]), k))
+                         math.hypot(p[0] - points_mm[j][0], p[1] - points_mm[j][1]) < 2 * MIN_DOT_RADIUS_MM), k))
+    return out
+
+
+def dot_radii_mm(points_mm, radii_mm, groups) -> list[float]:
+    """The radius (mm) each star's dot is drawn at: its own
+    (kitgen.geometry.style.star_radius_mm), made smaller where it would
+    touch the dot of another drawn star (``groups`` from
+    :func:`merged_stars`), the pair sharing the distance between their
+    centres in proportion to their radii, never below the smallest dot.
+    Brightest first, so a later pair only ever shrinks a dot further; the
+    merging rule keeps every pair at least two smallest dots apart, so the
+    floor never makes two dots meet."""
+    out = list(radii_mm)
+    drawn = [k for k, g in enumerate(groups) if g == k]
+    for a, j in enumerate(drawn):
+        for k in drawn[a + 1:]:
+            dist = math.hypot(points_mm[k][0] - points_mm[j][0], points_mm[k][1] - points_mm[j][1])
+            if dist >= out[j] + out[k]:
+                continue
+            fainter = max(MIN_DOT_RADIUS_MM, dist * out[k] / (out[j] + out[k]))
+            out[j], out[k] = min(out[j], dist - fainter), fainter
+    for k, g in enumerate(groups):
+        if g != k:
+            out[k] = out[g]
     return out
 
 

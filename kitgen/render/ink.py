@@ -68,7 +68,7 @@ def inks(el, dims, holes: Holes = Holes()) -> tuple[Ink, ...]:
                     Ink("segment", {"from": (x - h, y), "to": (x + h, y)}, "medium", el.role),
                     Ink("segment", {"from": (x, y - h), "to": (x, y + h)}, "medium", el.role))
         if el.role == "star":
-            r = style.star_radius_mm(el.values.get("mag", 2.0), dims)
+            r = el.values.get("radius_mm") or style.star_radius_mm(el.values.get("mag", 2.0), dims)
         else:
             r = style.dot_radius_mm(dims)
         return (Ink("dot", {"center": at, "radius": r}, "dot", el.role),)
