@@ -222,13 +222,12 @@ class PlateLabeller:
             protected = protected + [e for e in self.role("almucantar", "horizon")
                                      if abs(e.values["altitude_deg"] - alt) > 1e-9]
         placed = []
-        for anchors in self._almucantar_anchors(els, number_everywhere):
-            for el, a in anchors:
-                b = self.first_free(points_along(el, a), text, size, protected)
-                if b is not None:
-                    placed.append(self.put("almucantar_label", b, text, size, altitude_deg=float(alt)))
-            if placed:
-                return placed
+        for el, a in self._almucantar_anchors(els, number_everywhere):
+            b = self.first_free(points_along(el, a), text, size, protected)
+            if b is not None:
+                placed.append(self.put("almucantar_label", b, text, size, altitude_deg=float(alt)))
+        if placed:
+            return placed
         if number_everywhere:
             # Nowhere clear of the lines it must not cover: on the circle
             # wherever it is free of other labels (the lines break round it).
@@ -246,8 +245,10 @@ class PlateLabeller:
         return []
 
     def _almucantar_anchors(self, els, everywhere):
-        """Groups of (element, point): the meridian crossings, then (for
-        multiples of 10) the east-west crossings and the rim ends."""
+        """Where a circle's numbers go, as (element, point): its meridian
+        crossings inside the drawing and, for a multiple of 10 that crosses
+        the meridian outside it, also where it meets the east-west line
+        or, if it does not inside the drawing, its ends on the rim."""
         disc = self.room.disc
         meridian, east_west, ends = [], [], []
         for el in els:
@@ -262,7 +263,9 @@ class PlateLabeller:
                 for t in (el.geom["start_deg"], el.geom["end_deg"]):
                     t = math.radians(t)
                     ends.append((el, (cx + r * math.cos(t), cy + r * math.sin(t))))
-        return [meridian] if not everywhere else [meridian, east_west, ends]
+        if not everywhere or len(meridian) >= 2:
+            return meridian
+        return meridian + (east_west or ends)
 
     def azimuth(self, az: float, phi: float, s: int, R: float):
         """An azimuth's number on its line continued below the horizon, or,
