@@ -202,6 +202,29 @@ def check_both_sides_of_the_zenith(part, kit):
                 assert near < (12.0 if abs(y) < 4.0 else 6.0), (lat, alt, y, mine)
 
 
+@pytest.mark.parametrize("lat", [0.5, -10.0, 23.44, -45.0, 64.0])
+def test_a_circle_crossing_the_meridian_outside_is_numbered_at_the_rim_or_east_west_line(lat):
+    """A ten whose circle meets the meridian outside the drawing on one
+    side (Snyder: the meridian points at polar angles (90 deg - |phi|) -+
+    (90 deg - a)) carries its number away from the meridian too."""
+    kit = kit_of(latitude=lat)
+    part = plates(kit)[0]
+    R, disc = kit.dims.equator_radius_mm, kit.dims.outer_tropic_radius_mm
+    drawn = {round(e.values["altitude_deg"], 6) for e in part.with_role("almucantar")}
+    checked = 0
+    for alt in sorted(a for a in drawn if abs(a / 10.0 - round(a / 10.0)) < 1e-9):
+        z, t0 = math.radians(90.0 - alt), math.radians(90.0 - abs(lat))
+        ys = [R * math.tan((t0 - z) / 2), R * math.tan((t0 + z) / 2)]
+        if all(abs(y) < disc for y in ys):
+            continue
+        away = [e for e in part.with_role("almucantar_label")
+                if e.values["altitude_deg"] == alt and abs(e.geom["at"][0]) > 6.0]
+        assert away, (lat, alt)
+        checked += 1
+    if lat == 0.5:
+        assert checked >= 3
+
+
 @pytest.mark.parametrize("lat", [-33.9, 0.0, 0.5, 52.2, 64.0])
 def test_numbered_on_both_sides_of_the_zenith(lat):
     kit = kit_of(latitude=lat)
