@@ -15,6 +15,7 @@ from .check.reading import READING_PARTS
 from .errors import Message, UserError
 from .geometry.model import Part
 from .parts import PART_BUILDERS
+from .parts.clock_scale import clock_ring_notes
 from .parts.context import PartContext
 from .parts.dimensions import Dimensions, dimensions
 from .parts.legibility import plan_scales, shortened_notes
@@ -91,6 +92,7 @@ def build_from_plan(plan: Plan) -> Kit:
             parts.append(replace(on_material(build(ctx), plan), id=plate.id))
     parts = tuple(parts)
     notes += rim_notes(plan)
+    notes += clock_ring_notes(parts, dims)  # the back without its clock ring says so (#10)
     kit = Kit(plan, dims, parts, tuple(notes) + shortened_notes(parts, dims, plan.words))
     if not plan.accuracy_page:
         return kit

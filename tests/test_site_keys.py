@@ -136,7 +136,7 @@ def test_coordinates_win_and_nothing_is_looked_up(monkeypatch):
 
 def test_sexagesimal_longitude_in_yaml_is_read_as_written():
     # YAML 1.1 would read 9:08:24 as the base-60 integer 32904.
-    r = parse_recipe_text("latitude: 38.7\nlongitude: -9:08:24\n")
+    r = parse_recipe_text("latitude: 38.7\nlongitude: -9:08:24\ntimezone: Europe/Lisbon\n")
     assert r.longitude_deg == pytest.approx(-9.14)
 
 
@@ -168,6 +168,16 @@ def test_time_zone_of_any_other_type_or_form(tmp_path, capsys, value):
 
 def test_longitude_without_latitude(tmp_path, capsys):
     fails_in_one_line(tmp_path, capsys, "longitude: 10\nplace: Lisbon, PT\n", "'longitude' is given without 'latitude'")
+
+
+@pytest.mark.parametrize("text,given,missing", [
+    ("latitude: 51.5\nlongitude: -0.1\nplace: Hilltop School\n", "longitude", "timezone"),
+    ("latitude: 51.5\ntimezone: Europe/London\n", "timezone", "longitude")])
+def test_longitude_and_time_zone_go_together(tmp_path, capsys, text, given, missing):
+    """Clock time needs the longitude and the zone (#10): one alone is
+    refused in one line that says what to add, not silently left unused."""
+    fails_in_one_line(tmp_path, capsys, text, f"'{given}' is given without '{missing}'", f"add '{missing}'",
+                      "local mean time")
 
 
 def test_the_error_is_told_in_the_recipes_language(tmp_path, capsys):

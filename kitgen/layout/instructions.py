@@ -11,7 +11,7 @@ from ..check.report import report_lines
 from ..parts.clock_scale import signed
 from ..parts.format import latitude_text
 from ..paper import CHECK_BAR_MM
-from ..words.locale import format_date
+from ..words.locale import format_date, zone_place
 from .paragraphs import PAGE_BREAK, Block
 
 
@@ -144,7 +144,8 @@ def story(kit, pages) -> list[Block]:
     out.append(Block("heading", w("instructions.time_heading")))
     out += numbered("instructions.time_steps")
     out += clock_step(kit, len(w.items("instructions.time_steps")) + 1)
-    out.append(Block("body", w("instructions.time_note")))
+    out.append(Block("body", w("instructions.time_note_standard" if _zoned(kit) and not _summer(kit)
+                               else "instructions.time_note")))
     out += sun_example_blocks(kit) + correction_blocks(kit)
     out.append(Block("heading", w("instructions.height_heading")))
     out += numbered("instructions.height_steps")
@@ -176,17 +177,35 @@ def _date(kit, month: int, day: int, with_year: bool = True) -> str:
 
 
 def _place(kit) -> str:
-    return kit.plan.site.place or latitude_text(kit.words, kit.plan.site.latitude_deg)
+    """The place the kit was made for, as the examples name it: its name,
+    or its latitude in words that read in the sentence (#10)."""
+    if kit.plan.site.place:
+        return kit.plan.site.place
+    w, lat = kit.words, kit.plan.site.latitude_deg
+    hemi = w("cardinal.north_short") if lat >= 0 else w("cardinal.south_short")
+    return w("almanac.place_latitude", value=w.number(abs(lat), 1), hemisphere=hemi)
 
 
 def _zoned(kit) -> bool:
     return kit.plan.almanac.time == "zone"
 
 
+def _summer(kit) -> bool:
+    """Whether the site's clocks change for summer time in the epoch year
+    (the zone database, kitgen.sky.site_almanac)."""
+    return _zoned(kit) and kit.plan.almanac.summer_time
+
+
+def zone_name(kit) -> str:
+    """The site's clock in words pupils know: the zone's city in the kit's
+    language, or its UTC offset (kitgen.words.locale.zone_place)."""
+    return zone_place(kit.plan.site.timezone, kit.words.language)
+
+
 def clock_name(kit) -> str:
     """What the corrected time is: a clock of the site's zone, or local mean time."""
     w = kit.words
-    return w("almanac.clock_zone", zone=kit.plan.site.timezone) if _zoned(kit) else w("almanac.clock_mean")
+    return w("almanac.clock_zone", zone=zone_name(kit)) if _zoned(kit) else w("almanac.clock_mean")
 
 
 def sun_place(words, longitude_deg: float) -> str:
@@ -211,7 +230,10 @@ def clock_step(kit, number: int) -> list[Block]:
         out = [Block("item", w("almanac.clock_step_table", heading=w("almanac.correction_heading"),
                                clock_name=clock_name(kit)), w.number(number) + ".")]
         return out if _zoned(kit) else out + [Block("body", w("almanac.mean_missing"))]
-    text = w("almanac.clock_step", zone=kit.plan.site.timezone) if _zoned(kit) else w("almanac.clock_step_mean")
+    if _zoned(kit):
+        text = w("almanac.clock_step" if _summer(kit) else "almanac.clock_step_standard", zone=zone_name(kit))
+    else:
+        text = w("almanac.clock_step_mean")
     return [Block("item", text, w.number(number) + ".")]
 
 
@@ -222,7 +244,10 @@ def sun_example_blocks(kit) -> list[Block]:
         return []
     w = kit.words
     solar_min = int(round(ex.solar_hours * 60.0))
-    text = w("almanac.sun_example", place=_place(kit), date=_date(kit, ex.month, ex.day),
+    # The correction from the back's ring, or from the table where the
+    # finished back has none (#10).
+    key = "almanac.sun_example" if has_clock_ring(kit) else "almanac.sun_example_table"
+    text = w(key, place=_place(kit), heading=w("almanac.correction_heading"), date=_date(kit, ex.month, ex.day),
              date_short=_date(kit, ex.month, ex.day, False),
              altitude=w.number(ex.altitude_deg), sun_place=sun_place(w, ex.sun_longitude_deg),
              solar=clock_text(w, solar_min / 60.0), correction=signed(w, ex.correction_min),

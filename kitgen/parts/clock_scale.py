@@ -13,8 +13,12 @@ The ticks between runs stand at the ring's outer edge and the numbers
 below them, each centred on its run; where runs are shorter than their
 numbers (near the turn of the year the correction changes by a minute
 every two days) only every other run is numbered, its neighbours' numbers
-being one more and one less.  On a kit too small for the ring and the
-title together, the ring is left out (the instructions carry the table).
+being one more and one less.  The title, the less important of the two,
+makes room for the ring: inside it the title may go down to
+:data:`~kitgen.parts.dimensions.MIN_TITLE_PT` and onto two or three
+lines; only on a kit where even so it cannot fit is the ring left out,
+and the build says so (:func:`clock_ring_notes`; the instructions then
+carry the table alone).
 The horizontal through the centre crosses the ring at the equinoxes; no
 number stands on it.  Each run is
 also an undrawn arc carrying its dates and minutes, so that the JSON
@@ -27,14 +31,17 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass
 
+from ..errors import Message, Number
 from ..geometry import model
+from ..words.locale import zone_place
 from . import curves, labels
 from .context import PartContext
-from .dimensions import MIN_TICK_MM
+from .dimensions import MIN_TEXT_PT, MIN_TICK_MM, MIN_TITLE_PT
 
-#: The top of the title's room on the back, as a share of the radius it
-#: is fitted in (kitgen.parts.mater_back: centre 0.47, height 0.22).
-TITLE_TOP = 0.58
+#: The title's room on the back (kitgen.parts.mater_back), as shares of
+#: the radius it is fitted in: the height of its middle and its height.
+TITLE_Y = 0.47
+TITLE_H = 0.22
 
 
 @dataclass(frozen=True)
@@ -81,15 +88,35 @@ def _numbers(w, numbers, r_text: float, size_pt: float):
     return out
 
 
-def _title_fits(ctx: PartContext, r_inner_mm: float) -> bool:
-    """Whether the back's title, at its own size, still fits inside the
-    ring (the top of its room at :data:`TITLE_TOP` of the radius, as
-    kitgen.parts.mater_back sets it).  On a small kit it does not: the ring
-    is left out and the correction is printed in the instructions only."""
+def title_min_pt(ctx: PartContext, r_inner_mm: float) -> float:
+    """The smallest size the back's title may take inside radius
+    ``r_inner_mm``: :data:`MIN_TITLE_PT` where the title fits there at it
+    (on up to three lines, kitgen.words.fit), else :data:`MIN_TEXT_PT`, the
+    legible minimum of any label."""
     w = ctx.words
-    width = w.measure(ctx.plan.title or w("kit.default_title"), ctx.dims.title_pt, "bold").width_mm
-    r = r_inner_mm - labels.MARGIN_MM
-    return (width / 2.0) ** 2 + (TITLE_TOP * r_inner_mm) ** 2 <= r * r
+    y, h = TITLE_Y * r_inner_mm, TITLE_H * r_inner_mm
+    room = 2.0 * math.sqrt(max((r_inner_mm - labels.MARGIN_MM) ** 2 - (y + h / 2) ** 2, 0.0))
+    fitted = w.fit(ctx.plan.title or w("kit.default_title"), ctx.dims.title_pt, room, h, style="bold",
+                   min_pt=MIN_TITLE_PT)
+    return MIN_TITLE_PT if fitted.step < 5 else MIN_TEXT_PT
+
+
+def _title_fits(ctx: PartContext, r_inner_mm: float) -> bool:
+    """Whether the back's title fits inside the ring at no less than
+    :data:`MIN_TITLE_PT`; where it does not (a long title on a small kit)
+    the ring is left out and the correction is printed in the instructions
+    only."""
+    return title_min_pt(ctx, r_inner_mm) == MIN_TITLE_PT
+
+
+def clock_ring_notes(parts, dims) -> tuple[Message, ...]:
+    """A note where the finished mater back has no clock ring (read from
+    the part, not re-derived): the title left it no room at this size."""
+    backs = [p for p in parts if p.kind == "mater_back"]
+    if not backs or any(e.role == "clock_run" for p in backs for e in p.elements):
+        return ()
+    return (Message("notes.clock_ring_left_out", part=Message("notes.part.mater_back"),
+                    diameter=Number(2 * dims.mater_radius_mm)),)
 
 
 def signed(words, minutes: int) -> str:
@@ -134,8 +161,10 @@ def clock_scale(ctx: PartContext, r_outer_mm: float) -> ClockScale:
         numbers.append((span, end + span / 2.0, minutes, m0, d0))
     els += _numbers(w, numbers, r_text, size)
     key = "clock_scale.caption_zone" if almanac.time == "zone" else "clock_scale.caption_mean"
+    # The zone's city (or UTC offset), never its IANA name.
+    zone = zone_place(ctx.plan.site.timezone, w.language) if almanac.time == "zone" else ""
     y, room_h = 0.12 * r0, 0.085 * r0
     room = 2.0 * math.sqrt(max((r0 - labels.MARGIN_MM) ** 2 - (y + room_h / 2) ** 2, 0.0))
-    els += labels.fitted_text("clock_caption", (0.0, y), w(key, zone=ctx.plan.site.timezone or ""), size, w,
+    els += labels.fitted_text("clock_caption", (0.0, y), w(key, zone=zone), size, w,
                               room, room_h)
     return ClockScale(tuple(els), r0 - labels.MARGIN_MM)

@@ -19,6 +19,7 @@ from ..geometry import model
 from ..words.fit import line_offsets_mm
 from ..words.measure import text_corners_mm
 from . import curves
+from .dimensions import MIN_TEXT_PT
 
 #: Clearance (mm) kept between a label and the lines that bound its room
 #: (common practice: about a third of a millimetre reads as "apart" in print).
@@ -183,13 +184,15 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
 
 def fitted_text(role, at, string: str, size_pt: float, words, max_width_mm: float,
                 max_height_mm: float | None = None, angle_deg: float = 0.0, anchor: str = "middle",
-                short: str | None = None, style: str = "label", **values) -> list[model.Element]:
+                short: str | None = None, style: str = "label", min_pt: float = MIN_TEXT_PT,
+                **values) -> list[model.Element]:
     """Text elements for ``string`` fitted to a room ``max_width_mm`` long
-    (along the text) and ``max_height_mm`` high around ``at``: one element
+    (along the text) and ``max_height_mm`` high around ``at``, made no
+    smaller than ``min_pt`` before it is broken into lines: one element
     per line, the lines stacked across the text's direction about ``at``.
     Each element carries ``full_text`` (the whole label) in its values
     when the label was shortened or broken."""
-    fitted = words.fit(string, size_pt, max_width_mm, max_height_mm, short, style)
+    fitted = words.fit(string, size_pt, max_width_mm, max_height_mm, short, style, min_pt)
     if len(fitted.lines) == 1 and fitted.lines[0] == string:
         return [model.text(role, at, string, fitted.size_pt, angle_deg, anchor, **values)]
     h = words.measure(fitted.lines[0], fitted.size_pt, style).height_mm

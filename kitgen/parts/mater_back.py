@@ -19,7 +19,7 @@ from ..geometry import model
 from . import curves, labels
 from .ring_numbers import (NUMBERED_TICK, SHORT_TICK, SIGN_NUMBERS_DEG, names_from_edge_mm, number_row,
                            numbers_gap_mm)
-from .clock_scale import clock_scale
+from .clock_scale import TITLE_H, TITLE_Y, clock_scale, title_min_pt
 from .context import PartContext
 from .mater_front import hang_hole
 from .shadow_square import LABELLED_RATIOS, SHADOW_RATIOS, decimals, shadow_mark, shadow_side_mm
@@ -55,14 +55,17 @@ def mater_back(ctx: PartContext) -> model.Part:
     # Title, place, epoch and owner inside the calendar ring, each fitted to the
     # chord of that ring at the far edge of its room.
     for role, y_frac, h_frac, text, size, style in (
-            ("title", 0.47, 0.22, ctx.plan.title or w("kit.default_title"), d.title_pt, "bold"),
+            ("title", TITLE_Y, TITLE_H, ctx.plan.title or w("kit.default_title"), d.title_pt, "bold"),
             ("place", 0.33, 0.09, ctx.plan.site.place, d.text_pt, "label"),
             ("epoch", 0.225, 0.09, w("mater_back.epoch", year=w.number(ctx.plan.epoch)), d.small_text_pt, "label"),
             ("owner", 0.76, 0.09, ctx.plan.owner, d.small_text_pt, "label")):  # whose kit it is (#9)
         if text:
             y, h = r_cal * y_frac, r_cal * h_frac
             room = 2 * math.sqrt((r_cal - labels.MARGIN_MM) ** 2 - (y + h / 2) ** 2)
-            els += labels.fitted_text(role, (0.0, y), text, size, w, room, h, style=style)
+            # The title goes onto two lines rather than below its 8 pt
+            # where it can (kitgen.parts.clock_scale keeps the ring for it).
+            low = title_min_pt(ctx, r_cal) if role == "title" else labels.MIN_TEXT_PT
+            els += labels.fitted_text(role, (0.0, y), text, size, w, room, h, style=style, min_pt=low)
     els.append(hang_hole(d))
     els.append(model.point("pin", (0.0, 0.0), hole="centre"))
     return model.Part("mater_back", "card", tuple(els), (-R, -R, R, R), {}, w("mater_back.title"))

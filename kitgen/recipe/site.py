@@ -7,6 +7,8 @@ builds).  Without a latitude, ``place`` is looked up in the offline
 gazetteer (:mod:`kitgen.places`), which gives latitude, longitude and
 time zone; a ``timezone`` key still overrides the place's zone.  A
 longitude without a latitude is refused: half a position is a mistake.
+So is a longitude without a time zone, or a zone without a longitude:
+the kit's clock time needs both, and one alone would go unused (#10).
 """
 
 from __future__ import annotations
@@ -39,17 +41,22 @@ def resolve_site(values: dict, source, place_where) -> None:
     """Complete the validated recipe ``values`` (Recipe field names) with
     the site: look ``place`` up when no latitude is given.  ``source``
     names the recipe and ``place_where`` the place key's line in messages.
-    Raises :class:`UserError` for a longitude without a latitude and for a
-    place the gazetteer does not know or cannot tell apart."""
+    Raises :class:`UserError` for a longitude without a latitude, for a
+    longitude or a time zone without the other, and for a place the
+    gazetteer does not know or cannot tell apart."""
     if "longitude_deg" in values and "latitude_deg" not in values:
         raise UserError("errors.longitude_without_latitude", source=source)
-    if "latitude_deg" in values or not values.get("place"):
-        return
-    try:
-        place = resolve(values["place"])
-    except PlaceError as exc:
-        label = Message("errors.key_label", where=place_where, name="place")
-        raise UserError("errors.key_problem", label=label, problem=exc) from None
-    values["latitude_deg"] = place.latitude_deg
-    values["longitude_deg"] = place.longitude_deg
-    values.setdefault("timezone", place.timezone)
+    if "latitude_deg" not in values and values.get("place"):
+        try:
+            place = resolve(values["place"])
+        except PlaceError as exc:
+            label = Message("errors.key_label", where=place_where, name="place")
+            raise UserError("errors.key_problem", label=label, problem=exc) from None
+        values["latitude_deg"] = place.latitude_deg
+        values["longitude_deg"] = place.longitude_deg
+        values.setdefault("timezone", place.timezone)
+    # Clock time needs both: one alone would be silently unused (#10).
+    has_longitude, has_zone = values.get("longitude_deg") is not None, values.get("timezone") is not None
+    if has_longitude != has_zone:
+        given, missing = ("longitude", "timezone") if has_longitude else ("timezone", "longitude")
+        raise UserError("errors.clock_needs_both", source=source, given=given, missing=missing)

@@ -16,7 +16,7 @@ from dataclasses import dataclass
 
 from .clock import clock_correction_min
 from .sun_rise_set import POLAR_DAY, rise_set_jd
-from .zone import local_clock_min
+from .zone import changes_offset, local_clock_min
 
 #: Days of the month of the sunrise and sunset table (by half month).
 TABLE_DAYS = (1, 16)
@@ -60,6 +60,9 @@ class Almanac:
     time: str                                             # ZONE_TIME or LOCAL_MEAN_TIME
     clock_correction: tuple[tuple[int, int, float], ...]  # (month, day, minutes to add to the reading)
     sun_rise_set: tuple[SunRiseSet, ...]
+    #: Whether the zone's clocks change their offset in the year (summer
+    #: time, by the zone database); False for local mean time.
+    summer_time: bool = False
 
 
 def hh_mm(minutes: float | None) -> str | None:
@@ -101,4 +104,5 @@ def almanac_for_site(year: int, latitude_deg: float, longitude_deg: float | None
     correction = clock_correction_min(year, longitude_deg if zoned else None, timezone if zoned else None)
     table = tuple(sun_rise_set_for(year, m, d, latitude_deg, longitude_deg, timezone)
                   for m in range(1, 13) for d in TABLE_DAYS)
-    return Almanac(year, ZONE_TIME if zoned else LOCAL_MEAN_TIME, tuple(correction), table)
+    return Almanac(year, ZONE_TIME if zoned else LOCAL_MEAN_TIME, tuple(correction), table,
+                   zoned and changes_offset(timezone, year))

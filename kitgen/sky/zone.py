@@ -51,6 +51,19 @@ def offset_at_noon_min(name: str, year: int, month: int, day: int) -> tuple[floa
     return noon.utcoffset().total_seconds() / 60.0, (summer.total_seconds() / 60.0 if summer else 0.0)
 
 
+def changes_offset(name: str, year: int) -> bool:
+    """Whether zone ``name``'s clocks change their offset from UT during
+    ``year`` (summer time, or a change of standard time): the offset at
+    noon of each day of the year compared with that of 1 January."""
+    first = _dt.datetime(year, 1, 1, 12, 0, tzinfo=zone(name)).utcoffset()
+    day = _dt.date(year, 1, 1)
+    while day.year == year:
+        if _dt.datetime(day.year, day.month, day.day, 12, 0, tzinfo=zone(name)).utcoffset() != first:
+            return True
+        day += _dt.timedelta(days=1)
+    return False
+
+
 def local_clock_min(name: str, unix_s: float) -> tuple[_dt.date, float]:
     """The local date and the minutes after local midnight on the zone's
     clock at the instant ``unix_s`` (seconds of UT since 1970-01-01)."""

@@ -10,11 +10,12 @@ from __future__ import annotations
 
 import datetime as _dt
 import unicodedata
+import zoneinfo
 from functools import lru_cache
 
 from babel import Locale, UnknownLocaleError
 from babel.core import get_global
-from babel.dates import format_skeleton
+from babel.dates import format_skeleton, get_timezone_location
 from babel.numbers import format_decimal
 
 #: The first digit of each CLDR numbering system kitgen can print
@@ -118,3 +119,24 @@ def format_date(year: int, month: int, day: int, code: str, native_digits: bool 
         if system != "latn":
             text = text.translate(str.maketrans("0123456789", digits(system)))
     return text
+
+
+def zone_place(timezone: str, code: str) -> str:
+    """The words for an IANA zone on a kit in language ``code``: the
+    zone's exemplar city in that language (the Unicode CLDR through Babel:
+    ``London`` for Europe/London, ``Londres`` in French), as pupils know
+    their clock by a city and never by the database's name; for a zone of
+    no city (``UTC``, ``Etc/GMT-3``), its offset from UT in January,
+    ``UTC+3``."""
+    if "/" in timezone and not timezone.startswith("Etc/"):
+        try:
+            return get_timezone_location(timezone, locale=cldr_locale(code), return_city=True)
+        except (LocaleError, LookupError, ValueError):
+            return timezone.rsplit("/", 1)[-1].replace("_", " ")
+    offset = _dt.datetime(2000, 1, 1, tzinfo=zoneinfo.ZoneInfo(timezone)).utcoffset()
+    minutes = int(offset.total_seconds() // 60)
+    if minutes == 0:
+        return "UTC"
+    h, m = divmod(abs(minutes), 60)
+    sign = "+" if minutes > 0 else "\u2212"
+    return f"UTC{sign}{h}" + (f":{m:02d}" if m else "")
