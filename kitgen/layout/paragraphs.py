@@ -14,7 +14,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 from ..paper import MM_PER_PT, PT_PER_MM
-from ..words.shaping import set_line
+from ..words.shaping import plain_advances, set_line
 
 
 @dataclass(frozen=True)
@@ -73,7 +73,15 @@ def width_pt(string: str, size_pt: float, words, style: str = "body") -> float:
 def wrap(text: str, width_limit_pt: float, size_pt: float, words, style: str) -> list[str]:
     """Break ``text`` at spaces into lines no wider than the limit (a
     greedy first fit, as a typewriter does; a single word wider than the
-    limit stands alone)."""
+    limit stands alone).  A plain paragraph (Latin, Greek, Cyrillic) is
+    measured from its characters' advances, read once: each trial line's
+    width is the sum of its advances, exactly what setting it would give
+    (:func:`kitgen.words.shaping.plain_advances`); any other sets each
+    trial line."""
+    joined = " ".join(text.split())
+    advances = plain_advances(joined, words.script, style)
+    if advances is not None:
+        return _wrap_plain(joined, advances, width_limit_pt, size_pt)
     lines, current = [], ""
     for word in text.split():
         trial = f"{current} {word}" if current else word
@@ -84,6 +92,24 @@ def wrap(text: str, width_limit_pt: float, size_pt: float, words, style: str) ->
             current = trial
     if current:
         lines.append(current)
+    return lines
+
+
+def _wrap_plain(joined: str, advances: list[float], width_limit_pt: float, size_pt: float) -> list[str]:
+    """:func:`wrap` of a plain paragraph whose words are ``joined`` by
+    single spaces: the same first fit, each trial line ``joined[start:end]``
+    measured as ``sum(advances[start:end])``."""
+    lines, start, end = [], 0, None
+    pos = 0
+    for word in joined.split(" ") if joined else ():
+        stop = pos + len(word)
+        if end is not None and sum(advances[start:stop]) * size_pt > width_limit_pt:
+            lines.append(joined[start:end])
+            start = pos
+        end = stop
+        pos = stop + 1
+    if end is not None:
+        lines.append(joined[start:end])
     return lines
 
 

@@ -282,12 +282,26 @@ def _run(face: Face, text: str, level: int) -> Run:
     return Run(face, text, False, False, (), sum(fonts.advance_em(face, ch) for ch in text))
 
 
-#: Lines kept set: enough for the instructions of every shipped language,
-#: which a class set measures again for each kit (#12).
-@lru_cache(maxsize=32768)
 def set_line(text: str, script: str, style: str, prefer_rtl: bool = False) -> Line:
     """``text`` (one line, logical order) set in ``style`` for a language
-    written in ``script``; ``prefer_rtl`` for a right-to-left language."""
+    written in ``script``; ``prefer_rtl`` for a right-to-left language.
+    A plain line (:func:`plain_advances`) is set straight from its
+    characters' advances and bounds; any other goes through the bidi
+    algorithm, the choice of fonts and HarfBuzz (:func:`set_line_exact`),
+    which would give the plain line the very same :class:`Line`."""
+    stack = fonts.stack(script, style)
+    if len(stack) == 1:
+        line = _plain_line(text, stack[0])
+        if line is not None:
+            return line
+    return set_line_exact(text, script, style, prefer_rtl)
+
+
+#: Lines kept set: the shaped and right-to-left lines a class set measures
+#: again for each kit (#12); plain lines are set afresh, as fast as found.
+@lru_cache(maxsize=8192)
+def set_line_exact(text: str, script: str, style: str, prefer_rtl: bool = False) -> Line:
+    """:func:`set_line` by the whole method, for any line."""
     stack = fonts.stack(script, style)
     # P2 skips the isolates; a line of a right-to-left language with no
     # strong letter of its own outside them keeps the language's direction (HL1)
@@ -301,6 +315,86 @@ def set_line(text: str, script: str, style: str, prefer_rtl: bool = False) -> Li
     visual = tuple(_visual_runs(text, stack, rtl))
     top, bottom = _ink(visual, middle)
     return Line(text, visual, sum(r.width_em for r in visual), middle, top, bottom, rtl)
+
+
+# -- plain lines -----------------------------------------------------------------
+
+#: Bidirectional classes that leave a line without any right-to-left
+#: letter or number at level 0 throughout (UAX #9: W1-W7 turn EN into L
+#: when no R or AL precedes it, N1-N2 give neutrals the level of the L
+#: around them, I1 keeps L at level 0); explicit embeddings, isolates
+#: and R, AL, AN are not among them.
+_PLAIN_CLASSES = frozenset({"L", "EN", "ES", "ET", "CS", "NSM", "BN", "B", "S", "WS", "ON"})
+
+#: Per face, each character met so far: (advance, top, bottom) in em, or
+#: False when a line holding it is not plain.  Filled as characters come,
+#: so a worker only ever reads the glyphs its kits print.
+_PLAIN_CHARS: dict[Face, dict[str, tuple[float, float, float] | bool]] = {}
+
+
+def _plain_char(face: Face, ch: str):
+    """(advance, top, bottom) in em of ``ch``'s glyph in ``face`` as
+    :func:`_run` and :func:`_ink` read them (the top and bottom of a blank
+    glyph at minus and plus infinity, which ``max`` and ``min`` pass
+    over), or False when ``ch`` keeps a line from being plain."""
+    table = _PLAIN_CHARS.setdefault(face, {})
+    info = table.get(ch)
+    if info is None:
+        plain = (ch != _STAND_IN and fonts.has_char(face, ch)
+                 and (unicodedata.bidirectional(ch) or "L") in _PLAIN_CLASSES)
+        if not plain:
+            info = False
+        else:
+            box = fonts.char_bounds_em(face, ch)
+            top, bottom = (float("-inf"), float("inf")) if box is None else (box[3] + 0.0, box[1] + 0.0)
+            info = (fonts.advance_em(face, ch), top, bottom)
+        table[ch] = info
+    return info
+
+
+def _plain_chars(face: Face, text: str):
+    """The :func:`_plain_char` of each character, or None when ``text``
+    is not plain in ``face`` (a face that is shaped is never plain)."""
+    if _needs_shaping(face, False):
+        return None
+    table = _PLAIN_CHARS.get(face) or {}
+    get = table.get
+    infos = [get(ch) or _plain_char(face, ch) for ch in text]
+    return infos if all(infos) else None
+
+
+def plain_advances(text: str, script: str, style: str) -> list[float] | None:
+    """The advance (em) of each character of ``text`` when it is a plain
+    line in ``style`` for ``script``, else None.  A plain line is one
+    font's glyphs, one to a character, left to right with their hmtx
+    advances: the script's stack is a single font (Latin, Greek,
+    Cyrillic: DejaVu) that holds every character and needs no shaping,
+    and no character is right to left, an Arabic number, an embedding or
+    an isolate.  Then every part of the line is plain too, and the width
+    of ``text[i:j]`` as :func:`set_line` sets it is exactly
+    ``sum(advances[i:j])`` (the same floats added in the same order), so
+    a paragraph can be wrapped without setting every trial line."""
+    stack = fonts.stack(script, style)
+    if len(stack) != 1:
+        return None
+    infos = _plain_chars(stack[0], text)
+    return None if infos is None else [info[0] for info in infos]
+
+
+def _plain_line(text: str, face: Face) -> Line | None:
+    """The :class:`Line` :func:`set_line_exact` makes of a plain ``text``:
+    one unshaped run, left to right, its width the sum of the advances and
+    its ink from the glyphs' bounds; None when ``text`` is not plain."""
+    if not text:
+        return None
+    infos = _plain_chars(face, text)
+    if infos is None:
+        return None
+    run = Run(face, text, False, False, (), sum([info[0] for info in infos]))
+    middle = fonts.middle_em(face)
+    top = max(middle, max([info[1] for info in infos]))
+    bottom = min(middle, min([info[2] for info in infos]))
+    return Line(text, (run,), sum(r.width_em for r in (run,)), middle, top, bottom, False)
 
 
 def _visual_runs(text: str, stack: tuple[Face, ...], rtl: bool) -> list[Run]:

@@ -1,0 +1,95 @@
+"""The fast setting of plain lines (#12) gives what the whole method gives.
+
+A plain line (one font, left to right, no shaping: the Latin, Greek and
+Cyrillic languages) is set straight from its characters' advances, and a
+plain paragraph is wrapped from advances read once.  Checked here, for
+strings of every shipped language:
+
+- the :class:`Line` equals the one :func:`set_line_exact` makes by the
+  UAX #9 algorithm, the choice of fonts and the glyph bounds, field for
+  field, floats bit for bit;
+- its width equals the sum of HarfBuzz's advances for the same string in
+  the same font file (uharfbuzz, the reference shaper) with kerning and
+  ligatures off, as reportlab draws plain strings;
+- a paragraph wraps into the same lines as setting every trial line.
+"""
+
+from __future__ import annotations
+
+import pytest
+
+from kitgen.layout import paragraphs
+from kitgen.template_files import available_languages
+from kitgen.words import fonts
+from kitgen.words.shaping import plain_advances, set_line, set_line_exact
+from kitgen.words.templates import load_words
+
+hb = pytest.importorskip("uharfbuzz")
+
+
+def _sample(words, n: int = 60) -> list[str]:
+    """Every ``step``-th template string, star names too, and a number."""
+    texts = sorted({t for _, t in words.strings() if t})
+    step = max(1, len(texts) // n)
+    return texts[::step] + [words.number(-52.25, 1), "Latitude 52.2° N", "a\u00a0b  c"]
+
+
+def _harfbuzz_width_em(text: str, face) -> float:
+    """Sum of HarfBuzz's advances (em) for ``text`` in ``face``'s file,
+    left to right, without kerning or ligatures."""
+    font = hb.Font(hb.Face(hb.Blob(fonts.font_bytes(face))))
+    buf = hb.Buffer()
+    buf.add_str(text)
+    buf.guess_segment_properties()
+    buf.direction = "ltr"
+    hb.shape(font, buf, {"kern": False, "liga": False})
+    return sum(p.x_advance for p in buf.glyph_positions) / fonts.units_per_em(face)
+
+
+@pytest.mark.parametrize("code", available_languages())
+def test_plain_line_is_the_exact_line(code):
+    words = load_words(code)
+    plain = 0
+    for text in _sample(words):
+        for style in fonts.STYLES:
+            fast = set_line(text, words.script, style, words.rtl)
+            exact = set_line_exact.__wrapped__(text, words.script, style, words.rtl)
+            assert fast == exact, (code, style, text)
+            advances = plain_advances(text, words.script, style)
+            if advances is None:
+                continue
+            plain += 1
+            assert fast.width_em == sum(advances)
+            face = fonts.stack(words.script, style)[0]
+            # uharfbuzz: the reference shaper, on the same font file
+            assert fast.width_em == pytest.approx(_harfbuzz_width_em(text, face), rel=1e-9, abs=1e-12)
+    # Latin, Greek and Cyrillic lines are plain; Arabic and Devanagari never
+    if words.script in ("Arab", "Deva"):
+        assert plain == 0
+    else:
+        assert plain > 50
+
+
+@pytest.mark.parametrize("code", available_languages())
+def test_plain_wrap_is_the_exact_wrap(code, monkeypatch):
+    words = load_words(code)
+    texts = [t for t in _sample(words, 30) if len(t.split()) > 3]
+    fast = [paragraphs.wrap(t, limit, size, words, "body") for t in texts
+            for limit, size in ((120.0, 9.0), (300.0, 10.5))]
+    monkeypatch.setattr(paragraphs, "plain_advances", lambda *a: None)
+    slow = [paragraphs.wrap(t, limit, size, words, "body") for t in texts
+            for limit, size in ((120.0, 9.0), (300.0, 10.5))]
+    assert fast == slow
+    assert any(len(lines) > 1 for lines in fast)
+
+
+def test_not_plain():
+    """Right-to-left letters, Arabic numbers, isolates, characters no font
+    holds and the two-font stacks keep the whole method."""
+    assert plain_advances("abc \u05d0", "Latn", "label") is None
+    assert plain_advances("\u0661\u0662", "Latn", "label") is None
+    assert plain_advances("a \u2068b\u2069", "Latn", "label") is None
+    assert plain_advances("a \ufffc", "Latn", "label") is None
+    assert plain_advances("\u4e2d", "Latn", "label") is None
+    assert plain_advances("Vega", "Arab", "label") is None
+    assert len(plain_advances("Vega 1.5°", "Grek", "bold")) == 9
