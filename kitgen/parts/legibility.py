@@ -406,7 +406,9 @@ def shortened_notes(parts, dims, words) -> tuple[Message, ...]:
     cut short with "…" because even at the legible minimum they did not fit
     their room, and for the stars the label placer found no room to name
     (by the names ``words`` prints them with): so that no shortened or
-    missing word goes unsaid."""
+    missing word goes unsaid; and for the rete's ecliptic numbers left
+    out because a star's dot lies where they would stand
+    (kitgen.parts.band_words)."""
     out = []
     size = Number(2 * dims.mater_radius_mm)
     several = sum(p.kind == "plate" for p in parts) > 1
@@ -419,6 +421,10 @@ def shortened_notes(parts, dims, words) -> tuple[Message, ...]:
         if cut:
             out.append(Message("notes.shortened", part=name,
                                labels=[Message("notes.quoted", text=c) for c in cut], diameter=size))
+        under = part.values.get("ecliptic_numbers_under_stars_deg")
+        if under:
+            out.append(Message("notes.ecliptic_numbers_under_stars", part=name,
+                               longitudes=[Number(int(round(lon))) for lon in under]))
         named = {e.values.get("name") for e in part.elements if e.role == "star_label"}
         unnamed = [e.values["name"] for e in part.elements if e.role == "star" and e.stroke != "none"
                    and e.values["name"] not in named]

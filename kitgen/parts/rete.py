@@ -21,10 +21,16 @@ from ..projection.circles import project_circle
 from ..projection.stereographic import equatorial_vector, project
 from ..sky.rete_rim import MAX_RIM_DEG, rim_for_stars_deg
 from ..words.symbols import ZODIAC_SIGNS
-from . import curves, labels, legibility
+from . import band_words, curves, labels, legibility
 from .ring_numbers import NUMBERED_TICK, SHORT_TICK, SIGN_NUMBERS_DEG, names_from_edge_mm, number_row
 from .context import PartContext
 from .ecliptic_points import ecliptic_points_mm
+
+
+#: Paper (mm) a star's name keeps from every other star's dot, so that none
+#: reads as touching it (a choice: a third of the labels' margin, which
+#: still lets the crowded belt of Orion be named on A4).
+NAME_CLEARANCE_MM = 0.1
 
 
 def rete(ctx: PartContext) -> model.Part:
@@ -99,9 +105,19 @@ def rete(ctx: PartContext) -> model.Part:
     pts = [all_pts[k] for k in lead]
     sep = w("page.list_separator")
     names = [sep.join(w.star_name(stars[j].star.label) for j in range(len(stars)) if groups[j] == k) for k in lead]
+    # A word of the band on a star's dot slides along the band (#9); a
+    # number with nowhere to go is left out, and said in the notes.
+    numbered = [e.values["longitude_deg"] for e in els if e.role == "ecliptic_number"]
+    els = band_words.clear_of_dots(els, [(q, radii[k]) for k, q in zip(lead, pts)], tuple(c), w,
+                                   _slide_range(eps, s, R, tuple(c)),
+                                   {30.0 * k + 15.0: ZODIAC_SIGNS[k] for k in range(12)})
+    kept = {e.values["longitude_deg"] for e in els if e.role == "ecliptic_number"}
+    under_stars = [lon for lon in numbered if lon not in kept]
     pin_box = (-2.5, -2.5, 2.5, 2.5)  # the pin's crosshair
     zodiac_boxes = [labels.element_box_mm(e, w) for e in els if e.role in ("zodiac_label", "ecliptic_number")]
-    dot_boxes = [(q[0] - radii[k], q[1] - radii[k], q[0] + radii[k], q[1] + radii[k]) for k, q in zip(lead, pts)]
+    g = NAME_CLEARANCE_MM
+    dot_boxes = [(q[0] - radii[k] - g, q[1] - radii[k] - g, q[0] + radii[k] + g, q[1] + radii[k] + g)
+                 for k, q in zip(lead, pts)]
     owner, owner_boxes = _owner_on_film(ctx, tuple(c), image.radius_mm, band, dot_boxes)
     els += owner
     # A name stands beside its dot, farther out with a leader line where
@@ -131,7 +147,30 @@ def rete(ctx: PartContext) -> model.Part:
                 els.append(model.segment("star_leader", leader[0], leader[1], "fine", name=placed.star.label))
     els.append(model.point("pin", (0.0, 0.0), hole="centre"))
     r = d.plate_radius_mm
-    return model.Part("rete", "film", tuple(els), (-r, -r, r, r), {}, w("rete.title"))
+    values = {"ecliptic_numbers_under_stars_deg": under_stars} if under_stars else {}
+    return model.Part("rete", "film", tuple(els), (-r, -r, r, r), values, w("rete.title"))
+
+
+def _slide_range(eps, s, R, center):
+    """``range(el) -> (low, high)``: the degrees about the ecliptic's
+    centre through which a word of the band may turn: a sign's name within
+    its sign (a degree short of its bounds), a number within
+    kitgen.parts.band_words.NUMBER_SLIDE_DEG of its tick."""
+
+    def angle_deg(lon):
+        p = ecliptic_points_mm(np.array([float(lon)]), eps, s, R)[0]
+        return math.degrees(math.atan2(p[1] - center[1], p[0] - center[0]))
+
+    def turn(a, b):
+        return (b - a + 180.0) % 360.0 - 180.0
+
+    def slide(el):
+        lon = el.values["longitude_deg"]
+        reach = 14.0 if el.role == "zodiac_label" else band_words.NUMBER_SLIDE_DEG
+        ends = (turn(angle_deg(lon), angle_deg(lon - reach)), turn(angle_deg(lon), angle_deg(lon + reach)))
+        return min(ends), max(ends)
+
+    return slide
 
 
 def merged_stars(points_mm) -> list[int]:

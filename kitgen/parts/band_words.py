@@ -1,0 +1,179 @@
+"""The words of the rete's ecliptic band kept off the stars' dots (#9).
+
+A star's dot is fixed by the sky, a word of the band is not: a sign's
+name may stand anywhere between its sign's bounds, a number a little to
+either side of its tick.  So a word whose measured ink box (the shipped
+fonts' metrics, :mod:`kitgen.words.measure`, turned as the PDF sets it)
+comes within :data:`DOT_CLEARANCE_MM` of a dot slides along the band,
+turned about the ecliptic's centre, to the nearest place where it meets no
+dot, no drawn tick and no other word of the band (common practice in map
+labelling: the name gives way to the feature).  A sign's name with no
+such place is written as its Unicode sign (the fitting rule's short form,
+kitgen.words.symbols) and tried again; a number with none is left out
+(it is one of two in its sign, and the ticks still count the degrees).
+
+Angles in degrees about the ecliptic's centre; lengths in mm.
+"""
+
+from __future__ import annotations
+
+import dataclasses
+import math
+
+from ..words.measure import text_corners_mm
+from . import labels
+
+#: Clearance (mm) kept between a word of the band and a star's dot: the
+#: labels' margin (kitgen.parts.labels.MARGIN_MM), the least gap that reads
+#: as "apart" in print (common practice).
+DOT_CLEARANCE_MM = labels.MARGIN_MM
+
+#: How far a number may slide from its tick, in degrees of longitude: less
+#: than half the 5-degree ticks' spacing, so it still reads as its tick's.
+NUMBER_SLIDE_DEG = 2.0
+
+#: The step (degrees about the ecliptic's centre) of the search for a place.
+STEP_DEG = 0.1
+
+
+def _frame(corners):
+    (x0, y0), (x1, y1), _, (x3, y3) = corners
+    lu, lv = math.hypot(x1 - x0, y1 - y0), math.hypot(x3 - x0, y3 - y0)
+    return (x0, y0), ((x1 - x0) / lu, (y1 - y0) / lu), ((x3 - x0) / lv, (y3 - y0) / lv), lu, lv
+
+
+def _local(frame, pt):
+    (x0, y0), u, v, _, _ = frame
+    dx, dy = pt[0] - x0, pt[1] - y0
+    return dx * u[0] + dy * u[1], dx * v[0] + dy * v[1]
+
+
+def disc_gap_mm(corners, center, radius_mm: float) -> float:
+    """How far (mm) a disc lies from a turned box (negative or zero: they
+    meet)."""
+    f = _frame(corners)
+    a, b = _local(f, center)
+    na, nb = min(max(a, 0.0), f[3]), min(max(b, 0.0), f[4])
+    return math.hypot(a - na, b - nb) - radius_mm
+
+
+def segment_meets(corners, p, q) -> bool:
+    """Whether segment pq meets a turned box (Liang-Barsky clipping in the
+    box's own frame)."""
+    f = _frame(corners)
+    (a0, b0), (a1, b1) = _local(f, p), _local(f, q)
+    t0, t1 = 0.0, 1.0
+    for d, hi, start in ((a1 - a0, f[3], a0), (b1 - b0, f[4], b0)):
+        if abs(d) < 1e-12:
+            if start < 0.0 or start > hi:
+                return False
+            continue
+        ta, tb = -start / d, (hi - start) / d
+        t0, t1 = max(t0, min(ta, tb)), min(t1, max(ta, tb))
+        if t0 > t1:
+            return False
+    return True
+
+
+def boxes_meet(a, b) -> bool:
+    """Whether two turned boxes meet (separating axes of both)."""
+    for box in (a, b):
+        f = _frame(box)
+        for axis in (3, 4):
+            along = [_local(f, p)[axis - 3] for p in (a if box is b else b)]
+            if max(along) <= 0.0 or min(along) >= f[axis]:
+                return False
+    return True
+
+
+def corners_of(el, words):
+    """The turned box (four corners, mm) of a text element's measured ink."""
+    ext = words.measure(el.geom["text"], el.geom["size_pt"])
+    return text_corners_mm(el.geom["at"], ext.width_mm, ext.height_mm, el.geom["angle_deg"], el.geom["anchor"])
+
+
+def turned(el, center, delta_deg: float, text: str | None = None):
+    """The text element turned ``delta_deg`` about ``center`` (and, with
+    ``text``, saying that instead)."""
+    a = math.radians(delta_deg)
+    c, s = math.cos(a), math.sin(a)
+    dx, dy = el.geom["at"][0] - center[0], el.geom["at"][1] - center[1]
+    geom = dict(el.geom, at=(center[0] + c * dx - s * dy, center[1] + s * dx + c * dy),
+                angle_deg=(el.geom["angle_deg"] + delta_deg + 180.0) % 360.0 - 180.0)
+    if text is not None:
+        geom["text"] = text
+    return dataclasses.replace(el, geom=geom)
+
+
+def _offsets(low_deg: float, high_deg: float):
+    """0, then alternately either way by :data:`STEP_DEG`, within [low, high]."""
+    yield 0.0
+    n = int(max(abs(low_deg), abs(high_deg)) / STEP_DEG) + 1
+    for k in range(1, n + 1):
+        for d in (k * STEP_DEG, -k * STEP_DEG):
+            if low_deg <= d <= high_deg:
+                yield d
+
+
+def clear_of_dots(elements, dots, center, words, slide_range, short_forms=None):
+    """The rete's elements with the band's words (roles ``zodiac_label``
+    and ``ecliptic_number``) moved off the stars' dots: ``dots`` are
+    (center, radius_mm); ``slide_range(el)`` gives the (low, high) degrees
+    about ``center`` a word may turn through; ``short_forms`` maps a
+    sign's longitude to its short form.  A sign's name of several lines
+    moves as one."""
+    els = list(elements)
+    ticks = [(e.geom["from"], e.geom["to"]) for e in els if e.role == "ecliptic_tick" and e.stroke != "none"]
+    band = [k for k, e in enumerate(els) if e.role in ("zodiac_label", "ecliptic_number")]
+    groups: dict[tuple, list[int]] = {}
+    for k in band:
+        groups.setdefault((els[k].role, els[k].values.get("longitude_deg")), []).append(k)
+    boxes = {k: corners_of(els[k], words) for k in band}
+
+    def near_dot(box_list, clearance):
+        return any(disc_gap_mm(b, c, r) < clearance for b in box_list for c, r in dots)
+
+    dropped = set()
+    for key, members in groups.items():
+        if not near_dot([boxes[k] for k in members], DOT_CLEARANCE_MM):
+            continue
+        others = [boxes[k] for k in band if k not in members and k not in dropped]
+        low, high = slide_range(els[members[0]])
+        tries = [[els[k] for k in members]]
+        if key[0] == "zodiac_label" and short_forms is not None and key[1] in short_forms:
+            lead = els[members[len(members) // 2]]
+            one = dataclasses.replace(lead, values=dict(lead.values, full_text=lead.values.get("full_text",
+                                                                                          lead.geom["text"])))
+            mid = _middle(els[k] for k in members)
+            tries.append([dataclasses.replace(one, geom=dict(one.geom, at=mid, text=short_forms[key[1]]))])
+        found = None
+        for clearance in (DOT_CLEARANCE_MM, 0.05):
+            for start in tries:
+                for delta in _offsets(low, high):
+                    moved = [turned(e, center, delta) for e in start]
+                    mb = [corners_of(e, words) for e in moved]
+                    if near_dot(mb, clearance) or any(boxes_meet(b, o) for b in mb for o in others) or \
+                            any(segment_meets(b, p, q) for b in mb for p, q in ticks):
+                        continue
+                    found = (moved, mb)
+                    break
+                if found:
+                    break
+            if found:
+                break
+        if found is None:
+            dropped.update(members)
+            continue
+        moved, mb = found
+        for j, k in enumerate(members):
+            if j < len(moved):
+                els[k], boxes[k] = moved[j], mb[j]
+            else:
+                dropped.add(k)
+    return [e for k, e in enumerate(els) if k not in dropped]
+
+
+def _middle(elements):
+    pts = [e.geom["at"] for e in elements]
+    return (sum(p[0] for p in pts) / len(pts), sum(p[1] for p in pts) / len(pts))
+

@@ -1,0 +1,124 @@
+"""No star's dot or leader line on a printed word of the rete (#9).
+
+On kits north, south and on the equator, at several sizes and in Latin,
+Arabic and Devanagari script, every drawn star's dot (its disc, of the
+radius the geometry gives) and every leader line keeps off the ink box of
+every word on the rete: the zodiac's names and numbers, the other stars'
+names, the owner's name.  A leader may only end beside its own name.  The
+words of the ecliptic's band, moved aside for a dot, still cross no drawn
+tick, and each number stays beside its own tick.
+
+References: the boxes are measured with the shipped fonts' own metrics
+(``Words.measure``: fontTools advances, HarfBuzz for shaped scripts) and
+turned as the PDF sets them (``text_corners_mm``); the geometry is read
+from the JSON contract's elements, as a user of the JSON would.  The
+tests of the shapes below are the usual closest-point and Liang-Barsky
+clipping computations, done here in each box's own frame.
+"""
+
+from __future__ import annotations
+
+import math
+
+import pytest
+
+from kitgen.kit import build_kit
+from kitgen.recipe.load import parse_recipe_text
+from kitgen.words.measure import text_corners_mm
+
+KITS = [
+    "latitude: 51.5\nlanguage: en\n",                         # north, A4
+    "latitude: -33.9\nlanguage: es\n",                        # south, A4
+    "latitude: 0.5\nlanguage: ar\n",                          # the equator, A4
+    "latitude: 28.6\nlanguage: hi\nsheet: a5\n",              # north, A5
+    "latitude: -33.9\nlanguage: ar\nsheet: a5\n",             # south, A5
+    "latitude: 0.5\nlanguage: hi\ndiameter_mm: 300\n",        # the equator, large: the far southern sky
+    "latitude: 40\nlanguage: en\ndiameter_mm: 120\nowner: Robin Example\n",
+]
+
+
+def _frame(corners):
+    (x0, y0), (x1, y1), _, (x3, y3) = corners
+    lu, lv = math.hypot(x1 - x0, y1 - y0), math.hypot(x3 - x0, y3 - y0)
+    u, v = ((x1 - x0) / lu, (y1 - y0) / lu), ((x3 - x0) / lv, (y3 - y0) / lv)
+
+    def local(p):
+        dx, dy = p[0] - x0, p[1] - y0
+        return dx * u[0] + dy * u[1], dx * v[0] + dy * v[1]
+
+    return local, lu, lv
+
+
+def disc_meets_box(center, radius, corners) -> bool:
+    local, lu, lv = _frame(corners)
+    a, b = local(center)
+    return math.hypot(a - min(max(a, 0.0), lu), b - min(max(b, 0.0), lv)) < radius
+
+
+def segment_meets_box(p, q, corners) -> bool:
+    local, lu, lv = _frame(corners)
+    (a0, b0), (a1, b1) = local(p), local(q)
+    t0, t1 = 0.0, 1.0
+    for d, hi, start in ((a1 - a0, lu, a0), (b1 - b0, lv, b0)):
+        if abs(d) < 1e-12:
+            if start < 0.0 or start > hi:
+                return False
+            continue
+        ta, tb = -start / d, (hi - start) / d
+        t0, t1 = max(t0, min(ta, tb)), min(t1, max(ta, tb))
+        if t0 > t1:
+            return False
+    return True
+
+
+def ink_box(el, words):
+    ext = words.measure(el.geom["text"], el.geom["size_pt"])
+    return text_corners_mm(el.geom["at"], ext.width_mm, ext.height_mm, el.geom["angle_deg"], el.geom["anchor"])
+
+
+@pytest.fixture(scope="module", params=KITS, ids=lambda h: h.replace("\n", " ").strip())
+def kit(request):
+    return build_kit(parse_recipe_text("epoch: 2027\n" + request.param + "parts: [rete]\n"))
+
+
+def test_no_dot_on_a_word(kit):
+    rete, w = kit.part("rete"), kit.words
+    boxes = [(e, ink_box(e, w)) for e in rete.elements if e.shape == "text"]
+    assert any(e.role == "zodiac_label" for e, _ in boxes) and any(e.role == "star_label" for e, _ in boxes)
+    dots = [e for e in rete.elements if e.role == "star" and e.stroke != "none"]
+    assert len(dots) >= 15
+    hits = [(d.values["name"], e.role, e.geom["text"]) for d in dots for e, box in boxes
+            if disc_meets_box(d.geom["at"], d.values["radius_mm"], box)]
+    assert not hits
+
+
+def test_no_leader_across_a_word(kit):
+    rete, w = kit.part("rete"), kit.words
+    boxes = [(e, ink_box(e, w)) for e in rete.elements if e.shape == "text"]
+    hits = []
+    for leader in (e for e in rete.elements if e.role == "star_leader"):
+        name = leader.values["name"]
+        for e, box in boxes:
+            if e.role == "star_label" and e.values.get("name") == name:
+                continue  # its own name, which it points to
+            if segment_meets_box(leader.geom["from"], leader.geom["to"], box):
+                hits.append((name, e.role, e.geom["text"]))
+    assert not hits
+
+
+def test_band_words_moved_aside_cross_no_tick_and_keep_to_their_ticks(kit):
+    rete, w = kit.part("rete"), kit.words
+    ticks = [e for e in rete.elements if e.role == "ecliptic_tick"]
+    drawn = [(e.geom["from"], e.geom["to"]) for e in ticks if e.stroke != "none"]
+    at = {int(round(e.values["longitude_deg"])): e.values["at"] for e in ticks}
+    for e in rete.elements:
+        if e.role not in ("zodiac_label", "ecliptic_number"):
+            continue
+        box = ink_box(e, w)
+        assert not any(segment_meets_box(p, q, box) for p, q in drawn), e.geom["text"]
+        if e.role == "ecliptic_number":
+            lon = int(round(e.values["longitude_deg"]))
+            # nearer its own tick than the 5-degree ticks on either side
+            own = math.dist(e.geom["at"], at[lon])
+            assert own < math.dist(e.geom["at"], at[(lon - 5) % 360]), e.geom["text"]
+            assert own < math.dist(e.geom["at"], at[(lon + 5) % 360]), e.geom["text"]
