@@ -158,7 +158,7 @@ KEYS: tuple[Key, ...] = (
     Key("rete_limit_deg", "rete_limit_deg", "parsed",
         "declination of the rim of the rete and the plates, 23.5 to 80 degrees beyond the equator (-40 on a "
         "northern kit, 40 on a southern one); default: from the latitude, so that the bright stars that rise well "
-        "above the horizon fit where the size allows", example=-40, parse=parse_rete_limit),
+        "above the horizon fit", example=-40, parse=parse_rete_limit),
     Key("altitude_step_deg", "altitude_step_deg", "number", "step between almucantars, degrees", 1.0, 30.0,
         example=5),
     Key("azimuth_step_deg", "azimuth_step_deg", "number", "step between azimuth curves, degrees", 5.0, 90.0,
