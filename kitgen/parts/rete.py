@@ -122,11 +122,21 @@ def rete(ctx: PartContext) -> model.Part:
     els += owner
     # A name stands beside its dot, farther out with a leader line where
     # the near places are taken; never on the ecliptic's band.
-    places = labels.place_labels(pts, names, d.small_text_pt, d.tick_mm * 1.3,
-                                 keep_out=[pin_box] + zodiac_boxes + dot_boxes + owner_boxes,
-                                 inside_radius_mm=d.outer_tropic_radius_mm - labels.MARGIN_MM,
-                                 keep_out_rings=[(tuple(c), image.radius_mm - band, image.radius_mm)],
-                                 measure=w.measure, leaders_from_mm=[radii[k] for k in lead], own_boxes=dot_boxes)
+    def place(texts):
+        return labels.place_labels(pts, texts, d.small_text_pt, d.tick_mm * 1.3,
+                                   keep_out=[pin_box] + zodiac_boxes + dot_boxes + owner_boxes,
+                                   inside_radius_mm=d.outer_tropic_radius_mm - labels.MARGIN_MM,
+                                   keep_out_rings=[(tuple(c), image.radius_mm - band, image.radius_mm)],
+                                   measure=w.measure, leaders_from_mm=[radii[k] for k in lead],
+                                   own_boxes=dot_boxes)
+
+    places = place(names)
+    # A dot of several stars with no room for all their names is named
+    # for its brightest alone (Rigil Kentaurus near the southern pole).
+    alone = [w.star_name(stars[k].star.label) for k in lead]
+    if any(where is None and name != one for where, name, one in zip(places, names, alone)):
+        names = [one if where is None else name for where, name, one in zip(places, names, alone)]
+        places = place(names)
     where_of = dict(zip(lead, places))
     for k, (placed, p) in enumerate(zip(stars, all_pts)):
         first = groups[k]
@@ -140,9 +150,10 @@ def rete(ctx: PartContext) -> model.Part:
         where = where_of.get(k)
         if first == k and where is not None:
             at, anchor, leader = where
-            names_k = [placed.star.label] + together
-            els.append(model.text("star_label", at, names[lead.index(k)], d.small_text_pt, anchor=anchor,
-                                  name=placed.star.label, **({"names": names_k} if together else {})))
+            text = names[lead.index(k)]
+            names_k = [placed.star.label] + (together if text != alone[lead.index(k)] else [])
+            els.append(model.text("star_label", at, text, d.small_text_pt, anchor=anchor,
+                                  name=placed.star.label, **({"names": names_k} if len(names_k) > 1 else {})))
             if leader is not None:
                 els.append(model.segment("star_leader", leader[0], leader[1], "fine", name=placed.star.label))
     els.append(model.point("pin", (0.0, 0.0), hole="centre"))
