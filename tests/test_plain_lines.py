@@ -11,7 +11,9 @@ strings of every shipped language:
 - its width equals the sum of HarfBuzz's advances for the same string in
   the same font file (uharfbuzz, the reference shaper) with kerning and
   ligatures off, as reportlab draws plain strings;
-- a paragraph wraps into the same lines as setting every trial line.
+- a paragraph wraps into the same lines as setting every trial line, and
+  the width of a shaped line measured alone (:func:`line_width_em`) is
+  the width of the line set whole.
 """
 
 from __future__ import annotations
@@ -21,7 +23,7 @@ import pytest
 from kitgen.layout import paragraphs
 from kitgen.template_files import available_languages
 from kitgen.words import fonts
-from kitgen.words.shaping import plain_advances, set_line, set_line_exact
+from kitgen.words.shaping import line_width_em, plain_advances, set_line, set_line_exact
 from kitgen.words.templates import load_words
 
 hb = pytest.importorskip("uharfbuzz")
@@ -31,7 +33,9 @@ def _sample(words, n: int = 60) -> list[str]:
     """Every ``step``-th template string, star names too, and a number."""
     texts = sorted({t for _, t in words.strings() if t})
     step = max(1, len(texts) // n)
-    return texts[::step] + [words.number(-52.25, 1), "Latitude 52.2° N", "a\u00a0b  c"]
+    titles = [words.isolated("Benchmark Valley School"), words.isolated("\u0645\u062f\u0631\u0633\u0629 1")]
+    return texts[::step] + [words.number(-52.25, 1), "Latitude 52.2° N", "a\u00a0b  c"] + [
+        f"{texts[0]} {t}." for t in titles]
 
 
 def _harfbuzz_width_em(text: str, face) -> float:
@@ -55,6 +59,7 @@ def test_plain_line_is_the_exact_line(code):
             fast = set_line(text, words.script, style, words.rtl)
             exact = set_line_exact.__wrapped__(text, words.script, style, words.rtl)
             assert fast == exact, (code, style, text)
+            assert line_width_em(text, words.script, style, words.rtl) == exact.width_em
             advances = plain_advances(text, words.script, style)
             if advances is None:
                 continue
@@ -77,7 +82,7 @@ def test_plain_wrap_is_the_exact_wrap(code, monkeypatch):
     fast = [paragraphs.wrap(t, limit, size, words, "body") for t in texts
             for limit, size in ((120.0, 9.0), (300.0, 10.5))]
     monkeypatch.setattr(paragraphs, "plain_advances", lambda *a: None)
-    slow = [paragraphs.wrap(t, limit, size, words, "body") for t in texts
+    slow = [list(paragraphs._wrap.__wrapped__(t, limit, size, words.script, words.rtl, "body")) for t in texts
             for limit, size in ((120.0, 9.0), (300.0, 10.5))]
     assert fast == slow
     assert any(len(lines) > 1 for lines in fast)

@@ -12,9 +12,10 @@ draws them.
 from __future__ import annotations
 
 from dataclasses import dataclass
+from functools import lru_cache
 
 from ..paper import MM_PER_PT, PT_PER_MM
-from ..words.shaping import plain_advances, set_line
+from ..words.shaping import line_width_em, plain_advances, set_line
 
 
 @dataclass(frozen=True)
@@ -77,22 +78,32 @@ def wrap(text: str, width_limit_pt: float, size_pt: float, words, style: str) ->
     measured from its characters' advances, read once: each trial line's
     width is the sum of its advances, exactly what setting it would give
     (:func:`kitgen.words.shaping.plain_advances`); any other sets each
-    trial line."""
+    trial line.  The lines depend on nothing but the arguments and the
+    language's script and direction, so they are kept for the next ask:
+    the pages' split measures each paragraph several times, and a class
+    set the same paragraphs for each kit of a language (#12)."""
+    return list(_wrap(text, width_limit_pt, size_pt, words.script, words.rtl, style))
+
+
+#: Paragraphs kept wrapped: those of every shipped language at the sizes
+#: and widths a set's sheets give, a few megabytes.
+@lru_cache(maxsize=4096)
+def _wrap(text: str, width_limit_pt: float, size_pt: float, script: str, rtl: bool, style: str) -> tuple[str, ...]:
     joined = " ".join(text.split())
-    advances = plain_advances(joined, words.script, style)
+    advances = plain_advances(joined, script, style)
     if advances is not None:
-        return _wrap_plain(joined, advances, width_limit_pt, size_pt)
+        return tuple(_wrap_plain(joined, advances, width_limit_pt, size_pt))
     lines, current = [], ""
     for word in text.split():
         trial = f"{current} {word}" if current else word
-        if current and width_pt(trial, size_pt, words, style) > width_limit_pt:
+        if current and line_width_em(trial, script, style, rtl) * size_pt > width_limit_pt:
             lines.append(current)
             current = word
         else:
             current = trial
     if current:
         lines.append(current)
-    return lines
+    return tuple(lines)
 
 
 def _wrap_plain(joined: str, advances: list[float], width_limit_pt: float, size_pt: float) -> list[str]:

@@ -28,6 +28,7 @@ from __future__ import annotations
 import unicodedata
 from dataclasses import dataclass
 from functools import lru_cache
+from typing import NamedTuple
 
 import uharfbuzz as hb
 
@@ -42,11 +43,11 @@ _STRONG_R = {"R", "AL"}
 _NEUTRAL = {"B", "S", "WS", "ON", "BN"}
 
 
-@dataclass(frozen=True)
-class Glyph:
+class Glyph(NamedTuple):
     """One glyph of a run, in visual order: its id in the font, the index
     (in the run's text) of the first character of its cluster, and its
-    advance and offsets in em."""
+    advance and offsets in em.  A named tuple: a shaped paragraph makes
+    thousands of them while it is wrapped (#12)."""
 
     gid: int
     cluster: int
@@ -103,6 +104,8 @@ def isolates(text: str) -> tuple[str, list[tuple[str, str]]]:
     character, and the isolates' (initiator, content) in order.  An
     initiator without its PDI runs to the end of the text (BD9); a PDI
     without an initiator is dropped."""
+    if LRI not in text and RLI not in text and FSI not in text and PDI not in text:
+        return text, []
     outer, found = [], []
     i, n = 0, len(text)
     while i < n:
@@ -125,8 +128,17 @@ def isolates(text: str) -> tuple[str, list[tuple[str, str]]]:
     return "".join(outer), found
 
 
+#: Each character's bidirectional class, as met.
+_CLASS: dict[str, str] = {}
+
+
+def _class(ch: str) -> str:
+    return _CLASS.setdefault(ch, unicodedata.bidirectional(ch) or "L")
+
+
 def _classes(text: str) -> list[str]:
-    return [unicodedata.bidirectional(ch) or "L" for ch in text]
+    get = _CLASS.get
+    return [get(ch) or _class(ch) for ch in text]
 
 
 def paragraph_is_rtl(text: str, prefer_rtl: bool) -> bool:
@@ -150,6 +162,8 @@ def embedding_levels(text: str, rtl: bool) -> list[int]:
     sor = "R" if rtl else "L"
     t = _classes(text)
     n = len(t)
+    if not rtl and _PLAIN_CLASSES.issuperset(t):
+        return [0] * n   # no right-to-left letter or number: W1-I2 leave all at 0
     for i in range(n):                                   # W1
         if t[i] == "NSM":
             t[i] = t[i - 1] if i else sor
@@ -240,15 +254,24 @@ def _faces_for(text: str, stack: tuple[Face, ...]) -> list[Face]:
     Marks and neutral characters stay with the face before them where that
     face holds them, so a word is not split between fonts."""
     out: list[Face] = []
+    table = _FACE_OF.setdefault(stack, {})
     for ch in text:
-        cat = unicodedata.category(ch)
-        prev = out[-1] if out else None
-        if prev is not None and (cat[0] in "MZPS" or cat in ("Cf", "Nd")) and fonts.has_char(prev, ch):
-            out.append(prev)
-            continue
-        face = next((f for f in stack if fonts.has_char(f, ch)), stack[-1])
-        out.append(face)
+        found = table.get(ch)
+        if found is None:
+            cat = unicodedata.category(ch)
+            found = table[ch] = (cat[0] in "MZPS" or cat in ("Cf", "Nd"),
+                                 next((f for f in stack if fonts.has_char(f, ch)), stack[-1]))
+        stays, face = found
+        if stays and out and fonts.has_char(out[-1], ch):
+            out.append(out[-1])
+        else:
+            out.append(face)
     return out
+
+
+#: Per stack, each character met: (whether it stays with the face before
+#: it where that face holds it, the first face of the stack that holds it).
+_FACE_OF: dict[tuple[Face, ...], dict[str, tuple[bool, Face]]] = {}
 
 
 @lru_cache(maxsize=16)
@@ -269,9 +292,9 @@ def shape_run(face: Face, text: str, rtl: bool) -> tuple[Glyph, ...]:
     buf.direction = "rtl" if rtl else "ltr"
     hb.shape(_hb_font(face), buf, FEATURES)
     upem = fonts.units_per_em(face)
-    return tuple(Glyph(info.codepoint, info.cluster, pos.x_advance / upem, pos.x_offset / upem,
-                       pos.y_offset / upem)
-                 for info, pos in zip(buf.glyph_infos, buf.glyph_positions))
+    return tuple([Glyph(info.codepoint, info.cluster, pos.x_advance / upem, pos.x_offset / upem,
+                        pos.y_offset / upem)
+                  for info, pos in zip(buf.glyph_infos, buf.glyph_positions)])
 
 
 def _run(face: Face, text: str, level: int) -> Run:
@@ -303,18 +326,49 @@ def set_line(text: str, script: str, style: str, prefer_rtl: bool = False) -> Li
 def set_line_exact(text: str, script: str, style: str, prefer_rtl: bool = False) -> Line:
     """:func:`set_line` by the whole method, for any line."""
     stack = fonts.stack(script, style)
-    # P2 skips the isolates; a line of a right-to-left language with no
-    # strong letter of its own outside them keeps the language's direction (HL1)
-    outer, found = isolates(text)
-    outer = outer.replace(_STAND_IN, "")
-    rtl = paragraph_is_rtl(outer, prefer_rtl) or bool(prefer_rtl and found and not any(
-        c in ("L", "R", "AL") for c in _classes(outer)))
+    rtl = _line_is_rtl(text, prefer_rtl)
     middle = fonts.middle_em(stack[0])
     if not text:
         return Line(text, (), 0.0, middle, middle, middle, rtl)
     visual = tuple(_visual_runs(text, stack, rtl))
     top, bottom = _ink(visual, middle)
     return Line(text, visual, sum(r.width_em for r in visual), middle, top, bottom, rtl)
+
+
+def line_width_em(text: str, script: str, style: str, prefer_rtl: bool = False) -> float:
+    """``set_line(text, script, style, prefer_rtl).width_em``, the same
+    float, without making the glyphs or reading their ink: the runs'
+    widths in visual order, added as :func:`set_line_exact` adds them.
+    For wrapping a shaped paragraph, which tries many lines (#12)."""
+    stack = fonts.stack(script, style)
+    if not text or (len(stack) == 1 and _plain_chars(stack[0], text) is not None):
+        return set_line(text, script, style, prefer_rtl).width_em
+    return sum(_visual_runs(text, stack, _line_is_rtl(text, prefer_rtl), _run_width))
+
+
+def _line_is_rtl(text: str, prefer_rtl: bool) -> bool:
+    """The direction of a line.  P2 skips the isolates; a line of a
+    right-to-left language with no strong letter of its own outside them
+    keeps the language's direction (HL1)."""
+    outer, found = isolates(text)
+    outer = outer.replace(_STAND_IN, "")
+    return paragraph_is_rtl(outer, prefer_rtl) or bool(prefer_rtl and found and not any(
+        c in ("L", "R", "AL") for c in _classes(outer)))
+
+
+def _run_width(face: Face, text: str, level: int) -> float:
+    """``_run(face, text, level).width_em``, the same float, without
+    making the run's glyphs."""
+    rtl = bool(level % 2)
+    if _needs_shaping(face, rtl):
+        buf = hb.Buffer()
+        buf.add_str(text)
+        buf.guess_segment_properties()
+        buf.direction = "rtl" if rtl else "ltr"
+        hb.shape(_hb_font(face), buf, FEATURES)
+        upem = fonts.units_per_em(face)
+        return sum([pos.x_advance / upem for pos in buf.glyph_positions])
+    return sum(fonts.advance_em(face, ch) for ch in text)
 
 
 # -- plain lines -----------------------------------------------------------------
@@ -397,32 +451,38 @@ def _plain_line(text: str, face: Face) -> Line | None:
     return Line(text, (run,), sum(r.width_em for r in (run,)), middle, top, bottom, False)
 
 
-def _visual_runs(text: str, stack: tuple[Face, ...], rtl: bool) -> list[Run]:
+def _visual_runs(text: str, stack: tuple[Face, ...], rtl: bool, make=None) -> list:
     """The runs of ``text`` as a paragraph of direction ``rtl``, in visual
     order; each isolate set as a paragraph of its own, its runs kept
-    together where its stand-in character falls."""
+    together where its stand-in character falls.  ``make(face, text,
+    level)`` makes each run (:func:`_run`, or :func:`_run_width` for
+    widths alone)."""
+    make = make or _run
     outer, found = isolates(text)
     if not outer:
         return []
     levels = embedding_levels(outer, rtl)
     faces = _faces_for(outer, stack)
     pieces: list[tuple[Face | None, int, str]] = []
-    for ch, face, level in zip(outer, faces, levels):
+    start = 0   # of the piece being gathered, if any
+    for i, (ch, face, level) in enumerate(zip(outer, faces, levels)):
+        if i > start and (ch == _STAND_IN or face != faces[start] or level != levels[start]):
+            pieces.append((faces[start], levels[start], outer[start:i]))
+            start = i
         if ch == _STAND_IN:
             pieces.append((None, level, ch))
-        elif pieces and pieces[-1][0] == face and pieces[-1][1] == level:
-            pieces[-1] = (face, level, pieces[-1][2] + ch)
-        else:
-            pieces.append((face, level, ch))
+            start = i + 1
+    if start < len(outer):
+        pieces.append((faces[start], levels[start], outer[start:]))
     inner = iter(found)
     runs: list[list[Run]] = []
     for face, level, piece in pieces:
         if face is None:
             initiator, content = next(inner)
             inner_rtl = initiator == RLI or (initiator == FSI and paragraph_is_rtl(isolates(content)[0], False))
-            runs.append(_visual_runs(content, stack, inner_rtl))
+            runs.append(_visual_runs(content, stack, inner_rtl, make))
         else:
-            runs.append([_run(face, piece, level)])
+            runs.append([make(face, piece, level)])
     order = visual_order([level for _, level, _ in pieces])
     return [run for k in order for run in runs[k]]
 
@@ -432,11 +492,16 @@ def _ink(runs, middle: float) -> tuple[float, float]:
     from the glyph outlines' bounds."""
     top = bottom = middle
     for run in runs:
+        face = run.face
         if run.shaped:
-            boxes = [(fonts.glyph_bounds_em(run.face, g.gid), g.y_offset_em) for g in run.glyphs]
+            for g in run.glyphs:
+                box = fonts.glyph_bounds_em(face, g.gid)
+                if box is not None:
+                    dy = g.y_offset_em
+                    top, bottom = max(top, box[3] + dy), min(bottom, box[1] + dy)
         else:
-            boxes = [(fonts.char_bounds_em(run.face, ch), 0.0) for ch in run.text]
-        for box, dy in boxes:
-            if box is not None:
-                top, bottom = max(top, box[3] + dy), min(bottom, box[1] + dy)
+            for ch in run.text:
+                box = fonts.char_bounds_em(face, ch)
+                if box is not None:
+                    top, bottom = max(top, box[3] + 0.0), min(bottom, box[1] + 0.0)
     return top, bottom

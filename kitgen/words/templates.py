@@ -54,6 +54,7 @@ class Words:
         self._table["calendar.months"] = locale.month_names(language)
         self._table["calendar.months_short"] = locale.month_names(language, "abbreviated")
         self._stars = dict(star_names or {})
+        self._numbers: dict[tuple, str] = {}
 
     def __call__(self, key: str, **values) -> str:
         try:
@@ -108,8 +109,16 @@ class Words:
 
     def number(self, value: float, decimals: int = 0) -> str:
         """A number as this language writes it: the CLDR decimal sign and,
-        when the recipe asks for them, the locale's own digits."""
-        return locale.format_number(value, decimals, self.language, self.native_digits)
+        when the recipe asks for them, the locale's own digits.  Each is
+        formatted once (a kit writes its scales' numbers thousands of
+        times while its labels are placed, #12); the key holds the value's
+        type and exact ``repr``, so that 0.0 and -0.0, or 5 and 5.0, are
+        never taken for one another."""
+        key = (value.__class__, repr(value), decimals)
+        text = self._numbers.get(key)
+        if text is None:
+            text = self._numbers[key] = locale.format_number(value, decimals, self.language, self.native_digits)
+        return text
 
     def star_name(self, iau_name: str) -> str:
         """A star's name: the template's local name, else the IAU name."""
