@@ -109,3 +109,28 @@ def test_duplex_that_cannot_be_done_is_one_line_naming_the_key(extra):
     with pytest.raises(UserError) as info:
         printed(extra)
     assert "'duplex'" in str(info.value) and "\n" not in str(info.value)
+
+
+@pytest.mark.parametrize("mode", ["long_edge", "short_edge"])
+def test_registration_marks_are_squares_never_circles(mode):
+    """The pupils pierce the circles with a cross (the pins' marks); a
+    duplex mark must not look like one (#9): on both sides, every path of
+    a mark is straight (no Bezier curve: a circle is drawn with curves,
+    ISO 32000-1:2008, 8.5.2.2) and each mark has its square frame."""
+    kit, pages, reader = printed(f"duplex: {mode}\n")
+    k = next(i for i, p in enumerate(pages) if p.duplex == "front")
+    for side in (k, k + 1):
+        paths, _ = read_page(reader, reader.pages[side])
+        for mark in pages[side].marks:
+            cx, cy = mark.x_mm * PT_PER_MM, mark.y_mm * PT_PER_MM
+            near = [p for p in paths if p.ctm == IDENTITY
+                    and all(abs(x - cx) <= 7 * PT_PER_MM and abs(y - cy) <= 7 * PT_PER_MM
+                            for x, y in p.device_points())]
+            assert near
+            assert all(len(p.points) == len(p.nodes) for p in near)   # lines only, no curve
+            squares = [p for p in near if len(p.nodes) == 4
+                       and len({round(x, 3) for x, _ in p.device_nodes()}) == 2
+                       and len({round(y, 3) for _, y in p.device_nodes()}) == 2
+                       and abs((max(x for x, _ in p.device_nodes()) - min(x for x, _ in p.device_nodes()))
+                               - (max(y for _, y in p.device_nodes()) - min(y for _, y in p.device_nodes()))) < 1e-3]
+            assert len(squares) == 1, (side, mark)

@@ -112,6 +112,43 @@ def glossary_blocks(kit) -> list[Block]:
             + [Block("item", s, "\u2022") for s in w.items("instructions.glossary")])
 
 
+#: The mater's two faces: what the thread, the knife and the glue are for.
+MATER_KINDS = {"mater_front", "mater_back"}
+
+
+def need_blocks(kit, pages) -> list[Block]:
+    """What a pupil needs at hand, for this kit's options (#9): film only
+    for film pages, glue only for a mater glued from two pages, tape only
+    for a part in pieces, thread and a knife only with a mater."""
+    w = kit.words
+    printed, kinds = set(kit.plan.parts), {p.kind for p in pages}
+    glued = MATER_KINDS <= printed and kit.plan.printing.duplex == "none"
+    tiled = any(pl.piece is not None for p in pages for pl in p.placements)
+    wanted = (("card", "card" in kinds), ("film", "film" in kinds), ("fastener", True),
+              ("thread", bool(printed & MATER_KINDS)), ("glue", glued), ("tape", tiled), ("scissors", True),
+              ("knife", "mater_front" in printed), ("pin", True))
+    return ([Block("heading", w("instructions.need_heading"))]
+            + [Block("item", w("instructions.need_" + k), "\u2022") for k, on in wanted if on])
+
+
+def cut_blocks(kit) -> list[Block]:
+    """The cutting step's own cases (#9): the key slot, cut with a knife
+    (before gluing, and kept clear of glue: the key's pocket), the thread
+    hole, which has no pin's cross, and the reading edge."""
+    w = kit.words
+    printed = set(kit.plan.parts)
+    out = []
+    if "mater_front" in printed:
+        glued = MATER_KINDS <= printed and kit.plan.printing.duplex == "none"
+        key = "instructions.cut_key_slot" if glued else "instructions.cut_key_slot_unglued"
+        out.append(Block("body", w(key, label=w("mater_front.key_slot"))))
+    if printed & MATER_KINDS:
+        out.append(Block("body", w("instructions.cut_hang_hole")))
+    if printed & {"rule", "alidade"}:
+        out.append(Block("body", w("instructions.read_edge_step", label=w("rule.reading_edge"))))
+    return out
+
+
 def story(kit, pages) -> list[Block]:
     """The instructions, as paragraphs for kitgen.layout.paragraphs to set."""
     w = kit.words
@@ -125,6 +162,7 @@ def story(kit, pages) -> list[Block]:
     out += plates_blocks(kit)
     out.append(Block("heading", w("instructions.cautions_heading")))
     out += [Block("caution", s, "!") for s in w.items("instructions.cautions")]
+    out += need_blocks(kit, pages)
     out.append(Block("heading", w("instructions.print_heading")))
     for kind, key in (("card", "instructions.print_card"), ("film", "instructions.print_film")):
         n, listed = _page_list(w, pages, kind)
@@ -133,6 +171,7 @@ def story(kit, pages) -> list[Block]:
     out.append(Block("item", w("instructions.print_scale", length=length, percent=w.number(100)), "\u2022"))
     out += [Block("item", s, "\u2022") for s in print_notes(kit, pages)]
     out += [Block("heading", w("instructions.cut_heading")), Block("body", w("instructions.cut"))]
+    out += cut_blocks(kit)
     if any(pl.piece is not None for p in pages for pl in p.placements):
         out.append(Block("body", w("printing.tiles")))
         out.append(Block("body", w("printing.tiles_pierce")))

@@ -46,8 +46,16 @@ def alidade(ctx: PartContext) -> model.Part:
                                   left, width - 2 * m)
     els += labels.fitted_text("part_label", (-cross - m - left / 2, -width / 2), w("alidade.title"),
                               d.small_text_pt, w, left, width - 2 * m)
-    els += labels.fitted_text("caution", ((half + cross) / 2, -width / 2), w("alidade.caution"),
-                              d.small_text_pt, w, arm, width - 2 * m)
+    # At the right arm's outer end, "reading edge" along the fiducial edge
+    # (#9): the bar's lower edge is straight too; the caution inside it.
+    edge_text = w("alidade.reading_edge")
+    edge_len = min(w.measure(edge_text, d.small_text_pt).width_mm + 2 * m, 0.5 * arm)
+    band = w.measure(edge_text, d.small_text_pt).height_mm + 0.1
+    els += labels.fitted_text("reading_edge", (half - m - edge_len / 2, -(m + band / 2)), edge_text,
+                              d.small_text_pt, w, edge_len - 2 * m, band)
+    room = arm - edge_len - m
+    els += labels.fitted_text("caution", (cross + m + room / 2, -width / 2), w("alidade.caution"),
+                              d.small_text_pt, w, room, width - 2 * m)
     gap = hole_at - cross
     for sx in (1.0, -1.0):
         els += labels.fitted_text("vane_label", (sx * (half + gap / 2), -width / 2), w("alidade.vane"),

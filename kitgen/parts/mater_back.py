@@ -53,10 +53,14 @@ def mater_back(ctx: PartContext) -> model.Part:
     els, r_cal = els + list(clock.elements), clock.inner_radius_mm
     els += _shadow_square(d, w, r_cal, ctx.scales.shadow_labels)
     # Title, place, epoch and owner inside the calendar ring, each fitted to the
-    # chord of that ring at the far edge of its room.
+    # chord of that ring at the far edge of its room; a place that is the
+    # title already is printed once (#9).
+    place = ctx.plan.site.place
+    if place and place.strip().casefold() == (ctx.plan.title or "").strip().casefold():
+        place = ""
     for role, y_frac, h_frac, text, size, style in (
             ("title", TITLE_Y, TITLE_H, ctx.plan.title or w("kit.default_title"), d.title_pt, "bold"),
-            ("place", 0.33, 0.09, ctx.plan.site.place, d.text_pt, "label"),
+            ("place", 0.33, 0.09, place, d.text_pt, "label"),
             ("epoch", 0.225, 0.09, w("mater_back.epoch", year=w.number(ctx.plan.epoch)), d.small_text_pt, "label"),
             ("owner", 0.76, 0.09, ctx.plan.owner, d.small_text_pt, "label")):  # whose kit it is (#9)
         if text:

@@ -85,6 +85,14 @@ def mater_front(ctx: PartContext) -> model.Part:
     tw, tl = key_tab_mm(d)
     y = -(d.plate_radius_mm + 0.5 * tl)
     els.append(model.segment("cut", (-(tw / 2 + 0.5), y), (tw / 2 + 0.5, y), "cut", purpose="key_slot"))
+    # Named just inside the plate's circle, which covers it once built,
+    # as near the slot as the chord leaves room for the words (#9).
+    ext = w.measure(w("mater_front.key_slot"), d.small_text_pt)
+    h, half = ext.height_mm + 0.1, ext.width_mm / 2 + labels.MARGIN_MM
+    rp = d.plate_radius_mm
+    y_in = min(rp - labels.MARGIN_MM, math.sqrt(max(rp ** 2 - half ** 2, 0.0))) - h / 2
+    els += labels.fitted_text("key_slot_label", (0.0, -y_in), w("mater_front.key_slot"), d.small_text_pt, w,
+                              2 * math.sqrt(rp ** 2 - (y_in + h / 2) ** 2) - 2 * labels.MARGIN_MM, h)
     els.append(hang_hole(d))
     if ctx.plan.owner:
         # Whose kit it is (#9), in the blank middle that the plate covers.

@@ -27,15 +27,32 @@ def rule(ctx: PartContext) -> model.Part:
     els = [model.polyline("cut", outline, True, "cut"),
            model.segment("fiducial", (0.0, -tail), (0.0, length), "heavy"),
            model.point("pin", (0.0, 0.0), hole="centre")]
-    # The name runs along the body, from clear of the pin's crosshair (2 mm)
-    # to where the tip starts to narrow; the owner's name (#9), if any, on
-    # the outer half.
-    lo, hi = 2.0 + labels.MARGIN_MM, tip_start * 0.9 - labels.MARGIN_MM
+    # "reading edge" runs along the fiducial edge, the straight edge through
+    # the pin that every reading is taken on (the body's other long edge is
+    # straight too: #9), in a band of one line next to it, ending where the
+    # tip starts to narrow.  The name runs along the rest of the body's
+    # width, from clear of the pin's crosshair (2 mm) to the tip; the
+    # owner's name (#9), if any, on the outer half.
+    m = labels.MARGIN_MM
+    lo, hi = 2.0 + m, tip_start * 0.9 - m
+    band = w.measure(w("rule.reading_edge"), d.small_text_pt).height_mm + 2 * m + 0.1
+    els += reading_edge_label(w, w("rule.reading_edge"), d.small_text_pt, band, hi, hi - lo)
+    across, x = width - band - 2 * m, -(band + width) / 2
     mid = (lo + hi) / 2 if ctx.plan.owner else hi
-    els += labels.fitted_text("part_label", (-width * 0.5, (lo + mid) / 2), w("rule.title"), d.small_text_pt, w,
-                              mid - lo - labels.MARGIN_MM, width - 2 * labels.MARGIN_MM, angle_deg=90.0)
+    els += labels.fitted_text("part_label", (x, (lo + mid) / 2), w("rule.title"), d.small_text_pt, w,
+                              mid - lo - m, across, angle_deg=90.0)
     if ctx.plan.owner:
-        els += labels.fitted_text("owner", (-width * 0.5, (mid + hi) / 2), ctx.plan.owner, d.small_text_pt, w,
-                                  hi - mid - labels.MARGIN_MM, width - 2 * labels.MARGIN_MM, angle_deg=90.0)
+        els += labels.fitted_text("owner", (x, (mid + hi) / 2), ctx.plan.owner, d.small_text_pt, w,
+                                  hi - mid - m, across, angle_deg=90.0)
     return model.Part("rule", "card", tuple(els), (-width - 1.0, -tail - 1.0, boss + 1.0, length + 1.0), {},
                       w("rule.title"))
+
+
+def reading_edge_label(w, text: str, size_pt: float, band_mm: float, end_mm: float, most_mm: float):
+    """``text`` ("reading edge") set along the fiducial edge (x = 0) in the
+    band ``band_mm`` wide next to it, ending ``end_mm`` along the rule and
+    at most ``most_mm`` long (#9)."""
+    m = labels.MARGIN_MM
+    length = min(w.measure(text, size_pt).width_mm + 2 * m, most_mm)
+    return labels.fitted_text("reading_edge", (-band_mm / 2, end_mm - length / 2), text, size_pt, w,
+                              length - 2 * m, band_mm - 2 * m, angle_deg=90.0)

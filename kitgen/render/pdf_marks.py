@@ -21,11 +21,14 @@ FRAME_LINE_MM = 0.12
 SEAM_LINE_MM = 0.25
 SEAM_DASH_MM = (4.0, 1.0, 0.6, 1.0)  # dash-dot: never mistaken for a dashed fold
 FRAME_GREY = 0.45
-#: Duplex marks: the half length (mm) of the front's scales, their tick
-#: step (mm) and the half length of the back's cross.
+#: Duplex marks: the half length (mm) of the front's scales (and the half
+#: side of their square frame), their tick step (mm) and the half length
+#: of the back's cross.
 DUPLEX_SCALE_HALF_MM = 5.0
 DUPLEX_TICK_STEP_MM = 0.5
 DUPLEX_CROSS_HALF_MM = 6.0
+#: Half side (mm) of the square about the back's cross.
+DUPLEX_BACK_SQUARE_HALF_MM = 3.0
 
 
 def _line(c, x0, y0, x1, y1) -> None:
@@ -92,9 +95,11 @@ def draw_piece_marks(c, placement, words, label: str) -> None:
 
 def draw_registration(c, mark) -> None:
     """A duplex mark.  The front carries two short scales crossing at the
-    mark, ticked every 0.5 mm with a longer tick each millimetre; the back,
-    behind it, a plain cross.  Held against the light, the back's cross
-    shows on the front's scales how far the two sides are apart."""
+    mark, ticked every 0.5 mm with a longer tick each millimetre, in a
+    square frame; the back, behind it, a plain cross in a smaller square.
+    Held against the light, the back's cross shows on the front's scales
+    how far the two sides are apart.  Squares, never a circle: a circled
+    cross is a pin's mark, the one that pupils pierce (#9)."""
     x, y = mark.x_mm, mark.y_mm
     c.saveState()
     c.setLineCap(0)
@@ -105,11 +110,13 @@ def draw_registration(c, mark) -> None:
         h = DUPLEX_CROSS_HALF_MM
         _line(c, x - h, y, x + h, y)
         _line(c, x, y - h, x, y + h)
-        c.circle(x * mm, y * mm, 0.6 * mm, stroke=1, fill=0)
+        q = DUPLEX_BACK_SQUARE_HALF_MM
+        c.rect((x - q) * mm, (y - q) * mm, 2 * q * mm, 2 * q * mm, stroke=1, fill=0)
     else:
         h = DUPLEX_SCALE_HALF_MM
         _line(c, x - h, y, x + h, y)
         _line(c, x, y - h, x, y + h)
+        c.rect((x - h) * mm, (y - h) * mm, 2 * h * mm, 2 * h * mm, stroke=1, fill=0)
         steps = int(round(h / DUPLEX_TICK_STEP_MM))
         for k in range(-steps, steps + 1):
             if k == 0:
