@@ -180,3 +180,17 @@ def test_title_and_place_once_when_the_same(place, times):
     texts = [e.geom["text"] for e in back.elements if e.shape == "text" and e.role in ("title", "place")]
     assert len(texts) == times
     assert texts[0] == "Hilltop School"
+
+
+@pytest.mark.parametrize("language", ["en", "es", "fr", "de", "pt", "it", "el", "ru", "ar", "hi"])
+def test_steps_read_along_the_marked_edge(language):
+    """The steps that read a scale with the alidade or the rule name the
+    edge by the words printed along it."""
+    kit, blocks = _story(f"language: {language}\n")
+    w = kit.words
+    texts = [b.text for b in blocks]
+    edge = w("rule.reading_edge")
+    assert edge == w("alidade.reading_edge")
+    time, height = w.items("instructions.time_steps"), w.items("instructions.height_steps")
+    for step in (time[1], time[5], height[2]):    # the altitude, the hour ring, the shadow square
+        assert step in texts and edge in step, step
