@@ -305,6 +305,8 @@ def _run(face: Face, text: str, level: int) -> Run:
     return Run(face, text, False, False, (), sum(fonts.advance_em(face, ch) for ch in text))
 
 
+#: Lines kept set: the labels a kit measures again for each place it tries.
+@lru_cache(maxsize=4096)
 def set_line(text: str, script: str, style: str, prefer_rtl: bool = False) -> Line:
     """``text`` (one line, logical order) set in ``style`` for a language
     written in ``script``; ``prefer_rtl`` for a right-to-left language.
@@ -320,8 +322,8 @@ def set_line(text: str, script: str, style: str, prefer_rtl: bool = False) -> Li
     return set_line_exact(text, script, style, prefer_rtl)
 
 
-#: Lines kept set: the shaped and right-to-left lines a class set measures
-#: again for each kit (#12); plain lines are set afresh, as fast as found.
+#: Shaped and right-to-left lines kept set, which a class set measures
+#: again for each kit (#12); wrapping no longer fills it (line_width_em).
 @lru_cache(maxsize=8192)
 def set_line_exact(text: str, script: str, style: str, prefer_rtl: bool = False) -> Line:
     """:func:`set_line` by the whole method, for any line."""
