@@ -112,6 +112,15 @@ def test_every_wrong_field_is_told_at_once(client):
     assert errors["diameter_mm"] == t["errors.decimal_comma"].format(label=label, value="'5,5'")
 
 
+def test_a_longitude_without_a_time_zone_is_told_beside_the_zone(client):
+    """A longitude alone is refused (#10), beside the empty time-zone box;
+    a good longitude and zone each pass alone and together."""
+    errors = post(client, "/api/preview", {"latitude": "51.5", "longitude": "-0.1"}).json()["errors"]
+    assert set(errors) == {"timezone"} and "'longitude' is given without 'timezone'" in errors["timezone"]
+    good = post(client, "/api/preview", {"latitude": "51.5", "longitude": "-0.1", "timezone": "Europe/London"})
+    assert good.status_code == 200 and good.json()["ok"]
+
+
 @pytest.mark.parametrize("key", sorted(PATH_KEYS))
 def test_path_valued_keys_are_refused(client, key):
     assert "language_file" in PATH_KEYS

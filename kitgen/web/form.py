@@ -206,7 +206,14 @@ def field_of(exc: UserError) -> str | None:
             return name
     if exc.key == "errors.latitude_required":
         return "latitude"
+    if exc.key == "errors.clock_needs_both":  # told beside the box left empty
+        return exc.values["missing"]
     return None
+
+
+#: A longitude and a time zone go together (kitgen.recipe.site, #10): each
+#: checked alone with a stand-in for the other, the pair then as a whole.
+CLOCK_PARTNERS = {"longitude": {"timezone": "UTC"}, "timezone": {"longitude": 0}}
 
 
 def check_form(tree: dict, words) -> tuple[Recipe | None, dict[str, str]]:
@@ -218,6 +225,7 @@ def check_form(tree: dict, words) -> tuple[Recipe | None, dict[str, str]]:
     errors: dict[str, str] = {}
     for name, value in tree.items():
         alone = {name: value} if name == "latitude" else {"latitude": 0, name: value}
+        alone.update({k: v for k, v in CLOCK_PARTNERS.get(name, {}).items() if k not in alone})
         try:
             validate_recipe(alone)
         except UserError as exc:
