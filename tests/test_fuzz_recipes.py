@@ -115,6 +115,10 @@ def well_formed(draw) -> dict:
     tree = {"latitude": draw(VALUES["latitude"])}
     for name in names:
         tree[name] = draw(VALUES[name])
+    # A longitude and a time zone go together (#10): one alone is refused.
+    for name, partner in (("longitude", "timezone"), ("timezone", "longitude")):
+        if name in tree and partner not in tree:
+            tree[partner] = draw(VALUES[partner])
     return tree
 
 
