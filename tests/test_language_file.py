@@ -44,7 +44,7 @@ def test_missing_keys_are_all_listed(tmp_path):
     tree["page"] = {k: v for k, v in SPANISH["page"].items() if k != "on_card"}
     with pytest.raises(UserError) as err:
         load_recipe(_write(tmp_path, tree))
-    assert "missing keys: page.on_card, rule.title" in str(err.value)
+    assert "missing keys: page.on_card, rule.reading_edge, rule.title" in str(err.value)
     assert "\n" not in str(err.value)
 
 
@@ -76,6 +76,6 @@ def test_unknown_language_code_and_missing_file(tmp_path):
 def test_characters_no_font_draws_are_refused(tmp_path):
     """U+89C4 (a CJK ideograph) is in none of the shipped fonts' character maps."""
     tree = dict(SPANISH)
-    tree["rule"] = {"title": "规"}
+    tree["rule"] = dict(SPANISH["rule"], title="规")
     with pytest.raises(UserError, match="U\\+89C4"):
         load_recipe(_write(tmp_path, tree))
