@@ -105,8 +105,14 @@ def test_the_key_reaches_the_slot_and_has_a_pocket(recipe):
     assert d.plate_radius_mm < -y0 < d.plate_radius_mm + tl   # the key reaches it, and goes beyond
     assert -y0 < d.limb_inner_radius_mm      # the pocket is behind the front, inside the mater
     # The slot's name sits just inside the plate's circle (covered once
-    # built), within 3 mm of the slot.
-    (label,) = kit.part("mater_front").with_role("key_slot_label")
+    # built), within 3 mm of the slot; on a mater too small to hold it
+    # whole it is left out, never cut short (#11), and the instructions
+    # name the slot.
+    labels = kit.part("mater_front").with_role("key_slot_label")
+    if "diameter_mm: 80" in recipe and not labels:
+        return
+    (label,) = labels
+    assert label.geom["text"] == kit.words("mater_front.key_slot")
     ext = kit.words.measure(label.geom["text"], label.geom["size_pt"])
     corners = text_corners_mm(label.geom["at"], ext.width_mm, ext.height_mm, 0.0, "middle")
     assert all(math.hypot(x, y) <= d.plate_radius_mm for x, y in corners)

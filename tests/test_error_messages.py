@@ -367,7 +367,8 @@ def test_the_notes_of_a_small_kit_are_told_in_the_recipes_language(tmp_path, cap
     assert stdout.strip() == str(out) and out.exists() and "Traceback" not in err
     notes = build_kit(load_recipe(recipe)).notes
     keys = {n.key for n in notes}
-    assert len(notes) >= 4 and {"notes.shortened", "notes.unnamed_stars"} <= keys
+    # No label of a shipped language is cut short, even at 80 mm (#11).
+    assert len(notes) >= 4 and "notes.unnamed_stars" in keys and "notes.shortened" not in keys
     report = _messages(code)["notes.report"]
     assert err.splitlines() == [report.format(message=_filled(n, code)) for n in notes]
     if code == "de":

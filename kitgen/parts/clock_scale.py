@@ -166,5 +166,5 @@ def clock_scale(ctx: PartContext, r_outer_mm: float) -> ClockScale:
     y, room_h = 0.12 * r0, 0.085 * r0
     room = 2.0 * math.sqrt(max((r0 - labels.MARGIN_MM) ** 2 - (y + room_h / 2) ** 2, 0.0))
     els += labels.fitted_text("clock_caption", (0.0, y), w(key, zone=zone), size, w,
-                              room, room_h)
+                              room, room_h, optional=True)
     return ClockScale(tuple(els), r0 - labels.MARGIN_MM)

@@ -185,14 +185,27 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
 def fitted_text(role, at, string: str, size_pt: float, words, max_width_mm: float,
                 max_height_mm: float | None = None, angle_deg: float = 0.0, anchor: str = "middle",
                 short: str | None = None, style: str = "label", min_pt: float = MIN_TEXT_PT,
-                **values) -> list[model.Element]:
+                fallbacks: tuple[str, ...] = (), optional: bool = False, **values) -> list[model.Element]:
     """Text elements for ``string`` fitted to a room ``max_width_mm`` long
     (along the text) and ``max_height_mm`` high around ``at``, made no
     smaller than ``min_pt`` before it is broken into lines: one element
     per line, the lines stacked across the text's direction about ``at``.
     Each element carries ``full_text`` (the whole label) in its values
-    when the label was shortened or broken."""
+    when the label was shortened or broken.
+
+    Where the fitting rule would have to cut the words short with "…",
+    each of ``fallbacks`` (shorter texts that still say the essential, such
+    as the year alone) is tried in turn; an ``optional`` label (one that
+    the instructions also explain) is then left out rather than cut short
+    (#11: no shipped language reaches the "…")."""
     fitted = words.fit(string, size_pt, max_width_mm, max_height_mm, short, style, min_pt)
+    if any(line.endswith("\u2026") for line in fitted.lines):
+        for other in fallbacks:
+            if other and other != string:
+                return fitted_text(role, at, other, size_pt, words, max_width_mm, max_height_mm, angle_deg, anchor,
+                                   None, style, min_pt, fallbacks[fallbacks.index(other) + 1:], optional, **values)
+        if optional:
+            return []
     if len(fitted.lines) == 1 and fitted.lines[0] == string:
         return [model.text(role, at, string, fitted.size_pt, angle_deg, anchor, **values)]
     h = words.measure(fitted.lines[0], fitted.size_pt, style).height_mm

@@ -69,7 +69,9 @@ def mater_back(ctx: PartContext) -> model.Part:
             # The title goes onto two lines rather than below its 8 pt
             # where it can (kitgen.parts.clock_scale keeps the ring for it).
             low = title_min_pt(ctx, r_cal) if role == "title" else labels.MIN_TEXT_PT
-            els += labels.fitted_text(role, (0.0, y), text, size, w, room, h, style=style, min_pt=low)
+            year_alone = (w.number(ctx.plan.epoch),) if role == "epoch" else ()
+            els += labels.fitted_text(role, (0.0, y), text, size, w, room, h, style=style, min_pt=low,
+                                      fallbacks=year_alone)
     els.append(hang_hole(d))
     els.append(model.point("pin", (0.0, 0.0), hole="centre"))
     return model.Part("mater_back", "card", tuple(els), (-R, -R, R, R), {}, w("mater_back.title"))

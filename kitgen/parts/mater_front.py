@@ -92,7 +92,8 @@ def mater_front(ctx: PartContext) -> model.Part:
     rp = d.plate_radius_mm
     y_in = min(rp - labels.MARGIN_MM, math.sqrt(max(rp ** 2 - half ** 2, 0.0))) - h / 2
     els += labels.fitted_text("key_slot_label", (0.0, -y_in), w("mater_front.key_slot"), d.small_text_pt, w,
-                              2 * math.sqrt(rp ** 2 - (y_in + h / 2) ** 2) - 2 * labels.MARGIN_MM, h)
+                              2 * math.sqrt(rp ** 2 - (y_in + h / 2) ** 2) - 2 * labels.MARGIN_MM, h,
+                              optional=True)
     els.append(hang_hole(d))
     if ctx.plan.owner:
         # Whose kit it is (#9), in the blank middle that the plate covers.

@@ -217,4 +217,5 @@ def _latitude_label(ctx, disc):
     y = -min(disc * 0.9, max(disc * 0.6, down))
     room = math.sqrt((disc - labels.MARGIN_MM) ** 2 - (abs(y) + h / 2) ** 2) - d.tick_mm
     return labels.fitted_text("plate_label", (d.tick_mm, y), text,
-                              d.text_pt, w, room, h, anchor="start")
+                              d.text_pt, w, room, h, anchor="start",
+                              fallbacks=(latitude_text(w, ctx.plate.latitude_deg),))
