@@ -167,7 +167,7 @@ def write_atomic(path, data: bytes, force: bool = False, protect: tuple = ()) ->
     except BaseException:
         _remove(tmp)
         raise
-    _sync_folder(folder)
+    sync_folder(folder)
     return path
 
 
@@ -180,7 +180,7 @@ def _mode_for(path: Path) -> int:
         return 0o666 & ~umask
 
 
-def _sync_folder(folder: Path) -> None:
+def sync_folder(folder: Path) -> None:
     """Make the rename itself durable (best effort: not every system lets a
     folder be opened)."""
     try:
@@ -396,7 +396,7 @@ def write_folder_atomic(folder, files: dict, force: bool = False, protect: tuple
         for name, data in files.items():
             _write_synced(tmp / name, data)
         os.chmod(tmp, _folder_mode(folder))
-        _sync_folder(tmp)
+        sync_folder(tmp)
         swapped = _swap_in(tmp, folder)
     except OSError as exc:
         _discard(tmp, [*keep, *files])
@@ -406,7 +406,7 @@ def write_folder_atomic(folder, files: dict, force: bool = False, protect: tuple
         raise
     if swapped is not None:  # the earlier folder: its files live on in the new one, or were to go
         _discard(swapped, [*keep, *gone])
-    _sync_folder(parent)
+    sync_folder(parent)
     return [folder / name for name in files]
 
 

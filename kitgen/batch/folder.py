@@ -153,14 +153,6 @@ def _swap_in(tmp: Path, folder: Path) -> None:
 
 
 def _sync_tree(tmp: Path) -> None:
+    """Make the set's folders durable before the swap (best effort)."""
     for path in (tmp / KITS, tmp):
-        try:
-            fd = os.open(path, os.O_RDONLY)
-        except OSError:
-            continue
-        try:
-            os.fsync(fd)
-        except OSError:
-            pass
-        finally:
-            os.close(fd)
+        outfile.sync_folder(path)
