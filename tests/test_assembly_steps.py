@@ -15,6 +15,7 @@ themselves, so that no text is copied into the test.
 from __future__ import annotations
 
 import math
+import re
 
 import pytest
 
@@ -200,3 +201,45 @@ def test_steps_read_along_the_marked_edge(language):
     time, height = w.items("instructions.time_steps"), w.items("instructions.height_steps")
     for step in (time[1], time[5], height[2]):    # the altitude, the hour ring, the shadow square
         assert step in texts and edge in step, step
+
+
+def _term_pattern(printed: str) -> re.Pattern:
+    """A printed name as a sentence may use it: the same words in order,
+    case folded, where a word of seven letters or more may change its last
+    letter and take one more (Russian and Greek decline the noun: Линейка,
+    линейки; Κανόνας, κανόνα). Shorter words must stand exactly as printed,
+    so that Italian 'regola' never passes for 'Regolo'. Common practice of
+    checking translated terms against a glossary; no standard."""
+    parts = []
+    for word in printed.casefold().split():
+        parts.append(re.escape(word[:-1]) + r"\w{0,2}" if len(word) >= 7 else re.escape(word))
+    return re.compile(r"\s+".join(parts))
+
+
+@pytest.mark.parametrize("language", ["en", "es", "fr", "de", "pt", "it", "el", "ru", "ar", "hi"])
+def test_sun_and_star_steps_use_the_words_printed_on_the_rule(language):
+    """The sunrise steps, the star steps and the two worked examples name
+    the rule and the alidade by the names printed on those parts, and their
+    reading edge by the words printed along it (#9). The steps that lay the
+    rule or the alidade are found from the English kit (the same steps in
+    every language); the names are read from the built parts' text."""
+    heads = ("almanac.sun_heading", "almanac.star_heading", "almanac.sun_example_heading")
+    en_kit, en_blocks = _story("language: en\n")
+    kit, blocks = _story(f"language: {language}\n")
+    checked = 0
+    for kind in ("rule", "alidade"):
+        def printed(k, role):
+            (e,) = k.part(kind).with_role(role)
+            return e.geom["text"]
+        en_name = _term_pattern(printed(en_kit, "part_label"))
+        name, edge = _term_pattern(printed(kit, "part_label")), _term_pattern(printed(kit, "reading_edge"))
+        for head in heads:
+            en_texts = _section(en_blocks, en_kit.words, head)
+            texts = _section(blocks, kit.words, head)
+            assert len(texts) == len(en_texts)
+            for en_text, text in zip(en_texts, texts):
+                if en_name.search(en_text.casefold()):
+                    checked += 1
+                    assert name.search(text.casefold()), (kind, text)
+                    assert edge.search(text.casefold()), (kind, text)
+    assert checked >= 5   # sunrise, two star steps, the two worked examples
