@@ -9,6 +9,7 @@ wherever.  :func:`build_from_plan` does the same from a plan.
 from __future__ import annotations
 
 from dataclasses import dataclass, replace
+from functools import lru_cache
 
 from .check.accuracy import Accuracy, check_kit
 from .check.reading import READING_PARTS
@@ -19,6 +20,7 @@ from .parts.clock_scale import clock_ring_notes
 from .parts.context import PartContext
 from .parts.dimensions import Dimensions, dimensions
 from .parts.legibility import plan_scales, shortened_notes
+from .parts.owner import ADD_OWNER
 from .parts.rete import rim_notes
 from .plan.model import Plan
 from .plan.resolve import plan_kit
@@ -71,10 +73,47 @@ def on_material(part: Part, plan: Plan) -> Part:
 
 def build_from_plan(plan: Plan) -> Kit:
     """Every part of the planned kit, as geometry in mm: one plate per
-    planned plate (ids ``plate-1``...), one of every other part."""
+    planned plate (ids ``plate-1``...), one of every other part.
+
+    The parts are drawn without the owner's name (:func:`_nameless`,
+    kept for the last few plans) and the name is then added to each
+    (kitgen.parts.owner): a class set's kits that differ only in whose
+    they are (#12) share all but that name, and each is the same, byte
+    for byte, as when built alone."""
+    base = _nameless(replace(plan, owner=""))
+    if not plan.owner:
+        return base.kit
+    parts = []
+    for part in base.kit.parts:
+        plate = next((p for p in plan.plates if p.id == part.id), None)
+        if part.kind in ADD_OWNER:
+            ctx = PartContext(plan, base.kit.dims, base.scales.get(part.id, base.scales[""]), plate)
+            parts.append(ADD_OWNER[part.kind](part, ctx))
+        else:   # the rule and the alidade keep room for the name: drawn again with it
+            ctx = PartContext(plan, base.kit.dims, base.scales[""])
+            parts.append(replace(on_material(PART_BUILDERS[part.kind](ctx), plan), id=part.id))
+    parts = tuple(parts)
+    notes = base.other_notes + shortened_notes(parts, base.kit.dims, plan.words)
+    return replace(base.kit, plan=plan, parts=parts, notes=notes)
+
+
+@dataclass(frozen=True)
+class _Nameless:
+    """A kit drawn without an owner's name, with what adding one needs:
+    each part's scales (by part id; ``""`` the kit's own) and the notes
+    that do not depend on the parts' words."""
+
+    kit: Kit
+    scales: dict
+    other_notes: tuple[Message, ...]
+
+
+@lru_cache(maxsize=4)   # a kit's geometry is megabytes: a class set's schools one after another
+def _nameless(plan: Plan) -> _Nameless:
     dims = dimensions(plan.diameter_mm, plan.sky.obliquity_rad, plan.sky.rim_deg, plan.hemisphere_sign)
     kit_scales = plan_scales(plan, plan.plates[0], dims)
     notes = list(kit_scales.notes)
+    scales = {"": kit_scales}
     parts = []
     for kind, build in PART_BUILDERS.items():
         if kind not in plan.parts:
@@ -84,24 +123,31 @@ def build_from_plan(plan: Plan) -> Kit:
             parts.append(replace(on_material(build(ctx), plan), id=part_id(kind)))
             continue
         for plate in plan.plates:
-            scales = kit_scales if plate is plan.plates[0] else plan_scales(plan, plate, dims)
+            scales[plate.id] = kit_scales if plate is plan.plates[0] else plan_scales(plan, plate, dims)
             if plate is not plan.plates[0]:
-                notes += [n for n in scales.notes if n.values.get("part") is not None
+                notes += [n for n in scales[plate.id].notes if n.values.get("part") is not None
                           and n.values["part"].key == "notes.part.plate_numbered"]
-            ctx = PartContext(plan, dims, scales, plate)
+            ctx = PartContext(plan, dims, scales[plate.id], plate)
             parts.append(replace(on_material(build(ctx), plan), id=plate.id))
     parts = tuple(parts)
     notes += rim_notes(plan)
     notes += clock_ring_notes(parts, dims)  # the back without its clock ring says so (#10)
     kit = Kit(plan, dims, parts, tuple(notes) + shortened_notes(parts, dims, plan.words))
-    if not plan.accuracy_page:
-        return kit
-    missing = [k for k in READING_PARTS if k not in plan.parts]
-    if missing:
-        raise UserError("errors.accuracy_page_parts", parts=list(READING_PARTS), missing=missing)
-    return replace(kit, accuracy=check_kit(kit))
+    if plan.accuracy_page:
+        missing = [k for k in READING_PARTS if k not in plan.parts]
+        if missing:
+            raise UserError("errors.accuracy_page_parts", parts=list(READING_PARTS), missing=missing)
+        kit = replace(kit, accuracy=check_kit(kit))
+    return _Nameless(kit, scales, tuple(notes))
 
 
 def build_kit(recipe: Recipe) -> Kit:
     """Every part of the kit the recipe describes, as geometry in mm."""
-    return build_from_plan(plan_kit(recipe))
+    return build_from_plan(replace(_plan(replace(recipe, owner="")), owner=recipe.owner))
+
+
+@lru_cache(maxsize=4)
+def _plan(recipe: Recipe) -> Plan:
+    """The plan of a recipe (kept for the last few: a class set's pupils
+    share their school's)."""
+    return plan_kit(recipe)

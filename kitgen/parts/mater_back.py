@@ -52,29 +52,41 @@ def mater_back(ctx: PartContext) -> model.Part:
     clock = clock_scale(ctx, r_cal)
     els, r_cal = els + list(clock.elements), clock.inner_radius_mm
     els += _shadow_square(d, w, r_cal, ctx.scales.shadow_labels)
-    # Title, place, epoch and owner inside the calendar ring, each fitted to the
+    # Title, place and epoch inside the calendar ring, each fitted to the
     # chord of that ring at the far edge of its room; a place that is the
-    # title already is printed once (#9).
+    # title already is printed once (#9).  The owner's line comes later
+    # (kitgen.parts.owner).
     place = ctx.plan.site.place
     if place and place.strip().casefold() == (ctx.plan.title or "").strip().casefold():
         place = ""
-    for role, y_frac, h_frac, text, size, style in (
-            ("title", TITLE_Y, TITLE_H, ctx.plan.title or w("kit.default_title"), d.title_pt, "bold"),
-            ("place", 0.33, 0.09, place, d.text_pt, "label"),
-            ("epoch", 0.225, 0.09, w("mater_back.epoch", year=w.number(ctx.plan.epoch)), d.small_text_pt, "label"),
-            ("owner", 0.76, 0.09, ctx.plan.owner, d.small_text_pt, "label")):  # whose kit it is (#9)
-        if text:
-            y, h = r_cal * y_frac, r_cal * h_frac
-            room = 2 * math.sqrt((r_cal - labels.MARGIN_MM) ** 2 - (y + h / 2) ** 2)
-            # The title goes onto two lines rather than below its 8 pt
-            # where it can (kitgen.parts.clock_scale keeps the ring for it).
-            low = title_min_pt(ctx, r_cal) if role == "title" else labels.MIN_TEXT_PT
-            year_alone = (w.number(ctx.plan.epoch),) if role == "epoch" else ()
-            els += labels.fitted_text(role, (0.0, y), text, size, w, room, h, style=style, min_pt=low,
-                                      fallbacks=year_alone)
+    for role, row, text, size, style in (
+            ("title", (TITLE_Y, TITLE_H), ctx.plan.title or w("kit.default_title"), d.title_pt, "bold"),
+            ("place", (0.33, 0.09), place, d.text_pt, "label"),
+            ("epoch", (0.225, 0.09), w("mater_back.epoch", year=w.number(ctx.plan.epoch)), d.small_text_pt,
+             "label")):
+        # The title goes onto two lines rather than below its 8 pt
+        # where it can (kitgen.parts.clock_scale keeps the ring for it).
+        low = title_min_pt(ctx, r_cal) if role == "title" else labels.MIN_TEXT_PT
+        year_alone = (w.number(ctx.plan.epoch),) if role == "epoch" else ()
+        els += inner_words(role, row, text, size, w, r_cal, style, low, year_alone)
     els.append(hang_hole(d))
     els.append(model.point("pin", (0.0, 0.0), hole="centre"))
-    return model.Part("mater_back", "card", tuple(els), (-R, -R, R, R), {}, w("mater_back.title"))
+    return model.Part("mater_back", "card", tuple(els), (-R, -R, R, R), {"words_radius_mm": r_cal},
+                      w("mater_back.title"))
+
+
+def inner_words(role: str, row, text: str, size_pt: float, w, r_mm: float, style: str = "label",
+                min_pt: float = labels.MIN_TEXT_PT, fallbacks: tuple[str, ...] = ()) -> list[model.Element]:
+    """A line of the back's words inside the ring of radius ``r_mm``:
+    ``row`` gives its centre's height and its height as fractions of
+    ``r_mm``, and the words are fitted to the ring's chord at the row's far
+    edge (none for an empty ``text``)."""
+    if not text:
+        return []
+    y, h = r_mm * row[0], r_mm * row[1]
+    room = 2 * math.sqrt((r_mm - labels.MARGIN_MM) ** 2 - (y + h / 2) ** 2)
+    return labels.fitted_text(role, (0.0, y), text, size_pt, w, room, h, style=style, min_pt=min_pt,
+                              fallbacks=fallbacks)
 
 
 def _altitude_scale(d, w, r0, r1, every_deg=1):

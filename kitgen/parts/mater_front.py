@@ -95,11 +95,6 @@ def mater_front(ctx: PartContext) -> model.Part:
                               2 * math.sqrt(rp ** 2 - (y_in + h / 2) ** 2) - 2 * labels.MARGIN_MM, h,
                               optional=True)
     els.append(hang_hole(d))
-    if ctx.plan.owner:
-        # Whose kit it is (#9), in the blank middle that the plate covers.
-        y, h = 0.5 * d.plate_radius_mm, 3.0 * d.tick_mm
-        room = 2 * (d.plate_radius_mm ** 2 - (y + h / 2) ** 2) ** 0.5
-        els += labels.fitted_text("owner", (0.0, y), ctx.plan.owner, d.small_text_pt, w, room, h)
     els.append(model.point("pin", (0.0, 0.0), hole="centre"))
     r = r_out
     return model.Part("mater_front", "card", tuple(els), (-r, -r, r, r), {}, w("mater_front.title"))

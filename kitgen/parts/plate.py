@@ -62,8 +62,6 @@ def plate(ctx: PartContext) -> model.Part:
     if np.hypot(*z) <= disc:
         els.append(model.point("zenith", z))
     words = _labels(ctx, phi, s, R, disc, els)
-    words += labels.owner_near(ctx.plan.owner, [e for e in words if e.role == "plate_label"], words, disc,
-                               d.small_text_pt, ctx.words, [(-2.5, -2.5, 2.5, 2.5)])  # whose kit it is (#9)
     boxes = [breaks.text_box(e, ctx.words) for e in words]
     els = breaks.break_around(els, boxes, labels.MARGIN_MM, lambda stroke: stroke_width_mm(stroke, d))
     els += words

@@ -118,13 +118,11 @@ def rete(ctx: PartContext) -> model.Part:
     g = NAME_CLEARANCE_MM
     dot_boxes = [(q[0] - radii[k] - g, q[1] - radii[k] - g, q[0] + radii[k] + g, q[1] + radii[k] + g)
                  for k, q in zip(lead, pts)]
-    owner, owner_boxes = _owner_on_film(ctx, tuple(c), image.radius_mm, band, dot_boxes)
-    els += owner
     # A name stands beside its dot, farther out with a leader line where
     # the near places are taken; never on the ecliptic's band.
     def place(texts):
         return labels.place_labels(pts, texts, d.small_text_pt, d.tick_mm * 1.3,
-                                   keep_out=[pin_box] + zodiac_boxes + dot_boxes + owner_boxes,
+                                   keep_out=[pin_box] + zodiac_boxes + dot_boxes,
                                    inside_radius_mm=d.outer_tropic_radius_mm - labels.MARGIN_MM,
                                    keep_out_rings=[(tuple(c), image.radius_mm - band, image.radius_mm)],
                                    measure=w.measure, leaders_from_mm=[radii[k] for k in lead],
@@ -223,32 +221,6 @@ def dot_radii_mm(points_mm, radii_mm, groups) -> list[float]:
         if g != k:
             out[k] = out[g]
     return out
-
-
-def _owner_on_film(ctx, ecliptic_center, ecliptic_radius_mm, band_mm, dot_boxes):
-    """The owner's name (#9) set along the inside of the rim, at the first
-    of a few places round it (bottom first) where it meets no star's dot
-    and keeps off the ecliptic's band: (elements, their boxes)."""
-    owner = ctx.plan.owner
-    if not owner:
-        return [], []
-    d, w = ctx.dims, ctx.words
-    m, size = labels.MARGIN_MM, d.small_text_pt
-    rim = d.outer_tropic_radius_mm
-    ext = w.measure(owner, size)
-    width, h = min(ext.width_mm, rim), ext.height_mm
-    r_text = math.sqrt((rim - m) ** 2 - (width / 2) ** 2) - h / 2 - m
-    band = (ecliptic_center, ecliptic_radius_mm - band_mm - m, ecliptic_radius_mm + m)
-    for angle in (-90.0, 90.0, -135.0, -45.0, 135.0, 45.0, 180.0, 0.0):
-        spot = curves.ring_text("owner", owner, angle, r_text, size)
-        els = labels.fitted_text("owner", spot.geom["at"], owner, size, w, width, h * 1.05,
-                                 spot.geom["angle_deg"])
-        boxes = [labels.element_box_mm(e, w) for e in els]
-        if any(labels.boxes_meet(b, dot) for b in boxes for dot in dot_boxes) or \
-                any(labels.meets_ring(b, band) for b in boxes):
-            continue
-        return els, boxes
-    return [], []
 
 
 def rim_notes(plan) -> tuple[Message, ...]:

@@ -1,0 +1,128 @@
+"""The owner's name (#9), added to a part that was drawn without it.
+
+Whose kit it is stands small on every part, so a class's parts do not get
+mixed up.  The plate, the rete and both faces of the mater are drawn
+first without the name and the name is then set into room the finished
+part leaves free: so a class set (#12) draws those parts once for all the
+pupils of a school and only adds each pupil's name
+(:func:`kitgen.kit.build_from_plan`).  The rule and the alidade, which
+keep half an arm for the name, are cheap and simply drawn with it.
+
+:data:`ADD_OWNER` maps a part's kind to its function ``(part, ctx) ->
+part``; each returns the part itself when the plan has no owner or no
+room is free.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import replace
+
+from ..geometry import model
+from ..geometry.style import stroke_width_mm
+from . import breaks, curves, labels
+from .context import PartContext
+from .mater_back import inner_words
+from .rete import NAME_CLEARANCE_MM
+
+#: The pin's crosshair, kept clear of every word (mm).
+PIN_BOX_MM = (-2.5, -2.5, 2.5, 2.5)
+
+
+def _before_pin(part: model.Part, new) -> model.Part:
+    """``part`` with the elements ``new`` drawn just before its closing
+    pin mark (the last element of every circular part)."""
+    if not new:
+        return part
+    els = part.elements
+    k = len(els) - 1 if els and els[-1].role == "pin" else len(els)
+    return replace(part, elements=tuple(els[:k]) + tuple(new) + tuple(els[k:]))
+
+
+def plate_owner(part: model.Part, ctx: PartContext) -> model.Part:
+    """The name as one more line under (or over) the plate's latitude
+    label, clear of every word (kitgen.parts.labels.owner_near); the
+    plate's lines are broken around it as around every other word."""
+    texts = [e for e in part.elements if e.shape == "text"]
+    d = ctx.dims
+    owner = labels.owner_near(ctx.plan.owner, [e for e in texts if e.role == "plate_label"], texts,
+                              d.outer_tropic_radius_mm, d.small_text_pt, ctx.words, [PIN_BOX_MM])
+    if not owner:
+        return part
+    boxes = [breaks.text_box(e, ctx.words) for e in owner]
+    strokes = [e for e in part.elements if e.shape != "text" and e.role != "pin"]
+    broken = breaks.break_around(strokes, boxes, labels.MARGIN_MM, lambda stroke: stroke_width_mm(stroke, d))
+    rest = [e for e in part.elements if e.shape == "text" or e.role == "pin"]
+    return _before_pin(replace(part, elements=tuple(broken) + tuple(rest)), owner)
+
+
+def rete_owner(part: model.Part, ctx: PartContext) -> model.Part:
+    """The name along the inside of the rete's rim, at the first of a few
+    places round it (bottom first) where it meets no star's dot, name or
+    leader and keeps off the ecliptic's band."""
+    owner = ctx.plan.owner
+    if not owner:
+        return part
+    d, w = ctx.dims, ctx.words
+    m, size = labels.MARGIN_MM, d.small_text_pt
+    g = NAME_CLEARANCE_MM
+    taken = []
+    for e in part.elements:
+        if e.role == "star" and e.stroke != "none":
+            (x, y), r = e.geom["at"], e.values["radius_mm"]
+            taken.append((x - r - g, y - r - g, x + r + g, y + r + g))
+        elif e.shape == "text":
+            taken.append(labels.element_box_mm(e, w))
+        elif e.role == "star_leader":
+            (x0, y0), (x1, y1) = e.geom["from"], e.geom["to"]
+            taken.append((min(x0, x1), min(y0, y1), max(x0, x1), max(y0, y1)))
+    ecliptic = next(e for e in part.elements if e.role == "ecliptic")
+    inner = next(e for e in part.elements if e.role == "ecliptic_band")
+    ring = (tuple(ecliptic.geom["center"]), inner.geom["radius"] - m, ecliptic.geom["radius"] + m)
+    rim = d.outer_tropic_radius_mm
+    ext = w.measure(owner, size)
+    width, h = min(ext.width_mm, rim), ext.height_mm
+    r_text = math.sqrt((rim - m) ** 2 - (width / 2) ** 2) - h / 2 - m
+    for angle in (-90.0, 90.0, -135.0, -45.0, 135.0, 45.0, 180.0, 0.0):
+        spot = curves.ring_text("owner", owner, angle, r_text, size)
+        els = labels.fitted_text("owner", spot.geom["at"], owner, size, w, width, h * 1.05, spot.geom["angle_deg"])
+        boxes = [labels.element_box_mm(e, w) for e in els]
+        if any(labels.boxes_meet(b, t) for b in boxes for t in taken) or \
+                any(labels.meets_ring(b, ring) for b in boxes):
+            continue
+        return _before_pin(part, els)
+    return part
+
+
+def mater_front_owner(part: model.Part, ctx: PartContext) -> model.Part:
+    """The name in the front's blank middle, which the plate covers."""
+    if not ctx.plan.owner:
+        return part
+    d = ctx.dims
+    y, h = 0.5 * d.plate_radius_mm, 3.0 * d.tick_mm
+    room = 2 * (d.plate_radius_mm ** 2 - (y + h / 2) ** 2) ** 0.5
+    return _before_pin(part, labels.fitted_text("owner", (0.0, y), ctx.plan.owner, d.small_text_pt, ctx.words,
+                                                room, h))
+
+
+def mater_back_owner(part: model.Part, ctx: PartContext) -> model.Part:
+    """The name under the title, inside the back's inner ring, fitted to
+    that ring's chord (kitgen.parts.mater_back.inner_words)."""
+    if not ctx.plan.owner:
+        return part
+    els = inner_words("owner", OWNER_ROW, ctx.plan.owner, ctx.dims.small_text_pt, ctx.words,
+                      part.values["words_radius_mm"])
+    k = next((i for i, e in enumerate(part.elements) if e.role == "hang_hole"), len(part.elements))
+    return replace(part, elements=part.elements[:k] + tuple(els) + part.elements[k:])
+
+
+#: Where the back's owner line stands: its centre and height as fractions
+#: of the radius of the ring inside which the back's words stand.
+OWNER_ROW = (0.76, 0.09)
+
+ADD_OWNER = {
+    "plate": plate_owner,
+    "rete": rete_owner,
+    "mater_front": mater_front_owner,
+    "mater_back": mater_back_owner,
+}
