@@ -294,7 +294,26 @@ def test_azimuth_numbers_stand_on_their_azimuth(lat):
         az = math.degrees(math.atan2(-v[0], v @ north)) % 360.0
         off = (az - e.values["azimuth_deg"] + 180.0) % 360.0 - 180.0
         assert abs(off) < 1e-3, (lat, e.values["azimuth_deg"], az)
-        assert e.geom["text"] == kit.words.number(e.values["azimuth_deg"])
+        assert e.geom["text"] == kit.words("plate.azimuth_number", value=kit.words.number(e.values["azimuth_deg"]))
+
+
+@pytest.mark.parametrize("language", ["en", "ar", "hi", "el"])
+@pytest.mark.parametrize("lat", [52.2, -33.9, 0.5, 64.0])
+def test_azimuth_numbers_carry_the_degree_sign_and_almucantar_numbers_do_not(lat, language):
+    # kitgen's convention (#9, DEVELOPERS.md): an azimuth's number ends in
+    # the degree sign, the symbol of the degree of plane angle (SI Brochure,
+    # 9th ed., table 8), and an almucantar's is the plain number, so that a
+    # pupil never takes one for the other. Native digits too (CLDR, Babel).
+    kit = kit_of(latitude=lat, language=language, native_digits=language in ("ar", "hi"))
+    part = plates(kit)[0]
+    w = kit.words
+    azimuths, almucantars = part.with_role("azimuth_label"), part.with_role("almucantar_label")
+    assert azimuths and almucantars
+    for e in azimuths:
+        assert e.geom["text"].endswith("\u00b0"), e.geom["text"]
+        assert e.geom["text"][:-1].strip() == w.number(e.values["azimuth_deg"])
+    for e in almucantars:
+        assert e.geom["text"] == w.number(e.values["altitude_deg"]) and "\u00b0" not in e.geom["text"]
 
 
 @pytest.mark.parametrize("lat", [0.0, 0.5, -33.9, 52.2, 90.0])

@@ -7,9 +7,10 @@ the drawing is numbered where it meets the east-west line, else at its
 ends on the rim.  Multiples of 5 degrees are numbered on the meridian too
 where their neighbours leave room.  Azimuths are numbered just below the
 horizon on their own line continued (at the rim where the horizon point is
-outside the drawing); the cardinal letters stand beside the horizon's
-points, clear of the pin, the meridian, the east-west line, the equator
-and the horizon; unequal hours are numbered between their lines; horizon,
+outside the drawing), with a degree sign that the almucantars' plain
+numbers lack, so that 30° (an azimuth) never reads as 30 (an altitude);
+the cardinal letters stand beside the horizon's points, clear of the pin,
+the meridian, the east-west line, the equator and the horizon; unequal hours are numbered between their lines; horizon,
 equator, tropics and twilight lines are named along the curve (common
 practice on printed astrolabe plates).
 
@@ -270,8 +271,10 @@ class PlateLabeller:
     def azimuth(self, az: float, phi: float, s: int, R: float):
         """An azimuth's number on its line continued below the horizon, or,
         where the horizon's point is outside the drawing, at its end on
-        the rim."""
-        text, size = self.w.number(az), self.d.small_text_pt
+        the rim.  It carries a degree sign ("90°"), which an almucantar's
+        plain number never does, so the two cannot be taken for each other
+        (the template's ``plate.azimuth_number``)."""
+        text, size = self.w("plate.azimuth_number", value=self.w.number(az)), self.d.small_text_pt
         A = math.radians(az)
         p0 = project_vectors(horizontal_vector(0.0, A, phi), s, R)
         protected = self.reference + self.role("horizon", "azimuth")
