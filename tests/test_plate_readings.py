@@ -379,3 +379,57 @@ def test_no_character_crossed_at_any_size_or_language(lat, diameter, language, s
     part = plates(kit)[0]
     assert not crossings(part, kit), (lat, diameter, language, crossings(part, kit)[:5])
     check_tens_numbered(kit)
+
+
+#: A piece of a line left beside a label shorter than this (mm) reads as a
+#: stray tick or a minus sign, not as the end of its line: the gap is made
+#: whole instead (common practice of lettering on printed scales and maps,
+#: which stop a line at a number rather than leave a scrap of it; the value
+#: is ours, about four widths of the heaviest plate line at A4).
+STUB_MM = 1.5
+
+
+def stroke_length_mm(el) -> float:
+    g = el.geom
+    if el.shape == "circle":
+        return 2 * math.pi * g["radius"]
+    if el.shape == "arc":
+        return math.radians(g["end_deg"] - g["start_deg"]) * g["radius"]
+    pts = [g["from"], g["to"]] if el.shape == "segment" else list(g["points"])
+    return float(sum(math.dist(p, q) for p, q in zip(pts, pts[1:])))
+
+
+def stroke_ends(el):
+    g = el.geom
+    if el.shape == "arc":
+        (cx, cy), r = g["center"], g["radius"]
+        return [(cx + r * math.cos(math.radians(t)), cy + r * math.sin(math.radians(t)))
+                for t in (g["start_deg"], g["end_deg"])]
+    if el.shape == "segment":
+        return [g["from"], g["to"]]
+    if el.shape == "polyline" and not g["closed"]:
+        return [g["points"][0], g["points"][-1]]
+    return []
+
+
+@pytest.mark.parametrize("lat, diameter", [(0.5, None), (0.5, 80), (52.2, None), (52.2, 300), (-33.9, None),
+                                           (-33.9, 120), (64.0, None), (12.0, 80), (-45.0, None), (23.44, None)])
+def test_no_stub_of_a_broken_line_beside_a_label(lat, diameter):
+    # A piece of a line whose end lies in the gap round a label (within the
+    # clearance, half the line's width and a polyline's point spacing of
+    # the text's box, measured with the shipped fonts) was made by the
+    # break; none may be shorter than STUB_MM.
+    kit = kit_of(latitude=lat, **({"diameter_mm": diameter} if diameter else {}))
+    part = plates(kit)[0]
+    boxes = [text_box(e, kit.words) for e in part.elements if e.shape == "text" and e.geom["text"].strip()]
+    stubs = []
+    for e in part.elements:
+        if e.shape not in STROKES or e.stroke in ("none", "cut", "fold"):
+            continue
+        ends = stroke_ends(e)
+        if not ends or stroke_length_mm(e) >= STUB_MM:
+            continue
+        reach = 0.3 + stroke_width_mm(e.stroke, kit.dims) / 2 + 0.25
+        if any(distance_to_box(ends, b).min() <= reach for b in boxes):
+            stubs.append((e.role, round(stroke_length_mm(e), 2)))
+    assert not stubs, (lat, diameter, stubs)

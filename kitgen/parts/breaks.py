@@ -22,10 +22,14 @@ import numpy as np
 
 from ..geometry import model
 
-#: Pieces shorter than this (mm) are dropped: a stub between two labels,
-#: or between a label and the rim,
-#: would print as a dot, not as a line.
-MIN_PIECE_MM = 0.8
+#: Pieces a break leaves shorter than this (mm) are dropped: a stub
+#: between a label and the rim, a line's end or another label reads as a
+#: stray tick or a minus sign, not as the end of its line (#9).  Stopping
+#: a line at a number rather than leaving a scrap of it is common practice
+#: of lettering on printed scales and maps; the value is ours, about four
+#: widths of the heaviest plate line at A4.  A line that no label cuts is
+#: kept whole, however short.
+MIN_PIECE_MM = 1.5
 
 
 @dataclass(frozen=True)

@@ -10,9 +10,10 @@ horizon on their own line continued (at the rim where the horizon point is
 outside the drawing), with a degree sign that the almucantars' plain
 numbers lack, so that 30° (an azimuth) never reads as 30 (an altitude);
 the cardinal letters stand beside the horizon's points, clear of the pin,
-the meridian, the east-west line, the equator and the horizon; unequal hours are numbered between their lines; horizon,
-equator, tropics and twilight lines are named along the curve (common
-practice on printed astrolabe plates).
+the meridian, the east-west line, the equator and the horizon; unequal
+hours are numbered between their lines; horizon, equator, tropics and
+twilight lines are named along the curve (common practice on printed
+astrolabe plates).
 
 Every label is measured with the shipped fonts (``Words.measure``) and
 tried at points along its curve (or round its point), nearest first; the
