@@ -8,7 +8,7 @@ wherever.  :func:`build_from_plan` does the same from a plan.
 
 from __future__ import annotations
 
-from dataclasses import dataclass, replace
+from dataclasses import dataclass, field, replace
 from functools import lru_cache
 
 from .check.accuracy import Accuracy, check_kit
@@ -41,6 +41,10 @@ class Kit:
     #: kitgen check's figures, when the recipe asks for them as a page of
     #: the kit (``accuracy_page``, #10); None otherwise.
     accuracy: Accuracy | None = None
+    #: The same kit drawn without its owner's name (kitgen.parts.owner),
+    #: whose parts have the same ids and bounds: its pages serve this kit
+    #: too (kitgen.layout.pages.layout_kit); None for a kit without owner.
+    nameless: Kit | None = field(default=None, compare=False, repr=False)
 
     @property
     def words(self) -> Words:
@@ -94,7 +98,7 @@ def build_from_plan(plan: Plan) -> Kit:
             parts.append(replace(on_material(PART_BUILDERS[part.kind](ctx), plan), id=part.id))
     parts = tuple(parts)
     notes = base.other_notes + shortened_notes(parts, base.kit.dims, plan.words)
-    return replace(base.kit, plan=plan, parts=parts, notes=notes)
+    return replace(base.kit, plan=plan, parts=parts, notes=notes, nameless=base.kit)
 
 
 @dataclass(frozen=True)
