@@ -10,7 +10,8 @@ from __future__ import annotations
 from ..check.report import report_lines
 from ..parts.clock_scale import signed
 from ..parts.format import latitude_text
-from ..paper import CHECK_BAR_MM
+from ..paper import CHECK_BAR_MM, content_area_mm
+from .figures import kit_figures
 from ..words.locale import format_date, zone_place
 from .paragraphs import PAGE_BREAK, Block
 
@@ -104,6 +105,14 @@ def stack_blocks(kit) -> list[Block]:
     return [Block("item", s, w.number(k) + ".") for k, s in enumerate(items, start=1)]
 
 
+def column_mm(pages) -> float:
+    """Width (mm) of the instructions' column: the first instructions
+    page's content area (every instructions page has the same)."""
+    page = next(p for p in pages if p.kind == "instructions")
+    x0, _, x1, _ = content_area_mm(page.sheet, page.landscape, page.print_scale)
+    return x1 - x0
+
+
 def glossary_blocks(kit) -> list[Block]:
     """A short glossary in pupils' words: the trade's terms the plate, the
     rete and the instructions use (#9)."""
@@ -177,6 +186,9 @@ def story(kit, pages) -> list[Block]:
         out.append(Block("body", w("printing.tiles_pierce")))
     out += [Block("heading", w("instructions.stack_heading")), Block("body", w("instructions.stack_intro"))]
     out += stack_blocks(kit)
+    plate_fig, stack_fig = kit_figures(kit, column_mm(pages))
+    if stack_fig is not None:   # the stack drawn, in the order of the steps above (#9)
+        out.append(Block("figure", w("instructions.figure_stack"), figure=stack_fig))
     out.append(Block("body", w("instructions.fastener")))
     if {"mater_front", "mater_back"} & set(kit.plan.parts):
         out.append(Block("body", w("instructions.hang")))  # the plumb's thread (#9)
@@ -189,6 +201,8 @@ def story(kit, pages) -> list[Block]:
     out.append(Block("heading", w("instructions.height_heading")))
     out += numbered("instructions.height_steps")
     out += glossary_blocks(kit)
+    if plate_fig is not None:   # the plate's lines named (#9)
+        out.append(Block("figure", w("instructions.figure_plate"), figure=plate_fig))
     out += sunrise_blocks(kit) + star_blocks(kit)
     out += worksheet_blocks(kit)
     out += accuracy_blocks(kit)

@@ -33,7 +33,7 @@ from ..geometry.model import Part
 from .instructions import story
 from .packing import Box, Packer, extent, place
 from ..paper import CHECK_BAR_MM, GAP_MM, PT_PER_MM, TITLE_BAND_MM, Sheet, content_area_mm, page_size_mm, sheet_words
-from .paragraphs import TextOverflow, set_blocks, split_blocks
+from .paragraphs import TextOverflow, set_page, split_blocks
 from .tiling import MARK_CLEAR_MM, PIECE_BAND_MM, Piece, outside_box, tile
 
 #: Size (pt) of the part titles printed above each part (the band kept for
@@ -141,6 +141,8 @@ class Page:
     duplex: str = ""  # "front" or "back" of a duplex pair
     #: An instructions page's text, set (kitgen.layout.paragraphs.SetLine).
     lines: tuple = ()
+    #: An instructions page's pictures, set (kitgen.layout.paragraphs.SetFigure).
+    figures: tuple = ()
 
     @property
     def width_mm(self) -> float:
@@ -460,7 +462,8 @@ def _with_instructions(kit, pages, split) -> tuple[Page, ...]:
     for page in pages:
         if page.kind == "instructions":
             chunk = chunks[k] if k < len(chunks) else []
-            page = replace(page, lines=set_blocks(chunk, page_content_mm(page), kit.words, size))
+            lines, figures = set_page(chunk, page_content_mm(page), kit.words, size)
+            page = replace(page, lines=lines, figures=figures)
             k += 1
         out.append(page)
     return tuple(out)

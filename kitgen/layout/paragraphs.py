@@ -13,6 +13,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 from functools import lru_cache
+from typing import Any
 
 from ..paper import MM_PER_PT, PT_PER_MM
 from ..words.shaping import line_width_em, plain_advances, set_line
@@ -22,11 +23,24 @@ from ..words.shaping import line_width_em, plain_advances, set_line
 class Block:
     """A paragraph of the text pages: ``kind`` is ``title``, ``heading``,
     ``body``, ``item`` or ``caution`` (or :data:`PAGE_BREAK`, which starts
-    a new page); ``bullet`` is printed before an item."""
+    a new page); ``bullet`` is printed before an item.  A ``figure`` block
+    is a picture (:class:`kitgen.layout.figures.Figure`, built for the
+    column's width) under its caption ``text``, never split across pages."""
 
     kind: str
     text: str
     bullet: str = ""
+    figure: Any = None
+
+
+@dataclass(frozen=True)
+class SetFigure:
+    """A picture as set: its figure's box has its bottom-left corner at
+    ``(x_mm, y_mm)`` on the page."""
+
+    figure: Any
+    x_mm: float
+    y_mm: float
 
 
 @dataclass(frozen=True)
@@ -56,6 +70,7 @@ KINDS = {
     "body": (1.0, "body", 0.0, 0.3, 0.0),
     "item": (1.0, "body", 0.0, 0.15, 1.8),
     "caution": (1.0, "bold", 0.0, 0.15, 1.8),
+    "figure": (1.0, "bold", 0.6, 0.6, 0.0),
 }
 #: Line height in body sizes (common practice for body text: 120 to 130 %).
 LEADING = 1.25
@@ -135,21 +150,32 @@ def _laid(blocks, width_limit_pt: float, body_pt: float, words):
     return out
 
 
+def _figure_pt(block) -> float:
+    """Height (pt) of a block's picture (none for a paragraph)."""
+    return block.figure.height_mm * PT_PER_MM if block.figure is not None else 0.0
+
+
 def blocks_height_pt(blocks, width_limit_pt: float, body_pt: float, words) -> float:
     """Height (pt) the blocks take, set one after another."""
-    return sum(before + len(lines) * size * LEADING + after
-               for _, size, _, lines, before, after, _ in _laid(blocks, width_limit_pt, body_pt, words))
+    return sum(before + len(lines) * size * LEADING + _figure_pt(b) + after
+               for b, size, _, lines, before, after, _ in _laid(blocks, width_limit_pt, body_pt, words))
 
 
 def set_blocks(blocks, box_mm, words, body_pt: float) -> tuple[SetLine, ...]:
     """The blocks set from the top of ``box_mm`` = (x0, y0, x1, y1) down at
     ``body_pt``, flush left (flush right in a right-to-left language), each
     bullet before its item's first line."""
+    return set_page(blocks, box_mm, words, body_pt)[0]
+
+
+def set_page(blocks, box_mm, words, body_pt: float) -> tuple[tuple[SetLine, ...], tuple[SetFigure, ...]]:
+    """:func:`set_blocks`, and the pictures of the figure blocks, each
+    centred in the column under its caption."""
     x0, _, x1, y1 = box_mm
     width = (x1 - x0) * PT_PER_MM
     rtl = words.rtl
     align = "right" if rtl else "left"
-    out = []
+    out, figures = [], []
     y = y1 * PT_PER_MM
     for block, s, style, lines, before, after, indent in _laid(blocks, width, body_pt, words):
         y -= before
@@ -163,8 +189,12 @@ def set_blocks(blocks, box_mm, words, body_pt: float) -> tuple[SetLine, ...]:
                 bxx = x1 * PT_PER_MM - bx if rtl else x0 * PT_PER_MM + bx
                 out.append(SetLine(block.bullet, bxx * MM_PER_PT, baseline * MM_PER_PT, s, "bold", align))
             y -= lead
+        if block.figure is not None:
+            y -= _figure_pt(block)
+            fx = x0 + ((x1 - x0) - block.figure.width_mm) / 2.0
+            figures.append(SetFigure(block.figure, fx, y * MM_PER_PT))
         y -= after
-    return tuple(out)
+    return tuple(out), tuple(figures)
 
 
 def fitting_size(blocks, box_mm, words, sizes=(10.5, 10.0, 9.5, 9.0, 8.5, 8.0, 7.5, 7.0, 6.5, 6.0)) -> float:

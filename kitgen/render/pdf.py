@@ -223,6 +223,22 @@ def draw_set_lines(c: Canvas, lines, words) -> None:
                                   line.style, line.align)
 
 
+def draw_figures(c: Canvas, figures, words, colour: bool) -> None:
+    """The instructions' pictures as the layout set them
+    (kitgen.layout.paragraphs.SetFigure): each figure's elements drawn
+    like a part's, at the figure's corner, in its own line weights."""
+    for placed in figures:
+        fig = placed.figure
+        c.saveState()
+        c.translate(placed.x_mm * mm, placed.y_mm * mm)
+        c.setLineCap(0)
+        c.setLineJoin(1)
+        pen = _Pen(c, fig.dims, words, colour)
+        for el in fig.elements:
+            draw_element(c, pen, el)
+        c.restoreState()
+
+
 # -- the document ----------------------------------------------------------------
 
 def page_transform(c: Canvas, page: Page, mirror: bool = True) -> None:
@@ -265,6 +281,7 @@ def render_pdf(kit, pages) -> bytes:
         c.saveState()
         page_transform(c, page)
         draw_set_lines(c, page.lines, kit.words)
+        draw_figures(c, page.figures, kit.words, kit.plan.printing.colour)
         for placement in page.placements:
             _draw_placement(c, placement, kit.dims, kit.words, kit.plan.printing)
         for mark in page.marks:
