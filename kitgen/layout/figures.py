@@ -551,7 +551,7 @@ def stack_figure(kit, width_mm: float) -> Figure | None:
         name = layer_name(w, kinds, printed)
         part = kit.part("plate-1" if kind == "plate" else kind)
         turn = LAYER_TURN_DEG.get(kind, 0.0)
-        turn = -180.0 - turn if w.rtl and turn else turn   # towards the names
+        turn = -turn if w.rtl else turn   # mirrored: towards the names
         layers.append((kinds[0], name, _outline(part, turn)))
     if len(layers) < 2:
         return None
