@@ -16,6 +16,7 @@ import signal
 import sys
 import time
 from concurrent.futures import ProcessPoolExecutor, as_completed
+from contextlib import ExitStack
 from dataclasses import dataclass, replace
 from pathlib import Path
 
@@ -141,15 +142,21 @@ def _stamp_name(kit) -> str:
 
 
 def _build_all(jobs_list, jobs: int, languages, speak):
-    """Each job's :class:`~kitgen.batch.work.KitResult`, as they finish."""
+    """Each job's :class:`~kitgen.batch.work.KitResult`, as they finish:
+    in this process for one job, else each worker its share
+    (:func:`worker_shares`), a process of its own."""
     if jobs == 1:
         warm(languages, speak)
         for job in jobs_list:
             yield build_one(job)
         return
-    with ProcessPoolExecutor(max_workers=jobs, mp_context=_context(), initializer=_worker_start,
-                             initargs=(languages, speak)) as pool:
-        futures = [pool.submit(build_one, job) for job in jobs_list]
+    with ExitStack() as stack:
+        futures = []
+        for share in worker_shares(jobs_list, jobs):
+            pool = stack.enter_context(ProcessPoolExecutor(max_workers=1, mp_context=_context(),
+                                                           initializer=_worker_start,
+                                                           initargs=(languages, speak)))
+            futures += [pool.submit(build_one, job) for job in share]
         try:
             for future in as_completed(futures):
                 yield future.result()
@@ -157,6 +164,40 @@ def _build_all(jobs_list, jobs: int, languages, speak):
             for future in futures:
                 future.cancel()
             raise
+
+
+#: What drawing a school's shared parts costs a worker, in kits' time
+#: (about four to five, measured with benchmarks/batch_speed.py --schools).
+SCHOOL_COST_KITS = 4
+
+
+def worker_shares(jobs_list, jobs: int) -> list[list]:
+    """The jobs dealt to ``jobs`` workers.  Kits whose recipes are equal
+    but for the owner (a school's pupils) share their parts
+    (kitgen.kit.build_from_plan), so they stay with one worker, which
+    draws those parts once; a school with more kits than a worker's share
+    is split evenly.  The pieces go largest first to the least loaded
+    worker (the longest-processing-time rule, Graham 1969), each worker's
+    kits in kit order.  Which worker builds a kit never changes its
+    bytes."""
+    groups: dict = {}
+    for job in jobs_list:
+        groups.setdefault(replace(job.recipe, owner=""), []).append(job)
+    share = -(-len(jobs_list) // jobs)
+    pieces = []
+    for group in groups.values():
+        q, r = divmod(len(group), -(-len(group) // share))
+        start = 0
+        for i in range(-(-len(group) // share)):
+            pieces.append(group[start:start + q + (i < r)])
+            start += q + (i < r)
+    loads = [0] * jobs
+    out: list[list] = [[] for _ in range(jobs)]
+    for piece in sorted(pieces, key=len, reverse=True):
+        k = loads.index(min(loads))
+        loads[k] += len(piece) + SCHOOL_COST_KITS
+        out[k] += piece
+    return [sorted(share_, key=lambda job: job.number) for share_ in out if share_]
 
 
 def _worker_start(languages, speak) -> None:

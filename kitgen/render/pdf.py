@@ -17,7 +17,9 @@ from __future__ import annotations
 import io
 
 from reportlab.lib.units import mm
-from reportlab.pdfgen.canvas import Canvas
+from reportlab.lib.rl_accel import fp_str
+from reportlab.pdfgen.canvas import FILL_EVEN_ODD, PATH_OPS, Canvas
+from reportlab.pdfgen.pathobject import PDFPathObject
 
 from ..geometry import style
 from ..layout.bounds import element_box_mm, meets, turn_box
@@ -122,9 +124,71 @@ def draw_ink(c: Canvas, pen: _Pen, ink) -> None:
 
 
 def draw_element(c: Canvas, pen: _Pen, el, holes: Holes = Holes()) -> None:
-    """One element, as its inks (none for a line thinned away)."""
-    for ink in inks(el, pen.dims, holes):
-        draw_ink(c, pen, ink)
+    """One element, as its inks (none for a line thinned away).  A line's
+    or dot's PDF operators are kept with the element (:func:`_drawn`), so
+    the parts a class set's kits share (#12) are turned into operators
+    once; the bytes are the ones reportlab's own calls write."""
+    for ink, code in _drawn(el, pen.dims, holes):
+        if code is None:
+            draw_ink(c, pen, ink)
+            continue
+        if ink.shape == "dot":
+            c.setFillGray(0.0)
+        else:
+            pen.use(ink.stroke, ink.role)
+        c.addLiteral(code)
+
+
+#: Each drawn element's inks with their operators, by the element's
+#: identity: ``id -> (element, holes, dims, ((ink, code or None), ...))``.
+_DRAWN: dict[int, tuple] = {}
+#: The most elements kept (a few kits' worth; then the store starts afresh).
+_DRAWN_MOST = 40_000
+
+
+def _drawn(el, dims, holes: Holes) -> tuple:
+    kept = _DRAWN.get(id(el))
+    if kept is not None and kept[0] is el and kept[1] == holes and kept[2] is dims:
+        return kept[3]
+    drawn = tuple((ink, _operators(ink)) for ink in inks(el, dims, holes))
+    if len(_DRAWN) >= _DRAWN_MOST:
+        _DRAWN.clear()
+    _DRAWN[id(el)] = (el, holes, dims, drawn)
+    return drawn
+
+
+def _operators(ink) -> str | None:
+    """The PDF path operators of a line or dot ink, exactly as the
+    canvas's ``circle``, ``line`` and ``drawPath`` write them (the canvas
+    joins its operators with newlines, and fills even-odd unless told
+    otherwise); None for text, which is drawn through the fonts each time."""
+    g = ink.geom
+    code: list[str] = []
+    if ink.shape in ("dot", "circle"):
+        (cx, cy), r = g["center"], g["radius"]
+        PDFPathObject(code=code).ellipse((cx - r) * mm, (cy - r) * mm, 2 * r * mm, 2 * r * mm)
+        code.append(PATH_OPS[(0, 1, FILL_EVEN_ODD) if ink.shape == "dot" else (1, 0, FILL_EVEN_ODD)])
+    elif ink.shape == "arc":
+        (cx, cy), r = g["center"], g["radius"]
+        p = PDFPathObject()
+        p.arc((cx - r) * mm, (cy - r) * mm, (cx + r) * mm, (cy + r) * mm,
+              startAng=g["start_deg"], extent=g["end_deg"] - g["start_deg"])
+        code += [p.getCode(), PATH_OPS[1, 0, FILL_EVEN_ODD]]
+    elif ink.shape == "segment":
+        (x0, y0), (x1, y1) = g["from"], g["to"]
+        code.append("n %s m %s l S" % (fp_str(x0 * mm, y0 * mm), fp_str(x1 * mm, y1 * mm)))
+    elif ink.shape == "polyline":
+        pts = g["points"]
+        p = PDFPathObject()
+        p.moveTo(pts[0][0] * mm, pts[0][1] * mm)
+        for x, y in pts[1:]:
+            p.lineTo(x * mm, y * mm)
+        if g["closed"]:
+            p.close()
+        code += [p.getCode(), PATH_OPS[1, 0, FILL_EVEN_ODD]]
+    else:
+        return None
+    return "\n".join(code)
 
 
 def _draw_placement(c: Canvas, placement, dims, words, printing) -> None:

@@ -1,0 +1,58 @@
+"""How a class set's kits are dealt to workers (#12): a school's pupils
+(recipes equal but for the owner) stay with one worker where they fit in
+a worker's share, every kit is built exactly once, and the loads are
+even.  Reference: the longest-processing-time rule (R. L. Graham, "Bounds
+on multiprocessing timing anomalies", SIAM J. Appl. Math. 17, 1969),
+whose schedule is within 4/3 of the best."""
+
+from __future__ import annotations
+
+from kitgen.batch.run import SCHOOL_COST_KITS, worker_shares
+from kitgen.batch.work import KitJob
+from kitgen.recipe.load import validate_recipe
+
+
+def _jobs(schools):
+    """Jobs numbered in order: ``schools`` is a list of (latitude, pupils)."""
+    jobs, n = [], 0
+    for lat, pupils in schools:
+        for k in range(pupils):
+            n += 1
+            jobs.append(KitJob(n, validate_recipe({"latitude": lat, "owner": f"Pupil {n}"}), f"Pupil {n}"))
+    return jobs
+
+
+def _school(job):
+    return job.recipe.latitude_deg
+
+
+def test_each_kit_once_in_kit_order_per_worker():
+    jobs = _jobs([(51.5, 7), (-33.9, 3), (0.5, 12), (64.1, 1)])
+    shares = worker_shares(jobs, 2)
+    assert sorted(j.number for s in shares for j in s) == [j.number for j in jobs]
+    for share in shares:
+        assert [j.number for j in share] == sorted(j.number for j in share)
+
+
+def test_schools_that_fit_a_share_stay_together():
+    jobs = _jobs([(51.5, 10), (45.8, 10), (-23.5, 10), (38.0, 10)])
+    shares = worker_shares(jobs, 2)
+    for lat in (51.5, 45.8, -23.5, 38.0):
+        assert sum(any(_school(j) == lat for j in s) for s in shares) == 1, lat
+    assert [len(s) for s in shares] == [20, 20]
+
+
+def test_a_school_larger_than_a_share_is_split_evenly():
+    jobs = _jobs([(51.5, 40)])
+    assert sorted(len(s) for s in worker_shares(jobs, 2)) == [20, 20]
+    assert sorted(len(s) for s in worker_shares(jobs, 3)) == [13, 13, 14]
+
+
+def test_loads_within_graham_bound():
+    # LPT's makespan is at most 4/3 of the best possible (Graham 1969);
+    # the best is at least the mean load.
+    jobs = _jobs([(51.5, 9), (45.8, 5), (-23.5, 4), (38.0, 3), (12.0, 2), (60.0, 1)])
+    shares = worker_shares(jobs, 3)
+    loads = [len(s) + SCHOOL_COST_KITS * len({_school(j) for j in s}) for s in shares]
+    mean = (len(jobs) + SCHOOL_COST_KITS * 6) / 3
+    assert max(loads) <= 4 / 3 * max(mean, 9 + SCHOOL_COST_KITS) + 1e-9
