@@ -122,3 +122,57 @@ def test_band_words_moved_aside_cross_no_tick_and_keep_to_their_ticks(kit):
             own = math.dist(e.geom["at"], at[lon])
             assert own < math.dist(e.geom["at"], at[(lon - 5) % 360]), e.geom["text"]
             assert own < math.dist(e.geom["at"], at[(lon + 5) % 360]), e.geom["text"]
+
+
+def dot_to_box_mm(center, radius, corners) -> float:
+    """Paper (mm) between a dot and a box: the closest-point distance in
+    the box's own frame, less the dot's radius."""
+    local, lu, lv = _frame(corners)
+    a, b = local(center)
+    return math.hypot(a - min(max(a, 0.0), lu), b - min(max(b, 0.0), lv)) - radius
+
+
+#: How far a star's name without a leader may stand from its dot: two
+#: label offsets (1.3 ticks each, kitgen.parts.labels.place_labels'
+#: ``offset_mm``; 3.1 mm on A4). A name farther off, or nearer another
+#: star's dot than its own, is joined to its dot by a leader (the usual
+#: rule of map labelling: a name never closer to a neighbour's symbol than
+#: to its own; common practice, no standard).
+ALONE_OFFSETS = 2.0
+
+
+@pytest.mark.parametrize("head", [
+    "latitude: 0.5\n", "latitude: 0.5\ndiameter_mm: 80\n", "latitude: 0.5\ndiameter_mm: 300\n",
+    "latitude: 0.5\nsheet: a5\nlanguage: hi\n",
+    "latitude: 52.2\n", "latitude: 52.2\nsheet: a5\n", "latitude: 52.2\ndiameter_mm: 120\nlanguage: ar\n",
+    "latitude: -34\n", "latitude: -34\ndiameter_mm: 120\n", "latitude: -34\ndiameter_mm: 300\nlanguage: es\n",
+])
+def test_each_name_reads_as_its_own_stars(head):
+    """Each star's name stands within ALONE_OFFSETS of its own dot and
+    nearer to it than to any other drawn dot, or has a leader from its
+    dot to the name (#9: at 0.5 N, Castor's name once stood nearer
+    Alioth's dot than its own)."""
+    kit = build_kit(parse_recipe_text("epoch: 2027\n" + head + "parts: [rete]\n"))
+    rete, w = kit.part("rete"), kit.words
+    dots = {e.values["name"]: e for e in rete.elements if e.role == "star" and e.stroke != "none"}
+    leaders = {e.values["name"]: e for e in rete.elements if e.role == "star_leader"}
+    offset = kit.dims.tick_mm * 1.3
+    names = [e for e in rete.elements if e.role == "star_label"]
+    assert len(names) >= 20
+    bad = []
+    for e in names:
+        name, box = e.values["name"], ink_box(e, w)
+        own = dots[name]
+        if name in leaders:
+            a, b = leaders[name].geom["from"], leaders[name].geom["to"]
+            # from its own dot's edge to its own name
+            assert math.dist(a, own.geom["at"]) <= own.values["radius_mm"] + 0.5, name
+            assert dot_to_box_mm(b, 0.0, box) <= 0.5, name
+            continue
+        gap = dot_to_box_mm(own.geom["at"], own.values["radius_mm"], box)
+        if gap > ALONE_OFFSETS * offset:
+            bad.append((name, "far", round(gap, 2)))
+        for other, dot in dots.items():
+            if other != name and dot_to_box_mm(dot.geom["at"], dot.values["radius_mm"], box) <= gap:
+                bad.append((name, "nearer", other))
+    assert not bad, bad

@@ -66,7 +66,22 @@ def _meets_ring(box, ring) -> bool:
 NEAR_FIRST = (1.0, 1.8, 2.8)
 #: Farther places, each joined to its point by a leader line (common
 #: practice in map labelling), tried when the near ones are all taken.
-WITH_LEADER = (4.0, 5.5, 7.5, 10.0)
+WITH_LEADER = (3.2, 4.0, 4.8, 5.5, 6.5, 7.5, 8.7, 10.0, 12.0)
+#: The directions round the point tried at each of those reaches (dense
+#: enough that a crowded group, Orion's on an equatorial A4 rete, finds
+#: room for leaders that cross no other leader and pass no other dot).
+LEADER_DIRECTIONS = 32
+#: Where labels may have leaders, a label with none stands at most this
+#: many offsets from its point (its box within 1.06 times that of the
+#: point: the diagonal places) and nearer its own dot than any other
+#: point's, by a margin, so that it reads as that point's name (#9; the
+#: usual rule of map labelling, that a name must not be closer to a
+#: neighbour's symbol than to its own).  Any other place takes a leader.
+ALONE_REACH = 1.8
+#: Clear paper (mm) a leader keeps from every other dot: that between
+#: neighbouring lines (kitgen.parts.legibility.MIN_CLEAR_GAP_MM), so that
+#: it never seems to start from a neighbour.
+LEADER_CLEAR_MM = 0.4
 
 
 def _segment_meets_box(p, q, box) -> bool:
@@ -127,20 +142,26 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
     to the label that crosses no box or ring kept out and no label or
     leader placed before (``leader`` is None for a label near its dot).
     ``own_boxes`` (one per point, e.g. its dot) are left out of the
-    leader's own point's test."""
+    leader's own point's test.  With leaders, a label without one stands
+    within :data:`ALONE_REACH` offsets of its point and nearer its own dot
+    than any other point's; every other place, near or far, takes a
+    leader, keeps half an offset from every other dot, and its leader
+    crosses no other leader and keeps :data:`LEADER_CLEAR_MM` from every
+    other dot."""
     placed = list(keep_out)
     lines = []
     out = []
-    reaches = NEAR_FIRST + (WITH_LEADER if leaders_from_mm is not None else ())
+    with_leaders = leaders_from_mm is not None
+    reaches = NEAR_FIRST + (WITH_LEADER if with_leaders else ())
     for k, ((x, y), text) in enumerate(zip(points, texts)):
         h = measure(text, size_pt).height_mm
         candidates = []
         for reach in reaches:
             o = offset_mm * reach
             d = o * 0.75
-            if reach > NEAR_FIRST[-1]:  # far out, with a leader: sixteen directions round the point
-                for j in range(16):
-                    a = math.radians(22.5 * j)
+            if reach > NEAR_FIRST[-1]:  # far out, with a leader: directions all round the point
+                for j in range(LEADER_DIRECTIONS):
+                    a = 2 * math.pi * j / LEADER_DIRECTIONS
                     ca, sa = math.cos(a), math.sin(a)
                     anchor = "start" if ca > 0.3 else "end" if ca < -0.3 else "middle"
                     lift = (h / 2) * (1 if sa > 0 else -1) if anchor == "middle" else 0.0
@@ -150,8 +171,14 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
                            (((x, y + o + h / 2), "middle"), reach), (((x, y - o - h / 2), "middle"), reach),
                            (((x + d, y + d + h / 2), "start"), reach), (((x - d, y + d + h / 2), "end"), reach),
                            (((x + d, y - d - h / 2), "start"), reach), (((x - d, y - d - h / 2), "end"), reach)]
+        if with_leaders:
+            # First the places a name reads from alone, then every place with a leader.
+            candidates = ([(c, reach, False) for c, reach in candidates if reach <= ALONE_REACH]
+                          + [(c, reach, True) for c, reach in candidates])
+        else:
+            candidates = [(c, reach, False) for c, reach in candidates]
         choice = None
-        for (at, anchor), reach in candidates:
+        for (at, anchor), reach, needs_leader in candidates:
             box = text_box_mm(at, text, size_pt, anchor, measure)
             if inside_radius_mm is not None and max(abs(box[0]), abs(box[2])) ** 2 + \
                     max(abs(box[1]), abs(box[3])) ** 2 > inside_radius_mm ** 2:
@@ -160,15 +187,22 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
                     any(_meets_ring(box, ring) for ring in keep_out_rings) or \
                     any(_segment_meets_box(a, b, box) for a, b in lines):
                 continue
+            if with_leaders and not needs_leader and not _nearest_own(box, k, points, leaders_from_mm):
+                continue
+            if needs_leader and _beside_another(box, k, points, leaders_from_mm, offset_mm / 2):
+                continue
             leader = None
-            if reach > NEAR_FIRST[-1]:
+            if needs_leader:
                 leader = leader_ends((x, y), box, leaders_from_mm[k] + MARGIN_MM)
                 if leader is None:
                     continue
                 own = own_boxes[k] if own_boxes is not None else None
                 if any(_segment_meets_box(leader[0], leader[1], other) for other in placed if other is not own) \
                         or any(_segment_meets_ring(leader[0], leader[1], ring) for ring in keep_out_rings
-                               if not _segment_meets_ring((x, y), (x, y), ring)):  # a dot on a ring must cross it
+                               if not _segment_meets_ring((x, y), (x, y), ring)) \
+                        or any(_segments_cross(leader[0], leader[1], a, b) for a, b in lines) \
+                        or _passes_another(leader, k, points, leaders_from_mm, LEADER_CLEAR_MM):
+                    # (a dot on a ring must cross it; two leaders never cross)
                     continue
             choice = (at, anchor, box, leader)
             break
@@ -180,6 +214,50 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
             lines.append(choice[3])
         out.append(choice[:2] if leaders_from_mm is None else (choice[0], choice[1], choice[3]))
     return out
+
+
+def _box_gap_mm(box, point, radius_mm: float) -> float:
+    """Paper (mm) between a dot of ``radius_mm`` at ``point`` and a box."""
+    x, y = point
+    return math.hypot(x - min(max(x, box[0]), box[2]), y - min(max(y, box[1]), box[3])) - radius_mm
+
+
+def _nearest_own(box, k: int, points, radii_mm) -> bool:
+    """Whether the box lies nearer point ``k``'s dot than any other
+    point's, by :data:`MARGIN_MM` at least."""
+    own = _box_gap_mm(box, points[k], radii_mm[k])
+    return all(own + MARGIN_MM < _box_gap_mm(box, p, r)
+               for j, (p, r) in enumerate(zip(points, radii_mm)) if j != k)
+
+
+def _segments_cross(p, q, a, b) -> bool:
+    """Whether segments pq and ab cross (the signs of the orientations of
+    each one's ends about the other, the usual test of computational
+    geometry)."""
+    def side(o, u, v):
+        return (u[0] - o[0]) * (v[1] - o[1]) - (u[1] - o[1]) * (v[0] - o[0])
+    return side(p, q, a) * side(p, q, b) < 0 and side(a, b, p) * side(a, b, q) < 0
+
+
+def _passes_another(leader, k: int, points, radii_mm, near_mm: float) -> bool:
+    """Whether the leader passes within ``near_mm`` of a dot other than
+    point ``k``'s, where it could be read as that dot's."""
+    (ax, ay), (bx, by) = leader
+    dx, dy = bx - ax, by - ay
+    n2 = dx * dx + dy * dy
+    for j, ((x, y), r) in enumerate(zip(points, radii_mm)):
+        if j == k:
+            continue
+        t = min(max(((x - ax) * dx + (y - ay) * dy) / n2, 0.0), 1.0) if n2 > 0 else 0.0
+        if math.hypot(x - ax - t * dx, y - ay - t * dy) - r < near_mm:
+            return True
+    return False
+
+
+def _beside_another(box, k: int, points, radii_mm, near_mm: float) -> bool:
+    """Whether the box stands within ``near_mm`` of a dot other than point
+    ``k``'s, where it would read as that dot's name, leader or not."""
+    return any(_box_gap_mm(box, p, r) < near_mm for j, (p, r) in enumerate(zip(points, radii_mm)) if j != k)
 
 
 def fitted_text(role, at, string: str, size_pt: float, words, max_width_mm: float,
