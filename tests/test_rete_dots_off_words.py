@@ -176,3 +176,29 @@ def test_each_name_reads_as_its_own_stars(head):
             if other != name and dot_to_box_mm(dot.geom["at"], dot.values["radius_mm"], box) <= gap:
                 bad.append((name, "nearer", other))
     assert not bad, bad
+
+
+def _cross(p, q, a, b) -> bool:
+    """Whether segments pq and ab cross: each one's ends on opposite sides
+    of the other (orientation signs, O'Rourke, Computational Geometry in C,
+    2nd ed., sec. 1.5)."""
+    def side(o, u, v):
+        return (u[0] - o[0]) * (v[1] - o[1]) - (u[1] - o[1]) * (v[0] - o[0])
+    return side(p, q, a) * side(p, q, b) < 0 and side(a, b, p) * side(a, b, q) < 0
+
+
+def test_leaders_cross_no_leader_and_touch_no_other_dot(kit):
+    rete = kit.part("rete")
+    leaders = [e for e in rete.elements if e.role == "star_leader"]
+    dots = [e for e in rete.elements if e.role == "star" and e.stroke != "none"]
+    for i, e in enumerate(leaders):
+        p, q = e.geom["from"], e.geom["to"]
+        for f in leaders[i + 1:]:
+            assert not _cross(p, q, f.geom["from"], f.geom["to"]), (e.values["name"], f.values["name"])
+        for d in dots:
+            if d.values["name"] == e.values["name"]:
+                continue
+            (x, y), r = d.geom["at"], d.values["radius_mm"]
+            dx, dy = q[0] - p[0], q[1] - p[1]
+            t = min(max(((x - p[0]) * dx + (y - p[1]) * dy) / (dx * dx + dy * dy), 0.0), 1.0)
+            assert math.hypot(x - p[0] - t * dx, y - p[1] - t * dy) > r, (e.values["name"], d.values["name"])
