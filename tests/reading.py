@@ -25,7 +25,7 @@ def _wrap(a: float) -> float:
 
 
 def _part(geom: dict, key: str) -> dict:
-    """The part with id ``key`` (JSON version 2), else the first of kind ``key``."""
+    """The part with id ``key`` (JSON version 2 and later), else the first of kind ``key``."""
     return next((p for p in geom["parts"] if p.get("id") == key), None) or next(
         p for p in geom["parts"] if p["kind"] == key)
 

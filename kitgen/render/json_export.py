@@ -1,11 +1,11 @@
 """The JSON renderer: the geometry model as the documented contract.
 
-``{"format": "kitgen-geometry", "version": 2, "units": "mm", "epoch": Y,
+``{"format": "kitgen-geometry", "version": 3, "units": "mm", "epoch": Y,
 "latitude_deg": L, "plates": [...], "parts": [...]}``; each plate ``{"id",
 "latitude_deg", "place"}``; each part ``{"id", "kind", "material",
 "bounds_mm", "elements": [...]}`` (a plate also ``latitude_deg``, ``place``
 and ``number``), each element its ``shape``, ``role``, shape fields and
-role values.  Schema and changes from version 1: DEVELOPERS.md.
+role values.  Schema and changes from versions 1 and 2: DEVELOPERS.md.
 """
 
 from __future__ import annotations
@@ -15,7 +15,7 @@ import json
 from ..sky.site_almanac import hh_mm
 
 FORMAT_NAME = "kitgen-geometry"
-FORMAT_VERSION = 2
+FORMAT_VERSION = 3
 
 
 def _plain(value):
