@@ -353,7 +353,7 @@ def sample(el, step_mm: float = 0.5) -> np.ndarray:
 
 # -- the plate's picture ----------------------------------------------------------------
 
-def _plate_names(kit, part, lines) -> list[tuple[str, dict, str]]:
+def _plate_names(kit, lines) -> list[tuple[str, dict, str]]:
     """(role, values, name) of each kind of line the picture names: the
     curve a leader must end on is the picture's element of that role whose
     values include ``values``."""
@@ -459,7 +459,7 @@ def plate_figure(kit, width_mm: float) -> Figure | None:
     part = kit.part("plate-1")
     disc = d.outer_tropic_radius_mm
     lines = whole_lines(part, disc, _picture_keeps(part))
-    named = _plate_names(kit, part, lines)
+    named = _plate_names(kit, lines)
     # The columns of names: as wide as the longest name, up to a share of
     # the column; longer names broken into lines.
     longest = max(w.measure(n, FIGURE_PT).width_mm for _, _, n in named)
