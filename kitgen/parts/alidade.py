@@ -10,7 +10,7 @@ the edge at the altitude read on the back's scale.
 
 from __future__ import annotations
 
-from ..geometry import model
+from ..geometry import model, style
 from . import labels
 from .context import PartContext
 from .outline import edge_with_boss
@@ -51,7 +51,8 @@ def alidade(ctx: PartContext) -> model.Part:
     edge_text = w("alidade.reading_edge")
     edge_len = min(w.measure(edge_text, d.small_text_pt).width_mm + 2 * m, 0.5 * arm)
     band = w.measure(edge_text, d.small_text_pt).height_mm + 0.1
-    els += labels.fitted_text("reading_edge", (half - m - edge_len / 2, -(m + band / 2)), edge_text,
+    inset = style.stroke_width_mm("cut", d) / 2     # the edge's cut line grows with the instrument
+    els += labels.fitted_text("reading_edge", (half - m - edge_len / 2, -(inset + m + band / 2)), edge_text,
                               d.small_text_pt, w, edge_len - 2 * m, band)
     room = arm - edge_len - m
     els += labels.fitted_text("caution", (cross + m + room / 2, -width / 2), w("alidade.caution"),

@@ -7,7 +7,7 @@ The body lies on one side of that edge so the edge itself is a cut line.
 
 from __future__ import annotations
 
-from ..geometry import model
+from ..geometry import model, style
 from . import labels
 from .context import PartContext
 from .outline import edge_with_boss
@@ -33,11 +33,15 @@ def rule(ctx: PartContext) -> model.Part:
     # tip starts to narrow.  The name runs along the rest of the body's
     # width, from clear of the pin's crosshair (2 mm) to the tip; the
     # owner's name (#9), if any, on the outer half.
+    # The band starts beyond half the width of the edge's cut line, which
+    # grows with the instrument (kitgen.geometry.style), so that no
+    # descender reaches the line (#9).
     m = labels.MARGIN_MM
     lo, hi = 2.0 + m, tip_start * 0.9 - m
+    inset = style.stroke_width_mm("cut", d) / 2
     band = w.measure(w("rule.reading_edge"), d.small_text_pt).height_mm + 2 * m + 0.1
-    els += reading_edge_label(w, w("rule.reading_edge"), d.small_text_pt, band, hi, hi - lo)
-    across, x = width - band - 2 * m, -(band + width) / 2
+    els += reading_edge_label(w, w("rule.reading_edge"), d.small_text_pt, band, hi, hi - lo, inset)
+    across, x = width - inset - band - 2 * m, -(inset + band + width) / 2
     mid = (lo + hi) / 2 if ctx.plan.owner else hi
     els += labels.fitted_text("part_label", (x, (lo + mid) / 2), w("rule.title"), d.small_text_pt, w,
                               mid - lo - m, across, angle_deg=90.0)
@@ -48,11 +52,12 @@ def rule(ctx: PartContext) -> model.Part:
                       w("rule.title"))
 
 
-def reading_edge_label(w, text: str, size_pt: float, band_mm: float, end_mm: float, most_mm: float):
+def reading_edge_label(w, text: str, size_pt: float, band_mm: float, end_mm: float, most_mm: float,
+                       inset_mm: float = 0.0):
     """``text`` ("reading edge") set along the fiducial edge (x = 0) in the
-    band ``band_mm`` wide next to it, ending ``end_mm`` along the rule and
-    at most ``most_mm`` long (#9)."""
+    band ``band_mm`` wide that starts ``inset_mm`` from it, ending
+    ``end_mm`` along the rule and at most ``most_mm`` long (#9)."""
     m = labels.MARGIN_MM
     length = min(w.measure(text, size_pt).width_mm + 2 * m, most_mm)
-    return labels.fitted_text("reading_edge", (-band_mm / 2, end_mm - length / 2), text, size_pt, w,
+    return labels.fitted_text("reading_edge", (-inset_mm - band_mm / 2, end_mm - length / 2), text, size_pt, w,
                               length - 2 * m, band_mm - 2 * m, angle_deg=90.0)
