@@ -15,7 +15,7 @@ from __future__ import annotations
 
 import math
 
-from ..geometry import model
+from ..geometry import model, style
 from . import curves, labels
 from .ring_numbers import (NUMBERED_TICK, SHORT_TICK, SIGN_NUMBERS_DEG, names_from_edge_mm, number_row,
                            numbers_gap_mm)
@@ -201,6 +201,26 @@ def _calendar_scale(ctx, r0, r1):
     return out
 
 
+def _corner_number_at(d, w, L, sx, tick_end, beyond, r_limit):
+    """Where the corner's 1 stands: ``beyond`` the corner on its diagonal
+    (:func:`~kitgen.parts.shadow_square.shadow_mark`), unless its box
+    would reach the ring round the squares (radius ``r_limit``: the clock
+    ring's or the calendar's inner edge), as on small kits; then inside
+    the corner, on the diagonal past the tick's end, clear of both sides
+    and of the tick by a margin and half the sides' line (#9: no line over
+    a word)."""
+    text = w.number(1.0, 0)
+    box = labels.text_box_mm(beyond, text, d.small_text_pt, "middle", w.measure)
+    gap = labels.MARGIN_MM + style.stroke_width_mm("medium", d) / 2
+    if max(math.hypot(x, y) for x in box[0::2] for y in box[1::2]) <= r_limit - gap:
+        return beyond
+    ext = w.measure(text, d.small_text_pt)
+    hw, hh = ext.width_mm / 2, ext.height_mm / 2
+    tick = L - abs(tick_end[0])
+    c = max(hw, hh, tick + min(hw, hh)) + gap
+    return (sx * (L - c), -L + c)
+
+
 def _shadow_square(d, w, r_cal, labelled=LABELLED_RATIOS):
     """Two shadow squares below the horizontal: the alidade's lower end
     crosses a side where 10 x tan(altitude) (vertical sides) or
@@ -218,6 +238,8 @@ def _shadow_square(d, w, r_cal, labelled=LABELLED_RATIOS):
             out.append(model.segment("shadow_tick", at, tick_end, "light", at=at, ratio=ratio))
             if ratio not in labelled:
                 continue
+            if ratio == 1.0:
+                lab = _corner_number_at(d, w, L, sx, tick_end, lab, r_cal)
             out.append(model.text("shadow_label", lab, w.number(ratio, decimals(ratio)), d.small_text_pt,
                                   anchor=anchor, ratio=ratio))
     y = -L - d.tick_mm * 3.5
