@@ -12,7 +12,8 @@ from __future__ import annotations
 import math
 
 from ..geometry import model
-from . import curves, labels
+from ..geometry.style import stroke_width_mm
+from . import breaks, curves, labels
 from .context import PartContext
 from .plate import key_tab_mm
 
@@ -22,18 +23,27 @@ def hour_angle_deg(hour: float, sign: int) -> float:
     return 90.0 - sign * 15.0 * (hour - 12.0)
 
 
-def upright_hour_label(w, hour: int, sign: int, r_tips_mm: float, r_ring_mm: float, size_pt: float):
+def upright_hour_label(w, hour: int, sign: int, r_tips_mm: float, r_ring_mm: float, size_pt: float,
+                       clear_mm: float = 0.0):
     """The numeral of ``hour``, upright (never turned, so a 6 cannot be
     read as a 9 however the instrument is held: #9), centred on the hour's
     ray between the longest ticks' tips (``r_tips_mm``) and the ring's outer
-    circle, as far out as its measured box allows."""
+    circle, as far out as its measured box allows: the box's farthest
+    corner (not only its extent along the ray) stays ``clear_mm`` inside
+    the circle where the tips leave room (#9: no line over a word)."""
     text = w.number(hour)
     ext = w.measure(text, size_pt)
     a = math.radians(hour_angle_deg(hour, sign))
     half = abs(math.cos(a)) * ext.width_mm / 2.0 + abs(math.sin(a)) * ext.height_mm / 2.0   # along the ray
     room = r_ring_mm - r_tips_mm
     gap = max(0.0, min(0.3 * (room - 2.0 * half), 0.6))
-    r = max(r_tips_mm + half, r_ring_mm - half - gap) if room >= 2.0 * half else (r_tips_mm + r_ring_mm) / 2.0
+    # A corner at r u + c (|c|^2 = q, u . c <= half) lies at most
+    # sqrt(r^2 + 2 r half + q) from the centre.
+    limit = r_ring_mm - clear_mm
+    q = (ext.width_mm ** 2 + ext.height_mm ** 2) / 4.0
+    r_fit = -half + math.sqrt(max(half * half - q + limit * limit, 0.0))
+    r = (max(r_tips_mm + half, min(r_ring_mm - half - gap, r_fit)) if room >= 2.0 * half
+         else (r_tips_mm + r_ring_mm) / 2.0)
     return model.text("hour_label", (r * math.cos(a), r * math.sin(a)), text, size_pt, 0.0, hour=hour)
 
 
@@ -69,8 +79,9 @@ def mater_front(ctx: PartContext) -> model.Part:
             stroke = "none"  # thinned at this size (kitgen.parts.legibility): kept, not drawn
         els.append(curves.radial_tick("hour_tick", hour_angle_deg(hour, s), r_in, r_in + length, r_in, stroke,
                                       hour=hour))
-    for hour in range(24):
-        els.append(upright_hour_label(w, hour, s, r_in + 0.42 * ring, r_mid, d.text_pt))
+    clear = labels.MARGIN_MM + stroke_width_mm("medium", d) / 2
+    hours = [upright_hour_label(w, hour, s, r_in + 0.42 * ring, r_mid, d.text_pt, clear) for hour in range(24)]
+    els += hours
     deg_ring = r_out - r_mid
     for deg in range(360):
         length = deg_ring * (0.45 if deg % 15 == 0 and deg else 0.28 if deg % 5 == 0 else 0.16)
@@ -79,9 +90,19 @@ def mater_front(ctx: PartContext) -> model.Part:
             stroke = "none"  # thinned at this size (kitgen.parts.legibility): kept, not drawn
         els.append(curves.radial_tick("degree_tick", 90.0 - s * deg, r_mid, r_mid + length, r_mid, stroke,
                                       degree=deg))
-        if deg % 15 == 0 and deg:  # at 0, the top, the hang hole stands instead
-            els.append(curves.ring_text("degree_label", w.number(deg), 90.0 - s * deg, r_mid + 0.7 * deg_ring,
-                                        d.small_text_pt, degree=deg))
+    # On a small instrument a numeral is taller than the ring leaves room
+    # for past the hour ticks' tips: the ring's outer circle is broken
+    # round it, as the plate's lines are (kitgen.parts.breaks; #9: no line
+    # over a word).  The ticks are left whole: a tick's root is the
+    # reading.
+    boxes = [b for b in (breaks.text_box(e, w) for e in hours)
+             if max(math.hypot(*c) for c in b.corners()) > r_mid - clear + 1e-9]
+    rim = [e for e in els if e.role == "limb" and e.geom["radius"] == r_mid]
+    els = [e for e in els if not any(e is o for o in rim)]
+    els += breaks.break_around(rim, boxes, labels.MARGIN_MM, lambda stroke: stroke_width_mm(stroke, d))
+    for deg in range(15, 360, 15):   # at 0, the top, the hang hole stands instead
+        els.append(curves.ring_text("degree_label", w.number(deg), 90.0 - s * deg, r_mid + 0.7 * deg_ring,
+                                    d.small_text_pt, degree=deg))
     tw, tl = key_tab_mm(d)
     y = -(d.plate_radius_mm + 0.5 * tl)
     els.append(model.segment("cut", (-(tw / 2 + 0.5), y), (tw / 2 + 0.5, y), "cut", purpose="key_slot"))
