@@ -11,6 +11,7 @@ from __future__ import annotations
 from reportlab.lib.units import mm
 
 from ..layout.pages import PIECE_LABEL_PT, TITLE_PT, map_cell_mm
+from ..layout.seams import seam_stretches_mm
 from ..layout.tiling import MARK_HALF_MM
 from . import pdf_text
 
@@ -20,6 +21,9 @@ MARK_LINE_MM = 0.15
 FRAME_LINE_MM = 0.12
 SEAM_LINE_MM = 0.25
 SEAM_DASH_MM = (4.0, 1.0, 0.6, 1.0)  # dash-dot: never mistaken for a dashed fold
+#: Clearance (mm) between a seam's line and the words it is broken round,
+#: the labels' margin of kitgen.parts.labels.
+SEAM_CLEAR_MM = 0.3
 FRAME_GREY = 0.45
 #: Duplex marks: the half length (mm) of the front's scales (and the half
 #: side of their square frame), their tick step (mm) and the half length
@@ -66,11 +70,9 @@ def draw_piece_marks(c, placement, words, label: str) -> None:
     c.setStrokeGray(0.0)
     c.setLineWidth(SEAM_LINE_MM * mm)
     c.setDash([d * mm for d in SEAM_DASH_MM], 0)
-    for axis, at in piece.seams_mm:
-        if axis == "x":
-            _line(c, ox + at, y0, ox + at, y1)
-        else:
-            _line(c, x0, oy + at, x1, oy + at)
+    # Broken round the part's words, which the seam would run over (#9).
+    for (sx0, sy0), (sx1, sy1) in seam_stretches_mm(placement, words, SEAM_CLEAR_MM + SEAM_LINE_MM / 2):
+        _line(c, sx0, sy0, sx1, sy1)
     c.setDash([], 0)
     c.setLineWidth(MARK_LINE_MM * mm)
     for mx, my in piece.marks_mm:
