@@ -16,7 +16,7 @@ import numpy as np
 
 from ..errors import Message, Number
 from ..geometry import model
-from ..geometry.style import MIN_DOT_RADIUS_MM, star_radius_mm
+from ..geometry.style import MIN_DOT_RADIUS_MM, star_radius_mm, stroke_width_mm
 from ..projection.circles import project_circle
 from ..projection.stereographic import equatorial_vector, project
 from ..sky.rete_rim import MAX_RIM_DEG, rim_for_stars_deg
@@ -119,12 +119,17 @@ def rete(ctx: PartContext) -> model.Part:
     dot_boxes = [(q[0] - radii[k] - g, q[1] - radii[k] - g, q[0] + radii[k] + g, q[1] + radii[k] + g)
                  for k, q in zip(lead, pts)]
     # A name stands beside its dot, farther out with a leader line where
-    # the near places are taken; never on the ecliptic's band.
+    # the near places are taken; never on the ecliptic's band, nor on the
+    # ink of the band's edge lines, whose width grows with the instrument
+    # (#9: no line over a word).
+    edge_out = stroke_width_mm("heavy", d) / 2
+    edge_in = stroke_width_mm("light", d) / 2
     def place(texts):
         return labels.place_labels(pts, texts, d.small_text_pt, d.tick_mm * 1.3,
                                    keep_out=[pin_box] + zodiac_boxes + dot_boxes,
                                    inside_radius_mm=d.outer_tropic_radius_mm - labels.MARGIN_MM,
-                                   keep_out_rings=[(tuple(c), image.radius_mm - band, image.radius_mm)],
+                                   keep_out_rings=[(tuple(c), image.radius_mm - band - edge_in,
+                                                    image.radius_mm + edge_out)],
                                    measure=w.measure, leaders_from_mm=[radii[k] for k in lead],
                                    own_boxes=dot_boxes)
 
