@@ -434,10 +434,11 @@ def _dashed(points: np.ndarray, pattern, phase: float) -> list:
     return out
 
 
-def read_page_ink(reader, page) -> PageInk:
+def read_page_ink(reader, page, fonts: dict | None = None) -> PageInk:
     """Every glyph's printed ink box, every stroked segment and every
-    filled area of the page, in the page's default user space (pt)."""
-    fonts: dict = {}
+    filled area of the page, in the page's default user space (pt);
+    ``fonts`` keeps the fonts read, by object, across a document's pages."""
+    fonts = {} if fonts is None else fonts
     ink = PageInk([], Strokes(), [])
     _run(reader, page.get_contents(), page.get("/Resources"), _State(), ink, fonts)
     return ink
@@ -521,10 +522,11 @@ def _run(reader, contents, resources, gs: _State, ink: PageInk, fonts, part=""):
         elif op == "BT":
             tm = tlm = IDENTITY
         elif op == "Tf":
-            key = operands[0]
-            if key not in fonts:
-                fonts[key] = read_font(resources["/Font"][key])
-            gs.font, gs.size = fonts[key], float(operands[1])
+            # Read when a string is shown: a font set and never used
+            # (reportlab's first BT ... ET) prints nothing.
+            ref = resources["/Font"].raw_get(operands[0])
+            key = (ref.idnum, ref.generation) if hasattr(ref, "idnum") else id(ref)
+            gs.font, gs.size = _LazyFont(fonts, key, ref), float(operands[1])
         elif op == "Tc":
             gs.tc = float(operands[0])
         elif op == "Tw":
@@ -573,6 +575,18 @@ def _run(reader, contents, resources, gs: _State, ink: PageInk, fonts, part=""):
             raise NotImplementedError(f"operator {op}")
 
 
+class _LazyFont:
+    """A font of the page, read (once per document) at its first use."""
+
+    def __init__(self, cache, key, ref):
+        self.cache, self.key, self.ref = cache, key, ref
+
+    def __getattr__(self, name):
+        if self.key not in self.cache:
+            self.cache[self.key] = read_font(self.ref)
+        return getattr(self.cache[self.key], name)
+
+
 def _bytes(s) -> bytes:
     if isinstance(s, bytes):
         return bytes(s)
@@ -591,8 +605,9 @@ def _show(codes: bytes, tm, gs: _State, ink: PageInk, part: str, text: str | Non
         if box is not None and gs.tr != 3 and gs.tr != 7 and (gs.fill_ink or gs.tr in (1, 2, 5, 6)):
             x0, y0, x1, y1 = box
             a, b, c, d, e, f = mul(mul(scale, tm), gs.ctm)
-            poly = ccw(np.array([(a * x + c * y + e, b * x + d * y + f)
-                                 for x, y in ((x0, y0), (x1, y0), (x1, y1), (x0, y1))]))
+            corners = ((x0, y0), (x1, y0), (x1, y1), (x0, y1)) if a * d - b * c > 0 else \
+                ((x0, y0), (x0, y1), (x1, y1), (x1, y0))       # a mirrored matrix turns the order round
+            poly = np.array([(a * x + c * y + e, b * x + d * y + f) for x, y in corners])
             shown = poly if gs.clip is None else clip_polygon(poly, gs.clip)
             if len(shown) >= 3 and abs(_area(shown)) > 1e-9:
                 ink.glyphs.append(Glyph(poly, gs.clip, font.unicode.get(code, "?"), text, part))
@@ -714,18 +729,29 @@ def crossings_on_page(ink: PageInk, page_number: int, tolerance_mm: float = TOLE
             fill_edges.append((np.concatenate([q[:-1], q[1:]], axis=1), p, f))
     fill_boxes = np.array([[*p.min(axis=0), *p.max(axis=0)] for _, p, _ in fill_edges]).reshape(-1, 4)
     out = []
-    for g in ink.glyphs:
-        glo, ghi = g.box.min(axis=0), g.box.max(axis=0)
-        near = np.all(lo <= ghi, axis=1) & np.all(hi >= glo, axis=1)
-        near_fill = np.all(fill_boxes[:, :2] <= ghi, axis=1) & np.all(fill_boxes[:, 2:] >= glo, axis=1)
-        if not near.any() and not near_fill.any():
-            continue
+    # Broad phase: the glyphs whose box's bounds meet a segment's or a fill's.
+    if not ink.glyphs:
+        return out
+    boxes = np.array([g.box for g in ink.glyphs])
+    grow = max(0.0, -tol)         # a negative tolerance (a margin asked for) widens the box
+    gmin, gmax = boxes.min(axis=1) - grow, boxes.max(axis=1) + grow
+    hit = np.zeros(len(ink.glyphs), dtype=bool)
+    for a in range(0, len(seg), 2048):
+        l, h = lo[a:a + 2048], hi[a:a + 2048]
+        hit |= np.any((l[None, :, 0] <= gmax[:, None, 0]) & (l[None, :, 1] <= gmax[:, None, 1])
+                      & (h[None, :, 0] >= gmin[:, None, 0]) & (h[None, :, 1] >= gmin[:, None, 1]), axis=1)
+    if len(fill_boxes):
+        hit |= np.any((fill_boxes[None, :, 0] <= gmax[:, None, 0]) & (fill_boxes[None, :, 1] <= gmax[:, None, 1])
+                      & (fill_boxes[None, :, 2] >= gmin[:, None, 0]) & (fill_boxes[None, :, 3] >= gmin[:, None, 1]),
+                      axis=1)
+    for i in np.nonzero(hit)[0]:
+        g = ink.glyphs[i]
         core = _core(g, tol)
         if core is None:
             continue
         glo, ghi = core.min(axis=0), core.max(axis=0)
         centre = tuple(float(v) * MM_PER_PT for v in g.box.mean(axis=0))
-        cand = np.nonzero(near & np.all(lo <= ghi, axis=1) & np.all(hi >= glo, axis=1))[0]
+        cand = np.nonzero(np.all(lo <= ghi, axis=1) & np.all(hi >= glo, axis=1))[0]
         if len(cand):
             dist = segments_to_polygon(seg[cand], core)
             bad = cand[dist < half[cand]]
@@ -758,7 +784,7 @@ def _point_in(pt, poly) -> bool:
 
 def crossings(reader, tolerance_mm: float = TOLERANCE_MM) -> list[Crossing]:
     """Every crossed character of every page of the document."""
-    out = []
+    out, fonts = [], {}
     for k, page in enumerate(reader.pages):
-        out += crossings_on_page(read_page_ink(reader, page), k + 1, tolerance_mm)
+        out += crossings_on_page(read_page_ink(reader, page, fonts), k + 1, tolerance_mm)
     return out
