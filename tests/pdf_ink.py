@@ -31,17 +31,22 @@ by the rules of ISO 32000-1:2008:
 
 A glyph's box in text space becomes a parallelogram on the page (turned
 text keeps a tight, turned box, not the axis-aligned box of a turned
-box).  A clip cuts it down to the part that prints.
+box; a mirrored page keeps it too).  The clip it was shown in cuts off
+what does not print.  A font is read at the first string shown in it: a
+font set and never used prints nothing.
 
-Curves are flattened to chords in page space with Wang's bound (the
-deviation of a cubic Bezier from n equal-parameter chords is at most
-3/4 max|P0 - 2P1 + P2|, |P1 - 2P2 + P3| / n^2), to FLAT_PT.
+Curves are flattened to chords in page space by Wang's bound (quoted from
+memory: the deviation of a cubic Bezier from n equal-parameter chords is
+at most 3/4 max(|P0 - 2P1 + P2|, |P1 - 2P2 + P3|) / n^2), to FLAT_PT.
+A stroke's ink is every point within half its line width of a chord
+(round ends: a little more than the butt caps kitgen draws with, so the
+check errs towards reporting more); the width is scaled by sqrt|det CTM|.
 
-A character counts as crossed when the ink of a stroke (its centre line,
-widened by half the line width) reaches more than TOLERANCE_MM inside the
-glyph's ink box (the box shrunk by TOLERANCE_MM on every side, or by a
-quarter of its thickness where the glyph is thinner than four times the
-tolerance, such as a hyphen, so a line through it still counts).  The
+A character counts as crossed when the ink of a stroke reaches more than
+TOLERANCE_MM inside the glyph's ink box (the box shrunk by TOLERANCE_MM on
+every side, or by a quarter of its thickness where the glyph is thinner
+than four times the tolerance, such as a hyphen, so a line through it
+still counts; and within its clip shrunk by TOLERANCE_MM).  The
 tolerance, 0.1 mm, is about the registration and anti-aliasing blur of
 an office print (a 600 dpi dot is 0.042 mm; toner spreads by about that
 again): common practice, no published source.  A filled shape (a star's
