@@ -104,18 +104,20 @@ def _at_a_label_gap(part, kit, point, stroke):
     """Whether ``point`` is where a line stops short of a label: the
     clearance (labels.MARGIN_MM, 0.3 mm, common practice) and half the
     line's width from a text element's measured box (the shipped font's
-    extent, turned as set)."""
+    extent, turned as set, reaching along the line to any ink that stands
+    past the advance: #9)."""
     gap = MARGIN_MM + stroke_width_mm(stroke, kit.dims) / 2
     for e in part.elements:
         if e.shape != "text":
             continue
         g = e.geom
         ext = kit.words.measure(g["text"], g["size_pt"])
+        left, right = kit.words.ink_span_mm(g["text"], g["size_pt"])
         corners = np.array(text_corners_mm(g["at"], ext.width_mm, ext.height_mm, g["angle_deg"], g["anchor"]))
-        c = corners.mean(axis=0)
         u = (corners[1] - corners[0]) / ext.width_mm
+        c = corners.mean(axis=0) + u * ((left + right) / 2 - ext.width_mm / 2)
         d = np.asarray(point) - c
-        du, dv = abs(d @ u) - ext.width_mm / 2, abs(d @ np.array([-u[1], u[0]])) - ext.height_mm / 2
+        du, dv = abs(d @ u) - (right - left) / 2, abs(d @ np.array([-u[1], u[0]])) - ext.height_mm / 2
         dist = math.hypot(max(du, 0.0), max(dv, 0.0))
         if abs(dist - gap) < 1e-6:
             return True

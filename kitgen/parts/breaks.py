@@ -72,13 +72,18 @@ class Box:
 
 def text_box(el, words, style: str = "label") -> Box:
     """The box of a text element: its measured extent, turned as it is set
-    (the line's middle height on ``at``, see :mod:`kitgen.geometry.model`)."""
+    (the line's middle height on ``at``, see :mod:`kitgen.geometry.model`),
+    along the line from its leftmost to its rightmost ink, advance
+    included (an Arabic tail or a Devanagari vowel sign may reach past
+    the advance: #9)."""
     g = el.geom
     ext = words.measure(g["text"], g["size_pt"], style)
+    left, right = words.ink_span_mm(g["text"], g["size_pt"], style)
     a = math.radians(g["angle_deg"])
-    shift = {"start": ext.width_mm / 2, "middle": 0.0, "end": -ext.width_mm / 2}[g["anchor"]]
+    start = {"start": 0.0, "middle": -ext.width_mm / 2, "end": -ext.width_mm}[g["anchor"]]
+    shift = start + (left + right) / 2
     c = (g["at"][0] + math.cos(a) * shift, g["at"][1] + math.sin(a) * shift)
-    return Box(c, a, ext.width_mm / 2, ext.height_mm / 2)
+    return Box(c, a, (right - left) / 2, ext.height_mm / 2)
 
 
 def boxes_overlap(a: Box, b: Box) -> bool:

@@ -11,6 +11,7 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass
 
+from . import fonts
 from .shaping import Line, set_line
 
 MM_PER_PT = 25.4 / 72.0
@@ -49,3 +50,30 @@ def text_corners_mm(at, width_mm: float, height_mm: float, angle_deg: float, anc
                    (x0 + width_mm, height_mm / 2), (x0, height_mm / 2)):
         out.append((at[0] + c * dx - s * dy, at[1] + s * dx + c * dy))
     return out
+
+
+def ink_span_em(line: Line) -> tuple[float, float]:
+    """Leftmost and rightmost ink of a set line (em, from its left end),
+    taken with its advance: a glyph's outline may reach past its advance
+    (an Arabic tail, a Devanagari vowel sign below), so a box that must
+    hold a label's ink (kitgen.parts.breaks) spans both.  From the
+    outlines' bounds, the glyphs placed as they are drawn: shaped runs by
+    their HarfBuzz advances and offsets, plain runs by their advances."""
+    left, right = 0.0, line.width_em
+    start = 0.0
+    for run in line.runs:
+        x = start
+        if run.shaped:
+            for g in run.glyphs:
+                box = fonts.glyph_bounds_em(run.face, g.gid)
+                if box is not None:
+                    left, right = min(left, x + g.x_offset_em + box[0]), max(right, x + g.x_offset_em + box[2])
+                x += g.x_advance_em
+        else:
+            for ch in run.text:
+                box = fonts.char_bounds_em(run.face, ch) if fonts.has_char(run.face, ch) else None
+                if box is not None:
+                    left, right = min(left, x + box[0]), max(right, x + box[2])
+                x += fonts.advance_em(run.face, ch) if fonts.has_char(run.face, ch) else 0.0
+        start += run.width_em
+    return left, right

@@ -20,7 +20,8 @@ from ..template_files import STAR_NAMES, available_languages, shipped_tree
 from ..template_files import split_tree as _split
 from . import fonts, locale
 from .fit import Fitted, fit_label
-from .measure import Extent, extent
+from .measure import MM_PER_PT, Extent, extent, ink_span_em
+from .shaping import set_line
 
 #: Keys that describe a template rather than print words.
 META_KEYS = ("language", "reviewed_by_native_speaker")
@@ -130,6 +131,14 @@ class Words:
     def measure(self, text: str, size_pt: float, style: str = "label") -> Extent:
         """Width and height (mm) of one line of ``text`` in the real font."""
         return extent(text, size_pt, self.script, style, self.rtl)
+
+    def ink_span_mm(self, text: str, size_pt: float, style: str = "label") -> tuple[float, float]:
+        """Leftmost and rightmost ink of one line of ``text`` (mm from the
+        line's left end), its advance width included
+        (:func:`kitgen.words.measure.ink_span_em`)."""
+        left, right = ink_span_em(set_line(text, self.script, style, self.rtl))
+        em = size_pt * MM_PER_PT
+        return left * em, right * em
 
     def fit(self, text: str, size_pt: float, max_width_mm: float, max_height_mm: float | None = None,
             short: str | None = None, style: str = "label", min_pt: float = 5.0) -> Fitted:
