@@ -58,6 +58,10 @@ LONG_RATIO = 1.5
 #: area, and the room (mm) they keep from the mater.
 REGISTRATION_INSET_MM = 8.0
 REGISTRATION_CLEAR_MM = 8.0
+#: Half the size (mm) of a registration mark as drawn (the front's scales
+#: 5 mm, the back's cross 6 mm: kitgen.render.pdf_marks), kept clear of
+#: the parts' titles (#9: no line over a word).
+REGISTRATION_REACH_MM = 6.0
 
 
 @dataclass(frozen=True)
@@ -372,18 +376,30 @@ def _duplex_pages(front: Part, back: Part, sheet: Sheet, scale, mode: str):
         bx, by, rot = cx, h - cy, 180.0
     # The marks go near the corners of the content area, where both a mark
     # and its mirror image on the other side keep clear of the margins and
-    # the footer.
+    # the footer, and of both parts' titles.
     i = REGISTRATION_INSET_MM
     xs = (max(ax0 + i, w - ax1 + i), min(ax1 - i, w - ax0 - i))
     ys = (max(ay0 + i, h - ay1 + i), min(ay1 - i, h - ay0 - i))
+    on_front, on_back = Placement(front, cx, cy, 0.0), Placement(back, bx, by, rot)
+
+    def behind(x, y):
+        return (w - x, y) if mode == "long_edge" else (x, h - y)
+
+    def clear_of_title(placement, x, y):
+        tx, ty = placement.title_at_mm
+        q = REGISTRATION_REACH_MM
+        return (x + q <= tx or x - q >= tx + title_width_mm(placement.part.title)
+                or y + q <= ty - 0.3 * TITLE_PT / PT_PER_MM or y - q >= ty + TITLE_PT / PT_PER_MM)
+
     fronts = []
     for x in xs:
         for y in ys:
-            if math.hypot(x - cx, y - cy) >= r + REGISTRATION_CLEAR_MM:
+            if (math.hypot(x - cx, y - cy) >= r + REGISTRATION_CLEAR_MM and clear_of_title(on_front, x, y)
+                    and clear_of_title(on_back, *behind(x, y))):
                 fronts.append((x, y))
-    backs = [(w - x, y) if mode == "long_edge" else (x, h - y) for x, y in fronts]
-    return ((Placement(front, cx, cy, 0.0), tuple(Mark("duplex_front", x, y) for x, y in fronts)),
-            (Placement(back, bx, by, rot), tuple(Mark("duplex_back", x, y) for x, y in backs)))
+    backs = [behind(x, y) for x, y in fronts]
+    return ((on_front, tuple(Mark("duplex_front", x, y) for x, y in fronts)),
+            (on_back, tuple(Mark("duplex_back", x, y) for x, y in backs)))
 
 
 # -- the kit ----------------------------------------------------------------------------
