@@ -87,8 +87,15 @@ def rete(ctx: PartContext) -> model.Part:
         tick_tip = lift if crowded else names_from_edge_mm(w, d.small_text_pt, band)
         r_label = image.radius_mm - (tick_tip + band) / 2
         ang = math.degrees(math.atan2(p[1] - c[1], p[0] - c[0]))
+        # The name is centred on its sign's middle longitude, which the
+        # projection sets nearer one bound than the other (longitudes are
+        # not evenly spaced round the ecliptic's centre): its room is twice
+        # the nearer side, a degree short of the bound, along the name.
         ends = ecliptic_points_mm(np.array([30.0 * k + 1.0, 30.0 * k + 29.0]), eps, s, R)
-        room = float(np.hypot(*(ends[1] - ends[0]))) * r_label / image.radius_mm - 2 * labels.MARGIN_MM
+        along = np.array([-math.sin(math.radians(ang)), math.cos(math.radians(ang))])
+        here = c + r_label * np.array([math.cos(math.radians(ang)), math.sin(math.radians(ang))])
+        sides = [abs(float((c + (e - c) * r_label / image.radius_mm - here) @ along)) for e in ends]
+        room = 2 * min(sides) - 2 * labels.MARGIN_MM
         els += labels.ring_label("zodiac_label", signs[k], ang, r_label, d.small_text_pt, w, room,
                                  band - tick_tip - 2 * labels.MARGIN_MM, center=tuple(c),
                                  short=ZODIAC_SIGNS[k], longitude_deg=30.0 * k + 15.0)
