@@ -176,10 +176,13 @@ def test_a_turned_letter_keeps_a_tight_box():
     r = np.sqrt(0.5)
     corners = [(100 + r * (x - y), 100 + r * (x + y)) for x, y in ((x0, y0), (x1, y0), (x1, y1), (x0, y1))]
     assert sorted(map(tuple, np.round(g.box, 3))) == sorted(tuple(np.round(p, 3)) for p in corners)
-    # the axis-aligned box's lower-right corner lies far from the letter
+    # The axis-aligned box's upper-right corner lies far from the letter,
+    # which runs from (100, 100) up to the left: a line across that corner,
+    # inside the axis-aligned box, misses the letter.
     lo, hi = g.box.min(axis=0), g.box.max(axis=0)
+    assert hi[0] - lo[0] > 5 and hi[1] - lo[1] > 5
     assert not _found(lambda c: (turned(c), c.setLineWidth(0.1 * mm),
-                                 c.line(hi[0] - 1, lo[1] - 3, hi[0] + 3, lo[1] + 1)))
+                                 c.line(hi[0] - 3, hi[1] - 0.5, hi[0] - 0.5, hi[1] - 3)))
     mid = g.box.mean(axis=0)
     assert _found(lambda c: (turned(c), c.setLineWidth(0.1 * mm),
                              c.line(mid[0] - 5, mid[1] + 5, mid[0] + 5, mid[1] - 5)))
