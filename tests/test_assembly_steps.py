@@ -72,8 +72,10 @@ def test_the_gluing_step_lines_up_the_thread_holes_too():
     assert "centres" in glue and "thread holes" in glue and "top" in glue
 
 
-def test_duplex_slot_step_speaks_of_no_glue():
-    kit, blocks = _story("duplex: long_edge\n")
+def test_unglued_slot_step_speaks_of_no_glue():
+    """A mater front printed without its back: the slot, nothing to glue.
+    (A duplex kit has no slot at all: tests/test_duplex.py.)"""
+    kit, blocks = _story("parts: [mater_front, plate, rete, rule]\n")
     w = kit.words
     cutting = _section(blocks, w, "instructions.cut_heading")
     unglued = w("instructions.cut_key_slot_unglued", label=w("mater_front.key_slot"))
@@ -171,7 +173,7 @@ def test_you_will_need_follows_the_options():
     heads = [b.text for b in blocks if b.kind == "heading"]
     assert heads.index(w("instructions.need_heading")) == heads.index(w("instructions.cautions_heading")) + 1
     duplex, _, _ = _need("duplex: long_edge\n")
-    assert duplex == plain - {"glue"}          # one sheet: nothing to glue
+    assert duplex == plain - {"glue", "knife"}   # one sheet: nothing to glue, no slot to cut (#9)
     no_film, _, _ = _need("parts: [mater_front, mater_back, plate]\n")
     assert no_film == plain - {"film"}
     no_mater, _, _ = _need("parts: [plate, rete, rule]\n")

@@ -10,6 +10,7 @@ from __future__ import annotations
 from ..check.report import report_lines
 from ..parts.clock_scale import signed
 from ..parts.format import latitude_text
+from ..parts.plate import keyed
 from ..paper import CHECK_BAR_MM, content_area_mm
 from .figures import kit_figures
 from ..words.locale import format_date, zone_place
@@ -38,7 +39,9 @@ def plates_blocks(kit) -> list[Block]:
     if len(plates) < 2:
         return []
     w = kit.words
-    out = [Block("body", w("plate.plates_intro"))]
+    intro = (w("plate.plates_intro") if keyed(kit.plan)   # a duplex plate has no key (#9)
+             else w("plate.plates_intro_duplex", noon=w.number(12)))
+    out = [Block("body", intro)]
     for p in plates:
         latitude = latitude_text(w, p.latitude_deg)
         text = (w("plate.plates_item_place", number=w.number(p.number), place=p.place, latitude=latitude) if p.place
@@ -101,6 +104,8 @@ def stack_blocks(kit) -> list[Block]:
                 text = w("instructions.stack_mater_duplex")
             elif not set(kinds) <= printed:
                 text = w("instructions.stack_mater_plain")
+        if kinds == ("plate",) and not keyed(kit.plan):   # set by its noon line, no key (#9)
+            text = w("instructions.stack_plate_duplex", noon=w.number(12))
         items.append(text)
     return [Block("item", s, w.number(k) + ".") for k, s in enumerate(items, start=1)]
 
@@ -135,7 +140,7 @@ def need_blocks(kit, pages) -> list[Block]:
     tiled = any(pl.piece is not None for p in pages for pl in p.placements)
     wanted = (("card", "card" in kinds), ("film", "film" in kinds), ("fastener", True),
               ("thread", bool(printed & MATER_KINDS)), ("glue", glued), ("tape", tiled), ("scissors", True),
-              ("knife", "mater_front" in printed), ("pin", True))
+              ("knife", "mater_front" in printed and keyed(kit.plan)), ("pin", True))
     return ([Block("heading", w("instructions.need_heading"))]
             + [Block("item", w("instructions.need_" + k), "\u2022") for k, on in wanted if on])
 
@@ -147,7 +152,7 @@ def cut_blocks(kit) -> list[Block]:
     w = kit.words
     printed = set(kit.plan.parts)
     out = []
-    if "mater_front" in printed:
+    if "mater_front" in printed and keyed(kit.plan):   # no slot in a duplex kit (#9)
         glued = MATER_KINDS <= printed and kit.plan.printing.duplex == "none"
         key = "instructions.cut_key_slot" if glued else "instructions.cut_key_slot_unglued"
         out.append(Block("body", w(key, label=w("mater_front.key_slot"))))

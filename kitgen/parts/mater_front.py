@@ -15,7 +15,7 @@ from ..geometry import model
 from ..geometry.style import stroke_width_mm
 from . import breaks, curves, labels
 from .context import PartContext
-from .plate import key_tab_mm
+from .plate import key_tab_mm, keyed
 
 
 def hour_angle_deg(hour: float, sign: int) -> float:
@@ -54,6 +54,25 @@ def hang_hole(dims) -> model.Element:
     the Sun's altitude is taken."""
     y, radius = dims.hang_hole_mm
     return model.circle("hang_hole", (0.0, y), radius, "cut")
+
+
+def key_slot(d, w) -> list[model.Element]:
+    """The slot for the plate's key (kitgen.parts.plate.key_tab_mm), cut
+    across the key halfway along it, in the gap between the plate and the
+    hour ring, and its name."""
+    tw, tl = key_tab_mm(d)
+    y = -(d.plate_radius_mm + 0.5 * tl)
+    out = [model.segment("cut", (-(tw / 2 + 0.5), y), (tw / 2 + 0.5, y), "cut", purpose="key_slot")]
+    # Named just inside the plate's circle, which covers it once built,
+    # as near the slot as the chord leaves room for the words (#9).
+    ext = w.measure(w("mater_front.key_slot"), d.small_text_pt)
+    h, half = ext.height_mm + 0.1, ext.width_mm / 2 + labels.MARGIN_MM
+    rp = d.plate_radius_mm
+    y_in = min(rp - labels.MARGIN_MM, math.sqrt(max(rp ** 2 - half ** 2, 0.0))) - h / 2
+    out += labels.fitted_text("key_slot_label", (0.0, -y_in), w("mater_front.key_slot"), d.small_text_pt, w,
+                              2 * math.sqrt(rp ** 2 - (y_in + h / 2) ** 2) - 2 * labels.MARGIN_MM, h,
+                              optional=True)
+    return out
 
 
 def mater_front(ctx: PartContext) -> model.Part:
@@ -103,18 +122,8 @@ def mater_front(ctx: PartContext) -> model.Part:
     for deg in range(15, 360, 15):   # at 0, the top, the hang hole stands instead
         els.append(curves.ring_text("degree_label", w.number(deg), 90.0 - s * deg, r_mid + 0.7 * deg_ring,
                                     d.small_text_pt, degree=deg))
-    tw, tl = key_tab_mm(d)
-    y = -(d.plate_radius_mm + 0.5 * tl)
-    els.append(model.segment("cut", (-(tw / 2 + 0.5), y), (tw / 2 + 0.5, y), "cut", purpose="key_slot"))
-    # Named just inside the plate's circle, which covers it once built,
-    # as near the slot as the chord leaves room for the words (#9).
-    ext = w.measure(w("mater_front.key_slot"), d.small_text_pt)
-    h, half = ext.height_mm + 0.1, ext.width_mm / 2 + labels.MARGIN_MM
-    rp = d.plate_radius_mm
-    y_in = min(rp - labels.MARGIN_MM, math.sqrt(max(rp ** 2 - half ** 2, 0.0))) - h / 2
-    els += labels.fitted_text("key_slot_label", (0.0, -y_in), w("mater_front.key_slot"), d.small_text_pt, w,
-                              2 * math.sqrt(rp ** 2 - (y_in + h / 2) ** 2) - 2 * labels.MARGIN_MM, h,
-                              optional=True)
+    if keyed(ctx.plan):   # no slot through a duplex card (kitgen.parts.plate.keyed)
+        els += key_slot(d, w)
     els.append(hang_hole(d))
     els.append(model.point("pin", (0.0, 0.0), hole="centre"))
     r = r_out

@@ -35,7 +35,7 @@ def plate(ctx: PartContext) -> model.Part:
     eps = ctx.sky.obliquity_rad
     els: list[model.Element] = []
 
-    els += _outline(d)
+    els += _outline(d, keyed(ctx.plan))
     north_pole = np.array([0.0, 0.0, 1.0])
     els += curves.whole_circle("equator", north_pole, math.pi / 2, s, R, disc, "medium", declination_deg=0.0)
     for dec in (eps, -eps):
@@ -98,10 +98,24 @@ def key_tab_mm(dims) -> tuple[float, float]:
     return max(6.0, 0.12 * dims.plate_radius_mm), 0.8 * gap
 
 
-def _outline(d):
+def keyed(plan) -> bool:
+    """Whether the plate is kept from turning by a key tab in a slot of the
+    mater's front.
+    Not in a duplex kit (#9): there the mater's front and back are the two
+    sides of one card, and a slot cut through the front would cut the
+    back's zodiac and calendar scales and leave the key poking out behind.
+    Such a plate is set by its meridian (the noon line) on the limb's 12
+    and held by the paper fastener through the centre."""
+    return plan.printing.duplex == "none"
+
+
+def _outline(d, key: bool = True):
     """The plate's cut line: its circle with the key tab at the foot
-    (the midnight side, where the Sun is read least)."""
+    (the midnight side, where the Sun is read least), or the whole circle
+    for a plate without a key (:func:`keyed`)."""
     rp = d.plate_radius_mm
+    if not key:
+        return [model.circle("cut", (0.0, 0.0), rp, "cut")]
     tw, tl = key_tab_mm(d)
     half = math.degrees(math.asin(tw / 2 / rp))
     x = tw / 2
