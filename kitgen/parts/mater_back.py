@@ -16,6 +16,7 @@ from __future__ import annotations
 import math
 
 from ..geometry import model, style
+from ..words.symbols import ZODIAC_SIGNS
 from . import curves, labels
 from .ring_numbers import (NUMBERED_TICK, SHORT_TICK, SIGN_NUMBERS_DEG, names_from_edge_mm, number_row,
                            numbers_gap_mm)
@@ -108,8 +109,9 @@ def _altitude_scale(d, w, r0, r1, every_deg=1):
 def _zodiac_scale(d, w, r0, r1, every_deg=1):
     """Ecliptic longitude, every degree, from the ring's inner edge out:
     ticks, then the numbers 10 and 20 of each sign at their ticks' tips,
-    then the sign's name (the rete's ecliptic is labelled alike,
-    kitgen.parts.rete)."""
+    then the sign's symbol and name (the rete's ecliptic is labelled
+    alike, kitgen.parts.rete, by the name or, where it has no room, the
+    symbol)."""
     out, ring = [], r1 - r0
     signs = w.items("zodiac.signs")
     for lon in range(360):
@@ -129,13 +131,17 @@ def _zodiac_scale(d, w, r0, r1, every_deg=1):
             out.append(curves.ring_text("zodiac_number", w.number(lon % 30), longitude_direction_deg(lon), r_num,
                                         d.small_text_pt, longitude_deg=float(lon)))
     # The names stand between the numbers and the ring's outer edge,
-    # within their own 30 degrees.
+    # within their own 30 degrees, each after its sign (U+2648...): the
+    # rete writes a name with no room as its sign alone, and a pupil finds
+    # it here (#9).
     inner = r0 + names_from_edge_mm(w, d.small_text_pt, ring)
     r_label = (inner + r1) / 2
     for k in range(12):
-        out += labels.ring_label("zodiac_label", signs[k], longitude_direction_deg(30 * k + 15), r_label,
+        out += labels.ring_label("zodiac_label", f"{ZODIAC_SIGNS[k]}\u00a0{signs[k]}",
+                                 longitude_direction_deg(30 * k + 15), r_label,
                                  d.small_text_pt, w, labels.chord_mm(r_label, 28.0) - 2 * labels.MARGIN_MM,
-                                 r1 - inner - 2 * labels.MARGIN_MM, longitude_deg=30.0 * k + 15.0)
+                                 r1 - inner - 2 * labels.MARGIN_MM, short=ZODIAC_SIGNS[k],
+                                 longitude_deg=30.0 * k + 15.0)
     return out
 
 
