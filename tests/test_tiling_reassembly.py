@@ -17,7 +17,7 @@ import pytest
 pypdf = pytest.importorskip("pypdf")
 
 from kitgen.layout.pages import outside_part, turned_bounds  # noqa: E402
-from kitgen.layout.tiling import MARK_BAND_MM, MARK_HALF_MM, OVERLAP_MM, PIN_CLEAR_MM  # noqa: E402
+from kitgen.layout.tiling import MARK_BAND_MM, MARK_HALF_MM, OVERLAP_MM, PIN_CLEAR_MM, SEAM_SLIDE_MM  # noqa: E402
 
 from .pdf_paths import mul  # noqa: E402
 from .printed import PrintedKit  # noqa: E402
@@ -121,10 +121,13 @@ def test_the_large_parts_are_tiled_and_every_piece_fits_its_page(tiled):
 
 
 def test_neighbours_overlap_and_share_their_marks(tiled):
-    """Neighbours overlap by the stated overlap; the marks on their seam
-    are at the same point of the part on both, on the seam, the middle of
-    the overlap; every piece but A1 shares marks with a piece laid before
-    it; and no seam runs within PIN_CLEAR_MM of the pin."""
+    """Neighbours overlap by the stated overlap; their seam lies in the
+    overlap, off its middle by at most SEAM_SLIDE_MM (towards the piece
+    laid over it, towards the piece under it), so that the piece under it
+    shows each alignment mark's whole diamond; the marks on their seam are
+    at the same point of the part on both, on the seam; every piece but
+    A1 shares marks with a piece laid before it; and no seam runs within
+    PIN_CLEAR_MM of the pin."""
     for kind in TILED_KINDS:
         pieces = {(pl.piece.column, pl.piece.row): pl.piece for _, pl in pieces_of(tiled, kind)}
         for (i, j), p in pieces.items():
@@ -134,17 +137,21 @@ def test_neighbours_overlap_and_share_their_marks(tiled):
                 q = pieces.get((i + di, j + dj))
                 if q is None:
                     continue
+                over, under = SEAM_SLIDE_MM
                 if di:
                     overlap = p.window_mm[2] - q.window_mm[0]
-                    seam = ("x", q.window_mm[0] + OVERLAP_MM / 2)
+                    middle, later = q.window_mm[0] + OVERLAP_MM / 2, 1.0   # q, on the right, is laid over p
                 else:
                     overlap = q.window_mm[3] - p.window_mm[1]
-                    seam = ("y", q.window_mm[3] - OVERLAP_MM / 2)
+                    middle, later = q.window_mm[3] - OVERLAP_MM / 2, -1.0  # q, below, is laid over p
                 assert overlap == pytest.approx(OVERLAP_MM, abs=1e-9)
-                assert any(s == pytest.approx(seam) for s in q.seams_mm)
+                seam = next(at for axis, at in q.seams_mm if axis == ("x" if di else "y"))
+                assert -under - 1e-9 <= (seam - middle) * later <= over + 1e-9
+                # the piece under the seam (p) shows every mark's whole diamond
+                assert over + MARK_HALF_MM < OVERLAP_MM / 2
                 shared = set(p.marks_mm) & set(q.marks_mm)
                 for m in shared:
-                    assert m[0 if di else 1] == pytest.approx(seam[1], abs=1e-9)
+                    assert m[0 if di else 1] == pytest.approx(seam, abs=1e-9)
 
 
 def test_every_piece_is_matched_to_one_laid_before(tiled):

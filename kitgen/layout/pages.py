@@ -34,6 +34,7 @@ from .instructions import story
 from .packing import Box, Packer, extent, place
 from ..paper import CHECK_BAR_MM, GAP_MM, PT_PER_MM, TITLE_BAND_MM, Sheet, content_area_mm, page_size_mm, sheet_words
 from .paragraphs import TextOverflow, set_page, split_blocks
+from .seams import keep_clear
 from .tiling import MARK_CLEAR_MM, PIECE_BAND_MM, Piece, outside_box, tile
 
 #: Size (pt) of the part titles printed above each part (the band kept for
@@ -265,9 +266,10 @@ def _tilings(part: Part, areas, words) -> list[tuple[_Item, ...]]:
     out = []
     for rot in _turns(part):
         ext = turned_bounds(part.bounds_mm, rot)
+        clear = keep_clear(part, rot, words)
         best = None
         for aw, ah in areas:
-            pieces = tile(ext, aw, ah - PIECE_BAND_MM, outside=outside_part(part, rot))
+            pieces = tile(ext, aw, ah - PIECE_BAND_MM, outside=outside_part(part, rot), keep_clear=clear)
             area = sum(p.width_mm * p.height_mm for p in pieces)
             if best is None or (len(pieces), area) < (len(best), sum(p.width_mm * p.height_mm for p in best)):
                 best = pieces

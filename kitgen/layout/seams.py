@@ -9,6 +9,10 @@ cutting along it follows the line across the gap.  The boxes are the
 words' measured extents (``Words.measure``), turned as they are set and as
 the part is placed (#9: no line over a word).
 
+:func:`keep_clear` gives kitgen.layout.tiling what the seams themselves
+should keep off, so that they run clear of dots and words where the
+overlap allows.
+
 Lengths in mm; the seam's ends and the gaps in the page's frame (the
 placed part's pin at ``placement.x_mm``, ``placement.y_mm``).
 """
@@ -29,6 +33,34 @@ def _placed(box: breaks.Box, rotation_deg: float) -> breaks.Box:
     c, s = math.cos(a), math.sin(a)
     x, y = box.center
     return breaks.Box((c * x - s * y, s * x + c * y), box.angle_rad + a, box.half_w, box.half_h)
+
+
+#: How much more a seam through a star's dot costs than one through a word
+#: (kitgen.layout.tiling.seam_crossings): a dot cut in two loses its
+#: place, a word's halves still meet along the cut.
+DOT_WEIGHT = 4.0
+
+
+def keep_clear(part, rotation_deg: float, words):
+    """What a seam should not cut, as ``((xmin, ymin, xmax, ymax),
+    weight)`` in the frame the part is placed in (turned
+    ``rotation_deg`` about its pin): each drawn star's dot (its disc, of
+    the radius the geometry gives) and each word's measured box (#9: a
+    seam through Orion's belt and across a number)."""
+    a = math.radians(rotation_deg)
+    c, s = math.cos(a), math.sin(a)
+    out = []
+    for el in part.elements:
+        if el.shape == "text" and el.geom["text"].strip():
+            box = _placed(breaks.text_box(el, words, "bold" if el.role in BOLD_ROLES else "label"), rotation_deg)
+            xs, ys = zip(*box.corners())
+            out.append(((min(xs), min(ys), max(xs), max(ys)), 1.0))
+        elif el.role == "star" and el.stroke not in (None, "none"):
+            x, y = el.geom["at"]
+            r = el.values["radius_mm"]
+            px, py = c * x - s * y, s * x + c * y
+            out.append(((px - r, py - r, px + r, py + r), DOT_WEIGHT))
+    return out
 
 
 def seam_stretches_mm(placement, words, clearance_mm: float):

@@ -26,6 +26,14 @@ with no room outside the part (inside a grid of three or more pieces each
 way) has no mark: that piece is matched by its other seams and by the
 part's own lines, which run on across the seam.
 
+The seams need not cut the part's box evenly: where the page leaves room,
+all of a direction's seams move together (the first and last windows
+taking up the difference), and each seam may leave the very middle of its
+overlap by :data:`SEAM_SLIDE_MM`; each runs where it crosses the fewest of
+the part's star dots and words (the caller's ``keep_clear``), so that no
+dot is cut in two and no number straddles a cut (#9), the middle where
+several places are as good.
+
 Pieces are named by column letter and row number, ``A1`` at the top left.
 Lengths in mm.
 """
@@ -35,6 +43,8 @@ from __future__ import annotations
 import math
 import string
 from dataclasses import dataclass
+
+import numpy as np
 
 #: Overlap (mm) between neighbouring pieces: room for a half alignment mark
 #: on each side of the seam, and for tape.
@@ -51,6 +61,17 @@ MARK_CLEAR_MM = 1.0
 #: No seam passes nearer than this (mm) to the pin, so the pin's hole and
 #: the fastener's head sit on whole card.
 PIN_CLEAR_MM = 10.0
+#: How far (mm) a seam may move from the middle of its overlap to keep off
+#: a star's dot or a word (#9), ``(towards the piece laid over it, towards
+#: the piece under it)``: the piece under it shows its alignment marks'
+#: whole diamonds and the piece laid over keeps their halves beyond the
+#: seam, each with half a millimetre to spare.
+SEAM_SLIDE_MM = (OVERLAP_MM / 2.0 - MARK_HALF_MM - 0.5, OVERLAP_MM / 2.0 - 0.5)
+#: Paper (mm) a seam keeps from the things it keeps off: the seam line's
+#: half width and a little more (kitgen.render.pdf_marks draws it).
+SEAM_KEEP_MM = 0.3
+#: The steps (mm) in which a seam's place is searched.
+SEAM_STEP_MM = 0.1
 
 
 @dataclass(frozen=True)
@@ -110,25 +131,32 @@ def pieces_needed(length_mm: float, room_mm: float, overlap_mm: float = OVERLAP_
     return math.ceil((length_mm - overlap_mm) / (room_mm - overlap_mm) - 1e-9)
 
 
-def _spans(lo: float, hi: float, n: int, overlap_mm: float, room_mm: float) -> list[tuple[float, float]]:
+def _spans(lo: float, hi: float, n: int, overlap_mm: float, room_mm: float,
+           crossings=None) -> list[tuple[float, float]] | None:
     """``n`` windows from ``lo`` to ``hi``, each overlapping the next by
     ``overlap_mm``: equal, unless a seam would pass within
-    :data:`PIN_CLEAR_MM` of the pin (the origin); then every seam is moved
-    by the least amount that clears it, the first and last windows taking
-    up the difference, as far as ``room_mm`` allows; ``None`` when it
-    does not allow it."""
+    :data:`PIN_CLEAR_MM` of the pin (the origin) or, given
+    ``crossings`` (seam places -> the weight each meets, see
+    :func:`seam_crossings`), unless moving the seams meets less; then every
+    seam is moved by the same amount, the least that clears the pin and
+    meets least, the first and last windows taking up the difference, as
+    far as ``room_mm`` allows; ``None`` when it does not allow it."""
     if n == 1:
         return [(lo, hi)]
     length = (hi - lo + (n - 1) * overlap_mm) / n
     step = length - overlap_mm
-    seams = [lo + k * step + overlap_mm / 2.0 for k in range(1, n)]
-    shifts = sorted({0.0} | {side * PIN_CLEAR_MM - sm for sm in seams for side in (1.0, -1.0)}, key=abs)
-    for d in shifts:
-        if all(abs(sm + d) >= PIN_CLEAR_MM - 1e-9 for sm in seams) and length + abs(d) <= room_mm + 1e-9:
-            break
-    else:
+    seams = np.array([lo + k * step + overlap_mm / 2.0 for k in range(1, n)])
+    reach = room_mm - length
+    shifts = {0.0} | {side * PIN_CLEAR_MM - sm for sm in seams for side in (1.0, -1.0)}
+    if crossings is not None and reach > 0:
+        shifts |= set(np.arange(-reach, reach, SEAM_STEP_MM).tolist())
+    shifts = np.array(sorted(d for d in shifts if abs(d) <= reach + 1e-9
+                             and all(abs(sm + d) >= PIN_CLEAR_MM - 1e-9 for sm in seams)))
+    if not len(shifts):
         return None   # no room to move the seams off the pin: the caller takes one window more
-    cuts = [sm + d for sm in seams]
+    cost = np.zeros(len(shifts)) if crossings is None else sum(crossings(sm + shifts) for sm in seams)
+    d = float(shifts[np.lexsort((np.abs(shifts), cost))[0]])
+    cuts = [float(sm) + d for sm in seams]
     starts = [lo] + [c - overlap_mm / 2.0 for c in cuts]
     ends = [c + overlap_mm / 2.0 for c in cuts] + [hi]
     return list(zip(starts, ends))
@@ -164,28 +192,71 @@ def _mark_positions(lo: float, hi: float, on_seam) -> list[float]:
     return [first, last]
 
 
+def seam_crossings(at_mm, axis: int, keep_clear):
+    """The weight of the ``keep_clear`` boxes ``((xmin, ymin, xmax, ymax),
+    weight)`` that a seam line ``at_mm`` across the whole part meets
+    (``axis`` 0: a vertical seam at x, 1: a horizontal one at y), each
+    grown by :data:`SEAM_KEEP_MM`; for an array of places, an array.  A
+    box's extent along the axis is that of the turned shape it holds, so a
+    line across the whole part meets the shape exactly when it meets this
+    extent."""
+    return _crossings(axis, keep_clear)(at_mm)
+
+
+def _crossings(axis: int, keep_clear):
+    """:func:`seam_crossings` for one axis, as a function of the places."""
+    lo = np.array([box[axis] for box, _ in keep_clear], dtype=float) - SEAM_KEEP_MM
+    hi = np.array([box[axis + 2] for box, _ in keep_clear], dtype=float) + SEAM_KEEP_MM
+    weight = np.array([w for _, w in keep_clear], dtype=float)
+
+    def crossings(at_mm):
+        t = np.asarray(at_mm, dtype=float)[..., None]
+        return ((lo < t) & (t < hi)) @ weight
+    return crossings
+
+
+def _slide(middle_mm: float, crossings, later_sign: float) -> float:
+    """The seam's place within :data:`SEAM_SLIDE_MM` of ``middle_mm``
+    (the piece laid over it lies on the side ``later_sign``, +1 or -1)
+    and :data:`PIN_CLEAR_MM` from the pin that meets the least weight
+    (``crossings``, see :func:`seam_crossings`), nearest the middle among
+    equals."""
+    if crossings is None:
+        return middle_mm
+    over, under = (int(round(m / SEAM_STEP_MM)) for m in SEAM_SLIDE_MM)
+    places = middle_mm + later_sign * SEAM_STEP_MM * np.arange(-under, over + 1)
+    places = places[np.abs(places) >= PIN_CLEAR_MM - 1e-9]
+    if not len(places):
+        return middle_mm
+    best = np.lexsort((np.abs(places - middle_mm), crossings(places)))[0]
+    return float(places[best])
+
+
 def tile(extent_mm, room_w_mm: float, room_h_mm: float, overlap_mm: float = OVERLAP_MM,
-         outside=None) -> tuple[Piece, ...]:
+         outside=None, keep_clear=()) -> tuple[Piece, ...]:
     """The pieces of a part whose placed box is ``extent_mm`` (xmin, ymin,
     xmax, ymax), grown by MARK_BAND_MM for the marks, each window at most
     ``room_w_mm`` x ``room_h_mm``; in reading order (the top row first,
     left to right).  ``outside(x, y, r)`` says whether a disc lies wholly
-    outside the part (default: outside its box)."""
+    outside the part (default: outside its box).  ``keep_clear`` are the
+    boxes ``((xmin, ymin, xmax, ymax), weight)`` (in the placed frame) of
+    what the seams should not cut (see :func:`seam_crossings`)."""
     outside = outside or outside_box(extent_mm)
     b = MARK_BAND_MM
     x0, y0, x1, y1 = extent_mm[0] - b, extent_mm[1] - b, extent_mm[2] + b, extent_mm[3] + b
     nx = pieces_needed(x1 - x0, room_w_mm, overlap_mm)
     ny = pieces_needed(y1 - y0, room_h_mm, overlap_mm)
-    xs, ys = _spans(x0, x1, nx, overlap_mm, room_w_mm), _spans(y0, y1, ny, overlap_mm, room_h_mm)
+    cross_x, cross_y = (_crossings(0, keep_clear), _crossings(1, keep_clear)) if keep_clear else (None, None)
+    xs, ys = _spans(x0, x1, nx, overlap_mm, room_w_mm, cross_x), _spans(y0, y1, ny, overlap_mm, room_h_mm, cross_y)
     while xs is None:
         nx += 1
-        xs = _spans(x0, x1, nx, overlap_mm, room_w_mm)
+        xs = _spans(x0, x1, nx, overlap_mm, room_w_mm, cross_x)
     while ys is None:
         ny += 1
-        ys = _spans(y0, y1, ny, overlap_mm, room_h_mm)
+        ys = _spans(y0, y1, ny, overlap_mm, room_h_mm, cross_y)
     ys = list(reversed(ys))   # row 0 at the top
-    seam_x = [xs[i][0] + overlap_mm / 2.0 for i in range(1, nx)]     # left seam of column i
-    seam_y = [ys[j][1] - overlap_mm / 2.0 for j in range(1, ny)]     # top seam of row j
+    seam_x = [_slide(xs[i][0] + overlap_mm / 2.0, cross_x, 1.0) for i in range(1, nx)]   # left seam of column i
+    seam_y = [_slide(ys[j][1] - overlap_mm / 2.0, cross_y, -1.0) for j in range(1, ny)]  # top seam of row j
     marks = []
     for i, x in enumerate(seam_x, start=1):
         for j, (lo, hi) in enumerate(ys):
