@@ -80,3 +80,85 @@ def test_any_title_agrees_with_the_reference(title, language):
     line = words("page.kit_line", title=title, latitude="52", year="2027")
     got, rtl = visual(line, words)
     assert got == reference(line, rtl)
+
+
+# -- numbers in right-to-left lines (#9) ----------------------------------------
+# A number reads left to right inside Arabic text, with its sign, its
+# decimal sign, a time's colon and a degree sign after it: "-18°", "+9",
+# "10:06" (common practice of Arabic typesetting with European digits; UAX
+# #9 alone makes a sign or a degree sign beside a number a neutral that
+# takes the text's direction, "°18-").  kitgen isolates each number of an
+# Arabic line (kitgen.words.shaping.isolate_numbers); python-bidi, given
+# the same string, must show it the same way.
+
+import re  # noqa: E402
+
+from kitgen.parts.clock_scale import signed  # noqa: E402
+
+NUMBER = re.compile(r"(?<![\w])[+\-−]?[0-9٠-٩]+(?:[.,:٫٬][0-9٠-٩]+)*°?")
+
+
+def _numbers_read_left_to_right(line: str, shown: str) -> None:
+    """Every number of ``line`` (logical order, isolate controls left
+    out) stands in ``shown`` (visual order) exactly as it is written."""
+    plain = "".join(c for c in line if c not in ISOLATE_CONTROLS)
+    for number in NUMBER.findall(plain):
+        assert number in shown, (number, shown)
+
+
+@pytest.mark.parametrize("native", [False, True])
+@pytest.mark.parametrize("k, n", [(1, 8), (3, 12), (10, 11)])
+def test_the_arabic_page_number_reads_k_of_n(k, n, native):
+    """"k من n": read right to left, the page's own number first."""
+    words = load_words("ar", native_digits=native)
+    line = words("page.number", k=words.number(k), n=words.number(n))
+    got, rtl = visual(line, words)
+    assert rtl and got == reference(line, rtl)
+    first, total = words.number(k), words.number(n)
+    assert got.endswith(first) and got.startswith(total)      # k at the right, where reading starts
+    _numbers_read_left_to_right(line, got)
+
+
+@pytest.mark.parametrize("native", [False, True])
+def test_arabic_signed_numbers_degrees_and_times_read_left_to_right(native):
+    words = load_words("ar", native_digits=native)
+    lines = [words("plate.line_twilight", altitude=words.number(-18)),
+             words("plate.latitude", value=words.number(24.5, 1), hemisphere=words("cardinal.north_short")),
+             words("almanac.correction_entry", day=words.number(3), minutes=signed(words, -3)),
+             words("almanac.correction_entry", day=words.number(17), minutes=signed(words, 9)),
+             words("almanac.rise_set_entry", day=words.number(1), rise="6:41", set="17:49",
+                   length=words("almanac.length", hours=words.number(11), minutes=words.number(8)))]
+    for line in lines:
+        got, rtl = visual(line, words)
+        assert rtl and got == reference(line, rtl)
+        _numbers_read_left_to_right(line, got)
+    twilight, _ = visual(lines[0], words)
+    assert "-" + words.number(18) + "°" in twilight
+
+
+def test_without_isolation_the_sign_trails_the_number():
+    """The fault of #9, shown with the reference itself: the twilight
+    line's name composed without isolating the number shows "°18-"."""
+    raw = load_words("ar").template("plate.line_twilight").format(altitude="-18")
+    assert "°18-" in reference(raw, True)
+
+
+def test_every_line_of_an_arabic_kit_agrees_with_the_reference():
+    """The whole of an Arabic kit's instructions (worked examples, tables,
+    worksheet) and every word on its parts: as python-bidi shows each
+    line, and every number in it read left to right."""
+    from kitgen.kit import build_kit
+    from kitgen.layout.instructions import story
+    from kitgen.layout.pages import layout_kit
+    from kitgen.recipe.load import parse_recipe_text
+
+    kit = build_kit(parse_recipe_text("latitude: 24.5\nlongitude: 54.4\ntimezone: Asia/Dubai\nlanguage: ar\n"
+                                      "worksheet: true\n"))
+    words = kit.words
+    texts = [b.text for b in story(kit, layout_kit(kit))]
+    texts += [e.geom["text"] for p in kit.parts for e in p.elements if e.shape == "text"]
+    assert any(c in t for t in texts for c in "+−-")     # signed numbers are among them
+    for line in texts:
+        got, rtl = visual(line, words)
+        assert got == reference(line, rtl), line
+        _numbers_read_left_to_right(line, got)

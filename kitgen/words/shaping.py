@@ -25,6 +25,7 @@ isolates such values).
 
 from __future__ import annotations
 
+import re
 import unicodedata
 from dataclasses import dataclass
 from functools import lru_cache
@@ -126,6 +127,36 @@ def isolates(text: str) -> tuple[str, list[tuple[str, str]]]:
             outer.append(ch)
             i += 1
     return "".join(outer), found
+
+
+_DIGIT = "0-9\u0660-\u0669\u06f0-\u06f9\u0966-\u096f"
+#: A number as the kit writes it: a sign where it starts a word, digits
+#: (European, Arabic-Indic, extended Arabic-Indic, Devanagari) with the
+#: decimal signs, group separators and a time's colon between them, and a
+#: degree or per-cent sign after them.
+_NUMBER = re.compile(rf"(?:(?<![\w{_DIGIT}])[+\-\u2212])?[{_DIGIT}]+(?:[.,:\u066b\u066c][{_DIGIT}]+)*[°%\u066a]?")
+
+
+def isolate_numbers(text: str) -> str:
+    """``text`` with each number outside an isolate (its sign, decimal
+    sign, a time's colon and a degree sign after it with it) wrapped in
+    LEFT-TO-RIGHT ISOLATE ... POP DIRECTIONAL ISOLATE (UAX #9, 2.4), for a
+    line of a right-to-left language (#9).  By W1-W7 alone a sign or a
+    degree sign beside a number in right-to-left text is a neutral and
+    takes the text's direction: "الشفق -18°" would show as "°18-" and a
+    correction "+9" as "9+".  Isolated, a number reads left to right as a
+    whole and stands in the line as one neutral character, so the numbers
+    of "1 من 8" keep their places in the right-to-left order."""
+    if not _NUMBER.search(text):
+        return text
+    out, depth, start = [], 0, 0
+    for i, ch in enumerate(text + PDI):   # a closing PDI ends the last piece
+        if ch in _INITIATORS or (ch == PDI and (depth or i == len(text))):
+            piece = text[start:i]
+            out.append(_NUMBER.sub(lambda m: LRI + m.group(0) + PDI, piece) if depth == 0 else piece)
+            start = i
+            depth = depth + 1 if ch in _INITIATORS else max(depth - 1, 0)
+    return "".join(out)
 
 
 #: Each character's bidirectional class, as met.

@@ -21,7 +21,7 @@ from ..template_files import split_tree as _split
 from . import fonts, locale
 from .fit import Fitted, fit_label
 from .measure import MM_PER_PT, Extent, extent, ink_span_em
-from .shaping import set_line
+from .shaping import isolate_numbers, set_line
 
 #: Keys that describe a template rather than print words.
 META_KEYS = ("language", "reviewed_by_native_speaker")
@@ -64,9 +64,10 @@ class Words:
             raise KeyError(f"template {self.language!r} has no key {key!r}") from None
         if isinstance(template, list):
             raise KeyError(f"template key {key!r} is a list; use items()")
-        if not values:
-            return template
-        return template.format(**{name: self.isolated(v) for name, v in values.items()})
+        text = template.format(**{name: self.isolated(v) for name, v in values.items()}) if values else template
+        # In a right-to-left language each number reads left to right,
+        # its sign and degree sign with it (#9).
+        return isolate_numbers(text) if self.rtl else text
 
     def isolated(self, value):
         """``value`` as it goes into a template: text holding a letter
@@ -93,7 +94,7 @@ class Words:
         value = self._table[key]
         if not isinstance(value, list):
             raise KeyError(f"template key {key!r} is not a list")
-        return list(value)
+        return [isolate_numbers(v) for v in value] if self.rtl else list(value)
 
     def keys(self) -> set[str]:
         return set(self._table)
