@@ -288,3 +288,62 @@ def test_a_kit_too_small_for_the_ring_points_to_the_table():
     city = get_timezone_location("Europe/London", locale="en", return_city=True)
     assert w("almanac.clock_step_table", heading=w("almanac.correction_heading"),
              clock_name=w("almanac.clock_zone", zone=city)) in text
+
+
+# -- the worked example's numbers to the nearest tick and minute (#9) -----------
+# A pupil reads the Sun's place at the nearest degree tick of the back's
+# ecliptic ring and the time at the nearest minute: the example prints the
+# numbers so read, rounded, never cut short (24.9 deg is 25, 9:56.6 is
+# 9:57).  The places and times are read from the exported geometry by
+# tests/reading.py, and the time checked against DE421's local apparent
+# solar time of the Sun at that altitude (kits without a longitude keep
+# 12:00 UT as noon, so apparent time is Greenwich's).
+
+ROUNDING_KITS = ["latitude: 24.5\nepoch: 2026\n", "latitude: 3.1\nsheet: letter\nepoch: 2026\n",
+                 "latitude: 40.6\nlanguage: el\nepoch: 2026\n", "latitude: 26.9\nlanguage: hi\nsheet: a5\nepoch: 2026\n"]
+
+
+def _apparent_solar_minutes_de421(lat: float, day: dt.date, altitude_deg: float) -> float:
+    """Greenwich apparent solar time (minutes) at which DE421 puts the
+    Sun's centre at ``altitude_deg`` in the morning, seen from latitude
+    ``lat`` on the prime meridian: 12 h plus the Sun's hour angle."""
+    from skyfield.api import wgs84
+
+    ts, eph = ephemeris()
+    t = ts.from_datetime(_sun_at_altitude_utc(lat, 0.0, day, altitude_deg, True))
+    hour_angle, _, _ = (eph["earth"] + wgs84.latlon(lat, 0.0)).at(t).observe(eph["sun"]).apparent().hadec()
+    return (12.0 + hour_angle.hours) * 60.0
+
+
+def test_worked_example_prints_the_nearest_degree_and_minute():
+    from kitgen.layout.instructions import sun_place
+
+    from .reading import hour_from_front, sun_longitude_from_back, sun_point_on_rete, turned_to_almucantar
+
+    half_up_place = half_up_minute = 0
+    for recipe in ROUNDING_KITS:
+        kit = build_kit(parse_recipe_text(recipe))
+        w, ex, geom = kit.words, kit.plan.examples.sun, geometry_dict(kit)
+        plate = kit.plan.plates[0].id
+        text = " ".join(b.text for b in _story(kit))
+        # The place: the date's tick read on the ecliptic ring, to the nearest degree.
+        lon = sun_longitude_from_back(geom, ex.month, ex.day)
+        nearest = round(lon) % 360
+        half_up_place += lon % 1.0 >= 0.5
+        assert w("almanac.sun_place", degrees=w.number(nearest % 30),
+                 sign=w.items("zodiac.signs")[nearest // 30]) in text
+        assert sun_place(w, ex.sun_longitude_deg) in text
+        # The time: the reading, to the nearest minute.
+        solar_min = read_time(geom, ex.month, ex.day, ex.altitude_deg, True, plate) * 60.0
+        half_up_minute += solar_min % 1.0 >= 0.5
+        shown = round(solar_min)
+        assert clock_text(w, shown / 60.0) in text
+        # Set as printed, the Sun's place at the whole degree gives that minute too,
+        assert abs(hour_from_front(geom, turned_to_almucantar(geom, sun_point_on_rete(geom, float(nearest)),
+                                                              ex.altitude_deg, True, plate)) * 60.0 - shown) <= 1.0
+        # ... and DE421 puts the Sun at that altitude within the minute.
+        truth = _apparent_solar_minutes_de421(kit.plan.site.latitude_deg, dt.date(2026, ex.month, ex.day),
+                                              ex.altitude_deg)
+        assert abs(truth - shown) <= 1.0, (recipe, truth, shown)
+    # The kits include numbers a truncation would print one lower.
+    assert half_up_place and half_up_minute

@@ -267,10 +267,13 @@ def clock_name(kit) -> str:
 
 
 def sun_place(words, longitude_deg: float) -> str:
-    """The Sun's place as the back's ecliptic ring shows it: degrees within a sign."""
-    lon = longitude_deg % 360.0
-    sign = int(lon // 30.0)
-    return words("almanac.sun_place", degrees=words.number(int(lon - 30.0 * sign)),
+    """The Sun's place as the back's ecliptic ring shows it: degrees within
+    a sign, to the nearest degree tick (#9: 354.9 deg is 25 deg of the
+    twelfth sign, where the date's tick stands, not 24), 29.5 deg and more
+    the next sign's 0."""
+    lon = round(longitude_deg) % 360
+    sign = lon // 30
+    return words("almanac.sun_place", degrees=words.number(lon - 30 * sign),
                  sign=words.items("zodiac.signs")[sign])
 
 
