@@ -8,6 +8,10 @@ names, the owner's name.  A leader may only end beside its own name.  The
 words of the ecliptic's band, moved aside for a dot, still cross no drawn
 tick, and each number stays beside its own tick.
 
+Names keep a millimetre of paper from each other, and no leader passes
+between another name and its dot (through the shape the name's box and
+its dot's centre span: their convex hull, computed by Shapely/GEOS).
+
 References: the boxes are measured with the shipped fonts' own metrics
 (``Words.measure``: fontTools advances, HarfBuzz for shaped scripts) and
 turned as the PDF sets them (``text_corners_mm``); the geometry is read
@@ -22,6 +26,8 @@ import math
 
 import pytest
 
+from shapely.geometry import LineString, MultiPoint
+
 from kitgen.kit import build_kit
 from kitgen.recipe.load import parse_recipe_text
 from kitgen.words.measure import text_corners_mm
@@ -34,6 +40,8 @@ KITS = [
     "latitude: -33.9\nlanguage: ar\nsheet: a5\n",             # south, A5
     "latitude: 0.5\nlanguage: hi\ndiameter_mm: 300\n",        # the equator, large: the far southern sky
     "latitude: 40\nlanguage: en\ndiameter_mm: 120\nowner: Robin Example\n",
+    "latitude: 24.5\nlanguage: ar\n",                         # the review's Arabic kit: Orion, Gemini
+    "latitude: -37.8\nlanguage: es\n",                        # the review's southern kit: Centaurus, Crux
 ]
 
 
@@ -139,6 +147,16 @@ def dot_to_box_mm(center, radius, corners) -> float:
 #: rule of map labelling: a name never closer to a neighbour's symbol than
 #: to its own; common practice, no standard).
 ALONE_OFFSETS = 2.0
+#: How much nearer (mm) its own dot a name without a leader stands than any
+#: other dot, and how far (mm) a name at the end of a leader keeps from
+#: every other dot, so that a pupil never takes it for that dot's (#9: on
+#: the Arabic kit Bellatrix's name stood beside Betelgeuse's dot); a
+#: choice, common practice in map labelling, no standard.
+CLEARLY_NEARER_MM = 0.45
+LEADER_NAME_FROM_OTHER_DOTS_MM = 1.0
+#: Paper (mm) between two names (#9: "Pollux" ran into Sirius's name);
+#: about a letter's width at 5 pt, common practice.
+NAME_GAP_MM = 1.0
 
 
 @pytest.mark.parametrize("head", [
@@ -146,12 +164,14 @@ ALONE_OFFSETS = 2.0
     "latitude: 0.5\nsheet: a5\nlanguage: hi\n",
     "latitude: 52.2\n", "latitude: 52.2\nsheet: a5\n", "latitude: 52.2\ndiameter_mm: 120\nlanguage: ar\n",
     "latitude: -34\n", "latitude: -34\ndiameter_mm: 120\n", "latitude: -34\ndiameter_mm: 300\nlanguage: es\n",
+    "latitude: 24.5\nlanguage: ar\n", "latitude: -37.8\nlanguage: es\n", "latitude: 3.1\nsheet: letter\nlanguage: fr\n",
+    "latitude: 45\nsheet: a5\nlanguage: ar\n", "latitude: 12\ndiameter_mm: 150\nlanguage: hi\n",
 ])
 def test_each_name_reads_as_its_own_stars(head):
     """Each star's name stands within ALONE_OFFSETS of its own dot and
-    nearer to it than to any other drawn dot, or has a leader from its
-    dot to the name (#9: at 0.5 N, Castor's name once stood nearer
-    Alioth's dot than its own)."""
+    clearly nearer to it than to any other drawn dot, or has a leader from
+    its dot to the name and keeps clear of every other dot (#9: at 0.5 N,
+    Castor's name once stood nearer Alioth's dot than its own)."""
     kit = build_kit(parse_recipe_text("epoch: 2027\n" + head + "parts: [rete]\n"))
     rete, w = kit.part("rete"), kit.words
     dots = {e.values["name"]: e for e in rete.elements if e.role == "star" and e.stroke != "none"}
@@ -168,12 +188,17 @@ def test_each_name_reads_as_its_own_stars(head):
             # from its own dot's edge to its own name
             assert math.dist(a, own.geom["at"]) <= own.values["radius_mm"] + 0.5, name
             assert dot_to_box_mm(b, 0.0, box) <= 0.5, name
+            for other, dot in dots.items():
+                if other != name and dot_to_box_mm(dot.geom["at"], dot.values["radius_mm"], box) \
+                        < LEADER_NAME_FROM_OTHER_DOTS_MM:
+                    bad.append((name, "leader's name beside", other))
             continue
         gap = dot_to_box_mm(own.geom["at"], own.values["radius_mm"], box)
         if gap > ALONE_OFFSETS * offset:
             bad.append((name, "far", round(gap, 2)))
         for other, dot in dots.items():
-            if other != name and dot_to_box_mm(dot.geom["at"], dot.values["radius_mm"], box) <= gap:
+            if other != name and dot_to_box_mm(dot.geom["at"], dot.values["radius_mm"], box) \
+                    <= gap + CLEARLY_NEARER_MM:
                 bad.append((name, "nearer", other))
     assert not bad, bad
 
@@ -202,3 +227,40 @@ def test_leaders_cross_no_leader_and_touch_no_other_dot(kit):
             dx, dy = q[0] - p[0], q[1] - p[1]
             t = min(max(((x - p[0]) * dx + (y - p[1]) * dy) / (dx * dx + dy * dy), 0.0), 1.0)
             assert math.hypot(x - p[0] - t * dx, y - p[1] - t * dy) > r, (e.values["name"], d.values["name"])
+
+
+def _upright_box(el, words):
+    corners = ink_box(el, words)
+    assert el.geom["angle_deg"] == 0.0
+    xs, ys = [c[0] for c in corners], [c[1] for c in corners]
+    return min(xs), min(ys), max(xs), max(ys)
+
+
+def test_names_keep_a_millimetre_apart(kit):
+    rete, w = kit.part("rete"), kit.words
+    boxes = [(e.geom["text"], _upright_box(e, w)) for e in rete.elements if e.role == "star_label"]
+    close = []
+    for i, (a, p) in enumerate(boxes):
+        for b, q in boxes[i + 1:]:
+            # the gap between two upright boxes: the longer of their separations along x and y
+            gap = math.hypot(max(p[0] - q[2], q[0] - p[2], 0.0), max(p[1] - q[3], q[1] - p[3], 0.0))
+            if gap < NAME_GAP_MM - 1e-9:
+                close.append((a, b, round(gap, 2)))
+    assert not close
+
+
+def test_no_leader_between_another_name_and_its_dot(kit):
+    rete, w = kit.part("rete"), kit.words
+    dots = {e.values["name"]: e for e in rete.elements if e.role == "star" and e.stroke != "none"}
+    spans = {}
+    for e in rete.elements:
+        if e.role == "star_label":
+            x0, y0, x1, y1 = _upright_box(e, w)
+            spans[e.values["name"]] = MultiPoint([dots[e.values["name"]].geom["at"], (x0, y0), (x1, y0),
+                                                  (x1, y1), (x0, y1)]).convex_hull
+    hits = []
+    for leader in (e for e in rete.elements if e.role == "star_leader"):
+        line = LineString([leader.geom["from"], leader.geom["to"]])
+        hits += [(leader.values["name"], name) for name, hull in spans.items()
+                 if name != leader.values["name"] and line.intersects(hull)]
+    assert not hits

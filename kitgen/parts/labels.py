@@ -8,7 +8,8 @@ the width of the rule) is fitted to it by the rule of
 :mod:`kitgen.words.fit`: smaller down to 5 pt, then the shorter form,
 then two lines.  Labels beside points (the stars) are placed greedily, a
 common practice in map labelling: try a few positions around each point,
-keep the first that is free, most important points first.
+keep the first that is free, most important points first, then let a
+point left without a place take a neighbour's that can move.
 """
 
 from __future__ import annotations
@@ -82,6 +83,21 @@ ALONE_REACH = 1.8
 #: neighbouring lines (kitgen.parts.legibility.MIN_CLEAR_GAP_MM), so that
 #: it never seems to start from a neighbour.
 LEADER_CLEAR_MM = 0.4
+#: Clear paper (mm) between two names beside points, so that each reads as
+#: a word of its own (#9: on an Arabic rete "Pollux" ran into Sirius's
+#: name; about a letter's width at 5 pt, common practice in map labelling).
+NAME_GAP_MM = 1.0
+#: How much nearer (mm) its own dot a name without a leader stands than
+#: any other dot, so that it is *clearly* that dot's (#9).
+NEARER_BY_MM = 0.5
+#: A name with a leader keeps this many offsets (and :data:`NAME_GAP_MM`
+#: at least) from every other dot, so that it never reads as that dot's
+#: name (#9: Bellatrix's name, at the end of its leader, stood beside
+#: Betelgeuse's dot).
+LEADER_NAME_CLEAR = 0.75
+#: How many placed labels nearest an unplaced point's are tried for a swap
+#: (:func:`place_labels`' repair step).
+REPAIR_NEIGHBOURS = 6
 
 
 def _segment_meets_box(p, q, box) -> bool:
@@ -144,41 +160,29 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
     ``own_boxes`` (one per point, e.g. its dot) are left out of the
     leader's own point's test.  With leaders, a label without one stands
     within :data:`ALONE_REACH` offsets of its point and nearer its own dot
-    than any other point's; every other place, near or far, takes a
-    leader, keeps half an offset from every other dot, and its leader
-    crosses no other leader and keeps :data:`LEADER_CLEAR_MM` from every
-    other dot."""
-    placed = list(keep_out)
-    lines = []
-    out = []
+    than any other point's, by :data:`NEARER_BY_MM`; every other place,
+    near or far, takes a leader, keeps :data:`LEADER_NAME_CLEAR` offsets
+    (and :data:`NAME_GAP_MM` at least) from every other dot, and its
+    leader crosses no other leader and keeps :data:`LEADER_CLEAR_MM` from
+    every other dot.  Labels keep :data:`NAME_GAP_MM` from each other, no
+    leader passes between another label and its point (#9: Hadar's name
+    cut off from its dot by Rigil Kentaurus's leader), and a label with no
+    free place may take that of one of its :data:`REPAIR_NEIGHBOURS`
+    nearest labels if that one then finds another."""
     with_leaders = leaders_from_mm is not None
     reaches = NEAR_FIRST + (WITH_LEADER if with_leaders else ())
-    for k, ((x, y), text) in enumerate(zip(points, texts)):
+    chosen = {}   # point index -> (at, anchor, box, leader)
+
+    def choose(k):
+        """The first free place of point k's label, given those chosen."""
+        (x, y), text = points[k], texts[k]
+        others = [c for j, c in chosen.items() if j != k]
+        placed = list(keep_out) + [c[2] for c in others]
+        names = [c[2] for c in others]
+        lines = [c[3] for c in others if c[3] is not None]
+        links = [_link(points[j], c[2]) for j, c in chosen.items() if j != k]
         h = measure(text, size_pt).height_mm
-        candidates = []
-        for reach in reaches:
-            o = offset_mm * reach
-            d = o * 0.75
-            if reach > NEAR_FIRST[-1]:  # far out, with a leader: directions all round the point
-                for j in range(LEADER_DIRECTIONS):
-                    a = 2 * math.pi * j / LEADER_DIRECTIONS
-                    ca, sa = math.cos(a), math.sin(a)
-                    anchor = "start" if ca > 0.3 else "end" if ca < -0.3 else "middle"
-                    lift = (h / 2) * (1 if sa > 0 else -1) if anchor == "middle" else 0.0
-                    candidates.append((((x + o * ca, y + o * sa + lift), anchor), reach))
-                continue
-            candidates += [(((x + o, y), "start"), reach), (((x - o, y), "end"), reach),
-                           (((x, y + o + h / 2), "middle"), reach), (((x, y - o - h / 2), "middle"), reach),
-                           (((x + d, y + d + h / 2), "start"), reach), (((x - d, y + d + h / 2), "end"), reach),
-                           (((x + d, y - d - h / 2), "start"), reach), (((x - d, y - d - h / 2), "end"), reach)]
-        if with_leaders:
-            # First the places a name reads from alone, then every place with a leader.
-            candidates = ([(c, reach, False) for c, reach in candidates if reach <= ALONE_REACH]
-                          + [(c, reach, True) for c, reach in candidates])
-        else:
-            candidates = [(c, reach, False) for c, reach in candidates]
-        choice = None
-        for (at, anchor), reach, needs_leader in candidates:
+        for (at, anchor), reach, needs_leader in _candidates(x, y, h, offset_mm, reaches, with_leaders):
             box = text_box_mm(at, text, size_pt, anchor, measure)
             if inside_radius_mm is not None and max(abs(box[0]), abs(box[2])) ** 2 + \
                     max(abs(box[1]), abs(box[3])) ** 2 > inside_radius_mm ** 2:
@@ -187,10 +191,17 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
                     any(_meets_ring(box, ring) for ring in keep_out_rings) or \
                     any(_segment_meets_box(a, b, box) for a, b in lines):
                 continue
-            if with_leaders and not needs_leader and not _nearest_own(box, k, points, leaders_from_mm):
-                continue
-            if needs_leader and _beside_another(box, k, points, leaders_from_mm, offset_mm / 2):
-                continue
+            if with_leaders:
+                g = NAME_GAP_MM
+                if any(_overlap((box[0] - g, box[1] - g, box[2] + g, box[3] + g), other) for other in names):
+                    continue
+                if not needs_leader and (not _nearest_own(box, k, points, leaders_from_mm)
+                                         or any(_segments_cross(a, b, p, q) for a, b in lines
+                                                for p, q in _link((x, y), box))):
+                    continue
+                if needs_leader and _beside_another(box, k, points, leaders_from_mm,
+                                                    max(offset_mm * LEADER_NAME_CLEAR, NAME_GAP_MM)):
+                    continue
             leader = None
             if needs_leader:
                 leader = leader_ends((x, y), box, leaders_from_mm[k] + MARGIN_MM)
@@ -201,19 +212,75 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
                         or any(_segment_meets_ring(leader[0], leader[1], ring) for ring in keep_out_rings
                                if not _segment_meets_ring((x, y), (x, y), ring)) \
                         or any(_segments_cross(leader[0], leader[1], a, b) for a, b in lines) \
+                        or any(_segments_cross(leader[0], leader[1], p, q) for link in links for p, q in link) \
                         or _passes_another(leader, k, points, leaders_from_mm, LEADER_CLEAR_MM):
-                    # (a dot on a ring must cross it; two leaders never cross)
+                    # (a dot on a ring must cross it; two leaders never cross,
+                    # nor pass between another label and its point)
                     continue
-            choice = (at, anchor, box, leader)
-            break
-        if choice is None:
-            out.append(None)
-            continue
-        placed.append(choice[2])
-        if choice[3] is not None:
-            lines.append(choice[3])
-        out.append(choice[:2] if leaders_from_mm is None else (choice[0], choice[1], choice[3]))
+            return (at, anchor, box, leader)
+        return None
+
+    for k in range(len(points)):
+        choice = choose(k)
+        if choice is not None:
+            chosen[k] = choice
+    if with_leaders:
+        # A label with no free place may take a neighbour's, if the
+        # neighbour then finds another (a step of repair after the greedy
+        # pass, common practice in map labelling).
+        for k in range(len(points)):
+            if k in chosen:
+                continue
+            near = sorted(chosen, key=lambda j: _box_gap_mm(chosen[j][2], points[k], 0.0))[:REPAIR_NEIGHBOURS]
+            for j in near:
+                kept = chosen.pop(j)
+                mine = choose(k)
+                if mine is not None:
+                    chosen[k] = mine
+                    theirs = choose(j)
+                    if theirs is not None:
+                        chosen[j] = theirs
+                        break
+                    del chosen[k]
+                chosen[j] = kept
+    out = []
+    for k in range(len(points)):
+        c = chosen.get(k)
+        out.append(None if c is None else c[:2] if not with_leaders else (c[0], c[1], c[3]))
     return out
+
+
+def _candidates(x, y, h, offset_mm, reaches, with_leaders):
+    """The places tried for a label of height ``h`` beside the point (x, y),
+    nearest first: ``((at, anchor), reach, needs_leader)``."""
+    candidates = []
+    for reach in reaches:
+        o = offset_mm * reach
+        d = o * 0.75
+        if reach > NEAR_FIRST[-1]:  # far out, with a leader: directions all round the point
+            for j in range(LEADER_DIRECTIONS):
+                a = 2 * math.pi * j / LEADER_DIRECTIONS
+                ca, sa = math.cos(a), math.sin(a)
+                anchor = "start" if ca > 0.3 else "end" if ca < -0.3 else "middle"
+                lift = (h / 2) * (1 if sa > 0 else -1) if anchor == "middle" else 0.0
+                candidates.append((((x + o * ca, y + o * sa + lift), anchor), reach))
+            continue
+        candidates += [(((x + o, y), "start"), reach), (((x - o, y), "end"), reach),
+                       (((x, y + o + h / 2), "middle"), reach), (((x, y - o - h / 2), "middle"), reach),
+                       (((x + d, y + d + h / 2), "start"), reach), (((x - d, y + d + h / 2), "end"), reach),
+                       (((x + d, y - d - h / 2), "start"), reach), (((x - d, y - d - h / 2), "end"), reach)]
+        # then beside the point but raised or lowered by half the name's
+        # height, and above or below it to one side (the places of map
+        # labelling between those eight)
+        candidates += [(((x + o, y + s * h / 2), "start"), reach) for s in (1, -1)] + \
+                      [(((x - o, y + s * h / 2), "end"), reach) for s in (1, -1)] + \
+                      [(((x + o / 2, y + s * (o + h / 2)), anchor), reach)
+                       for s in (1, -1) for anchor in ("start", "end")]
+    if with_leaders:
+        # First the places a name reads from alone, then every place with a leader.
+        return ([(c, reach, False) for c, reach in candidates if reach <= ALONE_REACH]
+                + [(c, reach, True) for c, reach in candidates])
+    return [(c, reach, False) for c, reach in candidates]
 
 
 def _box_gap_mm(box, point, radius_mm: float) -> float:
@@ -222,11 +289,20 @@ def _box_gap_mm(box, point, radius_mm: float) -> float:
     return math.hypot(x - min(max(x, box[0]), box[2]), y - min(max(y, box[1]), box[3])) - radius_mm
 
 
+def _link(point, box):
+    """The segments from a point to its label's box: to each corner and to
+    the box's nearest point.  A line that passes between the label and its
+    point (through the shape they span) crosses one of them."""
+    x, y = point
+    near = (min(max(x, box[0]), box[2]), min(max(y, box[1]), box[3]))
+    return [((x, y), c) for c in ((box[0], box[1]), (box[2], box[1]), (box[2], box[3]), (box[0], box[3]), near)]
+
+
 def _nearest_own(box, k: int, points, radii_mm) -> bool:
     """Whether the box lies nearer point ``k``'s dot than any other
-    point's, by :data:`MARGIN_MM` at least."""
+    point's, by :data:`NEARER_BY_MM` at least."""
     own = _box_gap_mm(box, points[k], radii_mm[k])
-    return all(own + MARGIN_MM < _box_gap_mm(box, p, r)
+    return all(own + NEARER_BY_MM < _box_gap_mm(box, p, r)
                for j, (p, r) in enumerate(zip(points, radii_mm)) if j != k)
 
 
