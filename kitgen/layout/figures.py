@@ -600,18 +600,21 @@ def stack_figure(kit, width_mm: float) -> Figure | None:
         names.append(_Name(names_lines[k], (float(edge[0]), float(edge[1])), {"layer": kind},
                            len(names_lines[k]) * lh))
         centres.append(z)
+        front_top = float(np.max(pts[:, 1]))   # the front layer's highest point
         z += half + max(LAYER_GAP_MM, len(names_lines[k]) * lh * 0.6)
     # The fastener: its shank through every centre, its head on the front,
     # its legs opened at the back.
     head_r = 1.6
-    top = centres[-1] + 3.0
+    top = max(centres[-1] + 3.0, front_top + 1.5)   # the head clear above the front part, its name's leader too
     bottom = centres[0] - 3.5
     els.append(model.segment("figure_pin", (cx, bottom), (cx, top), "heavy"))
     head = [(cx + head_r * math.cos(t), top + 0.6 * head_r * math.sin(t)) for t in np.linspace(0, 2 * math.pi, 41)]
     els.append(model.polyline("figure_pin", head, True, "heavy"))
     for sx in (-1.0, 1.0):
         els.append(model.segment("figure_pin", (cx, bottom), (cx + sx * 3.0, bottom - 1.5), "heavy"))
-    pin_target = (cx + 3.0 * (-1.0 if rtl else 1.0), bottom - 1.5)   # a leg's end
+    # The name points at the fastener's head, above the rule, so that the
+    # head is not taken for the thread's loop (#9).
+    pin_target = (cx + head_r * (-1.0 if rtl else 1.0), top)
     names.append(_Name(names_lines[-1], pin_target, {"layer": "pin"}, len(names_lines[-1]) * lh))
     high = top + 0.6 * head_r + 1.0
     _stack_column(names, 0.0, max(high, max(n.target[1] for n in names) + lh))

@@ -178,7 +178,10 @@ def story(kit, pages) -> list[Block]:
     out += [Block("caution", s, "!") for s in w.items("instructions.cautions")]
     out += need_blocks(kit, pages)
     out.append(Block("heading", w("instructions.print_heading")))
-    for kind, key in (("card", "instructions.print_card"), ("film", "instructions.print_film")):
+    # Which pages go on which stock, by the kit's own page numbers: the
+    # instructions on plain paper, the parts on card and film (#9).
+    for kind, key in (("instructions", "instructions.print_plain"), ("card", "instructions.print_card"),
+                      ("film", "instructions.print_film")):
         n, listed = _page_list(w, pages, kind)
         if n:
             out.append(Block("item", w(key + ("_one" if n == 1 else "_many"), pages=listed), "\u2022"))

@@ -24,7 +24,7 @@ import math
 from ..parts import breaks
 
 #: Text roles set in bold on the parts (as kitgen.render.pdf draws them).
-BOLD_ROLES = frozenset({"title"})
+BOLD_ROLES = frozenset({"title", "caution"})
 
 
 def _placed(box: breaks.Box, rotation_deg: float) -> breaks.Box:

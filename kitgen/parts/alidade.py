@@ -13,7 +13,24 @@ from __future__ import annotations
 from ..geometry import model, style
 from . import labels
 from .context import PartContext
+from .dimensions import MIN_TEXT_PT
 from .outline import edge_with_boss
+
+
+#: Size (pt) a caution is printed at, bold, at the least: common practice
+#: for safety wording on printed matter (no smaller than the small print
+#: around it, and heavier). On an arm too short for it even on two or three
+#: lines the caution keeps the part's small text size, still bold (#9).
+CAUTION_PT = 7.0
+
+
+def caution_text(at, d, w, room_mm: float, height_mm: float) -> list[model.Element]:
+    """"Never look at the Sun", bold and at least :data:`CAUTION_PT` where
+    the arm's room holds it (broken into lines if need be), centred at ``at``."""
+    text, size = w("alidade.caution"), max(CAUTION_PT, d.small_text_pt)
+    fitted = w.fit(text, size, room_mm, height_mm, style="bold", min_pt=CAUTION_PT)
+    low = CAUTION_PT if not any(line.endswith("\u2026") for line in fitted.lines) else MIN_TEXT_PT
+    return labels.fitted_text("caution", at, text, size, w, room_mm, height_mm, style="bold", min_pt=low)
 
 
 def alidade(ctx: PartContext) -> model.Part:
@@ -55,8 +72,7 @@ def alidade(ctx: PartContext) -> model.Part:
     els += labels.fitted_text("reading_edge", (half - m - edge_len / 2, -(inset + m + band / 2)), edge_text,
                               d.small_text_pt, w, edge_len - 2 * m, band)
     room = arm - edge_len - m
-    els += labels.fitted_text("caution", (cross + m + room / 2, -width / 2), w("alidade.caution"),
-                              d.small_text_pt, w, room, width - 2 * m)
+    els += caution_text((cross + m + room / 2, -width / 2), d, w, room, width - 2 * m)
     gap = hole_at - cross
     for sx in (1.0, -1.0):
         els += labels.fitted_text("vane_label", (sx * (half + gap / 2), -width / 2), w("alidade.vane"),

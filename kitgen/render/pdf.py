@@ -32,7 +32,7 @@ from .ink import Holes, holes_of, inks
 FONT = "KitSans"
 
 #: Text roles set in bold on the parts.
-_BOLD_ROLES = {"title"}
+_BOLD_ROLES = {"title", "caution"}
 
 #: Sizes (pt) of the page furniture.
 FOOTER_PT = 7.0
