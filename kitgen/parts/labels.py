@@ -173,8 +173,10 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
     reaches = NEAR_FIRST + (WITH_LEADER if with_leaders else ())
     chosen = {}   # point index -> (at, anchor, box, leader)
 
-    def choose(k):
-        """The first free place of point k's label, given those chosen."""
+    def choose(k, across_rings=False):
+        """The first free place of point k's label, given those chosen;
+        its leader crosses a ring kept out (from a point on it) only
+        ``across_rings``."""
         (x, y), text = points[k], texts[k]
         others = [c for j, c in chosen.items() if j != k]
         placed = list(keep_out) + [c[2] for c in others]
@@ -210,7 +212,7 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
                 own = own_boxes[k] if own_boxes is not None else None
                 if any(_segment_meets_box(leader[0], leader[1], other) for other in placed if other is not own) \
                         or any(_segment_meets_ring(leader[0], leader[1], ring) for ring in keep_out_rings
-                               if not _segment_meets_ring((x, y), (x, y), ring)) \
+                               if not (across_rings and _segment_meets_ring((x, y), (x, y), ring))) \
                         or any(_segments_cross(leader[0], leader[1], a, b) for a, b in lines) \
                         or any(_segments_cross(leader[0], leader[1], p, q) for link in links for p, q in link) \
                         or _passes_another(leader, k, points, leaders_from_mm, LEADER_CLEAR_MM):
@@ -220,8 +222,13 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
             return (at, anchor, box, leader)
         return None
 
+    def first_free(k):
+        # a leader across a scale's band from a point on it only where
+        # there is no other place (#9: Kaus Australis's across the band)
+        return choose(k) or choose(k, across_rings=True)
+
     for k in range(len(points)):
-        choice = choose(k)
+        choice = first_free(k)
         if choice is not None:
             chosen[k] = choice
     if with_leaders:
@@ -234,10 +241,10 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
             near = sorted(chosen, key=lambda j: _box_gap_mm(chosen[j][2], points[k], 0.0))[:REPAIR_NEIGHBOURS]
             for j in near:
                 kept = chosen.pop(j)
-                mine = choose(k)
+                mine = first_free(k)
                 if mine is not None:
                     chosen[k] = mine
-                    theirs = choose(j)
+                    theirs = first_free(j)
                     if theirs is not None:
                         chosen[j] = theirs
                         break
