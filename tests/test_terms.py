@@ -1,6 +1,6 @@
 """One word for one thing (#9): in every language the instructions call the
-almucantar, the alidade, the rule, the rete and the shadow square by the
-words printed on the parts and in the plate's picture, and by no other.
+almucantar, the alidade, the rule, the rete, the plate, the mater and the
+shadow square by the words printed on the parts and in the plate's picture, and by no other.
 
 The printed words are read from a built kit (the parts' text and titles,
 the instructions' picture of the plate); the instructions' words from the
@@ -105,9 +105,11 @@ def _texts(language: str) -> dict[str, str]:
 
 def _printed_terms(kit) -> dict[str, str]:
     """The names printed on the kit: the rule's and the alidade's on the
-    parts, the rete's in its title (before the bracket saying it goes on
-    film), the shadow square's caption on the back, and the almucantar's in
-    the instructions' picture of the plate (its number taken away)."""
+    parts, the rete's, the plate's and the mater's in the titles printed
+    beside them (the rete's before the bracket saying it goes on film, the
+    mater's before the comma naming its face), the shadow square's caption
+    on the back, and the almucantar's in the instructions' picture of the
+    plate (its number taken away)."""
     def label(kind, role):
         (e,) = kit.part(kind).with_role(role)
         return e.geom["text"]
@@ -117,6 +119,7 @@ def _printed_terms(kit) -> dict[str, str]:
               if e.shape == "text" and e.values.get("curve") == "almucantar"]
     return {"rule": label("rule", "part_label"), "alidade": label("alidade", "part_label"),
             "rete": re.split(r"\s*\(", kit.part("rete").title)[0],
+            "plate": kit.part("plate-1").title, "mater": re.split(r"\s*[,،]", kit.part("mater_front").title)[0],
             "shadow_square": label("mater_back", "shadow_caption"),
             "almucantar": _fold("".join(c for c in alm if not c.isdigit() and c != "°")).strip()}
 
@@ -133,7 +136,8 @@ def _kit(language: str):
 @pytest.mark.parametrize("language", LANGUAGES)
 def test_steps_name_each_part_as_it_is_printed(language):
     """Every sentence that in English names the almucantar, the alidade,
-    the rule, the rete or the shadow square by its printed name names it,
+    the rule, the rete, the plate, the mater or the shadow square by its
+    printed name names it,
     in this language, by this language's printed name."""
     en_terms = {k: _term_re(v) for k, v in _printed_terms(_kit("en")).items()}
     terms = _printed_terms(_kit(language))
@@ -169,7 +173,7 @@ def test_no_second_word_for_a_part(language):
     change the word's end (مقنطرات), so Arabic relies on the test above."""
     terms = _printed_terms(_kit(language))
     found = []
-    for thing in ("almucantar", "alidade", "rule", "rete"):
+    for thing in ("almucantar", "alidade", "rule", "rete", "plate", "mater"):
         word = max(terms[thing].split(), key=len)
         f = _fold(word)
         if len(f) < 6:
