@@ -63,10 +63,11 @@ MARK_CLEAR_MM = 1.0
 PIN_CLEAR_MM = 10.0
 #: How far (mm) a seam may move from the middle of its overlap to keep off
 #: a star's dot or a word (#9), ``(towards the piece laid over it, towards
-#: the piece under it)``: the piece under it shows its alignment marks'
-#: whole diamonds and the piece laid over keeps their halves beyond the
-#: seam, each with half a millimetre to spare.
-SEAM_SLIDE_MM = (OVERLAP_MM / 2.0 - MARK_HALF_MM - 0.5, OVERLAP_MM / 2.0 - 0.5)
+#: the piece under it)``: as far as leaves the alignment marks' whole
+#: diamonds inside both pieces' windows, with half a millimetre to spare
+#: (a diamond poking out of the window would run into the piece's band,
+#: its name and map, above it).
+SEAM_SLIDE_MM = (OVERLAP_MM / 2.0 - MARK_HALF_MM - 0.5,) * 2
 #: Paper (mm) a seam keeps from the things it keeps off: the seam line's
 #: half width and a little more (kitgen.render.pdf_marks draws it).
 SEAM_KEEP_MM = 0.3
