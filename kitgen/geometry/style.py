@@ -146,8 +146,16 @@ def star_radius_mm(mag: float, dims) -> float:
 
 
 def dot_radius_mm(dims) -> float:
-    """Radius (mm) of a plain marked point (e.g. the zenith)."""
+    """Radius (mm) of a plain marked point."""
     return max(MIN_DOT_RADIUS_MM, 0.45 * _scale(dims))
+
+
+def zenith_mark_half_mm(dims) -> float:
+    """Half the arm's reach (mm, along x and along y) of the zenith's
+    mark, a small open saltire (x): unlike the pin's upright cross and
+    hole, so that nobody pierces it (#9), and no dot; about as wide as a
+    bright star's dot, at least 0.6 mm so that it reads as a cross."""
+    return max(0.6, 0.75 * _scale(dims))
 
 
 def pin_hole_radius_mm(hole: str, pin_hole_mm: float = PIN_HOLE_MM, sight_hole_mm: float = SIGHT_HOLE_MM) -> float:

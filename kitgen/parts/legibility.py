@@ -406,7 +406,9 @@ def shortened_notes(parts, dims, words) -> tuple[Message, ...]:
     cut short with "…" because even at the legible minimum they did not fit
     their room, and for the stars the label placer found no room to name
     (by the names ``words`` prints them with): so that no shortened or
-    missing word goes unsaid; and for the rete's ecliptic numbers left
+    missing word goes unsaid; for the plate's labels that found no place
+    clear of the other lines and the almucantars not drawn for want of
+    room for their numbers; and for the rete's ecliptic numbers left
     out because a star's dot lies where they would stand
     (kitgen.parts.band_words)."""
     out = []
@@ -425,6 +427,16 @@ def shortened_notes(parts, dims, words) -> tuple[Message, ...]:
         if under:
             out.append(Message("notes.ecliptic_numbers_under_stars", part=name,
                                longitudes=[Number(int(round(lon))) for lon in under]))
+        # The plate's labels with no place clear of the lines not their own,
+        # and the almucantars left out for want of room for their numbers (#9).
+        missing = part.values.get("labels_left_out") if part.kind == "plate" else None
+        if missing:
+            out.append(Message("notes.plate_labels_left_out", part=name,
+                               labels=[Message("notes.quoted", text=t) for t in missing], diameter=size))
+        dropped = part.values.get("almucantars_left_out_deg") if part.kind == "plate" else None
+        if dropped:
+            out.append(Message("notes.almucantars_left_out", part=name,
+                               altitudes=[Number(a) for a in dropped], diameter=size))
         named = {e.values.get("name") for e in part.elements if e.role == "star_label"}
         unnamed = [e.values["name"] for e in part.elements if e.role == "star" and e.stroke != "none"
                    and e.values["name"] not in named]

@@ -16,7 +16,7 @@ import numpy as np
 from ..geometry import model
 from ..projection.stereographic import (equatorial_vector, horizontal_vector,
                                         project_vectors)
-from ..geometry.style import stroke_width_mm
+from ..geometry.style import pin_cross_half_mm, stroke_width_mm
 from . import breaks, curves, labels, legibility, plate_labels
 from .context import PartContext
 from .dimensions import MIN_TEXT_PT
@@ -61,14 +61,20 @@ def plate(ctx: PartContext) -> model.Part:
     z = project_vectors(zenith, s, R)
     if np.hypot(*z) <= disc:
         els.append(model.point("zenith", z))
-    words = _labels(ctx, phi, s, R, disc, els)
-    boxes = [breaks.text_box(e, ctx.words) for e in words]
+    words, missing = _labels(ctx, phi, s, R, disc, els)
+    # An almucantar that is owed a number and found no room for it clear of
+    # the lines (round the zenith of a small plate) is not drawn (#9).
+    unnumbered = sorted(v["altitude_deg"] for _, v in missing if "altitude_deg" in v)
+    els = [e for e in els if not (e.role == "almucantar" and e.values["altitude_deg"] in unnumbered)]
+    boxes = [breaks.text_box(e, ctx.words) for e in words if e.shape == "text"]
     els = breaks.break_around(els, boxes, labels.MARGIN_MM, lambda stroke: stroke_width_mm(stroke, d))
     els += words
     els.append(model.point("pin", (0.0, 0.0), hole="centre"))
     r = d.plate_radius_mm + d.tick_mm * 4
     return model.Part("plate", "card", tuple(els), (-r, -r, r, r),
-                      {"latitude_deg": lat_deg, "place": ctx.plate.place, "number": ctx.plate.number},
+                      {"latitude_deg": lat_deg, "place": ctx.plate.place, "number": ctx.plate.number,
+                       "labels_left_out": tuple(t for t, v in missing if "altitude_deg" not in v),
+                       "almucantars_left_out_deg": tuple(unnumbered)},
                       plate_title(ctx))
 
 
@@ -171,9 +177,11 @@ def _labels(ctx, phi, s, R, disc, strokes):
     most needed first, each clear of those set before it: the latitude,
     the cardinal points, the almucantars' tens, the unequal hours, the
     azimuths, the names of the horizon, equator, tropics and twilight lines,
-    then the almucantars' fives where there is room."""
+    then the almucantars' fives where there is room.  Returns the labels
+    (and the cardinal letters' leaders) and the texts of those that found
+    no place clear of the lines (#9), for the build's notes."""
     w, eps = ctx.words, ctx.sky.obliquity_rad
-    first = _latitude_label(ctx, disc)
+    first = _latitude_label(ctx, disc, strokes)
     lab = plate_labels.PlateLabeller(ctx, strokes, disc, [breaks.text_box(e, w) for e in first])
     for az, key in ((0.0, "cardinal.north"), (90.0, "cardinal.east"), (180.0, "cardinal.south"),
                     (270.0, "cardinal.west")):
@@ -200,14 +208,19 @@ def _labels(ctx, phi, s, R, disc, strokes):
     for alt in numbered:
         if alt not in tens:
             lab.almucantar(alt, False)
-    return first + lab.out
+    return first + lab.out, lab.missing
 
 
 def _multiple(value: float, of: float) -> bool:
     return abs(value / of - round(value / of)) < 1e-9
 
 
-def _latitude_label(ctx, disc):
+def _latitude_label(ctx, disc, strokes):
+    """The latitude (after the place's name), along the lower meridian,
+    moved up or down it (and to the meridian's other side) until it keeps
+    plate_labels.CLEAR_MM from every line but the meridian (#9: a caption
+    set in a gap of a tropic reads as that line's name); on a small plate
+    where no such place is found, across the thin lines only."""
     d, w = ctx.dims, ctx.words
     # The latitude, from beside the meridian to the edge of the drawing;
     # raised from 0.9 of the disc's radius where a small plate's chord
@@ -226,8 +239,35 @@ def _latitude_label(ctx, disc):
         h = max(h, 2.4 * w.measure(text, MIN_TEXT_PT).height_mm)
         head, _, tail = text.partition(" ")
         down = reach(max(w.measure(x, MIN_TEXT_PT).width_mm for x in (head, tail)))
-    y = -min(disc * 0.9, max(disc * 0.6, down))
-    room = math.sqrt((disc - labels.MARGIN_MM) ** 2 - (abs(y) + h / 2) ** 2) - d.tick_mm
-    return labels.fitted_text("plate_label", (d.tick_mm, y), text,
-                              d.text_pt, w, room, h, anchor="start",
-                              fallbacks=(latitude_text(w, ctx.plate.latitude_deg),))
+    y0 = -min(disc * 0.9, max(disc * 0.6, down))
+    room = plate_labels.Room(disc, d)
+    others = [e for e in strokes if e.shape in plate_labels.STROKE_SHAPES and e.role != "meridian"
+              and e.stroke not in ("none", "cut", "fold") and not plate_labels.on_meridian(e)]
+
+    def at(y, side):
+        width = math.sqrt(max(0.0, (disc - labels.MARGIN_MM) ** 2 - (abs(y) + h / 2) ** 2)) - d.tick_mm
+        return labels.fitted_text("plate_label", (side * d.tick_mm, y), text, d.text_pt, w, width, h,
+                                  anchor="start" if side > 0 else "end",
+                                  fallbacks=(latitude_text(w, ctx.plate.latitude_deg),))
+
+    first = at(y0, 1)
+    if any(e.geom["text"].endswith("\u2026") for e in first):
+        return first
+    low = -(pin_cross_half_mm(d) + plate_labels.CLEAR_MM + h)   # clear of the pin's mark
+    # Clear of every line, else beside them, else (a small plate) across
+    # the thin lines (almucantars, azimuths, unequal hours), never across
+    # a named one: the plate's latitude is never left out.
+    named = [e for e in others if e.role in ("horizon", "equator", "tropic", "twilight")]
+    for clear, lines in ((plate_labels.CLEAR_MM, others), (labels.MARGIN_MM, others), (labels.MARGIN_MM, named)):
+        for k in range(int(disc / 0.5)):
+            for y in ((y0,) if k == 0 else (y0 + 0.5 * k, y0 - 0.5 * k)):
+                if not -disc < y < low:
+                    continue
+                for side in (1, -1):
+                    els = at(y, side)
+                    if [e.geom["text"] for e in els] != [e.geom["text"] for e in first]:
+                        continue
+                    boxes = [breaks.text_box(e, w) for e in els]
+                    if all(room.inside(b) and room.clear_of(b, lines, clear) for b in boxes):
+                        return els
+    return first

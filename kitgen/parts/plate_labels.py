@@ -17,10 +17,15 @@ astrolabe plates).
 
 Every label is measured with the shipped fonts (``Words.measure``) and
 tried at points along its curve (or round its point), nearest first; the
-first place whose box stays inside the drawing, meets no label set before
-and no line it must not cover is taken.  Lines it may cover are broken
+first place whose box stays inside the drawing, keeps :data:`LABEL_GAP_MM`
+from every label set before and :data:`CLEAR_MM` from every drawn line but
+its own is taken (#9: a number set in a gap it broke in another line reads
+as that line's label).  A label breaks only its own line, which is cut
 round it afterwards (:mod:`kitgen.parts.breaks`), so no drawn line crosses
-a printed character.  Lengths in mm, angles in radians inside.
+a printed character; the meridian and the east-west line, along which the
+almucantars are numbered, it may come as near as :data:`MARGIN_MM`.  A
+label with no such place is left out, and the build's notes say so
+(:func:`left_out`).  Lengths in mm, angles in radians inside.
 """
 
 from __future__ import annotations
@@ -30,19 +35,29 @@ import math
 import numpy as np
 
 from ..geometry import model
-from ..geometry.style import dot_radius_mm, pin_cross_half_mm, stroke_width_mm
+from ..geometry.style import dot_radius_mm, pin_cross_half_mm, stroke_width_mm, zenith_mark_half_mm
 from ..projection.stereographic import equatorial_vector, horizontal_vector, project_vectors
 from .breaks import Box, boxes_overlap, meets
 from .labels import MARGIN_MM
 
 STROKE_SHAPES = ("circle", "arc", "segment", "polyline")
-#: Clear paper (mm) kept between two labels (as between the shadow
-#: square's numbers, kitgen.parts.legibility.MIN_LABEL_GAP_MM).
-LABEL_GAP_MM = 0.4
+#: Clear paper (mm) kept between a label and every drawn line that is not
+#: its own, and between two labels: about a millimetre of white round
+#: lettering keeps it from reading as part of a neighbouring line (common
+#: practice of map and scale lettering; the value is ours, #9).
+CLEAR_MM = 1.0
+LABEL_GAP_MM = CLEAR_MM
+#: How much farther (mm) a label goes for the full clearance rather than
+#: stand MARGIN_MM beside a line.
+PREFER_CLEAR_MM = 3.0
+#: A cardinal letter farther than this (mm) from its horizon point gets a
+#: leader to it (#9: at low latitudes the north point is at the pin).
+NEAR_MM = 2.5
 #: How far (mm, along its curve) a number may slide from where it belongs.
 SLIDE_MM = 12.0
-#: A name that breaks this many lines or fewer takes the first such place.
-GOOD_ENOUGH = 1
+#: How far (mm, along its circle) a number slides before it may cross
+#: the azimuths near the zenith rather than slide on.
+NEAR_SLIDE_MM = 4.0
 #: Step (mm) between the places tried.
 STEP_MM = 0.25
 
@@ -65,15 +80,18 @@ class Room:
                 return False
         return True
 
-    def clear_of(self, box: Box, elements) -> bool:
+    def clear_of(self, box: Box, elements, clear_mm: float = MARGIN_MM) -> bool:
         for el in elements:
-            grow = MARGIN_MM + stroke_width_mm(el.stroke, self.dims) / 2
+            grow = clear_mm + stroke_width_mm(el.stroke, self.dims) / 2
             if meets(el, box.grown(grow)):
                 return False
         return True
 
-    def free(self, box: Box, protected=()) -> bool:
-        return self.inside(box) and self.clear_of_labels(box) and self.clear_of(box, protected)
+    def free(self, box: Box, protected=(), near=(), clear_mm: float = CLEAR_MM) -> bool:
+        """Inside the drawing, clear of the labels, ``clear_mm`` from the
+        lines ``protected`` and :data:`MARGIN_MM` from those ``near``."""
+        return (self.inside(box) and self.clear_of_labels(box) and self.clear_of(box, near)
+                and self.clear_of(box, protected, clear_mm))
 
 
 def upright(angle_rad: float) -> float:
@@ -148,7 +166,8 @@ def around(point, step_mm: float, reach_mm: float, prefer=(0.0, 0.0)):
 
 
 class PlateLabeller:
-    """Sets the plate's labels one after another into a :class:`Room`."""
+    """Sets the plate's labels one after another into a :class:`Room`;
+    ``missing`` collects the texts of those it found no place for."""
 
     def __init__(self, ctx, elements, disc_mm: float, keep_out=()):
         self.ctx, self.w, self.d = ctx, ctx.words, ctx.dims
@@ -158,14 +177,27 @@ class PlateLabeller:
         keep = [Box((0.0, 0.0), 0.0, pin, pin)] + list(keep_out)
         for el in self.els:
             if el.shape == "point":
-                r = dot_radius_mm(d) + MARGIN_MM
+                # with the labels' gap round it, at least MARGIN_MM clear of the mark
+                r = max(0.0, max(dot_radius_mm(d), zenith_mark_half_mm(d)) + MARGIN_MM - LABEL_GAP_MM)
                 keep.append(Box(el.geom["at"], 0.0, r, r))
         self.room = Room(disc_mm, d, keep)
         self.out: list[model.Element] = []
-        self.reference = [e for e in self.els if e.role in ("meridian", "east_west")]
+        self.missing: list[tuple[str, dict]] = []
+        # The meridian and the east-west line (and the azimuths drawn along
+        # them): numbers stand beside them, MARGIN_MM off.
+        self.reference = [e for e in self.els if e.role in ("meridian", "east_west")
+                          or (e.role == "azimuth" and on_meridian(e))]
+        self.strokes = [e for e in self.els if e.shape in STROKE_SHAPES
+                        and e.stroke not in ("none", "cut", "fold")]
 
     def role(self, *roles):
         return [e for e in self.els if e.role in roles and e.stroke != "none"]
+
+    def others(self, own=()):
+        """Every drawn line but ``own`` and the reference lines: a label keeps
+        :data:`CLEAR_MM` from them."""
+        skip = {id(e) for e in own} | {id(e) for e in self.reference}
+        return [e for e in self.strokes if id(e) not in skip]
 
     def box(self, x, y, text, size_pt, angle_rad=0.0) -> Box:
         ext = self.w.measure(text, size_pt)
@@ -177,20 +209,41 @@ class PlateLabeller:
         self.out.append(el)
         return el
 
-    def first_free(self, candidates, text, size_pt, protected):
-        """The first free upright box centred on one of the candidate points."""
+    def first_free(self, candidates, text, size_pt, protected, near=None):
+        """The first free upright box centred on one of the candidate
+        points (nearest first): :data:`CLEAR_MM` from the lines
+        ``protected`` where one is no more than :data:`PREFER_CLEAR_MM`
+        farther on, else the first that comes no nearer them than
+        :data:`MARGIN_MM` (beside a line, never in a gap of it)."""
+        near = self.reference if near is None else near
+        start, fallback = None, None
         for c in candidates:
+            start = start or c
+            if fallback is not None and math.dist(c[:2], start[:2]) > fallback[1] + PREFER_CLEAR_MM:
+                break
             b = self.box(c[0], c[1], text, size_pt)
-            if self.room.free(b, protected):
+            if not self.room.free(b, protected, near, MARGIN_MM):
+                continue
+            if self.room.clear_of(b, protected, CLEAR_MM):
                 return b
+            if fallback is None:
+                fallback = (b, math.dist(c[:2], start[:2]))
+        return None if fallback is None else fallback[0]
+
+    def left_out(self, text: str, **values):
+        """Say that the label ``text`` found no place (``values`` tell which)."""
+        self.missing.append((text, values))
         return None
 
     # -- the labels ---------------------------------------------------------------
 
     def cardinal(self, az_deg: float, key: str, phi: float, s: int, R: float, disc: float):
-        """A cardinal letter beside the horizon's point of azimuth ``az_deg``
-        on the sky side, clear of the pin, meridian, east-west line, equator
-        and horizon."""
+        """A cardinal letter beside the horizon's point of azimuth ``az_deg``,
+        on the sky side where there is room, clear of the pin and of every
+        line: within :data:`NEAR_MM` of the point, else with a leader to
+        it.  A point under the pin's mark (the north or south point at low
+        latitudes, #9) gets its letter within :data:`NEAR_MM` of the
+        mark, and no leader: piercing the pin would cut it."""
         d = self.d
         v = horizontal_vector(np.radians([0.0, 3.0]), np.full(2, math.radians(az_deg)), phi)
         p0, p1 = project_vectors(v, s, R)
@@ -202,49 +255,91 @@ class PlateLabeller:
         text = self.w(key)
         size = d.text_pt
         h = self.w.measure(text, size).height_mm
-        protected = self.reference + self.role("equator", "horizon")
-        for c in around(p0 + prefer * h, max(STEP_MM, h / 8), max(4 * h, 6.0), prefer):
-            b = self.box(c[0], c[1], text, size)
-            if self.room.free(b, protected):
+        pin = self.room.taken[0]
+        at_pin = pin.contains(*p0)
+        target = pin if at_pin else Box((float(p0[0]), float(p0[1])), 0.0, 0.0, 0.0)
+        protected = self.others()
+        cands = around(p0, max(STEP_MM, h / 8), max(6 * h, 12.0), prefer)
+        for clear in (CLEAR_MM, MARGIN_MM):
+            for c in cands:
+                b = self.box(c[0], c[1], text, size)
+                if not self.room.free(b, protected, self.reference, clear):
+                    continue
+                if _boxes_gap(b, target) > NEAR_MM and (at_pin or not self._leader(b, p0, az_deg)):
+                    continue
                 return self.put("cardinal", b, text, size, azimuth_deg=az_deg)
-        return None
+        return self.left_out(text)
+
+    def _leader(self, b: Box, p0, az_deg: float) -> bool:
+        """A fine line from the letter's box to its horizon point, stopping
+        MARGIN_MM short of both, where it crosses no line and no label."""
+        q = _box_nearest(b, p0)
+        dx, dy = p0[0] - q[0], p0[1] - q[1]
+        L = math.hypot(dx, dy)
+        ux, uy = dx / L, dy / L
+        a = (q[0] + ux * MARGIN_MM, q[1] + uy * MARGIN_MM)
+        z = (p0[0] - ux * MARGIN_MM, p0[1] - uy * MARGIN_MM)
+        # the lane the leader runs in, short of the point's own lines
+        lane = Box(((a[0] + z[0]) / 2, (a[1] + z[1]) / 2), math.atan2(uy, ux),
+                   math.dist(a, z) / 2 - 0.6, 0.05)
+        if lane.half_w <= 0:
+            return False
+        if any(meets(e, lane.grown(MARGIN_MM + stroke_width_mm(e.stroke, self.d) / 2)) for e in self.strokes):
+            return False
+        if not self.room.clear_of_labels(lane):
+            return False
+        self.out.append(model.segment("cardinal_leader", a, z, "fine", azimuth_deg=az_deg))
+        return True
 
     def almucantar(self, alt: float, number_everywhere: bool):
         """An almucantar's number: where it crosses the meridian (both
         sides of the zenith); else where it meets the east-west line; else
-        at its ends on the rim.  A multiple of 5 (``number_everywhere``
-        false) only on the meridian and only where it covers no other
-        almucantar."""
+        at its ends on the rim; clear of every other line.  A multiple of
+        5 (``number_everywhere`` false) only on the meridian."""
         els = [e for e in self.role("almucantar", "horizon") if abs(e.values["altitude_deg"] - alt) < 1e-9]
         if not els:
             return []
         text, size = self.w.number(alt), self.d.small_text_pt
-        protected = self.reference + self.role("horizon")
-        if not number_everywhere:
-            protected = protected + [e for e in self.role("almucantar", "horizon")
-                                     if abs(e.values["altitude_deg"] - alt) > 1e-9]
+        protected = self.others(els)
+        # Near the zenith the azimuths close in on the meridian: there a
+        # ten's number beside the meridian crosses the azimuths it must
+        # (they are broken round it), never another kind of line (common
+        # practice).
+        grid = [e for e in protected if e.role != "azimuth"]
+        # Where the circles crowd (round the pin or the zenith of a small
+        # plate, or an equatorial plate's north side) it may at last cross
+        # its unnumbered neighbours too, never a named line.
+        named = [e for e in grid if e.role != "almucantar" or self._numbered(e.values["altitude_deg"])]
+        tries = [(NEAR_SLIDE_MM, protected), (NEAR_SLIDE_MM, grid), (SLIDE_MM, protected), (SLIDE_MM, grid),
+                 (NEAR_SLIDE_MM, named), (SLIDE_MM, named)] if number_everywhere else [(SLIDE_MM, protected)]
         placed = []
         for el, a in self._almucantar_anchors(els, number_everywhere):
-            b = self.first_free(points_along(el, a), text, size, protected)
+            b = None
+            for reach, lines in tries:
+                b = b or self.first_free(points_along(el, a, reach_mm=reach), text, size, lines)
             if b is not None:
                 placed.append(self.put("almucantar_label", b, text, size, altitude_deg=float(alt)))
-        if placed:
+        if placed or not number_everywhere:
             return placed
-        if number_everywhere:
-            # Nowhere clear of the lines it must not cover: on the circle
-            # wherever it is free of other labels (the lines break round it).
+        for lines in (protected, grid, named):
+            # anywhere along the circle where it is clear, then beside a small one
             for el in els:
-                mid = _midpoint(el)
-                b = self.first_free(points_along(el, mid, reach_mm=1e4), text, size, ())
+                b = self.first_free(points_along(el, _midpoint(el), reach_mm=1e4), text, size, lines)
                 if b is not None:
                     return [self.put("almucantar_label", b, text, size, altitude_deg=float(alt))]
-            # A small circle round the pin or among numbers: beside it.
             for el in els:
+                if el.geom.get("radius", math.inf) > 4 * self.d.tick_mm + 5.0:
+                    continue
                 for c in points_along(el, _midpoint(el), step_mm=0.5, reach_mm=1e4):
-                    b = self.first_free([(x, y, 0.0) for x, y in around(c, STEP_MM, 2.5)], text, size, ())
+                    b = self.first_free([(x, y, 0.0) for x, y in around(c, STEP_MM, 2.5)], text, size, lines)
                     if b is not None:
                         return [self.put("almucantar_label", b, text, size, altitude_deg=float(alt))]
+        self.left_out(text, altitude_deg=float(alt))
         return []
+
+    def _numbered(self, alt: float) -> bool:
+        """Whether the almucantar ``alt`` is one the plate numbers."""
+        return any(abs(alt - a) < 1e-9 for a in self.ctx.scales.almucantar_labels_deg)
 
     def _almucantar_anchors(self, els, everywhere):
         """Where a circle's numbers go, as (element, point): its meridian
@@ -270,40 +365,51 @@ class PlateLabeller:
         return meridian + (east_west or ends)
 
     def azimuth(self, az: float, phi: float, s: int, R: float):
-        """An azimuth's number on its line continued below the horizon, or,
-        where the horizon's point is outside the drawing, at its end on
-        the rim.  It carries a degree sign ("90°"), which an almucantar's
-        plain number never does, so the two cannot be taken for each other
-        (the template's ``plate.azimuth_number``)."""
+        """An azimuth's number on its line continued below the horizon (on
+        the line itself just above the horizon where a tropic runs there),
+        or, where the horizon's point is outside the drawing, at its end on
+        the rim; clear of every other line.  It carries a degree sign
+        ("90°"), which an almucantar's plain number never does, so the two
+        cannot be taken for each other (the template's
+        ``plate.azimuth_number``).  Returns None where it has no room (an
+        azimuth of no multiple of 30 degrees may go unnumbered: the curve
+        is numbered on the plate wherever its neighbours are)."""
         text, size = self.w("plate.azimuth_number", value=self.w.number(az)), self.d.small_text_pt
         A = math.radians(az)
+        own = [e for e in self.role("azimuth") if abs(e.values["azimuth_deg"] - az) < 1e-9]
+        protected = self.others(own)
         p0 = project_vectors(horizontal_vector(0.0, A, phi), s, R)
-        protected = self.reference + self.role("horizon", "azimuth")
         if np.all(np.isfinite(p0)) and np.hypot(*p0) < self.room.disc:
             alts = np.radians(-np.arange(0.2, 30.0, 0.2))
             pts = project_vectors(horizontal_vector(alts, np.full_like(alts, A), phi), s, R)
             cands = [(x, y, 0.0) for x, y in pts if math.isfinite(x) and math.isfinite(y)
                      and math.dist((x, y), p0) < SLIDE_MM]
             b = self.first_free(cands, text, size, protected)
+            if b is None:   # on its own line just above the horizon (broken round it)
+                b = self.first_free([c for el in own for c in points_along(el, p0)], text, size, protected)
             if b is not None:
                 return self.put("azimuth_label", b, text, size, azimuth_deg=float(az))
-            return None
-        protected = self.reference + self.role("horizon")
-        for el in self.role("azimuth"):
-            if abs(el.values["azimuth_deg"] - az) > 1e-9:
-                continue
+            return self._azimuth_missing(az, text)
+        for el in own:
             for end in _ends(el):
                 if abs(math.hypot(*end) - (self.room.disc + MARGIN_MM)) < 1e-3:
                     b = self.first_free(points_along(el, end, reach_mm=2 * SLIDE_MM), text, size, protected)
                     if b is not None:
                         return self.put("azimuth_label", b, text, size, azimuth_deg=float(az))
+        return self._azimuth_missing(az, text)
+
+    def _azimuth_missing(self, az: float, text: str):
+        # Only the multiples of 30 degrees are owed a number (the others
+        # are numbered where there is room, as the almucantars' fives).
+        if abs(az / 30.0 - round(az / 30.0)) < 1e-9:
+            self.left_out(text)
         return None
 
     def unequal_hour(self, k: int, phi: float, s: int, R: float, eps: float):
         """Hour ``k`` numbered between lines k - 1 and k (the horizon
-        being lines 0 and 12), upright, at the declination where it fits,
-        nearest the middle of the band between the equator and the outer
-        tropic."""
+        being lines 0 and 12), upright, at the declination where it fits
+        clear of every line, nearest the middle of the band between the
+        equator and the outer tropic."""
         text, size = self.w.number(k), self.d.small_text_pt
         decs = np.radians(np.linspace(-math.degrees(eps), math.degrees(eps), 97))
         x = -np.tan(phi) * np.tan(decs)
@@ -315,53 +421,75 @@ class PlateLabeller:
         pts = project_vectors(equatorial_vector(ha, decs), s, R)
         want = -s * eps / 2
         order = np.argsort(np.abs(decs - want))
-        protected = self.reference + self.role("unequal_hour", "horizon")
         cands = [(float(pts[i][0]), float(pts[i][1]), 0.0) for i in order if np.all(np.isfinite(pts[i]))]
-        b = self.first_free(cands, text, size, protected)
-        if b is None:
-            b = self.first_free(cands, text, size, self.reference)
+        b = self.first_free(cands, text, size, self.others())
         if b is not None:
             return self.put("unequal_hour_label", b, text, size, hour=k)
-        return None
+        return self.left_out(text)
 
     def curve_name(self, role: str, text: str, **match):
-        """A curve's name set along it, where it covers fewest lines."""
+        """A curve's name set along it (the curve broken round it), clear
+        of every other line; where it cannot be, beside it, on either side
+        (the outer tropic is the drawing's edge)."""
         els = [e for e in self.role(role) if all(abs(e.values[k] - v) < 1e-6 for k, v in match.items())]
         if not els:
             return None
         size = self.d.small_text_pt
-        protected = self.reference
-        others = [e for e in self.els if e.shape in STROKE_SHAPES and e.stroke not in ("none", "cut")
-                  and e.role not in ("meridian", "east_west") and not (e.role == role and e in els)]
-        # On the curve (the curve broken round it); where it cannot be,
-        # beside it, on either side (the outer tropic is the drawing's edge).
+        protected = self.others(els)
         ext = self.w.measure(text, size)
         aside = ext.height_mm / 2 + MARGIN_MM + stroke_width_mm(els[0].stroke, self.d) / 2 + 0.05
         radius = min((e.geom["radius"] for e in els if "radius" in e.geom), default=math.inf)
         bulge = 1.2 * (ext.width_mm / 2) ** 2 / (2 * radius) + 0.05  # a straight line's rise off its arc
+        # Where no place is clear of every line, a name along its curve
+        # crosses the fewest of the thin lines that run across the curve
+        # (almucantars, azimuths, unequal hours: lines it must cross, broken
+        # round it), never another named line.
+        named = [e for e in protected if e.role in ("horizon", "equator", "tropic", "twilight")]
+        thin = [e for e in protected if e.role not in ("horizon", "equator", "tropic", "twilight")]
         best = None
         for offset in (0.0, -aside, aside, -aside - bulge, aside + bulge):
             for el in els:
-                for c in points_along(el, _midpoint(el), step_mm=max(2.0, ext.height_mm / 2),
+                for c in points_along(el, _midpoint(el), step_mm=max(1.0, ext.height_mm / 3),
                                       reach_mm=4 * self.room.disc):
                     a = c[2]
                     x, y = c[0] - math.sin(a) * offset, c[1] + math.cos(a) * offset
                     b = self.box(x, y, text, size, upright(a))
-                    if not self.room.free(b, protected + (els if offset else [])):
-                        continue
-                    g = b.grown(MARGIN_MM + 0.3)
-                    cost = sum(1 for e in others if meets(e, g))
-                    if best is None or cost < best[0]:
-                        best = (cost, b)
-                    if cost <= GOOD_ENOUGH:
-                        break
-                if best is not None and best[0] <= GOOD_ENOUGH:
-                    break
-            if best is not None:
-                break
-        if best is None:
-            return None
-        return self.put("curve_label", best[1], text, size, curve=role, **match)
+                    near = self.reference + (els if offset else [])
+                    if self.room.free(b, protected, near):
+                        return self.put("curve_label", b, text, size, curve=role, **match)
+                    if best is None or best[0] > 0:
+                        if self.room.free(b, named, near):
+                            g = b.grown(MARGIN_MM + 0.3)
+                            cost = sum(1 for e in thin if meets(e, g))
+                            if best is None or cost < best[0]:
+                                best = (cost, b)
+        if best is not None:
+            return self.put("curve_label", best[1], text, size, curve=role, **match)
+        return self.left_out(text)
+
+
+def _boxes_gap(b: Box, t: Box) -> float:
+    """The gap (mm) between an upright box and an upright box or point."""
+    dx = abs(b.center[0] - t.center[0]) - b.half_w - t.half_w
+    dy = abs(b.center[1] - t.center[1]) - b.half_h - t.half_h
+    return math.hypot(max(dx, 0.0), max(dy, 0.0))
+
+
+def _box_nearest(b: Box, p):
+    """The point of the box nearest ``p``."""
+    u, v = b.local(*p)
+    u, v = max(-b.half_w, min(b.half_w, u)), max(-b.half_h, min(b.half_h, v))
+    c, s = math.cos(b.angle_rad), math.sin(b.angle_rad)
+    return (b.center[0] + c * u - s * v, b.center[1] + s * u + c * v)
+
+
+def on_meridian(el) -> bool:
+    """Whether a line runs along the meridian or the east-west line (an
+    azimuth of 0 or 180 degrees is the meridian's own line)."""
+    if el.shape != "segment":
+        return False
+    (x0, y0), (x1, y1) = el.geom["from"], el.geom["to"]
+    return (abs(x0) < 1e-6 and abs(x1) < 1e-6) or (abs(y0) < 1e-6 and abs(y1) < 1e-6)
 
 
 def _midpoint(el):

@@ -13,6 +13,9 @@ classes.
 * A pin is a hole to cut, a circle of the stated diameter in the ``cut``
   class (``pin_hole_mm`` for the centre, ``sight_hole_mm`` for a vane's
   pinhole), and a crosshair of two ``medium`` segments to aim an awl at.
+* The zenith is a small open saltire (x), two ``medium`` segments
+  (``style.zenith_mark_half_mm``), so that it is never taken for a pin
+  mark (#9).
 * A star or any other point is one filled dot (class ``dot``).
 * Text is one ink of class ``none`` (filled glyphs, no stroke).
 """
@@ -67,6 +70,11 @@ def inks(el, dims, holes: Holes = Holes()) -> tuple[Ink, ...]:
             return (Ink("circle", {"center": at, "radius": r}, "cut", el.role),
                     Ink("segment", {"from": (x - h, y), "to": (x + h, y)}, "medium", el.role),
                     Ink("segment", {"from": (x, y - h), "to": (x, y + h)}, "medium", el.role))
+        if el.role == "zenith":
+            h = style.zenith_mark_half_mm(dims)
+            x, y = at
+            return (Ink("segment", {"from": (x - h, y - h), "to": (x + h, y + h)}, "medium", el.role),
+                    Ink("segment", {"from": (x - h, y + h), "to": (x + h, y - h)}, "medium", el.role))
         if el.role == "star":
             r = el.values.get("radius_mm") or style.star_radius_mm(el.values.get("mag", 2.0), dims)
         else:
