@@ -19,6 +19,7 @@ from reportlab.lib.units import mm
 from reportlab.pdfgen.canvas import Canvas
 
 from ..render import pdf_text
+from ..words import fonts
 
 STAMP_PT = 6.0
 #: The stamp's baseline above the top edge of the content area (mm); its
@@ -37,7 +38,7 @@ def stamp_pdf(kit, number: int, name: str) -> bytes:
     width = pdf_text.width_pt(text, STAMP_PT, w, "body")
     buf = io.BytesIO()
     c = Canvas(buf, pagesize=(width + _PAD_PT, STAMP_PT + 2 * _PAD_PT), invariant=1, pageCompression=1,
-               lang=w.language)
+               lang=w.language, initialFontName=fonts.DEJAVU["body"].name, initialFontSize=STAMP_PT)
     c.setCreator("kitgen")
     c.setFillGray(0.0)
     pdf_text.draw_at_baseline(c, 0.0, _PAD_PT, text, STAMP_PT, w, "body")

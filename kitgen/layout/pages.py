@@ -427,7 +427,7 @@ def layout_kit(kit, instruction_pages: int | None = None) -> tuple[Page, ...]:
 
 
 #: The most pages the instructions may take.
-MAX_INSTRUCTION_PAGES = 8
+MAX_INSTRUCTION_PAGES = 16
 
 #: The pages of the last few kits drawn without an owner's name, by the
 #: kit's identity: (kit, pages).  A class set's pupils of one school
