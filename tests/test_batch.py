@@ -420,3 +420,21 @@ def test_a_roster_separated_as_spreadsheets_save_it(tmp_path, sep):
                                               for row in lines) + "\n", encoding="utf-8")
     kits = load_set(tmp_path / "set.yaml").kits
     assert [(k.recipe.owner, k.recipe.latitude_deg) for k in kits] == [("Ana, B.", -12.5), ("Ivo", 10.0)]
+
+
+def test_print_files_embed_every_font_they_name(one_worker):
+    """PDF 32000-1:2008, 9.8 and 9.9: every font a print file's pages and
+    stamps name carries its program (FontFile2), and none is one of the
+    standard 14, which need not be embedded (9.6.2.2)."""
+    from .test_pdf_kit import STANDARD_14, _fonts_of
+
+    status, out = one_worker
+    for material in ("card", "film"):
+        count = 0
+        for page in PdfReader(out / f"print-{material}.pdf").pages:
+            for font in _fonts_of(page.get("/Resources"), set()):
+                count += 1
+                base = str(font.get("/BaseFont", "")).lstrip("/")
+                assert base.split("+", 1)[-1] not in STANDARD_14, (material, base)
+                assert "/FontFile2" in font["/FontDescriptor"].get_object(), (material, base)
+        assert count > 0
