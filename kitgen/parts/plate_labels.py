@@ -321,7 +321,10 @@ class PlateLabeller:
                 placed.append(self.put("almucantar_label", b, text, size, altitude_deg=float(alt)))
         if placed or not number_everywhere:
             return placed
-        for lines in (protected, grid, named):
+        # Last, a number that crosses named lines too (they are broken round
+        # it) rather than a circle left off the plate: a reading needs the
+        # circle more than the lines need their gap (#9).
+        for lines in (protected, grid, named, ()):
             # anywhere along the circle where it is clear, then beside a small one
             for el in els:
                 b = self.first_free(points_along(el, _midpoint(el), reach_mm=1e4), text, size, lines)
