@@ -65,6 +65,12 @@ def own_lines(label, line) -> bool:
     if label.role == "curve_label":
         return line.role == v["curve"] and all(abs(line.values.get(k, 1e9) - x) < 1e-6
                                                for k, x in v.items() if k != "curve")
+    if label.role == "cardinal":
+        # A cardinal letter names a point of the horizon; the equator meets
+        # the horizon at the east and west points (a fact of the sphere:
+        # Meeus, Astronomical Algorithms, ch. 13), so on a crowded plate the
+        # letter may stand over both (#9: never a point left unnamed).
+        return line.role in ("horizon", "equator")
     return False
 
 

@@ -180,11 +180,17 @@ def story(kit, pages) -> list[Block]:
     out.append(Block("heading", w("instructions.print_heading")))
     # Which pages go on which stock, by the kit's own page numbers: the
     # instructions on plain paper, the parts on card and film (#9).
+    # A worksheet's answer key stands on the last instructions page, for
+    # the teacher only: it is left out of the pupils' pages.
+    plain = [p for p in pages if p.kind == "instructions"]
+    answers = plain.pop() if kit.plan.worksheet and len(plain) > 1 else None
     for kind, key in (("instructions", "instructions.print_plain"), ("card", "instructions.print_card"),
                       ("film", "instructions.print_film")):
-        n, listed = _page_list(w, pages, kind)
+        n, listed = _page_list(w, plain if kind == "instructions" else pages, kind)
         if n:
             out.append(Block("item", w(key + ("_one" if n == 1 else "_many"), pages=listed), "\u2022"))
+        if kind == "instructions" and answers is not None:
+            out.append(Block("item", w("instructions.print_answers", page=w.number(answers.number)), "\u2022"))
     out.append(Block("item", w("instructions.print_scale", length=length, percent=w.number(100)), "\u2022"))
     out += [Block("item", s, "\u2022") for s in print_notes(kit, pages)]
     out += [Block("heading", w("instructions.cut_heading")), Block("body", w("instructions.cut"))]

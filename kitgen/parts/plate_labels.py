@@ -260,10 +260,12 @@ class PlateLabeller:
         target = pin if at_pin else Box((float(p0[0]), float(p0[1])), 0.0, 0.0, 0.0)
         protected = self.others()
         cands = around(p0, max(STEP_MM, h / 8), max(6 * h, 12.0), prefer)
-        for clear in (CLEAR_MM, MARGIN_MM):
+        # Last, a letter over other lines (broken round it): a pupil must
+        # always find the four points (#9).
+        for lines, clear in ((protected, CLEAR_MM), (protected, MARGIN_MM), ((), MARGIN_MM)):
             for c in cands:
                 b = self.box(c[0], c[1], text, size)
-                if not self.room.free(b, protected, self.reference, clear):
+                if not self.room.free(b, lines, self.reference, clear):
                     continue
                 if _boxes_gap(b, target) > NEAR_MM and (at_pin or not self._leader(b, p0, az_deg)):
                     continue

@@ -25,6 +25,7 @@ from ..geometry import style
 from ..layout.bounds import element_box_mm, meets, turn_box
 from ..layout.instructions import kit_latitudes, kit_line, kit_title
 from ..layout.pages import TITLE_PT, Page, check_bar_mm, layout_kit
+from ..layout.paragraphs import wrap
 from ..paper import CHECK_BAR_MM, FOOTER_MM
 from . import pdf_marks, pdf_text
 from .ink import Holes, holes_of, inks
@@ -39,6 +40,12 @@ FOOTER_PT = 7.0
 PAGE_NUMBER_PT = 9.0
 NOTE_PT = 9.0
 MIN_FURNITURE_PT = 5.0
+#: The check bar's note goes onto two rows of TWO_ROWS_PT, ROW_MM apart,
+#: where one row would need type smaller than TWO_ROWS_BELOW_PT; the two
+#: rows fit between the bar and the kit's line in the footer band.
+TWO_ROWS_BELOW_PT = 6.0
+TWO_ROWS_PT = 6.0
+ROW_MM = 2.4
 
 
 def ask_actual_size(c: Canvas) -> None:
@@ -262,7 +269,15 @@ def _footer(c: Canvas, kit, page: Page) -> None:
 
     bar_note = w("page.check_bar", length=w.number(CHECK_BAR_MM), percent=w.number(100))
     size = _fitted_pt(bar_note, w, "body", FOOTER_PT, usable)
-    pdf_text.draw_at_baseline(c, m * mm, (bar_y + 3.0) * mm, bar_note, size, w, "body")
+    rows = [bar_note]
+    if size < TWO_ROWS_BELOW_PT:
+        # A narrow sheet in a long-worded language (Russian on A5): two
+        # rows rather than type too small or running off the page (#9).
+        rows = wrap(bar_note, usable * mm / 2 + 1.0, TWO_ROWS_PT, w, "body")
+        rows = wrap(bar_note, usable * mm, TWO_ROWS_PT, w, "body") if len(rows) != 2 else rows
+        size = min(_fitted_pt(row, w, "body", TWO_ROWS_PT, usable) for row in rows)
+    for k, row in enumerate(reversed(rows)):
+        pdf_text.draw_at_baseline(c, m * mm, (bar_y + 2.8 + k * ROW_MM) * mm, row, size, w, "body")
 
     note = ""
     if page.kind == "card":
