@@ -26,7 +26,7 @@ import math
 
 import pytest
 
-from shapely.geometry import LineString, MultiPoint
+from shapely.geometry import LineString, MultiPoint, Polygon
 
 from kitgen.kit import build_kit
 from kitgen.recipe.load import parse_recipe_text
@@ -64,19 +64,9 @@ def disc_meets_box(center, radius, corners) -> bool:
 
 
 def segment_meets_box(p, q, corners) -> bool:
-    local, lu, lv = _frame(corners)
-    (a0, b0), (a1, b1) = local(p), local(q)
-    t0, t1 = 0.0, 1.0
-    for d, hi, start in ((a1 - a0, lu, a0), (b1 - b0, lv, b0)):
-        if abs(d) < 1e-12:
-            if start < 0.0 or start > hi:
-                return False
-            continue
-        ta, tb = -start / d, (hi - start) / d
-        t0, t1 = max(t0, min(ta, tb)), min(t1, max(ta, tb))
-        if t0 > t1:
-            return False
-    return True
+    """Whether the segment p-q touches the turned box (its four corners).
+    Reference: Shapely/GEOS's intersection predicate, boundary included."""
+    return LineString([tuple(p), tuple(q)]).intersects(Polygon([tuple(c) for c in corners]))
 
 
 def ink_box(el, words):
