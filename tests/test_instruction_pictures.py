@@ -32,7 +32,8 @@ from kitgen.layout.instructions import STACK_ITEM_PARTS, column_mm, story
 from kitgen.layout.pages import layout_kit
 from kitgen.recipe.load import parse_recipe_text
 from kitgen.render.pdf import render_pdf
-from kitgen.words.measure import text_corners_mm
+
+from .test_plate_readings import distance_to_box, text_box   # labels measured as the plate's tests measure them
 
 pypdf = pytest.importorskip("pypdf")
 
@@ -174,23 +175,6 @@ def test_every_kind_of_line_named_with_a_leader_ending_on_it(name):
         assert np.hypot(*(np.array(leader.geom["to"]) - plate.values["pin_mm"])) / k < kit.dims.outer_tropic_radius_mm
         words = " ".join(t.geom["text"] for t in texts if t.values == v)
         assert words == expected_name(kit, v), (words, v)
-
-
-def text_box(el, words):
-    """The text's measured box: centre, unit direction, half width, half height
-    (as tests/test_plate_readings.py measures labels)."""
-    g = el.geom
-    ext = words.measure(g["text"], g["size_pt"], "label")
-    corners = np.array(text_corners_mm(g["at"], ext.width_mm, ext.height_mm, g["angle_deg"], g["anchor"]))
-    a = math.radians(g["angle_deg"])
-    return corners.mean(axis=0), np.array([math.cos(a), math.sin(a)]), ext.width_mm / 2, ext.height_mm / 2
-
-
-def distance_to_box(points, box):
-    c, u, hw, hh = box
-    d = np.asarray(points, dtype=float) - c
-    along, across = d @ u, d @ np.array([-u[1], u[0]])
-    return np.hypot(np.maximum(np.abs(along) - hw, 0.0), np.maximum(np.abs(across) - hh, 0.0))
 
 
 def samples(el, step_mm=0.05):
