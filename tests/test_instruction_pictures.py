@@ -32,6 +32,7 @@ from kitgen.layout.instructions import STACK_ITEM_PARTS, column_mm, story
 from kitgen.layout.pages import layout_kit
 from kitgen.recipe.load import parse_recipe_text
 from kitgen.render.pdf import render_pdf
+from kitgen.words.measure import text_corners_mm
 
 from .test_plate_readings import distance_to_box, text_box   # labels measured as the plate's tests measure them
 
