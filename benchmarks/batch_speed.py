@@ -108,6 +108,7 @@ def _export_geometries(set_recipe: dict, folder: Path) -> list[Path]:
 
 def floor(paths, out_folder) -> None:
     """Draw each exported geometry as a PDF with reportlab only."""
+    from reportlab import rl_config
     from reportlab.lib.units import mm
     from reportlab.pdfbase import pdfmetrics
     from reportlab.pdfbase.ttfonts import TTFont
@@ -127,6 +128,9 @@ def floor(paths, out_folder) -> None:
             registered.add(script)
         return f"Floor-{script}"
 
+    # The floor writes its streams as kitgen does (kitgen.render.pdf_canvas:
+    # compressed, no ASCII85 layer), so that the two write the same kind of file.
+    rl_config.useA85 = 0
     for k, path in enumerate(paths):
         geometry = json.loads(Path(path).read_text(encoding="utf-8"))
         c = Canvas(str(Path(out_folder) / f"floor-{k:03d}.pdf"), invariant=1, pageCompression=1)

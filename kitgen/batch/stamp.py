@@ -16,7 +16,7 @@ import io
 
 from pypdf.generic import ArrayObject, DecodedStreamObject, DictionaryObject, FloatObject, NameObject
 from reportlab.lib.units import mm
-from reportlab.pdfgen.canvas import Canvas
+from ..render.pdf_canvas import new_canvas
 
 from ..render import pdf_text
 from ..words import fonts
@@ -37,8 +37,8 @@ def stamp_pdf(kit, number: int, name: str) -> bytes:
     text = w("batch.stamp", number=w.number(number), name=name)
     width = pdf_text.width_pt(text, STAMP_PT, w, "body")
     buf = io.BytesIO()
-    c = Canvas(buf, pagesize=(width + _PAD_PT, STAMP_PT + 2 * _PAD_PT), invariant=1, pageCompression=1,
-               lang=w.language, initialFontName=fonts.DEJAVU["body"].name, initialFontSize=STAMP_PT)
+    c = new_canvas(buf, (width + _PAD_PT, STAMP_PT + 2 * _PAD_PT),
+                   lang=w.language, initialFontName=fonts.DEJAVU["body"].name, initialFontSize=STAMP_PT)
     c.setCreator("kitgen")
     c.setFillGray(0.0)
     pdf_text.draw_at_baseline(c, 0.0, _PAD_PT, text, STAMP_PT, w, "body")

@@ -17,6 +17,7 @@ from . import pdf_text
 from ..layout.calibration import calibration_story
 from ..layout.paragraphs import fitting_size, set_blocks
 from .pdf import ask_actual_size, draw_set_lines
+from .pdf_canvas import new_canvas
 
 #: Line widths (mm): the bar itself and its ticks.
 BAR_LINE_MM = 0.2
@@ -57,8 +58,8 @@ def render_calibration_pdf(page, words) -> bytes:
     as a one-page PDF (bytes), the same bytes for the same page and words."""
     pdf_text.register_fonts()
     buf = io.BytesIO()
-    c = Canvas(buf, pagesize=(page.width_mm * mm, page.height_mm * mm), invariant=1, pageCompression=1,
-               lang=words.language)
+    c = new_canvas(buf, (page.width_mm * mm, page.height_mm * mm),
+                   lang=words.language)
     c.setTitle(words("calibrate.title"))
     c.setAuthor("")
     c.setCreator("kitgen")

@@ -29,6 +29,7 @@ from ..layout.paragraphs import wrap
 from ..paper import CHECK_BAR_MM, FOOTER_MM
 from . import pdf_marks, pdf_text
 from .ink import Holes, holes_of, inks
+from .pdf_canvas import new_canvas
 
 FONT = "KitSans"
 
@@ -347,8 +348,8 @@ def render_pdf(kit, pages) -> bytes:
     register_fonts()
     buf = io.BytesIO()
     first = pages[0]
-    c = Canvas(buf, pagesize=(first.media_mm[0] * mm, first.media_mm[1] * mm), invariant=1, pageCompression=1,
-               initialFontName=FONT, initialFontSize=10, lang=kit.words.language)
+    c = new_canvas(buf, (first.media_mm[0] * mm, first.media_mm[1] * mm),
+                   initialFontName=FONT, initialFontSize=10, lang=kit.words.language)
     c.setTitle(kit_title(kit))
     c.setSubject(kit_latitudes(kit))
     c.setAuthor("")
