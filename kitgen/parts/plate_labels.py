@@ -39,7 +39,7 @@ from ..geometry.style import dot_radius_mm, pin_cross_half_mm, stroke_width_mm, 
 from ..projection.stereographic import equatorial_vector, horizontal_vector, project_vectors
 from .breaks import Box, boxes_overlap, meets
 from .labels import MARGIN_MM
-from .stroke_index import StrokeIndex
+from .stroke_index import BoxIndex, StrokeIndex
 
 STROKE_SHAPES = ("circle", "arc", "segment", "polyline")
 #: Clear paper (mm) kept between a label and every drawn line that is not
@@ -64,22 +64,37 @@ STEP_MM = 0.25
 
 
 class Room:
-    """The free room of the drawing: a disc less the labels set so far."""
+    """The free room of the drawing: a disc less the labels set so far.
+
+    Every test answers as if each box were tried against every label and
+    every line; grid indexes (:mod:`kitgen.parts.stroke_index`) only leave
+    out those too far off to meet it (#12)."""
 
     def __init__(self, disc_mm: float, dims, keep_out=()):
         self.disc = disc_mm - MARGIN_MM
         self.dims = dims
         self.taken: list[Box] = list(keep_out)
         self.strokes = StrokeIndex()
+        self._labels = BoxIndex()
         self._half_width: dict[str, float] = {}
         self._lists: dict[int, tuple] = {}
 
     def inside(self, box: Box) -> bool:
+        # Far inside the rim (or wholly beyond it) by more than any
+        # rounding of the corners, the answer is that of the corners.
+        r = math.hypot(*box.center)
+        if r + box.radius < self.disc - 1e-6:
+            return True
+        if r - box.radius > self.disc + 1e-6:
+            return False
         return all(math.hypot(x, y) <= self.disc for x, y in box.corners())
 
     def clear_of_labels(self, box: Box) -> bool:
         g = box.grown(LABEL_GAP_MM)   # the whole gap on the new box's side
-        for t in self.taken:
+        labels = self._labels
+        for t in self.taken[labels.count:]:   # labels set since the last test
+            labels.add(t)
+        for t in labels.near(g.center, g.radius):
             if math.dist(g.center, t.center) < g.radius + t.radius and boxes_overlap(g, t):
                 return False
         return True
@@ -100,28 +115,40 @@ class Room:
         strokes the index finds near it, those that meet it grown so."""
         if not elements:
             return
-        members = self._members(elements)
+        near = self._members(elements)
         half = self._half_width
         reach = clear_mm + (max(half.values()) if widths else 0.0)
-        for key, el in self.strokes.near(box.center, box.grown(reach).radius).items():
-            if key in members and meets(el, box.grown(clear_mm + (half[el.stroke] if widths else 0.0))):
+        span = self.strokes.span(box.center, math.hypot(box.half_w + reach, box.half_h + reach))
+        found = near.get(span)
+        if found is None:   # the members among the strokes of these cells
+            members = near["members"]
+            found = near[span] = [el for key, el in self.strokes.in_span(span).items() if key in members]
+        grown = {}
+        for el in found:
+            by = clear_mm + (half[el.stroke] if widths else 0.0)
+            g = grown.get(by)
+            if g is None:
+                g = grown[by] = box.grown(by)
+            if meets(el, g):
                 yield el
 
-    def _members(self, elements) -> set[int]:
-        """The ids of ``elements``, their strokes entered in the index and
-        their line widths known; kept for the last few lists asked about
-        (a label's places are all tested against the same lists)."""
+    def _members(self, elements) -> dict:
+        """For ``elements``: the set of their ids (under "members") and,
+        by grid span, those of them the index holds there; their strokes
+        entered in the index and their line widths known.  Kept for the
+        last few lists asked about (a label's places are all tested
+        against the same lists)."""
         kept = self._lists.get(id(elements))
         if kept is not None and kept[0] is elements and kept[1] == len(elements):
             return kept[2]
         self.strokes.enter(elements)
         for stroke in {el.stroke for el in elements} - self._half_width.keys():
             self._half_width[stroke] = stroke_width_mm(stroke, self.dims) / 2
-        members = {id(el) for el in elements}
+        near = {"members": {id(el) for el in elements}}
         if len(self._lists) >= 8:
             self._lists.clear()
-        self._lists[id(elements)] = (elements, len(elements), members)   # the list kept: its id stays its own
-        return members
+        self._lists[id(elements)] = (elements, len(elements), near)   # the list kept: its id stays its own
+        return near
 
     def free(self, box: Box, protected=(), near=(), clear_mm: float = CLEAR_MM) -> bool:
         """Inside the drawing, clear of the labels, ``clear_mm`` from the

@@ -48,14 +48,80 @@ class StrokeIndex:
     def near(self, center, radius_mm: float) -> dict:
         """The entered strokes that may come within ``radius_mm`` of
         ``center`` (by id; each once), a superset of those that do."""
+        return self.in_span(self.span(center, radius_mm))
+
+    @staticmethod
+    def span(center, radius_mm: float) -> tuple[int, int, int, int]:
+        """The cells (first and last column, first and last row) that
+        :meth:`near` reads for a disc: places with the same span have the
+        same strokes near them."""
         reach = radius_mm + STEP_MM / 2 + 1e-9
         x, y = center
+        return (math.floor((x - reach) / CELL_MM), math.floor((x + reach) / CELL_MM),
+                math.floor((y - reach) / CELL_MM), math.floor((y + reach) / CELL_MM))
+
+    def in_span(self, span) -> dict:
+        """The entered strokes in the cells of ``span`` (by id; each once)."""
+        i0, i1, j0, j1 = span
         out: dict[int, object] = {}
-        for i in range(math.floor((x - reach) / CELL_MM), math.floor((x + reach) / CELL_MM) + 1):
-            for j in range(math.floor((y - reach) / CELL_MM), math.floor((y + reach) / CELL_MM) + 1):
+        for i in range(i0, i1 + 1):
+            for j in range(j0, j1 + 1):
                 for el in self.cells.get((i, j), ()):
                     out[id(el)] = el
         return out
+
+
+class BoxIndex:
+    """Boxes (anything with a ``center`` and a ``radius`` that its whole
+    lies within) by grid cell, for finding the labels set near a place.
+    A box is entered in the cells its bounding disc's square touches,
+    widened by :data:`SLACK_MM`; two discs that overlap have squares that
+    overlap, so they share a cell (a cell's index, the floor of the
+    coordinate over the side, never falls as the coordinate grows)."""
+
+    def __init__(self):
+        self.cells: dict[tuple[int, int], list] = {}
+        self.aside: list = []   # boxes too large to enter cell by cell
+        self.count = 0
+
+    def add(self, box) -> None:
+        """Enter one more box."""
+        self.count += 1
+        i0, i1, j0, j1 = _square(box.center, box.radius)
+        if (i1 - i0 + 1) * (j1 - j0 + 1) > MAX_CELLS:
+            self.aside.append(box)
+            return
+        for i in range(i0, i1 + 1):
+            for j in range(j0, j1 + 1):
+                self.cells.setdefault((i, j), []).append(box)
+
+    def near(self, center, radius_mm: float) -> list:
+        """The boxes whose bounding discs may overlap the disc of
+        ``radius_mm`` about ``center`` (each once), a superset of those
+        that do."""
+        i0, i1, j0, j1 = _square(center, radius_mm)
+        if (i1 - i0 + 1) * (j1 - j0 + 1) > MAX_CELLS:
+            return list({id(b): b for row in self.cells.values() for b in row}.values()) + self.aside
+        out = {}
+        for i in range(i0, i1 + 1):
+            for j in range(j0, j1 + 1):
+                for b in self.cells.get((i, j), ()):
+                    out[id(b)] = b
+        return list(out.values()) + self.aside
+
+
+#: Widening (mm) of a box's square in :class:`BoxIndex`, far above any
+#: rounding of the coordinates.
+SLACK_MM = 1e-6
+#: A box (or a query) spanning more cells than this is not entered cell by cell.
+MAX_CELLS = 400
+
+
+def _square(center, radius_mm: float) -> tuple[int, int, int, int]:
+    reach = radius_mm + SLACK_MM
+    x, y = center
+    return (math.floor((x - reach) / CELL_MM), math.floor((x + reach) / CELL_MM),
+            math.floor((y - reach) / CELL_MM), math.floor((y + reach) / CELL_MM))
 
 
 def _samples(el):
