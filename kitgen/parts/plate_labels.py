@@ -103,7 +103,9 @@ class Room:
         """Whether the box keeps ``clear_mm`` (and half the line's width)
         from every stroke of ``elements``; only the strokes the index
         finds near the box are tested (the same answer, #12)."""
-        return not any(True for _ in self._meeting(box, elements, clear_mm))
+        for _ in self._meeting(box, elements, clear_mm):
+            return False
+        return True
 
     def crossed(self, box: Box, elements) -> int:
         """How many strokes of ``elements`` run through the box."""
@@ -262,10 +264,6 @@ class PlateLabeller:
         skip = {id(e) for e in own} | {id(e) for e in self.reference}
         return [e for e in self.strokes if id(e) not in skip]
 
-    def box(self, x, y, text, size_pt, angle_rad=0.0) -> Box:
-        ext = self.w.measure(text, size_pt)
-        return Box((x, y), angle_rad, ext.width_mm / 2, ext.height_mm / 2)
-
     def put(self, role, box: Box, text, size_pt, **values) -> model.Element:
         el = model.text(role, box.center, text, size_pt, math.degrees(box.angle_rad), "middle", **values)
         self.room.taken.append(box)
@@ -279,12 +277,13 @@ class PlateLabeller:
         farther on, else the first that comes no nearer them than
         :data:`MARGIN_MM` (beside a line, never in a gap of it)."""
         near = self.reference if near is None else near
+        ext = self.w.measure(text, size_pt)   # measured once for all its places
         start, fallback = None, None
         for c in candidates:
             start = start or c
             if fallback is not None and math.dist(c[:2], start[:2]) > fallback[1] + PREFER_CLEAR_MM:
                 break
-            b = self.box(c[0], c[1], text, size_pt)
+            b = Box((c[0], c[1]), 0.0, ext.width_mm / 2, ext.height_mm / 2)
             if not self.room.free(b, protected, near, MARGIN_MM):
                 continue
             if self.room.clear_of(b, protected, CLEAR_MM):
@@ -317,27 +316,46 @@ class PlateLabeller:
         prefer = (up / n) if n > 0 else np.zeros(2)
         text = self.w(key)
         size = d.text_pt
-        h = self.w.measure(text, size).height_mm
+        ext = self.w.measure(text, size)
         pin = self.room.taken[0]
         at_pin = pin.contains(*p0)
         target = pin if at_pin else Box((float(p0[0]), float(p0[1])), 0.0, 0.0, 0.0)
         protected = self.others()
-        cands = around(p0, max(STEP_MM, h / 8), max(6 * h, 12.0), prefer)
+        cands = around(p0, max(STEP_MM, ext.height_mm / 8), max(6 * ext.height_mm, 12.0), prefer)
+        # What does not change from one pass to the next is found once per
+        # place, and only where the place can still be taken: at the pin,
+        # never farther than NEAR_MM (#12).
+        boxes, gaps, base, leads = {}, {}, {}, {}
         # Last, a letter over other lines (broken round it): a pupil must
         # always find the four points (#9).
         for lines, clear in ((protected, CLEAR_MM), (protected, MARGIN_MM), ((), MARGIN_MM)):
-            for c in cands:
-                b = self.box(c[0], c[1], text, size)
-                if not self.room.free(b, lines, self.reference, clear):
+            for k, c in enumerate(cands):
+                b = boxes.get(k)
+                if b is None:
+                    b = boxes[k] = Box((c[0], c[1]), 0.0, ext.width_mm / 2, ext.height_mm / 2)
+                    gaps[k] = _boxes_gap(b, target) > NEAR_MM
+                far = gaps[k]
+                if far and at_pin:
                     continue
-                if _boxes_gap(b, target) > NEAR_MM and (at_pin or not self._leader(b, p0, az_deg)):
+                ok = base.get(k)
+                if ok is None:
+                    ok = base[k] = self.room.free(b, (), self.reference)
+                if not ok or not self.room.clear_of(b, lines, clear):
                     continue
+                if far:
+                    if k not in leads:
+                        leads[k] = self._leader(b, p0)
+                    lead = leads[k]
+                    if lead is None:
+                        continue
+                    self.out.append(model.segment("cardinal_leader", *lead, "fine", azimuth_deg=az_deg))
                 return self.put("cardinal", b, text, size, azimuth_deg=az_deg)
         return self.left_out(text)
 
-    def _leader(self, b: Box, p0, az_deg: float) -> bool:
-        """A fine line from the letter's box to its horizon point, stopping
-        MARGIN_MM short of both, where it crosses no line and no label."""
+    def _leader(self, b: Box, p0):
+        """The ends of a fine line from the letter's box to its horizon
+        point, stopping MARGIN_MM short of both, where it crosses no line
+        and no label; else None."""
         q = _box_nearest(b, p0)
         dx, dy = p0[0] - q[0], p0[1] - q[1]
         L = math.hypot(dx, dy)
@@ -348,13 +366,10 @@ class PlateLabeller:
         lane = Box(((a[0] + z[0]) / 2, (a[1] + z[1]) / 2), math.atan2(uy, ux),
                    math.dist(a, z) / 2 - 0.6, 0.05)
         if lane.half_w <= 0:
-            return False
-        if any(meets(e, lane.grown(MARGIN_MM + stroke_width_mm(e.stroke, self.d) / 2)) for e in self.strokes):
-            return False
-        if not self.room.clear_of_labels(lane):
-            return False
-        self.out.append(model.segment("cardinal_leader", a, z, "fine", azimuth_deg=az_deg))
-        return True
+            return None
+        if not self.room.clear_of(lane, self.strokes) or not self.room.clear_of_labels(lane):
+            return None
+        return a, z
 
     def almucantar(self, alt: float, number_everywhere: bool):
         """An almucantar's number: where it crosses the meridian (both
@@ -516,13 +531,13 @@ class PlateLabeller:
         thin = [e for e in protected if e.role not in ("horizon", "equator", "tropic", "twilight")]
         best = None
         for offset in (0.0, -aside, aside, -aside - bulge, aside + bulge):
+            near = self.reference + (els if offset else [])   # one list for all places: its index is kept
             for el in els:
                 for c in points_along(el, _midpoint(el), step_mm=max(1.0, ext.height_mm / 3),
                                       reach_mm=4 * self.room.disc):
                     a = c[2]
                     x, y = c[0] - math.sin(a) * offset, c[1] + math.cos(a) * offset
-                    b = self.box(x, y, text, size, upright(a))
-                    near = self.reference + (els if offset else [])
+                    b = Box((x, y), upright(a), ext.width_mm / 2, ext.height_mm / 2)
                     if self.room.free(b, protected, near):
                         return self.put("curve_label", b, text, size, curve=role, **match)
                     if best is None or best[0] > 0:

@@ -83,10 +83,12 @@ class BoxIndex:
         self.cells: dict[tuple[int, int], list] = {}
         self.aside: list = []   # boxes too large to enter cell by cell
         self.count = 0
+        self._found: dict = {}   # the answers by span, until a box is entered
 
     def add(self, box) -> None:
         """Enter one more box."""
         self.count += 1
+        self._found.clear()
         i0, i1, j0, j1 = _square(box.center, box.radius)
         if (i1 - i0 + 1) * (j1 - j0 + 1) > MAX_CELLS:
             self.aside.append(box)
@@ -99,15 +101,21 @@ class BoxIndex:
         """The boxes whose bounding discs may overlap the disc of
         ``radius_mm`` about ``center`` (each once), a superset of those
         that do."""
-        i0, i1, j0, j1 = _square(center, radius_mm)
+        span = _square(center, radius_mm)
+        found = self._found.get(span)
+        if found is not None:
+            return found
+        i0, i1, j0, j1 = span
         if (i1 - i0 + 1) * (j1 - j0 + 1) > MAX_CELLS:
-            return list({id(b): b for row in self.cells.values() for b in row}.values()) + self.aside
-        out = {}
-        for i in range(i0, i1 + 1):
-            for j in range(j0, j1 + 1):
-                for b in self.cells.get((i, j), ()):
-                    out[id(b)] = b
-        return list(out.values()) + self.aside
+            out = {id(b): b for row in self.cells.values() for b in row}
+        else:
+            out = {}
+            for i in range(i0, i1 + 1):
+                for j in range(j0, j1 + 1):
+                    for b in self.cells.get((i, j), ()):
+                        out[id(b)] = b
+        found = self._found[span] = list(out.values()) + self.aside
+        return found
 
 
 #: Widening (mm) of a box's square in :class:`BoxIndex`, far above any
