@@ -103,7 +103,16 @@ class Room:
         """Whether the box keeps ``clear_mm`` (and half the line's width)
         from every stroke of ``elements``; only the strokes the index
         finds near the box are tested (the same answer, #12)."""
-        for _ in self._meeting(box, elements, clear_mm):
+        if not elements:
+            return True
+        # The line that met the last box tested against these lines is
+        # tried first: the next place is most often near it (#12).
+        near = self._members(elements)
+        last = near.get("last")
+        if last is not None and meets(last, box.grown(clear_mm + self._half_width[last.stroke])):
+            return False
+        for el in self._meeting(box, elements, clear_mm):
+            near["last"] = el
             return False
         return True
 
@@ -135,8 +144,9 @@ class Room:
                 yield el
 
     def _members(self, elements) -> dict:
-        """For ``elements``: the set of their ids (under "members") and,
-        by grid span, those of them the index holds there; their strokes
+        """For ``elements``: the set of their ids (under "members"), the
+        last of them found meeting a box (under "last") and, by grid span,
+        those of them the index holds there; their strokes
         entered in the index and their line widths known.  Kept for the
         last few lists asked about (a label's places are all tested
         against the same lists)."""
@@ -337,10 +347,13 @@ class PlateLabeller:
                 far = gaps[k]
                 if far and at_pin:
                     continue
+                # the tests of Room.free, cheapest and likeliest to fail first
+                if not self.room.inside(b) or not self.room.clear_of(b, lines, clear):
+                    continue
                 ok = base.get(k)
                 if ok is None:
-                    ok = base[k] = self.room.free(b, (), self.reference)
-                if not ok or not self.room.clear_of(b, lines, clear):
+                    ok = base[k] = self.room.clear_of_labels(b) and self.room.clear_of(b, self.reference)
+                if not ok:
                     continue
                 if far:
                     if k not in leads:
