@@ -16,10 +16,13 @@ from __future__ import annotations
 
 import math
 
+import numpy as np
+
 from ..geometry import model
 from ..words.fit import line_offsets_mm
 from ..words.measure import text_corners_mm
 from . import curves
+from .box_grid import BoxGrid, meets_any, segment_box
 from .dimensions import MIN_TEXT_PT
 
 #: Clearance (mm) kept between a label and the lines that bound its room
@@ -31,9 +34,20 @@ def text_box_mm(at, text: str, size_pt: float, anchor: str, measure):
     """(xmin, ymin, xmax, ymax) of horizontal text set at ``at``, from its
     measured extent (``measure(text, size_pt)``)."""
     ext = measure(text, size_pt)
-    w, h = ext.width_mm, ext.height_mm
+    return _box_at(at, ext.width_mm, ext.height_mm, anchor)
+
+
+def _box_at(at, w, h, anchor: str):
+    """(xmin, ymin, xmax, ymax) of a text ``w`` by ``h`` mm set at ``at``."""
     x, y = at
-    x0 = {"start": x, "middle": x - w / 2, "end": x - w}[anchor]
+    if anchor == "start":
+        x0 = x
+    elif anchor == "middle":
+        x0 = x - w / 2
+    elif anchor == "end":
+        x0 = x - w
+    else:
+        raise KeyError(anchor)
     return (x0, y - h / 2, x0 + w, y + h / 2)
 
 
@@ -98,6 +112,14 @@ LEADER_NAME_CLEAR = 0.75
 #: How many placed labels nearest an unplaced point's are tried for a swap
 #: (:func:`place_labels`' repair step).
 REPAIR_NEIGHBOURS = 6
+#: Side (mm) of the cells of the grids (:mod:`kitgen.parts.box_grid`) that
+#: hold the boxes, leaders and dots a place is tested against (#12): about
+#: a name's height, so that a place meets only the few things near it.
+GRID_CELL_MM = 4.0
+#: Slack (mm) added round every search of those grids, far above the
+#: rounding error of the tests and far below anything printed, so that a
+#: search misses nothing a test could find.
+SEARCH_SLACK_MM = 1e-6
 
 
 def _segment_meets_box(p, q, box) -> bool:
@@ -172,55 +194,122 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
     with_leaders = leaders_from_mm is not None
     reaches = NEAR_FIRST + (WITH_LEADER if with_leaders else ())
     chosen = {}   # point index -> (at, anchor, box, leader)
+    # (#12) A place's box is tested against all the boxes kept out and all
+    # the chosen names at once, as arrays; what else it is tested against
+    # is held in grids by where it lies, so that it meets only its
+    # neighbours: the dots, the boxes kept out (by keys below 0) and the
+    # chosen labels' boxes, leaders and links (by point index, so that a
+    # point's own are left out of its tests, as while it is not chosen).
+    keep_out, keep_out_rings = list(keep_out), list(keep_out_rings)
+    dots, placed = BoxGrid(GRID_CELL_MM), BoxGrid(GRID_CELL_MM)
+    lines, links = BoxGrid(GRID_CELL_MM), BoxGrid(GRID_CELL_MM)
+    for i, other in enumerate(keep_out):
+        placed.add(-1 - i, other, other)
+    for j, (px, py) in enumerate(points):
+        dots.add(j, (px, py, px, py), j)
+    dot_mm = max(leaders_from_mm, default=0.0) if with_leaders else 0.0
+    slack = SEARCH_SLACK_MM
+
+    def put(k, c):
+        chosen[k] = c
+        placed.add(k, c[2], c[2])
+        if c[3] is not None:
+            lines.add(k, segment_box(*c[3]), c[3])
+        link = _link(points[k], c[2])
+        links.add(k, _link_box(points[k], c[2]), link)
+
+    def take(k):
+        for grid in (placed, lines, links):
+            grid.remove(k)
+        return chosen.pop(k)
+
+    def near(grid, box, k, grow_mm=0.0):
+        return [item for j, item in grid.near(box, grow_mm).items() if j != k]
+
+    kept_out = np.array(keep_out, dtype=float).reshape(-1, 4)
+    tried = {}   # point index -> its blocks of places found so far
+
+    def blocks_of(k):
+        """Point k's places in the order tried, by blocks (each of
+        :func:`_place_blocks`), each found when first needed: its places
+        (at, anchor, needs_leader, box), the indices of those that meet no
+        box kept out and their boxes as an array, and whether each place
+        (by index) stays inside ``inside_radius_mm`` and off the rings
+        kept out, once tested: all the same whatever is chosen."""
+        found = tried.setdefault(k, [])
+        for n, (some, needs_leader) in enumerate(_place_blocks(reaches, with_leaders)):
+            if n == len(found):
+                (x, y), text = points[k], texts[k]
+                ext = measure(text, size_pt)
+                w, h = ext.width_mm, ext.height_mm
+                places = [(at, anchor, needs_leader, _box_at(at, w, h, anchor))
+                          for (at, anchor), reach in _places(x, y, h, offset_mm, some)]
+                array = np.array([place[3] for place in places], dtype=float).reshape(-1, 4)
+                clear = np.flatnonzero(~meets_any(array, kept_out))
+                found.append((places, clear.tolist(), array[clear], {}))
+            yield found[n]
+
+    def room(box):
+        """Whether a box stays inside ``inside_radius_mm`` and off the
+        rings kept out."""
+        return (inside_radius_mm is None or max(abs(box[0]), abs(box[2])) ** 2
+                + max(abs(box[1]), abs(box[3])) ** 2 <= inside_radius_mm ** 2) \
+            and not any(_meets_ring(box, ring) for ring in keep_out_rings)
 
     def choose(k, across_rings=False):
         """The first free place of point k's label, given those chosen;
         its leader crosses a ring kept out (from a point on it) only
         ``across_rings``."""
-        (x, y), text = points[k], texts[k]
-        others = [c for j, c in chosen.items() if j != k]
-        placed = list(keep_out) + [c[2] for c in others]
-        names = [c[2] for c in others]
-        lines = [c[3] for c in others if c[3] is not None]
-        links = [_link(points[j], c[2]) for j, c in chosen.items() if j != k]
-        h = measure(text, size_pt).height_mm
-        for (at, anchor), reach, needs_leader in _candidates(x, y, h, offset_mm, reaches, with_leaders):
-            box = text_box_mm(at, text, size_pt, anchor, measure)
-            if inside_radius_mm is not None and max(abs(box[0]), abs(box[2])) ** 2 + \
-                    max(abs(box[1]), abs(box[3])) ** 2 > inside_radius_mm ** 2:
-                continue
-            if any(_overlap(box, other) for other in placed) or \
-                    any(_meets_ring(box, ring) for ring in keep_out_rings) or \
-                    any(_segment_meets_box(a, b, box) for a, b in lines):
+        x, y = points[k]
+        own = own_boxes[k] if own_boxes is not None else None
+        g = NAME_GAP_MM
+        names = np.array([c[2] for j, c in chosen.items() if j != k], dtype=float).reshape(-1, 4)
+        for i, places, roomy in free_of(blocks_of(k), names, g if with_leaders else None):
+            at, anchor, needs_leader, box = places[i]
+            if i not in roomy:
+                roomy[i] = room(box)
+            if not roomy[i] or any(_segment_meets_box(a, b, box) for a, b in near(lines, box, k, slack)):
                 continue
             if with_leaders:
-                g = NAME_GAP_MM
-                if any(_overlap((box[0] - g, box[1] - g, box[2] + g, box[3] + g), other) for other in names):
-                    continue
-                if not needs_leader and (not _nearest_own(box, k, points, leaders_from_mm)
-                                         or any(_segments_cross(a, b, p, q) for a, b in lines
+                if not needs_leader and (not _nearest_own(box, k, points, leaders_from_mm, dots, dot_mm)
+                                         or any(_segments_cross(a, b, p, q)
+                                                for a, b in near(lines, _link_box((x, y), box), k, slack)
                                                 for p, q in _link((x, y), box))):
                     continue
                 if needs_leader and _beside_another(box, k, points, leaders_from_mm,
-                                                    max(offset_mm * LEADER_NAME_CLEAR, NAME_GAP_MM)):
+                                                    max(offset_mm * LEADER_NAME_CLEAR, NAME_GAP_MM), dots, dot_mm):
                     continue
             leader = None
             if needs_leader:
                 leader = leader_ends((x, y), box, leaders_from_mm[k] + MARGIN_MM)
                 if leader is None:
                     continue
-                own = own_boxes[k] if own_boxes is not None else None
-                if any(_segment_meets_box(leader[0], leader[1], other) for other in placed if other is not own) \
+                span = segment_box(*leader)
+                if any(_segment_meets_box(leader[0], leader[1], other)
+                       for other in near(placed, span, k, slack) if other is not own) \
+                        or any(_segments_cross(leader[0], leader[1], a, b) for a, b in near(lines, span, k, slack)) \
+                        or any(_segments_cross(leader[0], leader[1], p, q)
+                               for link in near(links, span, k, slack) for p, q in link) \
+                        or _passes_another(leader, k, points, leaders_from_mm, LEADER_CLEAR_MM, dots, dot_mm) \
                         or any(_segment_meets_ring(leader[0], leader[1], ring) for ring in keep_out_rings
-                               if not (across_rings and _segment_meets_ring((x, y), (x, y), ring))) \
-                        or any(_segments_cross(leader[0], leader[1], a, b) for a, b in lines) \
-                        or any(_segments_cross(leader[0], leader[1], p, q) for link in links for p, q in link) \
-                        or _passes_another(leader, k, points, leaders_from_mm, LEADER_CLEAR_MM):
+                               if not (across_rings and _segment_meets_ring((x, y), (x, y), ring))):
                     # (a dot on a ring must cross it; two leaders never cross,
                     # nor pass between another label and its point)
                     continue
             return (at, anchor, box, leader)
         return None
+
+    def free_of(blocks, names, gap_mm):
+        """(index, places, roomy) of each place of the blocks, in order,
+        that meets no box of ``names`` (nor, with ``gap_mm``, comes within
+        that of one), each block's places tested all at once."""
+        for places, clear, array, roomy in blocks:
+            taken = meets_any(array, names)
+            if gap_mm is not None:
+                taken |= meets_any(array + np.array([-gap_mm, -gap_mm, gap_mm, gap_mm]), names)
+            for i, t in zip(clear, taken.tolist()):
+                if not t:
+                    yield i, places, roomy
 
     def first_free(k):
         # a leader across a scale's band from a point on it only where
@@ -230,7 +319,7 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
     for k in range(len(points)):
         choice = first_free(k)
         if choice is not None:
-            chosen[k] = choice
+            put(k, choice)
     if with_leaders:
         # A label with no free place may take a neighbour's, if the
         # neighbour then finds another (a step of repair after the greedy
@@ -238,18 +327,18 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
         for k in range(len(points)):
             if k in chosen:
                 continue
-            near = sorted(chosen, key=lambda j: _box_gap_mm(chosen[j][2], points[k], 0.0))[:REPAIR_NEIGHBOURS]
-            for j in near:
-                kept = chosen.pop(j)
+            nearest = sorted(chosen, key=lambda j: _box_gap_mm(chosen[j][2], points[k], 0.0))[:REPAIR_NEIGHBOURS]
+            for j in nearest:
+                kept = take(j)
                 mine = first_free(k)
                 if mine is not None:
-                    chosen[k] = mine
+                    put(k, mine)
                     theirs = first_free(j)
                     if theirs is not None:
-                        chosen[j] = theirs
+                        put(j, theirs)
                         break
-                    del chosen[k]
-                chosen[j] = kept
+                    take(k)
+                put(j, kept)
     out = []
     for k in range(len(points)):
         c = chosen.get(k)
@@ -257,9 +346,19 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
     return out
 
 
-def _candidates(x, y, h, offset_mm, reaches, with_leaders):
-    """The places tried for a label of height ``h`` beside the point (x, y),
-    nearest first: ``((at, anchor), reach, needs_leader)``."""
+def _place_blocks(reaches, with_leaders):
+    """The places tried for a label, as blocks of (reaches, needs_leader):
+    with leaders, first the places a name reads from alone, then every
+    place with a leader."""
+    if with_leaders:
+        return [(tuple(r for r in reaches if r <= ALONE_REACH), False), (reaches, True)]
+    return [(reaches, False)]
+
+
+def _places(x, y, h, offset_mm, reaches):
+    """The places for a label of height ``h`` beside the point (x, y) at
+    each of ``reaches`` in turn (nearest first if they grow):
+    ``((at, anchor), reach)``."""
     candidates = []
     for reach in reaches:
         o = offset_mm * reach
@@ -283,17 +382,19 @@ def _candidates(x, y, h, offset_mm, reaches, with_leaders):
                       [(((x - o, y + s * h / 2), "end"), reach) for s in (1, -1)] + \
                       [(((x + o / 2, y + s * (o + h / 2)), anchor), reach)
                        for s in (1, -1) for anchor in ("start", "end")]
-    if with_leaders:
-        # First the places a name reads from alone, then every place with a leader.
-        return ([(c, reach, False) for c, reach in candidates if reach <= ALONE_REACH]
-                + [(c, reach, True) for c, reach in candidates])
-    return [(c, reach, False) for c, reach in candidates]
+    return candidates
 
 
 def _box_gap_mm(box, point, radius_mm: float) -> float:
     """Paper (mm) between a dot of ``radius_mm`` at ``point`` and a box."""
     x, y = point
     return math.hypot(x - min(max(x, box[0]), box[2]), y - min(max(y, box[1]), box[3])) - radius_mm
+
+
+def _link_box(point, box):
+    """The axis-aligned box that holds a point and its label's box, and so
+    every segment of :func:`_link`."""
+    return (min(point[0], box[0]), min(point[1], box[1]), max(point[0], box[2]), max(point[1], box[3]))
 
 
 def _link(point, box):
@@ -305,12 +406,15 @@ def _link(point, box):
     return [((x, y), c) for c in ((box[0], box[1]), (box[2], box[1]), (box[2], box[3]), (box[0], box[3]), near)]
 
 
-def _nearest_own(box, k: int, points, radii_mm) -> bool:
+def _nearest_own(box, k: int, points, radii_mm, dots, dot_mm: float) -> bool:
     """Whether the box lies nearer point ``k``'s dot than any other
-    point's, by :data:`NEARER_BY_MM` at least."""
+    point's, by :data:`NEARER_BY_MM` at least.  Only the points of the
+    grid ``dots`` near enough to fail are tested (``dot_mm``: the widest
+    dot's radius)."""
     own = _box_gap_mm(box, points[k], radii_mm[k])
-    return all(own + NEARER_BY_MM < _box_gap_mm(box, p, r)
-               for j, (p, r) in enumerate(zip(points, radii_mm)) if j != k)
+    reach = own + NEARER_BY_MM + dot_mm + SEARCH_SLACK_MM
+    return all(own + NEARER_BY_MM < _box_gap_mm(box, points[j], radii_mm[j])
+               for j in dots.near(box, max(reach, 0.0)) if j != k)
 
 
 def _segments_cross(p, q, a, b) -> bool:
@@ -322,25 +426,30 @@ def _segments_cross(p, q, a, b) -> bool:
     return side(p, q, a) * side(p, q, b) < 0 and side(a, b, p) * side(a, b, q) < 0
 
 
-def _passes_another(leader, k: int, points, radii_mm, near_mm: float) -> bool:
+def _passes_another(leader, k: int, points, radii_mm, near_mm: float, dots, dot_mm: float) -> bool:
     """Whether the leader passes within ``near_mm`` of a dot other than
-    point ``k``'s, where it could be read as that dot's."""
+    point ``k``'s, where it could be read as that dot's (of the points of
+    the grid ``dots`` near it; ``dot_mm``: the widest dot's radius)."""
     (ax, ay), (bx, by) = leader
     dx, dy = bx - ax, by - ay
     n2 = dx * dx + dy * dy
-    for j, ((x, y), r) in enumerate(zip(points, radii_mm)):
+    for j in dots.near(segment_box(*leader), near_mm + dot_mm + SEARCH_SLACK_MM):
         if j == k:
             continue
+        (x, y), r = points[j], radii_mm[j]
         t = min(max(((x - ax) * dx + (y - ay) * dy) / n2, 0.0), 1.0) if n2 > 0 else 0.0
         if math.hypot(x - ax - t * dx, y - ay - t * dy) - r < near_mm:
             return True
     return False
 
 
-def _beside_another(box, k: int, points, radii_mm, near_mm: float) -> bool:
+def _beside_another(box, k: int, points, radii_mm, near_mm: float, dots, dot_mm: float) -> bool:
     """Whether the box stands within ``near_mm`` of a dot other than point
-    ``k``'s, where it would read as that dot's name, leader or not."""
-    return any(_box_gap_mm(box, p, r) < near_mm for j, (p, r) in enumerate(zip(points, radii_mm)) if j != k)
+    ``k``'s, where it would read as that dot's name, leader or not (of the
+    points of the grid ``dots`` near it; ``dot_mm``: the widest dot's
+    radius)."""
+    return any(_box_gap_mm(box, points[j], radii_mm[j]) < near_mm
+               for j in dots.near(box, near_mm + dot_mm + SEARCH_SLACK_MM) if j != k)
 
 
 def fitted_text(role, at, string: str, size_pt: float, words, max_width_mm: float,
