@@ -20,7 +20,7 @@ from .parts.clock_scale import clock_ring_notes
 from .parts.context import PartContext
 from .parts.dimensions import Dimensions, dimensions
 from .parts.legibility import plan_scales, shortened_notes
-from .parts.owner import ADD_OWNER
+from .parts.owner import ADD_OWNER, plate_slot
 from .parts.rete import rim_notes
 from .plan.model import Plan
 from .plan.resolve import plan_kit
@@ -41,9 +41,11 @@ class Kit:
     #: kitgen check's figures, when the recipe asks for them as a page of
     #: the kit (``accuracy_page``, #10); None otherwise.
     accuracy: Accuracy | None = None
-    #: The same kit drawn without its owner's name (kitgen.parts.owner),
-    #: whose parts have the same ids and bounds: its pages serve this kit
-    #: too (kitgen.layout.pages.layout_kit); None for a kit without owner.
+    #: The same kit drawn with room for its owner's name but without the
+    #: name (kitgen.parts.owner): every element but the name's own, the
+    #: same part ids and bounds; its pages serve this kit too
+    #: (kitgen.layout.pages.layout_kit), and its PDF, the name laid over
+    #: it (kitgen.render.pdf_owner).  None for a kit without owner.
     nameless: Kit | None = field(default=None, compare=False, repr=False)
 
     @property
@@ -80,25 +82,61 @@ def build_from_plan(plan: Plan) -> Kit:
     planned plate (ids ``plate-1``...), one of every other part.
 
     The parts are drawn without the owner's name (:func:`_nameless`,
-    kept for the last few plans) and the name is then added to each
+    kept for the last few plans), then given room for a name whatever it
+    is (:func:`_named_base`), and the name is set into that room
     (kitgen.parts.owner): a class set's kits that differ only in whose
-    they are (#12) share all but that name, and each is the same, byte
-    for byte, as when built alone."""
+    they are (#12) share all but the name's own words, and each is the
+    same, byte for byte, as when built alone."""
     base = _nameless(replace(plan, owner=""))
     if not plan.owner:
         return base.kit
+    room = _named_base(base, plan)
     parts = []
-    for part in base.kit.parts:
+    for part in room.parts:
         plate = next((p for p in plan.plates if p.id == part.id), None)
         if part.kind in ADD_OWNER:
-            ctx = PartContext(plan, base.kit.dims, base.scales.get(part.id, base.scales[""]), plate)
+            ctx = PartContext(plan, room.dims, base.scales.get(part.id, base.scales[""]), plate)
             parts.append(ADD_OWNER[part.kind](part, ctx))
-        else:   # the rule and the alidade keep room for the name: drawn again with it
-            ctx = PartContext(plan, base.kit.dims, base.scales[""])
+        else:   # the rule and the alidade: drawn again with the name
+            ctx = PartContext(plan, room.dims, base.scales[""])
             parts.append(replace(on_material(PART_BUILDERS[part.kind](ctx), plan), id=part.id))
     parts = tuple(parts)
-    notes = base.other_notes + shortened_notes(parts, base.kit.dims, plan.words)
-    return replace(base.kit, plan=plan, parts=parts, notes=notes, nameless=base.kit)
+    notes = base.other_notes + shortened_notes(parts, room.dims, plan.words)
+    return replace(room, plan=plan, parts=parts, notes=notes, nameless=room)
+
+
+#: A stand-in name: the parts drawn for an owner depend on there being
+#: one, never on the name itself (kitgen.parts.owner).
+_ANY_OWNER = "X"
+
+_NAMED_BASE: dict[int, tuple] = {}
+
+
+def _named_base(base: "_Nameless", plan: Plan) -> Kit:
+    """The nameless kit with room for an owner's name (the plate's slot,
+    the rule's and the alidade's halves) but no name: every element of a
+    named kit but the name's own (role ``owner``).  Kept for the last few
+    nameless kits (by identity), so a school's pupils share it."""
+    kept = _NAMED_BASE.get(id(base))
+    if kept is not None and kept[0] is base:
+        return kept[1]
+    stand_in = replace(plan, owner=_ANY_OWNER)
+    parts = []
+    for part in base.kit.parts:
+        if part.kind == "plate":
+            plate = next(p for p in plan.plates if p.id == part.id)
+            parts.append(plate_slot(part, PartContext(stand_in, base.kit.dims, base.scales[part.id], plate)))
+        elif part.kind in ADD_OWNER:
+            parts.append(part)
+        else:
+            drawn = PART_BUILDERS[part.kind](PartContext(stand_in, base.kit.dims, base.scales[""]))
+            drawn = replace(drawn, elements=tuple(e for e in drawn.elements if e.role != "owner"))
+            parts.append(replace(on_material(drawn, stand_in), id=part.id))
+    kit = replace(base.kit, parts=tuple(parts))
+    while len(_NAMED_BASE) >= 4:
+        del _NAMED_BASE[next(iter(_NAMED_BASE))]
+    _NAMED_BASE[id(base)] = (base, kit)
+    return kit
 
 
 @dataclass(frozen=True)

@@ -446,6 +446,16 @@ def _nameless_pages(nameless) -> tuple[Page, ...]:
     return pages
 
 
+def shared_pages(kit, pages) -> tuple[Page, ...] | None:
+    """The nameless kit's pages when ``pages`` are those pages with the
+    named kit's parts (as :func:`layout_kit` lays a named kit out), else
+    None."""
+    if kit.nameless is None:
+        return None
+    shared = _nameless_pages(kit.nameless)
+    return shared if _same_pages(kit, shared) == tuple(pages) else None
+
+
 def _same_pages(kit, pages) -> tuple[Page, ...] | None:
     """``pages`` with each placed part swapped for ``kit``'s part of the
     same id, or None when a part's bounds differ (then the kit is laid

@@ -39,21 +39,75 @@ def _before_pin(part: model.Part, new) -> model.Part:
     return replace(part, elements=tuple(els[:k]) + tuple(new) + tuple(els[k:]))
 
 
-def plate_owner(part: model.Part, ctx: PartContext) -> model.Part:
-    """The name as one more line under (or over) the plate's latitude
-    label, clear of every word (kitgen.parts.labels.owner_near); the
-    plate's lines are broken around it as around every other word."""
+#: The owner's line on a plate is at least this many plate radii wide,
+#: whatever the name: the plate's lines are broken round the whole line
+#: (the slot), so that every pupil's plate of a school shares them (#12);
+#: the name is fitted into it.
+SLOT_RADII = 0.5
+#: ... and this many times as high as the label's ink at the name's size:
+#: room for a name's capitals, accents and descenders whatever the label's
+#: letters are (a label's height is that of its ink, kitgen.words.measure).
+SLOT_HEIGHTS = 1.5
+
+
+def plate_slot(part: model.Part, ctx: PartContext) -> model.Part:
+    """The plate with room for an owner's name, whatever the name: a line
+    under the plate's latitude label, or over it, left-aligned with it or
+    mirrored across the meridian, :data:`SLOT_RADII` plate radii wide or
+    as far as the drawing's edge if that is nearer (but never narrower
+    than the label): the widest of those places clear of every word and
+    of the pin (:data:`MARGIN_MM` apart), the first of them at equal
+    width.  The plate's lines are broken round that line as round every
+    other word.  The slot, ``(x, y, anchor, width,
+    height)`` in mm, is in the part's values under ``owner_slot``; a
+    plate with no such room is returned as it is."""
+    d, w = ctx.dims, ctx.words
     texts = [e for e in part.elements if e.shape == "text"]
-    d = ctx.dims
-    owner = labels.owner_near(ctx.plan.owner, [e for e in texts if e.role == "plate_label"], texts,
-                              d.outer_tropic_radius_mm, d.small_text_pt, ctx.words, [PIN_BOX_MM])
-    if not owner:
+    lines = [e for e in texts if e.role == "plate_label"]
+    if not lines:
         return part
-    boxes = [breaks.text_box(e, ctx.words) for e in owner]
+    m, size = labels.MARGIN_MM, d.small_text_pt
+    boxes = [labels.element_box_mm(e, w) for e in lines]
+    height = SLOT_HEIGHTS * w.measure(lines[0].geom["text"], size).height_mm
+    disc = d.outer_tropic_radius_mm
+    taken = [labels.element_box_mm(e, w) for e in texts] + [PIN_BOX_MM]
+    x = lines[0].geom["at"][0]
+    top, bottom = max(b[3] for b in boxes), min(b[1] for b in boxes)
+    least = max(b[2] - b[0] for b in boxes)
+    most = max(least, SLOT_RADII * d.plate_radius_mm)
+    rim = disc - 2 * m - stroke_width_mm("heavy", d)   # the slot's break stops short of the rim
+    best = None
+    for y in (bottom - m - height / 2, top + m + height / 2):
+        reach = rim ** 2 - (abs(y) + height / 2) ** 2
+        width = min(most, math.sqrt(max(reach, 0.0)) - abs(x))   # to the drawing's edge, at most
+        if width < least or (best is not None and width <= best[3]):
+            continue
+        for sx, anchor in ((x, "start"), (-x, "end")):
+            x0 = sx if anchor == "start" else sx - width
+            box = (x0 - m, y - height / 2 - m, x0 + width + m, y + height / 2 + m)
+            if not any(labels.boxes_meet(box, t) for t in taken):
+                best = (sx, y, anchor, width, height)
+                break
+    if best is None:
+        return part
+    sx, y, anchor, width, height = best
+    centre = sx + width / 2 if anchor == "start" else sx - width / 2
+    slot = breaks.Box((centre, y), 0.0, width / 2, height / 2)
     strokes = [e for e in part.elements if e.shape != "text" and e.role != "pin"]
-    broken = breaks.break_around(strokes, boxes, labels.MARGIN_MM, lambda stroke: stroke_width_mm(stroke, d))
+    broken = breaks.break_around(strokes, [slot], m, lambda stroke: stroke_width_mm(stroke, d))
     rest = [e for e in part.elements if e.shape == "text" or e.role == "pin"]
-    return _before_pin(replace(part, elements=tuple(broken) + tuple(rest)), owner)
+    return replace(part, elements=tuple(broken) + tuple(rest), values={**part.values, "owner_slot": best})
+
+
+def plate_owner(part: model.Part, ctx: PartContext) -> model.Part:
+    """The name fitted into the plate's slot (:func:`plate_slot`), if it
+    has one."""
+    slot = part.values.get("owner_slot")
+    if not ctx.plan.owner or slot is None:
+        return part
+    x, y, anchor, width, height = slot
+    return _before_pin(part, labels.fitted_text("owner", (x, y), ctx.plan.owner, ctx.dims.small_text_pt,
+                                                ctx.words, width, height, anchor=anchor))
 
 
 def rete_owner(part: model.Part, ctx: PartContext) -> model.Part:

@@ -24,10 +24,10 @@ from reportlab.pdfgen.pathobject import PDFPathObject
 from ..geometry import style
 from ..layout.bounds import element_box_mm, meets, turn_box
 from ..layout.instructions import kit_latitudes, kit_line, kit_title
-from ..layout.pages import TITLE_PT, Page, check_bar_mm, layout_kit
+from ..layout.pages import TITLE_PT, Page, check_bar_mm, layout_kit, shared_pages
 from ..layout.paragraphs import wrap
 from ..paper import CHECK_BAR_MM, FOOTER_MM
-from . import pdf_marks, pdf_text
+from . import pdf_marks, pdf_owner, pdf_text
 from .ink import Holes, holes_of, inks
 from .pdf_canvas import new_canvas
 
@@ -199,11 +199,13 @@ def _operators(ink) -> str | None:
     return "\n".join(code)
 
 
-def _draw_placement(c: Canvas, placement, dims, words, printing) -> None:
+def _draw_placement(c: Canvas, placement, dims, words, printing, only=None) -> None:
     """A placed part, or the window of it that a piece shows (clipped to
     the window; elements wholly outside it are left out), in a marked-content
     sequence tagged ``/KitPart`` whose properties name the part's id
-    (ISO 32000-1:2008, 14.6), so a reader can tell the parts apart."""
+    (ISO 32000-1:2008, 14.6), so a reader can tell the parts apart.  With
+    ``only`` (a test of an element), just those elements, without the
+    part's title or a piece's marks."""
     piece = placement.piece
     c.addLiteral(f"/KitPart <</Part ({placement.part.id})>> BDC")
     c.saveState()
@@ -220,10 +222,14 @@ def _draw_placement(c: Canvas, placement, dims, words, printing) -> None:
     pen = _Pen(c, dims, words, printing.colour)
     holes = holes_of(printing)
     for el in placement.part.elements:
+        if only is not None and not only(el):
+            continue
         if piece is None or meets(turn_box(element_box_mm(el), placement.rotation_deg), piece.window_mm):
             draw_element(c, pen, el, holes)
     c.restoreState()
     c.addLiteral("EMC")
+    if only is not None:
+        return
     if piece is not None:
         label = words("tile.piece", name=piece.name, count=words.number(piece.count))
         pdf_marks.draw_piece_marks(c, placement, words, label)
@@ -344,7 +350,33 @@ def build_pdf(kit):
 
 def render_pdf(kit, pages) -> bytes:
     """The kit's pages (:func:`kitgen.layout.pages.layout_kit`) as one PDF
-    document (bytes)."""
+    document (bytes).  A named kit laid out on its nameless kit's pages
+    is that kit's PDF (kept for the last few) with the name laid over
+    (:mod:`kitgen.render.pdf_owner`), so that a school's pupils share it."""
+    shared = shared_pages(kit, pages)
+    if shared is None:
+        return _render(kit, pages)
+    indices, overlay = pdf_owner.owner_pages(kit, pages, _draw_placement, page_transform, FONT)
+    return pdf_owner.lay_over(_shared_pdf(kit.nameless, shared), indices, overlay)
+
+
+#: The PDFs of the last few nameless kits, by the kit's identity: (kit, bytes).
+_SHARED_PDFS: dict[int, tuple] = {}
+
+
+def _shared_pdf(nameless, pages) -> bytes:
+    kept = _SHARED_PDFS.get(id(nameless))
+    if kept is not None and kept[0] is nameless:
+        return kept[1]
+    pdf = _render(nameless, pages)
+    while len(_SHARED_PDFS) >= 4:
+        del _SHARED_PDFS[next(iter(_SHARED_PDFS))]
+    _SHARED_PDFS[id(nameless)] = (nameless, pdf)
+    return pdf
+
+
+def _render(kit, pages) -> bytes:
+    """The pages drawn, every element of every part."""
     register_fonts()
     buf = io.BytesIO()
     first = pages[0]

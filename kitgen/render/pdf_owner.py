@@ -1,0 +1,95 @@
+"""A named kit's PDF: its shared pages, with the owner's name laid over.
+
+A class set's pupils of one school get the same kit but for the name on
+its parts (#12).  The kit is drawn once without the name, with room for
+it (``Kit.nameless``, kitgen.kit), and that PDF is kept; each pupil's
+name is then drawn alone, on pages of the same size with the same page
+and part transforms, into a small PDF of its own, and each of those
+pages is laid over its page of the shared PDF as a form XObject
+(ISO 32000-1:2008, 8.10), with its own resources (so its font subset
+never meets the shared one's), in an incremental update (7.5.6): the
+shared file's bytes come first, unchanged.  A single ``kitgen build``
+of a named kit takes the same way, so a kit of a set is the same, byte
+for byte, as when built alone.
+"""
+
+from __future__ import annotations
+
+import io
+
+from pypdf import PdfReader, PdfWriter
+from pypdf.generic import ArrayObject, DecodedStreamObject, DictionaryObject, FloatObject, NameObject
+from reportlab.lib.units import mm
+
+from . import pdf_text
+from .pdf_canvas import new_canvas
+
+_FORM = NameObject("/KitgenOwner")
+
+
+def is_owner(el) -> bool:
+    """Whether an element is (a line of) the owner's name."""
+    return el.role == "owner"
+
+
+def owner_pages(kit, pages, draw_placement, page_transform, font: str) -> tuple[list[int], bytes]:
+    """The indices of the pages that carry the owner's name, and a PDF of
+    those pages holding the name alone, drawn by ``draw_placement``
+    (kitgen.render.pdf's, given a filter) after ``page_transform``, the
+    canvas's first font ``font`` (a shipped one)."""
+    pdf_text.register_fonts()
+    buf = io.BytesIO()
+    first = pages[0]
+    c = new_canvas(buf, (first.media_mm[0] * mm, first.media_mm[1] * mm), lang=kit.words.language,
+                   initialFontName=font, initialFontSize=10)   # never a standard-14 font
+    c.setCreator("kitgen")
+    chosen = []
+    for k, page in enumerate(pages):
+        placed = [pl for pl in page.placements if any(is_owner(e) for e in pl.part.elements)]
+        if not placed:
+            continue
+        chosen.append(k)
+        c.setPageSize((page.media_mm[0] * mm, page.media_mm[1] * mm))
+        c.saveState()
+        page_transform(c, page)
+        for placement in placed:
+            draw_placement(c, placement, kit.dims, kit.words, kit.plan.printing, only=is_owner)
+        c.restoreState()
+        c.showPage()
+    if not chosen:
+        return [], b""
+    c.save()
+    return chosen, buf.getvalue()
+
+
+def lay_over(shared: bytes, indices, overlay: bytes) -> bytes:
+    """``shared`` with page ``indices[i]`` of it carrying page i of
+    ``overlay`` on top, as an incremental update of ``shared``."""
+    if not indices:
+        return shared
+    writer = PdfWriter(PdfReader(io.BytesIO(shared)), incremental=True)
+    over = PdfReader(io.BytesIO(overlay))
+    for k, o in zip(indices, over.pages):
+        form = DecodedStreamObject()
+        form.set_data(o.get_contents().get_data())
+        form.update({
+            NameObject("/Type"): NameObject("/XObject"),
+            NameObject("/Subtype"): NameObject("/Form"),
+            NameObject("/BBox"): ArrayObject([FloatObject(float(v)) for v in o.mediabox]),
+            NameObject("/Resources"): o["/Resources"].get_object().clone(writer),
+        })
+        page = writer.pages[k]
+        resources = DictionaryObject(page[NameObject("/Resources")].get_object())
+        xobjects = DictionaryObject(resources.get(NameObject("/XObject"), DictionaryObject()).get_object())
+        xobjects[_FORM] = writer._add_object(form)
+        resources[NameObject("/XObject")] = xobjects
+        page[NameObject("/Resources")] = resources
+        before, after = DecodedStreamObject(), DecodedStreamObject()
+        before.set_data(b"q\n")
+        after.set_data(b"\nQ\nq /KitgenOwner Do Q\n")
+        contents = page.get(NameObject("/Contents"))
+        old = list(contents.get_object()) if isinstance(contents.get_object(), ArrayObject) else [contents]
+        page[NameObject("/Contents")] = ArrayObject([writer._add_object(before), *old, writer._add_object(after)])
+    out = io.BytesIO()
+    writer.write(out)
+    return out.getvalue()

@@ -1,0 +1,62 @@
+"""A named kit's PDF is its school's shared PDF with the name laid over
+(#12): the shared file's bytes first and unchanged, then an incremental
+update (ISO 32000-1:2008, 7.5.6) whose pages carry the name as a form
+XObject (8.10), read back here with pypdf, a general-purpose reference
+reader of PDF; and the name stands where the parts put it."""
+
+from __future__ import annotations
+
+import io
+
+from pypdf import PdfReader
+
+from kitgen.kit import build_kit
+from kitgen.layout.pages import layout_kit
+from kitgen.recipe.load import validate_recipe
+from kitgen.render.pdf import build_pdf, render_pdf
+
+#: Invented pupils of an invented school (demo data).
+PUPILS = ("Nadia Quillfeather", "Tomasz Ebberling")
+SCHOOL = {"latitude": -33.9, "language": "es", "epoch": 2027, "sheet": "a4", "title": "Escuela Arroyo Claro"}
+
+
+def _kit(owner: str):
+    return build_kit(validate_recipe({**SCHOOL, "owner": owner}))
+
+
+def test_each_pupils_pdf_is_the_shared_pdf_then_an_update():
+    first, second = (_kit(name) for name in PUPILS)
+    assert first.nameless is second.nameless   # the school's base, drawn once
+    shared = render_pdf(first.nameless, layout_kit(first.nameless))
+    for kit in (first, second):
+        pdf = build_pdf(kit)[1]
+        assert pdf.startswith(shared) and len(pdf) > len(shared)
+        # the update adds a cross-reference section of its own after the shared one's %%EOF
+        assert pdf[len(shared):].count(b"startxref") == 1
+
+
+def test_the_name_is_on_every_page_of_a_part_that_carries_it():
+    kit = _kit(PUPILS[0])
+    pages, pdf = build_pdf(kit)
+    reader = PdfReader(io.BytesIO(pdf))
+    assert len(reader.pages) == len(pages)
+    for page, read in zip(pages, reader.pages):
+        named = any(e.role == "owner" for pl in page.placements for e in pl.part.elements)
+        xobjects = read["/Resources"].get("/XObject", {})
+        assert ("/KitgenOwner" in xobjects) == named
+        if named:
+            form = xobjects["/KitgenOwner"].get_object()
+            assert form["/Subtype"] == "/Form"
+            assert PUPILS[0].split()[0] in read.extract_text()
+    kinds = {pl.part.kind for page in pages for pl in page.placements
+             if any(e.role == "owner" for e in pl.part.elements)}
+    assert {"plate", "rete", "mater_front", "mater_back", "rule", "alidade"} <= kinds
+
+
+def test_the_base_is_the_named_kit_less_the_name():
+    kit = _kit(PUPILS[1])
+    for part, base in zip(kit.parts, kit.nameless.parts):
+        assert part.id == base.id and part.bounds_mm == base.bounds_mm
+        named = [e for e in part.elements if e.role != "owner"]
+        assert sorted(map(repr, named)) == sorted(map(repr, base.elements))
+        assert all(e.role != "owner" for e in base.elements)
