@@ -116,9 +116,15 @@ class Room:
             return False
         return True
 
-    def crossed(self, box: Box, elements) -> int:
-        """How many strokes of ``elements`` run through the box."""
-        return sum(1 for _ in self._meeting(box, elements, 0.0, widths=False))
+    def crossed(self, box: Box, elements, most: int | None = None) -> int:
+        """How many strokes of ``elements`` run through the box, counted
+        no further than ``most`` (when a count that high is no use)."""
+        count = 0
+        for _ in self._meeting(box, elements, 0.0, widths=False):
+            count += 1
+            if most is not None and count >= most:
+                break
+        return count
 
     def _meeting(self, box: Box, elements, clear_mm: float, widths: bool = True):
         """The strokes of ``elements`` that come within ``clear_mm`` (and,
@@ -556,7 +562,7 @@ class PlateLabeller:
                     if best is None or best[0] > 0:
                         if self.room.free(b, named, near):
                             g = b.grown(MARGIN_MM + 0.3)
-                            cost = self.room.crossed(g, thin)
+                            cost = self.room.crossed(g, thin, best[0] if best is not None else None)
                             if best is None or cost < best[0]:
                                 best = (cost, b)
         if best is not None:

@@ -372,7 +372,14 @@ def line_width_em(text: str, script: str, style: str, prefer_rtl: bool = False) 
     """``set_line(text, script, style, prefer_rtl).width_em``, the same
     float, without making the glyphs or reading their ink: the runs'
     widths in visual order, added as :func:`set_line_exact` adds them.
-    For wrapping a shaped paragraph, which tries many lines (#12)."""
+    For wrapping a shaped paragraph, which tries many lines (#12); kept,
+    since the pages' split wraps each paragraph at several sizes and
+    widths, which try the same lines."""
+    return _line_width_em(text, script, style, prefer_rtl)
+
+
+@lru_cache(maxsize=65536)
+def _line_width_em(text: str, script: str, style: str, prefer_rtl: bool) -> float:
     stack = fonts.stack(script, style)
     if not text or (len(stack) == 1 and _plain_chars(stack[0], text) is not None):
         return set_line(text, script, style, prefer_rtl).width_em
