@@ -20,7 +20,7 @@ from .parts.clock_scale import clock_ring_notes
 from .parts.context import PartContext
 from .parts.dimensions import Dimensions, dimensions
 from .parts.legibility import plan_scales, shortened_notes
-from .parts.owner import ADD_OWNER, plate_slot
+from .parts.owner import ADD_OWNER, plate_owner, plate_slot
 from .parts.rete import rim_notes
 from .plan.model import Plan
 from .plan.resolve import plan_kit
@@ -92,9 +92,12 @@ def build_from_plan(plan: Plan) -> Kit:
         return base.kit
     room = _named_base(base, plan)
     parts = []
-    for part in room.parts:
+    for part, whole in zip(room.parts, base.kit.parts):
         plate = next((p for p in plan.plates if p.id == part.id), None)
-        if part.kind in ADD_OWNER:
+        if part.kind == "plate":   # the lines in the name's slot drawn again round the name
+            ctx = PartContext(plan, room.dims, base.scales[part.id], plate)
+            parts.append(plate_owner(part, ctx, whole))
+        elif part.kind in ADD_OWNER:
             ctx = PartContext(plan, room.dims, base.scales.get(part.id, base.scales[""]), plate)
             parts.append(ADD_OWNER[part.kind](part, ctx))
         else:   # the rule and the alidade: drawn again with the name
@@ -115,7 +118,8 @@ _NAMED_BASE: dict[int, tuple] = {}
 def _named_base(base: "_Nameless", plan: Plan) -> Kit:
     """The nameless kit with room for an owner's name (the plate's slot,
     the rule's and the alidade's halves) but no name: every element of a
-    named kit but the name's own (role ``owner``).  Kept for the last few
+    named kit but the name's own (role ``owner``) and the lines drawn
+    again beside it (``beside_owner``).  Kept for the last few
     nameless kits (by identity), so a school's pupils share it."""
     kept = _NAMED_BASE.get(id(base))
     if kept is not None and kept[0] is base:

@@ -326,3 +326,53 @@ def break_around(elements, boxes, clearance_mm: float, width_of) -> list:
         grow = clearance_mm + width_of(el.stroke) / 2
         out += break_element(el, [b.grown(grow) for b in boxes])
     return out
+
+
+def pieces_within(el, box: Box, boxes) -> list:
+    """The pieces of the stroke element ``el`` that lie inside ``box`` and
+    outside every box of ``boxes`` (all grown already), exact as in
+    :func:`break_element`.  A piece shorter than :data:`MIN_PIECE_MM` is
+    dropped only where it ends at a box of ``boxes`` on both sides; one
+    that reaches ``box``'s edge goes on outside it (drawn separately),
+    so it is no stub.  Polylines go by whole segments, as there: those
+    that meet ``box`` and no box of ``boxes``."""
+    g = el.geom
+    if not may_meet(el, box):
+        return []
+    if el.shape in ("circle", "arc"):
+        c, r = g["center"], g["radius"]
+        lo, hi = (0.0, 2 * math.pi) if el.shape == "circle" else (math.radians(g["start_deg"]),
+                                                                  math.radians(g["end_deg"]))
+        out = []
+        for a, b in _clip_to_range(circle_inside(c, r, box), lo, hi):
+            cuts = [x for o in boxes if may_meet(el, o) for x in _clip_to_range(circle_inside(c, r, o), a, b)]
+            for s, e in _complement(cuts, a, b):
+                if (e - s) * r >= MIN_PIECE_MM or s == a or e == b:
+                    out.append(model.arc(el.role, c, r, math.degrees(s), math.degrees(e), el.stroke, **el.values))
+        return out
+    if el.shape == "segment":
+        p, q = g["from"], g["to"]
+        inside = segment_inside(p, q, box)
+        if inside is None:
+            return []
+        a, b = inside
+        cuts = [t for t in (segment_inside(p, q, o) for o in boxes) if t is not None]
+        length = math.dist(p, q)
+        return [model.segment(el.role, _lerp(p, q, s), _lerp(p, q, e), el.stroke, **el.values)
+                for s, e in _complement(cuts, a, b) if (e - s) * length >= MIN_PIECE_MM or s == a or e == b]
+    if el.shape == "polyline":
+        pts = list(g["points"])
+        if g["closed"]:
+            pts.append(pts[0])
+        runs, run = [], []
+        for p, q in zip(pts, pts[1:]):
+            if segment_inside(p, q, box) is not None and all(segment_inside(p, q, o) is None for o in boxes):
+                run = run or [p]
+                run.append(q)
+            elif run:
+                runs.append(run)
+                run = []
+        if run:
+            runs.append(run)
+        return [model.polyline(el.role, r, False, el.stroke, **el.values) for r in runs]
+    return []

@@ -39,11 +39,14 @@ def _before_pin(part: model.Part, new) -> model.Part:
     return replace(part, elements=tuple(els[:k]) + tuple(new) + tuple(els[k:]))
 
 
-#: The owner's line on a plate is at least this many plate radii wide,
-#: whatever the name: the plate's lines are broken round the whole line
-#: (the slot), so that every pupil's plate of a school shares them (#12);
-#: the name is fitted into it.
+#: The owner's line on a plate (its slot) is this many plate radii wide
+#: where the drawing leaves room, whatever the name: the shared plate's
+#: lines are broken round the whole slot, so that every pupil's plate of
+#: a school shares them (#12); the name is fitted into it, and the lines'
+#: pieces in the slot clear of the name are drawn with the name.
 SLOT_RADII = 0.5
+#: ... and never narrower than this share of the latitude label's width.
+SLOT_LEAST = 0.6
 #: ... and this many times as high as the label's ink at the name's size:
 #: room for a name's capitals, accents and descenders whatever the label's
 #: letters are (a label's height is that of its ink, kitgen.words.measure).
@@ -54,8 +57,8 @@ def plate_slot(part: model.Part, ctx: PartContext) -> model.Part:
     """The plate with room for an owner's name, whatever the name: a line
     under the plate's latitude label, or over it, left-aligned with it or
     mirrored across the meridian, :data:`SLOT_RADII` plate radii wide or
-    as far as the drawing's edge if that is nearer (but never narrower
-    than the label): the widest of those places clear of every word and
+    as far as the drawing's edge if that is nearer (but not narrower than
+    :data:`SLOT_LEAST` labels): the widest of those places clear of every word and
     of the pin (:data:`MARGIN_MM` apart), the first of them at equal
     width.  The plate's lines are broken round that line as round every
     other word.  The slot, ``(x, y, anchor, width,
@@ -73,8 +76,8 @@ def plate_slot(part: model.Part, ctx: PartContext) -> model.Part:
     taken = [labels.element_box_mm(e, w) for e in texts] + [PIN_BOX_MM]
     x = lines[0].geom["at"][0]
     top, bottom = max(b[3] for b in boxes), min(b[1] for b in boxes)
-    least = max(b[2] - b[0] for b in boxes)
-    most = max(least, SLOT_RADII * d.plate_radius_mm)
+    least = SLOT_LEAST * max(b[2] - b[0] for b in boxes)
+    most = SLOT_RADII * d.plate_radius_mm
     rim = disc - 2 * m - stroke_width_mm("heavy", d)   # the slot's break stops short of the rim
     best = None
     for y in (bottom - m - height / 2, top + m + height / 2):
@@ -90,24 +93,42 @@ def plate_slot(part: model.Part, ctx: PartContext) -> model.Part:
                 break
     if best is None:
         return part
-    sx, y, anchor, width, height = best
-    centre = sx + width / 2 if anchor == "start" else sx - width / 2
-    slot = breaks.Box((centre, y), 0.0, width / 2, height / 2)
+    slot = _slot_box(best)
     strokes = [e for e in part.elements if e.shape != "text" and e.role != "pin"]
     broken = breaks.break_around(strokes, [slot], m, lambda stroke: stroke_width_mm(stroke, d))
     rest = [e for e in part.elements if e.shape == "text" or e.role == "pin"]
     return replace(part, elements=tuple(broken) + tuple(rest), values={**part.values, "owner_slot": best})
 
 
-def plate_owner(part: model.Part, ctx: PartContext) -> model.Part:
+def plate_owner(part: model.Part, ctx: PartContext, whole: model.Part | None = None) -> model.Part:
     """The name fitted into the plate's slot (:func:`plate_slot`), if it
-    has one."""
+    has one, and the pieces of ``whole``'s lines (the plate before its
+    slot was cut) that run in the slot clear of the name, drawn again
+    (values ``beside_owner``): the lines are then broken round the name
+    alone, as round every other word."""
     slot = part.values.get("owner_slot")
     if not ctx.plan.owner or slot is None:
         return part
+    d, w = ctx.dims, ctx.words
     x, y, anchor, width, height = slot
-    return _before_pin(part, labels.fitted_text("owner", (x, y), ctx.plan.owner, ctx.dims.small_text_pt,
-                                                ctx.words, width, height, anchor=anchor))
+    names = labels.fitted_text("owner", (x, y), ctx.plan.owner, d.small_text_pt, w, width, height, anchor=anchor)
+    pieces = []
+    if whole is not None:
+        m = labels.MARGIN_MM
+        box, name_boxes = _slot_box(slot), [breaks.text_box(e, w) for e in names]
+        for el in whole.elements:
+            if el.shape in ("text", "point") or el.role == "pin" or el.stroke in ("none", "cut", "fold"):
+                continue
+            grow = m + stroke_width_mm(el.stroke, d) / 2
+            pieces += [replace(piece, values={**piece.values, "beside_owner": True})
+                       for piece in breaks.pieces_within(el, box.grown(grow), [b.grown(grow) for b in name_boxes])]
+    return _before_pin(part, pieces + names)
+
+
+def _slot_box(slot) -> breaks.Box:
+    """The box of a plate's owner slot ``(x, y, anchor, width, height)``."""
+    x, y, anchor, width, height = slot
+    return breaks.Box((x + width / 2 if anchor == "start" else x - width / 2, y), 0.0, width / 2, height / 2)
 
 
 def rete_owner(part: model.Part, ctx: PartContext) -> model.Part:

@@ -28,8 +28,9 @@ _FORM = NameObject("/KitgenOwner")
 
 
 def is_owner(el) -> bool:
-    """Whether an element is (a line of) the owner's name."""
-    return el.role == "owner"
+    """Whether an element is (a line of) the owner's name, or a piece of a
+    plate's line drawn again beside it (kitgen.parts.owner.plate_owner)."""
+    return el.role == "owner" or bool(el.values.get("beside_owner"))
 
 
 def owner_pages(kit, pages, draw_placement, page_transform, font: str) -> tuple[list[int], bytes]:
