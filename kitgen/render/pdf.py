@@ -15,6 +15,7 @@ the same bytes.
 from __future__ import annotations
 
 import io
+import re
 
 from reportlab.lib.units import mm
 from reportlab.lib.rl_accel import fp_str
@@ -71,6 +72,7 @@ class _Pen:
 
     def __init__(self, c: Canvas, dims, words=None, colour: bool = False):
         self.c, self.dims, self.current, self.words, self.colour = c, dims, None, words, colour
+        self.width, self.dash = None, None
 
     def use(self, stroke: str, role: str = "") -> None:
         ink = style.line_colour(stroke, role, self.colour)
@@ -165,11 +167,26 @@ def _drawn(el, dims, holes: Holes) -> tuple:
     return drawn
 
 
+#: A decimal number in a path's operators.
+_NUMBER = re.compile(r"-?\d*\.\d+")
+
+
+def _thousandths(match) -> str:
+    """A number of points written to the thousandth (0.35 micrometres,
+    far below any printer's dot), without the digits beyond it that
+    reportlab writes (seven significant ones): fewer bytes (#12)."""
+    text = f"{round(float(match.group()), 3):.3f}".rstrip("0").rstrip(".")
+    if text in ("-0", ""):
+        return "0"
+    return text.replace("0.", ".", 1) if text.startswith(("0.", "-0.")) else text
+
+
 def _operators(ink) -> str | None:
-    """The PDF path operators of a line or dot ink, exactly as the
-    canvas's ``circle``, ``line`` and ``drawPath`` write them (the canvas
-    joins its operators with newlines, and fills even-odd unless told
-    otherwise); None for text, which is drawn through the fonts each time."""
+    """The PDF path operators of a line or dot ink, as the canvas's
+    ``circle``, ``line`` and ``drawPath`` write them (the canvas joins its
+    operators with newlines, and fills even-odd unless told otherwise),
+    each number to the thousandth of a point (:func:`_thousandths`); None
+    for text, which is drawn through the fonts each time."""
     g = ink.geom
     code: list[str] = []
     if ink.shape in ("dot", "circle"):
@@ -196,7 +213,7 @@ def _operators(ink) -> str | None:
         code += [p.getCode(), PATH_OPS[1, 0, FILL_EVEN_ODD]]
     else:
         return None
-    return "\n".join(code)
+    return _NUMBER.sub(_thousandths, "\n".join(code))
 
 
 def _draw_placement(c: Canvas, placement, dims, words, printing, only=None) -> None:
