@@ -60,3 +60,27 @@ def test_the_base_is_the_named_kit_less_the_name():
         named = [e for e in part.elements if e.role != "owner" and not e.values.get("beside_owner")]
         assert sorted(map(repr, named)) == sorted(map(repr, base.elements))
         assert all(e.role != "owner" and not e.values.get("beside_owner") for e in base.elements)
+
+
+def test_a_schools_pupils_share_their_pages_in_the_print_files():
+    """In a class set's print files, two pupils of one school share the
+    shared pages' content streams (the same indirect objects, as pypdf
+    reads them back), and each page still holds its kit's own content."""
+    from kitgen.batch.printfiles import PrintedKit, PrintFiles
+    from kitgen.batch.work import KitJob, build_one
+
+    files = PrintFiles()
+    results = [build_one(KitJob(k + 1, validate_recipe({**SCHOOL, "owner": name}), name))
+               for k, name in enumerate(PUPILS)]
+    for r in results:
+        assert r.shared and r.owner_pages and r.overlay
+        files.add(PrintedKit(r.number, r.pdf, r.stamp, r.materials, r.margin_mm, 1, r.shared, r.owner_pages,
+                             r.overlay))
+    card = PdfReader(io.BytesIO(files.finish()["card"]))
+    per_kit = len(card.pages) // 2
+    for k in range(per_kit):
+        a, b = card.pages[k], card.pages[per_kit + k]
+        refs = [{o.idnum for o in p["/Contents"]} for p in (a, b)]
+        assert refs[0] & refs[1], k      # the shared page's own content, once in the file
+        kit_page = PdfReader(io.BytesIO(results[0].pdf)).pages[results[0].materials.index("card") + k]
+        assert kit_page.get_contents().get_data() in a.get_contents().get_data()

@@ -17,6 +17,7 @@ from dataclasses import dataclass
 from pypdf import PdfReader, PdfWriter
 from pypdf.generic import NameObject
 
+from ..render.pdf_owner import lay_form, owner_form
 from .stamp import stamp_form, stamp_page
 
 MATERIALS = ("card", "film")
@@ -32,6 +33,11 @@ class PrintedKit:
     materials: tuple[str, ...]
     margin_mm: float
     copies: int
+    #: A named kit on its school's shared pages: the shared PDF, the pages
+    #: that carry the name and the name's PDF (kitgen.render.pdf_owner).
+    shared: bytes = b""
+    owner_pages: tuple[int, ...] = ()
+    overlay: bytes = b""
 
 
 class PrintFiles:
@@ -44,9 +50,18 @@ class PrintFiles:
         self.counts = {m: 0 for m in MATERIALS}
         #: {kit number: {material: [(first, last), ...]}}, page numbers from 1.
         self.ranges: dict[int, dict[str, list[tuple[int, int]]]] = {}
+        self._readers: dict[bytes, PdfReader] = {}
 
     def add(self, kit: PrintedKit) -> None:
-        reader = PdfReader(io.BytesIO(kit.pdf))
+        """Add a kit's pages.  A named kit on its school's shared pages
+        takes them from the shared PDF, read once for the school, and
+        lays its name over them as its own PDF does: so its pages print
+        as in its own PDF, while the school's pupils share the pages'
+        content and fonts in the print files (pypdf keeps one copy of
+        what the pages of one reader share)."""
+        named = bool(kit.shared)
+        reader = self._shared(kit.shared) if named else PdfReader(io.BytesIO(kit.pdf))
+        names = PdfReader(io.BytesIO(kit.overlay)).pages if named else []
         overlay = PdfReader(io.BytesIO(kit.stamp)).pages[0]
         spans = self.ranges.setdefault(kit.number, {m: [] for m in MATERIALS})
         for material in MATERIALS:
@@ -55,13 +70,25 @@ class PrintFiles:
                 continue
             writer = self.writers[material]
             form = stamp_form(writer, overlay)
+            owner_forms = {i: owner_form(writer, names[k]) for k, i in enumerate(kit.owner_pages) if i in chosen}
             for _ in range(kit.copies):
                 first = self.counts[material] + 1
                 for i in chosen:
                     page = writer.add_page(reader.pages[i])
+                    if i in owner_forms:
+                        lay_form(writer, page, owner_forms[i])
                     stamp_page(writer, page, form, float(overlay.mediabox.right), kit.margin_mm)
                 self.counts[material] += len(chosen)
                 spans[material].append((first, self.counts[material]))
+
+    def _shared(self, pdf: bytes) -> PdfReader:
+        """The reader of a school's shared PDF, kept for the last two."""
+        reader = self._readers.get(pdf)
+        if reader is None:
+            if len(self._readers) >= 2:
+                del self._readers[next(iter(self._readers))]
+            reader = self._readers[pdf] = PdfReader(io.BytesIO(pdf))
+        return reader
 
     def finish(self) -> dict[str, bytes]:
         """``{material: pdf bytes}`` for each material that has pages."""

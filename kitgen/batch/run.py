@@ -102,7 +102,8 @@ def run_set(set_path, out_dir, jobs: int | None = None, quiet: bool = False, str
                     internal = internal or result.internal
                 else:
                     write_file(tmp / KITS / names[kit.number - 1], result.pdf)
-                    results[result.number] = replace(result, pdf=b"", stamp=b"")   # the manifest's part
+                    results[result.number] = replace(result, pdf=b"", stamp=b"", shared=b"",
+                                                     overlay=b"")   # the manifest's part
                 waiting[result.number] = result
                 next_number = _print_ready(printing, waiting, next_number, by_number)
                 bar.advance()
@@ -131,7 +132,7 @@ def _print_ready(printing, waiting: dict, next_number: int, by_number: dict, las
         if result is not None and not result.error:
             kit = by_number[next_number]
             printing.add(PrintedKit(next_number, result.pdf, result.stamp, result.materials, result.margin_mm,
-                                    kit.copies))
+                                    kit.copies, result.shared, result.owner_pages, result.overlay))
         next_number += 1
     return next_number
 

@@ -4,7 +4,8 @@ A worker is long-lived: :func:`warm` (the pool's initializer) registers the
 fonts, reads the templates of the set's languages and the star catalogue
 once, and every kit after that is built with those caches warm.  The kit
 goes through the very entry points ``kitgen build`` uses
-(:func:`kitgen.kit.build_kit`, :func:`kitgen.render.pdf.build_pdf`), so its
+(:func:`kitgen.kit.build_kit`, :func:`kitgen.layout.pages.layout_kit` and
+:func:`kitgen.render.pdf.render_layers`, as :func:`kitgen.render.pdf.build_pdf`), so its
 PDF is byte for byte the one a single build of the same recipe writes.
 Identical recipes in one worker (a kits list without owners, say) are
 built once (:func:`_built`).
@@ -19,7 +20,8 @@ from functools import lru_cache
 from ..errors import Message, UserError, one_line, speaking
 from ..kit import build_kit
 from ..render import pdf_text
-from ..render.pdf import build_pdf
+from ..layout.pages import layout_kit
+from ..render.pdf import render_layers
 from ..sky import stars
 from ..words.templates import available_languages, load_words
 from .stamp import stamp_pdf
@@ -51,6 +53,12 @@ class KitResult:
     error: str = ""
     internal: bool = False
     peak_rss_kib: int = 0
+    #: For a named kit on its school's shared pages: the shared PDF, the
+    #: pages that carry the name and the name's PDF (kitgen.render.pdf_owner),
+    #: so that the print files share the school's pages among its pupils.
+    shared: bytes = b""
+    owner_pages: tuple[int, ...] = ()
+    overlay: bytes = b""
 
 
 _SPEAK = {"words": None}
@@ -70,8 +78,9 @@ def build_one(job: KitJob) -> KitResult:
     """Build the kit of ``job``; a failure is its one-line reason."""
     try:
         with speaking(job.recipe.language, job.recipe.language_file or None):
-            pdf, stamp, materials, margin = _built(job.recipe, job.number, job.stamp_name)
-        return KitResult(job.number, pdf, stamp, materials, margin, peak_rss_kib=_peak_rss_kib())
+            layers, stamp, materials, margin = _built(job.recipe, job.number, job.stamp_name)
+        return KitResult(job.number, layers.pdf, stamp, materials, margin, peak_rss_kib=_peak_rss_kib(),
+                         shared=layers.shared, owner_pages=layers.indices, overlay=layers.overlay)
     except UserError as exc:
         return KitResult(job.number, error=one_line(exc.text(_SPEAK["words"])), peak_rss_kib=_peak_rss_kib())
     except Exception as exc:  # an internal fault of this kit: the others go on
@@ -82,14 +91,15 @@ def build_one(job: KitJob) -> KitResult:
 @lru_cache(maxsize=2)   # a kit and its geometry are megabytes: keep only the last two
 def _kit_pdf(recipe):
     kit = build_kit(recipe)
-    pages, pdf = build_pdf(kit)
+    pages = layout_kit(kit)   # as build_pdf does: the same bytes
+    layers = render_layers(kit, pages)
     materials = tuple("film" if p.kind == "film" else "card" for p in pages)
-    return kit, pdf, materials, pages[0].sheet.margin_mm
+    return kit, layers, materials, pages[0].sheet.margin_mm
 
 
 def _built(recipe, number: int, stamp_name: str):
-    kit, pdf, materials, margin = _kit_pdf(recipe)
-    return pdf, stamp_pdf(kit, number, stamp_name), materials, margin
+    kit, layers, materials, margin = _kit_pdf(recipe)
+    return layers, stamp_pdf(kit, number, stamp_name), materials, margin
 
 
 def _peak_rss_kib() -> int:

@@ -370,11 +370,19 @@ def render_pdf(kit, pages) -> bytes:
     document (bytes).  A named kit laid out on its nameless kit's pages
     is that kit's PDF (kept for the last few) with the name laid over
     (:mod:`kitgen.render.pdf_owner`), so that a school's pupils share it."""
+    return render_layers(kit, pages).pdf
+
+
+def render_layers(kit, pages) -> pdf_owner.Layers:
+    """:func:`render_pdf`'s document with the layers it was made of: the
+    shared PDF and the name's, where the kit has them (a class set's
+    print files share the shared one's pages among a school's pupils)."""
     shared = shared_pages(kit, pages)
     if shared is None:
-        return _render(kit, pages)
+        return pdf_owner.Layers(_render(kit, pages))
     indices, overlay = pdf_owner.owner_pages(kit, pages, _draw_placement, page_transform, FONT)
-    return pdf_owner.lay_over(_shared_pdf(kit.nameless, shared), indices, overlay)
+    base = _shared_pdf(kit.nameless, shared)
+    return pdf_owner.Layers(pdf_owner.lay_over(base, indices, overlay), base, tuple(indices), overlay)
 
 
 #: The PDFs of the last few nameless kits, by the kit's identity: (kit, bytes).

@@ -16,6 +16,7 @@ for byte, as when built alone.
 from __future__ import annotations
 
 import io
+from dataclasses import dataclass
 
 from pypdf import PdfReader, PdfWriter
 from pypdf.generic import ArrayObject, DecodedStreamObject, DictionaryObject, FloatObject, NameObject
@@ -63,6 +64,18 @@ def owner_pages(kit, pages, draw_placement, page_transform, font: str) -> tuple[
     return chosen, buf.getvalue()
 
 
+@dataclass(frozen=True)
+class Layers:
+    """A kit's PDF and, for a named kit on shared pages, what it was made
+    of: the shared PDF, the indices of the pages that carry the name and
+    the name's own PDF (:func:`owner_pages`); empty for any other kit."""
+
+    pdf: bytes
+    shared: bytes = b""
+    indices: tuple[int, ...] = ()
+    overlay: bytes = b""
+
+
 def lay_over(shared: bytes, indices, overlay: bytes) -> bytes:
     """``shared`` with page ``indices[i]`` of it carrying page i of
     ``overlay`` on top, as an incremental update of ``shared``."""
@@ -71,26 +84,39 @@ def lay_over(shared: bytes, indices, overlay: bytes) -> bytes:
     writer = PdfWriter(PdfReader(io.BytesIO(shared)), incremental=True)
     over = PdfReader(io.BytesIO(overlay))
     for k, o in zip(indices, over.pages):
-        form = DecodedStreamObject()
-        form.set_data(o.get_contents().get_data())
-        form.update({
-            NameObject("/Type"): NameObject("/XObject"),
-            NameObject("/Subtype"): NameObject("/Form"),
-            NameObject("/BBox"): ArrayObject([FloatObject(float(v)) for v in o.mediabox]),
-            NameObject("/Resources"): o["/Resources"].get_object().clone(writer),
-        })
-        page = writer.pages[k]
-        resources = DictionaryObject(page[NameObject("/Resources")].get_object())
-        xobjects = DictionaryObject(resources.get(NameObject("/XObject"), DictionaryObject()).get_object())
-        xobjects[_FORM] = writer._add_object(form)
-        resources[NameObject("/XObject")] = xobjects
-        page[NameObject("/Resources")] = resources
-        before, after = DecodedStreamObject(), DecodedStreamObject()
-        before.set_data(b"q\n")
-        after.set_data(b"\nQ\nq /KitgenOwner Do Q\n")
-        contents = page.get(NameObject("/Contents"))
-        old = list(contents.get_object()) if isinstance(contents.get_object(), ArrayObject) else [contents]
-        page[NameObject("/Contents")] = ArrayObject([writer._add_object(before), *old, writer._add_object(after)])
+        lay_form(writer, writer.pages[k], owner_form(writer, o))
     out = io.BytesIO()
     writer.write(out)
     return out.getvalue()
+
+
+def owner_form(writer, page):
+    """Page ``page`` of a name's PDF as a form XObject added to
+    ``writer`` (its resources, fonts included, copied in); its reference."""
+    form = DecodedStreamObject()
+    form.set_data(page.get_contents().get_data())
+    form.update({
+        NameObject("/Type"): NameObject("/XObject"),
+        NameObject("/Subtype"): NameObject("/Form"),
+        NameObject("/BBox"): ArrayObject([FloatObject(float(v)) for v in page.mediabox]),
+        NameObject("/Resources"): page["/Resources"].get_object().clone(writer),
+    })
+    return writer._add_object(form)
+
+
+def lay_form(writer, page, form_ref) -> None:
+    """Lay the form ``form_ref`` over ``page`` (a page of ``writer``):
+    the page's own content wrapped in ``q``/``Q``, then the form; the
+    page gets resources of its own, so a page shared with others keeps
+    its own."""
+    resources = DictionaryObject(page[NameObject("/Resources")].get_object())
+    xobjects = DictionaryObject(resources.get(NameObject("/XObject"), DictionaryObject()).get_object())
+    xobjects[_FORM] = form_ref
+    resources[NameObject("/XObject")] = xobjects
+    page[NameObject("/Resources")] = resources
+    before, after = DecodedStreamObject(), DecodedStreamObject()
+    before.set_data(b"q\n")
+    after.set_data(b"\nQ\nq /KitgenOwner Do Q\n")
+    contents = page.get(NameObject("/Contents"))
+    old = list(contents.get_object()) if isinstance(contents.get_object(), ArrayObject) else [contents]
+    page[NameObject("/Contents")] = ArrayObject([writer._add_object(before), *old, writer._add_object(after)])
