@@ -43,22 +43,35 @@ class Box:
     half_w: float
     half_h: float
     radius: float = field(init=False, repr=False, compare=False)
+    # cos and sin of the angle, worked out once for every test of the box (#12)
+    cos: float = field(init=False, repr=False, compare=False)
+    sin: float = field(init=False, repr=False, compare=False)
 
     def grown(self, by_mm: float) -> "Box":
-        return Box(self.center, self.angle_rad, self.half_w + by_mm, self.half_h + by_mm)
+        # The same box as Box(...) would make, its angle's cos and sin
+        # taken over rather than worked out again (#12).
+        out = object.__new__(Box)
+        hw, hh = self.half_w + by_mm, self.half_h + by_mm
+        out.__dict__.update(center=self.center, angle_rad=self.angle_rad, half_w=hw, half_h=hh,
+                            radius=math.hypot(hw, hh), cos=self.cos, sin=self.sin)
+        return out
 
     def local(self, x: float, y: float) -> tuple[float, float]:
         """(x, y) in the box's own frame (its centre at 0, its side along x)."""
         dx, dy = x - self.center[0], y - self.center[1]
-        c, s = math.cos(self.angle_rad), math.sin(self.angle_rad)
+        c, s = self.cos, self.sin
         return (c * dx + s * dy, -s * dx + c * dy)
 
     def corners(self):
-        c, s = math.cos(self.angle_rad), math.sin(self.angle_rad)
+        got = self.__dict__.get("_corners")
+        if got is not None:
+            return list(got)
+        c, s = self.cos, self.sin
         out = []
         for dx, dy in ((-self.half_w, -self.half_h), (self.half_w, -self.half_h),
                        (self.half_w, self.half_h), (-self.half_w, self.half_h)):
             out.append((self.center[0] + c * dx - s * dy, self.center[1] + s * dx + c * dy))
+        self.__dict__["_corners"] = tuple(out)   # a box never changes: its corners kept
         return out
 
     def contains(self, x: float, y: float) -> bool:
@@ -68,6 +81,8 @@ class Box:
     def __post_init__(self):
         # Half of the diagonal: every point of the box is this close to its centre.
         object.__setattr__(self, "radius", math.hypot(self.half_w, self.half_h))
+        object.__setattr__(self, "cos", math.cos(self.angle_rad))
+        object.__setattr__(self, "sin", math.sin(self.angle_rad))
 
 
 def text_box(el, words, style: str = "label") -> Box:
@@ -91,9 +106,13 @@ def boxes_overlap(a: Box, b: Box) -> bool:
     if a.angle_rad == 0.0 and b.angle_rad == 0.0:   # both upright: their sides are the axes
         return (abs(a.center[0] - b.center[0]) < a.half_w + b.half_w
                 and abs(a.center[1] - b.center[1]) < a.half_h + b.half_h)
+    # Centres nearer than the two inscribed circles' radii: the boxes
+    # overlap, by a margin far above rounding (#12).
+    ia, ib = min(a.half_w, a.half_h), min(b.half_w, b.half_h)
+    if ia > 0.0 and ib > 0.0 and math.dist(a.center, b.center) < ia + ib - SURE_MM:
+        return True
     pa, pb = a.corners(), b.corners()
-    for angle in (a.angle_rad, a.angle_rad + math.pi / 2, b.angle_rad, b.angle_rad + math.pi / 2):
-        ux, uy = math.cos(angle), math.sin(angle)
+    for ux, uy in _axes(a) + _axes(b):
         ra = [x * ux + y * uy for x, y in pa]
         rb = [x * ux + y * uy for x, y in pb]
         if max(ra) <= min(rb) or max(rb) <= min(ra):
@@ -101,23 +120,57 @@ def boxes_overlap(a: Box, b: Box) -> bool:
     return True
 
 
+def _axes(box: Box):
+    """The unit vectors along the box's sides (kept with the box)."""
+    got = box.__dict__.get("_axes")
+    if got is None:
+        a = box.angle_rad
+        got = box.__dict__["_axes"] = ((box.cos, box.sin), (math.cos(a + math.pi / 2), math.sin(a + math.pi / 2)))
+    return got
+
+
 # -- where a stroke runs inside a box ---------------------------------------------
 
 def segment_inside(p, q, box: Box):
     """The parameter interval (t0, t1) of the segment p + t (q - p), 0 <= t
     <= 1, inside the box, or None (Liang and Barsky's clipping, 1984)."""
-    x0, y0 = box.local(*p)
-    x1, y1 = box.local(*q)
+    # Written out (the box's frame, then x, then y) for speed, every
+    # operation as before (#12).
+    c, s = box.cos, box.sin
+    bx, by = box.center
+    dx, dy = p[0] - bx, p[1] - by
+    x0, y0 = c * dx + s * dy, -s * dx + c * dy
+    dx, dy = q[0] - bx, q[1] - by
+    x1, y1 = c * dx + s * dy, -s * dx + c * dy
     t0, t1 = 0.0, 1.0
-    for d, lo, hi, s in ((x1 - x0, -box.half_w, box.half_w, x0), (y1 - y0, -box.half_h, box.half_h, y0)):
-        if abs(d) < 1e-15:
-            if s <= lo or s >= hi:
-                return None
-            continue
-        a, b = (lo - s) / d, (hi - s) / d
+    hw = box.half_w
+    d = x1 - x0
+    if abs(d) < 1e-15:
+        if x0 <= -hw or x0 >= hw:
+            return None
+    else:
+        a, b = (-hw - x0) / d, (hw - x0) / d
         if a > b:
             a, b = b, a
-        t0, t1 = max(t0, a), min(t1, b)
+        if a > t0:
+            t0 = a
+        if b < t1:
+            t1 = b
+        if t0 >= t1:
+            return None
+    hh = box.half_h
+    d = y1 - y0
+    if abs(d) < 1e-15:
+        if y0 <= -hh or y0 >= hh:
+            return None
+    else:
+        a, b = (-hh - y0) / d, (hh - y0) / d
+        if a > b:
+            a, b = b, a
+        if a > t0:
+            t0 = a
+        if b < t1:
+            t1 = b
         if t0 >= t1:
             return None
     return (t0, t1)
@@ -161,27 +214,146 @@ def _inside_local(box: Box, u: float, v: float) -> bool:
 
 
 def meets(el, box: Box) -> bool:
-    """Whether the stroke element ``el`` runs through ``box``."""
+    """Whether the stroke element ``el`` runs through ``box``.
+
+    A circle or an arc is first tested by its distances to the box, a
+    polyline's segments by the grid cells they span; where those tests
+    decide by a margin far above any rounding, their answer is that of
+    the exact tests below, which decide the rest (#12)."""
     if not may_meet(el, box):
         return False
     g = el.geom
-    if el.shape in ("circle", "arc"):
-        ranges = circle_inside(g["center"], g["radius"], box)
-        if el.shape == "circle":
-            return bool(ranges)
+    shape = el.shape
+    if shape == "circle" or shape == "arc":
+        center, r = g["center"], g["radius"]
+        crosses = _circle_crosses(center, r, box)
+        if shape == "circle":
+            return crosses if crosses is not None else bool(circle_inside(center, r, box))
+        if crosses is False:
+            return False
         lo, hi = math.radians(g["start_deg"]), math.radians(g["end_deg"])
-        return bool(_clip_to_range(ranges, lo, hi))
-    if el.shape == "segment":
+        if crosses:   # the box within the arc's angles or outside them
+            within = _within_arc(center, box, lo, hi)
+            if within is not None:
+                return within
+        return bool(_clip_to_range(circle_inside(center, r, box), lo, hi))
+    if shape == "segment":
         return segment_inside(g["from"], g["to"], box) is not None
-    if el.shape == "polyline":
-        pts = g["points"]
-        if g["closed"]:
-            pts = tuple(pts) + (pts[0],)
-        lo, hi = _segment_bounds(pts)
-        rr, (x, y) = box.radius, box.center
-        near = np.nonzero((lo[:, 0] - rr <= x) & (x <= hi[:, 0] + rr) & (lo[:, 1] - rr <= y) & (y <= hi[:, 1] + rr))[0]
+    if shape == "polyline":
+        pts, near = _polyline_near(g, box)
         return any(segment_inside(pts[i], pts[i + 1], box) is not None for i in near)
     return False
+
+
+#: The margin (mm) by which a quick test must decide, far above the
+#: rounding of the plate's coordinates (about 1e-13 mm), else the exact
+#: test decides; and the same in radians for an arc's ends.
+SURE_MM = 1e-6
+SURE_RAD = 1e-9
+
+
+def _circle_crosses(center, radius_mm: float, box: Box):
+    """Whether the circle runs through the box, from the nearest and the
+    farthest point of the box to the circle's centre: True where the
+    nearest is inside the circle and the farthest outside, False where
+    both are on one side, each by :data:`SURE_MM` (grown with the
+    radius); else None.  None too where a corner is as near the circle,
+    or the circle as near touching a side: there the exact test's
+    rounding decides, and it is left to decide."""
+    hw, hh = box.half_w, box.half_h
+    if not (hw > 0.0 and hh > 0.0):
+        return None
+    c, s = box.cos, box.sin
+    dx, dy = center[0] - box.center[0], center[1] - box.center[1]
+    ax, ay = abs(c * dx + s * dy), abs(-s * dx + c * dy)
+    r = radius_mm
+    ex, ey = ax - hw, ay - hh
+    nearest = math.hypot(ex if ex > 0.0 else 0.0, ey if ey > 0.0 else 0.0)
+    farthest = math.hypot(ax + hw, ay + hh)
+    m = SURE_MM + 1e-9 * r
+    if nearest > r + m or farthest < r - m:
+        return False
+    if not (nearest < r - m and farthest > r + m):
+        return None
+    # the other three corners, and the four sides' lines where the circle
+    # would touch them within the side
+    if (abs(math.hypot(ex, ey) - r) <= m or abs(math.hypot(ax + hw, ey) - r) <= m
+            or abs(math.hypot(ex, ay + hh) - r) <= m):
+        return None
+    if ay <= hh + m and (abs(abs(ex) - r) <= m or abs(ax + hw - r) <= m):
+        return None
+    if ax <= hw + m and (abs(abs(ey) - r) <= m or abs(ay + hh - r) <= m):
+        return None
+    return True
+
+
+def _within_arc(center, box: Box, lo: float, hi: float):
+    """Whether the directions from ``center`` to the box's points all lie
+    within the arc's angles [lo, hi] (True) or all outside them (False),
+    by :data:`SURE_RAD`; else None.  The box lies within its bounding
+    disc, which subtends asin(radius / distance) either side of its centre."""
+    dx, dy = box.center[0] - center[0], box.center[1] - center[1]
+    dist = math.hypot(dx, dy)
+    if dist <= box.radius + SURE_MM:
+        return None
+    half = math.asin(box.radius / dist)
+    rel = (math.atan2(dy, dx) - lo) % (2 * math.pi)
+    span = hi - lo
+    if rel - half >= SURE_RAD and rel + half <= span - SURE_RAD:
+        return True
+    if rel - half >= span + SURE_RAD and rel + half <= 2 * math.pi - SURE_RAD:
+        return False
+    return None
+
+
+#: Side (mm) of the grid cells by which a polyline's segments are found.
+POLY_CELL_MM = 4.0
+#: A query spanning more cells than this reads every segment's bounds instead.
+POLY_MAX_CELLS = 64
+_POLY_GRIDS: dict = {}
+
+
+def _polyline_near(g, box: Box):
+    """The polyline's points (closed: the first again at the end) and the
+    indices, in order, of its segments that may meet the box: those
+    whose bounding box, grown by the box's radius, holds the box's
+    centre, looked for only among the segments in the grid cells the
+    box's bounding square spans (a segment's bounds lie in the cells it
+    is entered in; #12)."""
+    points, closed = g["points"], g["closed"]
+    kept = _POLY_GRIDS.get(id(points))
+    if kept is None or kept[0] is not points or kept[1] != closed:
+        pts = tuple(points) + ((points[0],) if closed else ())
+        cells: dict = {}
+        for i in range(len(pts) - 1):
+            (x0, y0), (x1, y1) = pts[i], pts[i + 1]
+            for ci in range(math.floor(min(x0, x1) / POLY_CELL_MM), math.floor(max(x0, x1) / POLY_CELL_MM) + 1):
+                for cj in range(math.floor(min(y0, y1) / POLY_CELL_MM),
+                                math.floor(max(y0, y1) / POLY_CELL_MM) + 1):
+                    cells.setdefault((ci, cj), []).append(i)
+        lo, hi = _segment_bounds(pts)
+        bounds = (lo[:, 0].tolist(), hi[:, 0].tolist(), lo[:, 1].tolist(), hi[:, 1].tolist())
+        if len(_POLY_GRIDS) > 1024:
+            _POLY_GRIDS.clear()
+        kept = _POLY_GRIDS[id(points)] = (points, closed, pts, cells, bounds)   # the points kept: their id stays theirs
+    pts, cells, (lox, hix, loy, hiy) = kept[2], kept[3], kept[4]
+    reach = box.radius + SURE_MM
+    x, y = box.center
+    i0, i1 = math.floor((x - reach) / POLY_CELL_MM), math.floor((x + reach) / POLY_CELL_MM)
+    j0, j1 = math.floor((y - reach) / POLY_CELL_MM), math.floor((y + reach) / POLY_CELL_MM)
+    if (i1 - i0 + 1) * (j1 - j0 + 1) > POLY_MAX_CELLS:
+        lo, hi = _segment_bounds(pts)
+        rr = box.radius
+        return pts, np.nonzero((lo[:, 0] - rr <= x) & (x <= hi[:, 0] + rr)
+                               & (lo[:, 1] - rr <= y) & (y <= hi[:, 1] + rr))[0]
+    near = set()
+    for ci in range(i0, i1 + 1):
+        for cj in range(j0, j1 + 1):
+            found = cells.get((ci, cj))
+            if found:
+                near.update(found)
+    rr = box.radius   # of those, the ones the bounds test above keeps
+    return pts, [i for i in sorted(near) if lox[i] - rr <= x <= hix[i] + rr and loy[i] - rr <= y <= hiy[i] + rr]
 
 
 _BOUNDS: dict = {}
@@ -274,8 +446,25 @@ def may_meet(el, box: Box) -> bool:
     if el.shape == "segment":
         (x0, y0), (x1, y1) = g["from"], g["to"]
         return min(x0, x1) - rr <= x <= max(x0, x1) + rr and min(y0, y1) - rr <= y <= max(y0, y1) + rr
-    lo, hi = _segment_bounds(g["points"])
-    return lo[:, 0].min() - rr <= x <= hi[:, 0].max() + rr and lo[:, 1].min() - rr <= y <= hi[:, 1].max() + rr
+    x0, x1, y0, y1 = _line_bounds(g["points"])
+    return x0 - rr <= x <= x1 + rr and y0 - rr <= y <= y1 + rr
+
+
+_LINE_BOUNDS: dict = {}
+
+
+def _line_bounds(points):
+    """The least and greatest x and y of a polyline's segments' bounds
+    (those :func:`may_meet` read), kept for the points' tuple."""
+    hit = _LINE_BOUNDS.get(id(points))
+    if hit is not None and hit[0] is points:
+        return hit[1]
+    lo, hi = _segment_bounds(points)
+    out = (float(lo[:, 0].min()), float(hi[:, 0].max()), float(lo[:, 1].min()), float(hi[:, 1].max()))
+    if len(_LINE_BOUNDS) > 4096:
+        _LINE_BOUNDS.clear()
+    _LINE_BOUNDS[id(points)] = (points, out)
+    return out
 
 
 def _lerp(p, q, t):

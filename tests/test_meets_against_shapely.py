@@ -1,0 +1,98 @@
+"""Whether a line runs through a label's box (kitgen.parts.breaks.meets,
+with its quick tests by distances, arc angles and grid cells, #12) and
+whether two boxes overlap (boxes_overlap), tested against Shapely/GEOS,
+a general-purpose reference library: a line runs through a box where
+GEOS finds it crossing the box shrunk by a micrometre margin, and not
+where it misses the box grown by that margin (GEOS's segments are exact;
+its circles are taken as polylines of chords within a tenth of a
+micrometre of the circle); cases within the margin are left out."""
+
+from __future__ import annotations
+
+import math
+
+import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
+
+from kitgen.geometry import model
+from kitgen.parts.breaks import Box, boxes_overlap, meets
+
+shapely = pytest.importorskip("shapely")
+from shapely.geometry import LineString, Polygon  # noqa: E402
+
+MARGIN_MM = 1e-3
+coord = st.floats(-60, 60)
+
+
+@st.composite
+def boxes(draw):
+    angle = draw(st.one_of(st.just(0.0), st.just(math.pi / 2), st.floats(-math.pi, math.pi)))
+    return Box((draw(coord), draw(coord)), angle, draw(st.floats(0.05, 15)), draw(st.floats(0.05, 4)))
+
+
+@st.composite
+def strokes(draw, box):
+    kind = draw(st.sampled_from(["circle", "arc", "segment", "polyline"]))
+    if kind in ("circle", "arc"):
+        center = (draw(st.one_of(st.just(0.0), coord)), draw(st.floats(-300, 300)))
+        # most circles near the box, as a label's places are
+        r = max(0.1, math.dist(center, box.center) + draw(st.floats(-20, 20)))
+        if kind == "circle":
+            return model.circle("x", center, r)
+        a = draw(st.floats(-360, 360))
+        return model.arc("x", center, r, a, a + draw(st.floats(0.5, 359)))
+    if kind == "segment":
+        return model.segment("x", (draw(coord), draw(coord)), (draw(coord), draw(coord)))
+    n = draw(st.integers(2, 120))
+    c, rr = (draw(coord), draw(coord)), draw(st.floats(3, 60))
+    pts = [(c[0] + rr * math.cos(k / 17), c[1] + rr * math.sin(k / 23)) for k in range(n)]
+    return model.polyline("x", pts, draw(st.booleans()))
+
+
+def _polygon(box: Box, grow: float) -> Polygon:
+    return Polygon(box.grown(grow).corners())
+
+
+def _shape(el) -> LineString:
+    g = el.geom
+    if el.shape in ("circle", "arc"):
+        (cx, cy), r = g["center"], g["radius"]
+        lo, hi = (0.0, 2 * math.pi) if el.shape == "circle" else (math.radians(g["start_deg"]),
+                                                                  math.radians(g["end_deg"]))
+        # chords within 1e-4 mm of the arc: r (1 - cos(step / 2)) <= 1e-4
+        step = 2 * math.acos(max(-1.0, 1 - 1e-4 / r))
+        n = max(2, math.ceil((hi - lo) / step) + 1)
+        return LineString([(cx + r * math.cos(lo + (hi - lo) * k / (n - 1)),
+                            cy + r * math.sin(lo + (hi - lo) * k / (n - 1))) for k in range(n)])
+    if el.shape == "segment":
+        return LineString([g["from"], g["to"]])
+    pts = list(g["points"]) + ([g["points"][0]] if g["closed"] else [])
+    return LineString(pts)
+
+
+@settings(max_examples=600, deadline=None)
+@given(st.data())
+def test_meets_agrees_with_geos(data):
+    box = data.draw(boxes())
+    el = data.draw(strokes(box))
+    line = _shape(el)
+    sure_in = line.intersects(_polygon(box, -MARGIN_MM))
+    sure_out = not line.intersects(_polygon(box, MARGIN_MM))
+    if sure_in:
+        assert meets(el, box)
+    elif sure_out:
+        assert not meets(el, box)
+
+
+@settings(max_examples=600, deadline=None)
+@given(boxes(), st.data())
+def test_boxes_overlap_agrees_with_geos(a, data):
+    # the second box often near the first, as labels crowd
+    b = data.draw(st.one_of(boxes(), st.builds(
+        lambda dx, dy, ang, w, h: Box((a.center[0] + dx, a.center[1] + dy), ang, w, h),
+        st.floats(-8, 8), st.floats(-8, 8), st.floats(-math.pi, math.pi), st.floats(0.05, 15), st.floats(0.05, 4))))
+    if _polygon(a, -MARGIN_MM).intersects(_polygon(b, -MARGIN_MM)):
+        assert boxes_overlap(a, b) and boxes_overlap(b, a)
+    elif not _polygon(a, MARGIN_MM).intersects(_polygon(b, MARGIN_MM)):
+        assert not boxes_overlap(a, b) and not boxes_overlap(b, a)
