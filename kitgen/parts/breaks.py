@@ -106,11 +106,10 @@ def boxes_overlap(a: Box, b: Box) -> bool:
     if a.angle_rad == 0.0 and b.angle_rad == 0.0:   # both upright: their sides are the axes
         return (abs(a.center[0] - b.center[0]) < a.half_w + b.half_w
                 and abs(a.center[1] - b.center[1]) < a.half_h + b.half_h)
-    # Centres nearer than the two inscribed circles' radii: the boxes
-    # overlap, by a margin far above rounding (#12).
-    ia, ib = min(a.half_w, a.half_h), min(b.half_w, b.half_h)
-    if ia > 0.0 and ib > 0.0 and math.dist(a.center, b.center) < ia + ib - SURE_MM:
-        return True
+    # Decided by the boxes' extents where they clear rounding (#12).
+    sure = _overlap_by_extents(a, b)
+    if sure is not None:
+        return sure
     pa, pb = a.corners(), b.corners()
     for ux, uy in _axes(a) + _axes(b):
         ra = [x * ux + y * uy for x, y in pa]
@@ -118,6 +117,29 @@ def boxes_overlap(a: Box, b: Box) -> bool:
         if max(ra) <= min(rb) or max(rb) <= min(ra):
             return False
     return True
+
+
+def _overlap_by_extents(a: Box, b: Box):
+    """The separating-axis test worked from each box's half extent along
+    the four axes (its half sides times the cosines between the boxes'
+    sides) rather than from the corners: False where an axis separates
+    the boxes, True where every axis finds them overlapping, each by
+    :data:`SURE_MM`, far above any rounding; else None (#12)."""
+    if not (a.half_w > 0.0 and a.half_h > 0.0 and b.half_w > 0.0 and b.half_h > 0.0):
+        return None
+    ca, sa, cb, sb = a.cos, a.sin, b.cos, b.sin
+    cos_ab = abs(ca * cb + sa * sb)
+    sin_ab = abs(sa * cb - ca * sb)
+    dx, dy = b.center[0] - a.center[0], b.center[1] - a.center[1]
+    least = math.inf
+    for gap, reach in ((abs(dx * ca + dy * sa), a.half_w + b.half_w * cos_ab + b.half_h * sin_ab),
+                       (abs(dy * ca - dx * sa), a.half_h + b.half_w * sin_ab + b.half_h * cos_ab),
+                       (abs(dx * cb + dy * sb), b.half_w + a.half_w * cos_ab + a.half_h * sin_ab),
+                       (abs(dy * cb - dx * sb), b.half_h + a.half_w * sin_ab + a.half_h * cos_ab)):
+        if gap > reach + SURE_MM:
+            return False
+        least = min(least, reach - gap)
+    return True if least > SURE_MM else None
 
 
 def _axes(box: Box):
@@ -315,11 +337,11 @@ _POLY_GRIDS: dict = {}
 
 def _polyline_near(g, box: Box):
     """The polyline's points (closed: the first again at the end) and the
-    indices, in order, of its segments that may meet the box: those
-    whose bounding box, grown by the box's radius, holds the box's
-    centre, looked for only among the segments in the grid cells the
-    box's bounding square spans (a segment's bounds lie in the cells it
-    is entered in; #12)."""
+    indices, in order (as an iterator), of its segments that may meet
+    the box: those whose bounding box, grown by the box's radius, holds
+    the box's centre, looked for only among the segments in the grid
+    cells the box's bounding square spans (a segment's bounds lie in the
+    cells it is entered in; #12)."""
     points, closed = g["points"], g["closed"]
     kept = _POLY_GRIDS.get(id(points))
     if kept is None or kept[0] is not points or kept[1] != closed:
@@ -335,8 +357,9 @@ def _polyline_near(g, box: Box):
         bounds = (lo[:, 0].tolist(), hi[:, 0].tolist(), lo[:, 1].tolist(), hi[:, 1].tolist())
         if len(_POLY_GRIDS) > 1024:
             _POLY_GRIDS.clear()
-        kept = _POLY_GRIDS[id(points)] = (points, closed, pts, cells, bounds)   # the points kept: their id stays theirs
-    pts, cells, (lox, hix, loy, hiy) = kept[2], kept[3], kept[4]
+        # the points kept: their id stays theirs
+        kept = _POLY_GRIDS[id(points)] = (points, closed, pts, cells, bounds, {})
+    pts, cells, (lox, hix, loy, hiy), spans = kept[2], kept[3], kept[4], kept[5]
     reach = box.radius + SURE_MM
     x, y = box.center
     i0, i1 = math.floor((x - reach) / POLY_CELL_MM), math.floor((x + reach) / POLY_CELL_MM)
@@ -346,14 +369,17 @@ def _polyline_near(g, box: Box):
         rr = box.radius
         return pts, np.nonzero((lo[:, 0] - rr <= x) & (x <= hi[:, 0] + rr)
                                & (lo[:, 1] - rr <= y) & (y <= hi[:, 1] + rr))[0]
-    near = set()
-    for ci in range(i0, i1 + 1):
-        for cj in range(j0, j1 + 1):
-            found = cells.get((ci, cj))
-            if found:
-                near.update(found)
-    rr = box.radius   # of those, the ones the bounds test above keeps
-    return pts, [i for i in sorted(near) if lox[i] - rr <= x <= hix[i] + rr and loy[i] - rr <= y <= hiy[i] + rr]
+    near = spans.get((i0, i1, j0, j1))
+    if near is None:   # the segments in these cells, kept by span (neighbouring places share it)
+        found = set()
+        for ci in range(i0, i1 + 1):
+            for cj in range(j0, j1 + 1):
+                found.update(cells.get((ci, cj), ()))
+        if len(spans) > 4096:
+            spans.clear()
+        near = spans[(i0, i1, j0, j1)] = sorted(found)
+    rr = box.radius   # of those, the ones the bounds test above keeps, as they are asked for
+    return pts, (i for i in near if lox[i] - rr <= x <= hix[i] + rr and loy[i] - rr <= y <= hiy[i] + rr)
 
 
 _BOUNDS: dict = {}
