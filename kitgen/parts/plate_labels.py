@@ -243,6 +243,11 @@ def around(point, step_mm: float, reach_mm: float, prefer=(0.0, 0.0)):
     keep = d <= reach_mm
     dx, dy, d = dx[keep], dy[keep], d[keep]
     order = np.lexsort((-(dx * prefer[0] + dy * prefer[1]), np.round(d / step_mm)))
+    x, y = point[0], point[1]
+    if type(x) in (float, np.float64) and type(y) in (float, np.float64):
+        # the same sums as below, as arrays, each of the type it had (#12)
+        xs, ys = x + dx[order], y + dy[order]
+        return list(zip(xs.tolist() if type(x) is float else list(xs), ys.tolist() if type(y) is float else list(ys)))
     return [(point[0] + float(dx[k]), point[1] + float(dy[k])) for k in order]
 
 
