@@ -52,17 +52,23 @@ def test_a_segment_in_the_slot_less_the_name(slot, at, turn, reach, name):
     box = Box(slot[:2], 0.0, slot[2], slot[3])
     words = Box(name[:2], 0.0, name[2], name[3])
     got = pieces_within(el, box, [words])
-    expected = LineString([p, q]).intersection(_rect(box)).difference(_rect(words))
+    # Both boxes are open (a line along an edge is outside): the reference
+    # is taken with the slot a hair smaller and the name a hair larger for
+    # what must be drawn, and the other way round for what may be.
+    line = LineString([p, q])
+    must = line.intersection(_rect(box).buffer(-1e-7, join_style=2)).difference(
+        _rect(words).buffer(1e-7, join_style=2))
+    may = line.intersection(_rect(box).buffer(1e-7, join_style=2)).difference(
+        _rect(words).buffer(-1e-7, join_style=2))
     # every piece lies in the slot and off the name ...
     for piece in got:
-        line = LineString([piece.geom["from"], piece.geom["to"]])
-        assert line.difference(expected.buffer(1e-6)).length < 1e-6
+        drawn_line = LineString([piece.geom["from"], piece.geom["to"]])
+        assert drawn_line.difference(may.buffer(1e-6)).length < 1e-6
     # ... and together they are the expected line, less only pieces shorter
     # than a stub that end at the name on both sides
     drawn = sum(_length(x) for x in got)
-    parts = getattr(expected, "geoms", [expected])
-    dropped = [g.length for g in parts if g.length < MIN_PIECE_MM]
-    assert expected.length - sum(dropped) - 1e-6 <= drawn <= expected.length + 1e-6
+    dropped = [g.length for g in getattr(must, "geoms", [must]) if g.length < MIN_PIECE_MM]
+    assert must.length - sum(dropped) - 1e-6 <= drawn <= may.length + 1e-6
 
 
 def test_an_arc_in_the_slot_less_the_name():
