@@ -17,8 +17,8 @@ from dataclasses import dataclass
 from pypdf import PdfReader, PdfWriter
 from pypdf.generic import NameObject
 
-from ..render.pdf_owner import lay_form, owner_form
-from .stamp import stamp_form, stamp_page
+from ..render.pdf_owner import lay_form, page_form
+from .stamp import stamp_page
 
 MATERIALS = ("card", "film")
 
@@ -69,8 +69,8 @@ class PrintFiles:
             if not chosen:
                 continue
             writer = self.writers[material]
-            form = stamp_form(writer, overlay)
-            owner_forms = {i: owner_form(writer, names[k]) for k, i in enumerate(kit.owner_pages) if i in chosen}
+            form = page_form(writer, overlay)
+            owner_forms = {i: page_form(writer, names[k]) for k, i in enumerate(kit.owner_pages) if i in chosen}
             for _ in range(kit.copies):
                 first = self.counts[material] + 1
                 for i in chosen:

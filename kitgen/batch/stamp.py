@@ -14,11 +14,12 @@ from __future__ import annotations
 
 import io
 
-from pypdf.generic import ArrayObject, DecodedStreamObject, DictionaryObject, FloatObject, NameObject
+from pypdf.generic import NameObject
 from reportlab.lib.units import mm
 from ..render.pdf_canvas import new_canvas
 
 from ..render import pdf_text
+from ..render.pdf_owner import lay_form
 from ..words import fonts
 
 STAMP_PT = 6.0
@@ -47,37 +48,10 @@ def stamp_pdf(kit, number: int, name: str) -> bytes:
     return buf.getvalue()
 
 
-def stamp_form(writer, overlay):
-    """The stamp's page as a form XObject in ``writer`` (its resources,
-    fonts included, copied in)."""
-    form = DecodedStreamObject()
-    form.set_data(overlay.get_contents().get_data())
-    box = [FloatObject(float(v)) for v in overlay.mediabox]
-    form.update({
-        NameObject("/Type"): NameObject("/XObject"),
-        NameObject("/Subtype"): NameObject("/Form"),
-        NameObject("/BBox"): ArrayObject(box),
-        NameObject("/Resources"): overlay["/Resources"].get_object().clone(writer),
-    })
-    return writer._add_object(form)
-
-
 def stamp_page(writer, page, form_ref, form_width_pt: float, margin_mm: float) -> None:
-    """Lay the stamp on ``page`` (a page already added to ``writer``)."""
+    """Lay the stamp (a form made by :func:`kitgen.render.pdf_owner.page_form`)
+    on ``page`` (a page already added to ``writer``)."""
     x0, y0, x1, y1 = (float(v) for v in page.mediabox)
     x = x1 - margin_mm * mm - form_width_pt
     y = y1 - margin_mm * mm + STAMP_RISE_MM * mm - _PAD_PT
-    resources = page[NameObject("/Resources")].get_object()
-    own = DictionaryObject({NameObject("/XObject"): DictionaryObject({_NAME: form_ref})})
-    for key, value in resources.items():
-        if key == "/XObject":
-            own[NameObject("/XObject")].update(value.get_object())
-        else:
-            own[NameObject(key)] = value
-    page[NameObject("/Resources")] = own
-    before, after = DecodedStreamObject(), DecodedStreamObject()
-    before.set_data(b"q\n")
-    after.set_data(f"\nQ\nq 1 0 0 1 {x:.3f} {y:.3f} cm {_NAME} Do Q\n".encode("ascii"))
-    contents = page.get(NameObject("/Contents"))
-    old = list(contents.get_object()) if isinstance(contents.get_object(), ArrayObject) else [contents]
-    page[NameObject("/Contents")] = ArrayObject([writer._add_object(before), *old, writer._add_object(after)])
+    lay_form(writer, page, form_ref, _NAME, (x, y))

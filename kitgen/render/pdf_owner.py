@@ -84,15 +84,15 @@ def lay_over(shared: bytes, indices, overlay: bytes) -> bytes:
     writer = PdfWriter(PdfReader(io.BytesIO(shared)), incremental=True)
     over = PdfReader(io.BytesIO(overlay))
     for k, o in zip(indices, over.pages):
-        lay_form(writer, writer.pages[k], owner_form(writer, o))
+        lay_form(writer, writer.pages[k], page_form(writer, o), _FORM)
     out = io.BytesIO()
     writer.write(out)
     return out.getvalue()
 
 
-def owner_form(writer, page):
-    """Page ``page`` of a name's PDF as a form XObject added to
-    ``writer`` (its resources, fonts included, copied in); its reference."""
+def page_form(writer, page):
+    """A page of another PDF as a form XObject added to ``writer`` (its
+    resources, fonts included, copied in); its reference."""
     form = DecodedStreamObject()
     form.set_data(page.get_contents().get_data())
     form.update({
@@ -104,19 +104,20 @@ def owner_form(writer, page):
     return writer._add_object(form)
 
 
-def lay_form(writer, page, form_ref) -> None:
-    """Lay the form ``form_ref`` over ``page`` (a page of ``writer``):
-    the page's own content wrapped in ``q``/``Q``, then the form; the
-    page gets resources of its own, so a page shared with others keeps
-    its own."""
+def lay_form(writer, page, form_ref, name=_FORM, at_pt=None) -> None:
+    """Lay the form ``form_ref`` over ``page`` (a page of ``writer``) as
+    the XObject ``name``, moved to ``at_pt`` (x, y) if given: the page's
+    own content wrapped in ``q``/``Q``, then the form; the page gets
+    resources of its own, so a page shared with others keeps its own."""
     resources = DictionaryObject(page[NameObject("/Resources")].get_object())
     xobjects = DictionaryObject(resources.get(NameObject("/XObject"), DictionaryObject()).get_object())
-    xobjects[_FORM] = form_ref
+    xobjects[name] = form_ref
     resources[NameObject("/XObject")] = xobjects
     page[NameObject("/Resources")] = resources
     before, after = DecodedStreamObject(), DecodedStreamObject()
     before.set_data(b"q\n")
-    after.set_data(b"\nQ\nq /KitgenOwner Do Q\n")
+    move = "" if at_pt is None else f"1 0 0 1 {at_pt[0]:.3f} {at_pt[1]:.3f} cm "
+    after.set_data(f"\nQ\nq {move}{name} Do Q\n".encode("ascii"))
     contents = page.get(NameObject("/Contents"))
     old = list(contents.get_object()) if isinstance(contents.get_object(), ArrayObject) else [contents]
     page[NameObject("/Contents")] = ArrayObject([writer._add_object(before), *old, writer._add_object(after)])
