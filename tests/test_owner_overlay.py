@@ -2,12 +2,18 @@
 (#12): the shared file's bytes first and unchanged, then an incremental
 update (ISO 32000-1:2008, 7.5.6) whose pages carry the name as a form
 XObject (8.10), read back here with pypdf, a general-purpose reference
-reader of PDF; and the name stands where the parts put it."""
+reader of PDF, and checked by qpdf (the QPDF project's ``--check``); and
+the name stands where the parts put it.  The update is written by hand
+(kitgen.render.pdf_objects), so its reading of reportlab's files is
+checked against pypdf's too."""
 
 from __future__ import annotations
 
 import io
+import shutil
+import subprocess
 
+import pytest
 from pypdf import PdfReader
 
 from kitgen.kit import build_kit
@@ -33,6 +39,80 @@ def test_each_pupils_pdf_is_the_shared_pdf_then_an_update():
         assert pdf.startswith(shared) and len(pdf) > len(shared)
         # the update adds a cross-reference section of its own after the shared one's %%EOF
         assert pdf[len(shared):].count(b"startxref") == 1
+
+
+def test_the_update_reads_back_in_pypdf_and_qpdf(tmp_path):
+    """Each page, as pypdf reads the updated file in strict mode, is the
+    shared page; a page that carries the name has the shared page's
+    content between ``q`` and ``Q``, then the form, whose content is the
+    name's own page; the update's trailer points back to the shared
+    file's cross-reference table (/Prev) and keeps its /Root, /Info and
+    /ID (7.5.6); qpdf --check finds no error."""
+    from kitgen.render.pdf import render_layers
+
+    kit = _kit(PUPILS[0])
+    layers = render_layers(kit, layout_kit(kit))
+    reader = PdfReader(io.BytesIO(layers.pdf), strict=True)   # Reference: pypdf
+    shared = PdfReader(io.BytesIO(layers.shared), strict=True)
+    names = PdfReader(io.BytesIO(layers.overlay), strict=True)
+    assert len(reader.pages) == len(shared.pages)
+    for k, (page, alone) in enumerate(zip(reader.pages, shared.pages)):
+        own = alone.get_contents().get_data()
+        if k not in layers.indices:
+            assert page.get_contents().get_data() == own
+            continue
+        assert page.get_contents().get_data() == b"q\n" + own + b"\nQ\nq /KitgenOwner Do Q\n"
+        form = page["/Resources"]["/XObject"]["/KitgenOwner"].get_object()
+        name_page = names.pages[layers.indices.index(k)]
+        assert form.get_data() == name_page.get_contents().get_data()
+        assert [float(v) for v in form["/BBox"]] == [float(v) for v in page.mediabox]
+        fonts = form["/Resources"]["/Font"]
+        assert all("/FontFile2" in f.get_object()["/FontDescriptor"] for f in fonts.values())
+        # the shared page's fonts stay its own, the name's apart
+        assert page["/Resources"].raw_get("/Font").idnum == alone["/Resources"].raw_get("/Font").idnum
+        assert form["/Resources"].raw_get("/Font").idnum >= shared.trailer["/Size"]
+    startxref = int(layers.shared.rsplit(b"startxref", 1)[1].split()[0])
+    assert reader.trailer["/Prev"] == startxref
+    assert reader.trailer["/ID"] == shared.trailer["/ID"] and reader.metadata.title == shared.metadata.title
+    if shutil.which("qpdf") is None:
+        pytest.skip("qpdf is not installed (.ci/run installs it): the pypdf half ran")
+    (tmp_path / "kit.pdf").write_bytes(layers.pdf)
+    done = subprocess.run(["qpdf", "--check", str(tmp_path / "kit.pdf")], capture_output=True, text=True)
+    assert done.returncode == 0, done.stdout + done.stderr   # Reference: qpdf
+
+
+def test_the_object_reader_agrees_with_pypdf():
+    """kitgen.render.pdf_objects reads a reportlab file's objects as pypdf
+    does: the same pages in order, each stream's data byte for byte, each
+    object's references."""
+    from pypdf.generic import IndirectObject, StreamObject
+
+    from kitgen.render import pdf_objects
+
+    kit = _kit(PUPILS[1])
+    data = render_pdf(kit.nameless, layout_kit(kit.nameless))
+    ours, theirs = pdf_objects.Written(data), PdfReader(io.BytesIO(data), strict=True)   # Reference: pypdf
+    assert ours.pages() == [p.indirect_reference.idnum for p in theirs.pages]
+    assert ours.size == theirs.trailer["/Size"] and ours.root == theirs.trailer.raw_get("/Root").idnum
+    for number in range(1, ours.size):
+        obj = theirs.get_object(number)
+        body = ours.body(number)
+        if isinstance(obj, StreamObject):
+            assert body.endswith(b"\nstream\n" + obj._data + b"endstream")
+        refs = sorted({v.idnum for v in _references(obj, IndirectObject)})
+        assert sorted({int(n) for n in pdf_objects._REF.findall(ours.head(number))}) == refs, number
+
+
+def _references(obj, kind):
+    """Every indirect reference written in ``obj`` (not followed)."""
+    if isinstance(obj, kind):
+        yield obj
+    elif isinstance(obj, dict):
+        for v in obj.values():
+            yield from _references(v, kind)
+    elif isinstance(obj, list):
+        for v in obj:
+            yield from _references(v, kind)
 
 
 def test_the_name_is_on_every_page_of_a_part_that_carries_it():

@@ -16,13 +16,14 @@ for byte, as when built alone.
 from __future__ import annotations
 
 import io
-from dataclasses import dataclass
+import operator
+from dataclasses import dataclass, replace
 
 from pypdf import PdfReader, PdfWriter
 from pypdf.generic import ArrayObject, DecodedStreamObject, DictionaryObject, FloatObject, NameObject
 from reportlab.lib.units import mm
 
-from . import pdf_text
+from . import pdf_objects, pdf_text
 from .pdf_canvas import new_canvas
 
 _FORM = NameObject("/KitgenOwner")
@@ -38,16 +39,25 @@ def owner_pages(kit, pages, draw_placement, page_transform, font: str) -> tuple[
     """The indices of the pages that carry the owner's name, and a PDF of
     those pages holding the name alone, drawn by ``draw_placement``
     (kitgen.render.pdf's, given a filter) after ``page_transform``, the
-    canvas's first font ``font`` (a shipped one)."""
+    canvas's first font ``font`` (a shipped one).  Each part is handed to
+    ``draw_placement`` with its owner's elements alone
+    (:func:`owner_elements`), so the thousands of others are not looked at."""
     pdf_text.register_fonts()
     buf = io.BytesIO()
     first = pages[0]
     c = new_canvas(buf, (first.media_mm[0] * mm, first.media_mm[1] * mm), lang=kit.words.language,
                    initialFontName=font, initialFontSize=10)   # never a standard-14 font
     c.setCreator("kitgen")
+    bases = {p.id: p for p in kit.nameless.parts} if kit.nameless is not None else {}
+    owned: dict[str, tuple] = {}
     chosen = []
     for k, page in enumerate(pages):
-        placed = [pl for pl in page.placements if any(is_owner(e) for e in pl.part.elements)]
+        placed = []
+        for pl in page.placements:
+            if pl.part.id not in owned:
+                owned[pl.part.id] = owner_elements(pl.part, bases.get(pl.part.id))
+            if owned[pl.part.id]:
+                placed.append(replace(pl, part=replace(pl.part, elements=owned[pl.part.id])))
         if not placed:
             continue
         chosen.append(k)
@@ -64,6 +74,31 @@ def owner_pages(kit, pages, draw_placement, page_transform, font: str) -> tuple[
     return chosen, buf.getvalue()
 
 
+def owner_elements(part, base) -> tuple:
+    """The owner's elements of ``part`` (:func:`is_owner`), in order.
+    ``base`` is the same part of the kit's nameless kit (kitgen.kit):
+    the plate, the rete and the mater are that part's very elements with
+    the owner's set in among them, one run (kitgen.parts.owner), so the
+    run is found from the two ends, by identity, and only its elements
+    are tested; a part drawn again with the name (the rule, the
+    alidade) or one without that shape is tested element by element."""
+    if part is base:
+        return ()
+    named = part.elements
+    extra = len(named) - len(base.elements) if base is not None else 0
+    if extra > 0:
+        plain = base.elements
+        tail = 0
+        while tail < len(plain) and named[-1 - tail] is plain[-1 - tail]:
+            tail += 1
+        head = len(plain) - tail
+        run = named[head:head + extra]
+        if all(map(is_owner, run)) and all(map(operator.is_, named[:head], plain[:head])) \
+                and all(map(operator.is_, named[head + extra:], plain[head:])):
+            return run
+    return tuple(e for e in named if is_owner(e))
+
+
 @dataclass(frozen=True)
 class Layers:
     """A kit's PDF and, for a named kit on shared pages, what it was made
@@ -78,16 +113,65 @@ class Layers:
 
 def lay_over(shared: bytes, indices, overlay: bytes) -> bytes:
     """``shared`` with page ``indices[i]`` of it carrying page i of
-    ``overlay`` on top, as an incremental update of ``shared``."""
+    ``overlay`` on top, as an incremental update of ``shared``
+    (ISO 32000-1:2008, 7.5.6), written by hand
+    (:mod:`kitgen.render.pdf_objects`): the shared file is read once
+    (kept for the last few), and each pupil's update holds only the
+    name's objects (its fonts, copied once for all its pages), a form
+    XObject a page, the two streams that wrap a page's own content and
+    the pages' dictionaries, each its old one with the form added."""
     if not indices:
         return shared
-    writer = PdfWriter(PdfReader(io.BytesIO(shared)), incremental=True)
-    over = PdfReader(io.BytesIO(overlay))
-    for k, o in zip(indices, over.pages):
-        lay_form(writer, writer.pages[k], page_form(writer, o), _FORM)
-    out = io.BytesIO()
-    writer.write(out)
-    return out.getvalue()
+    base = _written(shared)
+    out = pdf_objects.Out(shared + b"\n", base.size)
+    copier = pdf_objects.Copier(pdf_objects.Written(overlay), out)
+    wrap = (out.stream(b"q\n"), out.stream(b"\nQ\nq %s Do Q\n" % _FORM.encode("ascii")))
+    for k, page in zip(indices, copier.source.pages()):
+        number = base.pages()[k]
+        out.put(number, with_form(base.head(number), form_of(copier, page), wrap))
+    trailer = b"/Root %d 0 R /Info %d 0 R /ID %s /Prev %d" % (base.root, base.info, base.id_text, base.xref_at)
+    return out.finish(trailer)
+
+
+#: The shared PDFs read, by the bytes' identity: ``id -> (bytes, Written)``.
+_WRITTEN: dict[int, tuple] = {}
+
+
+def _written(pdf: bytes) -> pdf_objects.Written:
+    kept = _WRITTEN.get(id(pdf))
+    if kept is not None and kept[0] is pdf:
+        return kept[1]
+    while len(_WRITTEN) >= 4:
+        del _WRITTEN[next(iter(_WRITTEN))]
+    _WRITTEN[id(pdf)] = (pdf, pdf_objects.Written(pdf))
+    return _WRITTEN[id(pdf)][1]
+
+
+def form_of(copier: pdf_objects.Copier, page: int) -> int:
+    """Page ``page`` of the copier's source as a form XObject (8.10) in
+    its output: the page's content stream as it is, its resources (fonts
+    and all) copied; the form's number."""
+    head = copier.source.head(page)
+    contents = copier.source.body(int(pdf_objects.value(head, b"/Contents").split()[0]))
+    resources = copier.renumbered(pdf_objects.value(head, b"/Resources"))
+    entries = b"/Type /XObject /Subtype /Form /BBox %s /Resources %s\n" % (pdf_objects.value(head, b"/MediaBox"),
+                                                                         resources)
+    return copier.out.add(b"<<\n" + entries + contents[2:].lstrip())
+
+
+def with_form(page: bytes, form: int, wrap: tuple[int, int], name: str = _FORM) -> bytes:
+    """The page dictionary ``page`` with the form ``form`` laid over it as
+    the XObject ``name``: its content between the streams ``wrap`` (one
+    that saves the graphics state, one that restores it and draws the
+    form) and the form in its resources (written inline, as reportlab
+    writes them)."""
+    contents = pdf_objects.value(page, b"/Contents")
+    inner = contents[1:-1].strip() if contents.startswith(b"[") else contents
+    page = pdf_objects.with_value(page, b"/Contents", b"[ %d 0 R %s %d 0 R ]" % (wrap[0], inner, wrap[1]))
+    resources = pdf_objects.value(page, b"/Resources")
+    xobjects = pdf_objects.value(resources, b"/XObject") or b"<< >>"
+    xobjects = xobjects[:-2].rstrip() + b" %s %d 0 R >>" % (name.encode("ascii"), form)
+    return pdf_objects.with_value(page, b"/Resources", pdf_objects.with_value(resources, b"/XObject", xobjects))
 
 
 def page_form(writer, page):
