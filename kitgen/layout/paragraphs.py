@@ -155,10 +155,16 @@ def _figure_pt(block) -> float:
     return block.figure.height_mm * PT_PER_MM if block.figure is not None else 0.0
 
 
+def _height_pt(laid_block, before: float) -> float:
+    """Height (pt) of one laid block (an item of :func:`_laid`) with
+    ``before`` of space above it, its space after included."""
+    b, size, _, lines, _, after, _ = laid_block
+    return before + len(lines) * size * LEADING + _figure_pt(b) + after
+
+
 def blocks_height_pt(blocks, width_limit_pt: float, body_pt: float, words) -> float:
     """Height (pt) the blocks take, set one after another."""
-    return sum(before + len(lines) * size * LEADING + _figure_pt(b) + after
-               for b, size, _, lines, before, after, _ in _laid(blocks, width_limit_pt, body_pt, words))
+    return sum(_height_pt(laid, laid[4]) for laid in _laid(blocks, width_limit_pt, body_pt, words))
 
 
 def set_blocks(blocks, box_mm, words, body_pt: float) -> tuple[SetLine, ...]:
@@ -212,7 +218,6 @@ def split_blocks(blocks, width_pt: float, height_pt: float, words, n_pages: int)
     never left alone at the foot of a page; a :data:`PAGE_BREAK` block
     starts a new page), and the blocks of each page; or ``None`` when even
     :data:`MIN_BODY_PT` needs more pages."""
-    probe = Block("body", "x")
     breaks = {k for k, b in enumerate(blocks) if b.kind == PAGE_BREAK}
     for size in BODY_SIZES_PT:
         if n_pages == 1 and breaks:
@@ -221,11 +226,7 @@ def split_blocks(blocks, width_pt: float, height_pt: float, words, n_pages: int)
             if blocks_height_pt(blocks, width_pt, size, words) <= height_pt:
                 return size, [list(blocks)]
             continue
-        alone = [0.0 if k in breaks else blocks_height_pt([b], width_pt, size, words)
-                 for k, b in enumerate(blocks)]
-        base = blocks_height_pt([probe], width_pt, size, words)
-        after = [0.0 if k in breaks else blocks_height_pt([probe, b], width_pt, size, words) - base
-                 for k, b in enumerate(blocks)]
+        alone, after = _alone_and_after_pt(blocks, breaks, width_pt, size, words)
         chunks, current, used = [], [], 0.0
         for k, block in enumerate(blocks):
             if k in breaks:
@@ -247,3 +248,24 @@ def split_blocks(blocks, width_pt: float, height_pt: float, words, n_pages: int)
         if len(chunks) <= n_pages and max(heights) <= height_pt:
             return size, [[blocks[i] for i in ch] for ch in chunks]
     return None
+
+
+#: A paragraph of one short line: what each block is measured after, for
+#: the space between it and the block above.
+_PROBE = Block("body", "x")
+
+
+def _alone_and_after_pt(blocks, breaks, width_pt: float, body_pt: float, words):
+    """Per block (0 for a :data:`PAGE_BREAK`): its height at the top of a
+    page, and what it adds under another block, each the very float
+    :func:`blocks_height_pt` gives for ``[block]`` and for ``[probe,
+    block]`` less ``[probe]``, from one setting of the blocks (#12: the
+    pages' split measured each block three times at each size)."""
+    laid = iter(_laid([_PROBE] + [b for k, b in enumerate(blocks) if k not in breaks], width_pt, body_pt, words))
+    base = _height_pt(next(laid), 0.0)
+    alone, after = [0.0] * len(blocks), [0.0] * len(blocks)
+    for k in (k for k in range(len(blocks)) if k not in breaks):
+        item = next(laid)
+        alone[k] = _height_pt(item, 0.0)
+        after[k] = (base + _height_pt(item, item[4])) - base
+    return alone, after
