@@ -2,23 +2,26 @@
 film pages, in kit order, each kit as many times as its copies, each page
 stamped with the kit's number and owner (#12).
 
-The pages are copied from the kits' own PDFs by pypdf, content untouched
-(:mod:`kitgen.batch.stamp` adds the stamp beside it), so a page in a print
-file prints exactly as in its kit.  The output is deterministic: the
-pages go in a fixed order, pypdf writes no file identifier (``/ID``)
-unless asked, and the document information is fixed.
+The files are written by hand (:mod:`kitgen.render.pdf_objects`): a
+page's objects are copied from its kit's PDF as they are, content and
+fonts untouched, and the stamp (:mod:`kitgen.batch.stamp`) is laid over
+it as a form XObject (ISO 32000-1:2008, 8.10), so a page in a print file
+prints exactly as in its kit.  A named kit's pages come from its
+school's shared PDF, each object of which is copied into a print file
+once for all the school's pupils, with the pupil's name laid over them
+as in the pupil's own PDF (:mod:`kitgen.render.pdf_owner`).  The output
+is deterministic: the pages go in a fixed order, and the files have no
+identifier (``/ID``, 14.4) and fixed document information.
 """
 
 from __future__ import annotations
 
-import io
 from dataclasses import dataclass
 
-from pypdf import PdfReader, PdfWriter
-from pypdf.generic import NameObject
-
-from ..render.pdf_owner import lay_form, page_form
-from .stamp import stamp_page
+from ..render import pdf_objects
+from ..render.pdf_objects import Copier, Written
+from ..render.pdf_owner import OWNER_FORM, Layering, form_of
+from .stamp import STAMP_FORM, stamp_at
 
 MATERIALS = ("card", "film")
 
@@ -46,53 +49,85 @@ class PrintFiles:
     built kit, then :meth:`finish`."""
 
     def __init__(self):
-        self.writers = {m: _writer() for m in MATERIALS}
-        self.counts = {m: 0 for m in MATERIALS}
+        self.files = {m: _File() for m in MATERIALS}
         #: {kit number: {material: [(first, last), ...]}}, page numbers from 1.
         self.ranges: dict[int, dict[str, list[tuple[int, int]]]] = {}
-        self._readers: dict[bytes, PdfReader] = {}
 
     def add(self, kit: PrintedKit) -> None:
         """Add a kit's pages.  A named kit on its school's shared pages
-        takes them from the shared PDF, read once for the school, and
+        takes them from the shared PDF, copied once for the school, and
         lays its name over them as its own PDF does: so its pages print
         as in its own PDF, while the school's pupils share the pages'
-        content and fonts in the print files (pypdf keeps one copy of
-        what the pages of one reader share)."""
-        named = bool(kit.shared)
-        reader = self._shared(kit.shared) if named else PdfReader(io.BytesIO(kit.pdf))
-        names = PdfReader(io.BytesIO(kit.overlay)).pages if named else []
-        overlay = PdfReader(io.BytesIO(kit.stamp)).pages[0]
+        content and fonts in the print files."""
         spans = self.ranges.setdefault(kit.number, {m: [] for m in MATERIALS})
         for material in MATERIALS:
             chosen = [i for i, m in enumerate(kit.materials) if m == material]
             if not chosen:
                 continue
-            writer = self.writers[material]
-            form = page_form(writer, overlay)
-            owner_forms = {i: page_form(writer, names[k]) for k, i in enumerate(kit.owner_pages) if i in chosen}
+            file = self.files[material]
+            pages = file.shared(kit.shared) if kit.shared else Copier(Written(kit.pdf), file.out)
+            stamp = Copier(Written(kit.stamp), file.out)
+            form = form_of(stamp, stamp.source.pages()[0])
+            width_pt = _media_box(stamp.source.head(stamp.source.pages()[0]))[2]
+            names = Copier(Written(kit.overlay), file.out) if kit.overlay else None
+            owner_forms = {i: form_of(names, names.source.pages()[k])
+                           for k, i in enumerate(kit.owner_pages) if i in chosen}
             for _ in range(kit.copies):
-                first = self.counts[material] + 1
+                first = len(file.pages) + 1
                 for i in chosen:
-                    page = writer.add_page(reader.pages[i])
-                    if i in owner_forms:
-                        lay_form(writer, page, owner_forms[i])
-                    stamp_page(writer, page, form, float(overlay.mediabox.right), kit.margin_mm)
-                self.counts[material] += len(chosen)
-                spans[material].append((first, self.counts[material]))
-
-    def _shared(self, pdf: bytes) -> PdfReader:
-        """The reader of a school's shared PDF, kept for the last two."""
-        reader = self._readers.get(pdf)
-        if reader is None:
-            if len(self._readers) >= 2:
-                del self._readers[next(iter(self._readers))]
-            reader = self._readers[pdf] = PdfReader(io.BytesIO(pdf))
-        return reader
+                    number = pages.source.pages()[i]
+                    at = stamp_at(_media_box(pages.source.head(number)), width_pt, kit.margin_mm)
+                    forms = [(OWNER_FORM, owner_forms[i], None)] if i in owner_forms else []
+                    file.page(pages, number, forms + [(STAMP_FORM, form, at)])
+                spans[material].append((first, len(file.pages)))
 
     def finish(self) -> dict[str, bytes]:
         """``{material: pdf bytes}`` for each material that has pages."""
-        return {m: _bytes(self.writers[m]) for m in MATERIALS if self.counts[m]}
+        return {m: f.finish() for m, f in self.files.items() if f.pages}
+
+
+class _File:
+    """One print file being written: its objects, its pages' numbers and
+    the copiers of the last two schools' shared PDFs."""
+
+    def __init__(self):
+        self.out = pdf_objects.Out(pdf_objects.HEADER, 1)
+        self.catalog, self.tree, self.info = self.out.number(), self.out.number(), self.out.number()
+        self.layering = Layering(self.out)
+        self.pages: list[int] = []
+        self._shared: dict[bytes, Copier] = {}
+
+    def shared(self, pdf: bytes) -> Copier:
+        """The copier of a school's shared PDF, kept for the last two."""
+        copier = self._shared.get(pdf)
+        if copier is None:
+            if len(self._shared) >= 2:
+                del self._shared[next(iter(self._shared))]
+            copier = self._shared[pdf] = Copier(Written(pdf), self.out)
+        return copier
+
+    def page(self, copier: Copier, number: int, forms) -> None:
+        """Page ``number`` of the copier's source, its objects copied (each
+        once), with ``forms`` laid over it (:class:`~kitgen.render.pdf_owner.Layering`)."""
+        head = pdf_objects.with_value(copier.source.head(number), b"/Parent", b"null")
+        head = pdf_objects.with_value(copier.renumbered(head), b"/Parent", b"%d 0 R" % self.tree)
+        self.pages.append(self.out.add(self.layering.page(head, forms)))
+
+    def finish(self) -> bytes:
+        """The file: its page tree, a catalog that asks print dialogs for
+        actual size as each kit's own PDF does (12.2, table 150; #9),
+        fixed document information, no file identifier."""
+        kids = b" ".join(b"%d 0 R" % n for n in self.pages)
+        self.out.put(self.tree, b"<<\n/Type /Pages /Count %d /Kids [ %s ]\n>>" % (len(self.pages), kids))
+        self.out.put(self.catalog, b"<<\n/Type /Catalog /Pages %d 0 R /ViewerPreferences << /PrintScaling /None >>"
+                                   b"\n>>" % self.tree)
+        self.out.put(self.info, b"<<\n/Creator (kitgen) /Producer (kitgen)\n>>")
+        return self.out.finish(b"/Root %d 0 R /Info %d 0 R" % (self.catalog, self.info))
+
+
+def _media_box(head: bytes) -> tuple[float, ...]:
+    """A page dictionary's media box (x0, y0, x1, y1), in points."""
+    return tuple(float(v) for v in pdf_objects.value(head, b"/MediaBox").strip(b"[] ").split())
 
 
 def print_files(kits) -> tuple[dict[str, bytes], dict[int, dict[str, list[tuple[int, int]]]]]:
@@ -103,20 +138,3 @@ def print_files(kits) -> tuple[dict[str, bytes], dict[int, dict[str, list[tuple[
     for kit in kits:
         files.add(kit)
     return files.finish(), files.ranges
-
-
-def _writer() -> PdfWriter:
-    writer = PdfWriter()
-    writer.add_metadata({"/Creator": "kitgen", "/Producer": "kitgen"})
-    # Print dialogs at actual size, as each kit's own PDF asks (ISO 32000-1:2008, 12.2, table 150; #9).
-    writer.create_viewer_preferences().print_scaling = NameObject("/None")
-    return writer
-
-
-def _bytes(writer: PdfWriter) -> bytes:
-    buf = io.BytesIO()
-    writer.write(buf)
-    data = buf.getvalue()
-    if "/ID" in PdfReader(io.BytesIO(data)).trailer:   # a pypdf that adds a random identifier
-        raise AssertionError("pypdf wrote a file identifier: the print files would differ run to run")
-    return data

@@ -14,12 +14,10 @@ from __future__ import annotations
 
 import io
 
-from pypdf.generic import NameObject
 from reportlab.lib.units import mm
-from ..render.pdf_canvas import new_canvas
 
 from ..render import pdf_text
-from ..render.pdf_owner import lay_form
+from ..render.pdf_canvas import new_canvas
 from ..words import fonts
 
 STAMP_PT = 6.0
@@ -27,7 +25,8 @@ STAMP_PT = 6.0
 #: text stays in the margin, which is at least 6 mm.
 STAMP_RISE_MM = 1.0
 _PAD_PT = 2.0
-_NAME = NameObject("/KitgenStamp")
+#: The name of the stamp's form in a page's resources.
+STAMP_FORM = b"/KitgenStamp"
 
 
 def stamp_pdf(kit, number: int, name: str) -> bytes:
@@ -48,10 +47,9 @@ def stamp_pdf(kit, number: int, name: str) -> bytes:
     return buf.getvalue()
 
 
-def stamp_page(writer, page, form_ref, form_width_pt: float, margin_mm: float) -> None:
-    """Lay the stamp (a form made by :func:`kitgen.render.pdf_owner.page_form`)
-    on ``page`` (a page already added to ``writer``)."""
-    x0, y0, x1, y1 = (float(v) for v in page.mediabox)
-    x = x1 - margin_mm * mm - form_width_pt
-    y = y1 - margin_mm * mm + STAMP_RISE_MM * mm - _PAD_PT
-    lay_form(writer, page, form_ref, _NAME, (x, y))
+def stamp_at(media_box_pt, form_width_pt: float, margin_mm: float) -> tuple[float, float]:
+    """Where the stamp's form (its lower left corner) goes on a page of
+    media box ``media_box_pt`` (x0, y0, x1, y1): right-aligned at the
+    content area's edge, its baseline :data:`STAMP_RISE_MM` above it."""
+    x0, y0, x1, y1 = media_box_pt
+    return x1 - margin_mm * mm - form_width_pt, y1 - margin_mm * mm + STAMP_RISE_MM * mm - _PAD_PT

@@ -23,6 +23,7 @@ from __future__ import annotations
 import re
 
 _REF = re.compile(rb"(\d+) 0 R\b")
+_BRACKET = re.compile(rb"<<|>>|\[|\]")
 _ENTRY = re.compile(rb"(\d{10}) (\d{5}) ([nf])")
 #: The header of a new file: the version and a comment of four bytes
 #: above 127, so that a transfer program treats the file as binary (7.5.2).
@@ -99,18 +100,12 @@ def value(head: bytes, key: bytes) -> bytes:
 
 def _matched(text: bytes, start: int) -> int:
     """The end of the dictionary or array that opens at ``start``."""
-    depth, k = 0, start
-    while True:
-        if text.startswith(b"<<", k) or text.startswith(b"[", k):
-            step = 2 if text[k:k + 1] == b"<" else 1
-            depth, k = depth + 1, k + step
-        elif text.startswith(b">>", k) or text.startswith(b"]", k):
-            step = 2 if text[k:k + 1] == b">" else 1
-            depth, k = depth - 1, k + step
-            if depth == 0:
-                return k
-        else:
-            k += 1
+    depth = 0
+    for bracket in _BRACKET.finditer(text, start):
+        depth += 1 if bracket.group() in (b"<<", b"[") else -1
+        if depth == 0:
+            return bracket.end()
+    raise ValueError("a dictionary or array without its end")
 
 
 def with_value(head: bytes, key: bytes, new: bytes) -> bytes:

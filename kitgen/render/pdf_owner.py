@@ -19,14 +19,13 @@ import io
 import operator
 from dataclasses import dataclass, replace
 
-from pypdf import PdfReader, PdfWriter
-from pypdf.generic import ArrayObject, DecodedStreamObject, DictionaryObject, FloatObject, NameObject
 from reportlab.lib.units import mm
 
 from . import pdf_objects, pdf_text
 from .pdf_canvas import new_canvas
 
-_FORM = NameObject("/KitgenOwner")
+#: The name of the owner's form in a page's resources.
+OWNER_FORM = b"/KitgenOwner"
 
 
 def is_owner(el) -> bool:
@@ -125,10 +124,10 @@ def lay_over(shared: bytes, indices, overlay: bytes) -> bytes:
     base = _written(shared)
     out = pdf_objects.Out(shared + b"\n", base.size)
     copier = pdf_objects.Copier(pdf_objects.Written(overlay), out)
-    wrap = (out.stream(b"q\n"), out.stream(b"\nQ\nq %s Do Q\n" % _FORM.encode("ascii")))
+    layering = Layering(out)
     for k, page in zip(indices, copier.source.pages()):
         number = base.pages()[k]
-        out.put(number, with_form(base.head(number), form_of(copier, page), wrap))
+        out.put(number, layering.page(base.head(number), [(OWNER_FORM, form_of(copier, page), None)]))
     trailer = b"/Root %d 0 R /Info %d 0 R /ID %s /Prev %d" % (base.root, base.info, base.id_text, base.xref_at)
     return out.finish(trailer)
 
@@ -159,49 +158,35 @@ def form_of(copier: pdf_objects.Copier, page: int) -> int:
     return copier.out.add(b"<<\n" + entries + contents[2:].lstrip())
 
 
-def with_form(page: bytes, form: int, wrap: tuple[int, int], name: str = _FORM) -> bytes:
-    """The page dictionary ``page`` with the form ``form`` laid over it as
-    the XObject ``name``: its content between the streams ``wrap`` (one
-    that saves the graphics state, one that restores it and draws the
-    form) and the form in its resources (written inline, as reportlab
-    writes them)."""
-    contents = pdf_objects.value(page, b"/Contents")
-    inner = contents[1:-1].strip() if contents.startswith(b"[") else contents
-    page = pdf_objects.with_value(page, b"/Contents", b"[ %d 0 R %s %d 0 R ]" % (wrap[0], inner, wrap[1]))
-    resources = pdf_objects.value(page, b"/Resources")
-    xobjects = pdf_objects.value(resources, b"/XObject") or b"<< >>"
-    xobjects = xobjects[:-2].rstrip() + b" %s %d 0 R >>" % (name.encode("ascii"), form)
-    return pdf_objects.with_value(page, b"/Resources", pdf_objects.with_value(resources, b"/XObject", xobjects))
+class Layering:
+    """Forms laid over pages written to one :class:`~kitgen.render.pdf_objects.Out`:
+    a page's own content between a stream that saves the graphics state
+    and one that restores it and draws the forms (so the page's content
+    is left as it is, and a page shared with others keeps its own), each
+    such stream written once for all the pages it serves."""
 
+    def __init__(self, out: pdf_objects.Out):
+        self.out = out
+        self._streams: dict[bytes, int] = {}
 
-def page_form(writer, page):
-    """A page of another PDF as a form XObject added to ``writer`` (its
-    resources, fonts included, copied in); its reference."""
-    form = DecodedStreamObject()
-    form.set_data(page.get_contents().get_data())
-    form.update({
-        NameObject("/Type"): NameObject("/XObject"),
-        NameObject("/Subtype"): NameObject("/Form"),
-        NameObject("/BBox"): ArrayObject([FloatObject(float(v)) for v in page.mediabox]),
-        NameObject("/Resources"): page["/Resources"].get_object().clone(writer),
-    })
-    return writer._add_object(form)
+    def _stream(self, data: bytes) -> int:
+        if data not in self._streams:
+            self._streams[data] = self.out.stream(data)
+        return self._streams[data]
 
-
-def lay_form(writer, page, form_ref, name=_FORM, at_pt=None) -> None:
-    """Lay the form ``form_ref`` over ``page`` (a page of ``writer``) as
-    the XObject ``name``, moved to ``at_pt`` (x, y) if given: the page's
-    own content wrapped in ``q``/``Q``, then the form; the page gets
-    resources of its own, so a page shared with others keeps its own."""
-    resources = DictionaryObject(page[NameObject("/Resources")].get_object())
-    xobjects = DictionaryObject(resources.get(NameObject("/XObject"), DictionaryObject()).get_object())
-    xobjects[name] = form_ref
-    resources[NameObject("/XObject")] = xobjects
-    page[NameObject("/Resources")] = resources
-    before, after = DecodedStreamObject(), DecodedStreamObject()
-    before.set_data(b"q\n")
-    move = "" if at_pt is None else f"1 0 0 1 {at_pt[0]:.3f} {at_pt[1]:.3f} cm "
-    after.set_data(f"\nQ\nq {move}{name} Do Q\n".encode("ascii"))
-    contents = page.get(NameObject("/Contents"))
-    old = list(contents.get_object()) if isinstance(contents.get_object(), ArrayObject) else [contents]
-    page[NameObject("/Contents")] = ArrayObject([writer._add_object(before), *old, writer._add_object(after)])
+    def page(self, head: bytes, forms) -> bytes:
+        """The page dictionary ``head`` with ``forms``, ``(name, number,
+        at_pt)`` each, laid over it in order as XObjects of those names,
+        each moved to ``at_pt`` (x, y) unless that is None; the forms go
+        into the page's resources (inline, as reportlab writes them)."""
+        draw = b"".join(b"q %s%s Do Q\n" % (b"" if at is None else b"1 0 0 1 %.3f %.3f cm " % at, name)
+                        for name, _, at in forms)
+        wrap = (self._stream(b"q\n"), self._stream(b"\nQ\n" + draw))
+        contents = pdf_objects.value(head, b"/Contents")
+        inner = contents[1:-1].strip() if contents.startswith(b"[") else contents
+        head = pdf_objects.with_value(head, b"/Contents", b"[ %d 0 R %s %d 0 R ]" % (wrap[0], inner, wrap[1]))
+        resources = pdf_objects.value(head, b"/Resources")
+        xobjects = pdf_objects.value(resources, b"/XObject") or b"<< >>"
+        xobjects = xobjects[:-2].rstrip() + b"".join(b" %s %d 0 R" % (name, number) for name, number, _ in forms)
+        resources = pdf_objects.with_value(resources, b"/XObject", xobjects + b" >>")
+        return pdf_objects.with_value(head, b"/Resources", resources)
