@@ -360,12 +360,24 @@ def sample(el, step_mm: float = 0.5) -> np.ndarray:
         a = np.radians(np.linspace(a0, a1, n))
         return np.stack([g["center"][0] + g["radius"] * np.cos(a), g["center"][1] + g["radius"] * np.sin(a)], axis=1)
     pts = [g["from"], g["to"]] if el.shape == "segment" else list(g["points"])
-    out = [np.asarray(pts[0])]
-    for a, b in zip(pts[:-1], pts[1:]):
-        n = max(1, int(math.dist(a, b) / step_mm))
-        t = np.linspace(0.0, 1.0, n + 1)[1:, None]
-        out += list(np.asarray(a) + t * (np.asarray(b) - np.asarray(a)))
-    return np.array(out)
+    return _along(pts, [max(1, int(math.dist(a, b) / step_mm)) for a, b in zip(pts[:-1], pts[1:])])
+
+
+def _along(pts, counts) -> np.ndarray:
+    """The first of ``pts``, then ``counts[k]`` points evenly along the
+    k-th side, its far end the last: the points ``a + t (b - a)`` at
+    ``t = np.linspace(0, 1, n + 1)[1:]`` of each side, the same floats
+    (``t = i * (1 / n)``, and 1 at the end), computed for all the sides
+    at once (#12: a call of ``linspace`` per side was most of the
+    pictures' time)."""
+    xy = np.asarray(pts, dtype=float).reshape(-1, 2)
+    n = np.asarray(counts, dtype=np.int64)
+    side = np.repeat(np.arange(len(n)), n)
+    i = np.arange(len(side)) - np.repeat(np.cumsum(n) - n, n) + 1.0
+    t = i * (1.0 / n)[side] + 0.0
+    t[i == n[side]] = 1.0
+    a = xy[:-1][side]
+    return np.concatenate([xy[:1], a + t[:, None] * (xy[1:][side] - a)])
 
 
 # -- the plate's picture ----------------------------------------------------------------
@@ -414,6 +426,41 @@ def _matches(el, role: str, values: dict) -> bool:
 CLEAR_MM = 1.5
 
 
+def _nearest_mm(pts, others, reach_mm: float) -> np.ndarray:
+    """Per point of ``pts`` (N, 2), the distance to the nearest of
+    ``others`` (M, 2) where that is below ``reach_mm`` (the same float as
+    ``np.hypot`` of the two differences gives), else ``reach_mm``.  Only
+    the pairs in neighbouring cells of a grid a little coarser than the
+    reach are measured (a uniform grid of buckets, the classic
+    fixed-radius near-neighbour search: Bentley, Stanat and Williams,
+    "The complexity of finding fixed-radius near neighbors", Information
+    Processing Letters 6, 1977), not every pair (#12)."""
+    out = np.full(len(pts), reach_mm)
+    if not len(others) or not len(pts):
+        return out
+    cell = 4.0 / 3.0 * reach_mm   # pairs nearer than the reach are never two cells apart, rounding included
+    pc, oc = np.floor(pts / cell).astype(np.int64), np.floor(others / cell).astype(np.int64)
+    low = np.minimum(pc.min(axis=0), oc.min(axis=0)) - 1
+    rows = int(max(pc[:, 1].max(), oc[:, 1].max()) - low[1]) + 2
+    keys = (oc[:, 0] - low[0]) * rows + (oc[:, 1] - low[1])
+    order = np.argsort(keys, kind="stable")
+    keys = keys[order]
+    column = (pc[:, 0] - low[0]) * rows + (pc[:, 1] - low[1])
+    which, starts, counts = [], [], []
+    for dx in (-1, 0, 1):   # the three cells above one another in each neighbouring column
+        k = column + dx * rows
+        first, last = np.searchsorted(keys, k - 1, "left"), np.searchsorted(keys, k + 1, "right")
+        which.append(np.arange(len(pts)))
+        starts.append(first)
+        counts.append(last - first)
+    which, starts, counts = np.concatenate(which), np.concatenate(starts), np.concatenate(counts)
+    point = np.repeat(which, counts)
+    other = order[np.repeat(starts, counts) + np.arange(len(point)) - np.repeat(np.cumsum(counts) - counts, counts)]
+    d = np.hypot(pts[point, 0] - others[other, 0], pts[point, 1] - others[other, 1])
+    np.minimum.at(out, point, d)
+    return out
+
+
 def _choose_targets(named, lines, samples, reach_mm: float, rim_mm: float, spacing_mm: float):
     """For each named kind, the point of its line where the leader ends:
     clear of every other line (so that the dot is plainly on this one), of
@@ -436,12 +483,7 @@ def _choose_targets(named, lines, samples, reach_mm: float, rim_mm: float, spaci
                 # Only the other lines' points near this line's box count.
                 lo, hi = pts.min(axis=0) - CLEAR_MM, pts.max(axis=0) + CLEAR_MM
                 near = (owner != j) & np.all((others_all >= lo) & (others_all <= hi), axis=1)
-                far = others_all[near]
-                if len(far):
-                    d = np.min(np.hypot(pts[:, None, 0] - far[None, :, 0], pts[:, None, 1] - far[None, :, 1]), axis=1)
-                else:
-                    d = np.full(len(pts), CLEAR_MM)
-                clear = np.minimum(d, CLEAR_MM) / CLEAR_MM
+                clear = np.minimum(_nearest_mm(pts, others_all[near], CLEAR_MM), CLEAR_MM) / CLEAR_MM
             apart = np.ones(len(pts))
             level = np.ones(len(pts))
             balance = np.zeros(len(pts))
