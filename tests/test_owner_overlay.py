@@ -15,10 +15,12 @@ import subprocess
 
 import pytest
 from pypdf import PdfReader
+from pypdf.generic import DictionaryObject
 
 from kitgen.kit import build_kit
 from kitgen.layout.pages import layout_kit
 from kitgen.recipe.load import validate_recipe
+from kitgen.render import pdf_objects
 from kitgen.render.pdf import build_pdf, render_pdf
 
 #: Invented pupils of an invented school (demo data).
@@ -87,8 +89,6 @@ def test_the_object_reader_agrees_with_pypdf():
     object's references."""
     from pypdf.generic import IndirectObject, StreamObject
 
-    from kitgen.render import pdf_objects
-
     kit = _kit(PUPILS[1])
     data = render_pdf(kit.nameless, layout_kit(kit.nameless))
     ours, theirs = pdf_objects.Written(data), PdfReader(io.BytesIO(data), strict=True)   # Reference: pypdf
@@ -101,6 +101,32 @@ def test_the_object_reader_agrees_with_pypdf():
             assert body.endswith(b"\nstream\n" + obj._data + b"endstream")
         refs = sorted({v.idnum for v in _references(obj, IndirectObject)})
         assert sorted({int(n) for n in pdf_objects._REF.findall(ours.head(number))}) == refs, number
+        if isinstance(obj, DictionaryObject):
+            for key in obj:
+                _same_value(pdf_objects.value(ours.head(number), key.encode("ascii")), obj.raw_get(key))
+
+
+def _same_value(text: bytes, read) -> None:
+    """A value's text as kitgen.render.pdf_objects.value takes it is what
+    pypdf read there: the same name, reference or number, an array of the
+    same length and numbers, a dictionary with the same keys."""
+    from pypdf.generic import ArrayObject, FloatObject, IndirectObject, NameObject, NumberObject
+
+    if isinstance(read, NameObject):
+        assert text == read.encode("ascii")
+    elif isinstance(read, IndirectObject):
+        assert text == b"%d 0 R" % read.idnum
+    elif isinstance(read, (FloatObject, NumberObject)):
+        assert float(text) == float(read)
+    elif isinstance(read, ArrayObject):
+        items = text[1:-1].split()
+        assert text.startswith(b"[") and text.endswith(b"]")
+        if all(isinstance(v, (FloatObject, NumberObject)) for v in read):
+            assert [float(v) for v in items] == [float(v) for v in read]
+    elif isinstance(read, DictionaryObject):
+        assert text.startswith(b"<<") and text.endswith(b">>")
+        for key in read:
+            _same_value(pdf_objects.value(text, key.encode("ascii")), read.raw_get(key))
 
 
 def _references(obj, kind):

@@ -24,6 +24,8 @@ import re
 
 _REF = re.compile(rb"(\d+) 0 R\b")
 _BRACKET = re.compile(rb"<<|>>|\[|\]")
+_VALUE_END = re.compile(rb"\s*(/|>>)")
+_NAME = re.compile(rb"/[^\s/<>\[\]()]*")
 _ENTRY = re.compile(rb"(\d{10}) (\d{5}) ([nf])")
 #: The header of a new file: the version and a comment of four bytes
 #: above 127, so that a transfer program treats the file as binary (7.5.2).
@@ -38,9 +40,11 @@ class Written:
         self.data = data
         self.xref_at = int(data[data.rindex(b"startxref") + 9:].split()[0])
         table, trailer = data[self.xref_at:].split(b"trailer", 1)
-        rows = table.split(b"\n")
-        first = int(rows[1].split()[0])
-        offsets = {first + k: int(m.group(1)) for k, m in enumerate(_ENTRY.finditer(table)) if m.group(3) == b"n"}
+        first, count = (int(v) for v in table.split(b"\n")[1].split())
+        entries = _ENTRY.findall(table)
+        if len(entries) != count:
+            raise ValueError("a cross-reference table of more than one subsection")
+        offsets = {first + k: int(at) for k, (at, _, kind) in enumerate(entries) if kind == b"n"}
         self.trailer = trailer[:trailer.index(b"startxref")]
         self.root, self.info = self._ref(b"/Root"), self._ref(b"/Info")
         self.size = int(re.search(rb"/Size (\d+)", self.trailer).group(1))
@@ -72,8 +76,10 @@ class Written:
         """The page objects' numbers in page order (reportlab's page tree
         is one ``/Pages`` node holding every page)."""
         if self._pages is None:
-            tree = int(value(self.head(self.root), b"/Pages").split()[0])
-            self._pages = [int(n) for n in _REF.findall(value(self.head(tree), b"/Kids"))]
+            tree = self.head(int(value(self.head(self.root), b"/Pages").split()[0]))
+            self._pages = [int(n) for n in _REF.findall(value(tree, b"/Kids"))]
+            if int(value(tree, b"/Count")) != len(self._pages):
+                raise ValueError("a page tree of more than one level")
         return self._pages
 
 
@@ -84,18 +90,25 @@ def _head(body: bytes) -> bytes:
 
 
 def value(head: bytes, key: bytes) -> bytes:
-    """The value of ``key`` in the dictionary ``head`` (the outer one, its
-    first occurrence): a dictionary or an array as written, brackets
-    matched, else up to the next key or the dictionary's end."""
-    at = re.search(re.escape(key) + rb"(?![A-Za-z0-9])\s*", head)
-    if at is None:
+    """The value of ``key`` in the dictionary ``head``, at the key's first
+    occurrence in the text (kitgen asks only for keys that occur once):
+    a dictionary or an array as written, brackets matched, a name, or
+    else up to the next key or the dictionary's end (a number, a
+    reference); empty if the key is not there."""
+    start = _after(head, key)
+    if start is None:
         return b""
-    start = at.end()
-    opener = head[start:start + 2]
-    if opener == b"<<" or opener[:1] == b"[":
+    if head.startswith((b"<<", b"["), start):
         return head[start:_matched(head, start)]
-    end = re.compile(rb"\s*(/|>>)").search(head, start).start()
-    return head[start:end]
+    if head.startswith(b"/", start):
+        return _NAME.match(head, start).group()
+    return head[start:_VALUE_END.search(head, start).start()]
+
+
+def _after(head: bytes, key: bytes) -> int | None:
+    """Where the value of ``key`` starts in ``head``, if it is there."""
+    at = re.search(re.escape(key) + rb"(?![A-Za-z0-9])\s*", head)
+    return at.end() if at else None
 
 
 def _matched(text: bytes, start: int) -> int:
@@ -114,7 +127,7 @@ def with_value(head: bytes, key: bytes, new: bytes) -> bytes:
     old = value(head, key)
     if not old:
         return head[:head.rindex(b">>")] + key + b" " + new + b"\n>>"
-    at = re.search(re.escape(key) + rb"(?![A-Za-z0-9])\s*", head).end()
+    at = _after(head, key)
     return head[:at] + new + head[at + len(old):]
 
 
@@ -143,9 +156,9 @@ class Out:
     def add(self, body: bytes) -> int:
         return self.put(self.number(), body)
 
-    def stream(self, data: bytes, entries: bytes = b"") -> int:
+    def stream(self, data: bytes) -> int:
         """A new stream object holding ``data`` as it is."""
-        return self.add(b"<<\n%s/Length %d\n>>\nstream\n%sendstream" % (entries, len(data), data))
+        return self.add(b"<<\n/Length %d\n>>\nstream\n%sendstream" % (len(data), data))
 
     def finish(self, trailer: bytes) -> bytes:
         """The file: the objects, their cross-reference section and a
