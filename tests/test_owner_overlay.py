@@ -168,6 +168,21 @@ def test_the_base_is_the_named_kit_less_the_name():
         assert all(e.role != "owner" and not e.values.get("beside_owner") for e in base.elements)
 
 
+def test_the_names_elements_found_without_a_scan_are_those_a_scan_finds():
+    """owner_pages takes each part's owner's elements as the run the named
+    part has beyond its nameless one: they are, in order, the elements
+    that testing every element with is_owner finds."""
+    from kitgen.render.pdf_owner import is_owner, owner_elements
+
+    kit = _kit(PUPILS[0])
+    bases = {p.id: p for p in kit.nameless.parts}
+    for part in kit.parts:
+        scanned = tuple(e for e in part.elements if is_owner(e))
+        assert scanned, part.id
+        assert owner_elements(part, bases[part.id]) == scanned, part.id
+        assert owner_elements(bases[part.id], bases[part.id]) == ()
+
+
 def test_a_schools_pupils_share_their_pages_in_the_print_files():
     """In a class set's print files, two pupils of one school share the
     shared pages' content streams (the same indirect objects, as pypdf
