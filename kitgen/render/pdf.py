@@ -15,12 +15,11 @@ the same bytes.
 from __future__ import annotations
 
 import io
-import re
 
-from reportlab.lib.units import mm
 from reportlab.lib.rl_accel import fp_str
-from reportlab.pdfgen.canvas import FILL_EVEN_ODD, PATH_OPS, Canvas
-from reportlab.pdfgen.pathobject import PDFPathObject
+from reportlab.lib.units import mm
+from reportlab.pdfgen.canvas import Canvas
+from reportlab.pdfgen.pdfgeom import bezierArc
 
 from ..geometry import style
 from ..layout.bounds import element_box_mm, meets, turn_box
@@ -30,7 +29,7 @@ from ..layout.paragraphs import wrap
 from ..paper import CHECK_BAR_MM, FOOTER_MM
 from . import pdf_marks, pdf_owner, pdf_text
 from .ink import Holes, holes_of, inks
-from .pdf_canvas import new_canvas
+from .pdf_canvas import new_canvas, pt_texts
 
 FONT = "KitSans"
 
@@ -68,26 +67,40 @@ def register_fonts() -> None:
 class _Pen:
     """Sets the canvas's line style for a stroke class (and, in a colour
     kit, the role's accent), only when it changes (a part has thousands of
-    elements in a few classes)."""
+    elements in a few classes).  Each class's width and dash, and each
+    class and role's colour, are looked up once per pen."""
 
     def __init__(self, c: Canvas, dims, words=None, colour: bool = False):
         self.c, self.dims, self.current, self.words, self.colour = c, dims, None, words, colour
-        self.width, self.dash = None, None
+        self.states: dict[tuple[str, str], tuple] = {}
+        self.lines: dict[str, tuple[float, str]] = {}
 
     def use(self, stroke: str, role: str = "") -> None:
-        ink = style.line_colour(stroke, role, self.colour)
-        if (stroke, ink) == self.current:
+        state = self.states.get((stroke, role))
+        if state is None:
+            state = self.states[(stroke, role)] = (stroke, style.line_colour(stroke, role, self.colour))
+        current = self.current
+        if state == current:
             return
-        if self.current is None or stroke != self.current[0]:
-            st = style.stroke_style(stroke, self.dims)
-            self.c.setLineWidth(st.width_mm * mm)
-            self.c.setDash([d * mm for d in st.dash_mm] if st.dash_mm else [], 0)
-        if self.current is None or ink != self.current[1]:
+        if current is None or stroke != current[0]:
+            width_pt, dash = self.lines.get(stroke) or self._line(stroke)
+            self.c.setLineWidth(width_pt)
+            self.c.addLiteral(dash)
+        ink = state[1]
+        if current is None or ink != current[1]:
             if ink[0] == "rgb":
                 self.c.setStrokeColorRGB(*ink[1])
             else:
                 self.c.setStrokeGray(ink[1])
-        self.current = (stroke, ink)
+        self.current = state
+
+    def _line(self, stroke: str) -> tuple[float, str]:
+        """A class's width (pt) and its dash operator, as the canvas's
+        ``setDash`` writes it."""
+        st = style.stroke_style(stroke, self.dims)
+        dash_pt = [d * mm for d in st.dash_mm] if st.dash_mm else []
+        line = self.lines[stroke] = (st.width_mm * mm, "[%s] %s d" % (fp_str(dash_pt), 0))
+        return line
 
 
 def _text(c: Canvas, x_mm, y_mm, string, size_pt, words, text_style, anchor="middle", angle_deg=0.0) -> None:
@@ -96,124 +109,131 @@ def _text(c: Canvas, x_mm, y_mm, string, size_pt, words, text_style, anchor="mid
 
 
 def draw_ink(c: Canvas, pen: _Pen, ink) -> None:
-    """One ink (kitgen.render.ink), in the part's frame (the canvas is at
-    the part's pin)."""
+    """A text ink (kitgen.render.ink), in the part's frame (the canvas is
+    at the part's pin); lines and dots are written as kept operators
+    (:func:`draw_elements`)."""
     g = ink.geom
-    if ink.shape == "text":
-        text_style = "bold" if ink.role in _BOLD_ROLES else "label"
-        _text(c, g["at"][0], g["at"][1], g["text"], g["size_pt"], pen.words, text_style, g["anchor"], g["angle_deg"])
-        return
-    if ink.shape == "dot":
-        cx, cy = g["center"]
-        c.setFillGray(0.0)
-        c.circle(cx * mm, cy * mm, g["radius"] * mm, stroke=0, fill=1)
-        return
-    pen.use(ink.stroke, ink.role)
-    if ink.shape == "circle":
-        cx, cy = g["center"]
-        c.circle(cx * mm, cy * mm, g["radius"] * mm, stroke=1, fill=0)
-    elif ink.shape == "arc":
-        cx, cy = g["center"]
-        r = g["radius"]
-        p = c.beginPath()
-        p.arc((cx - r) * mm, (cy - r) * mm, (cx + r) * mm, (cy + r) * mm,
-              startAng=g["start_deg"], extent=g["end_deg"] - g["start_deg"])
-        c.drawPath(p, stroke=1, fill=0)
-    elif ink.shape == "segment":
-        (x0, y0), (x1, y1) = g["from"], g["to"]
-        c.line(x0 * mm, y0 * mm, x1 * mm, y1 * mm)
-    elif ink.shape == "polyline":
-        pts = g["points"]
-        p = c.beginPath()
-        p.moveTo(pts[0][0] * mm, pts[0][1] * mm)
-        for x, y in pts[1:]:
-            p.lineTo(x * mm, y * mm)
-        if g["closed"]:
-            p.close()
-        c.drawPath(p, stroke=1, fill=0)
+    text_style = "bold" if ink.role in _BOLD_ROLES else "label"
+    _text(c, g["at"][0], g["at"][1], g["text"], g["size_pt"], pen.words, text_style, g["anchor"], g["angle_deg"])
 
 
-def draw_element(c: Canvas, pen: _Pen, el, holes: Holes = Holes()) -> None:
-    """One element, as its inks (none for a line thinned away).  A line's
-    or dot's PDF operators are kept with the element (:func:`_drawn`), so
-    the parts a class set's kits share (#12) are turned into operators
-    once; the bytes are the ones reportlab's own calls write."""
-    for ink, code in _drawn(el, pen.dims, holes):
-        if code is None:
-            draw_ink(c, pen, ink)
-            continue
-        if ink.shape == "dot":
-            c.setFillGray(0.0)
-        else:
-            pen.use(ink.stroke, ink.role)
-        c.addLiteral(code)
+def draw_elements(c: Canvas, pen: _Pen, elements, holes: Holes = Holes()) -> None:
+    """Elements, each as its inks (none for a line thinned away).  A
+    line's or dot's PDF operators are kept with the element
+    (:func:`_drawn`), so the parts a class set's kits share (#12) are
+    turned into operators once."""
+    add = c._code.append
+    for drawn in _drawn(elements, pen.dims, holes):
+        for ink, code in drawn:
+            if code is None:
+                draw_ink(c, pen, ink)
+                continue
+            if ink.shape == "dot":
+                c.setFillGray(0.0)
+            else:
+                pen.use(ink.stroke, ink.role)
+            add(code)
 
 
-#: Each drawn element's inks with their operators, by the element's
-#: identity: ``id -> (element, holes, dims, ((ink, code or None), ...))``.
-_DRAWN: dict[int, tuple] = {}
+#: Each drawn element's inks with their operators, per hole sizes and
+#: line weights, by the element's identity:
+#: ``(holes, id(dims)) -> (dims, {id: (element, ((ink, code or None), ...))})``.
+_DRAWN: dict[tuple, tuple] = {}
 #: The most elements kept (a few kits' worth; then the store starts afresh).
 _DRAWN_MOST = 40_000
 
 
-def _drawn(el, dims, holes: Holes) -> tuple:
-    kept = _DRAWN.get(id(el))
-    if kept is not None and kept[0] is el and kept[1] == holes and kept[2] is dims:
-        return kept[3]
-    drawn = tuple((ink, _operators(ink)) for ink in inks(el, dims, holes))
-    if len(_DRAWN) >= _DRAWN_MOST:
-        _DRAWN.clear()
-    _DRAWN[id(el)] = (el, holes, dims, drawn)
-    return drawn
+def _drawn(elements, dims, holes: Holes) -> list[tuple]:
+    """Each element's inks with their operators (None for text): those
+    not kept yet made together, their numbers written in one pass
+    (:func:`kitgen.render.pdf_canvas.pt_texts`)."""
+    store = _DRAWN.get((holes, id(dims)))
+    if store is None or store[0] is not dims:
+        store = _DRAWN[(holes, id(dims))] = (dims, {})
+    kept = store[1]
+    out, missing = [], []
+    for el in elements:
+        got = kept.get(id(el))
+        if got is None or got[0] is not el:
+            got = (el, ())
+            missing.append(len(out))
+        out.append(got[1])
+    if missing:
+        if sum(len(s[1]) for s in _DRAWN.values()) + len(missing) > _DRAWN_MOST:
+            _DRAWN.clear()
+            _DRAWN[(holes, id(dims))] = (dims, kept)
+            kept.clear()
+        each = [[(ink, _ink_numbers_pt(ink)) for ink in inks(elements[i], dims, holes)] for i in missing]
+        texts = pt_texts([n for el_inks in each for _, numbers in el_inks for n in numbers])
+        k = 0
+        for i, el_inks in zip(missing, each):
+            drawn = []
+            for ink, numbers in el_inks:
+                drawn.append((ink, _ink_operators(ink, texts[k:k + len(numbers)])))
+                k += len(numbers)
+            out[i] = tuple(drawn)
+            kept[id(elements[i])] = (elements[i], out[i])
+    return out
 
 
-#: A decimal number in a path's operators.
-_NUMBER = re.compile(r"-?\d*\.\d+")
-
-
-def _thousandths(match) -> str:
-    """A number of points written to the thousandth (0.35 micrometres,
-    far below any printer's dot), without the digits beyond it that
-    reportlab writes (seven significant ones): fewer bytes (#12)."""
-    text = f"{round(float(match.group()), 3):.3f}".rstrip("0").rstrip(".")
-    if text in ("-0", ""):
-        return "0"
-    return text.replace("0.", ".", 1) if text.startswith(("0.", "-0.")) else text
-
-
-def _operators(ink) -> str | None:
-    """The PDF path operators of a line or dot ink, as the canvas's
-    ``circle``, ``line`` and ``drawPath`` write them (the canvas joins its
-    operators with newlines, and fills even-odd unless told otherwise),
-    each number to the thousandth of a point (:func:`_thousandths`); None
-    for text, which is drawn through the fonts each time."""
-    g = ink.geom
-    code: list[str] = []
-    if ink.shape in ("dot", "circle"):
-        (cx, cy), r = g["center"], g["radius"]
-        PDFPathObject(code=code).ellipse((cx - r) * mm, (cy - r) * mm, 2 * r * mm, 2 * r * mm)
-        code.append(PATH_OPS[(0, 1, FILL_EVEN_ODD) if ink.shape == "dot" else (1, 0, FILL_EVEN_ODD)])
-    elif ink.shape == "arc":
-        (cx, cy), r = g["center"], g["radius"]
-        p = PDFPathObject()
-        p.arc((cx - r) * mm, (cy - r) * mm, (cx + r) * mm, (cy + r) * mm,
-              startAng=g["start_deg"], extent=g["end_deg"] - g["start_deg"])
-        code += [p.getCode(), PATH_OPS[1, 0, FILL_EVEN_ODD]]
-    elif ink.shape == "segment":
+def _ink_numbers_pt(ink) -> list[float]:
+    """The numbers (pt) of a line's or dot's path, in the order its
+    operators write them (none for text)."""
+    shape, g = ink.shape, ink.geom
+    if shape == "segment":
         (x0, y0), (x1, y1) = g["from"], g["to"]
-        code.append("n %s m %s l S" % (fp_str(x0 * mm, y0 * mm), fp_str(x1 * mm, y1 * mm)))
-    elif ink.shape == "polyline":
-        pts = g["points"]
-        p = PDFPathObject()
-        p.moveTo(pts[0][0] * mm, pts[0][1] * mm)
-        for x, y in pts[1:]:
-            p.lineTo(x * mm, y * mm)
-        if g["closed"]:
-            p.close()
-        code += [p.getCode(), PATH_OPS[1, 0, FILL_EVEN_ODD]]
-    else:
-        return None
-    return _NUMBER.sub(_thousandths, "\n".join(code))
+        return [x0 * mm, y0 * mm, x1 * mm, y1 * mm]
+    if shape == "polyline":
+        return [n * mm for point in g["points"] for n in point]
+    if shape in ("dot", "circle"):
+        (cx, cy), r = g["center"], g["radius"]
+        x, y, d = (cx - r) * mm, (cy - r) * mm, 2 * r * mm
+        return _arc_numbers(x, y, x + d, y + d, 0, 360)
+    if shape == "arc":
+        (cx, cy), r = g["center"], g["radius"]
+        return _arc_numbers((cx - r) * mm, (cy - r) * mm, (cx + r) * mm, (cy + r) * mm,
+                            g["start_deg"], g["end_deg"] - g["start_deg"])
+    return []
+
+
+def _arc_numbers(x0_pt: float, y0_pt: float, x1_pt: float, y1_pt: float, start_deg: float, extent_deg: float) -> list:
+    """The start and the Bézier curves' points of reportlab's arc through
+    the box (:func:`reportlab.pdfgen.pdfgeom.bezierArc`), in a row."""
+    curves = bezierArc(x0_pt, y0_pt, x1_pt, y1_pt, start_deg, extent_deg)
+    return [curves[0][0], curves[0][1], *(n for curve in curves for n in curve[2:])]
+
+
+def _ink_operators(ink, texts: list[str]) -> str | None:
+    """The PDF path operators of a line or dot ink, its numbers
+    (:func:`_ink_numbers_pt`) written to the thousandth of a point
+    (``texts``, :func:`kitgen.render.pdf_canvas.pt_text`): the bytes the
+    canvas's ``circle``, ``line`` and ``drawPath`` would write (the canvas
+    joins its operators with newlines, a path object its own with spaces,
+    and fills even-odd unless told otherwise), written here rather than
+    through reportlab's path objects and then rewritten (#12); None for
+    text, which is drawn through the fonts each time."""
+    shape = ink.shape
+    if shape == "segment":
+        return "n %s %s m %s %s l S" % tuple(texts)
+    if shape == "polyline":
+        return _path(texts, "l", ink.geom["closed"]) + "\nS"
+    if shape == "arc":
+        return _path(texts, "c") + "\nS"
+    if shape in ("dot", "circle"):
+        # The canvas's ellipse writes each operator on a line of its own.
+        code = _path(texts, "c").replace(" m ", " m\n").replace(" c ", " c\n").replace("n ", "n\n", 1)
+        return code + ("\nf*" if shape == "dot" else "\nS")
+    return None
+
+
+def _path(texts: list[str], ops: str, closed: bool = False) -> str:
+    """A path object's operators (reportlab's ``PDFPathObject`` joins
+    them with spaces): a moveto to the first two numbers, then an
+    operator ``ops`` for each group of the rest (``l`` with two numbers,
+    ``c`` with six), then ``h`` if ``closed``."""
+    group = 2 if ops == "l" else 6
+    code = ("n %s %s m" + (" %s" * group + " " + ops) * ((len(texts) - 2) // group)) % tuple(texts)
+    return code + " h" if closed else code
 
 
 def _draw_placement(c: Canvas, placement, dims, words, printing, only=None) -> None:
@@ -236,13 +256,13 @@ def _draw_placement(c: Canvas, placement, dims, words, printing, only=None) -> N
         c.rotate(placement.rotation_deg)
     c.setLineCap(0)
     c.setLineJoin(1)
-    pen = _Pen(c, dims, words, printing.colour)
-    holes = holes_of(printing)
-    for el in placement.part.elements:
-        if only is not None and not only(el):
-            continue
-        if piece is None or meets(turn_box(element_box_mm(el), placement.rotation_deg), piece.window_mm):
-            draw_element(c, pen, el, holes)
+    elements = placement.part.elements
+    if only is not None:
+        elements = [el for el in elements if only(el)]
+    if piece is not None:
+        turn, window = placement.rotation_deg, piece.window_mm
+        elements = [el for el in elements if meets(turn_box(element_box_mm(el), turn), window)]
+    draw_elements(c, _Pen(c, dims, words, printing.colour), elements, holes_of(printing))
     c.restoreState()
     c.addLiteral("EMC")
     if only is not None:
@@ -336,9 +356,7 @@ def draw_figures(c: Canvas, figures, words, colour: bool) -> None:
         c.translate(placed.x_mm * mm, placed.y_mm * mm)
         c.setLineCap(0)
         c.setLineJoin(1)
-        pen = _Pen(c, fig.dims, words, colour)
-        for el in fig.elements:
-            draw_element(c, pen, el)
+        draw_elements(c, _Pen(c, fig.dims, words, colour), fig.elements)
         c.restoreState()
 
 

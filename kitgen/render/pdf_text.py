@@ -18,6 +18,8 @@ starting side.
 from __future__ import annotations
 
 import hashlib
+
+from reportlab.lib.rl_accel import fp_str
 from reportlab.lib.units import mm
 from reportlab.pdfbase import pdfmetrics
 from reportlab.pdfbase.pdfdoc import PDFName
@@ -102,10 +104,13 @@ def _shaped_str(run: Run) -> ShapedStr:
     """The run's HarfBuzz glyphs as a reportlab ShapedStr: each glyph by a
     character reportlab maps to it (a private-use one for glyphs, such as
     contextual forms, that no character maps to), with its advance and
-    offsets in thousandths of the size."""
+    offsets in thousandths of the size.  Kept per run and font object: the
+    private-use characters, once given, stay the font's (#12)."""
     ttf = pdfmetrics.getFont(run.face.name)
+    kept = _SHAPED.get(id(run))
+    if kept is not None and kept[0] is run and kept[1] is ttf:
+        return kept[2]
     face = ttf.face
-    upem = fonts.units_per_em(run.face)
     chars, data = [], []
     order = fonts._metrics(run.face)[2]
     for g in run.glyphs:
@@ -115,27 +120,51 @@ def _shaped_str(run: Run) -> ShapedStr:
         chars.append(chr(uchar))
         data.append(ShapeData(g.cluster, g.x_advance_em * 1000.0, 0, g.x_offset_em * 1000.0,
                               g.y_offset_em * 1000.0, face.charWidths[uchar]))
-    del upem
-    return ShapedStr("".join(chars), shapeData=data)
+    shaped = ShapedStr("".join(chars), shapeData=data)
+    if len(_SHAPED) >= _SHAPED_MOST:
+        _SHAPED.clear()
+    _SHAPED[id(run)] = (run, ttf, shaped)
+    return shaped
+
+
+#: Shaped runs as reportlab strings, by the run's identity: (run, font, string).
+_SHAPED: dict[int, tuple] = {}
+_SHAPED_MOST = 20_000
 
 
 def _actual_text(text: str) -> str:
     return "<FEFF" + text.encode("utf-16-be").hex().upper() + ">"
 
 
+def _run_operators(c, run: Run, size_pt: float) -> str:
+    """A run's text operators between its text matrix and ``T*``, as
+    reportlab's text object formats them for the canvas's font (its
+    subsets' fonts and codes, its glyphs' positions).  Kept in the
+    document per run and size: a character's code in its subset, once
+    given, stays, so a run written again is written the same (#12)."""
+    kept = c._doc.__dict__.setdefault("_kitgen_run_operators", {})
+    key = (run, size_pt)
+    code = kept.get(key)
+    if code is None:
+        code = kept[key] = c.beginText()._formatText(_shaped_str(run) if run.shaped else run.text)
+    return code
+
+
 def draw_line(c, line: Line, x_pt: float, baseline_pt: float, size_pt: float) -> None:
-    """Draw a set line with its left end at ``x_pt`` on ``baseline_pt``."""
+    """Draw a set line with its left end at ``x_pt`` on ``baseline_pt``:
+    each run as one text object, as the canvas's ``drawString`` writes it."""
+    code = c._code
     tagged = line.rtl or any(r.shaped for r in line.runs)
     if tagged:
-        c.addLiteral(f"/Span <</ActualText {_actual_text(line.text)}>> BDC")
+        code.append(f"/Span <</ActualText {_actual_text(line.text)}>> BDC")
     x = x_pt
     for run in line.runs:
         _register(run.face)
         c.setFont(run.face.name, size_pt)
-        c.drawString(x, baseline_pt, _shaped_str(run) if run.shaped else run.text)
+        code.append("BT 1 0 0 1 %s Tm %s T* ET" % (fp_str(x, baseline_pt), _run_operators(c, run, size_pt)))
         x += run.width_em * size_pt
     if tagged:
-        c.addLiteral("EMC")
+        code.append("EMC")
 
 
 def draw_text(c, x_mm: float, y_mm: float, string: str, size_pt: float, words, style: str = "label",
