@@ -162,3 +162,20 @@ def test_every_line_of_an_arabic_kit_agrees_with_the_reference():
         got, rtl = visual(line, words)
         assert got == reference(line, rtl), line
         _numbers_read_left_to_right(line, got)
+
+
+#: Right-to-left letters (Arabic, Hebrew), an Arabic mark, spaces, signs
+#: and punctuation, and an isolated number's stand-in: no left-to-right
+#: letter and no number, the lines the levels' short cut sets (#12).
+RTL_PLAIN = "ابت شمس ליל \u064e ()[]-+%°:.,!\ufffc"
+
+
+@settings(max_examples=300, deadline=None)
+@given(st.text(alphabet=RTL_PLAIN, max_size=24))
+def test_a_line_without_left_to_right_letters_reads_right_to_left_as_the_reference(text):
+    """Every character at level 1: the line shown wholly reversed, as
+    python-bidi shows it in a right-to-left paragraph."""
+    from kitgen.words.shaping import embedding_levels
+
+    assert embedding_levels(text, True) == [1] * len(text)
+    assert reference(text, True) == text[::-1]

@@ -29,6 +29,7 @@ import re
 import unicodedata
 from dataclasses import dataclass
 from functools import lru_cache
+from itertools import groupby
 from typing import NamedTuple
 
 import uharfbuzz as hb
@@ -100,6 +101,10 @@ _INITIATORS = (LRI, RLI, FSI)
 _STAND_IN = "\ufffc"
 
 
+#: The isolates' initiators and PDI (U+2066 to U+2069).
+_MARKS = re.compile(f"[{LRI}{RLI}{FSI}{PDI}]")
+
+
 def isolates(text: str) -> tuple[str, list[tuple[str, str]]]:
     """``text`` with each outermost isolate replaced by one stand-in
     character, and the isolates' (initiator, content) in order.  An
@@ -108,24 +113,25 @@ def isolates(text: str) -> tuple[str, list[tuple[str, str]]]:
     if LRI not in text and RLI not in text and FSI not in text and PDI not in text:
         return text, []
     outer, found = [], []
-    i, n = 0, len(text)
-    while i < n:
-        ch = text[i]
-        if ch in _INITIATORS:
-            depth, j = 1, i + 1
-            while j < n and depth:
-                depth += text[j] in _INITIATORS
-                depth -= text[j] == PDI
-                j += 1
-            end = j - 1 if depth == 0 else j
-            found.append((ch, text[i + 1:end]))
-            outer.append(_STAND_IN)
-            i = j
-        elif ch == PDI:
-            i += 1
+    depth, start = 0, 0   # the isolate's depth; where the text outside it (or its content) starts
+    for m in _MARKS.finditer(text):   # only the marks move the depth (#12: not every character)
+        j, ch = m.start(), m.group()
+        if depth == 0:
+            outer.append(text[start:j])
+            start = j + 1
+            if ch != PDI:
+                opened, depth = ch, 1
         else:
-            outer.append(ch)
-            i += 1
+            depth += 1 if ch != PDI else -1
+            if depth == 0:
+                found.append((opened, text[start:j]))
+                outer.append(_STAND_IN)
+                start = j + 1
+    if depth:
+        found.append((opened, text[start:]))
+        outer.append(_STAND_IN)
+    else:
+        outer.append(text[start:])
     return "".join(outer), found
 
 
@@ -163,6 +169,15 @@ def isolate_numbers(text: str) -> str:
 _CLASS: dict[str, str] = {}
 
 
+#: Bidirectional classes that leave a right-to-left line at level 1
+#: throughout: with no L, EN or AN, W1-W7 leave only R (AL turned R by W3)
+#: and neutrals (ES, ET, CS turned ON by W6, W4 and W5 needing a number),
+#: N1-N2 give every neutral the R around it or the paragraph's own R at
+#: either end, I2 keeps R at level 1 and L1 resets to 1.  An Arabic line
+#: whose numbers are isolated is such a line (#12).
+_RTL_PLAIN_CLASSES = frozenset({"R", "AL", "NSM", "BN", "B", "S", "WS", "ON", "ES", "ET", "CS"})
+
+
 def _class(ch: str) -> str:
     return _CLASS.setdefault(ch, unicodedata.bidirectional(ch) or "L")
 
@@ -195,6 +210,8 @@ def embedding_levels(text: str, rtl: bool) -> list[int]:
     n = len(t)
     if not rtl and _PLAIN_CLASSES.issuperset(t):
         return [0] * n   # no right-to-left letter or number: W1-I2 leave all at 0
+    if rtl and _RTL_PLAIN_CLASSES.issuperset(t):
+        return [1] * n   # no left-to-right letter or number: W1-I2 and L1 leave all at 1
     for i in range(n):                                   # W1
         if t[i] == "NSM":
             t[i] = t[i - 1] if i else sor
@@ -286,23 +303,26 @@ def _faces_for(text: str, stack: tuple[Face, ...]) -> list[Face]:
     face holds them, so a word is not split between fonts."""
     out: list[Face] = []
     table = _FACE_OF.setdefault(stack, {})
+    get = table.get
     for ch in text:
-        found = table.get(ch)
+        found = get(ch)
         if found is None:
             cat = unicodedata.category(ch)
-            found = table[ch] = (cat[0] in "MZPS" or cat in ("Cf", "Nd"),
-                                 next((f for f in stack if fonts.has_char(f, ch)), stack[-1]))
-        stays, face = found
-        if stays and out and fonts.has_char(out[-1], ch):
+            holders = tuple(f for f in stack if fonts.has_char(f, ch))
+            stays = cat[0] in "MZPS" or cat in ("Cf", "Nd")
+            found = table[ch] = (holders if stays else (), holders[0] if holders else stack[-1])
+        holders, face = found
+        if holders and out and out[-1] in holders:
             out.append(out[-1])
         else:
             out.append(face)
     return out
 
 
-#: Per stack, each character met: (whether it stays with the face before
-#: it where that face holds it, the first face of the stack that holds it).
-_FACE_OF: dict[tuple[Face, ...], dict[str, tuple[bool, Face]]] = {}
+#: Per stack, each character met: (the faces of the stack that hold it
+#: when it stays with the face before it where that face holds it, else
+#: none; the first face of the stack that holds it).
+_FACE_OF: dict[tuple[Face, ...], dict[str, tuple[tuple[Face, ...], Face]]] = {}
 
 
 @lru_cache(maxsize=16)
@@ -396,6 +416,9 @@ def _line_is_rtl(text: str, prefer_rtl: bool) -> bool:
         c in ("L", "R", "AL") for c in _classes(outer)))
 
 
+#: Runs kept measured: a wrapped line's runs before its last word are
+#: those of the shorter trial lines before it (#12).
+@lru_cache(maxsize=16384)
 def _run_width(face: Face, text: str, level: int) -> float:
     """``_run(face, text, level).width_em``, the same float, without
     making the run's glyphs."""
@@ -504,16 +527,13 @@ def _visual_runs(text: str, stack: tuple[Face, ...], rtl: bool, make=None) -> li
     levels = embedding_levels(outer, rtl)
     faces = _faces_for(outer, stack)
     pieces: list[tuple[Face | None, int, str]] = []
-    start = 0   # of the piece being gathered, if any
-    for i, (ch, face, level) in enumerate(zip(outer, faces, levels)):
-        if i > start and (ch == _STAND_IN or face != faces[start] or level != levels[start]):
-            pieces.append((faces[start], levels[start], outer[start:i]))
-            start = i
-        if ch == _STAND_IN:
-            pieces.append((None, level, ch))
-            start = i + 1
-    if start < len(outer):
-        pieces.append((faces[start], levels[start], outer[start:]))
+    start = 0
+    # Stretches of one face and level (grouped in C, #12), each stand-in
+    # a piece of its own.
+    for (face, level, stand_in), group in groupby(zip(faces, levels, map(_STAND_IN.__eq__, outer))):
+        end = start + len(list(group))
+        pieces += [(None, level, _STAND_IN)] * (end - start) if stand_in else [(face, level, outer[start:end])]
+        start = end
     inner = iter(found)
     runs: list[list[Run]] = []
     for face, level, piece in pieces:
