@@ -328,6 +328,82 @@ def _within_arc(center, box: Box, lo: float, hi: float):
     return None
 
 
+#: What :func:`arcs_meet_boxes` says of a box and a circle or an arc.
+MISSES, MEETS, UNSURE = 0, 1, 2
+
+
+def arcs_meet_boxes(boxes, grow_mm, center_x, center_y, radius_mm, lo_rad, hi_rad, whole):
+    """Whether each box of ``boxes`` (rows), grown by ``grow_mm`` (one
+    value a column), meets each circle or arc (columns: centres, radii,
+    angles, ``whole`` true for a circle), all at once as NumPy arrays:
+    :data:`MISSES` or :data:`MEETS` where the quick tests of :func:`meets`
+    (:func:`_circle_crosses`, :func:`_within_arc`) decide by their
+    margins, far above any rounding, so that the answer is that of
+    :func:`meets`; :data:`UNSURE` where its exact test must decide (#12).
+    ``boxes`` is (x, y, cos, sin, half width, half height) of column
+    arrays, one row a box."""
+    bx, by, c, s, hw0, hh0 = boxes
+    hw, hh = hw0 + grow_mm, hh0 + grow_mm
+    whole = np.asarray(whole, dtype=bool)
+    dx, dy = center_x - bx, center_y - by
+    ax, ay = np.abs(c * dx + s * dy), np.abs(c * dy - s * dx)
+    r = radius_mm
+    ex, ey = ax - hw, ay - hh
+    fx, fy = ax + hw, ay + hh
+    nearest = np.hypot(np.maximum(ex, 0.0), np.maximum(ey, 0.0))
+    farthest = np.hypot(fx, fy)
+    m = SURE_MM + 1e-9 * r
+    miss = (nearest > r + m) | (farthest < r - m)
+    cross = (nearest < r - m) & (farthest > r + m)
+    # a corner as near the circle, or the circle as near touching a side
+    touch = ((np.abs(np.hypot(ex, ey) - r) <= m) | (np.abs(np.hypot(fx, ey) - r) <= m)
+             | (np.abs(np.hypot(ex, fy) - r) <= m)
+             | ((ay <= hh + m) & ((np.abs(np.abs(ex) - r) <= m) | (np.abs(fx - r) <= m)))
+             | ((ax <= hw + m) & ((np.abs(np.abs(ey) - r) <= m) | (np.abs(fy - r) <= m))))
+    cross &= ~touch
+    # an arc: the box's bounding disc seen from the centre within its angles, or outside them
+    rb = np.hypot(hw, hh)
+    dist = np.hypot(dx, dy)
+    far = dist > rb + SURE_MM
+    half = np.arcsin(np.where(far, rb / np.where(far, dist, 1.0), 0.0))
+    rel = np.mod(np.arctan2(-dy, -dx) - lo_rad, 2 * math.pi)
+    span = hi_rad - lo_rad
+    within = whole | (far & (rel - half >= SURE_RAD) & (rel + half <= span - SURE_RAD))
+    outside = ~whole & far & (rel - half >= span + SURE_RAD) & (rel + half <= 2 * math.pi - SURE_RAD)
+    out = np.full(miss.shape, UNSURE, dtype=np.int8)
+    out[cross & within] = MEETS
+    out[miss | (cross & outside)] = MISSES
+    return out
+
+
+def segments_meet_boxes(boxes, grow_mm, p_x, p_y, q_x, q_y):
+    """Whether each box of ``boxes`` (rows, as in :func:`arcs_meet_boxes`),
+    grown by ``grow_mm`` (one value a column), meets each segment p q
+    (columns), all at once as NumPy arrays, by the separating-axis test
+    (the box's two sides and the segment's normal): :data:`MISSES` where
+    an axis parts them by :data:`SURE_MM`, :data:`MEETS` where along every
+    axis either would have to move twice that to part them (they then meet within the
+    box shrunk by more than SURE_MM / sqrt 2 all round, far above the
+    rounding of :func:`segment_inside`), else :data:`UNSURE` (#12)."""
+    bx, by, c, s, hw0, hh0 = boxes
+    hw, hh = hw0 + grow_mm, hh0 + grow_mm
+    gaps = []
+    for ux, uy, half in ((c, s, hw), (-s, c, hh)):   # along the box's sides
+        mid, a, b = ux * bx + uy * by, ux * p_x + uy * p_y, ux * q_x + uy * q_y
+        # how far either would have to move along the axis to part them
+        gaps.append(np.minimum(mid + half - np.minimum(a, b), np.maximum(a, b) - (mid - half)))
+    dx, dy = q_x - p_x, q_y - p_y
+    length = np.hypot(dx, dy)
+    nx, ny = -dy / np.where(length > 0, length, 1.0), dx / np.where(length > 0, length, 1.0)
+    reach = hw * np.abs(nx * c + ny * s) + hh * np.abs(ny * c - nx * s)
+    gaps.append(reach - np.abs(nx * (bx - p_x) + ny * (by - p_y)))
+    least = np.minimum(np.minimum(gaps[0], gaps[1]), gaps[2])
+    out = np.full(least.shape, UNSURE, dtype=np.int8)
+    out[(least > 2 * SURE_MM) & (length > 1e-6)] = MEETS
+    out[(gaps[0] < -SURE_MM) | (gaps[1] < -SURE_MM) | ((gaps[2] < -SURE_MM) & (length > 1e-6))] = MISSES
+    return out
+
+
 #: Side (mm) of the grid cells by which a polyline's segments are found.
 POLY_CELL_MM = 4.0
 #: A query spanning more cells than this reads every segment's bounds instead.

@@ -37,9 +37,9 @@ import numpy as np
 from ..geometry import model
 from ..geometry.style import dot_radius_mm, pin_cross_half_mm, stroke_width_mm, zenith_mark_half_mm
 from ..projection.stereographic import equatorial_vector, horizontal_vector, project_vectors
-from .breaks import Box, boxes_overlap, meets
+from .breaks import MEETS, UNSURE, Box, arcs_meet_boxes, boxes_overlap, meets, segments_meet_boxes
 from .labels import MARGIN_MM
-from .stroke_index import BoxIndex, StrokeIndex
+from .stroke_index import BoxIndex, StrokeArrays, StrokeIndex
 
 STROKE_SHAPES = ("circle", "arc", "segment", "polyline")
 #: Clear paper (mm) kept between a label and every drawn line that is not
@@ -68,7 +68,8 @@ class Room:
 
     Every test answers as if each box were tried against every label and
     every line; grid indexes (:mod:`kitgen.parts.stroke_index`) only leave
-    out those too far off to meet it (#12)."""
+    out those too far off to meet it, and :meth:`screen` decides many
+    boxes at once only where its margins leave no doubt (#12)."""
 
     def __init__(self, disc_mm: float, dims, keep_out=()):
         self.disc = disc_mm - MARGIN_MM
@@ -78,6 +79,7 @@ class Room:
         self._labels = BoxIndex()
         self._half_width: dict[str, float] = {}
         self._lists: dict[int, tuple] = {}
+        self._arrays = StrokeArrays()
 
     def inside(self, box: Box) -> bool:
         # Far inside the rim (or wholly beyond it) by more than any
@@ -168,11 +170,186 @@ class Room:
         self._lists[id(elements)] = (elements, len(elements), near)   # the list kept: its id stays its own
         return near
 
+    def screen(self, places: "Places", idx, elements, clear_mm: float, widths: bool = True,
+               every: bool = True):
+        """For the places ``idx`` (an index array) of ``places``: how the
+        strokes of ``elements``, grown as in :meth:`clear_of` (by
+        ``clear_mm`` and, with ``widths``, half the line's width), stand
+        to each box: how many surely meet it (a list along ``idx``), and
+        by position in ``idx`` (where there are any) the (stroke, growth
+        in mm) that the exact test must decide; without ``every``, a box
+        that a circle or an arc surely meets is not tested against the
+        segments (its count then only says that it is not clear).  The
+        pairs of a box and a circle or arc that may meet (as
+        :func:`kitgen.parts.breaks.may_meet` finds them), and of a box
+        and a segment in a run whose bounds come near it, are decided at
+        once as arrays (:func:`kitgen.parts.breaks.arcs_meet_boxes`,
+        :func:`kitgen.parts.breaks.segments_meet_boxes`; a polyline meets
+        a box where one of its segments does), the others miss (#12)."""
+        n = len(idx)
+        if n == 0 or not elements:
+            return [0] * n, {}
+        arcs, segs, arc_cols, run_cols = self._columns(elements)
+        strokes = self._arrays.elements
+        grow = clear_mm + self._arrays.half_widths(self._half_width) if widths else np.full(len(strokes), clear_mm)
+        bx, by, c, sn = places.x[idx], places.y[idx], places.cos[idx], places.sin[idx]
+        hw, hh = np.full(n, places.half_w), np.full(n, places.half_h)
+        reach = np.hypot(hw, hh) + 1e-3   # beyond a grown box's corners by far more than rounding
+        unsure = []
+        met = np.zeros(n, dtype=int)
+        if len(arc_cols):
+            g = grow[arcs["owner"][arc_cols]]
+            dist = np.hypot(arcs["x"][arc_cols] - bx[:, None], arcs["y"][arc_cols] - by[:, None])
+            i, j = np.nonzero(np.abs(dist - arcs["r"][arc_cols]) <= reach[:, None] + 1.5 * g)
+            j = arc_cols[j]
+            own = arcs["owner"][j]
+            got = arcs_meet_boxes((bx[i], by[i], c[i], sn[i], hw[i], hh[i]), grow[own], arcs["x"][j],
+                                  arcs["y"][j], arcs["r"][j], arcs["lo"][j], arcs["hi"][j], arcs["whole"][j])
+            met += np.bincount(i[got == MEETS], minlength=n)   # one stroke an arc: each pair once
+            unsure.append(i[got == UNSURE] * len(strokes) + own[got == UNSURE])
+        todo = np.arange(n) if every else np.nonzero(met == 0)[0]
+        if len(run_cols) and len(todo):
+            r = reach[todo][:, None] + 1.5 * grow[segs["run_owner"][run_cols]]
+            x, y = bx[todo][:, None], by[todo][:, None]
+            i, j = np.nonzero((segs["lox"][run_cols] - r <= x) & (x <= segs["hix"][run_cols] + r)
+                              & (segs["loy"][run_cols] - r <= y) & (y <= segs["hiy"][run_cols] + r))
+            i, j = todo[i], run_cols[j]
+            count = segs["size"][j]
+            if len(count):   # every segment of those runs
+                k = np.repeat(segs["start"][j] - (np.cumsum(count) - count), count) + np.arange(int(count.sum()))
+                i = np.repeat(i, count)
+                own = segs["owner"][k]
+                got = segments_meet_boxes((bx[i], by[i], c[i], sn[i], hw[i], hh[i]), grow[own],
+                                          segs["px"][k], segs["py"][k], segs["qx"][k], segs["qy"][k])
+                key = i * len(strokes) + own
+                hit = np.unique(key[got == MEETS])   # a polyline counted once
+                met += np.bincount(hit // len(strokes), minlength=n)
+                unsure.append(np.setdiff1d(key[got == UNSURE], hit))
+        out = {}
+        if unsure:
+            half = self._half_width
+            for k in np.concatenate(unsure).tolist():
+                el = strokes[k % len(strokes)]
+                out.setdefault(k // len(strokes), []).append((el, clear_mm + (half[el.stroke] if widths else 0.0)))
+        return met.tolist(), out
+
+    def _columns(self, elements):
+        """The arrays of every stroke entered (:class:`StrokeArrays`) and,
+        kept with the list (see :meth:`_members`), which of their circles
+        and arcs, and of their runs of segments, are strokes of ``elements``."""
+        near = self._members(elements)
+        self._arrays.enter(elements)
+        arcs, segs = self._arrays.arrays()
+        got = near.get("columns")
+        if got is None or got[0] is not arcs:
+            member = np.zeros(len(self._arrays.elements), dtype=bool)
+            member[[self._arrays.position[id(el)] for el in elements if id(el) in self._arrays.position]] = True
+            got = near["columns"] = (arcs, np.nonzero(member[arcs["owner"]])[0],
+                                     np.nonzero(member[segs["run_owner"]])[0])
+        return arcs, segs, got[1], got[2]
+
     def free(self, box: Box, protected=(), near=(), clear_mm: float = CLEAR_MM) -> bool:
         """Inside the drawing, clear of the labels, ``clear_mm`` from the
         lines ``protected`` and :data:`MARGIN_MM` from those ``near``."""
         return (self.inside(box) and self.clear_of_labels(box) and self.clear_of(box, near)
                 and self.clear_of(box, protected, clear_mm))
+
+
+class Places:
+    """Boxes of one size at many places (centres as ``Box`` takes them,
+    angles in radians), as arrays for :meth:`Room.screen`, each made a
+    :class:`Box` only when it is asked for (#12)."""
+
+    def __init__(self, centers, angles_rad, half_w: float, half_h: float):
+        self.centers, self.angles = centers, angles_rad
+        self.half_w, self.half_h = half_w, half_h
+        self.x = np.array([c[0] for c in centers], dtype=float)
+        self.y = np.array([c[1] for c in centers], dtype=float)
+        a = np.array(angles_rad, dtype=float)
+        self.cos, self.sin = np.cos(a), np.sin(a)
+        self._boxes: dict[int, Box] = {}
+
+    def __len__(self) -> int:
+        return len(self.centers)
+
+    def box(self, i: int) -> Box:
+        b = self._boxes.get(i)
+        if b is None:
+            b = self._boxes[i] = Box(self.centers[i], self.angles[i], self.half_w, self.half_h)
+        return b
+
+    def inside(self, room: Room) -> np.ndarray:
+        """:meth:`Room.inside` of every box: those far inside the rim or
+        wholly beyond it decided at once, the others box by box."""
+        r, radius = np.hypot(self.x, self.y), math.hypot(self.half_w, self.half_h)
+        out = r + radius < room.disc - 1e-6
+        band = np.nonzero(~out & ~(r - radius > room.disc + 1e-6))[0]
+        if len(band):   # near the rim: the corners, where they clear it by far more than rounding
+            x, y, c, s = self.x[band], self.y[band], self.cos[band], self.sin[band]
+            far = np.zeros(len(band))
+            for dx, dy in ((-self.half_w, -self.half_h), (self.half_w, -self.half_h),
+                           (self.half_w, self.half_h), (-self.half_w, self.half_h)):
+                corner = np.hypot(x + c * dx - s * dy, y + s * dx + c * dy)
+                far = np.maximum(far, corner)
+            out[band] = far < room.disc - 1e-6
+            for i in band[(far >= room.disc - 1e-6) & (far <= room.disc + 1e-6)].tolist():
+                out[i] = room.inside(self.box(i))
+        return out
+
+
+class Screen:
+    """Whether boxes of ``places`` (those of the index array ``idx``)
+    keep clear of a list of strokes (the answer of :meth:`Room.clear_of`)
+    and how many of them run through each (of :meth:`Room.crossed`),
+    worked out for them all at once on first use (:meth:`Room.screen`);
+    a box is asked for by its position in ``idx`` (#12)."""
+
+    def __init__(self, room: Room, places: Places, idx, elements, clear_mm: float, widths: bool = True):
+        self.room, self.places, self.idx, self.elements = room, places, idx, elements
+        self.clear_mm, self.widths = clear_mm, widths
+        self._found = None
+
+    def _verdicts(self, every: bool):
+        if self._found is None or (every and not self._found[0]):
+            self._found = (every,) + self.room.screen(self.places, self.idx, self.elements, self.clear_mm,
+                                                      self.widths, every)
+        return self._found
+
+    def maybe_clear(self) -> list[int]:
+        """The positions, in order, of the boxes no stroke surely meets."""
+        _, met, _ = self._verdicts(False)
+        return [i for i, k in enumerate(met) if k == 0]
+
+    def clear(self, i: int) -> bool:
+        """Whether box ``i`` keeps clear of the strokes (with their widths)."""
+        _, met, unsure = self._verdicts(False)
+        if met[i]:
+            return False
+        box = self.places.box(int(self.idx[i]))
+        return not any(meets(el, box.grown(by)) for el, by in unsure.get(i, ()))
+
+    def crossed(self, i: int, most: int | None = None) -> int:
+        """How many strokes run through box ``i`` grown by the clearance
+        (a screen without the widths), counted no further than ``most``."""
+        _, met, unsure = self._verdicts(True)
+        count = met[i]
+        box = self.places.box(int(self.idx[i]))
+        for el, by in unsure.get(i, ()):
+            if most is not None and count >= most:
+                break
+            count += meets(el, box.grown(by))
+        return count if most is None else min(count, most)
+
+
+def _runs(count: int, first: int, most: int):
+    """The indices 0 to ``count`` - 1 in runs of growing length (index
+    arrays): the first places tried are most often taken, later ones
+    tested many at a time."""
+    at, size = 0, first
+    while at < count:
+        yield np.arange(at, min(count, at + size))
+        at += size
+        size = min(2 * size, most)
 
 
 def upright(angle_rad: float) -> float:
@@ -343,37 +520,39 @@ class PlateLabeller:
         target = pin if at_pin else Box((float(p0[0]), float(p0[1])), 0.0, 0.0, 0.0)
         protected = self.others()
         cands = around(p0, max(STEP_MM, ext.height_mm / 8), max(6 * ext.height_mm, 12.0), prefer)
-        # What does not change from one pass to the next is found once per
-        # place, and only where the place can still be taken: at the pin,
-        # never farther than NEAR_MM (#12).
-        boxes, gaps, base, leads = {}, {}, {}, {}
+        # The places tested many at a time, as arrays, and those no line
+        # surely meets one by one; what does not change from one pass to
+        # the next is found once per place, and only where the place can
+        # still be taken: at the pin, never farther than NEAR_MM (#12).
+        places = Places(cands, [0.0] * len(cands), ext.width_mm / 2, ext.height_mm / 2)
+        far = _far_from(places, target)
+        room = self.room
+        can = places.inside(room) & ~(far & at_pin)
+        base, leads = {}, {}
         # Last, a letter over other lines (broken round it): a pupil must
         # always find the four points (#9).
         for lines, clear in ((protected, CLEAR_MM), (protected, MARGIN_MM), ((), MARGIN_MM)):
-            for k, c in enumerate(cands):
-                b = boxes.get(k)
-                if b is None:
-                    b = boxes[k] = Box((c[0], c[1]), 0.0, ext.width_mm / 2, ext.height_mm / 2)
-                    gaps[k] = _boxes_gap(b, target) > NEAR_MM
-                far = gaps[k]
-                if far and at_pin:
-                    continue
-                # the tests of Room.free, cheapest and likeliest to fail first
-                if not self.room.inside(b) or not self.room.clear_of(b, lines, clear):
-                    continue
-                ok = base.get(k)
-                if ok is None:
-                    ok = base[k] = self.room.clear_of_labels(b) and self.room.clear_of(b, self.reference)
-                if not ok:
-                    continue
-                if far:
-                    if k not in leads:
-                        leads[k] = self._leader(b, p0)
-                    lead = leads[k]
-                    if lead is None:
+            for run in _runs(len(places), 64, 1024):
+                idx = run[can[run]]
+                screen = Screen(room, places, idx, lines, clear)
+                for i in screen.maybe_clear():
+                    if not screen.clear(i):
                         continue
-                    self.out.append(model.segment("cardinal_leader", *lead, "fine", azimuth_deg=az_deg))
-                return self.put("cardinal", b, text, size, azimuth_deg=az_deg)
+                    k = int(idx[i])
+                    b = places.box(k)
+                    ok = base.get(k)
+                    if ok is None:
+                        ok = base[k] = room.clear_of_labels(b) and room.clear_of(b, self.reference)
+                    if not ok:
+                        continue
+                    if far[k]:
+                        if k not in leads:
+                            leads[k] = self._leader(b, p0)
+                        lead = leads[k]
+                        if lead is None:
+                            continue
+                        self.out.append(model.segment("cardinal_leader", *lead, "fine", azimuth_deg=az_deg))
+                    return self.put("cardinal", b, text, size, azimuth_deg=az_deg)
         return self.left_out(text)
 
     def _leader(self, b: Box, p0):
@@ -553,21 +732,32 @@ class PlateLabeller:
         # round it), never another named line.
         named = [e for e in protected if e.role in ("horizon", "equator", "tropic", "twilight")]
         thin = [e for e in protected if e.role not in ("horizon", "equator", "tropic", "twilight")]
-        best = None
+        best, room = None, self.room
         for offset in (0.0, -aside, aside, -aside - bulge, aside + bulge):
             near = self.reference + (els if offset else [])   # one list for all places: its index is kept
             for el in els:
-                for c in points_along(el, _midpoint(el), step_mm=max(1.0, ext.height_mm / 3),
-                                      reach_mm=4 * self.room.disc):
-                    a = c[2]
-                    x, y = c[0] - math.sin(a) * offset, c[1] + math.cos(a) * offset
-                    b = Box((x, y), upright(a), ext.width_mm / 2, ext.height_mm / 2)
-                    if self.room.free(b, protected, near):
-                        return self.put("curve_label", b, text, size, curve=role, **match)
-                    if best is None or best[0] > 0:
-                        if self.room.free(b, named, near):
-                            g = b.grown(MARGIN_MM + 0.3)
-                            cost = self.room.crossed(g, thin, best[0] if best is not None else None)
+                cands = points_along(el, _midpoint(el), step_mm=max(1.0, ext.height_mm / 3),
+                                     reach_mm=4 * room.disc)
+                places = Places([(x - math.sin(a) * offset, y + math.cos(a) * offset) for x, y, a in cands],
+                                [upright(a) for _, _, a in cands], ext.width_mm / 2, ext.height_mm / 2)
+                can = places.inside(room)
+                # the tests of Room.free, for many places at once (#12)
+                for run in _runs(len(places), 32, 512):
+                    idx = run[can[run]]
+                    by_near = Screen(room, places, idx, near, MARGIN_MM)
+                    clear = Screen(room, places, idx, protected, CLEAR_MM)
+                    beside = Screen(room, places, idx, named, CLEAR_MM)
+                    crossing = Screen(room, places, idx, thin, MARGIN_MM + 0.3, widths=False)
+                    # a place clear of every line is clear of the named ones
+                    for i in sorted(set(by_near.maybe_clear()) & set(beside.maybe_clear())):
+                        b = places.box(int(idx[i]))
+                        if not (by_near.clear(i) and room.clear_of_labels(b)):
+                            continue
+                        if clear.clear(i):
+                            return self.put("curve_label", b, text, size, curve=role, **match)
+                        if (best is None or best[0] > 0) and beside.clear(i):
+                            # the thin lines through the box grown by MARGIN_MM + 0.3
+                            cost = crossing.crossed(i, best[0] if best is not None else None)
                             if best is None or cost < best[0]:
                                 best = (cost, b)
         if best is not None:
@@ -580,6 +770,20 @@ def _boxes_gap(b: Box, t: Box) -> float:
     dx = abs(b.center[0] - t.center[0]) - b.half_w - t.half_w
     dy = abs(b.center[1] - t.center[1]) - b.half_h - t.half_h
     return math.hypot(max(dx, 0.0), max(dy, 0.0))
+
+
+def _far_from(places: Places, target: Box) -> np.ndarray:
+    """Whether each box of ``places`` (upright) is farther than
+    :data:`NEAR_MM` from the upright box or point ``target``
+    (:func:`_boxes_gap`), at once; box by box where the gap is that
+    within rounding (#12)."""
+    dx = np.abs(places.x - target.center[0]) - places.half_w - target.half_w
+    dy = np.abs(places.y - target.center[1]) - places.half_h - target.half_h
+    gap = np.hypot(np.maximum(dx, 0.0), np.maximum(dy, 0.0))
+    far = gap > NEAR_MM
+    for i in np.nonzero(np.abs(gap - NEAR_MM) < 1e-9)[0].tolist():
+        far[i] = _boxes_gap(places.box(i), target) > NEAR_MM
+    return far
 
 
 def _box_nearest(b: Box, p):

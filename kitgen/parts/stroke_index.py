@@ -19,6 +19,8 @@ from __future__ import annotations
 
 import math
 
+import numpy as np
+
 #: Side of a grid cell (mm): about a label's height at A4, so that a
 #: query reads a few cells.
 CELL_MM = 4.0
@@ -151,3 +153,83 @@ def _samples(el):
         n = max(1, math.ceil(math.hypot(x1 - x0, y1 - y0) / STEP_MM))
         out += [(x0 + (x1 - x0) * k / n, y0 + (y1 - y0) * k / n) for k in range(1, n + 1)]
     return out
+
+
+#: A polyline's segments are looked for by the bounds of runs this long.
+SEGMENT_RUN = 16
+
+
+class StrokeArrays:
+    """The strokes entered so far as NumPy arrays, for testing many boxes
+    at once (#12): the circles and arcs (centre, radius, angles in
+    radians, whether whole) and the segments, a polyline's among them,
+    each with the position of its stroke; the segments also in runs of
+    up to :data:`SEGMENT_RUN` of one stroke, with their bounds, so that
+    a box's segments are found among the runs whose bounds come near it."""
+
+    def __init__(self):
+        self.elements: list = []
+        self.position: dict[int, int] = {}   # by id: the elements are kept, their ids stay theirs
+        self._built = None
+        self._half = None
+
+    def enter(self, elements) -> None:
+        """Enter every stroke of ``elements`` not yet entered."""
+        for el in elements:
+            if id(el) not in self.position and el.shape in ("circle", "arc", "segment", "polyline"):
+                self.position[id(el)] = len(self.elements)
+                self.elements.append(el)
+                self._built = None
+
+    def arrays(self) -> tuple[dict, dict]:
+        """(arcs, segments) of every stroke entered, as dicts of arrays."""
+        if self._built is None:
+            self._built = (self._arcs(), self._segments())
+        return self._built
+
+    def half_widths(self, half_mm: dict) -> np.ndarray:
+        """Half the line's width (``half_mm`` by stroke) of every stroke entered."""
+        got = self._half
+        if got is None or len(got) != len(self.elements):
+            got = self._half = np.array([half_mm[el.stroke] for el in self.elements], dtype=float)
+        return got
+
+    def _arcs(self) -> dict:
+        els = [(k, el) for k, el in enumerate(self.elements) if el.shape in ("circle", "arc")]
+        whole = [el.shape == "circle" for _, el in els]
+        return {"owner": np.array([k for k, _ in els], dtype=int),
+                "x": np.array([el.geom["center"][0] for _, el in els], dtype=float),
+                "y": np.array([el.geom["center"][1] for _, el in els], dtype=float),
+                "r": np.array([el.geom["radius"] for _, el in els], dtype=float),
+                "lo": np.array([0.0 if w else math.radians(el.geom["start_deg"]) for (_, el), w in zip(els, whole)]),
+                "hi": np.array([2 * math.pi if w else math.radians(el.geom["end_deg"])
+                                for (_, el), w in zip(els, whole)]),
+                "whole": np.array(whole, dtype=bool)}
+
+    def _segments(self) -> dict:
+        ends, owner = [], []
+        for k, el in enumerate(self.elements):
+            g = el.geom
+            if el.shape == "segment":
+                pts = [g["from"], g["to"]]
+            elif el.shape == "polyline":
+                pts = list(g["points"]) + ([g["points"][0]] if g["closed"] else [])
+            else:
+                continue
+            ends += [(p[0], p[1], q[0], q[1]) for p, q in zip(pts, pts[1:])]
+            owner += [k] * (len(pts) - 1)
+        e = np.array(ends, dtype=float).reshape(-1, 4)
+        owner = np.array(owner, dtype=int)
+        # runs of SEGMENT_RUN segments of one stroke
+        first = np.ones(len(owner), dtype=bool)
+        first[1:] = owner[1:] != owner[:-1]
+        run = np.cumsum(first) - 1
+        at = np.arange(len(owner)) - np.nonzero(first)[0][run]
+        start = np.nonzero(at % SEGMENT_RUN == 0)[0]
+        lox, hix = np.minimum(e[:, 0], e[:, 2]), np.maximum(e[:, 0], e[:, 2])
+        loy, hiy = np.minimum(e[:, 1], e[:, 3]), np.maximum(e[:, 1], e[:, 3])
+        reduce = (lambda f, a: f.reduceat(a, start)) if len(start) else (lambda f, a: a[:0])
+        return {"owner": owner, "px": e[:, 0], "py": e[:, 1], "qx": e[:, 2], "qy": e[:, 3],
+                "start": start, "size": np.diff(np.append(start, len(owner))),
+                "lox": reduce(np.minimum, lox), "hix": reduce(np.maximum, hix),
+                "loy": reduce(np.minimum, loy), "hiy": reduce(np.maximum, hiy), "run_owner": owner[start]}
