@@ -59,24 +59,31 @@ def pt_text(value_pt: float) -> str:
     return _NUMBER.sub(_thousandths, fp_str(value_pt))
 
 
-#: What :func:`pt_text` takes off a number written to three decimals, as
-#: patterns over many numbers a line each: trailing zeros (and a point
-#: left bare), and the zero before the point.
-_TRAILING_ZEROS = re.compile(r"\.?0+(?=\n)")
-_LEADING_ZERO = re.compile(r"(?<![\d.])0\.")
+#: The formats of :func:`pt_texts`, by a number's size: one written one
+#: by one (``%s``), and three decimals with their trailing zeros left
+#: out (``%g``'s significant digits) from 1, 10 and 100 pt on.
+_FORMATS = np.array(["%s\n", "%.4g\n", "%.5g\n", "%.6g\n"])
+_FORMAT_FROM_PT = np.array([1.0, 10.0, 100.0])
 
 
 def pt_texts(values_pt) -> list[str]:
-    """:func:`pt_text` of each of many numbers (a polyline's, a curve's),
-    written in one formatting and two pattern passes, with the few near a
-    half thousandth, or out of :func:`pt_text`'s plain range, written one
-    by one: a line of hundreds of points at a fraction of the cost (#12)."""
-    size = np.abs(np.asarray(values_pt, dtype=float))
+    """:func:`pt_text` of each of many numbers (a part's lines), written
+    in one formatting, each number from 1 pt up in the ``%g`` format that
+    gives it three decimals, those below 1 pt or from 999 pt up, and
+    those that :func:`pt_text` would write both ways, one by one: a
+    fraction of the cost (#12).  Between 101 and 999 pt ``fp_str``
+    writes four decimals, so a number near a half thousandth is written
+    one by one only if its fourth decimal is a 5."""
+    values = list(values_pt)
+    size = np.abs(np.asarray(values, dtype=float))
     tie = np.abs(size * 1000.0 % 1.0 - 0.5)
-    plain = (size >= 0.001) & (size < 999.0) & (tie > np.where(size < 99.0, 0.006, 0.06))
-    text = ("%.3f\n" * len(values_pt)) % tuple(values_pt)
-    texts = _LEADING_ZERO.sub(".", _TRAILING_ZEROS.sub("", text)).split("\n")
-    texts.pop()
+    kind = np.searchsorted(_FORMAT_FROM_PT, size, side="right")
+    plain = (size >= 1.0) & (size < 999.0) & (tie > np.where(size < 99.0, 0.006, 0.06))
     for i in np.flatnonzero(~plain).tolist():
-        texts[i] = pt_text(values_pt[i])
+        value = values[i]
+        if not (101.0 <= abs(value) < 999.0 and ("%.4f" % value)[-1] != "5"):
+            values[i] = pt_text(value)
+            kind[i] = 0
+    texts = ("".join(_FORMATS[kind].tolist()) % tuple(values)).split("\n")
+    texts.pop()
     return texts
