@@ -364,11 +364,8 @@ def _places(x, y, h, offset_mm, reaches):
         o = offset_mm * reach
         d = o * 0.75
         if reach > NEAR_FIRST[-1]:  # far out, with a leader: directions all round the point
-            for j in range(LEADER_DIRECTIONS):
-                a = 2 * math.pi * j / LEADER_DIRECTIONS
-                ca, sa = math.cos(a), math.sin(a)
-                anchor = "start" if ca > 0.3 else "end" if ca < -0.3 else "middle"
-                lift = (h / 2) * (1 if sa > 0 else -1) if anchor == "middle" else 0.0
+            for ca, sa, anchor, side in _LEADER_WAYS:
+                lift = (h / 2) * side if anchor == "middle" else 0.0
                 candidates.append((((x + o * ca, y + o * sa + lift), anchor), reach))
             continue
         candidates += [(((x + o, y), "start"), reach), (((x - o, y), "end"), reach),
@@ -383,6 +380,22 @@ def _places(x, y, h, offset_mm, reaches):
                       [(((x + o / 2, y + s * (o + h / 2)), anchor), reach)
                        for s in (1, -1) for anchor in ("start", "end")]
     return candidates
+
+
+def _leader_ways():
+    """(cos, sin, anchor, side) of each direction of :func:`_places` with
+    a leader: the anchor that sets the name away from its point, and the
+    side (1 up, -1 down) a name set by its middle is lifted to."""
+    out = []
+    for j in range(LEADER_DIRECTIONS):
+        a = 2 * math.pi * j / LEADER_DIRECTIONS
+        ca, sa = math.cos(a), math.sin(a)
+        out.append((ca, sa, "start" if ca > 0.3 else "end" if ca < -0.3 else "middle", 1 if sa > 0 else -1))
+    return tuple(out)
+
+
+#: The directions with a leader, worked out once (#12).
+_LEADER_WAYS = _leader_ways()
 
 
 def _box_gap_mm(box, point, radius_mm: float) -> float:

@@ -250,9 +250,11 @@ class Room:
 
     def free(self, box: Box, protected=(), near=(), clear_mm: float = CLEAR_MM) -> bool:
         """Inside the drawing, clear of the labels, ``clear_mm`` from the
-        lines ``protected`` and :data:`MARGIN_MM` from those ``near``."""
-        return (self.inside(box) and self.clear_of_labels(box) and self.clear_of(box, near)
-                and self.clear_of(box, protected, clear_mm))
+        lines ``protected`` and :data:`MARGIN_MM` from those ``near``;
+        the lines ``protected`` tested first, as they turn down most
+        places (#12)."""
+        return (self.inside(box) and self.clear_of(box, protected, clear_mm) and self.clear_of_labels(box)
+                and self.clear_of(box, near))
 
 
 class Places:
