@@ -489,11 +489,12 @@ def _clip_to_range(ranges, lo: float, hi: float):
 
 
 def _complement(cuts, lo: float, hi: float):
-    """[lo, hi] less the union of the intervals ``cuts``."""
+    """[lo, hi] less the union of the intervals ``cuts`` (which may reach
+    beyond it: a name's box across a slot's edge)."""
     out, at = [], lo
     for a, b in sorted(cuts):
-        if a > at:
-            out.append((at, a))
+        if a > at and at < hi:
+            out.append((at, min(a, hi)))
         at = max(at, b)
     if at < hi:
         out.append((at, hi))
