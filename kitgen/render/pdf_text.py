@@ -146,8 +146,29 @@ def _run_operators(c, run: Run, size_pt: float) -> str:
     key = (run, size_pt)
     code = kept.get(key)
     if code is None:
-        code = kept[key] = c.beginText()._formatText(_shaped_str(run) if run.shaped else run.text)
+        if run.shaped:
+            code = c.beginText()._formatText(_shaped_str(run))
+        else:
+            code = _plain_operators(c, run.text, size_pt)
+        kept[key] = code
     return code
+
+
+def _plain_operators(c, text: str, size_pt: float) -> str:
+    """Plain text's operators, as reportlab's text object writes them for
+    a TrueType font (``PDFTextObject._formatText``): each piece of the
+    text in one subset of the font after that subset's font, size and
+    leading (1.2 times the size, the canvas's ``setFont``)."""
+    font = pdfmetrics.getFont(c._fontname)
+    doc = c._doc
+    size = f"{fp_str(size_pt)} Tf {fp_str(size_pt * 1.2)} TL"
+    code, current = [], -1
+    for subset, chunk in font.splitString(text, doc):
+        if subset != current:
+            code.append(f"{font.getSubsetInternalName(subset, doc)} {size}")
+            current = subset
+        code.append(f"({c._escape(chunk)}) Tj")
+    return " ".join(code)
 
 
 def draw_line(c, line: Line, x_pt: float, baseline_pt: float, size_pt: float) -> None:
