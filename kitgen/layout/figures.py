@@ -667,7 +667,11 @@ def stack_figure(kit, width_mm: float) -> Figure | None:
     low = min([bottom - 1.5] + [n.y_mm - n.height_mm / 2 for n in names]) - 1.0
     high = max([high] + [n.y_mm + n.height_mm / 2 for n in names]) + 1.0
     # Centred in the column: the drawing and the names as one.
-    used = [x for el in els if el.shape != "text" for x in sample(el, 5.0)[:, 0]]
+    used = []
+    for el in els:
+        if el.shape != "text":
+            xs = sample(el, 5.0)[:, 0]
+            used += [xs.min(), xs.max()]   # only the extremes count below (#12)
     used += [x for n in names for x in (xe, xe + (-1.0 if rtl else 1.0) * max(
         w.measure(s, FIGURE_PT).width_mm for s in n.lines))]
     dx = (width_mm - (max(used) + min(used))) / 2.0

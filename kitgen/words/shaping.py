@@ -183,8 +183,8 @@ def _class(ch: str) -> str:
 
 
 def _classes(text: str) -> list[str]:
-    get = _CLASS.get
-    return [get(ch) or _class(ch) for ch in text]
+    out = list(map(_CLASS.get, text))   # looked up in C (#12); a character not met yet filled in
+    return [c or _class(ch) for c, ch in zip(out, text)] if None in out else out
 
 
 def paragraph_is_rtl(text: str, prefer_rtl: bool) -> bool:
@@ -301,6 +301,8 @@ def _faces_for(text: str, stack: tuple[Face, ...]) -> list[Face]:
     """The face of each character: the first of the stack that holds it.
     Marks and neutral characters stay with the face before them where that
     face holds them, so a word is not split between fonts."""
+    if _HELD_BY_FIRST.get(stack, frozenset()).issuperset(text):
+        return [stack[0]] * len(text)   # each character the first face's: all stay with it
     out: list[Face] = []
     table = _FACE_OF.setdefault(stack, {})
     get = table.get
@@ -311,6 +313,8 @@ def _faces_for(text: str, stack: tuple[Face, ...]) -> list[Face]:
             holders = tuple(f for f in stack if fonts.has_char(f, ch))
             stays = cat[0] in "MZPS" or cat in ("Cf", "Nd")
             found = table[ch] = (holders if stays else (), holders[0] if holders else stack[-1])
+            if holders and holders[0] == stack[0]:
+                _HELD_BY_FIRST[stack] = _HELD_BY_FIRST.get(stack, frozenset()) | {ch}
         holders, face = found
         if holders and out and out[-1] in holders:
             out.append(out[-1])
@@ -323,6 +327,9 @@ def _faces_for(text: str, stack: tuple[Face, ...]) -> list[Face]:
 #: when it stays with the face before it where that face holds it, else
 #: none; the first face of the stack that holds it).
 _FACE_OF: dict[tuple[Face, ...], dict[str, tuple[tuple[Face, ...], Face]]] = {}
+#: Per stack, the characters met that its first face holds: a line of
+#: these alone is all in that face, whatever stays with what (#12).
+_HELD_BY_FIRST: dict[tuple[Face, ...], frozenset[str]] = {}
 
 
 @lru_cache(maxsize=16)
@@ -331,7 +338,14 @@ def _hb_font(face: Face) -> hb.Font:
 
 
 def _needs_shaping(face: Face, rtl: bool) -> bool:
-    return rtl or any(face in styles.values() for styles in fonts.SCRIPT_FACES.values())
+    return rtl or _script_face(face)
+
+
+@lru_cache(maxsize=64)
+def _script_face(face: Face) -> bool:
+    """Whether ``face`` is a script's own (shaped) face, looked up once
+    for each of the few faces shipped."""
+    return any(face in styles.values() for styles in fonts.SCRIPT_FACES.values())
 
 
 def shape_run(face: Face, text: str, rtl: bool) -> tuple[Glyph, ...]:
@@ -476,7 +490,9 @@ def _plain_chars(face: Face, text: str):
         return None
     table = _PLAIN_CHARS.get(face) or {}
     get = table.get
-    infos = [get(ch) or _plain_char(face, ch) for ch in text]
+    infos = list(map(get, text))   # looked up in C (#12); a character not met yet filled in
+    if None in infos:
+        infos = [info if info is not None else _plain_char(face, ch) for info, ch in zip(infos, text)]
     return infos if all(infos) else None
 
 
@@ -526,6 +542,9 @@ def _visual_runs(text: str, stack: tuple[Face, ...], rtl: bool, make=None) -> li
         return []
     levels = embedding_levels(outer, rtl)
     faces = _faces_for(outer, stack)
+    if (not found and levels.count(levels[0]) == len(levels) and faces.count(faces[0]) == len(faces)
+            and _STAND_IN not in outer):
+        return [make(faces[0], outer, levels[0])]   # one face, one level: one run (#12)
     pieces: list[tuple[Face | None, int, str]] = []
     start = 0
     # Stretches of one face and level (grouped in C, #12), each stand-in
