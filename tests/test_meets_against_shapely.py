@@ -85,6 +85,15 @@ def test_meets_agrees_with_geos(data):
         assert not meets(el, box)
 
 
+def test_circle_through_a_corner_meets_the_box():
+    # Found by the property test above: the circle enters the box at its
+    # corner (2.05, 0.05), where rounding once lost the crossing, and leaves
+    # by the left edge; GEOS finds it crossing the box shrunk by 1 um.
+    box, el = Box((2.0, 0.0), 0.0, 0.05, 0.05), model.circle("x", (0.05, 2.0), 2.7932955446926844)
+    assert _shape(el).intersects(_polygon(box, -MARGIN_MM))
+    assert meets(el, box)
+
+
 @settings(max_examples=600, deadline=None)
 @given(boxes(), st.data())
 def test_boxes_overlap_agrees_with_geos(a, data):

@@ -198,6 +198,10 @@ def segment_inside(p, q, box: Box):
     return (t0, t1)
 
 
+#: How far past a box's corner an edge's crossing still counts (mm).
+_CORNER_MM = 1e-9
+
+
 def circle_inside(center, radius_mm: float, box: Box):
     """The angular ranges (a, b) in radians, counter-clockwise from +x about
     ``center``, b > a, of the circle inside the box."""
@@ -215,7 +219,9 @@ def circle_inside(center, radius_mm: float, box: Box):
             continue
         for along in (math.sqrt(room), -math.sqrt(room)):
             centre_along = cy if other == 0 else cx
-            if abs(centre_along + along) <= half:
+            # A crossing at a corner is kept from both its edges (within
+            # _CORNER_MM): one lost to rounding would leave an odd count.
+            if abs(centre_along + along) <= half + _CORNER_MM:
                 hits.append(math.atan2(along, d) if other == 0 else math.atan2(d, along))
     if not hits:
         return [(0.0, 2 * math.pi)] if _inside_local(box, cx + r, cy) else []
