@@ -7,6 +7,8 @@ sets them into lines and pages, and a backend only draws those lines.
 
 from __future__ import annotations
 
+import functools
+
 from ..check.report import report_lines
 from ..parts.clock_scale import signed
 from ..parts.format import latitude_text
@@ -223,6 +225,24 @@ def story(kit, pages) -> list[Block]:
     return out
 
 
+def _per_kit(make):
+    """``make(kit)``'s paragraphs kept for the last few kits, by the kit's
+    identity (a kit is frozen): the pages' split asks for the story once
+    for each count of pages it tries, and these depend on the kit alone
+    (#12).  Each call gets a list of its own."""
+    kept: dict[int, tuple] = {}
+
+    @functools.wraps(make)
+    def made(kit) -> list[Block]:
+        hit = kept.get(id(kit))
+        if hit is None or hit[0] is not kit:
+            while len(kept) >= 4:
+                del kept[next(iter(kept))]
+            hit = kept[id(kit)] = (kit, tuple(make(kit)))
+        return list(hit[1])
+    return made
+
+
 # Clock time, sunrise and the stars (#10): from the plan's almanac
 # (kitgen.sky.site_almanac) and worked examples (kitgen.sky.worked_example);
 # every word from the templates' almanac section.
@@ -307,6 +327,7 @@ def clock_step(kit, number: int) -> list[Block]:
     return [Block("item", text, w.number(number) + ".")]
 
 
+@_per_kit
 def sun_example_blocks(kit) -> list[Block]:
     """The worked example by the Sun, at the site and in the epoch year."""
     ex = kit.plan.examples.sun
@@ -338,6 +359,7 @@ def _month_rows(kit, entries) -> list[Block]:
     return out
 
 
+@_per_kit
 def correction_blocks(kit) -> list[Block]:
     """The clock correction by week, as the ring on the back gives it."""
     w = kit.words
@@ -353,6 +375,7 @@ def _length(words, minutes: float) -> str:
     return words("almanac.length", hours=words.number(h), minutes=words.number(m))
 
 
+@_per_kit
 def sunrise_blocks(kit) -> list[Block]:
     """The kit's own way to sunrise, sunset and the day's length, and the
     site's table by half month to check it."""
@@ -375,6 +398,7 @@ def sunrise_blocks(kit) -> list[Block]:
     return out + _month_rows(kit, entries)
 
 
+@_per_kit
 def star_blocks(kit) -> list[Block]:
     """Telling the time by a star, and the site's example."""
     w = kit.words
@@ -421,6 +445,7 @@ def _worksheet_values(kit, q) -> dict:
     return out
 
 
+@_per_kit
 def worksheet_blocks(kit) -> list[Block]:
     """The worksheet, when the recipe asks for one: the questions, then the
     answer key on a page of its own for the teacher."""
