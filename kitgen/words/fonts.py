@@ -18,6 +18,8 @@ from typing import NamedTuple
 
 from fontTools.ttLib import TTFont
 
+from .glyph_bounds import shipped_bounds
+
 STYLES = ("label", "body", "bold")
 
 
@@ -110,7 +112,12 @@ def _glyph_set(face: Face):
 @lru_cache(maxsize=65536)
 def glyph_bounds_em(face: Face, gid: int):
     """(xmin, ymin, xmax, ymax) of a glyph's outline in em, or None for a
-    blank glyph (fontTools BoundsPen)."""
+    blank glyph (fontTools BoundsPen): from the shipped table
+    (kitgen.words.glyph_bounds), else drawn into the pen."""
+    shipped = shipped_bounds(face.filename, font_bytes(face))
+    if shipped is not None:
+        bounds = shipped[gid]
+        return None if bounds[0] != bounds[0] else tuple(v / units_per_em(face) for v in bounds)   # NaN: blank
     from fontTools.pens.boundsPen import BoundsPen
 
     gs = _glyph_set(face)
