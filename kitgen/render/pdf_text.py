@@ -115,8 +115,10 @@ def _shaped_str(run: Run) -> ShapedStr:
     order = fonts._metrics(run.face)[2]
     for g in run.glyphs:
         mapped = face.glyphToChar.get(g.gid)
-        width = fonts.glyph_advance_em(run.face, g.gid) * 1000.0
-        uchar = mapped[0] if mapped else ttf.hbAddPrivate(order[g.gid], g.gid, width)
+        if mapped:
+            uchar = mapped[0]
+        else:
+            uchar = ttf.hbAddPrivate(order[g.gid], g.gid, fonts.glyph_advance_em(run.face, g.gid) * 1000.0)
         chars.append(chr(uchar))
         data.append(ShapeData(g.cluster, g.x_advance_em * 1000.0, 0, g.x_offset_em * 1000.0,
                               g.y_offset_em * 1000.0, face.charWidths[uchar]))
