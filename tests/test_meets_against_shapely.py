@@ -19,7 +19,9 @@ from kitgen.geometry import model
 from kitgen.parts.breaks import Box, boxes_overlap, meets
 
 shapely = pytest.importorskip("shapely")
-from shapely.geometry import LineString, Polygon  # noqa: E402
+from shapely.geometry import Polygon  # noqa: E402
+
+from tests.geos_lines import stroke_line  # noqa: E402
 
 MARGIN_MM = 1e-3
 coord = st.floats(-60, 60)
@@ -54,29 +56,12 @@ def _polygon(box: Box, grow: float) -> Polygon:
     return Polygon(box.grown(grow).corners())
 
 
-def _shape(el) -> LineString:
-    g = el.geom
-    if el.shape in ("circle", "arc"):
-        (cx, cy), r = g["center"], g["radius"]
-        lo, hi = (0.0, 2 * math.pi) if el.shape == "circle" else (math.radians(g["start_deg"]),
-                                                                  math.radians(g["end_deg"]))
-        # chords within 1e-4 mm of the arc: r (1 - cos(step / 2)) <= 1e-4
-        step = 2 * math.acos(max(-1.0, 1 - 1e-4 / r))
-        n = max(2, math.ceil((hi - lo) / step) + 1)
-        return LineString([(cx + r * math.cos(lo + (hi - lo) * k / (n - 1)),
-                            cy + r * math.sin(lo + (hi - lo) * k / (n - 1))) for k in range(n)])
-    if el.shape == "segment":
-        return LineString([g["from"], g["to"]])
-    pts = list(g["points"]) + ([g["points"][0]] if g["closed"] else [])
-    return LineString(pts)
-
-
 @settings(max_examples=600, deadline=None)
 @given(st.data())
 def test_meets_agrees_with_geos(data):
     box = data.draw(boxes())
     el = data.draw(strokes(box))
-    line = _shape(el)
+    line = stroke_line(el)
     sure_in = line.intersects(_polygon(box, -MARGIN_MM))
     sure_out = not line.intersects(_polygon(box, MARGIN_MM))
     if sure_in:
@@ -90,7 +75,7 @@ def test_circle_through_a_corner_meets_the_box():
     # corner (2.05, 0.05), where rounding once lost the crossing, and leaves
     # by the left edge; GEOS finds it crossing the box shrunk by 1 um.
     box, el = Box((2.0, 0.0), 0.0, 0.05, 0.05), model.circle("x", (0.05, 2.0), 2.7932955446926844)
-    assert _shape(el).intersects(_polygon(box, -MARGIN_MM))
+    assert stroke_line(el).intersects(_polygon(box, -MARGIN_MM))
     assert meets(el, box)
 
 

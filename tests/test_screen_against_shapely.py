@@ -22,26 +22,12 @@ from kitgen.parts.breaks import MEETS, MISSES, Box, arcs_meet_boxes, meets, segm
 from kitgen.parts.plate_labels import Places, Room, Screen
 
 shapely = pytest.importorskip("shapely")
-from shapely.geometry import LineString, Polygon  # noqa: E402
+from shapely.geometry import Polygon  # noqa: E402
+
+from tests.geos_lines import stroke_line  # noqa: E402
 
 MARGIN_MM = 1e-3
 coord = st.floats(-40, 40)
-
-
-def _shape(el) -> LineString:
-    """The stroke for GEOS: segments exact, circles as chords within 1e-4 mm."""
-    g = el.geom
-    if el.shape in ("circle", "arc"):
-        (cx, cy), r = g["center"], g["radius"]
-        lo, hi = (0.0, 2 * math.pi) if el.shape == "circle" else (math.radians(g["start_deg"]),
-                                                                  math.radians(g["end_deg"]))
-        step = 2 * math.acos(max(-1.0, 1 - 1e-4 / r))
-        n = max(2, math.ceil((hi - lo) / step) + 1)
-        return LineString([(cx + r * math.cos(lo + (hi - lo) * k / (n - 1)),
-                            cy + r * math.sin(lo + (hi - lo) * k / (n - 1))) for k in range(n)])
-    pts = [g["from"], g["to"]] if el.shape == "segment" else list(g["points"]) + (
-        [g["points"][0]] if g["closed"] else [])
-    return LineString(pts)
 
 
 @st.composite
@@ -93,7 +79,7 @@ def test_arrays_agree_with_geos_and_meets(scene, grow_mm):
             p, q = np.array(pts[:-1]), np.array(pts[1:])
             each = segments_meet_boxes(rows, grow_mm, p[:, 0], p[:, 1], q[:, 0], q[:, 1])
             got = np.where((each == MEETS).any(axis=1), MEETS, np.where((each == MISSES).all(axis=1), MISSES, 2))
-        line = _shape(el)
+        line = stroke_line(el)
         for i, verdict in enumerate(got.tolist()):
             box = places.box(i).grown(grow_mm)
             if verdict == MEETS:
@@ -121,7 +107,7 @@ def test_screen_gives_the_one_box_answers(scene, clear_mm, disc_mm):
         assert bool(inside[i]) == room.inside(box)
         # GEOS where its chords leave no doubt: each box grown by the
         # clearance and half the line's width, less or more a micrometre
-        grown = [(_shape(el), clear_mm + room._half_width[el.stroke]) for el in els]
+        grown = [(stroke_line(el), clear_mm + room._half_width[el.stroke]) for el in els]
         if any(line.intersects(Polygon(box.grown(by - MARGIN_MM).corners())) for line, by in grown):
             assert not clear.clear(i)
         elif not any(line.intersects(Polygon(box.grown(by + MARGIN_MM).corners())) for line, by in grown):
