@@ -1,7 +1,7 @@
 """How a class set's kits are dealt to workers (#12): a school's pupils
 (recipes equal but for the owner) stay with one worker where they fit in
-a worker's share, every kit is built exactly once, and the loads are
-even.  Reference: the longest-processing-time rule (R. L. Graham, "Bounds
+a worker's share, or where splitting them would cost more than it saves,
+every kit is built exactly once, and the loads are even.  Reference: the longest-processing-time rule (R. L. Graham, "Bounds
 on multiprocessing timing anomalies", SIAM J. Appl. Math. 17, 1969),
 whose schedule is within 4/3 of the best."""
 
@@ -56,3 +56,12 @@ def test_loads_within_graham_bound():
     loads = [len(s) + SCHOOL_COST_KITS * len({_school(j) for j in s}) for s in shares]
     mean = (len(jobs) + SCHOOL_COST_KITS * 6) / 3
     assert max(loads) <= 4 / 3 * max(mean, 9 + SCHOOL_COST_KITS) + 1e-9
+
+
+def test_a_school_stays_whole_where_splitting_costs_more():
+    # 24 kits on 3 workers: a share is 8, but cutting the school of 9 in two
+    # would make one worker draw three schools' parts (SCHOOL_COST_KITS each)
+    jobs = _jobs([(51.5, 9), (45.8, 5), (-23.5, 4), (38.0, 3), (12.0, 2), (60.0, 1)])
+    shares = worker_shares(jobs, 3)
+    assert sum(any(_school(j) == 51.5 for j in s) for s in shares) == 1
+    assert sorted(len({_school(j) for j in s}) for s in shares) == [2, 2, 2]

@@ -167,29 +167,44 @@ def _build_all(jobs_list, jobs: int, languages, speak):
             raise
 
 
-#: What drawing a school's shared parts costs a worker, in kits' time
-#: (about four to five, measured with benchmarks/batch_speed.py --schools).
-SCHOOL_COST_KITS = 4
+#: What drawing a school's shared parts costs a worker, in its pupils'
+#: kits' time: a school's first kit took 45 to 57 times a later pupil's
+#: (about 1 s against 20 ms of CPU, French, German and Spanish schools,
+#: once a pupil's name was laid over the shared PDF).
+SCHOOL_COST_KITS = 45
 
 
 def worker_shares(jobs_list, jobs: int) -> list[list]:
     """The jobs dealt to ``jobs`` workers.  Kits whose recipes are equal
     but for the owner (a school's pupils) share their parts
     (kitgen.kit.build_from_plan), so they stay with one worker, which
-    draws those parts once; a school with more kits than a worker's share
-    is split evenly.  The pieces go largest first to the least loaded
-    worker (the longest-processing-time rule, Graham 1969), each worker's
-    kits in kit order.  Which worker builds a kit never changes its
-    bytes."""
+    draws those parts once (:data:`SCHOOL_COST_KITS`).  A school with
+    more kits than a worker's share may be split evenly into as many
+    pieces as make the busiest worker's load least, each piece paying
+    the school's cost again.  The pieces go largest first to the least
+    loaded worker (the longest-processing-time rule, Graham 1969), each
+    worker's kits in kit order.  Which worker builds a kit never changes
+    its bytes."""
     groups: dict = {}
     for job in jobs_list:
         groups.setdefault(replace(job.recipe, owner=""), []).append(job)
     share = -(-len(jobs_list) // jobs)
+    counts = {key: 1 for key in groups}
+    for key in sorted((k for k in groups if len(groups[k]) > share), key=lambda k: -len(groups[k])):
+        tried = [(max(_deal(groups, {**counts, key: n}, jobs)[1]), n)
+                 for n in range(1, min(jobs, len(groups[key])) + 1)]
+        counts[key] = min(tried)[1]
+    return [sorted(share_, key=lambda job: job.number) for share_ in _deal(groups, counts, jobs)[0] if share_]
+
+
+def _deal(groups: dict, counts: dict, jobs: int):
+    """Each group cut into ``counts[key]`` even pieces, dealt by the
+    longest-processing-time rule: the workers' jobs and loads (in kits)."""
     pieces = []
-    for group in groups.values():
-        q, r = divmod(len(group), -(-len(group) // share))
+    for key, group in groups.items():
+        q, r = divmod(len(group), counts[key])
         start = 0
-        for i in range(-(-len(group) // share)):
+        for i in range(counts[key]):
             pieces.append(group[start:start + q + (i < r)])
             start += q + (i < r)
     loads = [0] * jobs
@@ -198,7 +213,7 @@ def worker_shares(jobs_list, jobs: int) -> list[list]:
         k = loads.index(min(loads))
         loads[k] += len(piece) + SCHOOL_COST_KITS
         out[k] += piece
-    return [sorted(share_, key=lambda job: job.number) for share_ in out if share_]
+    return out, loads
 
 
 def _worker_start(languages, speak) -> None:
