@@ -559,6 +559,22 @@ def may_meet(el, box: Box) -> bool:
     return x0 - rr <= x <= x1 + rr and y0 - rr <= y <= y1 + rr
 
 
+def reach_of(el) -> tuple:
+    """The figures by which :func:`may_meet` rules a box out, worked out
+    once for a stroke that is tested against many boxes (#12): (True,
+    centre x, centre y, radius, 0.0) for a circle or an arc, which a box
+    may meet only where its centre is within the box's radius of the
+    circle; else (False, least x, greatest x, least y, greatest y) of the
+    segments' bounds, which the box's centre must be within its radius of."""
+    g = el.geom
+    if el.shape in ("circle", "arc"):
+        return (True, g["center"][0], g["center"][1], g["radius"], 0.0)
+    if el.shape == "segment":
+        (x0, y0), (x1, y1) = g["from"], g["to"]
+        return (False, min(x0, x1), max(x0, x1), min(y0, y1), max(y0, y1))
+    return (False,) + _line_bounds(g["points"])
+
+
 _LINE_BOUNDS: dict = {}
 
 

@@ -37,7 +37,7 @@ import numpy as np
 from ..geometry import model
 from ..geometry.style import dot_radius_mm, pin_cross_half_mm, stroke_width_mm, zenith_mark_half_mm
 from ..projection.stereographic import equatorial_vector, horizontal_vector, project_vectors
-from .breaks import MEETS, UNSURE, Box, arcs_meet_boxes, boxes_overlap, meets, segments_meet_boxes
+from .breaks import MEETS, UNSURE, Box, arcs_meet_boxes, boxes_overlap, meets, reach_of, segments_meet_boxes
 from .labels import MARGIN_MM
 from .stroke_index import BoxIndex, StrokeArrays, StrokeIndex
 
@@ -80,6 +80,7 @@ class Room:
         self._half_width: dict[str, float] = {}
         self._lists: dict[int, tuple] = {}
         self._arrays = StrokeArrays()
+        self._lines: dict[int, tuple] = {}
 
     def inside(self, box: Box) -> bool:
         # Far inside the rim (or wholly beyond it) by more than any
@@ -111,60 +112,79 @@ class Room:
         # tried first: the next place is most often near it (#12).
         near = self._members(elements)
         last = near.get("last")
-        if last is not None and meets(last, box.grown(clear_mm + self._half_width[last.stroke])):
+        if last is not None and self._meets(last, box, clear_mm + last[1]):
             return False
-        for el in self._meeting(box, elements, clear_mm):
-            near["last"] = el
-            return False
+        for line in self._near_lines(near, box, clear_mm + near["widest"]):
+            if self._meets(line, box, clear_mm + line[1]):
+                near["last"] = line
+                return False
         return True
 
     def crossed(self, box: Box, elements, most: int | None = None) -> int:
         """How many strokes of ``elements`` run through the box, counted
         no further than ``most`` (when a count that high is no use)."""
+        if not elements:
+            return 0
         count = 0
-        for _ in self._meeting(box, elements, 0.0, widths=False):
-            count += 1
-            if most is not None and count >= most:
-                break
+        for line in self._near_lines(self._members(elements), box, 0.0):
+            if self._meets(line, box, 0.0):
+                count += 1
+                if most is not None and count >= most:
+                    break
         return count
 
-    def _meeting(self, box: Box, elements, clear_mm: float, widths: bool = True):
-        """The strokes of ``elements`` that come within ``clear_mm`` (and,
-        with ``widths``, half their line's width) of the box: of the
-        strokes the index finds near it, those that meet it grown so."""
-        if not elements:
-            return
-        near = self._members(elements)
-        half = self._half_width
-        reach = clear_mm + (max(half.values()) if widths else 0.0)
-        span = self.strokes.span(box.center, math.hypot(box.half_w + reach, box.half_h + reach))
+    def _near_lines(self, near, box: Box, reach_mm: float) -> list:
+        """Of the strokes of a list (``near``, see :meth:`_members`), as
+        :meth:`_line` keeps them, those the index holds in the grid cells
+        within ``reach_mm`` of the box, kept by the cells' span (neighbouring
+        places share it)."""
+        span = self.strokes.span(box.center, math.hypot(box.half_w + reach_mm, box.half_h + reach_mm))
         found = near.get(span)
         if found is None:   # the members among the strokes of these cells
-            members = near["members"]
-            found = near[span] = [el for key, el in self.strokes.in_span(span).items() if key in members]
-        grown = {}
-        for el in found:
-            by = clear_mm + (half[el.stroke] if widths else 0.0)
-            g = grown.get(by)
-            if g is None:
-                g = grown[by] = box.grown(by)
-            if meets(el, g):
-                yield el
+            members, line = near["members"], self._line
+            found = near[span] = [line(el) for key, el in self.strokes.in_span(span).items() if key in members]
+        return found
+
+    def _line(self, el) -> tuple:
+        """A stroke as its tests read it, worked out once: (the element,
+        half its line's width, then the figures of
+        :func:`kitgen.parts.breaks.reach_of`)."""
+        got = self._lines.get(id(el))
+        if got is None:   # the index keeps the element: its id stays its own
+            got = self._lines[id(el)] = (el, self._half_width[el.stroke]) + reach_of(el)
+        return got
+
+    @staticmethod
+    def _meets(line, box: Box, by_mm: float) -> bool:
+        """Whether the stroke of ``line`` (see :meth:`_line`) runs through
+        the box grown by ``by_mm``: :func:`kitgen.parts.breaks.meets`,
+        the box grown only where the quick test of
+        :func:`kitgen.parts.breaks.may_meet`, worked from the stroke's
+        figures, leaves it in doubt (the same answer, #12)."""
+        el, _, ring, a, b, c, d = line
+        x, y = box.center
+        rr = math.hypot(box.half_w + by_mm, box.half_h + by_mm)   # the grown box's radius
+        if ring:
+            if abs(math.dist((a, b), (x, y)) - c) > rr:
+                return False
+        elif not (a - rr <= x <= b + rr and c - rr <= y <= d + rr):
+            return False
+        return meets(el, box.grown(by_mm))
 
     def _members(self, elements) -> dict:
-        """For ``elements``: the set of their ids (under "members"), the
-        last of them found meeting a box (under "last") and, by grid span,
-        those of them the index holds there; their strokes
-        entered in the index and their line widths known.  Kept for the
-        last few lists asked about (a label's places are all tested
-        against the same lists)."""
+        """For ``elements``: the set of their ids (under "members"), half
+        the widest of their lines (under "widest"), the last of them found
+        meeting a box (under "last") and, by grid span, those of them the
+        index holds there; their strokes entered in the index and their
+        line widths known.  Kept for the last few lists asked about (a
+        label's places are all tested against the same lists)."""
         kept = self._lists.get(id(elements))
         if kept is not None and kept[0] is elements and kept[1] == len(elements):
             return kept[2]
         self.strokes.enter(elements)
         for stroke in {el.stroke for el in elements} - self._half_width.keys():
             self._half_width[stroke] = stroke_width_mm(stroke, self.dims) / 2
-        near = {"members": {id(el) for el in elements}}
+        near = {"members": {id(el) for el in elements}, "widest": max(self._half_width.values())}
         if len(self._lists) >= 8:
             self._lists.clear()
         self._lists[id(elements)] = (elements, len(elements), near)   # the list kept: its id stays its own
