@@ -269,7 +269,10 @@ def meets(el, box: Box) -> bool:
         return segment_inside(g["from"], g["to"], box) is not None
     if shape == "polyline":
         pts, near = _polyline_near(g, box)
-        return any(segment_inside(pts[i], pts[i + 1], box) is not None for i in near)
+        for i in near:
+            if segment_inside(pts[i], pts[i + 1], box) is not None:
+                return True
+        return False
     return False
 
 
@@ -421,9 +424,10 @@ def _polyline_near(g, box: Box):
     """The polyline's points (closed: the first again at the end) and the
     indices, in order (as an iterator), of its segments that may meet
     the box: those whose bounding box, grown by the box's radius, holds
-    the box's centre, looked for only among the segments in the grid
-    cells the box's bounding square spans (a segment's bounds lie in the
-    cells it is entered in; #12)."""
+    the box's centre (for an upright box, those whose bounding box
+    overlaps it), looked for only among the segments in the grid cells
+    the box's bounding square spans (a segment's bounds lie in the cells
+    it is entered in; #12)."""
     points, closed = g["points"], g["closed"]
     kept = _POLY_GRIDS.get(id(points))
     if kept is None or kept[0] is not points or kept[1] != closed:
@@ -460,6 +464,13 @@ def _polyline_near(g, box: Box):
         if len(spans) > 4096:
             spans.clear()
         near = spans[(i0, i1, j0, j1)] = sorted(found)
+    if box.angle_rad == 0.0:
+        # An upright box's frame is the plane's shifted (cos 1, sin 0): a
+        # segment whose bounds, less the box's centre, end at or beyond a
+        # side is one segment_inside finds outside (its ends' local
+        # coordinates are those very differences), so it is left out (#12).
+        hw, hh = box.half_w, box.half_h
+        return pts, (i for i in near if hix[i] - x > -hw and lox[i] - x < hw and hiy[i] - y > -hh and loy[i] - y < hh)
     rr = box.radius   # of those, the ones the bounds test above keeps, as they are asked for
     return pts, (i for i in near if lox[i] - rr <= x <= hix[i] + rr and loy[i] - rr <= y <= hiy[i] + rr)
 
