@@ -56,6 +56,14 @@ class Box:
                             radius=math.hypot(hw, hh), cos=self.cos, sin=self.sin)
         return out
 
+    def moved(self, center) -> "Box":
+        """The same box centred on ``center``, as Box(...) would make it,
+        its radius and its angle's cos and sin taken over (#12)."""
+        out = object.__new__(Box)
+        out.__dict__.update(center=center, angle_rad=self.angle_rad, half_w=self.half_w, half_h=self.half_h,
+                            radius=self.radius, cos=self.cos, sin=self.sin)
+        return out
+
     def local(self, x: float, y: float) -> tuple[float, float]:
         """(x, y) in the box's own frame (its centre at 0, its side along x)."""
         dx, dy = x - self.center[0], y - self.center[1]
@@ -248,8 +256,13 @@ def meets(el, box: Box) -> bool:
     polyline's segments by the grid cells they span; where those tests
     decide by a margin far above any rounding, their answer is that of
     the exact tests below, which decide the rest (#12)."""
-    if not may_meet(el, box):
-        return False
+    return may_meet(el, box) and meets_near(el, box)
+
+
+def meets_near(el, box: Box) -> bool:
+    """:func:`meets` for a box that :func:`may_meet` does not rule out:
+    the rest of its tests, for a caller that has made that one already
+    (#12)."""
     g = el.geom
     shape = el.shape
     if shape == "circle" or shape == "arc":

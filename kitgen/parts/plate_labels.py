@@ -37,7 +37,8 @@ import numpy as np
 from ..geometry import model
 from ..geometry.style import dot_radius_mm, pin_cross_half_mm, stroke_width_mm, zenith_mark_half_mm
 from ..projection.stereographic import equatorial_vector, horizontal_vector, project_vectors
-from .breaks import MEETS, UNSURE, Box, arcs_meet_boxes, boxes_overlap, meets, reach_of, segments_meet_boxes
+from .breaks import (MEETS, UNSURE, Box, arcs_meet_boxes, boxes_overlap, meets, meets_near, reach_of,
+                     segments_meet_boxes)
 from .labels import MARGIN_MM
 from .stroke_index import BoxIndex, StrokeArrays, StrokeIndex
 
@@ -160,7 +161,8 @@ class Room:
         the box grown by ``by_mm``: :func:`kitgen.parts.breaks.meets`,
         the box grown only where the quick test of
         :func:`kitgen.parts.breaks.may_meet`, worked from the stroke's
-        figures, leaves it in doubt (the same answer, #12)."""
+        figures, leaves it in doubt, and there only the rest of its
+        tests (:func:`kitgen.parts.breaks.meets_near`; the same answer, #12)."""
         el, _, ring, a, b, c, d = line
         x, y = box.center
         rr = math.hypot(box.half_w + by_mm, box.half_h + by_mm)   # the grown box's radius
@@ -169,7 +171,7 @@ class Room:
                 return False
         elif not (a - rr <= x <= b + rr and c - rr <= y <= d + rr):
             return False
-        return meets(el, box.grown(by_mm))
+        return meets_near(el, box.grown(by_mm))
 
     def _members(self, elements) -> dict:
         """For ``elements``: the set of their ids (under "members"), half
@@ -498,12 +500,13 @@ class PlateLabeller:
         :data:`MARGIN_MM` (beside a line, never in a gap of it)."""
         near = self.reference if near is None else near
         ext = self.w.measure(text, size_pt)   # measured once for all its places
+        box = Box((0.0, 0.0), 0.0, ext.width_mm / 2, ext.height_mm / 2)   # moved to each place
         start, fallback = None, None
         for c in candidates:
             start = start or c
             if fallback is not None and math.dist(c[:2], start[:2]) > fallback[1] + PREFER_CLEAR_MM:
                 break
-            b = Box((c[0], c[1]), 0.0, ext.width_mm / 2, ext.height_mm / 2)
+            b = box.moved((c[0], c[1]))
             if not self.room.free(b, protected, near, MARGIN_MM):
                 continue
             if self.room.clear_of(b, protected, CLEAR_MM):
