@@ -116,7 +116,7 @@ class Room:
         if last is not None and self._meets(last, box, clear_mm + last[1]):
             return False
         for line in self._near_lines(near, box, clear_mm + near["widest"]):
-            if self._meets(line, box, clear_mm + line[1]):
+            if line is not last and self._meets(line, box, clear_mm + line[1]):
                 near["last"] = line
                 return False
         return True
