@@ -18,7 +18,7 @@ from typing import NamedTuple
 
 from fontTools.ttLib import TTFont
 
-from .glyph_bounds import shipped_bounds
+from .glyph_bounds import pen_bounds, shipped_bounds
 
 STYLES = ("label", "body", "bold")
 
@@ -118,15 +118,8 @@ def glyph_bounds_em(face: Face, gid: int):
     if shipped is not None:
         bounds = shipped[gid]
         return None if bounds[0] != bounds[0] else tuple(v / units_per_em(face) for v in bounds)   # NaN: blank
-    from fontTools.pens.boundsPen import BoundsPen
-
-    gs = _glyph_set(face)
-    pen = BoundsPen(gs)
-    gs[_metrics(face)[2][gid]].draw(pen)
-    if pen.bounds is None:
-        return None
-    upem = units_per_em(face)
-    return tuple(v / upem for v in pen.bounds)
+    bounds = pen_bounds(_glyph_set(face), _metrics(face)[2][gid])
+    return None if bounds is None else tuple(v / units_per_em(face) for v in bounds)
 
 
 def char_bounds_em(face: Face, ch: str):

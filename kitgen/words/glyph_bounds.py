@@ -29,7 +29,6 @@ TABLE_NAME = "glyph-bounds.npz"
 def outline_bounds(font_data: bytes) -> np.ndarray:
     """The bounds of every glyph of a TrueType font (file bytes), in font
     units, by glyph id; a blank glyph's row NaN (fontTools BoundsPen)."""
-    from fontTools.pens.boundsPen import BoundsPen
     from fontTools.ttLib import TTFont
 
     font = TTFont(io.BytesIO(font_data), lazy=True)
@@ -37,11 +36,20 @@ def outline_bounds(font_data: bytes) -> np.ndarray:
     order = font.getGlyphOrder()
     out = np.full((len(order), 4), np.nan)
     for gid, name in enumerate(order):
-        pen = BoundsPen(glyphs)
-        glyphs[name].draw(pen)
-        if pen.bounds is not None:
-            out[gid] = pen.bounds
+        bounds = pen_bounds(glyphs, name)
+        if bounds is not None:
+            out[gid] = bounds
     return out
+
+
+def pen_bounds(glyphs, name: str):
+    """One glyph's outline bounds in font units, or None for a blank glyph:
+    the glyph (of fontTools glyph set ``glyphs``) drawn into a BoundsPen."""
+    from fontTools.pens.boundsPen import BoundsPen
+
+    pen = BoundsPen(glyphs)
+    glyphs[name].draw(pen)
+    return pen.bounds
 
 
 def file_digest(font_data: bytes) -> str:
