@@ -26,12 +26,31 @@ def _school(job):
     return job.recipe.latitude_deg
 
 
-def test_each_kit_once_in_kit_order_per_worker():
+def test_each_kit_once_school_by_school_per_worker():
     jobs = _jobs([(51.5, 7), (-33.9, 3), (0.5, 12), (64.1, 1)])
     shares = worker_shares(jobs, 2)
     assert sorted(j.number for s in shares for j in s) == [j.number for j in jobs]
     for share in shares:
         assert [j.number for j in share] == sorted(j.number for j in share)
+
+
+def test_a_mixed_roster_is_built_school_by_school():
+    # pupils of five schools listed in turn: each worker builds a school's
+    # kits one after another (its parts drawn once), in kit order within it
+    jobs, lats = [], (51.5, -33.9, 0.5, 64.1, 12.0)
+    for n in range(1, 26):
+        lat = lats[(n - 1) % 5]
+        jobs.append(KitJob(n, validate_recipe({"latitude": lat, "owner": f"Pupil {n}"}), f"Pupil {n}"))
+    for workers in (1, 2):
+        shares = worker_shares(jobs, workers)
+        assert sorted(j.number for s in shares for j in s) == list(range(1, 26))
+        for share in shares:
+            runs = [lat for k, lat in enumerate(map(_school, share)) if k == 0 or lat != _school(share[k - 1])]
+            assert len(runs) == len(set(runs)), runs
+            for lat in set(runs):
+                numbers = [j.number for j in share if _school(j) == lat]
+                assert numbers == sorted(numbers)
+    assert [_school(j) for j in worker_shares(jobs, 1)[0][:5]] == [51.5] * 5
 
 
 def test_schools_that_fit_a_share_stay_together():

@@ -148,7 +148,7 @@ def _build_all(jobs_list, jobs: int, languages, speak):
     (:func:`worker_shares`), a process of its own."""
     if jobs == 1:
         warm(languages, speak)
-        for job in jobs_list:
+        for job in worker_shares(jobs_list, 1)[0]:
             yield build_one(job)
         return
     with ExitStack() as stack:
@@ -183,18 +183,36 @@ def worker_shares(jobs_list, jobs: int) -> list[list]:
     pieces as make the busiest worker's load least, each piece paying
     the school's cost again.  The pieces go largest first to the least
     loaded worker (the longest-processing-time rule, Graham 1969), each
-    worker's kits in kit order.  Which worker builds a kit never changes
-    its bytes."""
+    worker's kits school by school (:func:`_school_order`).  Which
+    worker builds a kit never changes its bytes."""
     groups: dict = {}
     for job in jobs_list:
-        groups.setdefault(replace(job.recipe, owner=""), []).append(job)
+        groups.setdefault(_school(job), []).append(job)
     share = -(-len(jobs_list) // jobs)
     counts = {key: 1 for key in groups}
     for key in sorted((k for k in groups if len(groups[k]) > share), key=lambda k: -len(groups[k])):
         tried = [(max(_deal(groups, {**counts, key: n}, jobs)[1]), n)
                  for n in range(1, min(jobs, len(groups[key])) + 1)]
         counts[key] = min(tried)[1]
-    return [sorted(share_, key=lambda job: job.number) for share_ in _deal(groups, counts, jobs)[0] if share_]
+    return [_school_order(share_) for share_ in _deal(groups, counts, jobs)[0] if share_]
+
+
+def _school(job):
+    """What a kit shares with its school's other kits: its recipe but
+    for the owner."""
+    return replace(job.recipe, owner="")
+
+
+def _school_order(share: list) -> list:
+    """A worker's jobs school by school, each school where its first kit
+    is in the set, its pupils in kit order: a roster that lists its
+    schools' pupils mixed is built with each school's parts drawn once,
+    where kit order would draw them again whenever the worker's few kept
+    schools (kitgen.kit's caches) were pushed out by others."""
+    first: dict = {}
+    for job in sorted(share, key=lambda job: job.number):
+        first.setdefault(_school(job), job.number)
+    return sorted(share, key=lambda job: (first[_school(job)], job.number))
 
 
 def _deal(groups: dict, counts: dict, jobs: int):
