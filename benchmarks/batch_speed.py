@@ -24,6 +24,7 @@ a timed test.
 from __future__ import annotations
 
 import argparse
+import compileall
 import csv
 import json
 import os
@@ -262,6 +263,11 @@ def main() -> int:
         return 0
     if not 0 <= args.schools <= len(SCHOOLS):
         p.error(f"--schools: from 0 to {len(SCHOOLS)}")
+    # kitgen's modules compiled to bytecode first, as pip compiles any package
+    # it installs (reportlab's, which the floor runs, among them): where the
+    # environment stops Python writing bytecode (PYTHONDONTWRITEBYTECODE), an
+    # editable install would otherwise compile every module at every start.
+    compileall.compile_dir(ROOT / "kitgen", quiet=1)
     work = Path(tempfile.mkdtemp(prefix="kitgen-bench-"))
     set_path = args.set.resolve() if args.set else _write_set(args.kits, args.schools, work)
     what = (f"the set {args.set}" if args.set else f"a roster of {args.schools} schools" if args.schools
