@@ -13,8 +13,6 @@ import shutil
 import sys
 import time
 
-import tqdm
-
 from ..errors import Message, Number
 
 
@@ -44,6 +42,8 @@ class _Silent:
 
 class _Bar:
     def __init__(self, total: int, stream):
+        import tqdm   # here, not at the top: a run without a terminal never pays its import
+
         tqdm.tqdm.monitor_interval = 0   # no monitor thread (worker processes may be forked)
         # The terminal's size, or 80 x 24 where it reports none (a
         # pseudo-terminal of zero size), where tqdm would draw nothing.

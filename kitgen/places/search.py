@@ -16,7 +16,6 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 import numpy as np
-from rapidfuzz import fuzz, process
 
 from ..errors import KeyedError, Message, Number, shown
 from .index import PlaceIndex, place_index
@@ -128,6 +127,8 @@ def _fuzzy_rows(index: PlaceIndex, q: _Query, limit: int) -> list[int]:
     """Rows of the places whose folded main names are the closest
     spellings of the query's name (Levenshtein-based ratio, rapidfuzz),
     best first, under the qualifiers."""
+    from rapidfuzz import fuzz, process   # here: only a misspelt place pays its import
+
     out: list[int] = []
     for key, _, _ in process.extract(q.name, index.distinct_names, scorer=fuzz.ratio, limit=limit * 3,
                                      score_cutoff=SUGGESTION_CUTOFF):
