@@ -12,6 +12,12 @@ such place is written as its Unicode sign (the fitting rule's short form,
 kitgen.words.symbols) and tried again; a number with none is left out
 (it is one of two in its sign, and the ticks still count the degrees).
 
+Each exact test of a word's turned box (against a dot, a tick, another
+word) is made only where the boxes' axis-aligned bounds come within reach
+(#12): a turned box lies inside its bounds, so a thing beyond them by more
+than the test's reach cannot fail it, and the answers are those of testing
+every pair.
+
 Angles in degrees about the ecliptic's centre; lengths in mm.
 """
 
@@ -19,6 +25,8 @@ from __future__ import annotations
 
 import dataclasses
 import math
+
+import numpy as np
 
 from ..words.measure import text_corners_mm
 from . import labels
@@ -34,6 +42,11 @@ NUMBER_SLIDE_DEG = 2.0
 
 #: The step (degrees about the ecliptic's centre) of the search for a place.
 STEP_DEG = 0.1
+
+#: Slack (mm) added to the reach of the bounds' quick test, far above the
+#: rounding error of the exact tests and far below anything printed, so
+#: that the quick test turns down nothing the exact one would find.
+SLACK_MM = 1e-6
 
 
 def _frame(corners):
@@ -86,6 +99,21 @@ def boxes_meet(a, b) -> bool:
     return True
 
 
+def bounds_of(corners):
+    """The axis-aligned box (xmin, ymin, xmax, ymax) of a turned box's
+    corners."""
+    xs, ys = [p[0] for p in corners], [p[1] for p in corners]
+    return (min(xs), min(ys), max(xs), max(ys))
+
+
+def near_rows(bounds, box, reach_mm: float) -> list[int]:
+    """The indices of the rows of ``bounds`` (an array n x 4 of
+    axis-aligned boxes) that come within ``reach_mm`` of ``box`` (closed
+    boxes: touching is near)."""
+    return np.flatnonzero((bounds[:, 0] <= box[2] + reach_mm) & (bounds[:, 2] >= box[0] - reach_mm)
+                          & (bounds[:, 1] <= box[3] + reach_mm) & (bounds[:, 3] >= box[1] - reach_mm)).tolist()
+
+
 def corners_of(el, words):
     """The turned box (four corners, mm) of a text element's measured ink."""
     ext = words.measure(el.geom["text"], el.geom["size_pt"])
@@ -129,15 +157,32 @@ def clear_of_dots(elements, dots, center, words, slide_range, short_forms=None):
     for k in band:
         groups.setdefault((els[k].role, els[k].values.get("longitude_deg")), []).append(k)
     boxes = {k: corners_of(els[k], words) for k in band}
+    dot_bounds = np.array([(c[0] - r, c[1] - r, c[0] + r, c[1] + r) for c, r in dots], dtype=float).reshape(-1, 4)
+    tick_bounds = np.array([(min(p[0], q[0]), min(p[1], q[1]), max(p[0], q[0]), max(p[1], q[1]))
+                            for p, q in ticks], dtype=float).reshape(-1, 4)
 
     def near_dot(box_list, clearance):
-        return any(disc_gap_mm(b, c, r) < clearance for b in box_list for c, r in dots)
+        """Whether a box comes within ``clearance`` of a dot."""
+        return any(disc_gap_mm(b, *dots[j]) < clearance for b in box_list
+                   for j in near_rows(dot_bounds, bounds_of(b), clearance + SLACK_MM))
+
+    def blocked(box_list, clearance, others, other_bounds):
+        """Whether a box comes within ``clearance`` of a dot, meets a box
+        of ``others`` or a drawn tick."""
+        if near_dot(box_list, clearance):
+            return True
+        spans = [bounds_of(b) for b in box_list]
+        return any(boxes_meet(b, others[j]) for b, span in zip(box_list, spans)
+                   for j in near_rows(other_bounds, span, SLACK_MM)) or \
+            any(segment_meets(b, *ticks[j]) for b, span in zip(box_list, spans)
+                for j in near_rows(tick_bounds, span, SLACK_MM))
 
     dropped = set()
     for key, members in groups.items():
         if not near_dot([boxes[k] for k in members], DOT_CLEARANCE_MM):
             continue
         others = [boxes[k] for k in band if k not in members and k not in dropped]
+        other_bounds = np.array([bounds_of(o) for o in others], dtype=float).reshape(-1, 4)
         low, high = slide_range(els[members[0]])
         tries = [[els[k] for k in members]]
         if key[0] == "zodiac_label" and short_forms is not None and key[1] in short_forms:
@@ -152,8 +197,7 @@ def clear_of_dots(elements, dots, center, words, slide_range, short_forms=None):
                 for delta in _offsets(low, high):
                     moved = [turned(e, center, delta) for e in start]
                     mb = [corners_of(e, words) for e in moved]
-                    if near_dot(mb, clearance) or any(boxes_meet(b, o) for b in mb for o in others) or \
-                            any(segment_meets(b, p, q) for b in mb for p, q in ticks):
+                    if blocked(mb, clearance, others, other_bounds):
                         continue
                     found = (moved, mb)
                     break
