@@ -1,7 +1,8 @@
-"""The shipped glyph bounds (kitgen/fonts/glyph-bounds.npz, #12) against
-fontTools' BoundsPen drawing the shipped fonts' outlines: the table is
-made from these very files and gives, through kitgen.words.fonts, the
-same floats as the pen."""
+"""The shipped glyph table (kitgen/fonts/glyph-bounds.npz, #12) against
+fontTools: its bounds against BoundsPen drawing the shipped fonts'
+outlines, its metrics against the fonts' cmap, hmtx, head and hhea
+tables read with fontTools.  The table is made from these very files and
+gives, through kitgen.words.fonts, the same values as fontTools."""
 
 from __future__ import annotations
 
@@ -42,6 +43,21 @@ def test_bounds_equal_fonttools_pen(face):
     assert blank < len(chosen)
 
 
+@pytest.mark.parametrize("face", FACES, ids=[f.filename for f in FACES])
+def test_metrics_equal_fonttools_tables(face):
+    font = TTFont(io.BytesIO(fonts.font_bytes(face)), lazy=True)
+    shipped = glyph_bounds.shipped_metrics(face.filename, fonts.font_bytes(face))
+    assert shipped is not None, "run tools/build_glyph_bounds.py"
+    cmap, hmtx, order, upem, asc, desc = shipped
+    assert cmap == font.getBestCmap()
+    assert hmtx == {name: adv for name, (adv, _) in font["hmtx"].metrics.items()}
+    assert order == font.getGlyphOrder()
+    assert (upem, asc, desc) == (font["head"].unitsPerEm, font["hhea"].ascent, font["hhea"].descent)
+    assert fonts.advance_em(face, "0") == font["hmtx"][font.getBestCmap()[ord("0")]][0] / upem
+
+
 def test_a_changed_font_is_not_looked_up():
     face = fonts.DEJAVU["body"]
-    assert glyph_bounds.shipped_bounds(face.filename, fonts.font_bytes(face) + b"\0") is None
+    changed = fonts.font_bytes(face) + b"\0"
+    assert glyph_bounds.shipped_bounds(face.filename, changed) is None
+    assert glyph_bounds.shipped_metrics(face.filename, changed) is None

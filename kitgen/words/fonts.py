@@ -16,9 +16,7 @@ from functools import lru_cache
 from importlib import resources
 from typing import NamedTuple
 
-from fontTools.ttLib import TTFont
-
-from .glyph_bounds import pen_bounds, shipped_bounds
+from .glyph_bounds import font_metrics, pen_bounds, shipped_bounds, shipped_metrics
 
 STYLES = ("label", "body", "bold")
 
@@ -73,13 +71,11 @@ def font_bytes(face: Face) -> bytes:
 
 @lru_cache(maxsize=None)
 def _metrics(face: Face):
-    """(character map, advance widths by glyph name, glyph order, units per em)."""
-    import io
-
-    font = TTFont(io.BytesIO(font_bytes(face)), lazy=True)
-    cmap = dict(font.getBestCmap())
-    hmtx = {name: adv for name, (adv, _) in font["hmtx"].metrics.items()}
-    return cmap, hmtx, font.getGlyphOrder(), font["head"].unitsPerEm, font["hhea"].ascent, font["hhea"].descent
+    """(character map, advance widths by glyph name, glyph order, units
+    per em, ascent, descent): shipped (kitgen.words.glyph_bounds), else
+    read with fontTools."""
+    data = font_bytes(face)
+    return shipped_metrics(face.filename, data) or font_metrics(data)
 
 
 def cmap(face: Face) -> dict[int, str]:
@@ -105,6 +101,8 @@ def glyph_advance_em(face: Face, gid: int) -> float:
 @lru_cache(maxsize=None)
 def _glyph_set(face: Face):
     import io
+
+    from fontTools.ttLib import TTFont
 
     return TTFont(io.BytesIO(font_bytes(face)), lazy=True).getGlyphSet()
 

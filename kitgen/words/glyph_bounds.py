@@ -1,17 +1,19 @@
-"""Every shipped font's glyph outline bounds, computed once and shipped (#12).
+"""Every shipped font's glyph outline bounds and metrics, computed once and shipped (#12).
 
 A label's box and the ink checks need each glyph's outline bounds
 (fontTools' ``BoundsPen``: the tight box of the outline, curves' extremes
 included).  Drawing an outline into the pen costs about half a
 millisecond, and a kit's first label of a script decompiles the font's
 ``glyf`` table; a class set of many languages paid that in every worker.
-So the bounds of every glyph of every font in ``kitgen/fonts`` are worked
+Reading a font's character map, glyph order and advances with fontTools
+costs every process 30 to 70 ms a DejaVu face too.  So both are worked
 out once, by ``tools/build_glyph_bounds.py`` with :func:`outline_bounds`
-(the very computation :mod:`kitgen.words.fonts` would make), and shipped
-in ``kitgen/fonts/glyph-bounds.npz``: per font file an array of
-(xmin, ymin, xmax, ymax) in font units by glyph id (NaN for a blank
-glyph) and the SHA-256 of the file it was made from.  A font whose file
-no longer matches is measured with the pen as before.
+and :func:`font_metrics` (the very computations :mod:`kitgen.words.fonts`
+would make), and shipped in ``kitgen/fonts/glyph-bounds.npz``: per font
+file an array of (xmin, ymin, xmax, ymax) in font units by glyph id (NaN
+for a blank glyph), its character map, glyph names, advances and
+header figures, and the SHA-256 of the file they were made from.  A font
+whose file no longer matches is read with fontTools as before.
 """
 
 from __future__ import annotations
@@ -40,6 +42,29 @@ def outline_bounds(font_data: bytes) -> np.ndarray:
         if bounds is not None:
             out[gid] = bounds
     return out
+
+
+def font_metrics(font_data: bytes) -> tuple:
+    """(character map: code point -> glyph name, advance widths by glyph
+    name, glyph order, units per em, hhea ascent, hhea descent) of a
+    TrueType font (file bytes), read with fontTools."""
+    from fontTools.ttLib import TTFont
+
+    font = TTFont(io.BytesIO(font_data), lazy=True)
+    cmap = dict(font.getBestCmap())
+    hmtx = {name: adv for name, (adv, _) in font["hmtx"].metrics.items()}
+    return cmap, hmtx, font.getGlyphOrder(), font["head"].unitsPerEm, font["hhea"].ascent, font["hhea"].descent
+
+
+def metrics_arrays(metrics: tuple) -> dict:
+    """:func:`font_metrics` as arrays for the shipped table: the character
+    map as (code point, glyph id) rows, the glyph names, the advances by
+    glyph id and (units per em, ascent, descent)."""
+    cmap, hmtx, order, upem, asc, desc = metrics
+    gid = {name: k for k, name in enumerate(order)}
+    return {"cmap": np.array(sorted((code, gid[name]) for code, name in cmap.items()), dtype=np.int64),
+            "names": np.array(order), "advances": np.array([hmtx[name] for name in order], dtype=np.int64),
+            "head": np.array([upem, asc, desc], dtype=np.int64)}
 
 
 def pen_bounds(glyphs, name: str):
@@ -76,3 +101,20 @@ def shipped_bounds(filename: str, font_data: bytes):
     if str(table[f"{filename}:sha256"]) != file_digest(font_data):
         return None
     return table[f"{filename}:bounds"].tolist()
+
+
+@lru_cache(maxsize=None)
+def shipped_metrics(filename: str, font_data: bytes):
+    """The shipped :func:`font_metrics` of the font file ``filename`` (its
+    bytes ``font_data``), or None where none are shipped for these very
+    bytes."""
+    table = _table()
+    if table is None or f"{filename}:names" not in table.files:
+        return None
+    if str(table[f"{filename}:sha256"]) != file_digest(font_data):
+        return None
+    order = table[f"{filename}:names"].tolist()
+    cmap = {code: order[gid] for code, gid in table[f"{filename}:cmap"].tolist()}
+    hmtx = dict(zip(order, table[f"{filename}:advances"].tolist()))
+    upem, asc, desc = table[f"{filename}:head"].tolist()
+    return cmap, hmtx, order, upem, asc, desc
