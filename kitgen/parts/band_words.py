@@ -120,17 +120,28 @@ def corners_of(el, words):
     return text_corners_mm(el.geom["at"], ext.width_mm, ext.height_mm, el.geom["angle_deg"], el.geom["anchor"])
 
 
-def turned(el, center, delta_deg: float, text: str | None = None):
-    """The text element turned ``delta_deg`` about ``center`` (and, with
-    ``text``, saying that instead)."""
+def turned(el, center, delta_deg: float):
+    """The text element turned ``delta_deg`` about ``center``."""
+    at, angle_deg = _turned_at(el.geom, center, delta_deg)
+    return dataclasses.replace(el, geom=dict(el.geom, at=at, angle_deg=angle_deg))
+
+
+def _turned_at(geom, center, delta_deg: float):
+    """(at, angle_deg) of a text's ``geom`` turned ``delta_deg`` about
+    ``center``."""
     a = math.radians(delta_deg)
     c, s = math.cos(a), math.sin(a)
-    dx, dy = el.geom["at"][0] - center[0], el.geom["at"][1] - center[1]
-    geom = dict(el.geom, at=(center[0] + c * dx - s * dy, center[1] + s * dx + c * dy),
-                angle_deg=(el.geom["angle_deg"] + delta_deg + 180.0) % 360.0 - 180.0)
-    if text is not None:
-        geom["text"] = text
-    return dataclasses.replace(el, geom=geom)
+    dx, dy = geom["at"][0] - center[0], geom["at"][1] - center[1]
+    return (center[0] + c * dx - s * dy, center[1] + s * dx + c * dy), \
+        (geom["angle_deg"] + delta_deg + 180.0) % 360.0 - 180.0
+
+
+def _turned_corners(geom, ext, center, delta_deg: float):
+    """The corners of :func:`corners_of` for a text's ``geom`` of measured
+    extent ``ext`` turned ``delta_deg`` about ``center``: those of the
+    element :func:`turned` would give."""
+    at, angle_deg = _turned_at(geom, center, delta_deg)
+    return text_corners_mm(at, ext.width_mm, ext.height_mm, angle_deg, geom["anchor"])
 
 
 def _offsets(low_deg: float, high_deg: float):
@@ -194,12 +205,13 @@ def clear_of_dots(elements, dots, center, words, slide_range, short_forms=None):
         found = None
         for clearance in (DOT_CLEARANCE_MM, 0.05):
             for start in tries:
+                # (the words' boxes turned; the elements only for the place found)
+                exts = [words.measure(e.geom["text"], e.geom["size_pt"]) for e in start]
                 for delta in _offsets(low, high):
-                    moved = [turned(e, center, delta) for e in start]
-                    mb = [corners_of(e, words) for e in moved]
+                    mb = [_turned_corners(e.geom, ext, center, delta) for e, ext in zip(start, exts)]
                     if blocked(mb, clearance, others, other_bounds):
                         continue
-                    found = (moved, mb)
+                    found = ([turned(e, center, delta) for e in start], mb)
                     break
                 if found:
                     break
