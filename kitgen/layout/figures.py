@@ -574,16 +574,19 @@ STACK_LAYERS = (("alidade",), ("mater_front", "mater_back"), ("plate",), ("rete"
 LAYER_TURN_DEG = {"rule": -60.0}
 
 
-def _outline(part, turn_deg: float) -> list[np.ndarray]:
-    """The part's cut outline (its cut elements, the pin's and the thread's
-    holes left out) as point runs in its plane, turned ``turn_deg``."""
+def _outline_elements(part) -> tuple:
+    """The part's cut outline: its cut elements, the pin's and the
+    thread's holes left out."""
+    return tuple(el for el in part.elements
+                 if el.role == "cut" and el.stroke == "cut" and el.shape != "point" and "purpose" not in el.values)
+
+
+def _outline(cuts, turn_deg: float) -> list[np.ndarray]:
+    """An outline's elements (:func:`_outline_elements`) as point runs in
+    the part's plane, turned ``turn_deg``."""
     a = math.radians(turn_deg)
     rot = np.array([[math.cos(a), -math.sin(a)], [math.sin(a), math.cos(a)]])
-    out = []
-    for el in part.elements:
-        if el.role == "cut" and el.stroke == "cut" and el.shape != "point" and "purpose" not in el.values:
-            out.append(sample(el, 1.0) @ rot.T)
-    return out
+    return [sample(el, 1.0) @ rot.T for el in cuts]
 
 
 def layer_name(words, kinds, printed) -> str:
@@ -599,7 +602,11 @@ def layer_name(words, kinds, printed) -> str:
 
 def stack_figure(kit, width_mm: float) -> Figure | None:
     """The parts on the pin in an exploded oblique view (see the module's
-    docstring), the layers the kit prints; ``None`` with fewer than two."""
+    docstring), the layers the kit prints; ``None`` with fewer than two.
+    The picture is kept for the last few sets of what it is drawn from
+    (the layers' names and outlines, the script, the column's width): a
+    class set's schools share it where their parts' outlines agree, as
+    they do across latitudes (#12)."""
     w = kit.words
     printed = set(kit.plan.parts)
     layers = []
@@ -607,13 +614,32 @@ def stack_figure(kit, width_mm: float) -> Figure | None:
         kind = next((k for k in kinds if k in printed), None)
         if kind is None:
             continue
-        name = layer_name(w, kinds, printed)
-        part = kit.part("plate-1" if kind == "plate" else kind)
         turn = LAYER_TURN_DEG.get(kind, 0.0)
         turn = -turn if w.rtl else turn   # mirrored: towards the names
-        layers.append((kinds[0], name, _outline(part, turn)))
+        cuts = _outline_elements(kit.part("plate-1" if kind == "plate" else kind))
+        layers.append((kinds[0], layer_name(w, kinds, printed), turn, cuts))
     if len(layers) < 2:
         return None
+    key = (width_mm, w.script, w.rtl, w("instructions.figure_pin"),
+           tuple((kind, name, turn, tuple((el.shape, tuple(sorted(el.geom.items()))) for el in cuts))
+                 for kind, name, turn, cuts in layers))
+    figure = _STACKS.get(key)
+    if figure is None:
+        figure = _stack_drawing(w, [(kind, name, _outline(cuts, turn)) for kind, name, turn, cuts in layers],
+                                width_mm)
+        while len(_STACKS) >= 4:
+            del _STACKS[next(iter(_STACKS))]
+        _STACKS[key] = figure
+    return figure
+
+
+#: The stack's pictures last drawn, by what each was drawn from.
+_STACKS: dict[tuple, Figure] = {}
+
+
+def _stack_drawing(w, layers, width_mm: float) -> Figure:
+    """The stack's picture of ``layers`` (the part kind, the layer's name,
+    its outline's point runs), in the language of ``w``."""
     # The names' column, on the side a line of the kit's language starts from.
     longest = max(w.measure(n, FIGURE_PT).width_mm for n in [lay[1] for lay in layers] + [w("instructions.figure_pin")])
     col = min(longest, 0.4 * width_mm)
