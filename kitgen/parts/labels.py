@@ -256,14 +256,16 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
                 + max(abs(box[1]), abs(box[3])) ** 2 <= inside_radius_mm ** 2) \
             and not any(_meets_ring(box, ring) for ring in keep_out_rings)
 
-    def choose(k, across_rings=False):
+    def choose(k):
         """The first free place of point k's label, given those chosen;
-        its leader crosses a ring kept out (from a point on it) only
-        ``across_rings``."""
+        else the first whose leader crosses a ring kept out only from a
+        point on it (#9: Kaus Australis's across the band only where there
+        is no other place), found in the same pass (#12); else None."""
         x, y = points[k]
         own = own_boxes[k] if own_boxes is not None else None
         g = NAME_GAP_MM
         names = np.array([c[2] for j, c in chosen.items() if j != k], dtype=float).reshape(-1, 4)
+        across = None
         for i, places, roomy in free_of(blocks_of(k), names, g if with_leaders else None):
             at, anchor, needs_leader, box = places[i]
             if i not in roomy:
@@ -290,14 +292,18 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
                         or any(_segments_cross(leader[0], leader[1], a, b) for a, b in near(lines, span, k, slack)) \
                         or any(_segments_cross(leader[0], leader[1], p, q)
                                for link in near(links, span, k, slack) for p, q in link) \
-                        or _passes_another(leader, k, points, leaders_from_mm, LEADER_CLEAR_MM, dots, dot_mm) \
-                        or any(_segment_meets_ring(leader[0], leader[1], ring) for ring in keep_out_rings
-                               if not (across_rings and _segment_meets_ring((x, y), (x, y), ring))):
-                    # (a dot on a ring must cross it; two leaders never cross,
-                    # nor pass between another label and its point)
+                        or _passes_another(leader, k, points, leaders_from_mm, LEADER_CLEAR_MM, dots, dot_mm):
+                    # (two leaders never cross, nor pass between another
+                    # label and its point)
+                    continue
+                crossed = [ring for ring in keep_out_rings if _segment_meets_ring(leader[0], leader[1], ring)]
+                if crossed:
+                    # (a dot on a ring must cross it)
+                    if across is None and all(_segment_meets_ring((x, y), (x, y), ring) for ring in crossed):
+                        across = (at, anchor, box, leader)
                     continue
             return (at, anchor, box, leader)
-        return None
+        return across
 
     def free_of(blocks, names, gap_mm):
         """(index, places, roomy) of each place of the blocks, in order,
@@ -311,13 +317,8 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
                 if not t:
                     yield i, places, roomy
 
-    def first_free(k):
-        # a leader across a scale's band from a point on it only where
-        # there is no other place (#9: Kaus Australis's across the band)
-        return choose(k) or choose(k, across_rings=True)
-
     for k in range(len(points)):
-        choice = first_free(k)
+        choice = choose(k)
         if choice is not None:
             put(k, choice)
     if with_leaders:
@@ -330,10 +331,10 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
             nearest = sorted(chosen, key=lambda j: _box_gap_mm(chosen[j][2], points[k], 0.0))[:REPAIR_NEIGHBOURS]
             for j in nearest:
                 kept = take(j)
-                mine = first_free(k)
+                mine = choose(k)
                 if mine is not None:
                     put(k, mine)
-                    theirs = first_free(j)
+                    theirs = choose(j)
                     if theirs is not None:
                         put(j, theirs)
                         break
