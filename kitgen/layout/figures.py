@@ -468,6 +468,8 @@ def _choose_targets(named, lines, samples, reach_mm: float, rim_mm: float, spaci
     leaders).  Kinds with fewest points to choose from go first."""
     others_all = np.concatenate(samples)
     owner = np.concatenate([np.full(len(s), i) for i, s in enumerate(samples)])
+    by_x = np.argsort(others_all[:, 0], kind="stable")
+    xs = others_all[by_x, 0]
     chosen: dict[int, tuple] = {}
     order = sorted(range(len(named)), key=lambda i: sum(
         len(samples[j]) for j, el in enumerate(lines) if _matches(el, *named[i][:2])))
@@ -480,10 +482,14 @@ def _choose_targets(named, lines, samples, reach_mm: float, rim_mm: float, spaci
             if role == "zenith":
                 clear = np.full(len(pts), 1.0)
             else:
-                # Only the other lines' points near this line's box count.
+                # Only the other lines' points near this line's box count:
+                # those in its run of x, then of y (the nearest distance
+                # is the same in any order of the points).
                 lo, hi = pts.min(axis=0) - CLEAR_MM, pts.max(axis=0) + CLEAR_MM
-                near = (owner != j) & np.all((others_all >= lo) & (others_all <= hi), axis=1)
-                clear = np.minimum(_nearest_mm(pts, others_all[near], CLEAR_MM), CLEAR_MM) / CLEAR_MM
+                run = by_x[np.searchsorted(xs, lo[0], "left"):np.searchsorted(xs, hi[0], "right")]
+                near = others_all[run]
+                near = near[(owner[run] != j) & (near[:, 1] >= lo[1]) & (near[:, 1] <= hi[1])]
+                clear = np.minimum(_nearest_mm(pts, near, CLEAR_MM), CLEAR_MM) / CLEAR_MM
             apart = np.ones(len(pts))
             level = np.ones(len(pts))
             balance = np.zeros(len(pts))
