@@ -14,6 +14,7 @@ point left without a place take a neighbour's that can move.
 
 from __future__ import annotations
 
+import functools
 import math
 
 import numpy as np
@@ -232,21 +233,19 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
     def blocks_of(k):
         """Point k's places in the order tried, by blocks (each of
         :func:`_place_blocks`), each found when first needed: its places
-        (at, anchor, needs_leader, box), the indices of those that meet no
-        box kept out and their boxes as an array, and whether each place
-        (by index) stays inside ``inside_radius_mm`` and off the rings
-        kept out, once tested: all the same whatever is chosen."""
+        (a table of :func:`_place_table`, read by :func:`_place`), the
+        indices of those that meet no box kept out and their boxes as an
+        array, and whether each place (by index) stays inside
+        ``inside_radius_mm`` and off the rings kept out, once tested: all
+        the same whatever is chosen."""
         found = tried.setdefault(k, [])
         for n, (some, needs_leader) in enumerate(_place_blocks(reaches, with_leaders)):
             if n == len(found):
                 (x, y), text = points[k], texts[k]
                 ext = measure(text, size_pt)
-                w, h = ext.width_mm, ext.height_mm
-                places = [(at, anchor, needs_leader, _box_at(at, w, h, anchor))
-                          for (at, anchor), reach in _places(x, y, h, offset_mm, some)]
-                array = np.array([place[3] for place in places], dtype=float).reshape(-1, 4)
-                clear = np.flatnonzero(~meets_any(array, kept_out))
-                found.append((places, clear.tolist(), array[clear], {}))
+                table = _place_table(x, y, ext.width_mm, ext.height_mm, offset_mm, some, needs_leader)
+                clear = np.flatnonzero(~meets_any(table[3], kept_out))
+                found.append((table, clear.tolist(), table[3][clear], {}))
             yield found[n]
 
     def room(box):
@@ -266,8 +265,8 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
         g = NAME_GAP_MM
         names = np.array([c[2] for j, c in chosen.items() if j != k], dtype=float).reshape(-1, 4)
         across = None
-        for i, places, roomy in free_of(blocks_of(k), names, g if with_leaders else None):
-            at, anchor, needs_leader, box = places[i]
+        for i, table, roomy in free_of(blocks_of(k), names, g if with_leaders else None):
+            at, anchor, needs_leader, box = _place(table, i)
             if i not in roomy:
                 roomy[i] = room(box)
             if not roomy[i] or any(_segment_meets_box(a, b, box) for a, b in near(lines, box, k, slack)):
@@ -306,16 +305,16 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
         return across
 
     def free_of(blocks, names, gap_mm):
-        """(index, places, roomy) of each place of the blocks, in order,
+        """(index, table, roomy) of each place of the blocks, in order,
         that meets no box of ``names`` (nor, with ``gap_mm``, comes within
         that of one), each block's places tested all at once."""
-        for places, clear, array, roomy in blocks:
+        for table, clear, array, roomy in blocks:
             taken = meets_any(array, names)
             if gap_mm is not None:
                 taken |= meets_any(array + np.array([-gap_mm, -gap_mm, gap_mm, gap_mm]), names)
             for i, t in zip(clear, taken.tolist()):
                 if not t:
-                    yield i, places, roomy
+                    yield i, table, roomy
 
     for k in range(len(points)):
         choice = choose(k)
@@ -356,31 +355,63 @@ def _place_blocks(reaches, with_leaders):
     return [(reaches, False)]
 
 
-def _places(x, y, h, offset_mm, reaches):
-    """The places for a label of height ``h`` beside the point (x, y) at
-    each of ``reaches`` in turn (nearest first if they grow):
-    ``((at, anchor), reach)``."""
-    candidates = []
+@functools.lru_cache(maxsize=64)
+def _place_terms(offset_mm: float, h: float, reaches):
+    """What :func:`_place_table` adds to a point's coordinates for the
+    places of a label ``h`` mm high beside it at each of ``reaches`` in
+    turn (nearest first if they grow): arrays of the term added to x and
+    where it is added; of the first term added to y, and where; of the
+    second, and where (the sums made in the order written below, so that
+    every place is that of the sums made one by one); of the share of the
+    label's width it is set back by its anchor; and the anchors."""
+    rows = []   # (x term, first y term, second y term, anchor); None: nothing added
+    hh = h / 2
     for reach in reaches:
         o = offset_mm * reach
         d = o * 0.75
         if reach > NEAR_FIRST[-1]:  # far out, with a leader: directions all round the point
             for ca, sa, anchor, side in _LEADER_WAYS:
-                lift = (h / 2) * side if anchor == "middle" else 0.0
-                candidates.append((((x + o * ca, y + o * sa + lift), anchor), reach))
+                rows.append((o * ca, o * sa, hh * side if anchor == "middle" else 0.0, anchor))
             continue
-        candidates += [(((x + o, y), "start"), reach), (((x - o, y), "end"), reach),
-                       (((x, y + o + h / 2), "middle"), reach), (((x, y - o - h / 2), "middle"), reach),
-                       (((x + d, y + d + h / 2), "start"), reach), (((x - d, y + d + h / 2), "end"), reach),
-                       (((x + d, y - d - h / 2), "start"), reach), (((x - d, y - d - h / 2), "end"), reach)]
+        rows += [(o, None, None, "start"), (-o, None, None, "end"),
+                 (None, o, hh, "middle"), (None, -o, -hh, "middle"),
+                 (d, d, hh, "start"), (-d, d, hh, "end"), (d, -d, -hh, "start"), (-d, -d, -hh, "end")]
         # then beside the point but raised or lowered by half the name's
         # height, and above or below it to one side (the places of map
         # labelling between those eight)
-        candidates += [(((x + o, y + s * h / 2), "start"), reach) for s in (1, -1)] + \
-                      [(((x - o, y + s * h / 2), "end"), reach) for s in (1, -1)] + \
-                      [(((x + o / 2, y + s * (o + h / 2)), anchor), reach)
-                       for s in (1, -1) for anchor in ("start", "end")]
-    return candidates
+        rows += [(o, s * hh, None, "start") for s in (1, -1)] + [(-o, s * hh, None, "end") for s in (1, -1)] + \
+                [(o / 2, s * (o + hh), None, anchor) for s in (1, -1) for anchor in ("start", "end")]
+    columns = list(zip(*rows))
+    terms = [(np.array([0.0 if t is None else t for t in col]), np.array([t is not None for t in col]))
+             for col in columns[:3]]
+    setback = np.array([_SETBACK[anchor] for anchor in columns[3]])
+    return terms, setback, columns[3]
+
+
+#: The share of a label's width that its anchor sets it back by.
+_SETBACK = {"start": 0.0, "middle": 0.5, "end": 1.0}
+
+
+def _place_table(x, y, w, h, offset_mm, reaches, needs_leader):
+    """The places for a label ``w`` by ``h`` mm beside the point (x, y) at
+    each of ``reaches`` in turn, all at once (#12): (x and y of each place
+    as an array n x 2, their anchors, ``needs_leader``, their boxes of
+    :func:`_box_at` as an array n x 4), the same numbers, summed in the
+    same order, as one by one."""
+    ((tx, on_x), (ty, on_y), (ty2, on_y2)), setback, anchors = _place_terms(offset_mm, h, reaches)
+    at_x = np.where(on_x, x + tx, x)
+    at_y = np.where(on_y, y + ty, y)
+    at_y = np.where(on_y2, at_y + ty2, at_y)
+    x0 = at_x - setback * w
+    boxes = np.stack([x0, at_y - h / 2, x0 + w, at_y + h / 2], axis=1)
+    return np.stack([at_x, at_y], axis=1), anchors, needs_leader, boxes
+
+
+def _place(table, i: int):
+    """(at, anchor, needs_leader, box) of place ``i`` of a table of
+    :func:`_place_table`."""
+    at, anchors, needs_leader, boxes = table
+    return (at[i, 0], at[i, 1]), anchors[i], needs_leader, tuple(boxes[i])
 
 
 def _leader_ways():
