@@ -83,6 +83,14 @@ class Room:
         self._arrays = StrokeArrays()
         self._lines: dict[int, tuple] = {}
 
+    def enter(self, elements) -> None:
+        """Enter the strokes of ``elements`` in the index and the arrays
+        at once, before any test: the arrays are then built once, not
+        again whenever a list with a stroke not yet entered is tested
+        (#12)."""
+        self.strokes.enter(elements)
+        self._arrays.enter(elements)
+
     def inside(self, box: Box) -> bool:
         # Far inside the rim (or wholly beyond it) by more than any
         # rounding of the corners, the answer is that of the corners.
@@ -476,6 +484,7 @@ class PlateLabeller:
                           or (e.role == "azimuth" and on_meridian(e))]
         self.strokes = [e for e in self.els if e.shape in STROKE_SHAPES
                         and e.stroke not in ("none", "cut", "fold")]
+        self.room.enter(self.strokes)
 
     def role(self, *roles):
         return [e for e in self.els if e.role in roles and e.stroke != "none"]

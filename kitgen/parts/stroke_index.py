@@ -44,7 +44,7 @@ class StrokeIndex:
                 continue
             self.entered.add(id(el))
             self._kept.append(el)
-            for cell in {(math.floor(x / CELL_MM), math.floor(y / CELL_MM)) for x, y in _samples(el)}:
+            for cell in _cells(el):
                 self.cells.setdefault(cell, []).append(el)
 
     def near(self, center, radius_mm: float) -> dict:
@@ -135,24 +135,38 @@ def _square(center, radius_mm: float) -> tuple[int, int, int, int]:
 
 
 def _samples(el):
-    """Points along a stroke, no more than :data:`STEP_MM` apart, its ends
-    included."""
+    """Points along a stroke (x and y as arrays), no more than
+    :data:`STEP_MM` apart, its ends included."""
     g = el.geom
     if el.shape in ("circle", "arc"):
         (cx, cy), r = g["center"], g["radius"]
         lo, hi = (0.0, 2 * math.pi) if el.shape == "circle" else \
             (math.radians(g["start_deg"]), math.radians(g["end_deg"]))
         n = max(1, math.ceil((hi - lo) * r / STEP_MM))
-        return [(cx + r * math.cos(lo + (hi - lo) * k / n), cy + r * math.sin(lo + (hi - lo) * k / n))
-                for k in range(n + 1)]
+        t = lo + (hi - lo) * np.arange(n + 1) / n
+        return cx + r * np.cos(t), cy + r * np.sin(t)
     pts = [g["from"], g["to"]] if el.shape == "segment" else list(g["points"])
     if el.shape == "polyline" and g["closed"]:
         pts.append(pts[0])
-    out = [tuple(pts[0])]
-    for (x0, y0), (x1, y1) in zip(pts, pts[1:]):
-        n = max(1, math.ceil(math.hypot(x1 - x0, y1 - y0) / STEP_MM))
-        out += [(x0 + (x1 - x0) * k / n, y0 + (y1 - y0) * k / n) for k in range(1, n + 1)]
-    return out
+    p = np.asarray(pts, dtype=float)
+    d = p[1:] - p[:-1]
+    n = np.maximum(1, np.ceil(np.hypot(d[:, 0], d[:, 1]) / STEP_MM)).astype(int)
+    # each segment's points k / n of the way along, k = 1 .. n, after the first point
+    seg = np.repeat(np.arange(len(d)), n)
+    k = np.arange(len(seg)) - np.repeat(np.cumsum(n) - n, n) + 1
+    f = k / n[seg]
+    return (np.concatenate([p[:1, 0], p[seg, 0] + d[seg, 0] * f]),
+            np.concatenate([p[:1, 1], p[seg, 1] + d[seg, 1] * f]))
+
+
+def _cells(el) -> list[tuple[int, int]]:
+    """The grid cells (column, row) the samples of a stroke fall in, each
+    once, worked out as arrays (#12)."""
+    x, y = _samples(el)
+    i, j = np.floor(x / CELL_MM).astype(int), np.floor(y / CELL_MM).astype(int)
+    i0, j0, rows = i.min(), j.min(), j.max() - j.min() + 1
+    key = np.unique((i - i0) * rows + (j - j0))   # one number a cell
+    return list(zip((key // rows + i0).tolist(), (key % rows + j0).tolist()))
 
 
 #: A polyline's segments are looked for by the bounds of runs this long.
