@@ -154,27 +154,32 @@ class _Nameless:
     other_notes: tuple[Message, ...]
 
 
-@lru_cache(maxsize=4)   # a kit's geometry is megabytes: a class set's schools one after another
-def _nameless(plan: Plan) -> _Nameless:
-    dims = dimensions(plan.diameter_mm, plan.sky.obliquity_rad, plan.sky.rim_deg, plan.hemisphere_sign)
-    kit_scales = plan_scales(plan, plan.plates[0], dims)
-    notes = list(kit_scales.notes)
-    scales = {"": kit_scales}
+#: The last few nameless kits, by plan: a class set's schools one after
+#: another (a kit's geometry is megabytes).
+_NAMELESS: dict[Plan, _Nameless] = {}
+
+
+def _nameless(plan: Plan, drawn: dict | None = None) -> _Nameless:
+    """The kit of ``plan`` drawn without an owner's name, kept for the last
+    few plans.  ``drawn``: parts of it already drawn by another worker of
+    a class set (:func:`draw_parts`), by id, used instead of drawing them
+    again; they are the same, part for part."""
+    kept = _NAMELESS.get(plan)
+    if kept is not None:
+        return kept
+    dims, scales = _sizes(plan)
+    drawn = drawn or {}
+    notes = list(scales[""].notes)
     parts = []
-    for kind, build in PART_BUILDERS.items():
+    for kind in PART_BUILDERS:
         if kind not in plan.parts:
             continue
-        if kind != "plate":
-            ctx = PartContext(plan, dims, kit_scales)
-            parts.append(replace(on_material(build(ctx), plan), id=part_id(kind)))
-            continue
-        for plate in plan.plates:
-            scales[plate.id] = kit_scales if plate is plan.plates[0] else plan_scales(plan, plate, dims)
-            if plate is not plan.plates[0]:
-                notes += [n for n in scales[plate.id].notes if n.values.get("part") is not None
+        for plate in plan.plates if kind == "plate" else (None,):
+            key = plate.id if plate is not None else part_id(kind)
+            if plate is not None and plate is not plan.plates[0]:
+                notes += [n for n in scales[key].notes if n.values.get("part") is not None
                           and n.values["part"].key == "notes.part.plate_numbered"]
-            ctx = PartContext(plan, dims, scales[plate.id], plate)
-            parts.append(replace(on_material(build(ctx), plan), id=plate.id))
+            parts.append(drawn[key] if key in drawn else _draw(plan, dims, scales, kind, plate))
     parts = tuple(parts)
     notes += rim_notes(plan)
     notes += clock_ring_notes(parts, dims)  # the back without its clock ring says so (#10)
@@ -184,12 +189,51 @@ def _nameless(plan: Plan) -> _Nameless:
         if missing:
             raise UserError("errors.accuracy_page_parts", parts=list(READING_PARTS), missing=missing)
         kit = replace(kit, accuracy=check_kit(kit))
-    return _Nameless(kit, scales, tuple(notes))
+    while len(_NAMELESS) >= 4:
+        del _NAMELESS[next(iter(_NAMELESS))]
+    _NAMELESS[plan] = _Nameless(kit, scales, tuple(notes))
+    return _NAMELESS[plan]
 
 
-def build_kit(recipe: Recipe) -> Kit:
-    """Every part of the kit the recipe describes, as geometry in mm."""
-    return build_from_plan(replace(_plan(replace(recipe, owner="")), owner=recipe.owner))
+def _sizes(plan: Plan) -> tuple[Dimensions, dict]:
+    """The kit's dimensions and each part's scales (kitgen.parts.legibility)
+    by part id: a plate's own, ``""`` the kit's (its first plate's)."""
+    dims = dimensions(plan.diameter_mm, plan.sky.obliquity_rad, plan.sky.rim_deg, plan.hemisphere_sign)
+    kit_scales = plan_scales(plan, plan.plates[0], dims)
+    scales = {"": kit_scales}
+    for plate in plan.plates:
+        scales[plate.id] = kit_scales if plate is plan.plates[0] else plan_scales(plan, plate, dims)
+    return dims, scales
+
+
+def _draw(plan: Plan, dims: Dimensions, scales: dict, kind: str, plate=None) -> Part:
+    """One part of the nameless kit, with its id."""
+    if plate is None:
+        return replace(on_material(PART_BUILDERS[kind](PartContext(plan, dims, scales[""])), plan), id=part_id(kind))
+    ctx = PartContext(plan, dims, scales[plate.id], plate)
+    return replace(on_material(PART_BUILDERS[kind](ctx), plan), id=plate.id)
+
+
+def draw_parts(recipe: Recipe) -> dict[str, Part]:
+    """The plates of the recipe's kit drawn without an owner's name, by
+    id, as :func:`build_kit` draws them: a class set's worker draws them
+    for a school that another worker builds (#12), which passes them to
+    :func:`build_kit` as ``drawn``."""
+    plan = _plan(replace(recipe, owner=""))
+    if "plate" not in plan.parts:
+        return {}
+    dims, scales = _sizes(plan)
+    return {plate.id: _draw(plan, dims, scales, "plate", plate) for plate in plan.plates}
+
+
+def build_kit(recipe: Recipe, drawn: dict | None = None) -> Kit:
+    """Every part of the kit the recipe describes, as geometry in mm;
+    ``drawn``, the parts of it another worker has drawn already
+    (:func:`draw_parts`)."""
+    plan = _plan(replace(recipe, owner=""))
+    if drawn:
+        _nameless(plan, drawn)
+    return build_from_plan(replace(plan, owner=recipe.owner))
 
 
 @lru_cache(maxsize=4)

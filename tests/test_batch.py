@@ -29,6 +29,9 @@ import yaml
 from pypdf import PdfReader
 
 from kitgen.batch.naming import kit_file_names, kit_stem
+from kitgen.batch.run import plate_moves, worker_shares
+from kitgen.batch.setfile import load_set
+from kitgen.batch.work import KitJob
 from kitgen.batch.setfile import SetKit
 from kitgen.cli import main
 from kitgen.errors import Message
@@ -202,9 +205,12 @@ def test_print_files_hold_every_kits_pages_in_order(one_worker):
     assert at == {m: len(printed[m]) for m in at}
 
 
-def test_one_and_two_workers_give_the_same_bytes(one_worker, two_workers):
+def test_one_and_two_workers_give_the_same_bytes(class_set, one_worker, two_workers):
     _, one = one_worker
     done, two = two_workers
+    # the set has two workers draw a plate for each other (kitgen.batch.run.plate_moves)
+    jobs = [KitJob(k.number, k.recipe, "") for k in load_set(class_set / "set.yaml").kits if k.error is None]
+    assert plate_moves(worker_shares(jobs, 2))
     names = sorted(p.relative_to(one) for p in one.rglob("*") if p.is_file())
     assert names == sorted(p.relative_to(two) for p in two.rglob("*") if p.is_file())
     for name in names:

@@ -7,9 +7,13 @@ whose schedule is within 4/3 of the best."""
 
 from __future__ import annotations
 
-from kitgen.batch.run import SCHOOL_COST_KITS, worker_shares
+import pickle
+
+from kitgen import kit as kit_module
+from kitgen.batch.run import PLATE_COST_KITS, SCHOOL_COST_KITS, plate_moves, worker_shares
 from kitgen.batch.work import KitJob
 from kitgen.recipe.load import validate_recipe
+from kitgen.render.json_export import render_json
 
 
 def _jobs(schools):
@@ -84,3 +88,44 @@ def test_a_school_stays_whole_where_splitting_costs_more():
     shares = worker_shares(jobs, 3)
     assert sum(any(_school(j) == 51.5 for j in s) for s in shares) == 1
     assert sorted(len({_school(j) for j in s}) for s in shares) == [2, 2, 2]
+
+
+def _loads(shares, moves):
+    loads = [len(s) + SCHOOL_COST_KITS * len({_school(j) for j in s}) for s in shares]
+    for busy, idle, _ in moves:
+        loads[busy] -= PLATE_COST_KITS
+        loads[idle] += PLATE_COST_KITS
+    return loads
+
+
+def test_plates_of_an_odd_school_out_are_drawn_by_the_other_worker():
+    # five schools of eight on two workers: three schools against two
+    # whole; with plates moved the loads differ by less than a plate
+    jobs = _jobs([(51.5, 8), (45.8, 8), (-23.5, 8), (38.0, 8), (12.0, 8)])
+    shares = worker_shares(jobs, 2)
+    moves = plate_moves(shares)
+    assert moves
+    before, after = _loads(shares, []), _loads(shares, moves)
+    assert max(after) < max(before) and max(after) - min(after) <= PLATE_COST_KITS
+    for busy, idle, school in moves:
+        assert busy != idle and any(_school(j) == school.latitude_deg for j in shares[busy])
+        assert school.latitude_deg != _school(shares[busy][0])   # each worker draws its first school itself
+
+
+def test_even_schools_move_no_plates():
+    shares = worker_shares(_jobs([(51.5, 10), (45.8, 10), (-23.5, 10), (38.0, 10)]), 2)
+    assert plate_moves(shares) == []
+
+
+def test_plates_drawn_elsewhere_give_the_same_kit():
+    # the plates drawn by another process (pickled there and back) and
+    # handed to build_kit give the kit built alone, element for element
+    recipe = validate_recipe({"latitude": -33.9, "language": "es", "owner": "Ana Beltrán", "diameter_mm": 80})
+    alone = render_json(kit_module.build_kit(recipe))
+    drawn = pickle.loads(pickle.dumps(kit_module.draw_parts(recipe)))
+    kit_module._NAMELESS.clear()
+    kit_module._plan.cache_clear()
+    given = kit_module.build_kit(recipe, drawn)
+    assert render_json(given) == alone
+    assert list(drawn) == ["plate-1"]
+    assert next(iter(kit_module._NAMELESS.values())).kit.part("plate-1") is drawn["plate-1"]

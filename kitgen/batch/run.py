@@ -15,7 +15,7 @@ import os
 import signal
 import sys
 import time
-from concurrent.futures import ProcessPoolExecutor, as_completed
+from concurrent.futures import FIRST_COMPLETED, ProcessPoolExecutor, wait
 from contextlib import ExitStack
 from dataclasses import dataclass, replace
 from pathlib import Path
@@ -28,7 +28,7 @@ from .naming import kit_file_names
 from .printfiles import PrintedKit, PrintFiles
 from .progress import progress
 from .setfile import load_set
-from .work import KitJob, build_one, warm
+from .work import KitJob, PartsJob, build_one, draw_for, warm
 
 PRINT_NAMES = {"card": "print-card.pdf", "film": "print-film.pdf"}
 #: Most worker processes one run may ask for.
@@ -145,24 +145,42 @@ def _stamp_name(kit) -> str:
 def _build_all(jobs_list, jobs: int, languages, speak):
     """Each job's :class:`~kitgen.batch.work.KitResult`, as they finish:
     in this process for one job, else each worker its share
-    (:func:`worker_shares`), a process of its own."""
+    (:func:`worker_shares`), a process of its own, with some schools'
+    plates drawn by a less loaded worker (:func:`plate_moves`): their
+    kits are sent to their own worker once the plates are back."""
     if jobs == 1:
         warm(languages, speak)
         for job in worker_shares(jobs_list, 1)[0]:
             yield build_one(job)
         return
+    shares = worker_shares(jobs_list, jobs)
+    moves = plate_moves(shares)
     with ExitStack() as stack:
-        futures = []
-        for share in worker_shares(jobs_list, jobs):
-            pool = stack.enter_context(ProcessPoolExecutor(max_workers=1, mp_context=_context(),
-                                                           initializer=_worker_start,
-                                                           initargs=(languages, speak)))
-            futures += [pool.submit(build_one, job) for job in share]
+        pools = [stack.enter_context(ProcessPoolExecutor(max_workers=1, mp_context=_context(),
+                                                         initializer=_worker_start, initargs=(languages, speak)))
+                 for _ in shares]
+        drawing, waiting = {}, {}
+        for source, target, school in moves:
+            jobs_of = [job for job in shares[source] if _school(job) == school]
+            drawing[pools[target].submit(draw_for, PartsJob(jobs_of[0].recipe))] = (source, school)
+            waiting[(source, school)] = jobs_of
+        pending = set(drawing)
+        for k, share in enumerate(shares):
+            pending |= {pools[k].submit(build_one, job) for job in share if (k, _school(job)) not in waiting}
         try:
-            for future in as_completed(futures):
-                yield future.result()
+            while pending:
+                done, pending = wait(pending, return_when=FIRST_COMPLETED)
+                for future in sorted(done, key=lambda f: f in drawing):
+                    if future not in drawing:
+                        yield future.result()
+                        continue
+                    source, school = drawing.pop(future)
+                    parts = future.result().parts
+                    jobs_of = waiting.pop((source, school))
+                    pending |= {pools[source].submit(build_one, replace(job, drawn=parts) if k == 0 and parts
+                                                     else job) for k, job in enumerate(jobs_of)}
         except BaseException:
-            for future in futures:
+            for future in pending:
                 future.cancel()
             raise
 
@@ -195,6 +213,34 @@ def worker_shares(jobs_list, jobs: int) -> list[list]:
                  for n in range(1, min(jobs, len(groups[key])) + 1)]
         counts[key] = min(tried)[1]
     return [_school_order(share_) for share_ in _deal(groups, counts, jobs)[0] if share_]
+
+
+#: What drawing a school's plates costs, in its pupils' kits' time (part of
+#: :data:`SCHOOL_COST_KITS`).
+PLATE_COST_KITS = 18
+
+
+def plate_moves(shares: list[list]) -> list[tuple[int, int, object]]:
+    """Which schools' plates another worker draws: (the school's worker,
+    the drawing worker, the school) for each.  While the busiest worker's
+    load (its kits, and :data:`SCHOOL_COST_KITS` a school) less a school's
+    plates (:data:`PLATE_COST_KITS`) would still exceed the least busy
+    one's with them, the busiest worker's last school not yet moved has
+    its plates drawn by the least busy one, so that a set of few schools
+    (three, five) is shared more evenly than whole schools allow.  Each
+    worker keeps its first school's plates, drawn while the other draws
+    its plates for it.  Which worker draws a part never changes its bytes."""
+    schools = [list(dict.fromkeys(_school(job) for job in share)) for share in shares]
+    loads = [len(share) + SCHOOL_COST_KITS * len(own) for share, own in zip(shares, schools)]
+    moved: list[tuple[int, int, object]] = []
+    while True:
+        busy, idle = loads.index(max(loads)), loads.index(min(loads))
+        left = [s for s in schools[busy][1:] if all((busy, s) != (m[0], m[2]) for m in moved)]
+        if not left or loads[idle] + PLATE_COST_KITS >= loads[busy]:
+            return moved
+        moved.append((busy, idle, left[-1]))
+        loads[busy] -= PLATE_COST_KITS
+        loads[idle] += PLATE_COST_KITS
 
 
 def _school(job):

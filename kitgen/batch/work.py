@@ -8,17 +8,18 @@ goes through the very entry points ``kitgen build`` uses
 :func:`kitgen.render.pdf.render_layers`, as :func:`kitgen.render.pdf.build_pdf`), so its
 PDF is byte for byte the one a single build of the same recipe writes.
 Identical recipes in one worker (a kits list without owners, say) are
-built once (:func:`_built`).
+built once (:func:`_built`).  A worker may also draw another's school's
+plates (:func:`draw_for`), which that worker's kits then take as drawn.
 """
 
 from __future__ import annotations
 
 import sys
-from dataclasses import dataclass
+from dataclasses import dataclass, field, replace
 from functools import lru_cache
 
 from ..errors import Message, UserError, one_line, speaking
-from ..kit import build_kit
+from ..kit import build_kit, draw_parts
 from ..render import pdf_text
 from ..layout.pages import layout_kit
 from ..render.pdf import render_layers
@@ -37,6 +38,23 @@ class KitJob:
     number: int
     recipe: object          # kitgen.recipe.schema.Recipe
     stamp_name: str
+    #: Parts of the kit's school drawn by another worker (:func:`draw_for`),
+    #: by id, or None.
+    drawn: dict | None = field(default=None, compare=False)
+
+
+@dataclass(frozen=True)
+class PartsJob:
+    """The plates of a school's kit for one worker to draw for another:
+    the school of ``recipe`` (one of its kits' recipes)."""
+
+    recipe: object
+
+
+@dataclass(frozen=True)
+class PartsResult:
+    job: PartsJob
+    parts: dict | None      # by id; None when drawing them failed (the school's own worker says why)
 
 
 @dataclass(frozen=True)
@@ -74,10 +92,22 @@ def warm(languages: tuple[str, ...] = ("en",), speak: str | None = None) -> None
     _SPEAK["words"] = load_words(speak) if speak in available_languages() else None
 
 
+def draw_for(job: PartsJob) -> PartsResult:
+    """Draw ``job``'s plates for another worker (kitgen.kit.draw_parts); a
+    failure draws nothing, and the school's worker meets it itself."""
+    try:
+        with speaking(job.recipe.language, job.recipe.language_file or None):
+            return PartsResult(job, draw_parts(job.recipe))
+    except Exception:
+        return PartsResult(job, None)
+
+
 def build_one(job: KitJob) -> KitResult:
     """Build the kit of ``job``; a failure is its one-line reason."""
     try:
         with speaking(job.recipe.language, job.recipe.language_file or None):
+            if job.drawn:   # the school's kit without a name, with the parts drawn elsewhere, kept
+                build_kit(replace(job.recipe, owner=""), job.drawn)
             layers, stamp, materials, margin = _built(job.recipe, job.number, job.stamp_name)
         return KitResult(job.number, layers.pdf, stamp, materials, margin, peak_rss_kib=_peak_rss_kib(),
                          shared=layers.shared, owner_pages=layers.indices, overlay=layers.overlay)
