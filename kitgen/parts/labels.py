@@ -264,12 +264,15 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
         own = own_boxes[k] if own_boxes is not None else None
         g = NAME_GAP_MM
         names = np.array([c[2] for j, c in chosen.items() if j != k], dtype=float).reshape(-1, 4)
+        spans = np.array([segment_box(*c[3]) for j, c in chosen.items() if j != k and c[3] is not None],
+                         dtype=float).reshape(-1, 4)
         across = None
-        for i, table, roomy in free_of(blocks_of(k), names, g if with_leaders else None):
+        for i, table, roomy, by_leader in free_of(blocks_of(k), names, g if with_leaders else None, spans):
             at, anchor, needs_leader, box = _place(table, i)
             if i not in roomy:
                 roomy[i] = room(box)
-            if not roomy[i] or any(_segment_meets_box(a, b, box) for a, b in near(lines, box, k, slack)):
+            if not roomy[i] or by_leader and any(_segment_meets_box(a, b, box)
+                                                 for a, b in near(lines, box, k, slack)):
                 continue
             if with_leaders:
                 if not needs_leader and (not _nearest_own(box, k, points, leaders_from_mm, dots, dot_mm)
@@ -304,17 +307,21 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
             return (at, anchor, box, leader)
         return across
 
-    def free_of(blocks, names, gap_mm):
-        """(index, table, roomy) of each place of the blocks, in order,
-        that meets no box of ``names`` (nor, with ``gap_mm``, comes within
-        that of one), each block's places tested all at once."""
+    def free_of(blocks, names, gap_mm, spans):
+        """(index, table, roomy, by_leader) of each place of the blocks, in
+        order, that meets no box of ``names`` (nor, with ``gap_mm``, comes
+        within that of one), each block's places tested all at once;
+        ``by_leader`` when its box comes within the search's slack of a box
+        of ``spans`` (those of the leaders chosen): a leader whose box
+        stays farther cannot meet it."""
         for table, clear, array, roomy in blocks:
             taken = meets_any(array, names)
             if gap_mm is not None:
                 taken |= meets_any(array + np.array([-gap_mm, -gap_mm, gap_mm, gap_mm]), names)
-            for i, t in zip(clear, taken.tolist()):
+            by_leader = meets_any(array + np.array([-slack, -slack, slack, slack]), spans)
+            for i, t, b in zip(clear, taken.tolist(), by_leader.tolist()):
                 if not t:
-                    yield i, table, roomy
+                    yield i, table, roomy, b
 
     for k in range(len(points)):
         choice = choose(k)
