@@ -301,13 +301,30 @@ class Places:
         self.cos, self.sin = np.cos(a), np.sin(a)
         self._boxes: dict[int, Box] = {}
 
+    @classmethod
+    def of_arrays(cls, x, y, half_w: float, half_h: float) -> "Places":
+        """Upright boxes centred on (``x``[i], ``y``[i]) (arrays), each
+        box's centre those arrays' entries, made only when it is asked
+        for (#12: a cardinal letter's thousands of places)."""
+        out = cls.__new__(cls)
+        out.centers, out.angles = None, None
+        out.half_w, out.half_h = half_w, half_h
+        out.x, out.y = x, y
+        out.cos, out.sin = np.ones(len(x)), np.zeros(len(x))
+        out._boxes = {}
+        return out
+
     def __len__(self) -> int:
-        return len(self.centers)
+        return len(self.x)
 
     def box(self, i: int) -> Box:
         b = self._boxes.get(i)
         if b is None:
-            b = self._boxes[i] = Box(self.centers[i], self.angles[i], self.half_w, self.half_h)
+            if self.centers is None:   # upright, on the arrays' entries
+                b = Box((self.x[i], self.y[i]), 0.0, self.half_w, self.half_h)
+            else:
+                b = Box(self.centers[i], self.angles[i], self.half_w, self.half_h)
+            self._boxes[i] = b
         return b
 
     def inside(self, room: Room) -> np.ndarray:
@@ -445,6 +462,12 @@ def around(point, step_mm: float, reach_mm: float, prefer=(0.0, 0.0)):
     """Points round ``point`` on a square grid ``step_mm`` apart, within
     ``reach_mm``, nearest first; at equal distance those towards the unit
     direction ``prefer`` first."""
+    dx, dy = _around_offsets(step_mm, reach_mm, prefer)
+    return [(point[0] + float(a), point[1] + float(b)) for a, b in zip(dx, dy)]
+
+
+def _around_offsets(step_mm: float, reach_mm: float, prefer):
+    """The offsets (dx, dy as arrays) of :func:`around`'s points, in its order."""
     n = int(reach_mm / step_mm)
     i, j = np.meshgrid(np.arange(-n, n + 1), np.arange(-n, n + 1))
     dx, dy = (i * step_mm).ravel(), (j * step_mm).ravel()
@@ -452,12 +475,7 @@ def around(point, step_mm: float, reach_mm: float, prefer=(0.0, 0.0)):
     keep = d <= reach_mm
     dx, dy, d = dx[keep], dy[keep], d[keep]
     order = np.lexsort((-(dx * prefer[0] + dy * prefer[1]), np.round(d / step_mm)))
-    x, y = point[0], point[1]
-    if type(x) in (float, np.float64) and type(y) in (float, np.float64):
-        # the same sums as below, as arrays, each of the type it had (#12)
-        xs, ys = x + dx[order], y + dy[order]
-        return list(zip(xs.tolist() if type(x) is float else list(xs), ys.tolist() if type(y) is float else list(ys)))
-    return [(point[0] + float(dx[k]), point[1] + float(dy[k])) for k in order]
+    return dx[order], dy[order]
 
 
 class PlateLabeller:
@@ -553,12 +571,14 @@ class PlateLabeller:
         at_pin = pin.contains(*p0)
         target = pin if at_pin else Box((float(p0[0]), float(p0[1])), 0.0, 0.0, 0.0)
         protected = self.others()
-        cands = around(p0, max(STEP_MM, ext.height_mm / 8), max(6 * ext.height_mm, 12.0), prefer)
-        # The places tested many at a time, as arrays, and those no line
+        dx, dy = _around_offsets(max(STEP_MM, ext.height_mm / 8), max(6 * ext.height_mm, 12.0), prefer)
+        # The places round the point (those of around(), each centre
+        # p0's coordinates plus the offsets as arrays: the same sums)
+        # tested many at a time, as arrays, and those no line
         # surely meets one by one; what does not change from one pass to
         # the next is found once per place, and only where the place can
         # still be taken: at the pin, never farther than NEAR_MM (#12).
-        places = Places(cands, [0.0] * len(cands), ext.width_mm / 2, ext.height_mm / 2)
+        places = Places.of_arrays(p0[0] + dx, p0[1] + dy, ext.width_mm / 2, ext.height_mm / 2)
         far = _far_from(places, target)
         room = self.room
         can = places.inside(room) & ~(far & at_pin)
