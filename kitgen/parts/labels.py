@@ -235,9 +235,11 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
         :func:`_place_blocks`), each found when first needed: its places
         (a table of :func:`_place_table`, read by :func:`_place`), the
         indices of those that meet no box kept out and their boxes as an
-        array, and whether each place (by index) stays inside
-        ``inside_radius_mm`` and off the rings kept out, once tested: all
-        the same whatever is chosen."""
+        array, and a memo of the tests of each place (by index) that give
+        the same whatever is chosen (:func:`_once`): whether it stays
+        inside ``inside_radius_mm`` and off the rings kept out, reads as
+        its point's, its leader, and whether that passes another dot or
+        crosses a ring kept out."""
         found = tried.setdefault(k, [])
         for n, (some, needs_leader) in enumerate(_place_blocks(reaches, with_leaders)):
             if n == len(found):
@@ -267,25 +269,24 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
         spans = np.array([segment_box(*c[3]) for j, c in chosen.items() if j != k and c[3] is not None],
                          dtype=float).reshape(-1, 4)
         across = None
-        for i, table, roomy, by_leader in free_of(blocks_of(k), names, g if with_leaders else None, spans):
+        for i, table, memo, by_leader in free_of(blocks_of(k), names, g if with_leaders else None, spans):
             at, anchor, needs_leader, box = _place(table, i)
-            if i not in roomy:
-                roomy[i] = room(box)
-            if not roomy[i] or by_leader and any(_segment_meets_box(a, b, box)
-                                                 for a, b in near(lines, box, k, slack)):
+            if not _once(memo, ("room", i), room, box) \
+                    or by_leader and any(_segment_meets_box(a, b, box) for a, b in near(lines, box, k, slack)):
                 continue
             if with_leaders:
-                if not needs_leader and (not _nearest_own(box, k, points, leaders_from_mm, dots, dot_mm)
+                if not needs_leader and (not _once(memo, ("own", i), _nearest_own, box, k, points, leaders_from_mm,
+                                                   dots, dot_mm)
                                          or any(_segments_cross(a, b, p, q)
                                                 for a, b in near(lines, _link_box((x, y), box), k, slack)
                                                 for p, q in _link((x, y), box))):
                     continue
-                if needs_leader and _beside_another(box, k, points, leaders_from_mm,
-                                                    max(offset_mm * LEADER_NAME_CLEAR, NAME_GAP_MM), dots, dot_mm):
+                if needs_leader and _once(memo, ("beside", i), _beside_another, box, k, points, leaders_from_mm,
+                                          max(offset_mm * LEADER_NAME_CLEAR, NAME_GAP_MM), dots, dot_mm):
                     continue
             leader = None
             if needs_leader:
-                leader = leader_ends((x, y), box, leaders_from_mm[k] + MARGIN_MM)
+                leader = _once(memo, ("leader", i), leader_ends, (x, y), box, leaders_from_mm[k] + MARGIN_MM)
                 if leader is None:
                     continue
                 span = segment_box(*leader)
@@ -294,11 +295,12 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
                         or any(_segments_cross(leader[0], leader[1], a, b) for a, b in near(lines, span, k, slack)) \
                         or any(_segments_cross(leader[0], leader[1], p, q)
                                for link in near(links, span, k, slack) for p, q in link) \
-                        or _passes_another(leader, k, points, leaders_from_mm, LEADER_CLEAR_MM, dots, dot_mm):
+                        or _once(memo, ("passes", i), _passes_another, leader, k, points, leaders_from_mm,
+                                 LEADER_CLEAR_MM, dots, dot_mm):
                     # (two leaders never cross, nor pass between another
                     # label and its point)
                     continue
-                crossed = [ring for ring in keep_out_rings if _segment_meets_ring(leader[0], leader[1], ring)]
+                crossed = _once(memo, ("crossed", i), _rings_met, leader, keep_out_rings)
                 if crossed:
                     # (a dot on a ring must cross it)
                     if across is None and all(_segment_meets_ring((x, y), (x, y), ring) for ring in crossed):
@@ -308,20 +310,20 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
         return across
 
     def free_of(blocks, names, gap_mm, spans):
-        """(index, table, roomy, by_leader) of each place of the blocks, in
+        """(index, table, memo, by_leader) of each place of the blocks, in
         order, that meets no box of ``names`` (nor, with ``gap_mm``, comes
         within that of one), each block's places tested all at once;
         ``by_leader`` when its box comes within the search's slack of a box
         of ``spans`` (those of the leaders chosen): a leader whose box
         stays farther cannot meet it."""
-        for table, clear, array, roomy in blocks:
+        for table, clear, array, memo in blocks:
             taken = meets_any(array, names)
             if gap_mm is not None:
                 taken |= meets_any(array + np.array([-gap_mm, -gap_mm, gap_mm, gap_mm]), names)
             by_leader = meets_any(array + np.array([-slack, -slack, slack, slack]), spans)
             for i, t, b in zip(clear, taken.tolist(), by_leader.tolist()):
                 if not t:
-                    yield i, table, roomy, b
+                    yield i, table, memo, b
 
     for k in range(len(points)):
         choice = choose(k)
@@ -351,6 +353,20 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
         c = chosen.get(k)
         out.append(None if c is None else c[:2] if not with_leaders else (c[0], c[1], c[3]))
     return out
+
+
+def _once(memo: dict, key, compute, *args):
+    """``memo[key]``, found by ``compute(*args)`` the first time (#12: a
+    place tried again, as the names are chosen and repaired, is not tested
+    again for what does not change)."""
+    if key not in memo:
+        memo[key] = compute(*args)
+    return memo[key]
+
+
+def _rings_met(segment, rings) -> list:
+    """The rings of ``rings`` that a segment meets."""
+    return [ring for ring in rings if _segment_meets_ring(segment[0], segment[1], ring)]
 
 
 def _place_blocks(reaches, with_leaders):
