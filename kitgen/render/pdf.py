@@ -121,32 +121,35 @@ def draw_elements(c: Canvas, pen: _Pen, elements, holes: Holes = Holes()) -> Non
     """Elements, each as its inks (none for a line thinned away).  A
     line's or dot's PDF operators are kept with the element
     (:func:`_drawn`), so the parts a class set's kits share (#12) are
-    turned into operators once."""
+    turned into operators once; the pen is asked for a line's style only
+    when the style differs from the last line's."""
     add = c._code.append
+    last = None
     for drawn in _drawn(elements, pen.dims, holes):
-        for ink, code in drawn:
+        for style_key, code, ink in drawn:
             if code is None:
                 draw_ink(c, pen, ink)
                 continue
-            if ink.shape == "dot":
+            if style_key is None:
                 c.setFillGray(0.0)
-            else:
-                pen.use(ink.stroke, ink.role)
+            elif style_key is not last:
+                pen.use(*style_key)
+                last = style_key
             add(code)
 
 
 #: Each drawn element's inks with their operators, per hole sizes and
 #: line weights, by the element's identity:
-#: ``(holes, id(dims)) -> (dims, {id: (element, ((ink, code or None), ...))})``.
+#: ``(holes, id(dims)) -> (dims, {id: (element, ((style key, code, ink), ...))})``
+#: (:func:`_made`).
 _DRAWN: dict[tuple, tuple] = {}
 #: The most elements kept (a few kits' worth; then the store starts afresh).
 _DRAWN_MOST = 40_000
 
 
 def _drawn(elements, dims, holes: Holes) -> list[tuple]:
-    """Each element's inks with their operators (None for text): those
-    not kept yet made together, their numbers written in one pass
-    (:func:`kitgen.render.pdf_canvas.pt_texts`)."""
+    """Each element's inks with their operators (:func:`_made`), those
+    not kept yet made together."""
     store = _DRAWN.get((holes, id(dims)))
     if store is None or store[0] is not dims:
         store = _DRAWN[(holes, id(dims))] = (dims, {})
@@ -163,16 +166,70 @@ def _drawn(elements, dims, holes: Holes) -> list[tuple]:
             _DRAWN.clear()
             _DRAWN[(holes, id(dims))] = (dims, kept)
             kept.clear()
-        each = [[(ink, _ink_numbers_pt(ink)) for ink in inks(elements[i], dims, holes)] for i in missing]
-        texts = pt_texts([n for el_inks in each for _, numbers in el_inks for n in numbers])
-        k = 0
-        for i, el_inks in zip(missing, each):
-            drawn = []
-            for ink, numbers in el_inks:
-                drawn.append((ink, _ink_operators(ink, texts[k:k + len(numbers)])))
-                k += len(numbers)
-            out[i] = tuple(drawn)
-            kept[id(elements[i])] = (elements[i], out[i])
+        made = _made([elements[i] for i in missing], dims, holes)
+        for i, drawn in zip(missing, made):
+            out[i] = drawn
+            kept[id(elements[i])] = (elements[i], drawn)
+    return out
+
+
+#: The style keys of :func:`_made`, one object per (stroke, role), so that
+#: :func:`draw_elements` can tell a change of style by identity.
+_STYLE_KEYS: dict[tuple[str, str], tuple[str, str]] = {}
+
+
+def _made(elements, dims, holes: Holes) -> list[tuple]:
+    """Each element's inks, each as ``(style key, code, ink)``: a line's
+    ``(stroke, role)`` key and operators, a dot's None key and operators,
+    text's None code (text is drawn through the fonts each time).  A line
+    element is its own ink (:func:`kitgen.render.ink.inks` makes an ink
+    of the same shape, geometry, stroke and role), so only points are
+    turned into inks; every number is written in one pass
+    (:func:`kitgen.render.pdf_canvas.pt_texts`)."""
+    keys = _STYLE_KEYS
+    each, numbers, counts = [], [], []
+    for el in elements:
+        shape = el.shape
+        if shape == "text":
+            el_inks = (el,)
+        elif el.stroke == "none":
+            el_inks = ()
+        elif shape == "segment":
+            g = el.geom
+            (x0, y0), (x1, y1) = g["from"], g["to"]
+            numbers += (x0 * mm, y0 * mm, x1 * mm, y1 * mm)
+            each.append((el,))
+            continue
+        else:
+            el_inks = inks(el, dims, holes) if shape == "point" else (el,)
+            for ink in el_inks:
+                ink_numbers = _ink_numbers_pt(ink)
+                numbers += ink_numbers
+                if ink.shape != "segment":
+                    counts.append(len(ink_numbers))
+        each.append(el_inks)
+    texts = pt_texts(numbers)
+    out, k, count_of = [], 0, iter(counts)
+    for el_inks in each:
+        drawn = []
+        for ink in el_inks:
+            shape = ink.shape
+            if shape == "text":
+                drawn.append((None, None, ink))
+                continue
+            if shape == "segment":
+                code = "n %s %s m %s %s l S" % (texts[k], texts[k + 1], texts[k + 2], texts[k + 3])
+                k += 4
+            else:
+                count = next(count_of)
+                code = _ink_operators(ink, texts[k:k + count])
+                k += count
+            if shape == "dot":
+                drawn.append((None, code, ink))
+            else:
+                key = (ink.stroke, ink.role)
+                drawn.append((keys.setdefault(key, key), code, ink))
+        out.append(tuple(drawn))
     return out
 
 
