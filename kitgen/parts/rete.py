@@ -60,15 +60,14 @@ def rete(ctx: PartContext) -> model.Part:
     # Laid out as the mater back's ecliptic scale (kitgen.parts.ring_numbers),
     # from the ecliptic inwards: ticks, the numbers 10 and 20 of each sign,
     # then the sign's name.
-    for lon, p in zip(lons, pts):
-        u = (c - p) / np.linalg.norm(c - p)
-        if lon % 30 == 0:
-            length = band
-        else:
-            length = band * (NUMBERED_TICK if lon % 5 == 0 else SHORT_TICK)
+    # Each tick runs towards the ecliptic's centre (its direction from
+    # each point's own norm, as NumPy rounds it), the tips found at once.
+    towards = c - pts
+    lengths = [band if lon % 30 == 0 else band * (NUMBERED_TICK if lon % 5 == 0 else SHORT_TICK) for lon in lons]
+    tips = pts + towards / np.array([np.linalg.norm(v) for v in towards])[:, None] * np.array(lengths)[:, None]
+    for lon, p, tip in zip(lons.tolist(), pts.tolist(), tips.tolist()):
         stroke = ("light" if lon % 5 else "medium") if int(lon) in drawn else "none"  # "none": kept, not drawn
-        els.append(model.segment("ecliptic_tick", p, p + u * length, stroke,
-                                 at=(float(p[0]), float(p[1])), longitude_deg=float(lon)))
+        els.append(model.segment("ecliptic_tick", p, tip, stroke, at=(p[0], p[1]), longitude_deg=lon))
     lift, digits_h = number_row(w, d.small_text_pt, band)
     r_num = image.radius_mm - lift - digits_h / 2
     for lon in ctx.scales.ecliptic_numbers_deg:
