@@ -209,7 +209,7 @@ def test_one_and_two_workers_give_the_same_bytes(class_set, one_worker, two_work
     _, one = one_worker
     done, two = two_workers
     # the set has two workers draw a plate for each other (kitgen.batch.run.plate_moves)
-    jobs = [KitJob(k.number, k.recipe, "") for k in load_set(class_set / "set.yaml").kits if k.error is None]
+    jobs = [KitJob(k.number, k.recipe) for k in load_set(class_set / "set.yaml").kits if k.error is None]
     assert plate_moves(worker_shares(jobs, 2))
     names = sorted(p.relative_to(one) for p in one.rglob("*") if p.is_file())
     assert names == sorted(p.relative_to(two) for p in two.rglob("*") if p.is_file())

@@ -22,7 +22,7 @@ def _jobs(schools):
     for lat, pupils in schools:
         for k in range(pupils):
             n += 1
-            jobs.append(KitJob(n, validate_recipe({"latitude": lat, "owner": f"Pupil {n}"}), f"Pupil {n}"))
+            jobs.append(KitJob(n, validate_recipe({"latitude": lat, "owner": f"Pupil {n}"})))
     return jobs
 
 
@@ -44,7 +44,7 @@ def test_a_mixed_roster_is_built_school_by_school():
     jobs, lats = [], (51.5, -33.9, 0.5, 64.1, 12.0)
     for n in range(1, 26):
         lat = lats[(n - 1) % 5]
-        jobs.append(KitJob(n, validate_recipe({"latitude": lat, "owner": f"Pupil {n}"}), f"Pupil {n}"))
+        jobs.append(KitJob(n, validate_recipe({"latitude": lat, "owner": f"Pupil {n}"})))
     for workers in (1, 2):
         shares = worker_shares(jobs, workers)
         assert sorted(j.number for s in shares for j in s) == list(range(1, 26))

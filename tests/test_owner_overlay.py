@@ -188,15 +188,18 @@ def test_a_schools_pupils_share_their_pages_in_the_print_files():
     shared pages' content streams (the same indirect objects, as pypdf
     reads them back), and each page still holds its kit's own content."""
     from kitgen.batch.printfiles import PrintedKit, PrintFiles
+    from kitgen.batch.stamp import stamps_pdf
     from kitgen.batch.work import KitJob, build_one
+    from kitgen.words.templates import load_words
 
     files = PrintFiles()
-    results = [build_one(KitJob(k + 1, validate_recipe({**SCHOOL, "owner": name}), name))
+    results = [build_one(KitJob(k + 1, validate_recipe({**SCHOOL, "owner": name})))
                for k, name in enumerate(PUPILS)]
-    for r in results:
+    stamps = stamps_pdf(load_words(SCHOOL.get("language", "en")), list(enumerate(PUPILS, 1)))
+    for k, r in enumerate(results):
         assert r.shared and r.owner_pages and r.overlay
-        files.add(PrintedKit(r.number, r.pdf, r.stamp, r.materials, r.margin_mm, 1, r.shared, r.owner_pages,
-                             r.overlay))
+        files.add(PrintedKit(r.number, r.pdf, stamps, r.materials, r.margin_mm, 1, r.shared, r.owner_pages,
+                             r.overlay, k))
     card = PdfReader(io.BytesIO(files.finish()["card"]))
     per_kit = len(card.pages) // 2
     for k in range(per_kit):

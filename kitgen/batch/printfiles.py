@@ -4,9 +4,10 @@ stamped with the kit's number and owner (#12).
 
 The files are written by hand (:mod:`kitgen.render.pdf_objects`): a
 page's objects are copied from its kit's PDF as they are, content and
-fonts untouched, and the stamp (:mod:`kitgen.batch.stamp`) is laid over
-it as a form XObject (ISO 32000-1:2008, 8.10), so a page in a print file
-prints exactly as in its kit.  A named kit's pages come from its
+fonts untouched, and the stamp (:mod:`kitgen.batch.stamp`; a school's
+stamps, with their font, copied once) is laid over it as a form XObject
+(ISO 32000-1:2008, 8.10), so a page in a print file prints exactly as in
+its kit.  A named kit's pages come from its
 school's shared PDF, each object of which is copied into a print file
 once for all the school's pupils, with the pupil's name laid over them
 as in the pupil's own PDF (:mod:`kitgen.render.pdf_owner`).  The output
@@ -32,7 +33,7 @@ class PrintedKit:
 
     number: int
     pdf: bytes
-    stamp: bytes
+    stamp: bytes            # the kit's school's stamps (kitgen.batch.stamp.stamps_pdf)
     materials: tuple[str, ...]
     margin_mm: float
     copies: int
@@ -41,6 +42,7 @@ class PrintedKit:
     shared: bytes = b""
     owner_pages: tuple[int, ...] = ()
     overlay: bytes = b""
+    stamp_page: int = 0     # the kit's own stamp's page in ``stamp``
 
 
 class PrintFiles:
@@ -66,9 +68,9 @@ class PrintFiles:
                 continue
             file = self.files[material]
             pages = file.shared(kit.shared) if kit.shared else Copier(Written(kit.pdf), file.out)
-            stamp = Copier(Written(kit.stamp), file.out)
-            form = form_of(stamp, stamp.source.pages()[0])
-            width_pt = _media_box(stamp.source.head(stamp.source.pages()[0]))[2]
+            stamp = file.shared(kit.stamp)
+            form = form_of(stamp, stamp.source.pages()[kit.stamp_page])
+            width_pt = _media_box(stamp.source.head(stamp.source.pages()[kit.stamp_page]))[2]
             names = Copier(Written(kit.overlay), file.out) if kit.overlay else None
             owner_forms = {i: form_of(names, names.source.pages()[k])
                            for k, i in enumerate(kit.owner_pages) if i in chosen}
@@ -88,7 +90,7 @@ class PrintFiles:
 
 class _File:
     """One print file being written: its objects, its pages' numbers and
-    the copiers of the last two schools' shared PDFs."""
+    the copiers of the last two schools' shared PDFs and stamps."""
 
     def __init__(self):
         self.out = pdf_objects.Out(pdf_objects.HEADER, 1)
@@ -98,10 +100,11 @@ class _File:
         self._shared: dict[bytes, Copier] = {}
 
     def shared(self, pdf: bytes) -> Copier:
-        """The copier of a school's shared PDF, kept for the last two."""
+        """The copier of a PDF a school's kits share (its shared pages, its
+        stamps), kept for the last two schools'."""
         copier = self._shared.get(pdf)
         if copier is None:
-            if len(self._shared) >= 2:
+            if len(self._shared) >= 4:
                 del self._shared[next(iter(self._shared))]
             copier = self._shared[pdf] = Copier(Written(pdf), self.out)
         return copier

@@ -28,6 +28,7 @@ from .naming import kit_file_names
 from .printfiles import PrintedKit, PrintFiles
 from .progress import progress
 from .setfile import load_set
+from .stamp import SchoolStamps
 from .work import KitJob, PartsJob, build_one, draw_for, warm
 
 PRINT_NAMES = {"card": "print-card.pdf", "film": "print-film.pdf"}
@@ -83,7 +84,7 @@ def run_set(set_path, out_dir, jobs: int | None = None, quiet: bool = False, str
     words = load_words(speak) if speak else None
     names = kit_file_names(kit_set.kits)
     errors = {k.number: one_line(k.error.text(words)) for k in kit_set.kits if k.error is not None}
-    jobs_list = [KitJob(k.number, k.recipe, _stamp_name(k)) for k in kit_set.kits if k.error is None]
+    jobs_list = [KitJob(k.number, k.recipe) for k in kit_set.kits if k.error is None]
     jobs = max(1, min(jobs or default_jobs(), len(jobs_list) or 1))
     languages = tuple(sorted({j.recipe.language for j in jobs_list}))
     bar = progress(len(kit_set.kits), quiet, stream)
@@ -94,6 +95,7 @@ def run_set(set_path, out_dir, jobs: int | None = None, quiet: bool = False, str
             for _ in errors:
                 bar.advance()
             printing, waiting, next_number = PrintFiles(), {}, 1
+            stamps = SchoolStamps(k for k in kit_set.kits if k.error is None)
             for result in _build_all(jobs_list, jobs, languages, speak):
                 kit = by_number[result.number]
                 peak = max(peak, result.peak_rss_kib)
@@ -102,12 +104,11 @@ def run_set(set_path, out_dir, jobs: int | None = None, quiet: bool = False, str
                     internal = internal or result.internal
                 else:
                     write_file(tmp / KITS / names[kit.number - 1], result.pdf)
-                    results[result.number] = replace(result, pdf=b"", stamp=b"", shared=b"",
-                                                     overlay=b"")   # the manifest's part
+                    results[result.number] = replace(result, pdf=b"", shared=b"", overlay=b"")   # the manifest's part
                 waiting[result.number] = result
-                next_number = _print_ready(printing, waiting, next_number, by_number)
+                next_number = _print_ready(printing, stamps, waiting, next_number, by_number)
                 bar.advance()
-            _print_ready(printing, waiting, next_number, by_number, last=True)
+            _print_ready(printing, stamps, waiting, next_number, by_number, last=True)
             for material, data in printing.finish().items():
                 write_file(tmp / PRINT_NAMES[material], data)
             spans = printing.ranges
@@ -121,7 +122,7 @@ def run_set(set_path, out_dir, jobs: int | None = None, quiet: bool = False, str
                    time.monotonic() - started, peak, speak)
 
 
-def _print_ready(printing, waiting: dict, next_number: int, by_number: dict, last: bool = False) -> int:
+def _print_ready(printing, stamps, waiting: dict, next_number: int, by_number: dict, last: bool = False) -> int:
     """Add to the print files, in kit order, every kit up to the first one
     not yet built (kits that failed, or were never built, are skipped);
     the print files so grow while later kits are still being built.
@@ -131,15 +132,11 @@ def _print_ready(printing, waiting: dict, next_number: int, by_number: dict, las
         result = waiting.pop(next_number, None)
         if result is not None and not result.error:
             kit = by_number[next_number]
-            printing.add(PrintedKit(next_number, result.pdf, result.stamp, result.materials, result.margin_mm,
-                                    kit.copies, result.shared, result.owner_pages, result.overlay))
+            stamp, stamp_page = stamps.of(next_number)
+            printing.add(PrintedKit(next_number, result.pdf, stamp, result.materials, result.margin_mm,
+                                    kit.copies, result.shared, result.owner_pages, result.overlay, stamp_page))
         next_number += 1
     return next_number
-
-
-def _stamp_name(kit) -> str:
-    recipe = kit.recipe
-    return getattr(recipe, "owner", "") or recipe.title
 
 
 def _build_all(jobs_list, jobs: int, languages, speak):

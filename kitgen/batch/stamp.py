@@ -1,21 +1,25 @@
 """The small stamp on every page of a set's print files: the kit's number
 and its owner (or title), so a printed stack can be sorted (#12).
 
-The stamp is drawn once per kit by reportlab, with the kit's own words
-and fonts (:mod:`kitgen.render.pdf_text`, so an Arabic or Hindi name is
-shaped as on the kit), in invariant mode so that the same kit gives the
-same bytes.  It is then laid on each page of the kit as a form XObject
-(ISO 32000-1:2008, 8.10) in the top margin, right-aligned at the content
-area's edge, after the page's own content wrapped in ``q``/``Q``; the
-page's content stream itself is left as it is.
+The stamps of a school's kits (kits equal but for their owner) are drawn
+by reportlab into one PDF, a page a kit, with the school's words and
+fonts (:mod:`kitgen.render.pdf_text`, so an Arabic or Hindi name is
+shaped as on the kit), in invariant mode so that the same set gives the
+same bytes: its font subset serves all the school's stamps.  A stamp is
+then laid on each page of its kit as a form XObject (ISO 32000-1:2008,
+8.10) in the top margin, right-aligned at the content area's edge, after
+the page's own content wrapped in ``q``/``Q``; the page's content stream
+itself is left as it is.
 """
 
 from __future__ import annotations
 
 import io
+from dataclasses import replace
 
 from reportlab.lib.units import mm
 
+from ..plan.resolve import plan_words
 from ..render import pdf_text
 from ..render.pdf_canvas import new_canvas
 from ..words import fonts
@@ -29,22 +33,54 @@ _PAD_PT = 2.0
 STAMP_FORM = b"/KitgenStamp"
 
 
-def stamp_pdf(kit, number: int, name: str) -> bytes:
-    """A one-page PDF holding only the stamp, its baseline at
-    ``_PAD_PT`` above the page's foot and its left end at 0."""
+def stamps_pdf(words, stamps) -> bytes:
+    """A PDF holding the stamps ``stamps`` ((kit number, name) each) in
+    ``words``' language, a page each in order: each page as wide as its
+    stamp, the baseline at ``_PAD_PT`` above its foot, the left end at 0."""
     pdf_text.register_fonts()
-    w = kit.words
-    text = w("batch.stamp", number=w.number(number), name=name)
-    width = pdf_text.width_pt(text, STAMP_PT, w, "body")
     buf = io.BytesIO()
-    c = new_canvas(buf, (width + _PAD_PT, STAMP_PT + 2 * _PAD_PT),
-                   lang=w.language, initialFontName=fonts.DEJAVU["body"].name, initialFontSize=STAMP_PT)
+    c = new_canvas(buf, (1.0, STAMP_PT + 2 * _PAD_PT), lang=words.language,
+                   initialFontName=fonts.DEJAVU["body"].name, initialFontSize=STAMP_PT)
     c.setCreator("kitgen")
-    c.setFillGray(0.0)
-    pdf_text.draw_at_baseline(c, 0.0, _PAD_PT, text, STAMP_PT, w, "body")
-    c.showPage()
+    for number, name in stamps:
+        text = words("batch.stamp", number=words.number(number), name=name)
+        c.setPageSize((pdf_text.width_pt(text, STAMP_PT, words, "body") + _PAD_PT, STAMP_PT + 2 * _PAD_PT))
+        c.setFillGray(0.0)
+        pdf_text.draw_at_baseline(c, 0.0, _PAD_PT, text, STAMP_PT, words, "body")
+        c.showPage()
     c.save()
     return buf.getvalue()
+
+
+class SchoolStamps:
+    """The stamps of a set's kits (:class:`~kitgen.batch.setfile.SetKit`,
+    those without errors), one PDF a school (:func:`stamps_pdf`, its kits
+    in kit order), each made when a kit of it is first asked for: so the
+    print files are the same whichever worker built which kit."""
+
+    def __init__(self, kits):
+        self._school = {}
+        self._kits: dict = {}
+        for kit in kits:
+            key = replace(kit.recipe, owner="")
+            self._school[kit.number] = key
+            self._kits.setdefault(key, []).append(kit)
+        self._pdfs: dict = {}
+
+    def of(self, number: int) -> tuple[bytes, int]:
+        """(the PDF of kit ``number``'s school's stamps, its page in it)."""
+        key = self._school[number]
+        kits = self._kits[key]
+        if key not in self._pdfs:
+            if len(self._pdfs) >= 4:
+                del self._pdfs[next(iter(self._pdfs))]
+            self._pdfs[key] = stamps_pdf(plan_words(kits[0].recipe), [(k.number, stamp_name(k)) for k in kits])
+        return self._pdfs[key], [k.number for k in kits].index(number)
+
+
+def stamp_name(kit) -> str:
+    """What a kit's stamp names: its owner, else its title."""
+    return kit.recipe.owner or kit.recipe.title
 
 
 def stamp_at(media_box_pt, form_width_pt: float, margin_mm: float) -> tuple[float, float]:

@@ -8,7 +8,7 @@ goes through the very entry points ``kitgen build`` uses
 :func:`kitgen.render.pdf.render_layers`, as :func:`kitgen.render.pdf.build_pdf`), so its
 PDF is byte for byte the one a single build of the same recipe writes.
 Identical recipes in one worker (a kits list without owners, say) are
-built once (:func:`_built`).  A worker may also draw another's school's
+built once (:func:`_kit_pdf`).  A worker may also draw another's school's
 plates (:func:`draw_for`), which that worker's kits then take as drawn.
 """
 
@@ -25,7 +25,6 @@ from ..layout.pages import layout_kit
 from ..render.pdf import render_layers
 from ..sky import stars
 from ..words.templates import available_languages, load_words
-from .stamp import stamp_pdf
 
 try:
     import resource
@@ -37,7 +36,6 @@ except ImportError:   # Windows: no peak memory to tell
 class KitJob:
     number: int
     recipe: object          # kitgen.recipe.schema.Recipe
-    stamp_name: str
     #: Parts of the kit's school drawn by another worker (:func:`draw_for`),
     #: by id, or None.
     drawn: dict | None = field(default=None, compare=False)
@@ -59,13 +57,12 @@ class PartsResult:
 
 @dataclass(frozen=True)
 class KitResult:
-    """What a worker sends back: the kit's PDF and its stamp, the material
-    of each page (``card`` or ``film``; instructions count as card), the
-    sheet's margin (where the stamp goes), or the reason it failed."""
+    """What a worker sends back: the kit's PDF, the material of each page
+    (``card`` or ``film``; instructions count as card), the sheet's
+    margin (where the print files' stamp goes), or the reason it failed."""
 
     number: int
     pdf: bytes = b""
-    stamp: bytes = b""
     materials: tuple[str, ...] = ()
     margin_mm: float = 0.0
     error: str = ""
@@ -108,8 +105,8 @@ def build_one(job: KitJob) -> KitResult:
         with speaking(job.recipe.language, job.recipe.language_file or None):
             if job.drawn:   # the school's kit without a name, with the parts drawn elsewhere, kept
                 build_kit(replace(job.recipe, owner=""), job.drawn)
-            layers, stamp, materials, margin = _built(job.recipe, job.number, job.stamp_name)
-        return KitResult(job.number, layers.pdf, stamp, materials, margin, peak_rss_kib=_peak_rss_kib(),
+            _, layers, materials, margin = _kit_pdf(job.recipe)
+        return KitResult(job.number, layers.pdf, materials, margin, peak_rss_kib=_peak_rss_kib(),
                          shared=layers.shared, owner_pages=layers.indices, overlay=layers.overlay)
     except UserError as exc:
         return KitResult(job.number, error=one_line(exc.text(_SPEAK["words"])), peak_rss_kib=_peak_rss_kib())
@@ -125,11 +122,6 @@ def _kit_pdf(recipe):
     layers = render_layers(kit, pages)
     materials = tuple("film" if p.kind == "film" else "card" for p in pages)
     return kit, layers, materials, pages[0].sheet.margin_mm
-
-
-def _built(recipe, number: int, stamp_name: str):
-    kit, layers, materials, margin = _kit_pdf(recipe)
-    return layers, stamp_pdf(kit, number, stamp_name), materials, margin
 
 
 def _peak_rss_kib() -> int:
