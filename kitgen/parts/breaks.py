@@ -267,14 +267,14 @@ def meets_near(el, box: Box) -> bool:
     shape = el.shape
     if shape == "circle" or shape == "arc":
         center, r = g["center"], g["radius"]
-        crosses = _circle_crosses(center, r, box)
+        crosses = _circle_crosses(center, r, box.center, box.cos, box.sin, box.half_w, box.half_h)
         if shape == "circle":
             return crosses if crosses is not None else bool(circle_inside(center, r, box))
         if crosses is False:
             return False
         lo, hi = math.radians(g["start_deg"]), math.radians(g["end_deg"])
         if crosses:   # the box within the arc's angles or outside them
-            within = _within_arc(center, box, lo, hi)
+            within = _within_arc(center, box.center, box.radius, lo, hi)
             if within is not None:
                 return within
         return bool(_clip_to_range(circle_inside(center, r, box), lo, hi))
@@ -289,6 +289,26 @@ def meets_near(el, box: Box) -> bool:
     return False
 
 
+def ring_meets_grown(el, box: Box, by_mm: float, radius_mm: float, lo: float, hi: float) -> bool:
+    """:func:`meets_near` of a circle or an arc (its angles ``lo`` to
+    ``hi`` in radians) and ``box`` grown by ``by_mm`` (``radius_mm``
+    the grown box's radius): the quick tests worked from the grown
+    box's figures, the grown box made only where they leave the
+    answer in doubt (the same answer, #12)."""
+    center = el.geom["center"]
+    crosses = _circle_crosses(center, el.geom["radius"], box.center, box.cos, box.sin, box.half_w + by_mm,
+                              box.half_h + by_mm)
+    if crosses is False:
+        return False
+    if crosses:
+        if el.shape == "circle":
+            return True
+        within = _within_arc(center, box.center, radius_mm, lo, hi)
+        if within is not None:
+            return within
+    return meets_near(el, box.grown(by_mm))
+
+
 #: The margin (mm) by which a quick test must decide, far above the
 #: rounding of the plate's coordinates (about 1e-13 mm), else the exact
 #: test decides; and the same in radians for an arc's ends.
@@ -296,19 +316,20 @@ SURE_MM = 1e-6
 SURE_RAD = 1e-9
 
 
-def _circle_crosses(center, radius_mm: float, box: Box):
-    """Whether the circle runs through the box, from the nearest and the
+def _circle_crosses(center, radius_mm: float, at, c: float, s: float, hw: float, hh: float):
+    """Whether the circle runs through the box centred ``at``, its side
+    along (``c``, ``s``), ``hw`` by ``hh`` half (a :class:`Box`'s
+    figures, taken one by one so that a caller need not make the box,
+    #12), from the nearest and the
     farthest point of the box to the circle's centre: True where the
     nearest is inside the circle and the farthest outside, False where
     both are on one side, each by :data:`SURE_MM` (grown with the
     radius); else None.  None too where a corner is as near the circle,
     or the circle as near touching a side: there the exact test's
     rounding decides, and it is left to decide."""
-    hw, hh = box.half_w, box.half_h
     if not (hw > 0.0 and hh > 0.0):
         return None
-    c, s = box.cos, box.sin
-    dx, dy = center[0] - box.center[0], center[1] - box.center[1]
+    dx, dy = center[0] - at[0], center[1] - at[1]
     ax, ay = abs(c * dx + s * dy), abs(-s * dx + c * dy)
     r = radius_mm
     ex, ey = ax - hw, ay - hh
@@ -331,16 +352,17 @@ def _circle_crosses(center, radius_mm: float, box: Box):
     return True
 
 
-def _within_arc(center, box: Box, lo: float, hi: float):
-    """Whether the directions from ``center`` to the box's points all lie
-    within the arc's angles [lo, hi] (True) or all outside them (False),
-    by :data:`SURE_RAD`; else None.  The box lies within its bounding
-    disc, which subtends asin(radius / distance) either side of its centre."""
-    dx, dy = box.center[0] - center[0], box.center[1] - center[1]
+def _within_arc(center, at, radius_mm: float, lo: float, hi: float):
+    """Whether the directions from ``center`` to the points of a box
+    centred ``at`` all lie within the arc's angles [lo, hi] (True) or all
+    outside them (False), by :data:`SURE_RAD`; else None.  The box lies
+    within its bounding disc (of ``radius_mm``), which subtends
+    asin(radius / distance) either side of its centre."""
+    dx, dy = at[0] - center[0], at[1] - center[1]
     dist = math.hypot(dx, dy)
-    if dist <= box.radius + SURE_MM:
+    if dist <= radius_mm + SURE_MM:
         return None
-    half = math.asin(box.radius / dist)
+    half = math.asin(radius_mm / dist)
     rel = (math.atan2(dy, dx) - lo) % (2 * math.pi)
     span = hi - lo
     if rel - half >= SURE_RAD and rel + half <= span - SURE_RAD:

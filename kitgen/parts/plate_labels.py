@@ -38,7 +38,7 @@ from ..geometry import model
 from ..geometry.style import dot_radius_mm, pin_cross_half_mm, stroke_width_mm, zenith_mark_half_mm
 from ..projection.stereographic import equatorial_vector, horizontal_vector, project_vectors
 from .breaks import (MEETS, UNSURE, Box, arcs_meet_boxes, boxes_overlap, meets, meets_near, reach_of,
-                     segments_meet_boxes)
+                     ring_meets_grown, segments_meet_boxes)
 from .labels import MARGIN_MM
 from .stroke_index import BoxIndex, StrokeArrays, StrokeIndex
 
@@ -157,10 +157,13 @@ class Room:
     def _line(self, el) -> tuple:
         """A stroke as its tests read it, worked out once: (the element,
         half its line's width, then the figures of
-        :func:`kitgen.parts.breaks.reach_of`)."""
+        :func:`kitgen.parts.breaks.reach_of`, then an arc's angles in
+        radians, as :func:`kitgen.parts.breaks.meets_near` takes them)."""
         got = self._lines.get(id(el))
         if got is None:   # the index keeps the element: its id stays its own
-            got = self._lines[id(el)] = (el, self._half_width[el.stroke]) + reach_of(el)
+            g = el.geom
+            arc = (math.radians(g["start_deg"]), math.radians(g["end_deg"])) if el.shape == "arc" else (0.0, 0.0)
+            got = self._lines[id(el)] = (el, self._half_width[el.stroke]) + reach_of(el) + arc
         return got
 
     @staticmethod
@@ -170,14 +173,18 @@ class Room:
         the box grown only where the quick test of
         :func:`kitgen.parts.breaks.may_meet`, worked from the stroke's
         figures, leaves it in doubt, and there only the rest of its
-        tests (:func:`kitgen.parts.breaks.meets_near`; the same answer, #12)."""
-        el, _, ring, a, b, c, d = line
+        tests (:func:`kitgen.parts.breaks.meets_near`; for a circle or an
+        arc :func:`kitgen.parts.breaks.ring_meets_grown`, which makes the
+        grown box only where its quick tests leave it in doubt; the same
+        answer, #12)."""
+        el, _, ring, a, b, c, d, lo, hi = line
         x, y = box.center
         rr = math.hypot(box.half_w + by_mm, box.half_h + by_mm)   # the grown box's radius
         if ring:
             if abs(math.dist((a, b), (x, y)) - c) > rr:
                 return False
-        elif not (a - rr <= x <= b + rr and c - rr <= y <= d + rr):
+            return ring_meets_grown(el, box, by_mm, rr, lo, hi)
+        if not (a - rr <= x <= b + rr and c - rr <= y <= d + rr):
             return False
         return meets_near(el, box.grown(by_mm))
 
