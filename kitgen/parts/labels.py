@@ -72,8 +72,9 @@ def _meets_ring(box, ring) -> bool:
     nx = min(max(cx, box[0]), box[2]) - cx
     ny = min(max(cy, box[1]), box[3]) - cy
     near = (nx * nx + ny * ny) ** 0.5
-    far = max(((x - cx) ** 2 + (y - cy) ** 2) ** 0.5 for x in (box[0], box[2]) for y in (box[1], box[3]))
-    return near < r1 and far > r0
+    # (the farthest corner found only where the nearest point is in)
+    return near < r1 and max(((x - cx) ** 2 + (y - cy) ** 2) ** 0.5
+                             for x in (box[0], box[2]) for y in (box[1], box[3])) > r0
 
 
 #: How far from its point a label may stand, in units of the offset: the
