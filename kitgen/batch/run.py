@@ -152,10 +152,13 @@ def _build_all(jobs_list, jobs: int, languages, speak):
         return
     shares = worker_shares(jobs_list, jobs)
     moves = plate_moves(shares)
+    own = [{job.recipe.language for job in share} | {school.language for _, k, school in moves if k == n}
+           for n, share in enumerate(shares)]   # the templates each worker reads: its own kits' and draws'
     with ExitStack() as stack:
         pools = [stack.enter_context(ProcessPoolExecutor(max_workers=1, mp_context=_context(),
-                                                         initializer=_worker_start, initargs=(languages, speak)))
-                 for _ in shares]
+                                                         initializer=_worker_start,
+                                                         initargs=(tuple(sorted(codes)), speak)))
+                 for codes in own]
         drawing, waiting = {}, {}
         for source, target, school in moves:
             jobs_of = [job for job in shares[source] if _school(job) == school]
