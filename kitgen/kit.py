@@ -162,7 +162,7 @@ _NAMELESS: dict[Plan, _Nameless] = {}
 def _nameless(plan: Plan, drawn: dict | None = None) -> _Nameless:
     """The kit of ``plan`` drawn without an owner's name, kept for the last
     few plans.  ``drawn``: parts of it already drawn by another worker of
-    a class set (:func:`draw_parts`), by id, used instead of drawing them
+    a class set (:func:`draw_plates`), by id, used instead of drawing them
     again; they are the same, part for part."""
     kept = _NAMELESS.get(plan)
     if kept is not None:
@@ -214,7 +214,7 @@ def _draw(plan: Plan, dims: Dimensions, scales: dict, kind: str, plate=None) -> 
     return replace(on_material(PART_BUILDERS[kind](ctx), plan), id=plate.id)
 
 
-def draw_parts(recipe: Recipe) -> dict[str, Part]:
+def draw_plates(recipe: Recipe) -> dict[str, Part]:
     """The plates of the recipe's kit drawn without an owner's name, by
     id, as :func:`build_kit` draws them: a class set's worker draws them
     for a school that another worker builds (#12), which passes them to
@@ -229,7 +229,7 @@ def draw_parts(recipe: Recipe) -> dict[str, Part]:
 def build_kit(recipe: Recipe, drawn: dict | None = None) -> Kit:
     """Every part of the kit the recipe describes, as geometry in mm;
     ``drawn``, the parts of it another worker has drawn already
-    (:func:`draw_parts`)."""
+    (:func:`draw_plates`)."""
     plan = _plan(replace(recipe, owner=""))
     if drawn:
         _nameless(plan, drawn)

@@ -122,7 +122,7 @@ def test_plates_drawn_elsewhere_give_the_same_kit():
     # handed to build_kit give the kit built alone, element for element
     recipe = validate_recipe({"latitude": -33.9, "language": "es", "owner": "Ana Beltrán", "diameter_mm": 80})
     alone = render_json(kit_module.build_kit(recipe))
-    drawn = pickle.loads(pickle.dumps(kit_module.draw_parts(recipe)))
+    drawn = pickle.loads(pickle.dumps(kit_module.draw_plates(recipe)))
     kit_module._NAMELESS.clear()
     kit_module._plan.cache_clear()
     given = kit_module.build_kit(recipe, drawn)

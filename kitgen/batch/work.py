@@ -19,7 +19,7 @@ from dataclasses import dataclass, field, replace
 from functools import lru_cache
 
 from ..errors import Message, UserError, one_line, speaking
-from ..kit import build_kit, draw_parts
+from ..kit import build_kit, draw_plates
 from ..render import pdf_text
 from ..layout.pages import layout_kit
 from ..render.pdf import render_layers
@@ -90,11 +90,11 @@ def warm(languages: tuple[str, ...] = ("en",), speak: str | None = None) -> None
 
 
 def draw_for(job: PartsJob) -> PartsResult:
-    """Draw ``job``'s plates for another worker (kitgen.kit.draw_parts); a
+    """Draw ``job``'s plates for another worker (kitgen.kit.draw_plates); a
     failure draws nothing, and the school's worker meets it itself."""
     try:
         with speaking(job.recipe.language, job.recipe.language_file or None):
-            return PartsResult(job, draw_parts(job.recipe))
+            return PartsResult(job, draw_plates(job.recipe))
     except Exception:
         return PartsResult(job, None)
 
