@@ -18,6 +18,7 @@ starting side.
 from __future__ import annotations
 
 import hashlib
+import math
 
 from reportlab.lib.rl_accel import fp_str
 from reportlab.lib.units import mm
@@ -100,16 +101,17 @@ class TaggedTTFont(TTFont):
             doc.idToObject["toUnicodeCMap:" + old].content = makeToUnicodeCMap(new, subset)
 
 
-def _shaped_str(run: Run) -> ShapedStr:
+def _shaped_str(run: Run) -> tuple[ShapedStr, dict]:
     """The run's HarfBuzz glyphs as a reportlab ShapedStr: each glyph by a
     character reportlab maps to it (a private-use one for glyphs, such as
     contextual forms, that no character maps to), with its advance and
-    offsets in thousandths of the size.  Kept per run and font object: the
-    private-use characters, once given, stay the font's (#12)."""
+    offsets in thousandths of the size; with it, the store of its
+    operators (:func:`_shaped_operators`).  Kept per run and font object:
+    the private-use characters, once given, stay the font's (#12)."""
     ttf = pdfmetrics.getFont(run.face.name)
     kept = _SHAPED.get(id(run))
     if kept is not None and kept[0] is run and kept[1] is ttf:
-        return kept[2]
+        return kept[2], kept[3]
     face = ttf.face
     chars, data = [], []
     order = fonts._metrics(run.face)[2]
@@ -125,11 +127,12 @@ def _shaped_str(run: Run) -> ShapedStr:
     shaped = ShapedStr("".join(chars), shapeData=data)
     if len(_SHAPED) >= _SHAPED_MOST:
         _SHAPED.clear()
-    _SHAPED[id(run)] = (run, ttf, shaped)
-    return shaped
+    _SHAPED[id(run)] = (run, ttf, shaped, {})
+    return shaped, _SHAPED[id(run)][3]
 
 
-#: Shaped runs as reportlab strings, by the run's identity: (run, font, string).
+#: Shaped runs as reportlab strings, by the run's identity: (run, font,
+#: string, {(size, pieces, subset names): operators}).
 _SHAPED: dict[int, tuple] = {}
 _SHAPED_MOST = 20_000
 
@@ -142,18 +145,54 @@ def _run_operators(c, run: Run, size_pt: float) -> str:
     """A run's text operators between its text matrix and ``T*``, as
     reportlab's text object formats them for the canvas's font (its
     subsets' fonts and codes, its glyphs' positions).  Kept in the
-    document per run and size: a character's code in its subset, once
-    given, stays, so a run written again is written the same (#12)."""
+    document per run (by identity) and size: a character's code in its
+    subset, once given, stays, so a run written again is written the
+    same (#12)."""
     kept = c._doc.__dict__.setdefault("_kitgen_run_operators", {})
-    key = (run, size_pt)
-    code = kept.get(key)
-    if code is None:
-        if run.shaped:
-            code = c.beginText()._formatText(_shaped_str(run))
-        else:
-            code = _plain_operators(c, run.text, size_pt)
-        kept[key] = code
+    key = (id(run), size_pt)
+    got = kept.get(key)
+    if got is not None and got[0] is run:
+        return got[1]
+    code = _shaped_operators(c, run, size_pt) if run.shaped else _plain_operators(c, run.text, size_pt)
+    kept[key] = (run, code)
     return code
+
+
+def _shaped_operators(c, run: Run, size_pt: float) -> str:
+    """A shaped run's operators as the text object's ``_formatText``
+    writes them.  What it writes follows from the run's glyphs, the size,
+    and the pieces of the run in the document's subsets with their codes
+    and font names; so the operators are kept with the run for each of
+    those pieces and names, and a later document (a class set's next
+    kit) that gives the run the same codes reuses them (#12).  The pieces
+    are found and the subsets' names asked for here as ``_formatText``
+    does, so that the document's codes and fonts are the same."""
+    shaped, codes = _shaped_str(run)
+    font = pdfmetrics.getFont(c._fontname)
+    doc = c._doc
+    pieces = tuple(_split(font, shaped, doc))
+    key = (size_pt, pieces, tuple(font.getSubsetInternalName(subset, doc) for subset, _ in pieces))
+    code = codes.get(key)
+    if code is None:
+        code = codes[key] = c.beginText()._formatText(shaped)
+    return code
+
+
+def _split(font, text: str, doc) -> list[tuple[int, bytes]]:
+    """``font.splitString(text, doc)``: the pieces of ``text`` in one
+    subset each, with their codes.  Where every character already has
+    its code and all are in the first subset (a kit's few hundred
+    characters mostly are), the codes are read in one pass
+    (``str.translate`` by the font's assignments) rather than character
+    by character (#12); else reportlab gives them."""
+    state = font.state.get(doc)
+    if state is not None and text:
+        assignments = state.assignments
+        if all(map(assignments.__contains__, map(ord, text))):
+            codes = text.translate(assignments)
+            if max(codes) < "\u0100":
+                return [(0, codes.encode("latin-1"))]
+    return font.splitString(text, doc)
 
 
 def _plain_operators(c, text: str, size_pt: float) -> str:
@@ -165,7 +204,7 @@ def _plain_operators(c, text: str, size_pt: float) -> str:
     doc = c._doc
     size = f"{fp_str(size_pt)} Tf {fp_str(size_pt * 1.2)} TL"
     code, current = [], -1
-    for subset, chunk in font.splitString(text, doc):
+    for subset, chunk in _split(font, text, doc):
         if subset != current:
             code.append(f"{font.getSubsetInternalName(subset, doc)} {size}")
             current = subset
@@ -197,14 +236,34 @@ def draw_text(c, x_mm: float, y_mm: float, string: str, size_pt: float, words, s
     it is seen: its left end (``start``), middle or right end (``end``)."""
     line = set_line(string, words.script, style, words.rtl)
     w = line.width_em * size_pt
-    c.saveState()
-    c.translate(x_mm * mm, y_mm * mm)
-    if angle_deg:
-        c.rotate(angle_deg)
-    c.setFillGray(0.0)
+    code = c._code
+    # The canvas's saveState, translate, rotate, setFillGray(0) and
+    # restoreState, written as they write them (#12); of the state they
+    # keep, only the font is changed in between (draw_line), so only the
+    # font is put back.
+    font = (c._fontname, c._fontsize, c._leading)
+    code.append("q")
+    code.append(_placed_cm(x_mm * mm, y_mm * mm, angle_deg))
+    code.append("0 g")
     x0 = {"start": 0.0, "middle": -w / 2, "end": -w}[anchor]
     draw_line(c, line, x0, -line.ink_middle_em * size_pt, size_pt)
-    c.restoreState()
+    code.append("Q")
+    c._fontname, c._fontsize, c._leading = font
+
+
+def _placed_cm(x_pt: float, y_pt: float, angle_deg: float) -> str:
+    """The ``cm`` operator the canvas writes for ``translate(x, y)`` then,
+    if ``angle_deg``, ``rotate(angle_deg)`` after a ``q``: the rotation
+    is folded into the translation's operator, from that operator's
+    numbers as written (``Canvas.transform``)."""
+    moved = "1 0 0 1 %s cm" % fp_str(x_pt, y_pt)
+    if not angle_deg:
+        return moved
+    a, b = math.cos(angle_deg * math.pi / 180), math.sin(angle_deg * math.pi / 180)
+    c, d, e, f = -b, a, 0, 0
+    a0, b0, c0, d0, e0, f0 = map(float, moved.split()[:6])
+    return "%s cm" % fp_str(a0 * a + c0 * b, b0 * a + d0 * b, a0 * c + c0 * d, b0 * c + d0 * d,
+                            a0 * e + c0 * f + e0, b0 * e + d0 * f + f0)
 
 
 def draw_at_baseline(c, x_pt: float, y_pt: float, string: str, size_pt: float, words, style: str = "body",
