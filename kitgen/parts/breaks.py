@@ -654,9 +654,14 @@ def _break_polyline(el, boxes) -> list:
     cx = np.array([b.center[0] for b in boxes])
     cy = np.array([b.center[1] for b in boxes])
     near = (lo[:, 0:1] - rr <= cx) & (cx <= hi[:, 0:1] + rr) & (lo[:, 1:2] - rr <= cy) & (cy <= hi[:, 1:2] + rr)
+    # the boxes near each segment, as lists, only for the segments with any (#12)
+    near_boxes = dict.fromkeys(range(len(pts) - 1), ())
+    i, j = np.nonzero(near)
+    for k in np.unique(i).tolist():
+        near_boxes[k] = j[i == k].tolist()
     runs, run = [], []
     for i, (p, q) in enumerate(zip(pts, pts[1:])):
-        if any(segment_inside(p, q, boxes[j]) is not None for j in np.nonzero(near[i])[0]):
+        if any(segment_inside(p, q, boxes[j]) is not None for j in near_boxes[i]):
             if run:
                 runs.append(run)
             run = []
@@ -679,12 +684,15 @@ def break_around(elements, boxes, clearance_mm: float, width_of) -> list:
     (``width_of(stroke)``, mm); cut lines, folds, points, text and undrawn
     strokes are kept as they are."""
     out = []
+    grown: dict[str, list] = {}   # the boxes grown for each kind of stroke, once (#12)
     for el in elements:
         if el.shape == "text" or el.shape == "point" or el.stroke in ("none", "cut", "fold"):
             out.append(el)
             continue
-        grow = clearance_mm + width_of(el.stroke) / 2
-        out += break_element(el, [b.grown(grow) for b in boxes])
+        if el.stroke not in grown:
+            grow = clearance_mm + width_of(el.stroke) / 2
+            grown[el.stroke] = [b.grown(grow) for b in boxes]
+        out += break_element(el, grown[el.stroke])
     return out
 
 
