@@ -272,6 +272,13 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
         across = None
         for i, table, memo, by_leader in free_of(blocks_of(k), names, g if with_leaders else None, spans):
             at, anchor, needs_leader, box = _place(table, i)
+            if across is not None and needs_leader:
+                # (only a leader that crosses no ring can come before the
+                # one found that does, and most leaders from a dot on a
+                # ring cross it at their start: that test first)
+                leader = _once(memo, ("leader", i), leader_ends, (x, y), box, leaders_from_mm[k] + MARGIN_MM)
+                if leader is None or _once(memo, ("crossed", i), _rings_met, leader, keep_out_rings):
+                    continue
             if not _once(memo, ("room", i), room, box) \
                     or by_leader and any(_segment_meets_box(a, b, box) for a, b in near(lines, box, k, slack)):
                 continue
