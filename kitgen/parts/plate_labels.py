@@ -794,36 +794,61 @@ class PlateLabeller:
         named = [e for e in protected if e.role in ("horizon", "equator", "tropic", "twilight")]
         thin = [e for e in protected if e.role not in ("horizon", "equator", "tropic", "twilight")]
         best, room = None, self.room
+        # the points along each piece of the curve, and the names' turns there, the same at every offset
+        paths = []
+        for el in els:
+            cands = points_along(el, _midpoint(el), step_mm=max(1.0, ext.height_mm / 3), reach_mm=4 * room.disc)
+            paths.append((cands, [upright(a) for _, _, a in cands]))
         for offset in (0.0, -aside, aside, -aside - bulge, aside + bulge):
             near = self.reference + (els if offset else [])   # one list for all places: its index is kept
-            for el in els:
-                cands = points_along(el, _midpoint(el), step_mm=max(1.0, ext.height_mm / 3),
-                                     reach_mm=4 * room.disc)
+            for cands, turns in paths:
                 places = Places([(x - math.sin(a) * offset, y + math.cos(a) * offset) for x, y, a in cands],
-                                [upright(a) for _, _, a in cands], ext.width_mm / 2, ext.height_mm / 2)
+                                turns, ext.width_mm / 2, ext.height_mm / 2)
                 can = places.inside(room)
-                # the tests of Room.free, for many places at once (#12)
                 for run in _runs(len(places), 32, 512):
                     idx = run[can[run]]
-                    by_near = Screen(room, places, idx, near, MARGIN_MM)
-                    clear = Screen(room, places, idx, protected, CLEAR_MM)
-                    beside = Screen(room, places, idx, named, CLEAR_MM)
-                    crossing = Screen(room, places, idx, thin, MARGIN_MM + 0.3, widths=False)
-                    # a place clear of every line is clear of the named ones
-                    for i in sorted(set(by_near.maybe_clear()) & set(beside.maybe_clear())):
-                        b = places.box(int(idx[i]))
-                        if not (by_near.clear(i) and room.clear_of_labels(b)):
-                            continue
-                        if clear.clear(i):
-                            return self.put("curve_label", b, text, size, curve=role, **match)
-                        if (best is None or best[0] > 0) and beside.clear(i):
-                            # the thin lines through the box grown by MARGIN_MM + 0.3
-                            cost = crossing.crossed(i, best[0] if best is not None else None)
-                            if best is None or cost < best[0]:
-                                best = (cost, b)
+                    b, best = self._name_place(places, idx, (near, protected, named, thin), best)
+                    if b is not None:
+                        return self.put("curve_label", b, text, size, curve=role, **match)
         if best is not None:
             return self.put("curve_label", best[1], text, size, curve=role, **match)
         return self.left_out(text)
+
+
+    def _name_place(self, places: Places, idx, lines, best):
+        """Of :meth:`curve_name`'s places ``idx`` (an index array of
+        ``places``), the first MARGIN_MM from the lines ``near``, clear of
+        the labels and :data:`CLEAR_MM` from the lines ``protected``
+        (``lines`` is (near, protected, named, thin)), as (its box,
+        ``best``); else (None, ``best`` bettered by those of the places
+        CLEAR_MM from the named lines: the fewest thin lines through a
+        box grown by MARGIN_MM + 0.3, and the first with so few).  The
+        tests of :meth:`Room.free`, many places at once: each list's
+        screen made only for the places that the ones before let through
+        (#12)."""
+        near, protected, named, thin = lines
+        room = self.room
+        # a place clear of every line is clear of the named ones
+        beside = Screen(room, places, idx, named, CLEAR_MM)
+        maybe = np.array(beside.maybe_clear(), dtype=int)
+        by_near = Screen(room, places, idx[maybe], near, MARGIN_MM)
+        fit = [int(maybe[q]) for q in by_near.maybe_clear()
+               if by_near.clear(q) and room.clear_of_labels(places.box(int(idx[maybe[q]])))]
+        clear = Screen(room, places, idx[fit], protected, CLEAR_MM)
+        for p, i in enumerate(fit):
+            if clear.clear(p):
+                return places.box(int(idx[i])), best
+        if best is not None and best[0] == 0:
+            return None, best
+        aside = [i for i in fit if beside.clear(i)]
+        crossing = Screen(room, places, idx[aside], thin, MARGIN_MM + 0.3, widths=False)
+        for p, i in enumerate(aside):
+            cost = crossing.crossed(p, best[0] if best is not None else None)
+            if best is None or cost < best[0]:
+                best = (cost, places.box(int(idx[i])))
+                if cost == 0:
+                    break
+        return None, best
 
 
 def _boxes_gap(b: Box, t: Box) -> float:
