@@ -30,7 +30,10 @@ def _reference(value_pt: float) -> str:
 
 def _values() -> list[float]:
     rnd = random.Random(12)
-    values = [0.0, -0.0, 2e-7, -4e-7, 0.0004, -0.0005, 0.0015, 1.0, 9.9995, 10.0, 99.99995, 100.0, 100.9995,
+    # Residues of a float sum beside a zero (a centre at the pin), below
+    # and above where fp_str writes 0 for either sign.
+    values = [1e-15, -1.6e-14, -3e-9, 9.9e-9, -9.9e-9, -1.4e-7, 1.4e-7]
+    values += [0.0, -0.0, 2e-7, -4e-7, 0.0004, -0.0005, 0.0015, 1.0, 9.9995, 10.0, 99.99995, 100.0, 100.9995,
               101.0005, 998.9995, 999.0, 1000.0, 1000.0005, 12345.678]
     for _ in range(20000):
         v = rnd.choice((1, -1)) * 10 ** rnd.uniform(-4, 4.2)

@@ -73,7 +73,8 @@ def pt_texts(values_pt) -> list[str]:
     those that :func:`pt_text` would write both ways, one by one: a
     fraction of the cost (#12).  Between 101 and 999 pt ``fp_str``
     writes four decimals, so a number near a half thousandth is written
-    one by one only if its fourth decimal is a 5."""
+    in the ``%g`` format unless its fourth decimal is a 5, and then as
+    those four decimals rounded to the thousandth."""
     values = list(values_pt)
     size = np.abs(np.asarray(values, dtype=float))
     tie = np.abs(size * 1000.0 % 1.0 - 0.5)
@@ -81,9 +82,17 @@ def pt_texts(values_pt) -> list[str]:
     plain = (size >= 1.0) & (size < 999.0) & (tie > np.where(size < 99.0, 0.006, 0.06))
     for i in np.flatnonzero(~plain).tolist():
         value = values[i]
-        if not (101.0 <= abs(value) < 999.0 and ("%.4f" % value)[-1] != "5"):
-            values[i] = pt_text(value)
-            kind[i] = 0
+        size = abs(value)
+        if 101.0 <= size < 999.0:
+            four = "%.4f" % value
+            if four[-1] != "5":
+                continue
+            # fp_str's four decimals rounded to the thousandth.
+            values[i] = ("%.3f" % round(float(four), 3)).rstrip("0").rstrip(".")
+        else:
+            # Below 1e-8 fp_str writes 0 whatever the sign.
+            values[i] = "0" if size < 1e-8 else pt_text(value)
+        kind[i] = 0
     texts = ("".join(_FORMATS[kind].tolist()) % tuple(values)).split("\n")
     texts.pop()
     return texts
