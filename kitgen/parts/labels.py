@@ -325,9 +325,9 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
         of ``spans`` (those of the leaders chosen): a leader whose box
         stays farther cannot meet it."""
         for table, clear, array, memo in blocks:
-            taken = meets_any(array, names)
-            if gap_mm is not None:
-                taken |= meets_any(array + np.array([-gap_mm, -gap_mm, gap_mm, gap_mm]), names)
+            # (a box grown by the gap meets all that the box itself meets)
+            grown = array if gap_mm is None else array + np.array([-gap_mm, -gap_mm, gap_mm, gap_mm])
+            taken = meets_any(grown, names)
             by_leader = meets_any(array + np.array([-slack, -slack, slack, slack]), spans)
             for i, t, b in zip(clear, taken.tolist(), by_leader.tolist()):
                 if not t:
