@@ -541,12 +541,15 @@ class PlateLabeller:
             if fallback is not None and math.dist(c[:2], start[:2]) > fallback[1] + PREFER_CLEAR_MM:
                 break
             b = box.moved((c[0], c[1]))
+            if fallback is not None:   # only a place clear of the lines is of use now: that test first (#12)
+                if self.room.clear_of(b, protected, CLEAR_MM) and self.room.free(b, protected, near, MARGIN_MM):
+                    return b
+                continue
             if not self.room.free(b, protected, near, MARGIN_MM):
                 continue
             if self.room.clear_of(b, protected, CLEAR_MM):
                 return b
-            if fallback is None:
-                fallback = (b, math.dist(c[:2], start[:2]))
+            fallback = (b, math.dist(c[:2], start[:2]))
         return None if fallback is None else fallback[0]
 
     def left_out(self, text: str, **values):
