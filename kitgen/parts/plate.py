@@ -17,7 +17,7 @@ from ..geometry import model
 from ..projection.stereographic import (equatorial_vector, horizontal_vector,
                                         project_vectors)
 from ..geometry.style import pin_cross_half_mm, stroke_width_mm
-from . import breaks, curves, labels, legibility, plate_labels
+from . import breaks, curves, labels, legibility, plate_labels, stroke_index
 from .context import PartContext
 from .dimensions import MIN_TEXT_PT
 from .format import latitude_text
@@ -181,8 +181,9 @@ def _labels(ctx, phi, s, R, disc, strokes):
     (and the cardinal letters' leaders) and the texts of those that found
     no place clear of the lines (#9), for the build's notes."""
     w, eps = ctx.words, ctx.sky.obliquity_rad
-    first = _latitude_label(ctx, disc, strokes)
-    lab = plate_labels.PlateLabeller(ctx, strokes, disc, [breaks.text_box(e, w) for e in first])
+    index = stroke_index.StrokeIndex()   # the lines entered once for the latitude and the other labels (#12)
+    first = _latitude_label(ctx, disc, strokes, index)
+    lab = plate_labels.PlateLabeller(ctx, strokes, disc, [breaks.text_box(e, w) for e in first], index)
     for az, key in ((0.0, "cardinal.north"), (90.0, "cardinal.east"), (180.0, "cardinal.south"),
                     (270.0, "cardinal.west")):
         lab.cardinal(az, key, phi, s, R, disc)
@@ -215,12 +216,14 @@ def _multiple(value: float, of: float) -> bool:
     return abs(value / of - round(value / of)) < 1e-9
 
 
-def _latitude_label(ctx, disc, strokes):
+def _latitude_label(ctx, disc, strokes, index=None):
     """The latitude (after the place's name), along the lower meridian,
     moved up or down it (and to the meridian's other side) until it keeps
     plate_labels.CLEAR_MM from every line but the meridian (#9: a caption
     set in a gap of a tropic reads as that line's name); on a small plate
-    where no such place is found, across the thin lines only."""
+    where no such place is found, across the thin lines only.  The lines
+    are entered in ``index`` (a new one where None), which the plate's
+    other labels then share (#12)."""
     d, w = ctx.dims, ctx.words
     # The latitude, from beside the meridian to the edge of the drawing;
     # raised from 0.9 of the disc's radius where a small plate's chord
@@ -240,7 +243,7 @@ def _latitude_label(ctx, disc, strokes):
         head, _, tail = text.partition(" ")
         down = reach(max(w.measure(x, MIN_TEXT_PT).width_mm for x in (head, tail)))
     y0 = -min(disc * 0.9, max(disc * 0.6, down))
-    room = plate_labels.Room(disc, d)
+    room = plate_labels.Room(disc, d, strokes=index)
     others = [e for e in strokes if e.shape in plate_labels.STROKE_SHAPES and e.role != "meridian"
               and e.stroke not in ("none", "cut", "fold") and not plate_labels.on_meridian(e)]
 

@@ -72,11 +72,12 @@ class Room:
     out those too far off to meet it, and :meth:`screen` decides many
     boxes at once only where its margins leave no doubt (#12)."""
 
-    def __init__(self, disc_mm: float, dims, keep_out=()):
+    def __init__(self, disc_mm: float, dims, keep_out=(), strokes: StrokeIndex | None = None):
         self.disc = disc_mm - MARGIN_MM
         self.dims = dims
         self.taken: list[Box] = list(keep_out)
-        self.strokes = StrokeIndex()
+        # a part's strokes are entered once, however many rooms test against them (#12)
+        self.strokes = StrokeIndex() if strokes is None else strokes
         self._labels = BoxIndex()
         self._half_width: dict[str, float] = {}
         self._lists: dict[int, tuple] = {}
@@ -489,7 +490,7 @@ class PlateLabeller:
     """Sets the plate's labels one after another into a :class:`Room`;
     ``missing`` collects the texts of those it found no place for."""
 
-    def __init__(self, ctx, elements, disc_mm: float, keep_out=()):
+    def __init__(self, ctx, elements, disc_mm: float, keep_out=(), strokes: StrokeIndex | None = None):
         self.ctx, self.w, self.d = ctx, ctx.words, ctx.dims
         self.els = list(elements)
         d = self.d
@@ -500,7 +501,7 @@ class PlateLabeller:
                 # with the labels' gap round it, at least MARGIN_MM clear of the mark
                 r = max(0.0, max(dot_radius_mm(d), zenith_mark_half_mm(d)) + MARGIN_MM - LABEL_GAP_MM)
                 keep.append(Box(el.geom["at"], 0.0, r, r))
-        self.room = Room(disc_mm, d, keep)
+        self.room = Room(disc_mm, d, keep, strokes)
         self.out: list[model.Element] = []
         self.missing: list[tuple[str, dict]] = []
         # The meridian and the east-west line (and the azimuths drawn along
@@ -732,8 +733,9 @@ class PlateLabeller:
         if np.all(np.isfinite(p0)) and np.hypot(*p0) < self.room.disc:
             alts = np.radians(-np.arange(0.2, 30.0, 0.2))
             pts = project_vectors(horizontal_vector(alts, np.full_like(alts, A), phi), s, R)
-            cands = [(x, y, 0.0) for x, y in pts if math.isfinite(x) and math.isfinite(y)
-                     and math.dist((x, y), p0) < SLIDE_MM]
+            # the points near enough found as arrays (with room for rounding), then tested one by one (#12)
+            near = np.all(np.isfinite(pts), axis=1) & (np.hypot(*(pts - p0).T) < SLIDE_MM + 1e-6)
+            cands = [(x, y, 0.0) for x, y in pts[near] if math.dist((x, y), p0) < SLIDE_MM]
             b = self.first_free(cands, text, size, protected)
             if b is None:   # on its own line just above the horizon (broken round it)
                 b = self.first_free([c for el in own for c in points_along(el, p0)], text, size, protected)
