@@ -19,6 +19,7 @@ from __future__ import annotations
 
 import hashlib
 import math
+import zlib
 
 from reportlab.lib.rl_accel import fp_str
 from reportlab.lib.units import mm
@@ -81,7 +82,13 @@ class TaggedTTFont(TTFont):
     different tags"; reportlab numbers the subsets of each font from
     AAAAAA, so two fonts (regular and bold), or two kits merged into one
     file, would share a tag.  Here each tag comes from the subset itself
-    (:func:`subset_tag`)."""
+    (:func:`subset_tag`).  Its subsets' font files, and those files and
+    character maps compressed, are kept for the next document
+    (:class:`_KeptSubsets`, :class:`_KeptFlate`)."""
+
+    def __init__(self, *args, **kwargs):
+        super().__init__(*args, **kwargs)
+        self.face.makeSubset = _KeptSubsets(self.face.makeSubset)
 
     def addObjects(self, doc):
         state = self.state[doc]   # reportlab drops it once the objects are made
@@ -99,6 +106,62 @@ class TaggedTTFont(TTFont):
             font.BaseFont = new
             doc.idToObject["fontDescriptor:" + old].dict["FontName"] = PDFName(new)
             doc.idToObject["toUnicodeCMap:" + old].content = makeToUnicodeCMap(new, subset)
+            if doc.compression:
+                for key in ("toUnicodeCMap:" + old, f"fontFile:{self.face.filename}({old})"):
+                    doc.idToObject[key].filters = [_KEPT_FLATE]
+
+
+class _KeptSubsets:
+    """A font face's ``makeSubset``, each subset's font file made once and
+    kept (the last few): a class set's kits of one language embed the
+    same subsets again and again (#12).  A subset is its characters in
+    code order, and a character, once the face maps it to a glyph (a
+    private-use one included), keeps that glyph, so the same characters
+    make the same file."""
+
+    MOST = 16
+
+    def __init__(self, make):
+        self.make, self.kept = make, {}
+
+    def __call__(self, subset) -> bytes:
+        key = tuple(subset)
+        made = self.kept.get(key)
+        if made is None:
+            if len(self.kept) >= self.MOST:
+                self.kept.clear()
+            made = self.kept[key] = self.make(subset)
+        return made
+
+
+class _KeptFlate:
+    """reportlab's Flate filter (``pdfdoc.PDFZCompress``: the content, as
+    UTF-8 if text, through ``zlib.compress`` at its default level), each
+    content compressed once and kept (the last few): for the font files
+    and character maps, which a class set's kits of one language repeat
+    (#12)."""
+
+    pdfname = "FlateDecode"
+    MOST = 64
+
+    def __init__(self):
+        self.kept: dict[bytes, bytes] = {}
+
+    def encode(self, content) -> bytes:
+        if isinstance(content, str):
+            content = content.encode("utf8")
+        packed = self.kept.get(content)
+        if packed is None:
+            if len(self.kept) >= self.MOST:
+                self.kept.clear()
+            packed = self.kept[content] = zlib.compress(content)
+        return packed
+
+    def decode(self, encoded: bytes) -> bytes:
+        return zlib.decompress(encoded)
+
+
+_KEPT_FLATE = _KeptFlate()
 
 
 def _shaped_str(run: Run) -> tuple[ShapedStr, dict]:
