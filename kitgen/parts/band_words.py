@@ -154,6 +154,47 @@ def _offsets(low_deg: float, high_deg: float):
                 yield d
 
 
+#: How much nearer a dot than the clearance (mm) a word's box must come,
+#: in :func:`_surely_near_dot`'s quick reckoning, to be surely too near:
+#: far above that reckoning's rounding error, far below anything printed.
+SURELY_MM = 1e-6
+
+
+def _surely_near_dot(boxes, deltas_deg, center, dots, clearance_mm: float) -> list[bool]:
+    """For each turn of ``deltas_deg`` about ``center``, whether one of the
+    turned boxes surely comes within ``clearance_mm`` of a dot (#12): the
+    gaps of all turns reckoned at once, each dot turned back instead of the
+    box (the same gap, rounded a little differently from
+    :func:`disc_gap_mm`'s), and counted only where short of the clearance
+    by :data:`SURELY_MM`, so that each turn found is one the exact test
+    turns down too.  Only the dots about as far from ``center`` as a box's
+    corners are reckoned with (the others cannot come near a turned box,
+    and leaving one out only leaves a turn to the exact test)."""
+    if not dots or not deltas_deg:
+        return [False] * len(deltas_deg)
+    a = np.radians(-np.asarray(deltas_deg, dtype=float))[:, None]
+    cos, sin = np.cos(a), np.sin(a)
+    cx, cy = center
+    xy = np.array([c for c, r in dots], dtype=float) - (cx, cy)
+    radius = np.array([r for c, r in dots], dtype=float)
+    far = np.hypot(xy[:, 0], xy[:, 1])
+    out = np.zeros(len(deltas_deg), dtype=bool)
+    for box in boxes:
+        reach = [math.hypot(x - cx, y - cy) for x, y in box]
+        side = math.hypot(box[1][0] - box[0][0], box[1][1] - box[0][1]) + \
+            math.hypot(box[3][0] - box[0][0], box[3][1] - box[0][1])
+        keep = (far + radius + clearance_mm >= min(reach) - side) & (far - radius - clearance_mm <= max(reach))
+        if not keep.any():
+            continue
+        x, y, r = xy[keep, 0], xy[keep, 1], radius[keep]
+        (x0, y0), u, v, lu, lv = _frame(box)
+        tx, ty = cx + cos * x - sin * y - x0, cy + sin * x + cos * y - y0
+        along, across = tx * u[0] + ty * u[1], tx * v[0] + ty * v[1]
+        gap = np.hypot(along - np.clip(along, 0.0, lu), across - np.clip(across, 0.0, lv)) - r
+        out |= (gap < clearance_mm - SURELY_MM).any(axis=1)
+    return out.tolist()
+
+
 def clear_of_dots(elements, dots, center, words, slide_range, short_forms=None):
     """The rete's elements with the band's words (roles ``zodiac_label``
     and ``ecliptic_number``) moved off the stars' dots: ``dots`` are
@@ -207,7 +248,9 @@ def clear_of_dots(elements, dots, center, words, slide_range, short_forms=None):
             for start in tries:
                 # (the words' boxes turned; the elements only for the place found)
                 exts = [words.measure(e.geom["text"], e.geom["size_pt"]) for e in start]
-                for delta in _offsets(low, high):
+                deltas = list(_offsets(low, high))
+                sure = _surely_near_dot([corners_of(e, words) for e in start], deltas, center, dots, clearance)
+                for delta in (d for d, near in zip(deltas, sure) if not near):
                     mb = [_turned_corners(e.geom, ext, center, delta) for e, ext in zip(start, exts)]
                     if blocked(mb, clearance, others, other_bounds):
                         continue
