@@ -16,7 +16,8 @@ Each exact test of a word's turned box (against a dot, a tick, another
 word) is made only where the boxes' axis-aligned bounds come within reach
 (#12): a turned box lies inside its bounds, so a thing beyond them by more
 than the test's reach cannot fail it, and the answers are those of testing
-every pair.
+every pair.  The turns of a sliding word that surely bring it onto a dot
+are found for all its turns at once and skipped (:func:`_surely_near_dot`).
 
 Angles in degrees about the ecliptic's centre; lengths in mm.
 """

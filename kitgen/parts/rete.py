@@ -187,7 +187,8 @@ def _slide_range(eps, s, R, center):
     def slide(el):
         lon = el.values["longitude_deg"]
         reach = 14.0 if el.role == "zodiac_label" else band_words.NUMBER_SLIDE_DEG
-        ends = (turn(angle_deg(lon), angle_deg(lon - reach)), turn(angle_deg(lon), angle_deg(lon + reach)))
+        here = angle_deg(lon)
+        ends = (turn(here, angle_deg(lon - reach)), turn(here, angle_deg(lon + reach)))
         return min(ends), max(ends)
 
     return slide
