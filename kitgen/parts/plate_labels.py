@@ -227,42 +227,41 @@ class Room:
         n = len(idx)
         if n == 0 or not elements:
             return [0] * n, {}
-        arcs, segs, arc_cols, run_cols = self._columns(elements)
+        arc, run, segs, g_arc, g_run = self._columns(elements, clear_mm, widths)
         strokes = self._arrays.elements
-        grow = clear_mm + self._arrays.half_widths(self._half_width) if widths else np.full(len(strokes), clear_mm)
         bx, by, c, sn = places.x[idx], places.y[idx], places.cos[idx], places.sin[idx]
         hw, hh = np.full(n, places.half_w), np.full(n, places.half_h)
         reach = np.hypot(hw, hh) + 1e-3   # beyond a grown box's corners by far more than rounding
         unsure = []
         met = np.zeros(n, dtype=int)
-        if len(arc_cols):
-            g = grow[arcs["owner"][arc_cols]]
-            dist = np.hypot(arcs["x"][arc_cols] - bx[:, None], arcs["y"][arc_cols] - by[:, None])
-            i, j = np.nonzero(np.abs(dist - arcs["r"][arc_cols]) <= reach[:, None] + 1.5 * g)
-            j = arc_cols[j]
-            own = arcs["owner"][j]
-            got = arcs_meet_boxes((bx[i], by[i], c[i], sn[i], hw[i], hh[i]), grow[own], arcs["x"][j],
-                                  arcs["y"][j], arcs["r"][j], arcs["lo"][j], arcs["hi"][j], arcs["whole"][j])
+        if len(g_arc):
+            dist = np.hypot(arc["x"] - bx[:, None], arc["y"] - by[:, None])
+            i, j = np.nonzero(np.abs(dist - arc["r"]) <= reach[:, None] + 1.5 * g_arc)
+            own = arc["owner"][j]
+            got = arcs_meet_boxes((bx[i], by[i], c[i], sn[i], hw[i], hh[i]), g_arc[j], arc["x"][j],
+                                  arc["y"][j], arc["r"][j], arc["lo"][j], arc["hi"][j], arc["whole"][j])
             met += np.bincount(i[got == MEETS], minlength=n)   # one stroke an arc: each pair once
             unsure.append(i[got == UNSURE] * len(strokes) + own[got == UNSURE])
         todo = np.arange(n) if every else np.nonzero(met == 0)[0]
-        if len(run_cols) and len(todo):
-            r = reach[todo][:, None] + 1.5 * grow[segs["run_owner"][run_cols]]
+        if len(g_run) and len(todo):
+            r = reach[todo][:, None] + 1.5 * g_run
             x, y = bx[todo][:, None], by[todo][:, None]
-            i, j = np.nonzero((segs["lox"][run_cols] - r <= x) & (x <= segs["hix"][run_cols] + r)
-                              & (segs["loy"][run_cols] - r <= y) & (y <= segs["hiy"][run_cols] + r))
-            i, j = todo[i], run_cols[j]
-            count = segs["size"][j]
+            i, j = np.nonzero((run["lox"] - r <= x) & (x <= run["hix"] + r)
+                              & (run["loy"] - r <= y) & (y <= run["hiy"] + r))
+            i = todo[i]
+            count = run["size"][j]
             if len(count):   # every segment of those runs
-                k = np.repeat(segs["start"][j] - (np.cumsum(count) - count), count) + np.arange(int(count.sum()))
+                k = np.repeat(run["start"][j] - (np.cumsum(count) - count), count) + np.arange(int(count.sum()))
                 i = np.repeat(i, count)
                 own = segs["owner"][k]
-                got = segments_meet_boxes((bx[i], by[i], c[i], sn[i], hw[i], hh[i]), grow[own],
+                got = segments_meet_boxes((bx[i], by[i], c[i], sn[i], hw[i], hh[i]), np.repeat(g_run[j], count),
                                           segs["px"][k], segs["py"][k], segs["qx"][k], segs["qy"][k])
                 key = i * len(strokes) + own
                 hit = np.unique(key[got == MEETS])   # a polyline counted once
                 met += np.bincount(hit // len(strokes), minlength=n)
-                unsure.append(np.setdiff1d(key[got == UNSURE], hit))
+                doubt = key[got == UNSURE]
+                if len(doubt):
+                    unsure.append(np.setdiff1d(doubt, hit))
         out = {}
         if unsure:
             half = self._half_width
@@ -271,10 +270,14 @@ class Room:
                 out.setdefault(k // len(strokes), []).append((el, clear_mm + (half[el.stroke] if widths else 0.0)))
         return met.tolist(), out
 
-    def _columns(self, elements):
-        """The arrays of every stroke entered (:class:`StrokeArrays`) and,
-        kept with the list (see :meth:`_members`), which of their circles
-        and arcs, and of their runs of segments, are strokes of ``elements``."""
+    def _columns(self, elements, clear_mm: float, widths: bool):
+        """The columns of :meth:`screen` for the strokes of ``elements``,
+        kept with the list (see :meth:`_members`): their circles and arcs
+        (as arrays: centre, radius, angles, whether whole, the stroke's
+        position in :class:`StrokeArrays`), their runs of segments (bounds,
+        first segment, size), the segments of every stroke entered, and
+        the growth (mm) of each circle or arc and of each run's stroke for
+        ``clear_mm`` (with half the line's width where ``widths``)."""
         near = self._members(elements)
         self._arrays.enter(elements)
         arcs, segs = self._arrays.arrays()
@@ -282,9 +285,18 @@ class Room:
         if got is None or got[0] is not arcs:
             member = np.zeros(len(self._arrays.elements), dtype=bool)
             member[[self._arrays.position[id(el)] for el in elements if id(el) in self._arrays.position]] = True
-            got = near["columns"] = (arcs, np.nonzero(member[arcs["owner"]])[0],
-                                     np.nonzero(member[segs["run_owner"]])[0])
-        return arcs, segs, got[1], got[2]
+            arc_cols = np.nonzero(member[arcs["owner"]])[0]
+            run_cols = np.nonzero(member[segs["run_owner"]])[0]
+            arc = {key: arcs[key][arc_cols] for key in ("owner", "x", "y", "r", "lo", "hi", "whole")}
+            run = {key: segs[key][run_cols] for key in ("run_owner", "lox", "hix", "loy", "hiy", "start", "size")}
+            got = near["columns"] = (arcs, arc, run, segs, {})
+        grows = got[4]
+        if (clear_mm, widths) not in grows:
+            n = len(self._arrays.elements)
+            grow = clear_mm + self._arrays.half_widths(self._half_width) if widths else np.full(n, clear_mm)
+            grows[(clear_mm, widths)] = (grow[got[1]["owner"]], grow[got[2]["run_owner"]])
+        return got[1:4] + grows[(clear_mm, widths)]
+
 
     def free(self, box: Box, protected=(), near=(), clear_mm: float = CLEAR_MM) -> bool:
         """Inside the drawing, clear of the labels, ``clear_mm`` from the
