@@ -71,7 +71,7 @@ def rete(ctx: PartContext) -> model.Part:
     lift, digits_h = number_row(w, d.small_text_pt, band)
     r_num = image.radius_mm - lift - digits_h / 2
     for lon in ctx.scales.ecliptic_numbers_deg:
-        p = ecliptic_points_mm(np.array([float(lon)]), eps, s, R)[0]
+        p = pts[int(lon)]   # (whole degrees: the ticks' own points)
         ang = math.degrees(math.atan2(p[1] - c[1], p[0] - c[0]))
         els.append(curves.ring_text("ecliptic_number", w.number(lon % 30), ang, r_num, d.small_text_pt,
                                     center=tuple(c), longitude_deg=float(lon)))
@@ -100,7 +100,8 @@ def rete(ctx: PartContext) -> model.Part:
                                  short=ZODIAC_SIGNS[k], longitude_deg=30.0 * k + 15.0)
 
     stars = sorted(ctx.sky.stars, key=lambda st: st.star.mag)
-    all_pts = [project(-math.radians(st.ra_deg), math.radians(st.dec_deg), s, R) for st in stars]
+    # (all at once, #12: the projection works element by element)
+    all_pts = list(project(-np.radians([st.ra_deg for st in stars]), np.radians([st.dec_deg for st in stars]), s, R))
     # Stars closer than the smallest printed dot is wide are one dot (the
     # brightest's), named once for all of them (#9); the others stay in the
     # geometry, undrawn.  Dots of stars farther apart that would still touch
