@@ -117,15 +117,18 @@ def draw_ink(c: Canvas, pen: _Pen, ink) -> None:
     _text(c, g["at"][0], g["at"][1], g["text"], g["size_pt"], pen.words, text_style, g["anchor"], g["angle_deg"])
 
 
-def draw_elements(c: Canvas, pen: _Pen, elements, holes: Holes = Holes()) -> None:
+def draw_elements(c: Canvas, pen: _Pen, elements, holes: Holes = Holes(), part_id: str = "") -> None:
     """Elements, each as its inks (none for a line thinned away).  A
     line's or dot's PDF operators are kept with the element
     (:func:`_drawn`), so the parts a class set's kits share (#12) are
-    turned into operators once; the pen is asked for a line's style only
-    when the style differs from the last line's."""
+    turned into operators once, and with a whole part's elements
+    (``part_id``) for the next kit's part of that id
+    (:func:`_part_drawn`); the pen is asked for a line's style only when
+    the style differs from the last line's."""
     add = c._code.append
     last = None
-    for drawn in _drawn(elements, pen.dims, holes):
+    drawn_elements = _part_drawn(part_id, elements, pen.dims, holes) if part_id else _drawn(elements, pen.dims, holes)
+    for drawn in drawn_elements:
         for style_key, code, ink in drawn:
             if code is None:
                 draw_ink(c, pen, ink)
@@ -171,6 +174,31 @@ def _drawn(elements, dims, holes: Holes) -> list[tuple]:
             out[i] = drawn
             kept[id(elements[i])] = (elements[i], drawn)
     return out
+
+
+#: The last drawn elements of each part, by its id and the hole sizes:
+#: ``(elements, their inks with operators, indices of the points)``.
+_PARTS: dict[tuple, tuple] = {}
+_PARTS_MOST = 32
+
+
+def _part_drawn(part_id: str, elements, dims, holes: Holes) -> list[tuple]:
+    """:func:`_drawn` of a whole part's elements, or those kept for the
+    last part of that id where the two are equal element for element and
+    each point gives the same inks with these line weights (a point's
+    inks are the only ones that depend on them): a school's mater, rule
+    and alidade at another latitude are the same but for being made
+    again (#12).  A kept text element draws as the equal new one would:
+    the same string, place, size and turn."""
+    kept = _PARTS.get((part_id, holes))
+    if kept is not None and kept[0] == elements and all(
+            tuple(ink for _, _, ink in kept[1][i]) == inks(elements[i], dims, holes) for i in kept[2]):
+        return kept[1]
+    drawn = _drawn(elements, dims, holes)
+    if len(_PARTS) >= _PARTS_MOST:
+        _PARTS.clear()
+    _PARTS[(part_id, holes)] = (elements, drawn, [i for i, el in enumerate(elements) if el.shape == "point"])
+    return drawn
 
 
 #: The style keys of :func:`_made`, one object per (stroke, role), so that
@@ -319,7 +347,8 @@ def _draw_placement(c: Canvas, placement, dims, words, printing, only=None) -> N
     if piece is not None:
         turn, window = placement.rotation_deg, piece.window_mm
         elements = [el for el in elements if meets(turn_box(element_box_mm(el), turn), window)]
-    draw_elements(c, _Pen(c, dims, words, printing.colour), elements, holes_of(printing))
+    whole = placement.part.id if only is None and piece is None else ""
+    draw_elements(c, _Pen(c, dims, words, printing.colour), elements, holes_of(printing), whole)
     c.restoreState()
     c.addLiteral("EMC")
     if only is not None:
