@@ -816,17 +816,23 @@ class PlateLabeller:
         for el in els:
             cands = points_along(el, _midpoint(el), step_mm=max(1.0, ext.height_mm / 3), reach_mm=4 * room.disc)
             paths.append((cands, [upright(a) for _, _, a in cands]))
-        for offset in (0.0, -aside, aside, -aside - bulge, aside + bulge):
-            near = self.reference + (els if offset else [])   # one list for all places: its index is kept
-            for cands, turns in paths:
-                places = Places([(x - math.sin(a) * offset, y + math.cos(a) * offset) for x, y, a in cands],
-                                turns, ext.width_mm / 2, ext.height_mm / 2)
-                can = places.inside(room)
-                for run in _runs(len(places), 32, 512):
-                    idx = run[can[run]]
-                    b, best = self._name_place(places, idx, (near, protected, named, thin), best)
-                    if b is not None:
-                        return self.put("curve_label", b, text, size, curve=role, **match)
+        # On the curve, then beside it at four offsets (one list of places
+        # for those four, tried in the same order, so that they are
+        # screened in fewer and longer runs, #12).
+        for offsets in ((0.0,), (-aside, aside, -aside - bulge, aside + bulge)):
+            near = self.reference + (els if offsets[0] else [])   # one list for all places: its index is kept
+            centers, angles = [], []
+            for offset in offsets:
+                for cands, turns in paths:
+                    centers += [(x - math.sin(a) * offset, y + math.cos(a) * offset) for x, y, a in cands]
+                    angles += turns
+            places = Places(centers, angles, ext.width_mm / 2, ext.height_mm / 2)
+            can = places.inside(room)
+            for run in _runs(len(places), 32, 512):
+                idx = run[can[run]]
+                b, best = self._name_place(places, idx, (near, protected, named, thin), best)
+                if b is not None:
+                    return self.put("curve_label", b, text, size, curve=role, **match)
         if best is not None:
             return self.put("curve_label", best[1], text, size, curve=role, **match)
         return self.left_out(text)
