@@ -467,14 +467,8 @@ def _polyline_near(g, box: Box):
     kept = _POLY_GRIDS.get(id(points))
     if kept is None or kept[0] is not points or kept[1] != closed:
         pts = tuple(points) + ((points[0],) if closed else ())
-        cells: dict = {}
-        for i in range(len(pts) - 1):
-            (x0, y0), (x1, y1) = pts[i], pts[i + 1]
-            for ci in range(math.floor(min(x0, x1) / POLY_CELL_MM), math.floor(max(x0, x1) / POLY_CELL_MM) + 1):
-                for cj in range(math.floor(min(y0, y1) / POLY_CELL_MM),
-                                math.floor(max(y0, y1) / POLY_CELL_MM) + 1):
-                    cells.setdefault((ci, cj), []).append(i)
         lo, hi = _segment_bounds(pts)
+        cells = _segment_cells(lo, hi)
         bounds = (lo[:, 0].tolist(), hi[:, 0].tolist(), lo[:, 1].tolist(), hi[:, 1].tolist())
         if len(_POLY_GRIDS) > 1024:
             _POLY_GRIDS.clear()
@@ -508,6 +502,21 @@ def _polyline_near(g, box: Box):
         return pts, (i for i in near if hix[i] - x > -hw and lox[i] - x < hw and hiy[i] - y > -hh and loy[i] - y < hh)
     rr = box.radius   # of those, the ones the bounds test above keeps, as they are asked for
     return pts, (i for i in near if lox[i] - rr <= x <= hix[i] + rr and loy[i] - rr <= y <= hiy[i] + rr)
+
+
+def _segment_cells(lo, hi) -> dict:
+    """{(column, row): the indices, in order, of the segments whose bounds
+    (corners ``lo`` and ``hi``, arrays) reach into that grid cell of side
+    :data:`POLY_CELL_MM`}: each segment's cells found as arrays, the floors
+    of its bounds over the side (#12)."""
+    i0, j0 = np.floor(lo / POLY_CELL_MM).astype(int).T
+    i1, j1 = np.floor(hi / POLY_CELL_MM).astype(int).T
+    cells: dict = {}
+    for k, a, b, c, d in zip(range(len(i0)), i0.tolist(), i1.tolist(), j0.tolist(), j1.tolist()):
+        for ci in range(a, b + 1):
+            for cj in range(c, d + 1):
+                cells.setdefault((ci, cj), []).append(k)
+    return cells
 
 
 _BOUNDS: dict = {}
