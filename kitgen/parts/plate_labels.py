@@ -785,7 +785,8 @@ class PlateLabeller:
         pts = project_vectors(equatorial_vector(ha, decs), s, R)
         want = -s * eps / 2
         order = np.argsort(np.abs(decs - want))
-        cands = [(float(pts[i][0]), float(pts[i][1]), 0.0) for i in order if np.all(np.isfinite(pts[i]))]
+        finite, rows = np.all(np.isfinite(pts), axis=1).tolist(), pts.tolist()   # read as arrays once (#12)
+        cands = [(rows[i][0], rows[i][1], 0.0) for i in order.tolist() if finite[i]]
         b = self.first_free(cands, text, size, self.others())
         if b is not None:
             return self.put("unequal_hour_label", b, text, size, hour=k)
