@@ -25,6 +25,7 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass, field
+from itertools import chain
 from typing import Any
 
 import numpy as np
@@ -360,7 +361,11 @@ def sample(el, step_mm: float = 0.5) -> np.ndarray:
         a = np.radians(np.linspace(a0, a1, n))
         return np.stack([g["center"][0] + g["radius"] * np.cos(a), g["center"][1] + g["radius"] * np.sin(a)], axis=1)
     pts = [g["from"], g["to"]] if el.shape == "segment" else list(g["points"])
-    return _along(pts, [max(1, int(math.dist(a, b) / step_mm)) for a, b in zip(pts[:-1], pts[1:])])
+    # Each side's count, max(1, int(math.dist(a, b) / step_mm)), the
+    # distances in one map and the rest in numpy: the same floats and
+    # truncation (#12).
+    sides = np.fromiter(map(math.dist, pts[:-1], pts[1:]), float, len(pts) - 1)
+    return _along(pts, np.maximum(1, (sides / step_mm).astype(np.int64)))
 
 
 def _along(pts, counts) -> np.ndarray:
@@ -370,7 +375,7 @@ def _along(pts, counts) -> np.ndarray:
     (``t = i * (1 / n)``, and 1 at the end), computed for all the sides
     at once (#12: a call of ``linspace`` per side was most of the
     pictures' time)."""
-    xy = np.asarray(pts, dtype=float).reshape(-1, 2)
+    xy = np.fromiter(chain.from_iterable(pts), float, 2 * len(pts)).reshape(-1, 2)
     n = np.asarray(counts, dtype=np.int64)
     side = np.repeat(np.arange(len(n)), n)
     i = np.arange(len(side)) - np.repeat(np.cumsum(n) - n, n) + 1.0
