@@ -37,7 +37,7 @@ import numpy as np
 from ..geometry import model
 from ..geometry.style import dot_radius_mm, pin_cross_half_mm, stroke_width_mm, zenith_mark_half_mm
 from ..projection.stereographic import equatorial_vector, horizontal_vector, project_vectors
-from .breaks import (MEETS, UNSURE, Box, arcs_meet_boxes, boxes_overlap, meets, meets_near, reach_of,
+from .breaks import (MEETS, UNSURE, Box, arcs_meet_boxes, boxes_overlap, meets_near, reach_of,
                      ring_meets_grown, segments_meet_boxes)
 from .labels import MARGIN_MM
 from .stroke_index import BoxIndex, StrokeArrays, StrokeIndex
@@ -166,6 +166,12 @@ class Room:
             arc = (math.radians(g["start_deg"]), math.radians(g["end_deg"])) if el.shape == "arc" else (0.0, 0.0)
             got = self._lines[id(el)] = (el, self._half_width[el.stroke]) + reach_of(el) + arc
         return got
+
+    def meets(self, el, box: Box, by_mm: float) -> bool:
+        """Whether the stroke ``el`` (one entered) runs through ``box``
+        grown by ``by_mm``: :func:`kitgen.parts.breaks.meets`, worked as
+        :meth:`_meets` works it (#12)."""
+        return self._meets(self._line(el), box, by_mm)
 
     @staticmethod
     def _meets(line, box: Box, by_mm: float) -> bool:
@@ -395,7 +401,7 @@ class Screen:
         if met[i]:
             return False
         box = self.places.box(int(self.idx[i]))
-        return not any(meets(el, box.grown(by)) for el, by in unsure.get(i, ()))
+        return not any(self.room.meets(el, box, by) for el, by in unsure.get(i, ()))
 
     def crossed(self, i: int, most: int | None = None) -> int:
         """How many strokes run through box ``i`` grown by the clearance
@@ -406,7 +412,7 @@ class Screen:
         for el, by in unsure.get(i, ()):
             if most is not None and count >= most:
                 break
-            count += meets(el, box.grown(by))
+            count += self.room.meets(el, box, by)
         return count if most is None else min(count, most)
 
 
