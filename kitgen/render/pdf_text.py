@@ -170,11 +170,21 @@ def _shaped_str(run: Run) -> tuple[ShapedStr, dict]:
     contextual forms, that no character maps to), with its advance and
     offsets in thousandths of the size; with it, the store of its
     operators (:func:`_shaped_operators`).  Kept per run and font object:
-    the private-use characters, once given, stay the font's (#12)."""
+    the private-use characters, once given, stay the font's (#12).  Found
+    by the run's identity, else by its value: a run of another line with
+    the same face, text and glyphs (a comma, a word that recurs) makes
+    the same string, and shares its operators."""
     ttf = pdfmetrics.getFont(run.face.name)
     kept = _SHAPED.get(id(run))
     if kept is not None and kept[0] is run and kept[1] is ttf:
         return kept[2], kept[3]
+    if len(_SHAPED) >= _SHAPED_MOST:
+        _SHAPED.clear()
+        _SHAPED_BY_VALUE.clear()
+    same = _SHAPED_BY_VALUE.get(run)
+    if same is not None and same[1] is ttf:
+        _SHAPED[id(run)] = (run, ttf, same[2], same[3])
+        return same[2], same[3]
     face = ttf.face
     chars, data = [], []
     order = fonts._metrics(run.face)[2]
@@ -188,15 +198,15 @@ def _shaped_str(run: Run) -> tuple[ShapedStr, dict]:
         data.append(ShapeData(g.cluster, g.x_advance_em * 1000.0, 0, g.x_offset_em * 1000.0,
                               g.y_offset_em * 1000.0, face.charWidths[uchar]))
     shaped = ShapedStr("".join(chars), shapeData=data)
-    if len(_SHAPED) >= _SHAPED_MOST:
-        _SHAPED.clear()
-    _SHAPED[id(run)] = (run, ttf, shaped, {})
+    _SHAPED[id(run)] = _SHAPED_BY_VALUE[run] = (run, ttf, shaped, {})
     return shaped, _SHAPED[id(run)][3]
 
 
 #: Shaped runs as reportlab strings, by the run's identity: (run, font,
-#: string, {(size, pieces, subset names): operators}).
+#: string, {(size, pieces, subset names): operators}); and the same by
+#: the run's value.
 _SHAPED: dict[int, tuple] = {}
+_SHAPED_BY_VALUE: dict[Run, tuple] = {}
 _SHAPED_MOST = 20_000
 
 
