@@ -178,8 +178,23 @@ _CLASS: dict[str, str] = {}
 _RTL_PLAIN_CLASSES = frozenset({"R", "AL", "NSM", "BN", "B", "S", "WS", "ON", "ES", "ET", "CS"})
 
 
+#: The characters met whose class is among :data:`_PLAIN_CLASSES`, and
+#: those whose class is among :data:`_RTL_PLAIN_CLASSES`: whether a line
+#: is all of these is asked of its characters in C, without listing its
+#: classes (#12).
+_LTR_PLAIN_CHARS: set[str] = set()
+_RTL_PLAIN_CHARS: set[str] = set()
+
+
 def _class(ch: str) -> str:
-    return _CLASS.setdefault(ch, unicodedata.bidirectional(ch) or "L")
+    found = _CLASS.get(ch)
+    if found is None:
+        found = _CLASS[ch] = unicodedata.bidirectional(ch) or "L"
+        if found in _PLAIN_CLASSES:
+            _LTR_PLAIN_CHARS.add(ch)
+        if found in _RTL_PLAIN_CLASSES:
+            _RTL_PLAIN_CHARS.add(ch)
+    return found
 
 
 def _classes(text: str) -> list[str]:
@@ -206,6 +221,8 @@ def embedding_levels(text: str, rtl: bool) -> list[int]:
     """The resolved embedding level of each character (UAX #9, W1-I2, L1)."""
     base = 1 if rtl else 0
     sor = "R" if rtl else "L"
+    if (_RTL_PLAIN_CHARS if rtl else _LTR_PLAIN_CHARS).issuperset(text):
+        return [base] * len(text)   # the two cases below, from characters met before
     t = _classes(text)
     n = len(t)
     if not rtl and _PLAIN_CLASSES.issuperset(t):
@@ -424,6 +441,8 @@ def _line_is_rtl(text: str, prefer_rtl: bool) -> bool:
     """The direction of a line.  P2 skips the isolates; a line of a
     right-to-left language with no strong letter of its own outside them
     keeps the language's direction (HL1)."""
+    if _LTR_PLAIN_CHARS.issuperset(text):
+        return False   # no right-to-left letter and no isolate: P2-P3 and HL1 find no R (#12)
     outer, found = isolates(text)
     outer = outer.replace(_STAND_IN, "")
     return paragraph_is_rtl(outer, prefer_rtl) or bool(prefer_rtl and found and not any(
@@ -557,13 +576,22 @@ def _visual_runs(text: str, stack: tuple[Face, ...], rtl: bool, make=None) -> li
     runs: list[list[Run]] = []
     for face, level, piece in pieces:
         if face is None:
-            initiator, content = next(inner)
-            inner_rtl = initiator == RLI or (initiator == FSI and paragraph_is_rtl(isolates(content)[0], False))
-            runs.append(_visual_runs(content, stack, inner_rtl, make))
+            runs.append(_isolate_runs(*next(inner), stack, make))
         else:
             runs.append([make(face, piece, level)])
     order = visual_order([level for _, level, _ in pieces])
     return [run for k in order for run in runs[k]]
+
+
+#: Isolates kept set: the numbers and names a right-to-left paragraph's
+#: trial lines hold again and again (#12).
+@lru_cache(maxsize=4096)
+def _isolate_runs(initiator: str, content: str, stack: tuple[Face, ...], make) -> tuple:
+    """The runs of an isolate's ``content`` as a paragraph of its own, in
+    visual order: left to right for LRI, right to left for RLI, and for
+    FSI the direction of its first strong character (P2-P3)."""
+    inner_rtl = initiator == RLI or (initiator == FSI and paragraph_is_rtl(isolates(content)[0], False))
+    return tuple(_visual_runs(content, stack, inner_rtl, make))
 
 
 def _ink(runs, middle: float) -> tuple[float, float]:
