@@ -29,7 +29,7 @@ from .printfiles import PrintedKit, PrintFiles
 from .progress import progress
 from .setfile import load_set
 from .stamp import SchoolStamps
-from .work import KitJob, PartsJob, build_one, draw_for, warm
+from .work import KitJob, PartsJob, build_one, collect_rarely, draw_for, rare_collections, warm
 
 PRINT_NAMES = {"card": "print-card.pdf", "film": "print-film.pdf"}
 #: Most worker processes one run may ask for.
@@ -147,8 +147,9 @@ def _build_all(jobs_list, jobs: int, languages, speak):
     kits are sent to their own worker once the plates are back."""
     if jobs == 1:
         warm(languages, speak)
-        for job in worker_shares(jobs_list, 1)[0]:
-            yield build_one(job)
+        with rare_collections():
+            for job in worker_shares(jobs_list, 1)[0]:
+                yield build_one(job)
         return
     shares = worker_shares(jobs_list, jobs)
     moves = plate_moves(shares)
@@ -283,12 +284,13 @@ def _deal(groups: dict, counts: dict, jobs: int):
 def _worker_start(languages, speak) -> None:
     """A worker leaves Ctrl-C to the main process, which stops the pool
     and cleans up, and ends at once on the other signals (it writes
-    nothing); then it warms its caches."""
+    nothing); then it warms its caches and collects garbage rarely."""
     signal.signal(signal.SIGINT, signal.SIG_IGN)
     for name in ("SIGTERM", "SIGHUP", "SIGQUIT"):
         if hasattr(signal, name):
             signal.signal(getattr(signal, name), signal.SIG_DFL)
     warm(languages, speak)
+    collect_rarely()   # for the worker's life
 
 
 def _context():
