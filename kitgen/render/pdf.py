@@ -147,7 +147,7 @@ def draw_elements(c: Canvas, pen: _Pen, elements, holes: Holes = Holes(), part_i
 #: (:func:`_made`).
 _DRAWN: dict[tuple, tuple] = {}
 #: The most elements kept (a few kits' worth; then the store starts afresh).
-_DRAWN_MOST = 40_000
+_DRAWN_MOST = 12_000
 
 
 def _drawn(elements, dims, holes: Holes) -> list[tuple]:
