@@ -453,8 +453,9 @@ def points_along(el, near, step_mm: float = STEP_MM, reach_mm: float = SLIDE_MM)
                 t = t0 + sgn * k * step_mm / r
                 if lo <= t <= hi:
                     out.append((cx + r * math.cos(t), cy + r * math.sin(t), t + math.pi / 2))
-        out.sort(key=lambda p: (round(math.dist(p[:2], near) / step_mm), -p[0]))
-        return out
+        # sorted by the keys worked out in one pass (the same stable sort, #12)
+        keys = [(round(math.dist((x, y), near) / step_mm), -x) for x, y, _ in out]
+        return [out[k] for k in sorted(range(len(out)), key=keys.__getitem__)]
     pts = [g["from"], g["to"]] if el.shape == "segment" else list(g["points"])
     p = np.asarray(pts, dtype=float)
     seg = np.hypot(*(p[1:] - p[:-1]).T)
