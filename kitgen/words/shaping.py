@@ -105,13 +105,16 @@ _STAND_IN = "\ufffc"
 _MARKS = re.compile(f"[{LRI}{RLI}{FSI}{PDI}]")
 
 
-def isolates(text: str) -> tuple[str, list[tuple[str, str]]]:
+#: A line's isolates kept for the next ask: a line's direction and its
+#: runs both need them (#12).
+@lru_cache(maxsize=256)
+def isolates(text: str) -> tuple[str, tuple[tuple[str, str], ...]]:
     """``text`` with each outermost isolate replaced by one stand-in
     character, and the isolates' (initiator, content) in order.  An
     initiator without its PDI runs to the end of the text (BD9); a PDI
     without an initiator is dropped."""
     if LRI not in text and RLI not in text and FSI not in text and PDI not in text:
-        return text, []
+        return text, ()
     outer, found = [], []
     depth, start = 0, 0   # the isolate's depth; where the text outside it (or its content) starts
     for m in _MARKS.finditer(text):   # only the marks move the depth (#12: not every character)
@@ -132,7 +135,7 @@ def isolates(text: str) -> tuple[str, list[tuple[str, str]]]:
         outer.append(_STAND_IN)
     else:
         outer.append(text[start:])
-    return "".join(outer), found
+    return "".join(outer), tuple(found)
 
 
 _DIGIT = "0-9\u0660-\u0669\u06f0-\u06f9\u0966-\u096f"
@@ -184,6 +187,8 @@ _RTL_PLAIN_CLASSES = frozenset({"R", "AL", "NSM", "BN", "B", "S", "WS", "ON", "E
 #: classes (#12).
 _LTR_PLAIN_CHARS: set[str] = set()
 _RTL_PLAIN_CHARS: set[str] = set()
+#: The characters met of class R or AL.
+_STRONG_R_CHARS: set[str] = set()
 
 
 def _class(ch: str) -> str:
@@ -194,6 +199,8 @@ def _class(ch: str) -> str:
             _LTR_PLAIN_CHARS.add(ch)
         if found in _RTL_PLAIN_CLASSES:
             _RTL_PLAIN_CHARS.add(ch)
+        if found in _STRONG_R:
+            _STRONG_R_CHARS.add(ch)
     return found
 
 
@@ -444,6 +451,8 @@ def _line_is_rtl(text: str, prefer_rtl: bool) -> bool:
     if _LTR_PLAIN_CHARS.issuperset(text):
         return False   # no right-to-left letter and no isolate: P2-P3 and HL1 find no R (#12)
     outer, found = isolates(text)
+    if prefer_rtl and not _STRONG_R_CHARS.isdisjoint(outer):
+        return True   # a right-to-left letter met before: HL1 (#12)
     outer = outer.replace(_STAND_IN, "")
     return paragraph_is_rtl(outer, prefer_rtl) or bool(prefer_rtl and found and not any(
         c in ("L", "R", "AL") for c in _classes(outer)))
