@@ -13,12 +13,17 @@ strings of every shipped language:
   ligatures off, as reportlab draws plain strings;
 - a paragraph wraps into the same lines as setting every trial line, and
   the width of a shaped line measured alone (:func:`line_width_em`) is
-  the width of the line set whole.
+  the width of the line set whole;
+- a shaped paragraph, whose lines are found with a few trial lines each
+  (``paragraphs._longest_fit``), wraps into the lines of the typewriter's
+  first fit, word by word (written out here as the reference).
 """
 
 from __future__ import annotations
 
 import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
 
 from kitgen.layout import paragraphs
 from kitgen.template_files import available_languages
@@ -98,3 +103,45 @@ def test_not_plain():
     assert plain_advances("\u4e2d", "Latn", "label") is None
     assert plain_advances("Vega", "Arab", "label") is None
     assert len(plain_advances("Vega 1.5°", "Grek", "bold")) == 9
+
+
+def _first_fit(text, limit_pt, size_pt, words, style):
+    """The reference: the first fit, one word at a time, each trial line
+    set whole."""
+    lines, current = [], ""
+    for word in text.split():
+        trial = f"{current} {word}" if current else word
+        if current and line_width_em(trial, words.script, style, words.rtl) * size_pt > limit_pt:
+            lines.append(current)
+            current = word
+        else:
+            current = trial
+    return lines + [current] if current else lines
+
+
+@pytest.mark.parametrize("code", available_languages())
+def test_shaped_wrap_is_the_first_fit(code, monkeypatch):
+    words = load_words(code)
+    texts = [t for t in _sample(words, 40) if len(t.split()) > 3]
+    monkeypatch.setattr(paragraphs, "plain_advances", lambda *a: None)   # every language by trial lines
+    cases = [(t, limit, size, style) for t in texts for limit, size in ((90.0, 9.0), (250.0, 10.5), (400.0, 5.5))
+             for style in ("body", "bold")]
+    for text, limit, size, style in cases:
+        got = list(paragraphs._wrap.__wrapped__(text, limit, size, words.script, words.rtl, style))
+        assert got == _first_fit(text, limit, size, words, style), (text, limit, size, style)
+
+
+@settings(max_examples=300, deadline=None)
+@given(st.integers(1, 60), st.integers(0, 70), st.integers(-5, 70))
+def test_longest_fit_finds_the_last_fitting_end(most, threshold, guess):
+    # any width that grows with each word: the ends up to a threshold fit
+    asked = []
+
+    def fits(end):
+        asked.append(end)
+        return end <= threshold
+
+    least = 1
+    got = paragraphs._longest_fit(fits, least, most, guess)
+    assert got == max(least, min(threshold, most))
+    assert all(least <= end <= most for end in asked)

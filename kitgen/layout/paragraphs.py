@@ -108,17 +108,40 @@ def _wrap(text: str, width_limit_pt: float, size_pt: float, script: str, rtl: bo
     advances = plain_advances(joined, script, style)
     if advances is not None:
         return tuple(_wrap_plain(joined, advances, width_limit_pt, size_pt))
-    lines, current = [], ""
-    for word in text.split():
-        trial = f"{current} {word}" if current else word
-        if current and line_width_em(trial, script, style, rtl) * size_pt > width_limit_pt:
-            lines.append(current)
-            current = word
-        else:
-            current = trial
-    if current:
-        lines.append(current)
+    words, lines, start, guess = text.split(), [], 0, 1
+
+    def fits(end: int) -> bool:
+        return line_width_em(" ".join(words[start:end]), script, style, rtl) * size_pt <= width_limit_pt
+
+    while start < len(words):
+        end = _longest_fit(fits, start + 1, len(words), start + guess)
+        lines.append(" ".join(words[start:end]))
+        guess, start = end - start, end
     return tuple(lines)
+
+
+def _longest_fit(fits, least: int, most: int, guess: int) -> int:
+    """The greatest ``end`` from ``least`` to ``most`` with ``fits(end)``
+    (``least`` taken as fitting: a word wider than the line stands alone),
+    searched from ``guess`` outwards and then by halves.  A line's width
+    grows with each word added to it (by a space's advance at least), so
+    this is the line the typewriter's first fit makes word by word, with
+    a few trial lines instead of one a word: the last line's length is
+    the guess, and lines of a paragraph are much alike."""
+    guess = min(max(guess, least), most)
+    if guess > least and not fits(guess):
+        lo, hi = least, guess          # lo fits, hi does not
+    else:
+        lo, step = guess, 1
+        while lo < most and fits(min(lo + step, most)):
+            lo, step = min(lo + step, most), step * 2
+        if lo == most:
+            return most
+        hi = min(lo + step, most)
+    while hi - lo > 1:
+        mid = (lo + hi) // 2
+        lo, hi = (mid, hi) if fits(mid) else (lo, mid)
+    return lo
 
 
 def _wrap_plain(joined: str, advances: list[float], width_limit_pt: float, size_pt: float) -> list[str]:
