@@ -92,8 +92,8 @@ def wrap(text: str, width_limit_pt: float, size_pt: float, words, style: str) ->
     limit stands alone).  A plain paragraph (Latin, Greek, Cyrillic) is
     measured from its characters' advances, read once: each trial line's
     width is the sum of its advances, exactly what setting it would give
-    (:func:`kitgen.words.shaping.plain_advances`); any other sets each
-    trial line.  The lines depend on nothing but the arguments and the
+    (:func:`kitgen.words.shaping.plain_advances`); any other sets a few
+    trial lines a line (:func:`_longest_fit`).  The lines depend on nothing but the arguments and the
     language's script and direction, so they are kept for the next ask:
     the pages' split measures each paragraph several times, and a class
     set the same paragraphs for each kit of a language (#12)."""
