@@ -302,6 +302,8 @@ def visual_order(levels: list[int]) -> list[int]:
     order = list(range(len(levels)))
     if not levels:
         return order
+    if levels.count(levels[0]) == len(levels):
+        return order[::-1] if levels[0] % 2 else order   # one level: one reversal or none (#12)
     lowest_odd = min((lv for lv in levels if lv % 2), default=None)
     if lowest_odd is None:
         return order
