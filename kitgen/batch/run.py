@@ -78,15 +78,23 @@ def run_set(set_path, out_dir, jobs: int | None = None, quiet: bool = False, str
     built."""
     started = time.monotonic()
     set_path, out_dir = Path(set_path), Path(out_dir)
-    kit_set = load_set(set_path)
-    check_output_folder(out_dir, [set_path, *kit_set.inputs])
+    with ExitStack() as stack:
+        # Workers start before the set is read, and load their fonts meanwhile.
+        pools = _start_workers(stack, jobs or default_jobs())
+        kit_set = load_set(set_path)
+        check_output_folder(out_dir, [set_path, *kit_set.inputs])
+        return _run(kit_set, out_dir, pools, quiet, stream, started)
+
+
+def _run(kit_set, out_dir: Path, pools: list, quiet: bool, stream, started: float) -> Summary:
+    """:func:`run_set` once the set is read: its kits built with the
+    workers ``pools`` (none: in this process) into ``out_dir``."""
     speak = kit_set.language if kit_set.language in available_languages() else None
     words = load_words(speak) if speak else None
     names = kit_file_names(kit_set.kits)
     errors = {k.number: one_line(k.error.text(words)) for k in kit_set.kits if k.error is not None}
-    jobs_list = [KitJob(k.number, k.recipe) for k in kit_set.kits if k.error is None]
-    jobs = max(1, min(jobs or default_jobs(), len(jobs_list) or 1))
-    languages = tuple(sorted({j.recipe.language for j in jobs_list}))
+    jobs_list = [KitJob(k.number, k.recipe, speak=speak) for k in kit_set.kits if k.error is None]
+    jobs = max(1, min(len(pools) or 1, len(jobs_list) or 1))
     bar = progress(len(kit_set.kits), quiet, stream)
     results, internal, peak = {}, False, 0
     by_number = {k.number: k for k in kit_set.kits}
@@ -96,7 +104,7 @@ def run_set(set_path, out_dir, jobs: int | None = None, quiet: bool = False, str
                 bar.advance()
             printing, waiting, next_number = PrintFiles(), {}, 1
             stamps = SchoolStamps(k for k in kit_set.kits if k.error is None)
-            for result in _build_all(jobs_list, jobs, languages, speak):
+            for result in _build_all(jobs_list, pools[:jobs] if jobs > 1 else []):
                 kit = by_number[result.number]
                 peak = max(peak, result.peak_rss_kib)
                 if result.error:
@@ -139,51 +147,56 @@ def _print_ready(printing, stamps, waiting: dict, next_number: int, by_number: d
     return next_number
 
 
-def _build_all(jobs_list, jobs: int, languages, speak):
+def _start_workers(stack: ExitStack, jobs: int) -> list:
+    """``jobs`` worker processes (none for one: the kits are built in this
+    process), each a pool of one, started at once; closed with ``stack``."""
+    if jobs < 2:
+        return []
+    pools = [stack.enter_context(ProcessPoolExecutor(max_workers=1, mp_context=_context(),
+                                                     initializer=_worker_start)) for _ in range(jobs)]
+    for pool in pools:
+        pool.submit(int)   # starts its process now
+    return pools
+
+
+def _build_all(jobs_list, pools: list):
     """Each job's :class:`~kitgen.batch.work.KitResult`, as they finish:
-    in this process for one job, else each worker its share
-    (:func:`worker_shares`), a process of its own, with some schools'
-    plates drawn by a less loaded worker (:func:`plate_moves`): their
-    kits are sent to their own worker once the plates are back."""
-    if jobs == 1:
-        warm(languages, speak)
+    in this process without ``pools``, else each worker its share
+    (:func:`worker_shares`), with some schools' plates drawn by a less
+    loaded worker (:func:`plate_moves`): their kits are sent to their own
+    worker once the plates are back."""
+    if not pools:
+        warm(tuple(sorted({job.recipe.language for job in jobs_list})))
         with rare_collections():
             for job in worker_shares(jobs_list, 1)[0]:
                 yield build_one(job)
         return
-    shares = worker_shares(jobs_list, jobs)
+    shares = worker_shares(jobs_list, len(pools))
     moves = plate_moves(shares)
-    own = [{job.recipe.language for job in share} | {school.language for _, k, school in moves if k == n}
-           for n, share in enumerate(shares)]   # the templates each worker reads: its own kits' and draws'
-    with ExitStack() as stack:
-        pools = [stack.enter_context(ProcessPoolExecutor(max_workers=1, mp_context=_context(),
-                                                         initializer=_worker_start,
-                                                         initargs=(tuple(sorted(codes)), speak)))
-                 for codes in own]
-        drawing, waiting = {}, {}
-        for source, target, school in moves:
-            jobs_of = [job for job in shares[source] if _school(job) == school]
-            drawing[pools[target].submit(draw_for, PartsJob(jobs_of[0].recipe))] = (source, school)
-            waiting[(source, school)] = jobs_of
-        pending = set(drawing)
-        for k, share in enumerate(shares):
-            pending |= {pools[k].submit(build_one, job) for job in share if (k, _school(job)) not in waiting}
-        try:
-            while pending:
-                done, pending = wait(pending, return_when=FIRST_COMPLETED)
-                for future in sorted(done, key=lambda f: f in drawing):
-                    if future not in drawing:
-                        yield future.result()
-                        continue
-                    source, school = drawing.pop(future)
-                    parts = future.result().parts
-                    jobs_of = waiting.pop((source, school))
-                    pending |= {pools[source].submit(build_one, replace(job, drawn=parts) if k == 0 and parts
-                                                     else job) for k, job in enumerate(jobs_of)}
-        except BaseException:
-            for future in pending:
-                future.cancel()
-            raise
+    drawing, waiting = {}, {}
+    for source, target, school in moves:
+        jobs_of = [job for job in shares[source] if _school(job) == school]
+        drawing[pools[target].submit(draw_for, PartsJob(jobs_of[0].recipe))] = (source, school)
+        waiting[(source, school)] = jobs_of
+    pending = set(drawing)
+    for k, share in enumerate(shares):
+        pending |= {pools[k].submit(build_one, job) for job in share if (k, _school(job)) not in waiting}
+    try:
+        while pending:
+            done, pending = wait(pending, return_when=FIRST_COMPLETED)
+            for future in sorted(done, key=lambda f: f in drawing):
+                if future not in drawing:
+                    yield future.result()
+                    continue
+                source, school = drawing.pop(future)
+                parts = future.result().parts
+                jobs_of = waiting.pop((source, school))
+                pending |= {pools[source].submit(build_one, replace(job, drawn=parts) if k == 0 and parts
+                                                 else job) for k, job in enumerate(jobs_of)}
+    except BaseException:
+        for future in pending:
+            future.cancel()
+        raise
 
 
 #: What drawing a school's shared parts costs a worker, in its pupils'
@@ -281,7 +294,7 @@ def _deal(groups: dict, counts: dict, jobs: int):
     return out, loads
 
 
-def _worker_start(languages, speak) -> None:
+def _worker_start() -> None:
     """A worker leaves Ctrl-C to the main process, which stops the pool
     and cleans up, and ends at once on the other signals (it writes
     nothing); then it warms its caches and collects garbage rarely."""
@@ -289,7 +302,7 @@ def _worker_start(languages, speak) -> None:
     for name in ("SIGTERM", "SIGHUP", "SIGQUIT"):
         if hasattr(signal, name):
             signal.signal(getattr(signal, name), signal.SIG_DFL)
-    warm(languages, speak)
+    warm()
     collect_rarely()   # for the worker's life
 
 

@@ -41,6 +41,9 @@ class KitJob:
     #: Parts of the kit's school drawn by another worker (:func:`draw_for`),
     #: by id, or None.
     drawn: dict | None = field(default=None, compare=False)
+    #: The set's language, which a failed kit's reason is said in (a
+    #: shipped template's code), or None for English.
+    speak: str | None = None
 
 
 @dataclass(frozen=True)
@@ -78,17 +81,15 @@ class KitResult:
     overlay: bytes = b""
 
 
-_SPEAK = {"words": None}
-
-
-def warm(languages: tuple[str, ...] = ("en",), speak: str | None = None) -> None:
-    """The pool's initializer: fonts, templates and catalogue loaded once."""
+def warm(languages: tuple[str, ...] = ()) -> None:
+    """Fonts, the templates of ``languages`` and the catalogue loaded once
+    (a worker's initializer; a language not loaded yet is loaded when a
+    kit first needs it, and kept)."""
     pdf_text.register_fonts()
     for code in languages:
         if code in available_languages():
             load_words(code)
     stars.catalogue()
-    _SPEAK["words"] = load_words(speak) if speak in available_languages() else None
 
 
 def collect_rarely() -> tuple[int, ...]:
@@ -141,10 +142,15 @@ def build_one(job: KitJob) -> KitResult:
         return KitResult(job.number, layers.pdf, materials, margin, peak_rss_kib=_peak_rss_kib(),
                          shared=layers.shared, owner_pages=layers.indices, overlay=layers.overlay)
     except UserError as exc:
-        return KitResult(job.number, error=one_line(exc.text(_SPEAK["words"])), peak_rss_kib=_peak_rss_kib())
+        return KitResult(job.number, error=one_line(exc.text(_speak(job))), peak_rss_kib=_peak_rss_kib())
     except Exception as exc:  # an internal fault of this kit: the others go on
-        text = Message("errors.internal", kind=type(exc).__name__, detail=exc).text(_SPEAK["words"])
+        text = Message("errors.internal", kind=type(exc).__name__, detail=exc).text(_speak(job))
         return KitResult(job.number, error=one_line(text), internal=True, peak_rss_kib=_peak_rss_kib())
+
+
+def _speak(job: KitJob):
+    """The words a failed kit's reason is said in."""
+    return load_words(job.speak) if job.speak in available_languages() else None
 
 
 @lru_cache(maxsize=2)   # a kit and its geometry are megabytes: keep only the last two
