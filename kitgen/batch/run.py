@@ -200,10 +200,10 @@ def _build_all(jobs_list, pools: list):
 
 
 #: What drawing a school's shared parts costs a worker, in its pupils'
-#: kits' time: a school's first kit took 45 to 57 times a later pupil's
-#: (about 1 s against 20 ms of CPU, French, German and Spanish schools,
-#: once a pupil's name was laid over the shared PDF).
-SCHOOL_COST_KITS = 45
+#: kits' time: a school's first kit took about 60 times a later pupil's
+#: (0.37 to 0.5 s against 6 to 11 ms of CPU in Latin and Greek scripts,
+#: 0.8 to 1 s in Arabic and Hindi; eight schools of ten languages).
+SCHOOL_COST_KITS = 60
 
 
 def worker_shares(jobs_list, jobs: int) -> list[list]:
@@ -230,8 +230,8 @@ def worker_shares(jobs_list, jobs: int) -> list[list]:
 
 
 #: What drawing a school's plates costs, in its pupils' kits' time (part of
-#: :data:`SCHOOL_COST_KITS`).
-PLATE_COST_KITS = 18
+#: :data:`SCHOOL_COST_KITS`; measured as it, 0.15 to 0.3 s).
+PLATE_COST_KITS = 25
 
 
 def plate_moves(shares: list[list]) -> list[tuple[int, int, object]]:
