@@ -329,10 +329,15 @@ def _faces_for(text: str, stack: tuple[Face, ...]) -> list[Face]:
     face holds them, so a word is not split between fonts."""
     if _HELD_BY_FIRST.get(stack, frozenset()).issuperset(text):
         return [stack[0]] * len(text)   # each character the first face's: all stay with it
-    out: list[Face] = []
+    # A character's face hangs on it and the face before it alone, so the
+    # last line's faces hold for the start of a line that begins with it:
+    # a wrapped paragraph's trial line is the one before and a word (#12).
+    last_text, last_faces = _LAST_FACES.get(stack, ("", []))
+    start = len(last_text) if last_text and text.startswith(last_text) else 0
+    out: list[Face] = last_faces[:start]
     table = _FACE_OF.setdefault(stack, {})
     get = table.get
-    for ch in text:
+    for ch in text[start:]:
         found = get(ch)
         if found is None:
             cat = unicodedata.category(ch)
@@ -346,6 +351,7 @@ def _faces_for(text: str, stack: tuple[Face, ...]) -> list[Face]:
             out.append(out[-1])
         else:
             out.append(face)
+    _LAST_FACES[stack] = (text, out)
     return out
 
 
@@ -356,6 +362,8 @@ _FACE_OF: dict[tuple[Face, ...], dict[str, tuple[tuple[Face, ...], Face]]] = {}
 #: Per stack, the characters met that its first face holds: a line of
 #: these alone is all in that face, whatever stays with what (#12).
 _HELD_BY_FIRST: dict[tuple[Face, ...], frozenset[str]] = {}
+#: Per stack, the last line whose faces were found one by one, and its faces.
+_LAST_FACES: dict[tuple[Face, ...], tuple[str, list[Face]]] = {}
 
 
 @lru_cache(maxsize=16)
