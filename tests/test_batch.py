@@ -205,6 +205,22 @@ def test_print_files_hold_every_kits_pages_in_order(one_worker):
     assert at == {m: len(printed[m]) for m in at}
 
 
+def test_a_school_listed_apart_shares_its_pages_in_the_print_files(one_worker):
+    # Mira (a kits entry on the defaults) and Lena (the roster's third row,
+    # its cells empty) are of one school, with kits of five other schools
+    # between them: their first card pages hold the same shared content
+    # streams, each in the file once (the same indirect objects, pypdf)
+    _, out = one_worker
+    rows = {r["owner"]: r for r in _manifest(out)}
+    card = PdfReader(out / "print-card.pdf")
+    pages = [card.pages[int(rows[name]["card_print_pages"].split("-")[0]) - 1] for name in
+             ("Mira Quellstone", "Lena Okonkwo-Fry")]
+    numbers = [int(rows[name]["kit"]) for name in ("Mira Quellstone", "Lena Okonkwo-Fry")]
+    assert numbers[1] - numbers[0] > 5
+    inner = [[o.idnum for o in p["/Contents"]][1:-1] for p in pages]   # within the stamp's q ... Q wrap
+    assert inner[0] and inner[0] == inner[1]
+
+
 def test_one_and_two_workers_give_the_same_bytes(class_set, one_worker, two_workers):
     _, one = one_worker
     done, two = two_workers

@@ -90,7 +90,7 @@ class PrintFiles:
 
 class _File:
     """One print file being written: its objects, its pages' numbers and
-    the copiers of the last two schools' shared PDFs and stamps."""
+    the copiers of the schools' shared PDFs and stamps."""
 
     def __init__(self):
         self.out = pdf_objects.Out(pdf_objects.HEADER, 1)
@@ -101,11 +101,10 @@ class _File:
 
     def shared(self, pdf: bytes) -> Copier:
         """The copier of a PDF a school's kits share (its shared pages, its
-        stamps), kept for the last two schools'."""
+        stamps), kept for the whole set: a roster may list its schools'
+        pupils mixed, and each object goes into the file once all the same."""
         copier = self._shared.get(pdf)
         if copier is None:
-            if len(self._shared) >= 4:
-                del self._shared[next(iter(self._shared))]
             copier = self._shared[pdf] = Copier(Written(pdf), self.out)
         return copier
 

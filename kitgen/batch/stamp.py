@@ -71,9 +71,7 @@ class SchoolStamps:
         """(the PDF of kit ``number``'s school's stamps, its page in it)."""
         key = self._school[number]
         kits = self._kits[key]
-        if key not in self._pdfs:
-            if len(self._pdfs) >= 4:
-                del self._pdfs[next(iter(self._pdfs))]
+        if key not in self._pdfs:   # kept for the set: a roster may list its schools' pupils mixed
             self._pdfs[key] = stamps_pdf(plan_words(kits[0].recipe), [(k.number, stamp_name(k)) for k in kits])
         return self._pdfs[key], [k.number for k in kits].index(number)
 
