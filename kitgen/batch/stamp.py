@@ -37,7 +37,7 @@ def stamps_pdf(words, stamps) -> bytes:
     """A PDF holding the stamps ``stamps`` ((kit number, name) each) in
     ``words``' language, a page each in order: each page as wide as its
     stamp, the baseline at ``_PAD_PT`` above its foot, the left end at 0."""
-    pdf_text.register_fonts()
+    pdf_text.register_fonts([fonts.DEJAVU["body"]])   # a script's own font is registered when a line needs it
     buf = io.BytesIO()
     c = new_canvas(buf, (1.0, STAMP_PT + 2 * _PAD_PT), lang=words.language,
                    initialFontName=fonts.DEJAVU["body"].name, initialFontSize=STAMP_PT)
