@@ -21,7 +21,6 @@ from dataclasses import dataclass, replace
 from pathlib import Path
 
 from ..errors import EXIT_INTERNAL, EXIT_OK, EXIT_USER, Message, one_line
-from ..render import pdf_text
 from ..words.templates import available_languages, load_words
 from .folder import KITS, MANIFEST, check_output_folder, fresh_folder, write_file
 from .manifest import manifest_csv, manifest_row
@@ -153,7 +152,6 @@ def _start_workers(stack: ExitStack, jobs: int) -> list:
     process), each a pool of one, started at once; closed with ``stack``."""
     if jobs < 2:
         return []
-    pdf_text.register_fonts()   # before the fork: each worker starts with them, and so does the stamp
     pools = [stack.enter_context(ProcessPoolExecutor(max_workers=1, mp_context=_context(),
                                                      initializer=_worker_start)) for _ in range(jobs)]
     for pool in pools:
