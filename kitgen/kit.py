@@ -214,12 +214,18 @@ def _draw(plan: Plan, dims: Dimensions, scales: dict, kind: str, plate=None) -> 
     return replace(on_material(PART_BUILDERS[kind](ctx), plan), id=plate.id)
 
 
+def school_of(recipe: Recipe) -> Recipe:
+    """The recipe but for its owner: what a class set's kits of one
+    school share, and build once (#12)."""
+    return replace(recipe, owner="")
+
+
 def draw_plates(recipe: Recipe) -> dict[str, Part]:
     """The plates of the recipe's kit drawn without an owner's name, by
     id, as :func:`build_kit` draws them: a class set's worker draws them
     for a school that another worker builds (#12), which passes them to
     :func:`build_kit` as ``drawn``."""
-    plan = _plan(replace(recipe, owner=""))
+    plan = _plan(school_of(recipe))
     if "plate" not in plan.parts:
         return {}
     dims, scales = _sizes(plan)
@@ -230,7 +236,7 @@ def build_kit(recipe: Recipe, drawn: dict | None = None) -> Kit:
     """Every part of the kit the recipe describes, as geometry in mm;
     ``drawn``, the parts of it another worker has drawn already
     (:func:`draw_plates`)."""
-    plan = _plan(replace(recipe, owner=""))
+    plan = _plan(school_of(recipe))
     if drawn:
         _nameless(plan, drawn)
     return build_from_plan(replace(plan, owner=recipe.owner))

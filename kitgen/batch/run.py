@@ -21,6 +21,7 @@ from dataclasses import dataclass, replace
 from pathlib import Path
 
 from ..errors import EXIT_INTERNAL, EXIT_OK, EXIT_USER, Message, one_line
+from ..kit import school_of
 from ..words.templates import available_languages, load_words
 from .folder import KITS, MANIFEST, check_output_folder, fresh_folder, write_file
 from .manifest import manifest_csv, manifest_row
@@ -29,7 +30,7 @@ from .printfiles import PrintedKit, PrintFiles
 from .progress import progress
 from .setfile import load_set
 from .stamp import SchoolStamps
-from .work import KitJob, PartsJob, build_one, collect_rarely, draw_for, rare_collections, warm
+from .work import KitJob, build_one, collect_rarely, draw_for, rare_collections, warm
 
 PRINT_NAMES = {"card": "print-card.pdf", "film": "print-film.pdf"}
 #: Most worker processes one run may ask for.
@@ -176,7 +177,7 @@ def _build_all(jobs_list, pools: list):
     drawing, waiting = {}, {}
     for source, target, school in moves:
         jobs_of = [job for job in shares[source] if _school(job) == school]
-        drawing[pools[target].submit(draw_for, PartsJob(jobs_of[0].recipe))] = (source, school)
+        drawing[pools[target].submit(draw_for, jobs_of[0].recipe)] = (source, school)
         waiting[(source, school)] = jobs_of
     pending = set(drawing)
     for k, share in enumerate(shares):
@@ -189,7 +190,7 @@ def _build_all(jobs_list, pools: list):
                     yield future.result()
                     continue
                 source, school = drawing.pop(future)
-                parts = future.result().parts
+                parts = future.result()
                 jobs_of = waiting.pop((source, school))
                 pending |= {pools[source].submit(build_one, replace(job, drawn=parts) if k == 0 and parts
                                                  else job) for k, job in enumerate(jobs_of)}
@@ -249,18 +250,16 @@ def plate_moves(shares: list[list]) -> list[tuple[int, int, object]]:
     moved: list[tuple[int, int, object]] = []
     while True:
         busy, idle = loads.index(max(loads)), loads.index(min(loads))
-        left = [s for s in schools[busy][1:] if all((busy, s) != (m[0], m[2]) for m in moved)]
-        if not left or loads[idle] + PLATE_COST_KITS >= loads[busy]:
+        if len(schools[busy]) < 2 or loads[idle] + PLATE_COST_KITS >= loads[busy]:
             return moved
-        moved.append((busy, idle, left[-1]))
+        moved.append((busy, idle, schools[busy].pop()))   # its first school stays at index 0
         loads[busy] -= PLATE_COST_KITS
         loads[idle] += PLATE_COST_KITS
 
 
 def _school(job):
-    """What a kit shares with its school's other kits: its recipe but
-    for the owner."""
-    return replace(job.recipe, owner="")
+    """The school of a job's kit (kitgen.kit.school_of)."""
+    return school_of(job.recipe)
 
 
 def _school_order(share: list) -> list:

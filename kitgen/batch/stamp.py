@@ -15,10 +15,10 @@ itself is left as it is.
 from __future__ import annotations
 
 import io
-from dataclasses import replace
 
 from reportlab.lib.units import mm
 
+from ..kit import school_of
 from ..plan.resolve import plan_words
 from ..render import pdf_text
 from ..render.pdf_canvas import new_canvas
@@ -59,21 +59,21 @@ class SchoolStamps:
     print files are the same whichever worker built which kit."""
 
     def __init__(self, kits):
-        self._school = {}
+        self._place: dict[int, tuple] = {}   # kit number -> (its school, its page)
         self._kits: dict = {}
         for kit in kits:
-            key = replace(kit.recipe, owner="")
-            self._school[kit.number] = key
-            self._kits.setdefault(key, []).append(kit)
+            school = self._kits.setdefault(school_of(kit.recipe), [])
+            self._place[kit.number] = (school_of(kit.recipe), len(school))
+            school.append(kit)
         self._pdfs: dict = {}
 
     def of(self, number: int) -> tuple[bytes, int]:
         """(the PDF of kit ``number``'s school's stamps, its page in it)."""
-        key = self._school[number]
-        kits = self._kits[key]
+        key, page = self._place[number]
         if key not in self._pdfs:   # kept for the set: a roster may list its schools' pupils mixed
+            kits = self._kits[key]
             self._pdfs[key] = stamps_pdf(plan_words(kits[0].recipe), [(k.number, stamp_name(k)) for k in kits])
-        return self._pdfs[key], [k.number for k in kits].index(number)
+        return self._pdfs[key], page
 
 
 def stamp_name(kit) -> str:

@@ -17,11 +17,11 @@ from __future__ import annotations
 import gc
 import sys
 from contextlib import contextmanager
-from dataclasses import dataclass, field, replace
+from dataclasses import dataclass, field
 from functools import lru_cache
 
 from ..errors import Message, UserError, one_line, speaking
-from ..kit import build_kit, draw_plates
+from ..kit import build_kit, draw_plates, school_of
 from ..render import pdf_text
 from ..layout.pages import layout_kit
 from ..render.pdf import render_layers
@@ -44,20 +44,6 @@ class KitJob:
     #: The set's language, which a failed kit's reason is said in (a
     #: shipped template's code), or None for English.
     speak: str | None = None
-
-
-@dataclass(frozen=True)
-class PartsJob:
-    """The plates of a school's kit for one worker to draw for another:
-    the school of ``recipe`` (one of its kits' recipes)."""
-
-    recipe: object
-
-
-@dataclass(frozen=True)
-class PartsResult:
-    job: PartsJob
-    parts: dict | None      # by id; None when drawing them failed (the school's own worker says why)
 
 
 @dataclass(frozen=True)
@@ -122,14 +108,14 @@ def rare_collections():
 GC_THRESHOLDS = (50_000, 50, 100)
 
 
-def draw_for(job: PartsJob) -> PartsResult:
-    """Draw ``job``'s plates for another worker (kitgen.kit.draw_plates); a
-    failure draws nothing, and the school's worker meets it itself."""
+def draw_for(recipe) -> dict | None:
+    """The plates of ``recipe``'s school drawn for another worker, by id
+    (kitgen.kit.draw_plates); None when drawing them fails, which the
+    school's own worker then meets and reports itself."""
     try:
-        with speaking(job.recipe.language, job.recipe.language_file or None):
-            return PartsResult(job, draw_plates(job.recipe))
+        return draw_plates(recipe)
     except Exception:
-        return PartsResult(job, None)
+        return None
 
 
 def build_one(job: KitJob) -> KitResult:
@@ -137,7 +123,7 @@ def build_one(job: KitJob) -> KitResult:
     try:
         with speaking(job.recipe.language, job.recipe.language_file or None):
             if job.drawn:   # the school's kit without a name, with the parts drawn elsewhere, kept
-                build_kit(replace(job.recipe, owner=""), job.drawn)
+                build_kit(school_of(job.recipe), job.drawn)
             _, layers, materials, margin = _kit_pdf(job.recipe)
         return KitResult(job.number, layers.pdf, materials, margin, peak_rss_kib=_peak_rss_kib(),
                          shared=layers.shared, owner_pages=layers.indices, overlay=layers.overlay)
