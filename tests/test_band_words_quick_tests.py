@@ -19,7 +19,7 @@ import numpy as np
 from shapely import affinity
 from shapely.geometry import Point, Polygon, box as shapely_box
 
-from kitgen.parts import band_words
+from kitgen.parts import band_words, labels
 
 CLEARANCE_MM = band_words.DOT_CLEARANCE_MM
 
@@ -70,7 +70,7 @@ def test_every_box_within_reach_is_among_the_rows_found():
     bounds = np.array(rows)
     for _ in range(100):
         corners = _turned_box(rng)
-        reach = rng.choice([0.0, band_words.SLACK_MM, CLEARANCE_MM, 1.0, 2.0])
+        reach = rng.choice([0.0, labels.SEARCH_SLACK_MM, CLEARANCE_MM, 1.0, 2.0])
         found = set(band_words.near_rows(bounds, band_words.bounds_of(corners), reach))
         word = Polygon(corners)
         for k, row in enumerate(rows):

@@ -31,6 +31,7 @@ import numpy as np
 
 from ..words.measure import text_corners_mm
 from . import labels
+from .box_grid import segment_box
 
 #: Clearance (mm) kept between a word of the band and a star's dot: the
 #: labels' margin (kitgen.parts.labels.MARGIN_MM), the least gap that reads
@@ -43,12 +44,6 @@ NUMBER_SLIDE_DEG = 2.0
 
 #: The step (degrees about the ecliptic's centre) of the search for a place.
 STEP_DEG = 0.1
-
-#: Slack (mm) added to the reach of the bounds' quick test, far above the
-#: rounding error of the exact tests and far below anything printed, so
-#: that the quick test turns down nothing the exact one would find.
-SLACK_MM = 1e-6
-
 
 def _frame(corners):
     (x0, y0), (x1, y1), _, (x3, y3) = corners
@@ -211,13 +206,12 @@ def clear_of_dots(elements, dots, center, words, slide_range, short_forms=None):
         groups.setdefault((els[k].role, els[k].values.get("longitude_deg")), []).append(k)
     boxes = {k: corners_of(els[k], words) for k in band}
     dot_bounds = np.array([(c[0] - r, c[1] - r, c[0] + r, c[1] + r) for c, r in dots], dtype=float).reshape(-1, 4)
-    tick_bounds = np.array([(min(p[0], q[0]), min(p[1], q[1]), max(p[0], q[0]), max(p[1], q[1]))
-                            for p, q in ticks], dtype=float).reshape(-1, 4)
+    tick_bounds = np.array([segment_box(p, q) for p, q in ticks], dtype=float).reshape(-1, 4)
 
     def near_dot(box_list, clearance):
         """Whether a box comes within ``clearance`` of a dot."""
         return any(disc_gap_mm(b, *dots[j]) < clearance for b in box_list
-                   for j in near_rows(dot_bounds, bounds_of(b), clearance + SLACK_MM))
+                   for j in near_rows(dot_bounds, bounds_of(b), clearance + labels.SEARCH_SLACK_MM))
 
     def blocked(box_list, clearance, others, other_bounds):
         """Whether a box comes within ``clearance`` of a dot, meets a box
@@ -226,9 +220,9 @@ def clear_of_dots(elements, dots, center, words, slide_range, short_forms=None):
             return True
         spans = [bounds_of(b) for b in box_list]
         return any(boxes_meet(b, others[j]) for b, span in zip(box_list, spans)
-                   for j in near_rows(other_bounds, span, SLACK_MM)) or \
+                   for j in near_rows(other_bounds, span, labels.SEARCH_SLACK_MM)) or \
             any(segment_meets(b, *ticks[j]) for b, span in zip(box_list, spans)
-                for j in near_rows(tick_bounds, span, SLACK_MM))
+                for j in near_rows(tick_bounds, span, labels.SEARCH_SLACK_MM))
 
     dropped = set()
     for key, members in groups.items():

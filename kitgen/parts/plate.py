@@ -216,13 +216,13 @@ def _multiple(value: float, of: float) -> bool:
     return abs(value / of - round(value / of)) < 1e-9
 
 
-def _latitude_label(ctx, disc, strokes, index=None):
+def _latitude_label(ctx, disc, strokes, index):
     """The latitude (after the place's name), along the lower meridian,
     moved up or down it (and to the meridian's other side) until it keeps
     plate_labels.CLEAR_MM from every line but the meridian (#9: a caption
     set in a gap of a tropic reads as that line's name); on a small plate
     where no such place is found, across the thin lines only.  The lines
-    are entered in ``index`` (a new one where None), which the plate's
+    are entered in ``index``, which the plate's
     other labels then share (#12)."""
     d, w = ctx.dims, ctx.words
     # The latitude, from beside the meridian to the edge of the drawing;

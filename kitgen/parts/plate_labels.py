@@ -509,7 +509,7 @@ class PlateLabeller:
     """Sets the plate's labels one after another into a :class:`Room`;
     ``missing`` collects the texts of those it found no place for."""
 
-    def __init__(self, ctx, elements, disc_mm: float, keep_out=(), strokes: StrokeIndex | None = None):
+    def __init__(self, ctx, elements, disc_mm: float, keep_out, strokes: StrokeIndex):
         self.ctx, self.w, self.d = ctx, ctx.words, ctx.dims
         self.els = list(elements)
         d = self.d
