@@ -29,7 +29,7 @@ import yaml
 from pypdf import PdfReader
 
 from kitgen.batch.naming import kit_file_names, kit_stem
-from kitgen.batch.run import plate_moves, worker_shares
+from kitgen.batch.shares import plate_moves, worker_shares
 from kitgen.batch.setfile import load_set
 from kitgen.batch.work import KitJob
 from kitgen.batch.setfile import SetKit
@@ -224,7 +224,7 @@ def test_a_school_listed_apart_shares_its_pages_in_the_print_files(one_worker):
 def test_one_and_two_workers_give_the_same_bytes(class_set, one_worker, two_workers):
     _, one = one_worker
     done, two = two_workers
-    # the set has two workers draw a plate for each other (kitgen.batch.run.plate_moves)
+    # the set has two workers draw a plate for each other (kitgen.batch.shares.plate_moves)
     jobs = [KitJob(k.number, k.recipe) for k in load_set(class_set / "set.yaml").kits if k.error is None]
     assert plate_moves(worker_shares(jobs, 2))
     names = sorted(p.relative_to(one) for p in one.rglob("*") if p.is_file())

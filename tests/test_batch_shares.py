@@ -10,7 +10,7 @@ from __future__ import annotations
 import pickle
 
 from kitgen import kit as kit_module
-from kitgen.batch.run import PLATE_COST_KITS, SCHOOL_COST_KITS, plate_moves, worker_shares
+from kitgen.batch.shares import PLATE_COST_KITS, SCHOOL_COST_KITS, plate_moves, worker_shares
 from kitgen.batch.work import KitJob
 from kitgen.recipe.load import validate_recipe
 from kitgen.render.json_export import render_json

@@ -1,0 +1,134 @@
+"""How a class set's work reaches its workers as they come free (#12):
+every kit is sent exactly once, a worker is sent its next school only
+when it has finished the last, a worker that runs out of its own takes a
+school still waiting from the end of the busiest worker's queue (work
+stealing: R. D. Blumofe and C. E. Leiserson, "Scheduling multithreaded
+computations by work stealing", J. ACM 46, 1999), and a school whose
+plates another worker draws waits for them and gets them.  The workers
+are stand-ins whose tasks the test finishes one at a time, in the order
+it chooses; the real processes are in test_batch.py."""
+
+from __future__ import annotations
+
+from concurrent.futures import Future
+
+from kitgen.batch.dispatch import dispatch
+from kitgen.batch.shares import plate_moves, worker_shares
+from kitgen.batch.work import KitResult, build_one, draw_for
+from kitgen.recipe.load import validate_recipe
+from kitgen.batch.work import KitJob
+
+
+def _jobs(schools):
+    """Jobs numbered in order: ``schools`` is a list of (latitude, pupils)."""
+    jobs, n = [], 0
+    for lat, pupils in schools:
+        for _ in range(pupils):
+            n += 1
+            jobs.append(KitJob(n, validate_recipe({"latitude": lat, "owner": f"Pupil {n}"})))
+    return jobs
+
+
+class _Worker:
+    """A pool of one that runs nothing: it keeps what it is sent, in order."""
+
+    def __init__(self):
+        self.sent: list[tuple[object, object, Future]] = []
+
+    def submit(self, fn, arg):
+        future = Future()
+        future.set_running_or_notify_cancel()
+        self.sent.append((fn, arg, future))
+        return future
+
+    def unfinished(self):
+        return [(fn, arg, f) for fn, arg, f in self.sent if not f.done()]
+
+    def finish_all(self, plates=None):
+        """Finish what this worker was sent so far; a kit's result is its
+        number, plates are ``plates``."""
+        for fn, arg, future in self.unfinished():
+            future.set_result(KitResult(arg.number) if fn is build_one else plates)
+
+
+def _numbers(worker):
+    return [arg.number for fn, arg, _ in worker.sent if fn is build_one]
+
+
+def _latitudes(worker):
+    return list(dict.fromkeys(arg.recipe.latitude_deg for fn, arg, _ in worker.sent if fn is build_one))
+
+
+def test_an_idle_worker_takes_the_busiest_ones_waiting_school():
+    # four schools of ten on two workers: two schools each
+    # (kitgen.batch.shares); worker 1 finishes both while worker 0 is
+    # still on its first, so worker 1 builds worker 0's second school
+    jobs = _jobs([(51.5, 10), (45.8, 10), (-23.5, 10), (38.0, 10)])
+    shares = worker_shares(jobs, 2)
+    assert plate_moves(shares) == []
+    planned = [[j.recipe.latitude_deg for j in share] for share in shares]
+    first0, second0 = list(dict.fromkeys(planned[0]))
+    workers = [_Worker(), _Worker()]
+    results = dispatch(jobs, workers)
+    # each worker is sent its first school's ten kits, and nothing more yet
+    workers[1].finish_all()
+    got = [next(results).number for _ in range(10)]
+    assert sorted(got) == sorted(_numbers(workers[1])[:10])
+    assert len(workers[0].sent) == 10 and _latitudes(workers[0]) == [first0]
+    workers[1].finish_all()
+    got += [next(results).number for _ in range(10)]
+    # worker 1's own second school done: it takes worker 0's waiting one
+    assert _latitudes(workers[1])[-1] == second0
+    workers[1].finish_all()
+    workers[0].finish_all()
+    got += [r.number for r in results]
+    assert sorted(got) == [j.number for j in jobs]
+    sent = _numbers(workers[0]) + _numbers(workers[1])
+    assert sorted(sent) == [j.number for j in jobs]   # each kit sent once
+    assert _latitudes(workers[0]) == [first0]
+
+
+def test_a_school_waits_for_its_plates_drawn_elsewhere_and_gets_them():
+    # five schools of eight on two workers: worker 0 has three, and the
+    # third one's plates are drawn by worker 1 first (plate_moves)
+    jobs = _jobs([(51.5, 8), (45.8, 8), (-23.5, 8), (38.0, 8), (12.0, 8)])
+    shares = worker_shares(jobs, 2)
+    moves = plate_moves(shares)
+    assert len(moves) == 1
+    source, target, school = moves[0]
+    workers = [_Worker(), _Worker()]
+    results = dispatch(jobs, workers)
+    # the drawing worker is sent the plates alone first
+    assert [(fn, arg) for fn, arg, _ in workers[target].sent] == [(draw_for, school)]
+    plates = {"plate-1": "drawn elsewhere"}
+    workers[target].finish_all(plates)
+    # the source finishes its schools before the moved one: it is then sent
+    # the moved school's kits, the first with the plates
+    received = []
+    while len(received) < len(jobs):
+        for worker in workers:
+            worker.finish_all()
+        received.append(next(results).number)
+    moved = [arg for worker in workers for fn, arg, _ in worker.sent
+             if fn is build_one and arg.recipe.latitude_deg == school.latitude_deg]
+    assert [job.drawn for job in moved] == [plates] + [None] * 7
+    assert sorted(received) == [j.number for j in jobs]
+    assert sorted(_numbers(workers[0]) + _numbers(workers[1])) == [j.number for j in jobs]
+
+
+def test_one_kit_a_school_is_shared_kit_by_kit():
+    # forty kits each its own latitude: each worker is sent one kit at a
+    # time, and the worker that finishes faster builds more of them
+    jobs = _jobs([(-60 + 3 * k, 1) for k in range(40)])
+    workers = [_Worker(), _Worker()]
+    results = dispatch(jobs, workers)
+    done = []
+    for step in range(40):
+        assert all(len(w.unfinished()) <= 1 for w in workers)
+        fast = workers[1] if workers[1].unfinished() else workers[0]
+        if step % 4 == 3 and workers[0].unfinished():
+            fast = workers[0]
+        fast.finish_all()
+        done.append(next(results).number)
+    assert sorted(done) == list(range(1, 41))
+    assert len(_numbers(workers[1])) > len(_numbers(workers[0]))
