@@ -95,7 +95,10 @@ def _run(kit_set, out_dir: Path, pools: list, quiet: bool, stream, started: floa
     words = load_words(speak) if speak else None
     names = kit_file_names(kit_set.kits)
     errors = {k.number: one_line(k.error.text(words)) for k in kit_set.kits if k.error is not None}
-    jobs_list = [KitJob(k.number, k.recipe, speak=speak) for k in kit_set.kits if k.error is None]
+    stamps = SchoolStamps(k for k in kit_set.kits if k.error is None)
+    stamp_lists = stamps.lists()   # drawn with each school's first kit, where its words are loaded
+    jobs_list = [KitJob(k.number, k.recipe, speak=speak, stamps=stamp_lists.get(k.number, ()))
+                 for k in kit_set.kits if k.error is None]
     jobs = max(1, min(len(pools) or 1, len(jobs_list) or 1))
     bar = progress(len(kit_set.kits), quiet, stream)
     results, internal, peak = {}, False, 0
@@ -105,16 +108,16 @@ def _run(kit_set, out_dir: Path, pools: list, quiet: bool, stream, started: floa
             for _ in errors:
                 bar.advance()
             printing, waiting, next_number = PrintFiles(), {}, 1
-            stamps = SchoolStamps(k for k in kit_set.kits if k.error is None)
             for result in _build_all(jobs_list, pools[:jobs] if jobs > 1 else []):
                 kit = by_number[result.number]
                 peak = max(peak, result.peak_rss_kib)
+                stamps.give(result.number, result.stamps)
                 if result.error:
                     errors[result.number] = result.error
                     internal = internal or result.internal
                 else:
                     write_file(tmp / KITS / names[kit.number - 1], result.pdf)
-                    results[result.number] = replace(result, pdf=b"", shared=b"", overlay=b"")   # the manifest's part
+                    results[result.number] = replace(result, pdf=b"", shared=b"", overlay=b"", stamps=b"")   # the manifest's part
                 waiting[result.number] = result
                 next_number = _print_ready(printing, stamps, waiting, next_number, by_number)
                 bar.advance()

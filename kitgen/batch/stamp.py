@@ -55,7 +55,11 @@ def stamps_pdf(words, stamps) -> bytes:
 class SchoolStamps:
     """The stamps of a set's kits (:class:`~kitgen.batch.setfile.SetKit`,
     those without errors), one PDF a school (:func:`stamps_pdf`, its kits
-    in kit order), each made when a kit of it is first asked for: so the
+    in kit order).  The worker that builds a school's first kit draws
+    them too, where its language's words are loaded already
+    (:meth:`lists`, :meth:`give`); a school whose first kit brought none
+    back (its kit failed) has them drawn here when a kit of it is first
+    asked for.  They are the same bytes wherever they are drawn, so the
     print files are the same whichever worker built which kit."""
 
     def __init__(self, kits):
@@ -66,6 +70,16 @@ class SchoolStamps:
             self._place[kit.number] = (school_of(kit.recipe), len(school))
             school.append(kit)
         self._pdfs: dict = {}
+
+    def lists(self) -> dict[int, tuple[tuple[int, str], ...]]:
+        """{a school's first kit's number: its stamps (kit number, name) in
+        order}: what :func:`stamps_pdf` draws for the school."""
+        return {kits[0].number: tuple((k.number, stamp_name(k)) for k in kits) for kits in self._kits.values()}
+
+    def give(self, number: int, pdf: bytes) -> None:
+        """The stamps of kit ``number``'s school, drawn elsewhere."""
+        if pdf:
+            self._pdfs.setdefault(self._place[number][0], pdf)
 
     def of(self, number: int) -> tuple[bytes, int]:
         """(the PDF of kit ``number``'s school's stamps, its page in it)."""

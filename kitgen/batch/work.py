@@ -22,11 +22,13 @@ from functools import lru_cache
 
 from ..errors import Message, UserError, one_line, speaking
 from ..kit import build_kit, draw_plates, school_of
+from ..plan.resolve import plan_words
 from ..render import pdf_text
 from ..layout.pages import layout_kit
 from ..render.pdf import render_layers
 from ..sky import stars
 from ..words.templates import available_languages, load_words
+from .stamp import stamps_pdf
 
 try:
     import resource
@@ -44,6 +46,9 @@ class KitJob:
     #: The set's language, which a failed kit's reason is said in (a
     #: shipped template's code), or None for English.
     speak: str | None = None
+    #: With a school's first kit: every kit of the school's stamp, (kit
+    #: number, name) in order, drawn by the worker (kitgen.batch.stamp).
+    stamps: tuple = ()
 
 
 @dataclass(frozen=True)
@@ -65,6 +70,8 @@ class KitResult:
     shared: bytes = b""
     owner_pages: tuple[int, ...] = ()
     overlay: bytes = b""
+    #: The school's stamps (kitgen.batch.stamp.stamps_pdf), with its first kit.
+    stamps: bytes = b""
 
 
 def warm(languages: tuple[str, ...] = ()) -> None:
@@ -119,19 +126,36 @@ def draw_for(recipe) -> dict | None:
 
 
 def build_one(job: KitJob) -> KitResult:
-    """Build the kit of ``job``; a failure is its one-line reason."""
+    """Build the kit of ``job``, and its school's stamps if it asks for
+    them; a failure is its one-line reason."""
+    stamps = _stamps(job)
     try:
         with speaking(job.recipe.language, job.recipe.language_file or None):
             if job.drawn:   # the school's kit without a name, with the parts drawn elsewhere, kept
                 build_kit(school_of(job.recipe), job.drawn)
             _, layers, materials, margin = _kit_pdf(job.recipe)
         return KitResult(job.number, layers.pdf, materials, margin, peak_rss_kib=_peak_rss_kib(),
-                         shared=layers.shared, owner_pages=layers.indices, overlay=layers.overlay)
+                         shared=layers.shared, owner_pages=layers.indices, overlay=layers.overlay, stamps=stamps)
     except UserError as exc:
-        return KitResult(job.number, error=one_line(exc.text(_speak(job))), peak_rss_kib=_peak_rss_kib())
+        return KitResult(job.number, error=one_line(exc.text(_speak(job))), peak_rss_kib=_peak_rss_kib(),
+                         stamps=stamps)
     except Exception as exc:  # an internal fault of this kit: the others go on
         text = Message("errors.internal", kind=type(exc).__name__, detail=exc).text(_speak(job))
-        return KitResult(job.number, error=one_line(text), internal=True, peak_rss_kib=_peak_rss_kib())
+        return KitResult(job.number, error=one_line(text), internal=True, peak_rss_kib=_peak_rss_kib(),
+                         stamps=stamps)
+
+
+def _stamps(job: KitJob) -> bytes:
+    """The stamps of the job's school, if it asks for them (its first
+    kit), in the school's words, which its kit loads too; none where
+    they cannot be drawn here (the main process then draws them, and
+    meets the fault itself)."""
+    if not job.stamps:
+        return b""
+    try:
+        return stamps_pdf(plan_words(job.recipe), job.stamps)
+    except Exception:
+        return b""
 
 
 def _speak(job: KitJob):
