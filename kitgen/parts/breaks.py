@@ -453,6 +453,14 @@ POLY_CELL_MM = 4.0
 #: A query spanning more cells than this reads every segment's bounds instead.
 POLY_MAX_CELLS = 64
 _POLY_GRIDS: dict = {}
+#: How many polylines' grids (:func:`_polyline_near`), and how many point
+#: tuples' bounds (:func:`_segment_bounds`, :func:`_line_bounds`), are kept
+#: before the store is emptied: a kit enters about 10 polylines and 35
+#: tuples of points, so these hold the last few kits.  Kept by the
+#: thousand, they held every kit's polylines of a class set alive, a
+#: worker growing by 2 MB a kit of its own latitude (#12).
+POLYLINES_KEPT = 64
+POINTS_KEPT = 256
 
 
 def _polyline_near(g, box: Box):
@@ -470,7 +478,7 @@ def _polyline_near(g, box: Box):
         lo, hi = _segment_bounds(pts)
         cells = _segment_cells(lo, hi)
         bounds = (lo[:, 0].tolist(), hi[:, 0].tolist(), lo[:, 1].tolist(), hi[:, 1].tolist())
-        if len(_POLY_GRIDS) > 1024:
+        if len(_POLY_GRIDS) > POLYLINES_KEPT:
             _POLY_GRIDS.clear()
         # the points kept: their id stays theirs
         kept = _POLY_GRIDS[id(points)] = (points, closed, pts, cells, bounds, {})
@@ -530,7 +538,7 @@ def _segment_bounds(points):
         return hit[1]
     p = np.asarray(points, dtype=float)
     out = (np.minimum(p[:-1], p[1:]), np.maximum(p[:-1], p[1:]))
-    if len(_BOUNDS) > 4096:
+    if len(_BOUNDS) > POINTS_KEPT:
         _BOUNDS.clear()
     _BOUNDS[id(points)] = (points, out)
     return out
@@ -641,7 +649,7 @@ def _line_bounds(points):
         return hit[1]
     lo, hi = _segment_bounds(points)
     out = (float(lo[:, 0].min()), float(hi[:, 0].max()), float(lo[:, 1].min()), float(hi[:, 1].max()))
-    if len(_LINE_BOUNDS) > 4096:
+    if len(_LINE_BOUNDS) > POINTS_KEPT:
         _LINE_BOUNDS.clear()
     _LINE_BOUNDS[id(points)] = (points, out)
     return out
