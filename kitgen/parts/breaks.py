@@ -21,6 +21,7 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from ..geometry import model
+from ..geometry.arrays import unique_ints
 
 #: Pieces a break leaves shorter than this (mm) are dropped: a stub
 #: between a label and the rim, a line's end or another label reads as a
@@ -674,7 +675,7 @@ def _break_polyline(el, boxes) -> list:
     # the boxes near each segment, as lists, only for the segments with any (#12)
     near_boxes = dict.fromkeys(range(len(pts) - 1), ())
     i, j = np.nonzero(near)
-    for k in np.unique(i).tolist():
+    for k in unique_ints(i).tolist():
         near_boxes[k] = j[i == k].tolist()
     runs, run = [], []
     for i, (p, q) in enumerate(zip(pts, pts[1:])):

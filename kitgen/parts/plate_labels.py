@@ -35,6 +35,7 @@ import math
 import numpy as np
 
 from ..geometry import model
+from ..geometry.arrays import ints_not_in, unique_ints
 from ..geometry.style import dot_radius_mm, pin_cross_half_mm, stroke_width_mm, zenith_mark_half_mm
 from ..projection.stereographic import equatorial_vector, horizontal_vector, project_vectors
 from .breaks import (MEETS, UNSURE, Box, arcs_meet_boxes, boxes_overlap, meets_near, reach_of,
@@ -263,11 +264,11 @@ class Room:
                 got = segments_meet_boxes((bx[i], by[i], c[i], sn[i], hw[i], hh[i]), np.repeat(g_run[j], count),
                                           segs["px"][k], segs["py"][k], segs["qx"][k], segs["qy"][k])
                 key = i * len(strokes) + own
-                hit = np.unique(key[got == MEETS])   # a polyline counted once
+                hit = unique_ints(key[got == MEETS])   # a polyline counted once
                 met += np.bincount(hit // len(strokes), minlength=n)
                 doubt = key[got == UNSURE]
                 if len(doubt):
-                    unsure.append(np.setdiff1d(doubt, hit))
+                    unsure.append(ints_not_in(doubt, hit))
         out = {}
         if unsure:
             half = self._half_width

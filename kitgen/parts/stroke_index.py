@@ -21,6 +21,8 @@ import math
 
 import numpy as np
 
+from ..geometry.arrays import unique_ints
+
 #: Side of a grid cell (mm): about a label's height at A4, so that a
 #: query reads a few cells.
 CELL_MM = 4.0
@@ -165,7 +167,7 @@ def _cells(el) -> list[tuple[int, int]]:
     x, y = _samples(el)
     i, j = np.floor(x / CELL_MM).astype(int), np.floor(y / CELL_MM).astype(int)
     i0, j0, rows = i.min(), j.min(), j.max() - j.min() + 1
-    key = np.unique((i - i0) * rows + (j - j0))   # one number a cell
+    key = unique_ints((i - i0) * rows + (j - j0))   # one number a cell
     return list(zip((key // rows + i0).tolist(), (key % rows + j0).tolist()))
 
 
