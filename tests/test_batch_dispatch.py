@@ -12,11 +12,26 @@ from __future__ import annotations
 
 from concurrent.futures import Future
 
+import pytest
+
+from kitgen.batch import dispatch as dispatch_module
 from kitgen.batch.dispatch import dispatch
 from kitgen.batch.shares import plate_moves, worker_shares
-from kitgen.batch.work import KitResult, build_one, draw_for
+from kitgen.batch.work import KitJob, KitResult, build_one, draw_for
 from kitgen.recipe.load import validate_recipe
-from kitgen.batch.work import KitJob
+
+
+@pytest.fixture(autouse=True)
+def no_waiting(monkeypatch):
+    """The dispatcher's wait for finished work, which here never blocks: a
+    dispatcher that waits while nothing it sent is finished is a fault
+    (with stand-in workers nothing would ever finish), not a hang."""
+    def done_now(futures, return_when=None):
+        done = {f for f in futures if f.done()}
+        assert done, "the dispatcher waits, and nothing it sent is finished"
+        return done, set(futures) - done
+
+    monkeypatch.setattr(dispatch_module, "wait", done_now)
 
 
 def _jobs(schools):
@@ -30,15 +45,20 @@ def _jobs(schools):
 
 
 class _Worker:
-    """A pool of one that runs nothing: it keeps what it is sent, in order."""
+    """A pool of one that runs nothing: it keeps what it is sent, in order,
+    unfinished until the test finishes it; once ``eager``, it finishes
+    each task as it is sent (a kit's result is its number)."""
 
     def __init__(self):
         self.sent: list[tuple[object, object, Future]] = []
+        self.eager = False
 
     def submit(self, fn, arg):
         future = Future()
         future.set_running_or_notify_cancel()
         self.sent.append((fn, arg, future))
+        if self.eager:
+            self.finish_all()
         return future
 
     def unfinished(self):
@@ -88,32 +108,72 @@ def test_an_idle_worker_takes_the_busiest_ones_waiting_school():
     assert _latitudes(workers[0]) == [first0]
 
 
-def test_a_school_waits_for_its_plates_drawn_elsewhere_and_gets_them():
-    # five schools of eight on two workers: worker 0 has three, and the
-    # third one's plates are drawn by worker 1 first (plate_moves)
+def _moved_case():
+    """Five schools of eight on two workers: worker 0 has three, and the
+    third one's plates are drawn by worker 1 first (plate_moves)."""
     jobs = _jobs([(51.5, 8), (45.8, 8), (-23.5, 8), (38.0, 8), (12.0, 8)])
-    shares = worker_shares(jobs, 2)
-    moves = plate_moves(shares)
+    moves = plate_moves(worker_shares(jobs, 2))
     assert len(moves) == 1
-    source, target, school = moves[0]
+    return jobs, moves[0]
+
+
+def _run_freely(results, workers) -> list[int]:
+    """The numbers of every kit still to come, the workers finishing each
+    task as it is sent."""
+    for worker in workers:
+        worker.eager = True
+        worker.finish_all()
+    return [result.number for result in results]
+
+
+def _receive_finished(results, workers, received):
+    """Take from the dispatcher every finished kit's result: it has then
+    sent out whatever the finished work let it."""
+    finished = sum(1 for w in workers for fn, _, f in w.sent if fn is build_one and f.done())
+    while len(received) < finished:
+        received.append(next(results).number)
+
+
+def _kits_of(workers, latitude):
+    return [arg for worker in workers for fn, arg, _ in worker.sent
+            if fn is build_one and arg.recipe.latitude_deg == latitude]
+
+
+def test_a_school_waits_for_its_plates_drawn_elsewhere_and_gets_them():
+    jobs, (source, target, school) = _moved_case()
     workers = [_Worker(), _Worker()]
     results = dispatch(jobs, workers)
     # the drawing worker is sent the plates alone first
     assert [(fn, arg) for fn, arg, _ in workers[target].sent] == [(draw_for, school)]
+    draw = workers[target].sent[0][2]
+    # the source builds its other schools while the plates are drawn; the
+    # moved school is not sent before they are back
+    received = []
+    for _ in range(len(jobs)):
+        workers[source].finish_all()
+        _receive_finished(results, workers, received)
+        assert _kits_of(workers, school.latitude_deg) == []
+        if not workers[source].unfinished():
+            break
+    assert not draw.done() and not workers[source].unfinished()   # the source has nothing it may start
     plates = {"plate-1": "drawn elsewhere"}
     workers[target].finish_all(plates)
-    # the source finishes its schools before the moved one: it is then sent
-    # the moved school's kits, the first with the plates
-    received = []
-    while len(received) < len(jobs):
-        for worker in workers:
-            worker.finish_all()
-        received.append(next(results).number)
-    moved = [arg for worker in workers for fn, arg, _ in worker.sent
-             if fn is build_one and arg.recipe.latitude_deg == school.latitude_deg]
+    received += _run_freely(results, workers)
+    moved = _kits_of(workers, school.latitude_deg)
     assert [job.drawn for job in moved] == [plates] + [None] * 7
     assert sorted(received) == [j.number for j in jobs]
     assert sorted(_numbers(workers[0]) + _numbers(workers[1])) == [j.number for j in jobs]
+
+
+def test_a_school_whose_plates_could_not_be_drawn_elsewhere_is_built_all_the_same():
+    jobs, (source, target, school) = _moved_case()
+    workers = [_Worker(), _Worker()]
+    results = dispatch(jobs, workers)
+    workers[target].finish_all(None)   # draw_for's answer when drawing fails
+    received = _run_freely(results, workers)
+    moved = _kits_of(workers, school.latitude_deg)
+    assert len(moved) == 8 and all(job.drawn is None for job in moved)
+    assert sorted(received) == [j.number for j in jobs]
 
 
 def test_one_kit_a_school_is_shared_kit_by_kit():

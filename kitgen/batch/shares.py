@@ -72,6 +72,13 @@ def plate_moves(shares: list[list]) -> list[tuple[int, int, object]]:
         loads[idle] += PLATE_COST_KITS
 
 
+def piece_load(kits: int, plates_elsewhere: bool = False) -> int:
+    """The work of one school's ``kits`` on one worker, in a later
+    pupil's kits: the kits and the school's parts (:data:`SCHOOL_COST_KITS`),
+    less its plates where another worker draws them."""
+    return kits + SCHOOL_COST_KITS - (PLATE_COST_KITS if plates_elsewhere else 0)
+
+
 def job_school(job):
     """The school of a job's kit (kitgen.kit.school_of)."""
     return school_of(job.recipe)
@@ -103,6 +110,6 @@ def _deal(groups: dict, counts: dict, jobs: int):
     out: list[list] = [[] for _ in range(jobs)]
     for piece in sorted(pieces, key=len, reverse=True):
         k = loads.index(min(loads))
-        loads[k] += len(piece) + SCHOOL_COST_KITS
+        loads[k] += piece_load(len(piece))
         out[k] += piece
     return out, loads

@@ -74,7 +74,7 @@ class SchoolStamps:
     def lists(self) -> dict[int, tuple[tuple[int, str], ...]]:
         """{a school's first kit's number: its stamps (kit number, name) in
         order}: what :func:`stamps_pdf` draws for the school."""
-        return {kits[0].number: tuple((k.number, stamp_name(k)) for k in kits) for kits in self._kits.values()}
+        return {kits[0].number: _stamps_of(kits) for kits in self._kits.values()}
 
     def give(self, number: int, pdf: bytes) -> None:
         """The stamps of kit ``number``'s school, drawn elsewhere."""
@@ -86,8 +86,13 @@ class SchoolStamps:
         key, page = self._place[number]
         if key not in self._pdfs:   # kept for the set: a roster may list its schools' pupils mixed
             kits = self._kits[key]
-            self._pdfs[key] = stamps_pdf(plan_words(kits[0].recipe), [(k.number, stamp_name(k)) for k in kits])
+            self._pdfs[key] = stamps_pdf(plan_words(kits[0].recipe), _stamps_of(kits))
         return self._pdfs[key], page
+
+
+def _stamps_of(kits) -> tuple[tuple[int, str], ...]:
+    """A school's stamps: (kit number, name) of each of its kits, in order."""
+    return tuple((k.number, stamp_name(k)) for k in kits)
 
 
 def stamp_name(kit) -> str:

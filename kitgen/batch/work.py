@@ -9,7 +9,8 @@ goes through the very entry points ``kitgen build`` uses
 PDF is byte for byte the one a single build of the same recipe writes.
 Identical recipes in one worker (a kits list without owners, say) are
 built once (:func:`_kit_pdf`).  A worker may also draw another's school's
-plates (:func:`draw_for`), which that worker's kits then take as drawn.
+plates (:func:`draw_for`), which that worker's kits then take as drawn,
+and draws a school's stamps with its first kit (:class:`KitJob` ``stamps``).
 """
 
 from __future__ import annotations
@@ -17,7 +18,7 @@ from __future__ import annotations
 import gc
 import sys
 from contextlib import contextmanager
-from dataclasses import dataclass, field
+from dataclasses import dataclass, field, replace
 from functools import lru_cache
 
 from ..errors import Message, UserError, one_line, speaking
@@ -46,8 +47,9 @@ class KitJob:
     #: The set's language, which a failed kit's reason is said in (a
     #: shipped template's code), or None for English.
     speak: str | None = None
-    #: With a school's first kit: every kit of the school's stamp, (kit
-    #: number, name) in order, drawn by the worker (kitgen.batch.stamp).
+    #: With a school's first kit: the school's stamps, (kit number, name)
+    #: of each of its kits in order, for the worker to draw
+    #: (kitgen.batch.stamp.stamps_pdf).
     stamps: tuple = ()
 
 
@@ -126,32 +128,32 @@ def draw_for(recipe) -> dict | None:
 
 
 def build_one(job: KitJob) -> KitResult:
-    """Build the kit of ``job``, and its school's stamps if it asks for
+    """Build the kit of ``job``, then its school's stamps if it asks for
     them; a failure is its one-line reason."""
-    stamps = _stamps(job)
+    result = _built(job)
+    return replace(result, stamps=_stamps(job)) if job.stamps else result
+
+
+def _built(job: KitJob) -> KitResult:
     try:
         with speaking(job.recipe.language, job.recipe.language_file or None):
             if job.drawn:   # the school's kit without a name, with the parts drawn elsewhere, kept
                 build_kit(school_of(job.recipe), job.drawn)
             _, layers, materials, margin = _kit_pdf(job.recipe)
         return KitResult(job.number, layers.pdf, materials, margin, peak_rss_kib=_peak_rss_kib(),
-                         shared=layers.shared, owner_pages=layers.indices, overlay=layers.overlay, stamps=stamps)
+                         shared=layers.shared, owner_pages=layers.indices, overlay=layers.overlay)
     except UserError as exc:
-        return KitResult(job.number, error=one_line(exc.text(_speak(job))), peak_rss_kib=_peak_rss_kib(),
-                         stamps=stamps)
+        return KitResult(job.number, error=one_line(exc.text(_speak(job))), peak_rss_kib=_peak_rss_kib())
     except Exception as exc:  # an internal fault of this kit: the others go on
         text = Message("errors.internal", kind=type(exc).__name__, detail=exc).text(_speak(job))
-        return KitResult(job.number, error=one_line(text), internal=True, peak_rss_kib=_peak_rss_kib(),
-                         stamps=stamps)
+        return KitResult(job.number, error=one_line(text), internal=True, peak_rss_kib=_peak_rss_kib())
 
 
 def _stamps(job: KitJob) -> bytes:
-    """The stamps of the job's school, if it asks for them (its first
-    kit), in the school's words, which its kit loads too; none where
-    they cannot be drawn here (the main process then draws them, and
-    meets the fault itself)."""
-    if not job.stamps:
-        return b""
+    """The stamps the job asks for (its school's, with its first kit), in
+    the school's words, which its kit has loaded; none where they cannot
+    be drawn here (the main process then draws them, and meets the fault
+    itself)."""
     try:
         return stamps_pdf(plan_words(job.recipe), job.stamps)
     except Exception:

@@ -455,13 +455,23 @@ POLY_CELL_MM = 4.0
 POLY_MAX_CELLS = 64
 _POLY_GRIDS: dict = {}
 #: How many polylines' grids (:func:`_polyline_near`), and how many point
-#: tuples' bounds (:func:`_segment_bounds`, :func:`_line_bounds`), are kept
-#: before the store is emptied: a kit enters about 10 polylines and 35
-#: tuples of points, so these hold the last few kits.  Kept by the
+#: tuples' bounds (:func:`_segment_bounds`, :func:`_line_bounds`), are kept,
+#: the oldest let go first: a kit of one plate enters about 10 polylines
+#: and 35 tuples of points, one of eight plates 85 and 170, so these hold
+#: the largest kit whole and the last several small ones.  Kept by the
 #: thousand, they held every kit's polylines of a class set alive, a
 #: worker growing by 2 MB a kit of its own latitude (#12).
-POLYLINES_KEPT = 64
-POINTS_KEPT = 256
+POLYLINES_KEPT = 128
+POINTS_KEPT = 512
+
+
+def _keep(store: dict, key, value, most: int):
+    """``value`` stored under ``key``, the oldest entries let go first so
+    that ``store`` holds at most ``most``; returns ``value``."""
+    while len(store) >= most:
+        del store[next(iter(store))]
+    store[key] = value
+    return value
 
 
 def _polyline_near(g, box: Box):
@@ -479,10 +489,8 @@ def _polyline_near(g, box: Box):
         lo, hi = _segment_bounds(pts)
         cells = _segment_cells(lo, hi)
         bounds = (lo[:, 0].tolist(), hi[:, 0].tolist(), lo[:, 1].tolist(), hi[:, 1].tolist())
-        if len(_POLY_GRIDS) > POLYLINES_KEPT:
-            _POLY_GRIDS.clear()
         # the points kept: their id stays theirs
-        kept = _POLY_GRIDS[id(points)] = (points, closed, pts, cells, bounds, {})
+        kept = _keep(_POLY_GRIDS, id(points), (points, closed, pts, cells, bounds, {}), POLYLINES_KEPT)
     pts, cells, (lox, hix, loy, hiy), spans = kept[2], kept[3], kept[4], kept[5]
     reach = box.radius + SURE_MM
     x, y = box.center
@@ -539,9 +547,7 @@ def _segment_bounds(points):
         return hit[1]
     p = np.asarray(points, dtype=float)
     out = (np.minimum(p[:-1], p[1:]), np.maximum(p[:-1], p[1:]))
-    if len(_BOUNDS) > POINTS_KEPT:
-        _BOUNDS.clear()
-    _BOUNDS[id(points)] = (points, out)
+    _keep(_BOUNDS, id(points), (points, out), POINTS_KEPT)
     return out
 
 
@@ -650,9 +656,7 @@ def _line_bounds(points):
         return hit[1]
     lo, hi = _segment_bounds(points)
     out = (float(lo[:, 0].min()), float(hi[:, 0].max()), float(lo[:, 1].min()), float(hi[:, 1].max()))
-    if len(_LINE_BOUNDS) > POINTS_KEPT:
-        _LINE_BOUNDS.clear()
-    _LINE_BOUNDS[id(points)] = (points, out)
+    _keep(_LINE_BOUNDS, id(points), (points, out), POINTS_KEPT)
     return out
 
 
