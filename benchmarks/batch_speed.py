@@ -17,9 +17,9 @@ Run: ``python3 benchmarks/batch_speed.py [--kits N] [--schools S]``
 (``--kits 10`` for a quick look; ``--schools 4`` for a roster of four
 schools, ten pupils each at 40 kits), or ``--set SET.yaml`` to measure a
 set of one's own (its kits with errors left out).  Each command runs
-three times and its least disturbed run counts (the least CPU time for
-(a) and (b), the least wall time for (c)), kitgen's and the floor's
-alike.  It prints each measure as a figure and a ratio beside its
+three times, taking turns with the one it is measured against, and its
+least disturbed run counts (the least CPU time for (a) and (b), the
+least wall time for (c)), kitgen's and the floor's alike.  It prints each measure as a figure and a ratio beside its
 target, and exits 0 when all are met.  Targets are checked here, never in
 a timed test.
 """
@@ -97,10 +97,17 @@ def _run(args, **kw) -> Timing:
 RUNS = 3
 
 
-def _best(args, key: str) -> Timing:
-    """The run of ``args`` (:func:`_run`, :data:`RUNS` times) with the
+def _best(first, second, key: str) -> tuple[Timing, Timing]:
+    """The runs of the commands ``first`` and ``second`` (:func:`_run`,
+    :data:`RUNS` times each, taking turns, so that a machine that slows
+    down or speeds up over the minutes weighs on both alike) with the
     least ``key`` time: ``"cpu"`` or ``"wall"``."""
-    return min((_run(args) for _ in range(RUNS)), key=lambda t: t.cpu if key == "cpu" else float(t))
+    runs = [(_run(first), _run(second)) for _ in range(RUNS)]
+
+    def measure(t: Timing) -> float:
+        return t.cpu if key == "cpu" else float(t)
+
+    return min((a for a, _ in runs), key=measure), min((b for _, b in runs), key=measure)
 
 
 def _export_geometries(recipes, folder: Path) -> list[Path]:
@@ -213,16 +220,14 @@ def measure(set_path: Path, work: Path) -> dict:
     floor_cmd = [str(Path(__file__).resolve()), "--floor", str(work)]
     out = {"kits": len(kits)}
 
-    kitgen_one = _best(["-m", "kitgen", "build", str(work / "one.yaml"), "-o", str(work / "one.pdf")], "cpu")
-    floor_one = _best([*floor_cmd, str(geometries[0])], "cpu")
-    out["a"] = (kitgen_one, floor_one)
+    out["a"] = _best(["-m", "kitgen", "build", str(work / "one.yaml"), "-o", str(work / "one.pdf")],
+                     [*floor_cmd, str(geometries[0])], "cpu")
 
-    def batch(jobs: int, key: str) -> Timing:
-        return _best(["-m", "kitgen", "batch", str(set_path), "-o", str(work / f"out-{jobs}"), "--jobs", str(jobs),
-                      "--quiet"], key)
+    def batch(jobs: int) -> list[str]:
+        return ["-m", "kitgen", "batch", str(set_path), "-o", str(work / f"out-{jobs}"), "--jobs", str(jobs), "--quiet"]
 
-    out["b"] = (batch(1, "cpu"), _best([*floor_cmd, *map(str, geometries)], "cpu"))
-    out["c"] = (batch(1, "wall"), batch(2, "wall"))
+    out["b"] = _best(batch(1), [*floor_cmd, *map(str, geometries)], "cpu")
+    out["c"] = _best(batch(1), batch(2), "wall")
 
     sizes: dict[str, list[float]] = {}
     with open(work / "out-1" / "manifest.csv", newline="", encoding="utf-8") as fh:
