@@ -17,8 +17,9 @@ import pytest
 from kitgen.batch import dispatch as dispatch_module
 from kitgen.batch.dispatch import dispatch
 from kitgen.batch.shares import plate_moves, worker_shares
-from kitgen.batch.work import KitJob, KitResult, build_one, draw_for
-from kitgen.recipe.load import validate_recipe
+from kitgen.batch.work import KitResult, build_one, draw_for
+
+from .school_jobs import school_jobs
 
 
 @pytest.fixture(autouse=True)
@@ -32,16 +33,6 @@ def no_waiting(monkeypatch):
         return done, set(futures) - done
 
     monkeypatch.setattr(dispatch_module, "wait", done_now)
-
-
-def _jobs(schools):
-    """Jobs numbered in order: ``schools`` is a list of (latitude, pupils)."""
-    jobs, n = [], 0
-    for lat, pupils in schools:
-        for _ in range(pupils):
-            n += 1
-            jobs.append(KitJob(n, validate_recipe({"latitude": lat, "owner": f"Pupil {n}"})))
-    return jobs
 
 
 class _Worker:
@@ -83,7 +74,7 @@ def test_an_idle_worker_takes_the_busiest_ones_waiting_school():
     # four schools of ten on two workers: two schools each
     # (kitgen.batch.shares); worker 1 finishes both while worker 0 is
     # still on its first, so worker 1 builds worker 0's second school
-    jobs = _jobs([(51.5, 10), (45.8, 10), (-23.5, 10), (38.0, 10)])
+    jobs = school_jobs([(51.5, 10), (45.8, 10), (-23.5, 10), (38.0, 10)])
     shares = worker_shares(jobs, 2)
     assert plate_moves(shares) == []
     planned = [[j.recipe.latitude_deg for j in share] for share in shares]
@@ -111,7 +102,7 @@ def test_an_idle_worker_takes_the_busiest_ones_waiting_school():
 def _moved_case():
     """Five schools of eight on two workers: worker 0 has three, and the
     third one's plates are drawn by worker 1 first (plate_moves)."""
-    jobs = _jobs([(51.5, 8), (45.8, 8), (-23.5, 8), (38.0, 8), (12.0, 8)])
+    jobs = school_jobs([(51.5, 8), (45.8, 8), (-23.5, 8), (38.0, 8), (12.0, 8)])
     moves = plate_moves(worker_shares(jobs, 2))
     assert len(moves) == 1
     return jobs, moves[0]
@@ -179,7 +170,7 @@ def test_a_school_whose_plates_could_not_be_drawn_elsewhere_is_built_all_the_sam
 def test_one_kit_a_school_is_shared_kit_by_kit():
     # forty kits each its own latitude: each worker is sent one kit at a
     # time, and the worker that finishes faster builds more of them
-    jobs = _jobs([(-60 + 3 * k, 1) for k in range(40)])
+    jobs = school_jobs([(-60 + 3 * k, 1) for k in range(40)])
     workers = [_Worker(), _Worker()]
     results = dispatch(jobs, workers)
     done = []

@@ -15,15 +15,7 @@ from kitgen.batch.work import KitJob
 from kitgen.recipe.load import validate_recipe
 from kitgen.render.json_export import render_json
 
-
-def _jobs(schools):
-    """Jobs numbered in order: ``schools`` is a list of (latitude, pupils)."""
-    jobs, n = [], 0
-    for lat, pupils in schools:
-        for k in range(pupils):
-            n += 1
-            jobs.append(KitJob(n, validate_recipe({"latitude": lat, "owner": f"Pupil {n}"})))
-    return jobs
+from .school_jobs import school_jobs
 
 
 def _school(job):
@@ -31,7 +23,7 @@ def _school(job):
 
 
 def test_each_kit_once_school_by_school_per_worker():
-    jobs = _jobs([(51.5, 7), (-33.9, 3), (0.5, 12), (64.1, 1)])
+    jobs = school_jobs([(51.5, 7), (-33.9, 3), (0.5, 12), (64.1, 1)])
     shares = worker_shares(jobs, 2)
     assert sorted(j.number for s in shares for j in s) == [j.number for j in jobs]
     for share in shares:
@@ -58,7 +50,7 @@ def test_a_mixed_roster_is_built_school_by_school():
 
 
 def test_schools_that_fit_a_share_stay_together():
-    jobs = _jobs([(51.5, 10), (45.8, 10), (-23.5, 10), (38.0, 10)])
+    jobs = school_jobs([(51.5, 10), (45.8, 10), (-23.5, 10), (38.0, 10)])
     shares = worker_shares(jobs, 2)
     for lat in (51.5, 45.8, -23.5, 38.0):
         assert sum(any(_school(j) == lat for j in s) for s in shares) == 1, lat
@@ -66,7 +58,7 @@ def test_schools_that_fit_a_share_stay_together():
 
 
 def test_a_school_larger_than_a_share_is_split_evenly():
-    jobs = _jobs([(51.5, 40)])
+    jobs = school_jobs([(51.5, 40)])
     assert sorted(len(s) for s in worker_shares(jobs, 2)) == [20, 20]
     assert sorted(len(s) for s in worker_shares(jobs, 3)) == [13, 13, 14]
 
@@ -74,7 +66,7 @@ def test_a_school_larger_than_a_share_is_split_evenly():
 def test_loads_within_graham_bound():
     # LPT's makespan is at most 4/3 of the best possible (Graham 1969);
     # the best is at least the mean load.
-    jobs = _jobs([(51.5, 9), (45.8, 5), (-23.5, 4), (38.0, 3), (12.0, 2), (60.0, 1)])
+    jobs = school_jobs([(51.5, 9), (45.8, 5), (-23.5, 4), (38.0, 3), (12.0, 2), (60.0, 1)])
     shares = worker_shares(jobs, 3)
     loads = [len(s) + SCHOOL_COST_KITS * len({_school(j) for j in s}) for s in shares]
     mean = (len(jobs) + SCHOOL_COST_KITS * 6) / 3
@@ -84,7 +76,7 @@ def test_loads_within_graham_bound():
 def test_a_school_stays_whole_where_splitting_costs_more():
     # 24 kits on 3 workers: a share is 8, but cutting the school of 9 in two
     # would make one worker draw three schools' parts (SCHOOL_COST_KITS each)
-    jobs = _jobs([(51.5, 9), (45.8, 5), (-23.5, 4), (38.0, 3), (12.0, 2), (60.0, 1)])
+    jobs = school_jobs([(51.5, 9), (45.8, 5), (-23.5, 4), (38.0, 3), (12.0, 2), (60.0, 1)])
     shares = worker_shares(jobs, 3)
     assert sum(any(_school(j) == 51.5 for j in s) for s in shares) == 1
     assert sorted(len({_school(j) for j in s}) for s in shares) == [2, 2, 2]
@@ -101,7 +93,7 @@ def _loads(shares, moves):
 def test_plates_of_an_odd_school_out_are_drawn_by_the_other_worker():
     # five schools of eight on two workers: three schools against two
     # whole; with plates moved the loads differ by less than a plate
-    jobs = _jobs([(51.5, 8), (45.8, 8), (-23.5, 8), (38.0, 8), (12.0, 8)])
+    jobs = school_jobs([(51.5, 8), (45.8, 8), (-23.5, 8), (38.0, 8), (12.0, 8)])
     shares = worker_shares(jobs, 2)
     moves = plate_moves(shares)
     assert moves
@@ -113,7 +105,7 @@ def test_plates_of_an_odd_school_out_are_drawn_by_the_other_worker():
 
 
 def test_even_schools_move_no_plates():
-    shares = worker_shares(_jobs([(51.5, 10), (45.8, 10), (-23.5, 10), (38.0, 10)]), 2)
+    shares = worker_shares(school_jobs([(51.5, 10), (45.8, 10), (-23.5, 10), (38.0, 10)]), 2)
     assert plate_moves(shares) == []
 
 
