@@ -57,6 +57,10 @@ def dispatch(jobs_list, pools: list):
 
 
 class _Dispatch:
+    """The workers' queues (each a deque of :class:`_Draw` first, then
+    :class:`_Piece`), the plates drawn for moved schools, and the futures
+    sent and not yet finished, with each worker's count of them."""
+
     def __init__(self, pools: list, shares: list[list]):
         self.pools = pools
         self.queues: list[deque] = [deque() for _ in pools]
@@ -90,7 +94,7 @@ class _Dispatch:
         except BaseException:
             self.cancel()
             raise
-        if any(self.queues):   # a fault of this module: no kit may be left unbuilt unsaid
+        if any(self.queues):   # a fault here: a kit must never go unbuilt without a word
             raise RuntimeError("class set: work left unsent")
 
     def cancel(self) -> None:
