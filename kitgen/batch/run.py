@@ -117,7 +117,8 @@ def _run(kit_set, out_dir: Path, pools: list, quiet: bool, stream, started: floa
                     internal = internal or result.internal
                 else:
                     write_file(tmp / KITS / names[kit.number - 1], result.pdf)
-                    results[result.number] = replace(result, pdf=b"", shared=b"", overlay=b"", stamps=b"")   # the manifest's part
+                    # the manifest's part
+                    results[result.number] = replace(result, pdf=b"", shared=b"", overlay=b"", stamps=b"")
                 waiting[result.number] = result
                 next_number = _print_ready(printing, stamps, waiting, next_number, by_number)
                 bar.advance()

@@ -66,8 +66,9 @@ class SchoolStamps:
         self._place: dict[int, tuple] = {}   # kit number -> (its school, its page)
         self._kits: dict = {}
         for kit in kits:
-            school = self._kits.setdefault(school_of(kit.recipe), [])
-            self._place[kit.number] = (school_of(kit.recipe), len(school))
+            key = school_of(kit.recipe)
+            school = self._kits.setdefault(key, [])
+            self._place[kit.number] = (key, len(school))
             school.append(kit)
         self._pdfs: dict = {}
 
