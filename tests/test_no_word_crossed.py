@@ -206,6 +206,8 @@ FIXED = [
     "latitude: 60\nfilm_parts: [rete]\nfilm_mirror: true\nsheet: letter\ncolour: true\n",   # mirrored film
     "latitude: 33\nlanguage: pt\nsheet: legal\nworksheet: true\naccuracy_page: true\nunequal_hours: true\n"
     "twilight: [civil, nautical, astronomical]\nowner: Rhea Vantongeren\n",
+    # a small plate whose owner's name finds room away from the latitude label
+    "latitude: 51.5\nlanguage: fr\nsheet: a5\ndiameter_mm: 90\nowner: Anaïs Vermorel-Dubois\n",
 ]
 
 

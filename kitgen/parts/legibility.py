@@ -407,7 +407,8 @@ def shortened_notes(parts, dims, words) -> tuple[Message, ...]:
     their room, and for the stars the label placer found no room to name
     (by the names ``words`` prints them with): so that no shortened or
     missing word goes unsaid; for the plate's labels that found no place
-    clear of the other lines and the almucantars not drawn for want of
+    clear of the other lines, an owner's name with no room on its part
+    (kitgen.parts.owner.left_out) and the almucantars not drawn for want of
     room for their numbers; and for the rete's ecliptic numbers left
     out because a star's dot lies where they would stand
     (kitgen.parts.band_words)."""
@@ -428,8 +429,9 @@ def shortened_notes(parts, dims, words) -> tuple[Message, ...]:
             out.append(Message("notes.ecliptic_numbers_under_stars", part=name,
                                longitudes=[Number(int(round(lon))) for lon in under]))
         # The plate's labels with no place clear of the lines not their own,
+        # an owner's name with no room on its part (kitgen.parts.owner),
         # and the almucantars left out for want of room for their numbers (#9).
-        missing = part.values.get("labels_left_out") if part.kind == "plate" else None
+        missing = part.values.get("labels_left_out")
         if missing:
             out.append(Message("notes.plate_labels_left_out", part=name,
                                labels=[Message("notes.quoted", text=t) for t in missing], diameter=size))

@@ -9,8 +9,9 @@ pupils of a school and only adds each pupil's name
 keep half an arm for the name, are cheap and simply drawn with it.
 
 :data:`ADD_OWNER` maps a part's kind to its function ``(part, ctx) ->
-part``; each returns the part itself when the plan has no owner or no
-room is free.
+part``; each returns the part itself when the plan has no owner, and
+the part with the name among its words left out (:func:`left_out`)
+when no room is free.
 """
 
 from __future__ import annotations
@@ -92,12 +93,59 @@ def plate_slot(part: model.Part, ctx: PartContext) -> model.Part:
                 best = (sx, y, anchor, width, height)
                 break
     if best is None:
+        best = _free_row(lines[0].geom["at"][1], (bottom, top), height, taken, rim, (least, most))
+    if best is None:
         return part
     slot = _slot_box(best)
     strokes = [e for e in part.elements if e.shape != "text" and e.role != "pin"]
     broken = breaks.break_around(strokes, [slot], m, lambda stroke: stroke_width_mm(stroke, d))
     rest = [e for e in part.elements if e.shape == "text" or e.role == "pin"]
     return replace(part, elements=tuple(broken) + tuple(rest), values={**part.values, "owner_slot": best})
+
+
+def _free_row(label_y: float, label_rows: tuple, height: float, taken: list, rim: float, widths: tuple):
+    """Where :func:`plate_slot`'s two places by the label are taken (a
+    small plate): the rows ``height`` mm high and :data:`MARGIN_MM` apart,
+    from the label's towards the plate's centre and on across it, each
+    with its widest stretch inside ``rim`` (mm) clear of every box of
+    ``taken``; the slot in the first stretch ``widths[1]`` wide, else in
+    the widest at least ``widths[0]`` wide (as near the meridian as the
+    stretch allows, at most ``widths[1]`` wide), or None."""
+    m = labels.MARGIN_MM
+    least, most = widths
+    inward = 1.0 if label_y <= 0 else -1.0   # from the label towards the centre
+    y = label_rows[0] - m - height / 2 if inward > 0 else label_rows[1] + m + height / 2
+    best = None
+    while abs(y) + height / 2 < rim or y * inward < 0:
+        gap = _widest_gap(y, height, taken, rim)
+        if gap is not None and gap[1] >= least and (best is None or gap[1] > best[0][1]):
+            best = (gap, y)
+            if gap[1] >= most:
+                break
+        y += inward * (height + m)
+    if best is None:
+        return None
+    (x0, room), y = best
+    width = min(room, most)
+    return (min(max(x0, -width / 2), x0 + room - width), y, "start", width, height)
+
+
+def _widest_gap(y: float, height: float, taken: list, rim: float):
+    """The widest stretch ``(x0, width)`` in mm of the row centred at ``y``,
+    ``height`` high, inside the circle of radius ``rim`` and clear of
+    every box of ``taken`` by :data:`MARGIN_MM`; None outside the circle."""
+    m, half = labels.MARGIN_MM, height / 2
+    reach = rim ** 2 - (abs(y) + half) ** 2
+    if reach <= 0:
+        return None
+    edge = math.sqrt(reach)
+    spans = sorted((t[0] - m, t[2] + m) for t in taken if t[1] - m < y + half and t[3] + m > y - half)
+    best, x = None, -edge
+    for lo, hi in spans + [(edge, edge)]:
+        if min(lo, edge) - x > (best[1] if best else 0.0):
+            best = (x, min(lo, edge) - x)
+        x = max(x, hi)
+    return best
 
 
 def plate_owner(part: model.Part, ctx: PartContext, whole: model.Part | None = None) -> model.Part:
@@ -107,8 +155,10 @@ def plate_owner(part: model.Part, ctx: PartContext, whole: model.Part | None = N
     (values ``beside_owner``): the lines are then broken round the name
     alone, as round every other word."""
     slot = part.values.get("owner_slot")
-    if not ctx.plan.owner or slot is None:
+    if not ctx.plan.owner:
         return part
+    if slot is None:
+        return left_out(part, ctx.plan.owner)
     d, w = ctx.dims, ctx.words
     x, y, anchor, width, height = slot
     names = labels.fitted_text("owner", (x, y), ctx.plan.owner, d.small_text_pt, w, width, height, anchor=anchor)
@@ -166,7 +216,14 @@ def rete_owner(part: model.Part, ctx: PartContext) -> model.Part:
                 any(labels.meets_ring(b, ring) for b in boxes):
             continue
         return _before_pin(part, els)
-    return part
+    return left_out(part, owner)
+
+
+def left_out(part: model.Part, owner: str) -> model.Part:
+    """``part`` with the owner's name among the words it leaves out for
+    want of room (values ``labels_left_out``), which the kit's notes
+    then name (kitgen.parts.legibility.shortened_notes)."""
+    return replace(part, values={**part.values, "labels_left_out": (*part.values.get("labels_left_out", ()), owner)})
 
 
 def mater_front_owner(part: model.Part, ctx: PartContext) -> model.Part:
