@@ -94,6 +94,7 @@ def test_any_title_agrees_with_the_reference(title, language):
 import re  # noqa: E402
 
 from kitgen.parts.clock_scale import signed  # noqa: E402
+from kitgen.words.locale import true_minus  # noqa: E402
 
 NUMBER = re.compile(r"(?<![\w])[+\-−]?[0-9٠-٩]+(?:[.,:٫٬][0-9٠-٩]+)*°?")
 
@@ -122,7 +123,7 @@ def test_the_arabic_page_number_reads_k_of_n(k, n, native):
 @pytest.mark.parametrize("native", [False, True])
 def test_arabic_signed_numbers_degrees_and_times_read_left_to_right(native):
     words = load_words("ar", native_digits=native)
-    lines = [words("plate.line_twilight", altitude=words.number(-18)),
+    lines = [words("plate.line_twilight", altitude=true_minus(words.number(-18))),
              words("plate.latitude", value=words.number(24.5, 1), hemisphere=words("cardinal.north_short")),
              words("almanac.correction_entry", day=words.number(3), minutes=signed(words, -3)),
              words("almanac.correction_entry", day=words.number(17), minutes=signed(words, 9)),
@@ -133,7 +134,7 @@ def test_arabic_signed_numbers_degrees_and_times_read_left_to_right(native):
         assert rtl and got == reference(line, rtl)
         _numbers_read_left_to_right(line, got)
     twilight, _ = visual(lines[0], words)
-    assert "-" + words.number(18) + "°" in twilight
+    assert "\u2212" + words.number(18) + "°" in twilight
 
 
 def test_without_isolation_the_sign_trails_the_number():

@@ -30,6 +30,7 @@ from kitgen.kit import build_kit
 from kitgen.layout.figures import LineScale, kit_figures
 from kitgen.layout.instructions import STACK_ITEM_PARTS, column_mm, story
 from kitgen.layout.pages import layout_kit
+from kitgen.words.locale import true_minus
 from kitgen.recipe.load import parse_recipe_text
 from kitgen.render.pdf import render_pdf
 from kitgen.words.measure import text_corners_mm
@@ -143,7 +144,7 @@ def expected_name(kit, values) -> str:
     if curve == "almucantar":
         return w("instructions.figure_almucantar", altitude=w.number(values["altitude_deg"]))
     if curve == "twilight":
-        return w("plate.line_twilight", altitude=w.number(values["altitude_deg"]))
+        return w("plate.line_twilight", altitude=true_minus(w.number(values["altitude_deg"])))
     if curve == "tropic":
         return w("plate.line_tropic_cancer" if values["declination_deg"] > 0 else "plate.line_tropic_capricorn")
     return w(NAME_KEYS[curve])

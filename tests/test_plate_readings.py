@@ -31,6 +31,7 @@ from hypothesis import strategies as st
 
 from kitgen.geometry.style import dot_radius_mm, pin_cross_half_mm, stroke_width_mm
 from kitgen.kit import build_kit
+from kitgen.words.locale import true_minus
 from kitgen.recipe.load import validate_recipe
 from kitgen.recipe.schema import SHEETS
 from kitgen.words.measure import text_corners_mm
@@ -247,7 +248,7 @@ def test_the_default_plate_names_its_lines_and_numbers_its_hours_and_azimuths():
     w = kit.words
     names = {e.geom["text"] for e in part.with_role("curve_label")}
     # templates/en.yaml's words
-    twilight = {w("plate.line_twilight", altitude=w.number(a)) for a in kit.plan.drawing.twilight_deg}
+    twilight = {w("plate.line_twilight", altitude=true_minus(w.number(a))) for a in kit.plan.drawing.twilight_deg}
     assert twilight
     assert names == {w("plate.line_horizon"), w("plate.line_equator"), w("plate.line_tropic_cancer"),
                      w("plate.line_tropic_capricorn")} | twilight

@@ -32,6 +32,7 @@ import numpy as np
 
 from ..geometry import model
 from ..geometry.simplify import simplified
+from ..words.locale import true_minus
 
 #: Size (pt) of the names in the pictures: the instructions' smallest body
 #: size (kitgen.layout.paragraphs.MIN_BODY_PT), never smaller.
@@ -410,7 +411,7 @@ def _plate_names(kit, lines) -> list[tuple[str, dict, str]]:
         out.append(("tropic", {"declination_deg": dec}, w(key)))
     for alt in kit.plan.drawing.twilight_deg:
         if ("twilight", alt) in have:
-            out.append(("twilight", {"altitude_deg": alt}, w("plate.line_twilight", altitude=w.number(alt))))
+            out.append(("twilight", {"altitude_deg": alt}, w("plate.line_twilight", altitude=true_minus(w.number(alt)))))
     if "unequal_hour" in roles:
         out.append(("unequal_hour", {}, w("instructions.figure_unequal_hours")))
     if "zenith" in roles:

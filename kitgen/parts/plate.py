@@ -18,6 +18,7 @@ from ..projection.stereographic import (equatorial_vector, horizontal_vector,
                                         project_vectors)
 from ..geometry.style import pin_cross_half_mm, stroke_width_mm
 from . import breaks, curves, labels, legibility, plate_labels, stroke_index
+from ..words.locale import true_minus
 from .context import PartContext
 from .dimensions import MIN_TEXT_PT
 from .format import latitude_text
@@ -205,7 +206,7 @@ def _labels(ctx, phi, s, R, disc, strokes):
     lab.curve_name("tropic", w("plate.line_tropic_cancer"), declination_deg=math.degrees(eps))
     lab.curve_name("tropic", w("plate.line_tropic_capricorn"), declination_deg=-math.degrees(eps))
     for alt in ctx.plan.drawing.twilight_deg:
-        lab.curve_name("twilight", w("plate.line_twilight", altitude=w.number(alt)), altitude_deg=alt)
+        lab.curve_name("twilight", w("plate.line_twilight", altitude=true_minus(w.number(alt))), altitude_deg=alt)
     for alt in numbered:
         if alt not in tens:
             lab.almucantar(alt, False)

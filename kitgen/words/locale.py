@@ -107,6 +107,13 @@ def format_number(value: float, decimals: int, code: str, native_digits: bool = 
     return text
 
 
+def true_minus(text: str) -> str:
+    """A formatted number with a true minus sign (U+2212, as print sets
+    it and as the kit's tables of corrections have it) for the hyphen-minus
+    that CLDR gives many languages (en, fr, de...)."""
+    return text.replace("-", "\u2212")
+
+
 def format_date(year: int, month: int, day: int, code: str, native_digits: bool = False,
                 with_year: bool = True) -> str:
     """A date as the locale writes it in running text (CLDR's skeleton
