@@ -53,6 +53,8 @@ ROSTER = [
     ("Juno Abernethy", "64.1", "en"), ("Tomasz/Wren", "35.7", ""), ("Bad Row", "91", ""),
 ]
 BAD_KIT, BAD_LINE = 13, 10   # the ninth roster row is line 10 of the file (the header is line 1)
+#: The print files' stocks, in the order a coordinator loads the printer.
+STOCKS = ("paper", "card", "film")
 
 
 def _template(code: str) -> dict:
@@ -115,11 +117,14 @@ def _manifest(folder: Path) -> list[dict]:
         return list(csv.DictReader(fh))
 
 
-def _film_pages(pdf: Path, language: str) -> list[bool]:
-    """Which pages of a kit say they go on film: the template's own
-    ``page.on_film`` words, found by pypdf's text extraction."""
-    on_film = _template(language)["page"]["on_film"]
-    return [on_film in page.extract_text() for page in PdfReader(pdf).pages]
+def _stocks(pdf: Path, language: str) -> list[str]:
+    """The stock each page of a kit says it goes on: the template's own
+    ``page.on_film`` and ``page.on_card`` words, found by pypdf's text
+    extraction, and plain paper for a page that says neither (the
+    instructions, which the kit's printing steps put on plain paper)."""
+    said = _template(language)["page"]
+    return ["film" if said["on_film"] in text else "card" if said["on_card"] in text else "paper"
+            for text in (page.extract_text() for page in PdfReader(pdf).pages)]
 
 
 def test_manifest_rows_match_the_kits(one_worker):
@@ -140,10 +145,12 @@ def test_manifest_rows_match_the_kits(one_worker):
         assert float(row["latitude"]) == pytest.approx(55.75 if lat == "55 45 N" else float(lat), abs=1e-9)
         pdf = out / row["file"]
         pages = PdfReader(pdf).pages   # Reference: pypdf
-        film = _film_pages(pdf, row["language"])
+        stocks = _stocks(pdf, row["language"])
         assert int(row["pages"]) == len(pages)
-        assert int(row["film_pages"]) == sum(film) >= 1
-        assert int(row["card_pages"]) == len(pages) - sum(film)
+        assert int(row["film_pages"]) == stocks.count("film") >= 1
+        assert int(row["card_pages"]) == stocks.count("card") >= 1
+        assert int(row["paper_pages"]) == stocks.count("paper") >= 1
+        assert stocks.index("card") == stocks.count("paper")   # the instructions come first
 
 
 def test_a_bad_row_is_named_and_the_others_are_built(one_worker, two_workers):
@@ -181,13 +188,13 @@ def test_each_kit_equals_a_single_build_byte_for_byte(one_worker, tmp_path):
 def test_print_files_hold_every_kits_pages_in_order(one_worker):
     status, out = one_worker
     rows = [r for r in _manifest(out) if r["status"] == "ok"]
-    printed = {m: PdfReader(out / f"print-{m}.pdf").pages for m in ("card", "film")}   # Reference: pypdf
-    at = {"card": 0, "film": 0}
-    for material in ("card", "film"):
+    printed = {m: PdfReader(out / f"print-{m}.pdf").pages for m in STOCKS}   # Reference: pypdf
+    at = {m: 0 for m in STOCKS}
+    for material in STOCKS:
         for row in rows:
             kit_pages = PdfReader(out / row["file"]).pages
-            film = _film_pages(out / row["file"], row["language"])
-            chosen = [p for p, f in zip(kit_pages, film) if f == (material == "film")]
+            stocks = _stocks(out / row["file"], row["language"])
+            chosen = [p for p, s in zip(kit_pages, stocks) if s == material]
             words = _template(row["language"])
             name = row["owner"] or row["title"]
             stamp = words["batch"]["stamp"].format(number=row["kit"], name=name)
@@ -231,7 +238,7 @@ def test_one_and_two_workers_give_the_same_bytes(class_set, one_worker, two_work
     assert names == sorted(p.relative_to(two) for p in two.rglob("*") if p.is_file())
     for name in names:
         assert (one / name).read_bytes() == (two / name).read_bytes(), name
-    for name in ("print-card.pdf", "print-film.pdf"):
+    for name in ("print-paper.pdf", "print-card.pdf", "print-film.pdf"):
         assert "/ID" not in PdfReader(one / name).trailer   # no random file identifier (pypdf)
 
 

@@ -93,7 +93,7 @@ def test_a_class_sets_print_files_ask_for_actual_size_and_keep_tags_apart(tmp_pa
                                        "kits:\n  - {owner: Ava Pennywhistle}\n"
                                        "  - {owner: Escuela Gemela del Sur, latitude: 33.4S, language: es}\n")
     assert main(["batch", str(tmp_path / "set.yaml"), "-o", str(tmp_path / "out"), "--jobs", "1", "--quiet"]) == 0
-    for name in ("print-card.pdf", "print-film.pdf"):
+    for name in ("print-paper.pdf", "print-card.pdf", "print-film.pdf"):
         reader = pypdf.PdfReader(str(tmp_path / "out" / name))
         assert reader.trailer["/Root"]["/ViewerPreferences"]["/PrintScaling"] == "/None"
         subsets = {}

@@ -1,5 +1,6 @@
 """Class sets: many kits from one set recipe, in parallel, into one folder
-of per-kit PDFs, two print files and a manifest (#12).
+of per-kit PDFs, a print file a stock (plain paper, card, film) and a
+manifest (#12).
 
 ``run_set(set_path, out_dir, jobs, quiet) -> Summary`` is the entry point
 for the command line (``kitgen batch``) and for any other caller.

@@ -30,7 +30,7 @@ from ..outfile import OLD_DIR_SUFFIX, STALE_SECONDS, TEMP_DIR_SUFFIX, made_by_ki
 
 KITS = "kits"
 MANIFEST = "manifest.csv"
-PRINT_FILES = ("print-card.pdf", "print-film.pdf")
+PRINT_FILES = ("print-paper.pdf", "print-card.pdf", "print-film.pdf")
 _OWN_NAMES = {KITS, MANIFEST, *PRINT_FILES}
 
 

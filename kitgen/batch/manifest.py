@@ -8,10 +8,12 @@ Columns (RFC 4180 CSV, UTF-8, ``\\r\\n`` line ends as the RFC writes them):
   recipe gives them (the latitude in degrees, north positive);
 - ``copies``: how many times the kit is in the print files;
 - ``file``: its PDF under ``kits/`` (empty when it failed);
-- ``pages``, ``card_pages``, ``film_pages``: page counts of one copy
-  (the instructions count as card pages);
-- ``card_print_pages``, ``film_print_pages``: where its copies are in
-  ``print-card.pdf`` and ``print-film.pdf``, such as ``5-8 9-12``;
+- ``pages``, ``paper_pages``, ``card_pages``, ``film_pages``: page counts
+  of one copy, by the stock the kit's instructions print them on (plain
+  paper for the instructions themselves);
+- ``paper_print_pages``, ``card_print_pages``, ``film_print_pages``: where
+  its copies are in ``print-paper.pdf``, ``print-card.pdf`` and
+  ``print-film.pdf``, such as ``5-8 9-12``;
 - ``status``: ``ok``, or the one-line reason it was not built.
 
 A text cell that a spreadsheet would take for a formula (one starting
@@ -23,8 +25,10 @@ from __future__ import annotations
 import csv
 import io
 
-COLUMNS = ("kit", "owner", "title", "place", "latitude", "language", "copies", "file", "pages", "card_pages",
-           "film_pages", "card_print_pages", "film_print_pages", "status")
+from .printfiles import MATERIALS
+
+COLUMNS = ("kit", "owner", "title", "place", "latitude", "language", "copies", "file", "pages", "paper_pages",
+           "card_pages", "film_pages", "paper_print_pages", "card_print_pages", "film_print_pages", "status")
 STATUS_OK = "ok"
 
 
@@ -46,9 +50,9 @@ def manifest_row(kit, file_name: str, result, spans: dict, error: str) -> dict:
     return {
         "kit": kit.number, "owner": owner, "title": title, "place": place, "latitude": latitude,
         "language": language, "copies": kit.copies, "file": f"kits/{file_name}" if ok else "",
-        "pages": len(materials) if ok else "", "card_pages": materials.count("card") if ok else "",
-        "film_pages": materials.count("film") if ok else "",
-        "card_print_pages": _spans(spans.get("card", [])), "film_print_pages": _spans(spans.get("film", [])),
+        "pages": len(materials) if ok else "",
+        **{f"{m}_pages": materials.count(m) if ok else "" for m in MATERIALS},
+        **{f"{m}_print_pages": _spans(spans.get(m, [])) for m in MATERIALS},
         "status": status,
     }
 

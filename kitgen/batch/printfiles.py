@@ -1,6 +1,7 @@
-"""The set's two print files: every kit's card pages, then every kit's
-film pages, in kit order, each kit as many times as its copies, each page
-stamped with the kit's number and owner (#12).
+"""The set's print files, one a stock: every kit's instruction pages (plain
+paper), every kit's card pages, every kit's film pages, in kit order,
+each kit as many times as its copies, each page stamped with the kit's
+number and owner (#12).
 
 The files are written by hand (:mod:`kitgen.render.pdf_objects`): a
 page's objects are copied from its kit's PDF as they are, content and
@@ -24,7 +25,10 @@ from ..render.pdf_objects import Copier, Written
 from ..render.pdf_owner import OWNER_FORM, Layering, form_of
 from .stamp import STAMP_FORM, stamp_at
 
-MATERIALS = ("card", "film")
+#: The stocks a kit's pages are printed on, as its own instructions say
+#: (kitgen.layout.instructions): the instructions on plain paper, the
+#: parts on card and on film; a print file for each, in this order.
+MATERIALS = ("paper", "card", "film")
 
 
 @dataclass(frozen=True)
@@ -46,7 +50,7 @@ class PrintedKit:
 
 
 class PrintFiles:
-    """The two print files, filled kit by kit in kit order (so that they
+    """The print files, filled kit by kit in kit order (so that they
     can grow while later kits are still being built): :meth:`add` each
     built kit, then :meth:`finish`."""
 
@@ -134,7 +138,7 @@ def _media_box(head: bytes) -> tuple[float, ...]:
 
 def print_files(kits) -> tuple[dict[str, bytes], dict[int, dict[str, list[tuple[int, int]]]]]:
     """``({material: pdf bytes}, {kit number: {material: [(first, last), ...]}})``:
-    the two print files of ``kits`` (in kit order) and where each copy of
+    the print files of ``kits`` (in kit order) and where each copy of
     each kit's pages landed in them (page numbers from 1)."""
     files = PrintFiles()
     for kit in kits:

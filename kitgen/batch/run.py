@@ -33,7 +33,7 @@ from .dispatch import dispatch
 from .shares import worker_shares
 from .work import KitJob, build_one, collect_rarely, rare_collections, warm
 
-PRINT_NAMES = {"card": "print-card.pdf", "film": "print-film.pdf"}
+PRINT_NAMES = {"paper": "print-paper.pdf", "card": "print-card.pdf", "film": "print-film.pdf"}
 #: Most worker processes one run may ask for.
 MAX_JOBS = 256
 

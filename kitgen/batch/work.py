@@ -56,7 +56,8 @@ class KitJob:
 @dataclass(frozen=True)
 class KitResult:
     """What a worker sends back: the kit's PDF, the material of each page
-    (``card`` or ``film``; instructions count as card), the sheet's
+    (``paper`` for the instructions, ``card`` or ``film``: the stocks the
+    kit's own instructions name, kitgen.batch.printfiles.MATERIALS), the sheet's
     margin (where the print files' stamp goes), or the reason it failed."""
 
     number: int
@@ -170,8 +171,13 @@ def _kit_pdf(recipe):
     kit = build_kit(recipe)
     pages = layout_kit(kit)   # as build_pdf does: the same bytes
     layers = render_layers(kit, pages)
-    materials = tuple("film" if p.kind == "film" else "card" for p in pages)
+    materials = tuple(_STOCKS.get(p.kind, "card") for p in pages)
     return kit, layers, materials, pages[0].sheet.margin_mm
+
+
+#: The stock of a page of each kind (kitgen.layout.pages): what the kit's
+#: own printing instructions say it goes on.
+_STOCKS = {"instructions": "paper", "film": "film"}
 
 
 def _peak_rss_kib() -> int:
