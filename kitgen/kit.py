@@ -15,6 +15,7 @@ from .check.accuracy import Accuracy, check_kit
 from .check.reading import READING_PARTS
 from .errors import Message, UserError
 from .geometry.model import Part
+from .kept import keep_last
 from .parts import PART_BUILDERS
 from .parts.clock_scale import clock_ring_notes
 from .parts.context import PartContext
@@ -137,9 +138,7 @@ def _named_base(base: "_Nameless", plan: Plan) -> Kit:
             drawn = replace(drawn, elements=tuple(e for e in drawn.elements if e.role != "owner"))
             parts.append(replace(on_material(drawn, stand_in), id=part.id))
     kit = replace(base.kit, parts=tuple(parts))
-    while len(_NAMED_BASE) >= 4:
-        del _NAMED_BASE[next(iter(_NAMED_BASE))]
-    _NAMED_BASE[id(base)] = (base, kit)
+    keep_last(_NAMED_BASE, id(base), (base, kit), 4)
     return kit
 
 
@@ -189,10 +188,7 @@ def _nameless(plan: Plan, drawn: dict | None = None) -> _Nameless:
         if missing:
             raise UserError("errors.accuracy_page_parts", parts=list(READING_PARTS), missing=missing)
         kit = replace(kit, accuracy=check_kit(kit))
-    while len(_NAMELESS) >= 4:
-        del _NAMELESS[next(iter(_NAMELESS))]
-    _NAMELESS[plan] = _Nameless(kit, scales, tuple(notes))
-    return _NAMELESS[plan]
+    return keep_last(_NAMELESS, plan, _Nameless(kit, scales, tuple(notes)), 4)
 
 
 def _sizes(plan: Plan) -> tuple[Dimensions, dict]:

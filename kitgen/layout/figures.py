@@ -32,6 +32,7 @@ import numpy as np
 
 from ..geometry import model
 from ..geometry.simplify import simplified
+from ..kept import keep_last
 from ..words.locale import true_minus
 
 #: Size (pt) of the names in the pictures: the instructions' smallest body
@@ -639,9 +640,7 @@ def stack_figure(kit, width_mm: float) -> Figure | None:
     if figure is None:
         figure = _stack_drawing(w, [(kind, name, _outline(cuts, turn)) for kind, name, turn, cuts in layers],
                                 width_mm)
-        while len(_STACKS) >= 4:
-            del _STACKS[next(iter(_STACKS))]
-        _STACKS[key] = figure
+        keep_last(_STACKS, key, figure, 4)
     return figure
 
 
@@ -732,7 +731,5 @@ def kit_figures(kit, width_mm: float) -> tuple[Figure | None, Figure | None]:
     if kept is not None and kept[0] is kit:
         return kept[1]
     figures = (plate_figure(kit, width_mm), stack_figure(kit, width_mm))
-    while len(_KEPT) >= 4:
-        del _KEPT[next(iter(_KEPT))]
-    _KEPT[key] = (kit, figures)
+    keep_last(_KEPT, key, (kit, figures), 4)
     return figures

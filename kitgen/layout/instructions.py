@@ -10,6 +10,7 @@ from __future__ import annotations
 import functools
 
 from ..check.report import report_lines
+from ..kept import keep_last
 from ..parts.clock_scale import signed
 from ..parts.format import latitude_text
 from ..parts.plate import keyed
@@ -236,9 +237,7 @@ def _per_kit(make):
     def made(kit) -> list[Block]:
         hit = kept.get(id(kit))
         if hit is None or hit[0] is not kit:
-            while len(kept) >= 4:
-                del kept[next(iter(kept))]
-            hit = kept[id(kit)] = (kit, tuple(make(kit)))
+            hit = keep_last(kept, id(kit), (kit, tuple(make(kit))), 4)
         return list(hit[1])
     return made
 

@@ -30,6 +30,7 @@ from itertools import product
 
 from ..errors import UserError
 from ..geometry.model import Part
+from ..kept import keep_last
 from .instructions import story
 from .packing import Box, Packer, extent, place
 from ..paper import CHECK_BAR_MM, GAP_MM, PT_PER_MM, TITLE_BAND_MM, Sheet, content_area_mm, page_size_mm, sheet_words
@@ -440,9 +441,7 @@ def _nameless_pages(nameless) -> tuple[Page, ...]:
     if kept is not None and kept[0] is nameless:
         return kept[1]
     pages = layout_kit(nameless)
-    while len(_NAMELESS_PAGES) >= 4:
-        del _NAMELESS_PAGES[next(iter(_NAMELESS_PAGES))]
-    _NAMELESS_PAGES[id(nameless)] = (nameless, pages)
+    keep_last(_NAMELESS_PAGES, id(nameless), (nameless, pages), 4)
     return pages
 
 

@@ -22,6 +22,7 @@ import numpy as np
 
 from ..geometry import model
 from ..geometry.arrays import unique_ints
+from ..kept import keep_last
 
 #: Pieces a break leaves shorter than this (mm) are dropped: a stub
 #: between a label and the rim, a line's end or another label reads as a
@@ -465,15 +466,6 @@ POLYLINES_KEPT = 128
 POINTS_KEPT = 512
 
 
-def _keep(store: dict, key, value, most: int):
-    """``value`` stored under ``key``, the oldest entries let go first so
-    that ``store`` holds at most ``most``; returns ``value``."""
-    while len(store) >= most:
-        del store[next(iter(store))]
-    store[key] = value
-    return value
-
-
 def _polyline_near(g, box: Box):
     """The polyline's points (closed: the first again at the end) and the
     indices, in order (as an iterator), of its segments that may meet
@@ -490,7 +482,7 @@ def _polyline_near(g, box: Box):
         cells = _segment_cells(lo, hi)
         bounds = (lo[:, 0].tolist(), hi[:, 0].tolist(), lo[:, 1].tolist(), hi[:, 1].tolist())
         # the points kept: their id stays theirs
-        kept = _keep(_POLY_GRIDS, id(points), (points, closed, pts, cells, bounds, {}), POLYLINES_KEPT)
+        kept = keep_last(_POLY_GRIDS, id(points), (points, closed, pts, cells, bounds, {}), POLYLINES_KEPT)
     pts, cells, (lox, hix, loy, hiy), spans = kept[2], kept[3], kept[4], kept[5]
     reach = box.radius + SURE_MM
     x, y = box.center
@@ -547,7 +539,7 @@ def _segment_bounds(points):
         return hit[1]
     p = np.asarray(points, dtype=float)
     out = (np.minimum(p[:-1], p[1:]), np.maximum(p[:-1], p[1:]))
-    _keep(_BOUNDS, id(points), (points, out), POINTS_KEPT)
+    keep_last(_BOUNDS, id(points), (points, out), POINTS_KEPT)
     return out
 
 
@@ -656,7 +648,7 @@ def _line_bounds(points):
         return hit[1]
     lo, hi = _segment_bounds(points)
     out = (float(lo[:, 0].min()), float(hi[:, 0].max()), float(lo[:, 1].min()), float(hi[:, 1].max()))
-    _keep(_LINE_BOUNDS, id(points), (points, out), POINTS_KEPT)
+    keep_last(_LINE_BOUNDS, id(points), (points, out), POINTS_KEPT)
     return out
 
 

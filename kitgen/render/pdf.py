@@ -22,6 +22,7 @@ from reportlab.pdfgen.canvas import Canvas
 from reportlab.pdfgen.pdfgeom import bezierArc
 
 from ..geometry import style
+from ..kept import keep_last
 from ..layout.bounds import element_box_mm, meets, turn_box
 from ..layout.instructions import kit_latitudes, kit_line, kit_title
 from ..layout.pages import TITLE_PT, Page, check_bar_mm, layout_kit, shared_pages
@@ -498,9 +499,7 @@ def _shared_pdf(nameless, pages) -> bytes:
     if kept is not None and kept[0] is nameless:
         return kept[1]
     pdf = _render(nameless, pages)
-    while len(_SHARED_PDFS) >= 4:
-        del _SHARED_PDFS[next(iter(_SHARED_PDFS))]
-    _SHARED_PDFS[id(nameless)] = (nameless, pdf)
+    keep_last(_SHARED_PDFS, id(nameless), (nameless, pdf), 4)
     return pdf
 
 

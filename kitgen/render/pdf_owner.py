@@ -21,6 +21,7 @@ from dataclasses import dataclass, replace
 
 from reportlab.lib.units import mm
 
+from ..kept import keep_last
 from . import pdf_objects, pdf_text
 from .pdf_canvas import new_canvas
 
@@ -140,10 +141,7 @@ def _written(pdf: bytes) -> pdf_objects.Written:
     kept = _WRITTEN.get(id(pdf))
     if kept is not None and kept[0] is pdf:
         return kept[1]
-    while len(_WRITTEN) >= 4:
-        del _WRITTEN[next(iter(_WRITTEN))]
-    _WRITTEN[id(pdf)] = (pdf, pdf_objects.Written(pdf))
-    return _WRITTEN[id(pdf)][1]
+    return keep_last(_WRITTEN, id(pdf), (pdf, pdf_objects.Written(pdf)), 4)[1]
 
 
 def form_of(copier: pdf_objects.Copier, page: int) -> int:

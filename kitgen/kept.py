@@ -1,0 +1,25 @@
+"""The last few of something, kept: the one way kitgen's small
+module-level caches let their oldest entries go.
+
+A class set builds many kits in one process, so each cache holds only
+the last few things it was asked for (a school's plans, pages, PDFs,
+pictures, polylines) and lets the oldest go first: first in, first out.
+A plain ``dict`` is enough for that, since a dict keeps its keys in the
+order they were first inserted (The Python Language Reference, 3.7 and
+later, "Dictionaries": "Dictionaries preserve insertion order"), so its
+first key is its oldest.  Storing under a key already there changes the
+value but not the key's place.
+"""
+
+from __future__ import annotations
+
+
+def keep_last(store: dict, key, value, most: int):
+    """``value`` stored under ``key`` in ``store``, the oldest entries
+    (first inserted) let go first so that ``store`` holds at most
+    ``most``; returns ``value``.  The room is made before storing, as if
+    ``key`` were new."""
+    while len(store) >= most:
+        del store[next(iter(store))]
+    store[key] = value
+    return value
