@@ -371,6 +371,17 @@ def _hb_font(face: Face) -> hb.Font:
     return hb.Font(hb.Face(hb.Blob(fonts.font_bytes(face))))
 
 
+def _shaped(face: Face, text: str, rtl: bool):
+    """HarfBuzz's buffer of ``text`` shaped in ``face`` and the given
+    direction, its glyphs in visual order."""
+    buf = hb.Buffer()
+    buf.add_str(text)
+    buf.guess_segment_properties()
+    buf.direction = "rtl" if rtl else "ltr"
+    hb.shape(_hb_font(face), buf, FEATURES)
+    return buf
+
+
 def _needs_shaping(face: Face, rtl: bool) -> bool:
     return rtl or _script_face(face)
 
@@ -385,11 +396,7 @@ def _script_face(face: Face) -> bool:
 def shape_run(face: Face, text: str, rtl: bool) -> tuple[Glyph, ...]:
     """HarfBuzz's glyphs for ``text`` in ``face`` and the given direction,
     in visual order."""
-    buf = hb.Buffer()
-    buf.add_str(text)
-    buf.guess_segment_properties()
-    buf.direction = "rtl" if rtl else "ltr"
-    hb.shape(_hb_font(face), buf, FEATURES)
+    buf = _shaped(face, text, rtl)
     upem = fonts.units_per_em(face)
     return tuple([Glyph(info.codepoint, info.cluster, pos.x_advance / upem, pos.x_offset / upem,
                         pos.y_offset / upem)
@@ -476,11 +483,7 @@ def _run_width(face: Face, text: str, level: int) -> float:
     making the run's glyphs."""
     rtl = bool(level % 2)
     if _needs_shaping(face, rtl):
-        buf = hb.Buffer()
-        buf.add_str(text)
-        buf.guess_segment_properties()
-        buf.direction = "rtl" if rtl else "ltr"
-        hb.shape(_hb_font(face), buf, FEATURES)
+        buf = _shaped(face, text, rtl)
         upem = fonts.units_per_em(face)
         return sum([pos.x_advance / upem for pos in buf.glyph_positions])
     return sum(fonts.advance_em(face, ch) for ch in text)
