@@ -27,11 +27,11 @@ from pathlib import Path
 from .. import outfile
 from ..errors import Message, UserError
 from ..outfile import OLD_DIR_SUFFIX, STALE_SECONDS, TEMP_DIR_SUFFIX, made_by_kitgen, write_error
+from .printfiles import FILE_NAMES
 
 KITS = "kits"
 MANIFEST = "manifest.csv"
-PRINT_FILES = ("print-paper.pdf", "print-card.pdf", "print-film.pdf")
-_OWN_NAMES = {KITS, MANIFEST, *PRINT_FILES}
+_OWN_NAMES = {KITS, MANIFEST, *FILE_NAMES.values()}
 
 
 def check_output_folder(folder: Path, inputs=()) -> None:

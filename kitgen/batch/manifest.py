@@ -8,12 +8,14 @@ Columns (RFC 4180 CSV, UTF-8, ``\\r\\n`` line ends as the RFC writes them):
   recipe gives them (the latitude in degrees, north positive);
 - ``copies``: how many times the kit is in the print files;
 - ``file``: its PDF under ``kits/`` (empty when it failed);
-- ``pages``, ``paper_pages``, ``card_pages``, ``film_pages``: page counts
-  of one copy, by the stock the kit's instructions print them on (plain
-  paper for the instructions themselves);
-- ``paper_print_pages``, ``card_print_pages``, ``film_print_pages``: where
-  its copies are in ``print-paper.pdf``, ``print-card.pdf`` and
-  ``print-film.pdf``, such as ``5-8 9-12``;
+- ``pages``, then ``paper_pages``, ``answers_pages``, ``duplex_pages``,
+  ``card_pages``, ``film_pages``: page counts of one copy, by the stock
+  the kit's own printing steps put them on
+  (kitgen.batch.printfiles.MATERIALS: the instructions on plain paper,
+  a worksheet's answer key for the teacher, a duplex mater's two sides);
+- ``paper_print_pages`` ... ``film_print_pages``: where its copies are in
+  the print file of that stock (``print-paper.pdf`` ...), such as
+  ``5-8 9-12``;
 - ``status``: ``ok``, or the one-line reason it was not built.
 
 A text cell that a spreadsheet would take for a formula (one starting
@@ -27,8 +29,8 @@ import io
 
 from .printfiles import MATERIALS
 
-COLUMNS = ("kit", "owner", "title", "place", "latitude", "language", "copies", "file", "pages", "paper_pages",
-           "card_pages", "film_pages", "paper_print_pages", "card_print_pages", "film_print_pages", "status")
+COLUMNS = ("kit", "owner", "title", "place", "latitude", "language", "copies", "file", "pages",
+           *(f"{m}_pages" for m in MATERIALS), *(f"{m}_print_pages" for m in MATERIALS), "status")
 STATUS_OK = "ok"
 
 

@@ -1,7 +1,8 @@
-"""The set's print files, one a stock: every kit's instruction pages (plain
-paper), every kit's card pages, every kit's film pages, in kit order,
-each kit as many times as its copies, each page stamped with the kit's
-number and owner (#12).
+"""The set's print files, one a stock (:data:`MATERIALS`): every kit's
+instruction pages (plain paper), then in files of their own the answer
+keys, the two-sided mater sheets, the card pages and the film pages, in
+kit order, each kit as many times as its copies, each page stamped with
+the kit's number and owner (#12).
 
 The files are written by hand (:mod:`kitgen.render.pdf_objects`): a
 page's objects are copied from its kit's PDF as they are, content and
@@ -25,10 +26,15 @@ from ..render.pdf_objects import Copier, Written
 from ..render.pdf_owner import OWNER_FORM, Layering, form_of
 from .stamp import STAMP_FORM, stamp_at
 
-#: The stocks a kit's pages are printed on, as its own instructions say
+#: The stocks a kit's pages are printed on, as its own printing steps say
 #: (kitgen.layout.instructions): the instructions on plain paper, the
-#: parts on card and on film; a print file for each, in this order.
-MATERIALS = ("paper", "card", "film")
+#: worksheet's answer key on plain paper for the teacher alone, the
+#: mater's two faces on the two sides of one sheet of card (``duplex``,
+#: each kit's pair front then back, so the file pairs them whatever the
+#: kits before), the other parts on card and on film: a print file each
+#: (:data:`FILE_NAMES`), written only when some kit has such pages.
+MATERIALS = ("paper", "answers", "duplex", "card", "film")
+FILE_NAMES = {m: f"print-{m}.pdf" for m in MATERIALS}
 
 
 @dataclass(frozen=True)

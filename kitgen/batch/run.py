@@ -25,7 +25,7 @@ from ..words.templates import available_languages, load_words
 from .folder import KITS, MANIFEST, check_output_folder, fresh_folder, write_file
 from .manifest import manifest_csv, manifest_row
 from .naming import kit_file_names
-from .printfiles import PrintedKit, PrintFiles
+from .printfiles import FILE_NAMES, PrintedKit, PrintFiles
 from .progress import progress
 from .setfile import load_set
 from .stamp import SchoolStamps
@@ -33,7 +33,6 @@ from .dispatch import dispatch
 from .shares import worker_shares
 from .work import KitJob, build_one, collect_rarely, rare_collections, warm
 
-PRINT_NAMES = {"paper": "print-paper.pdf", "card": "print-card.pdf", "film": "print-film.pdf"}
 #: Most worker processes one run may ask for.
 MAX_JOBS = 256
 
@@ -124,7 +123,7 @@ def _run(kit_set, out_dir: Path, pools: list, quiet: bool, stream, started: floa
                 bar.advance()
             _print_ready(printing, stamps, waiting, next_number, by_number, last=True)
             for material, data in printing.finish().items():
-                write_file(tmp / PRINT_NAMES[material], data)
+                write_file(tmp / FILE_NAMES[material], data)
             spans = printing.ranges
             rows = [manifest_row(k, names[k.number - 1], results.get(k.number), spans.get(k.number, {}),
                                  errors.get(k.number, "")) for k in kit_set.kits]

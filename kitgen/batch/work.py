@@ -25,6 +25,7 @@ from ..errors import Message, UserError, one_line, speaking
 from ..kit import build_kit, draw_plates, school_of
 from ..plan.resolve import plan_words
 from ..render import pdf_text
+from ..layout.instructions import answer_key_page
 from ..layout.pages import layout_kit
 from ..render.pdf import render_layers
 from ..sky import stars
@@ -56,8 +57,7 @@ class KitJob:
 @dataclass(frozen=True)
 class KitResult:
     """What a worker sends back: the kit's PDF, the material of each page
-    (``paper`` for the instructions, ``card`` or ``film``: the stocks the
-    kit's own instructions name, kitgen.batch.printfiles.MATERIALS), the sheet's
+    (:func:`page_stocks`), the sheet's
     margin (where the print files' stamp goes), or the reason it failed."""
 
     number: int
@@ -171,12 +171,20 @@ def _kit_pdf(recipe):
     kit = build_kit(recipe)
     pages = layout_kit(kit)   # as build_pdf does: the same bytes
     layers = render_layers(kit, pages)
-    materials = tuple(_STOCKS.get(p.kind, "card") for p in pages)
+    materials = page_stocks(kit, pages)
     return kit, layers, materials, pages[0].sheet.margin_mm
 
 
-#: The stock of a page of each kind (kitgen.layout.pages): what the kit's
-#: own printing instructions say it goes on.
+def page_stocks(kit, pages) -> tuple[str, ...]:
+    """The stock of each of the kit's pages (kitgen.batch.printfiles.MATERIALS),
+    as the kit's own printing steps name them (kitgen.layout.instructions):
+    the worksheet's answer key (for the teacher), the two sides of a
+    duplex mater, and otherwise by the page's kind."""
+    key = answer_key_page(kit, pages)
+    return tuple("answers" if p is key else "duplex" if p.duplex else _STOCKS.get(p.kind, "card") for p in pages)
+
+
+#: The stock of a page of each kind (kitgen.layout.pages).
 _STOCKS = {"instructions": "paper", "film": "film"}
 
 

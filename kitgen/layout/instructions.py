@@ -183,10 +183,10 @@ def story(kit, pages) -> list[Block]:
     out.append(Block("heading", w("instructions.print_heading")))
     # Which pages go on which stock, by the kit's own page numbers: the
     # instructions on plain paper, the parts on card and film (#9).
-    # A worksheet's answer key stands on the last instructions page, for
-    # the teacher only: it is left out of the pupils' pages.
-    plain = [p for p in pages if p.kind == "instructions"]
-    answers = plain.pop() if kit.plan.worksheet and len(plain) > 1 else None
+    # A worksheet's answer key, for the teacher only, is left out of the
+    # pupils' pages.
+    answers = answer_key_page(kit, pages)
+    plain = [p for p in pages if p.kind == "instructions" and p is not answers]
     for kind, key in (("instructions", "instructions.print_plain"), ("card", "instructions.print_card"),
                       ("film", "instructions.print_film")):
         n, listed = _page_list(w, plain if kind == "instructions" else pages, kind)
@@ -221,9 +221,18 @@ def story(kit, pages) -> list[Block]:
     if plate_fig is not None:   # the plate's lines named (#9)
         out.append(Block("figure", w("instructions.figure_plate"), figure=plate_fig))
     out += sunrise_blocks(kit) + star_blocks(kit)
-    out += worksheet_blocks(kit)
     out += accuracy_blocks(kit)
+    out += worksheet_blocks(kit)   # last: its answer key is the last page (answer_key_page)
     return out
+
+
+def answer_key_page(kit, pages):
+    """The page of ``pages`` that holds the worksheet's answer key, for the
+    teacher only, or None: the last instructions page, as the key's page
+    break puts it on a page of its own after everything else
+    (:func:`worksheet_blocks`, the story's last blocks)."""
+    plain = [p for p in pages if p.kind == "instructions"]
+    return plain[-1] if kit.plan.worksheet and len(plain) > 1 else None
 
 
 def _per_kit(make):
