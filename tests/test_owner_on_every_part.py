@@ -85,3 +85,25 @@ def test_a_name_with_no_room_is_named_in_the_notes():
     notes = [n for n in shortened_notes([part], kit.dims, kit.words) if n.key == "notes.plate_labels_left_out"]
     assert [m.values["text"] for m in notes[-1].values["labels"]][-1] == OWNER
     assert OWNER in notes[-1].text(kit.words)
+
+
+@pytest.mark.parametrize("lat, diameter, language", CASES + [(-45.0, 85, "en"), (35.0, 80, "ar"), (0.5, 90, "it")])
+def test_the_plates_name_does_not_lie_along_a_line(lat, diameter, language):
+    """A name set where a circle of the plate runs level (its lowest or
+    highest point, where the circle keeps within the name's height for
+    sqrt(2 r h) either side) lies along that line beside the line's own
+    name, and reads as it (common practice of map lettering: a name
+    stands clear of the lines it does not name)."""
+    kit = _kit(lat, diameter, language)
+    plate = next(p for p in kit.parts if p.kind == "plate")
+    for box in [labels.element_box_mm(e, kit.words) for e in plate.elements if e.role == "owner"]:
+        for e in plate.elements:
+            if e.shape not in ("circle", "arc") or e.stroke in ("none", "cut"):
+                continue
+            (cx, cy), r = e.geom["center"], e.geom["radius"]
+            for angle, y in ((90.0, cy + r), (270.0, cy - r)):
+                on_arc = e.shape == "circle" or \
+                    (angle - e.geom["start_deg"]) % 360.0 <= e.geom["end_deg"] - e.geom["start_deg"]
+                h = box[3] - box[1]   # within a name's height above or below it: along the name
+                assert not (on_arc and box[0] <= cx <= box[2] and box[1] - h <= y <= box[3] + h), \
+                    (e.role, lat, diameter)

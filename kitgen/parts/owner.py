@@ -93,7 +93,8 @@ def plate_slot(part: model.Part, ctx: PartContext) -> model.Part:
                 best = (sx, y, anchor, width, height)
                 break
     if best is None:
-        best = _free_row(lines[0].geom["at"][1], (bottom, top), height, taken, rim, (least, most))
+        best = _free_row(lines[0].geom["at"][1], (bottom, top), height, taken + _flat_stretches(part, height),
+                         rim, (least, most))
     if best is None:
         return part
     slot = _slot_box(best)
@@ -128,6 +129,24 @@ def _free_row(label_y: float, label_rows: tuple, height: float, taken: list, rim
     (x0, room), y = best
     width = min(room, most)
     return (min(max(x0, -width / 2), x0 + room - width), y, "start", width, height)
+
+
+def _flat_stretches(part: model.Part, height: float) -> list[tuple]:
+    """Boxes (mm) round the top and bottom of each circle and arc of the
+    plate, as far along as the curve keeps within ``height`` of its
+    extreme point (half width sqrt(2 r h)): a name set there would lie
+    along the line, beside its own name, and read as the line's name."""
+    out = []
+    for e in part.elements:
+        if e.shape not in ("circle", "arc") or e.stroke in ("none", "cut"):
+            continue
+        (cx, cy), r = e.geom["center"], e.geom["radius"]
+        half = math.sqrt(2.0 * r * height)
+        for angle, y in ((90.0, cy + r), (270.0, cy - r)):
+            if e.shape == "arc" and (angle - e.geom["start_deg"]) % 360.0 > e.geom["end_deg"] - e.geom["start_deg"]:
+                continue
+            out.append((cx - half, y - height, cx + half, y + height))
+    return out
 
 
 def _widest_gap(y: float, height: float, taken: list, rim: float):
