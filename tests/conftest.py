@@ -6,10 +6,10 @@ and can be reproduced, never that a new random draw found an old fault.
 Locally it draws afresh each run and keeps what it finds in .hypothesis/.
 """
 
-import os
-
 from hypothesis import settings
 
+from tests.ci import IN_CI
+
 settings.register_profile("ci", derandomize=True, database=None)
-if os.environ.get("CI", "").lower() in ("1", "true", "yes"):
+if IN_CI:
     settings.load_profile("ci")

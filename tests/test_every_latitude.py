@@ -35,7 +35,6 @@ equator, so at the equator's radius on the east-west line.
 from __future__ import annotations
 
 import math
-import os
 
 import erfa
 import numpy as np
@@ -52,6 +51,7 @@ from kitgen.parts.labels import MARGIN_MM
 from kitgen.recipe.load import validate_recipe
 from kitgen.recipe.schema import SHEETS
 from kitgen.words.measure import text_corners_mm
+from tests.ci import examples
 
 EPOCH = 2027
 
@@ -75,9 +75,6 @@ def _clamp(lat: float) -> float:
     return max(-90.0, min(90.0, lat))
 
 
-#: Fewer examples where CI runs (CI=true), derandomized (tests/conftest.py):
-#: a kit's labels take most of a second to place.
-IN_CI = os.environ.get("CI", "").lower() in ("1", "true", "yes")
 
 LATITUDES = st.one_of(
     st.floats(-90.0, 90.0, allow_nan=False),
@@ -407,7 +404,8 @@ def test_special_latitudes(lat):
     check_plate(kit)
 
 
-@settings(max_examples=20 if IN_CI else 50, deadline=None, suppress_health_check=[HealthCheck.too_slow])
+# fewer examples in CI (tests/ci.py): a kit's labels take most of a second to place
+@settings(max_examples=examples(50, 12), deadline=None, suppress_health_check=[HealthCheck.too_slow])
 @given(lat=LATITUDES, sheet=st.sampled_from(SHEETS))
 @example(lat=90.0, sheet="a4").via("the north pole")
 @example(lat=-90.0, sheet="letter").via("the south pole")
@@ -425,7 +423,7 @@ def test_every_latitude_every_sheet(lat, sheet):
     check_layout(kit)
 
 
-@settings(max_examples=10 if IN_CI else 25, deadline=None)
+@settings(max_examples=examples(25, 6), deadline=None)
 @given(lat=LATITUDES, alt_step=st.sampled_from([1.0, 7.5, 30.0]), az_step=st.sampled_from([5.0, 40.0, 90.0]),
        twilight=st.booleans(), unequal=st.booleans())
 def test_every_latitude_with_other_steps(lat, alt_step, az_step, twilight, unequal):

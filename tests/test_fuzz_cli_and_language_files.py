@@ -26,8 +26,9 @@ from hypothesis import strategies as st
 
 from kitgen.cli import main
 from kitgen.errors import EXIT_OK, EXIT_USER
+from tests.ci import examples
 
-FEW = settings(max_examples=12 if os.environ.get("CI") == "true" else 25, deadline=None,
+FEW = settings(max_examples=examples(25, 12), deadline=None,
                suppress_health_check=[HealthCheck.too_slow, HealthCheck.data_too_large])
 ENGLISH = yaml.safe_load(resources.files("kitgen.templates").joinpath("en.yaml").read_text(encoding="utf-8"))
 #: A small kit, quick to build: two parts.

@@ -25,6 +25,7 @@ from kitgen.recipe.load import load_recipe, parse_recipe_text
 from kitgen.recipe.schema import KEYS, KEYS_BY_NAME, Recipe
 from kitgen.sky.stars import named_stars
 from kitgen.words.templates import available_languages, load_words
+from tests.ci import examples
 
 from .test_every_latitude import check_all_finite_and_inside
 
@@ -36,10 +37,10 @@ ERROR_PREFIXES = tuple(load_words(code).template("errors.report").split("{messag
 SOURCE = "fuzz.yaml"
 
 
-def examples(n: int):
-    """Hypothesis settings for ``n`` examples, with no per-example deadline
-    (a build takes tens of milliseconds)."""
-    return settings(max_examples=n, deadline=None,
+def cases(local: int, ci: int):
+    """Hypothesis settings for ``local`` examples (``ci`` in CI, tests/ci.py),
+    with no per-example deadline (a build takes tens of milliseconds)."""
+    return settings(max_examples=examples(local, ci), deadline=None,
                     suppress_health_check=[HealthCheck.too_slow, HealthCheck.data_too_large,
                                            HealthCheck.function_scoped_fixture])
 
@@ -216,7 +217,7 @@ def load_text(text: str):
 
 # -- the loader: thousands -------------------------------------------------------------------
 
-@examples(800)
+@cases(800, 300)
 @given(tree=well_formed())
 def test_loader_accepts_every_well_formed_recipe(tree):
     try:
@@ -245,7 +246,7 @@ def test_loader_accepts_every_well_formed_recipe(tree):
             assert list(got) == value
 
 
-@examples(700)
+@cases(700, 250)
 @given(tree=malformed())
 def test_loader_malformed_recipes(tree):
     try:
@@ -255,13 +256,13 @@ def test_loader_malformed_recipes(tree):
     load_text(text)
 
 
-@examples(1000)
+@cases(1000, 400)
 @given(text=st.one_of(mutated_text(), st.text(max_size=200)))
 def test_loader_mutated_and_random_text(text):
     load_text(text)
 
 
-@examples(150)
+@cases(150, 80)
 @given(text=hostile_text())
 def test_loader_hostile_recipes_are_refused(text):
     """Hostile recipes never load: each is refused, the well-formed head
@@ -269,7 +270,7 @@ def test_loader_hostile_recipes_are_refused(text):
     assert load_text(text) is None
 
 
-@examples(150)
+@cases(150, 80)
 @given(data=st.one_of(st.binary(max_size=300), mutated_text().map(lambda t: t.encode("utf-8", "surrogatepass"))))
 def test_loader_bytes_from_a_file(tmp_path_factory, data):
     p = tmp_path_factory.mktemp("fuzz") / SOURCE
@@ -282,7 +283,7 @@ def test_loader_bytes_from_a_file(tmp_path_factory, data):
 
 # -- the builder: a few hundred --------------------------------------------------------------
 
-@examples(200)
+@cases(200, 30)
 @given(tree=well_formed())
 def test_builder_gives_a_valid_kit_or_a_clean_error(tree):
     try:
@@ -299,7 +300,7 @@ def test_builder_gives_a_valid_kit_or_a_clean_error(tree):
 
 # -- the command: nothing left behind --------------------------------------------------------
 
-@examples(12)
+@cases(12, 12)
 @given(text=st.one_of(well_formed().map(dump), mutated_text(), hostile_text()))
 def test_command_writes_a_pdf_or_nothing(tmp_path_factory, capsys, text):
     from kitgen.cli import main

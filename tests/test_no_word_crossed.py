@@ -37,6 +37,7 @@ from reportlab.pdfbase.ttfonts import TTFont as ReportlabTTFont
 from reportlab.pdfgen.canvas import Canvas
 
 from kitgen.words import fonts
+from tests.ci import examples
 
 from . import pdf_ink
 from .printed import PrintedKit
@@ -217,7 +218,7 @@ def test_no_character_is_crossed_on_these_kits(recipe):
     assert not found, f"{len(found)} crossed:\n" + "\n".join(map(str, found[:30]))
 
 
-@settings(max_examples=6, deadline=None, suppress_health_check=[HealthCheck.too_slow])
+@settings(max_examples=examples(6, 4), deadline=None, suppress_health_check=[HealthCheck.too_slow])
 @given(latitude=st.floats(-90.0, 90.0), diameter=st.one_of(st.none(), st.floats(80.0, 600.0)),
        sheet=st.sampled_from(SHEETS), language=st.sampled_from(LANGUAGES),
        site=st.sampled_from([None, (2.35, "Europe/Paris"), (-74.0, "America/New_York"),

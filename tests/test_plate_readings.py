@@ -35,6 +35,7 @@ from kitgen.words.locale import true_minus
 from kitgen.recipe.load import validate_recipe
 from kitgen.recipe.schema import SHEETS
 from kitgen.words.measure import text_corners_mm
+from tests.ci import examples
 
 EPOCH = 2027
 STROKES = ("circle", "arc", "segment", "polyline")
@@ -378,7 +379,7 @@ def test_every_language_numbers_and_names_its_plate_clear_of_the_lines(language,
                                                                    for k in ("north", "east", "south", "west")}
 
 
-@settings(max_examples=12, deadline=None, suppress_health_check=[HealthCheck.too_slow])
+@settings(max_examples=examples(12, 8), deadline=None, suppress_health_check=[HealthCheck.too_slow])
 @given(lat=st.floats(-90.0, 90.0), diameter=st.one_of(st.none(), st.floats(80.0, 600.0)),
        language=st.sampled_from(LANGUAGES), step=st.sampled_from([2.0, 5.0, 10.0]),
        sheet=st.sampled_from(SHEETS))

@@ -25,6 +25,7 @@ shapely = pytest.importorskip("shapely")
 from shapely.geometry import Polygon  # noqa: E402
 
 from tests.geos_lines import stroke_line  # noqa: E402
+from tests.ci import examples
 
 MARGIN_MM = 1e-3
 coord = st.floats(-40, 40)
@@ -60,7 +61,7 @@ def scenes(draw):
     return Places(centers, angles, draw(st.floats(0.05, 6)), draw(st.floats(0.05, 2))), els
 
 
-@settings(max_examples=300, deadline=None)
+@settings(max_examples=examples(300, 100), deadline=None)
 @given(scenes(), st.floats(0.0, 1.5))
 def test_arrays_agree_with_geos_and_meets(scene, grow_mm):
     places, els = scene
@@ -90,7 +91,7 @@ def test_arrays_agree_with_geos_and_meets(scene, grow_mm):
                 assert not line.intersects(Polygon(box.grown(-min(MARGIN_MM, box.half_h / 2)).corners()))
 
 
-@settings(max_examples=200, deadline=None)
+@settings(max_examples=examples(200, 60), deadline=None)
 @given(scenes(), st.floats(0.01, 1.5), st.floats(20, 60))
 def test_screen_gives_the_one_box_answers(scene, clear_mm, disc_mm):
     places, els = scene
