@@ -34,6 +34,7 @@ from ..geometry import model
 from ..geometry.simplify import simplified
 from ..kept import keep_last
 from ..words.locale import true_minus
+from .paragraphs import line_words
 
 #: Size (pt) of the names in the pictures: the instructions' smallest body
 #: size (kitgen.layout.paragraphs.MIN_BODY_PT), never smaller.
@@ -88,7 +89,7 @@ def name_lines(words, text: str, width_mm: float) -> list[str]:
     """``text`` broken at spaces into lines no wider than ``width_mm`` at
     :data:`FIGURE_PT` (a word wider than that stands alone)."""
     lines: list[str] = []
-    for word in text.split():
+    for word in line_words(text):
         trial = f"{lines[-1]} {word}" if lines else word
         if lines and words.measure(trial, FIGURE_PT).width_mm <= width_mm:
             lines[-1] = trial

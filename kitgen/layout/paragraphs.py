@@ -11,6 +11,7 @@ draws them.
 
 from __future__ import annotations
 
+import re
 from dataclasses import dataclass
 from functools import lru_cache
 from typing import Any
@@ -100,15 +101,27 @@ def wrap(text: str, width_limit_pt: float, size_pt: float, words, style: str) ->
     return list(_wrap(text, width_limit_pt, size_pt, words.script, words.rtl, style))
 
 
+#: Where a line may break: the ASCII spaces and line ends, never a NO-BREAK
+#: SPACE (U+00A0, line breaking class GL, Unicode Standard Annex #14), which
+#: keeps a number and its unit ("100 mm") on one line; Python's own
+#: ``str.split`` would break there.
+_BREAKS = re.compile(r"[ \t\n\r\f\v]+")
+
+
+def line_words(text: str) -> list[str]:
+    """The pieces of ``text`` between the places a line may break."""
+    return [w for w in _BREAKS.split(text) if w]
+
+
 #: Paragraphs kept wrapped: those of every shipped language at the sizes
 #: and widths a set's sheets give, a few megabytes.
 @lru_cache(maxsize=4096)
 def _wrap(text: str, width_limit_pt: float, size_pt: float, script: str, rtl: bool, style: str) -> tuple[str, ...]:
-    joined = " ".join(text.split())
+    joined = " ".join(line_words(text))
     advances = plain_advances(joined, script, style)
     if advances is not None:
         return tuple(_wrap_plain(joined, advances, width_limit_pt, size_pt))
-    words, lines, start, guess = text.split(), [], 0, 1
+    words, lines, start, guess = line_words(text), [], 0, 1
 
     def fits(end: int) -> bool:
         return line_width_em(" ".join(words[start:end]), script, style, rtl) * size_pt <= width_limit_pt
