@@ -250,6 +250,8 @@ def few(items, most: int = 4) -> list:
 def _visible(ch: str) -> str:
     if ch in "\t\n\r\v\f":
         return " "
+    if ch in _ISOLATES:
+        return ""
     cat = unicodedata.category(ch)
     # Control, surrogate, private-use and the bidirectional and other
     # format characters could reorder or hide what the terminal shows.
@@ -258,9 +260,17 @@ def _visible(ch: str) -> str:
     return ch
 
 
+#: The bidirectional isolates (LRI, RLI, FSI, PDI; UAX #9, 2.4), which the
+#: templates put round numbers in right-to-left words: they only group
+#: text for a bidi display and hide or reorder nothing outside the group,
+#: so a line drops them rather than showing them as codes.
+_ISOLATES = "\u2066\u2067\u2068\u2069"
+
+
 def one_line(message: str) -> str:
     """``message`` as one printable line: line breaks become spaces,
-    control and bidirectional characters are shown escaped, and the whole
+    control and bidirectional characters are shown escaped (the isolates
+    dropped), and the whole
     is cut to :data:`MAX_MESSAGE_CHARS`."""
     text = " ".join("".join(_visible(c) for c in str(message)).split())
     if len(text) > MAX_MESSAGE_CHARS:

@@ -476,3 +476,21 @@ def test_a_number_in_a_message_is_written_as_its_language_writes_numbers():
     arab = str.maketrans("0123456789", "".join(chr(0x660 + k) for k in range(10)))
     assert Number(1.5).text(load_words("ar", native_digits=True)) == format_decimal(
         1.5, format="0.0", locale="ar", numbering_system="arab").translate(arab)
+
+
+def test_a_notes_isolates_are_dropped_and_overrides_still_shown_escaped():
+    """An Arabic note quotes a twilight line's name, whose number the
+    template isolates (LRI ... PDI, Unicode Standard Annex #9, 2.4): the
+    terminal line shows the number, not the isolates as codes; a
+    right-to-left override (U+202E, which could reorder what follows) is
+    still shown escaped."""
+    from kitgen.errors import one_line
+    from kitgen.words.locale import true_minus
+    from kitgen.words.templates import load_words
+
+    w = load_words("ar")
+    name = w("plate.line_twilight", altitude=true_minus(w.number(-18)))
+    assert "\u2066" in name and "\u2069" in name
+    line = one_line(f"«{name}» \u202e")
+    assert "\\u2066" not in line and "\\u2069" not in line and "\u2066" not in line
+    assert "\u221218°" in line and line.endswith("\\u202e")
