@@ -21,6 +21,8 @@ strings of every shipped language:
 
 from __future__ import annotations
 
+import re
+
 import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
@@ -107,9 +109,11 @@ def test_not_plain():
 
 def _first_fit(text, limit_pt, size_pt, words, style):
     """The reference: the first fit, one word at a time, each trial line
-    set whole."""
+    set whole; a line breaks only at an ordinary space, never at a
+    NO-BREAK SPACE (Unicode Standard Annex #14: U+00A0 is of class GL,
+    rule LB12)."""
     lines, current = [], ""
-    for word in text.split():
+    for word in re.split(r"[ \t\n\r\f\v]+", text.strip(" \t\n\r\f\v")):
         trial = f"{current} {word}" if current else word
         if current and line_width_em(trial, words.script, style, words.rtl) * size_pt > limit_pt:
             lines.append(current)
