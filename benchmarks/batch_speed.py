@@ -19,8 +19,9 @@ schools, ten pupils each at 40 kits), or ``--set SET.yaml`` to measure a
 set of one's own (its kits with errors left out).  Each command runs
 three times, taking turns with the one it is measured against, and its
 least disturbed run counts (the least CPU time for (a) and (b), the
-least wall time for (c)), kitgen's and the floor's alike.  It prints each measure as a figure and a ratio beside its
-target, and exits 0 when all are met.  Targets are checked here, never in
+least wall time for (c)), kitgen's and the floor's alike.  It prints
+each measure as a figure and a ratio beside its target, and exits 0
+when all are met.  Targets are checked here, never in
 a timed test.
 """
 

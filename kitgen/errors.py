@@ -270,8 +270,7 @@ _ISOLATES = "\u2066\u2067\u2068\u2069"
 def one_line(message: str) -> str:
     """``message`` as one printable line: line breaks become spaces,
     control and bidirectional characters are shown escaped (the isolates
-    dropped), and the whole
-    is cut to :data:`MAX_MESSAGE_CHARS`."""
+    dropped), and the whole is cut to :data:`MAX_MESSAGE_CHARS`."""
     text = " ".join("".join(_visible(c) for c in str(message)).split())
     if len(text) > MAX_MESSAGE_CHARS:
         text = text[: MAX_MESSAGE_CHARS - 3] + "..."

@@ -23,3 +23,15 @@ def keep_last(store: dict, key, value, most: int):
         del store[next(iter(store))]
     store[key] = value
     return value
+
+
+def kept_for(store: dict, obj, make, most: int):
+    """``make()``, kept in ``store`` for the object ``obj`` by its identity
+    (:func:`keep_last`, at most ``most``): the kept value while that very
+    object is the one kept under its ``id`` (a freed object's id may be
+    reused by another), else made and kept.  The store holds ``obj``
+    itself, so its id stays its own while kept."""
+    hit = store.get(id(obj))
+    if hit is not None and hit[0] is obj:
+        return hit[1]
+    return keep_last(store, id(obj), (obj, make()), most)[1]

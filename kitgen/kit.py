@@ -15,7 +15,7 @@ from .check.accuracy import Accuracy, check_kit
 from .check.reading import READING_PARTS
 from .errors import Message, UserError
 from .geometry.model import Part
-from .kept import keep_last
+from .kept import keep_last, kept_for
 from .parts import PART_BUILDERS
 from .parts.clock_scale import clock_ring_notes
 from .parts.context import PartContext
@@ -122,9 +122,11 @@ def _named_base(base: "_Nameless", plan: Plan) -> Kit:
     named kit but the name's own (role ``owner``) and the lines drawn
     again beside it (``beside_owner``).  Kept for the last few
     nameless kits (by identity), so a school's pupils share it."""
-    kept = _NAMED_BASE.get(id(base))
-    if kept is not None and kept[0] is base:
-        return kept[1]
+    return kept_for(_NAMED_BASE, base, lambda: _with_room(base, plan), 4)
+
+
+def _with_room(base: "_Nameless", plan: Plan) -> Kit:
+    """:func:`_named_base`, made."""
     stand_in = replace(plan, owner=_ANY_OWNER)
     parts = []
     for part in base.kit.parts:
@@ -137,9 +139,7 @@ def _named_base(base: "_Nameless", plan: Plan) -> Kit:
             drawn = PART_BUILDERS[part.kind](PartContext(stand_in, base.kit.dims, base.scales[""]))
             drawn = replace(drawn, elements=tuple(e for e in drawn.elements if e.role != "owner"))
             parts.append(replace(on_material(drawn, stand_in), id=part.id))
-    kit = replace(base.kit, parts=tuple(parts))
-    keep_last(_NAMED_BASE, id(base), (base, kit), 4)
-    return kit
+    return replace(base.kit, parts=tuple(parts))
 
 
 @dataclass(frozen=True)

@@ -63,3 +63,26 @@ def test_no_module_evicts_by_hand():
              for path in sorted(PACKAGE.rglob("*.py")) if path.name != "kept.py"
              for node in ast.walk(ast.parse(path.read_text(encoding="utf-8"))) if _evicts_by_hand(node)]
     assert not found, f"evicted by hand, not through kitgen.kept.keep_last: {found}"
+
+
+def test_kept_for_makes_once_per_object_and_never_serves_a_stranger():
+    """``kept_for`` keys by ``id``, which is unique only among objects that
+    exist at the same time (The Python Language Reference, 3.1, "Objects,
+    values and types"): an entry left by another object under the same id
+    is never served, and the same object is made for once."""
+    from kitgen.kept import kept_for
+
+    made, store, obj = [], {}, object()
+
+    def make():
+        made.append(1)
+        return len(made)
+
+    assert kept_for(store, obj, make, 4) == 1
+    assert kept_for(store, obj, make, 4) == 1 and len(made) == 1
+    store[id(obj)] = (object(), "a stranger's")   # as if a freed object's id were reused
+    assert kept_for(store, obj, make, 4) == 2
+    others = [object() for _ in range(4)]
+    for other in others:
+        kept_for(store, other, make, 4)
+    assert id(obj) not in store and len(store) == 4   # the oldest let go

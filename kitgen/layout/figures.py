@@ -413,7 +413,8 @@ def _plate_names(kit, lines) -> list[tuple[str, dict, str]]:
         out.append(("tropic", {"declination_deg": dec}, w(key)))
     for alt in kit.plan.drawing.twilight_deg:
         if ("twilight", alt) in have:
-            out.append(("twilight", {"altitude_deg": alt}, w("plate.line_twilight", altitude=true_minus(w.number(alt)))))
+            name = w("plate.line_twilight", altitude=true_minus(w.number(alt)))
+            out.append(("twilight", {"altitude_deg": alt}, name))
     if "unequal_hour" in roles:
         out.append(("unequal_hour", {}, w("instructions.figure_unequal_hours")))
     if "zenith" in roles:

@@ -10,7 +10,7 @@ from __future__ import annotations
 import functools
 
 from ..check.report import report_lines
-from ..kept import keep_last
+from ..kept import kept_for
 from ..parts.clock_scale import signed
 from ..parts.format import latitude_text
 from ..parts.plate import keyed
@@ -244,10 +244,7 @@ def _per_kit(make):
 
     @functools.wraps(make)
     def made(kit) -> list[Block]:
-        hit = kept.get(id(kit))
-        if hit is None or hit[0] is not kit:
-            hit = keep_last(kept, id(kit), (kit, tuple(make(kit))), 4)
-        return list(hit[1])
+        return list(kept_for(kept, kit, lambda: tuple(make(kit)), 4))
     return made
 
 

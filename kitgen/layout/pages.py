@@ -30,7 +30,7 @@ from itertools import product
 
 from ..errors import UserError
 from ..geometry.model import Part
-from ..kept import keep_last
+from ..kept import kept_for
 from .instructions import story
 from .packing import Box, Packer, extent, place
 from ..paper import CHECK_BAR_MM, GAP_MM, PT_PER_MM, TITLE_BAND_MM, Sheet, content_area_mm, page_size_mm, sheet_words
@@ -437,12 +437,7 @@ _NAMELESS_PAGES: dict[int, tuple] = {}
 
 
 def _nameless_pages(nameless) -> tuple[Page, ...]:
-    kept = _NAMELESS_PAGES.get(id(nameless))
-    if kept is not None and kept[0] is nameless:
-        return kept[1]
-    pages = layout_kit(nameless)
-    keep_last(_NAMELESS_PAGES, id(nameless), (nameless, pages), 4)
-    return pages
+    return kept_for(_NAMELESS_PAGES, nameless, lambda: layout_kit(nameless), 4)
 
 
 def shared_pages(kit, pages) -> tuple[Page, ...] | None:

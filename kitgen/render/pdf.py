@@ -22,7 +22,7 @@ from reportlab.pdfgen.canvas import Canvas
 from reportlab.pdfgen.pdfgeom import bezierArc
 
 from ..geometry import style
-from ..kept import keep_last
+from ..kept import kept_for
 from ..layout.bounds import element_box_mm, meets, turn_box
 from ..layout.instructions import kit_latitudes, kit_line, kit_title
 from ..layout.pages import TITLE_PT, Page, check_bar_mm, layout_kit, shared_pages
@@ -495,12 +495,7 @@ _SHARED_PDFS: dict[int, tuple] = {}
 
 
 def _shared_pdf(nameless, pages) -> bytes:
-    kept = _SHARED_PDFS.get(id(nameless))
-    if kept is not None and kept[0] is nameless:
-        return kept[1]
-    pdf = _render(nameless, pages)
-    keep_last(_SHARED_PDFS, id(nameless), (nameless, pdf), 4)
-    return pdf
+    return kept_for(_SHARED_PDFS, nameless, lambda: _render(nameless, pages), 4)
 
 
 def _render(kit, pages) -> bytes:

@@ -21,7 +21,7 @@ from dataclasses import dataclass, replace
 
 from reportlab.lib.units import mm
 
-from ..kept import keep_last
+from ..kept import kept_for
 from . import pdf_objects, pdf_text
 from .pdf_canvas import new_canvas
 
@@ -138,10 +138,7 @@ _WRITTEN: dict[int, tuple] = {}
 
 
 def _written(pdf: bytes) -> pdf_objects.Written:
-    kept = _WRITTEN.get(id(pdf))
-    if kept is not None and kept[0] is pdf:
-        return kept[1]
-    return keep_last(_WRITTEN, id(pdf), (pdf, pdf_objects.Written(pdf)), 4)[1]
+    return kept_for(_WRITTEN, pdf, lambda: pdf_objects.Written(pdf), 4)
 
 
 def form_of(copier: pdf_objects.Copier, page: int) -> int:
