@@ -1,5 +1,3 @@
-import sys
+from .start import program
 
-from .start import run
-
-sys.exit(run())
+program()

@@ -1,12 +1,43 @@
 """The ``kitgen`` program's entry point: the signal handlers go in before
 anything else is imported, so that Ctrl-C or a hang-up in the first
-moments ends the run in one line, as it does later (:mod:`kitgen.interrupt`)."""
+moments ends the run in one line, as it does later (:mod:`kitgen.interrupt`);
+and once the command has finished, the process ends without taking its
+heap apart (:func:`program`)."""
 
 from __future__ import annotations
 
+import atexit
+import os
 import sys
+import threading
 
 from . import interrupt
+
+
+def program() -> None:
+    """The ``kitgen`` program: :func:`run`, then :func:`end` with its status."""
+    end(run())
+
+
+def end(status: int) -> None:
+    """End the process with ``status`` once the command is done: the
+    standard streams flushed and the exit handlers run (``atexit``: the
+    worker pools', the temporary folders' finalizers), then ``os._exit``,
+    which leaves out the interpreter's teardown of every module and
+    object.  A class set's process held 100 to 150 MB of small objects,
+    and freeing them one by one took 0.15 to 0.25 s after the last file
+    was written.  With a thread of the command's still running, or a
+    stream that cannot be flushed, the ordinary exit does it all."""
+    try:
+        for stream in (sys.stdout, sys.stderr):
+            if stream is not None:
+                stream.flush()
+    except (OSError, ValueError):
+        sys.exit(status)
+    if threading.active_count() > 1:
+        sys.exit(status)
+    atexit._run_exitfuncs()
+    os._exit(status)
 
 
 def run() -> int:
