@@ -9,7 +9,9 @@ program that writes these kits as PDF must at least spend.  Measured:
     drawing the same kit;
 (b) a set of N kits (default 100) built by ``kitgen batch --jobs 1``
     against one floor process drawing the same N geometries;
-(c) the same set with one and with two workers;
+(c) the same set with one and with two workers, beside its ceiling on
+    this machine: one one-worker build alone against two at once, which
+    no number of workers can better (cores that slow each other down);
 (d) bytes of a kit's PDF in every shipped language;
 (e) peak resident memory of a worker.
 
@@ -96,6 +98,19 @@ def _run(args, **kw) -> Timing:
 #: time), the run least disturbed by the rest of the machine, for kitgen
 #: and the floor alike.
 RUNS = 3
+
+
+def _run_pair(first, second) -> Timing:
+    """Wall-clock seconds of the commands ``first`` and ``second`` started
+    together, until both have ended (:func:`_run`'s environment)."""
+    env = dict(os.environ, PYTHONPATH=str(ROOT))
+    t = time.perf_counter()
+    children = [subprocess.Popen([sys.executable, *args], env=env, stdout=subprocess.DEVNULL,
+                                 stderr=subprocess.DEVNULL) for args in (first, second)]
+    for child in children:
+        if child.wait():
+            raise subprocess.CalledProcessError(child.returncode, child.args)
+    return Timing(time.perf_counter() - t)
 
 
 def _best(first, second, key: str) -> tuple[Timing, Timing]:
@@ -209,6 +224,18 @@ def floor(paths, out_folder) -> None:
 
 # -- the measures -----------------------------------------------------------------------
 
+def _ceiling(one, other) -> tuple[Timing, Timing]:
+    """What two cores of this machine give this work at most: the
+    one-worker build ``one`` alone, and two one-worker builds (``one``
+    and ``other``, the same set into another folder) at once, each the
+    least wall time of :data:`RUNS` runs, taking turns.  Two workers can
+    be at most 2 x alone / together faster than one: on a machine whose
+    two cores slow each other down (shared caches, a host's other
+    guests), less than 2."""
+    runs = [(_run(one), _run_pair(one, other)) for _ in range(RUNS)]
+    return min(a for a, _ in runs), min(b for _, b in runs)
+
+
 def measure(set_path: Path, work: Path) -> dict:
     """The five measures of the set at ``set_path`` (a set file, as
     ``kitgen batch`` takes), working in the folder ``work``."""
@@ -229,6 +256,8 @@ def measure(set_path: Path, work: Path) -> dict:
 
     out["b"] = _best(batch(1), [*floor_cmd, *map(str, geometries)], "cpu")
     out["c"] = _best(batch(1), batch(2), "wall")
+    out["ceiling"] = _ceiling(batch(1), ["-m", "kitgen", "batch", str(set_path), "-o", str(work / "out-1b"),
+                                         "--jobs", "1", "--quiet"])
 
     sizes: dict[str, list[float]] = {}
     with open(work / "out-1" / "manifest.csv", newline="", encoding="utf-8") as fh:
@@ -261,6 +290,9 @@ def report(m: dict) -> bool:
          f"{s1.cpu / fa.cpu:.2f}x", s1.cpu / fa.cpu)
     s1, s2 = m["c"]
     line("c", f"{n} kits, 1 worker vs 2 workers", f"wall {s1:.1f} s vs {s2:.1f} s", f"{s1 / s2:.2f}x", s1 / s2)
+    alone, both = m["ceiling"]
+    print(f"    (c)'s ceiling on this machine: {'one-worker builds, one alone vs two at once':<44} "
+          f"{f'wall {alone:.1f} s vs {both:.1f} s':<44} {2 * alone / both:.2f}x  (2 x alone / together)")
     for code, kib in m["d"].items():
         line("d", f"bytes per kit, {code} (largest)", f"{kib:.0f} KB", "", kib)
     line("e", "peak memory of a worker", f"{m['e']:.0f} MB", "", m["e"])
