@@ -10,8 +10,11 @@ A set is a mapping with up to three keys::
 The roster is UTF-8 CSV with a header whose columns are recipe keys (and
 ``copies``), separated by commas, or by semicolons or tabs as spreadsheets
 write them where the comma is the decimal sign; an empty cell takes the
-default.  Kits are numbered in the
-order they come: the ``kits`` list first, then the roster's rows.
+default.  The keys that say where a kit is for (place, latitude,
+longitude, time zone, plates) go as one: a kit that gives any of them
+takes none of them from the defaults (:data:`SITE_KEYS`).  Kits are
+numbered in the order they come: the ``kits`` list first, then the
+roster's rows.
 
 The set file is read as a recipe is (:func:`kitgen.recipe.load.read_text_file`
 and :func:`~kitgen.recipe.load.safe_yaml`: bounded, safe loader, no
@@ -123,15 +126,26 @@ def load_set(path) -> KitSet:
     return KitSet(path, kits, language, inputs)
 
 
+#: The keys that say where a kit is for.  A kit that gives any of them
+#: takes none of them from the defaults: a row's own town is looked up,
+#: never printed beside the defaults' latitude, and its clock correction
+#: never takes the defaults' longitude or time zone; a kit's ``plates``
+#: replace the defaults' ``latitude``, and its ``latitude`` their ``plates``.
+SITE_KEYS = ("place", "latitude", "longitude", "timezone", "plates")
+
+
 def _set_kit(number: int, where: Message, item, defaults: dict, base: Path) -> SetKit:
-    """Merge one kit's keys over the defaults and validate the recipe;
-    a mistake becomes the kit's own error."""
+    """Merge one kit's keys over the defaults (the :data:`SITE_KEYS` as
+    one) and validate the recipe; a mistake becomes the kit's own error."""
     if isinstance(item, _RowError):
         return SetKit(number, where, {}, 1, error=item.error)
     if not isinstance(item, dict):
         return SetKit(number, where, {}, 1, error=UserError("errors.set_kit_not_mapping", where=where))
     item = _absolute_language_file(item, base)
-    tree = {**defaults, **{k: v for k, v in item.items() if k != "copies"}}
+    own = {k: v for k, v in item.items() if k != "copies"}
+    if any(name in own for name in SITE_KEYS):
+        defaults = {k: v for k, v in defaults.items() if k not in SITE_KEYS}
+    tree = {**defaults, **own}
     try:
         copies = _copies(item.get("copies", 1), where)
         return SetKit(number, where, tree, copies, recipe=validate_recipe(dict(tree), where))
