@@ -90,3 +90,28 @@ def test_duplex_sides_pair_in_their_own_file(built):
     card = _texts(out / "print-card.pdf")
     assert int(rows[1]["card_pages"]) == len(kit) - int(rows[1]["paper_pages"]) - 2 - int(rows[1]["film_pages"])
     assert sum(int(r["card_pages"]) * int(r["copies"]) for r in rows) == len(card)
+
+
+def test_one_answer_key_a_school(tmp_path):
+    """Three pupils of one school (one with two copies) and a kit of
+    another: the teacher's file holds each school's key once, without a
+    pupil's name, and every kit's manifest row names its school's key."""
+    school = {**DEFAULTS, "worksheet": True}
+    kits = [{"owner": "Ada Brookfield"}, {"owner": "Rui Amendoeira", "copies": 2},
+            {"owner": "Mirela Tavira", "latitude": -33.9}, {"owner": "Teodora Valcorvo"}]
+    (tmp_path / "set.yaml").write_text(yaml.safe_dump({"defaults": school, "kits": kits}), encoding="utf-8")
+    assert main(["batch", str(tmp_path / "set.yaml"), "-o", str(tmp_path / "out"), "--jobs", "1", "--quiet"]) == 0
+    with open(tmp_path / "out" / "manifest.csv", newline="", encoding="utf-8") as fh:
+        rows = list(csv.DictReader(fh))
+    answers = _texts(tmp_path / "out" / "print-answers.pdf")
+    assert len(answers) == 2 and all(_key_heading() in t for t in answers)
+    assert [r["answers_print_pages"] for r in rows] == ["1-1", "1-1", "2-2", "1-1"]
+    for row in rows:   # each pupil's own key page is the one printed (its content stream, read by pypdf)
+        own = pypdf.PdfReader(tmp_path / "out" / row["file"]).pages
+        key = next(p for p in own if _key_heading() in p.extract_text())
+        printed = pypdf.PdfReader(tmp_path / "out" / "print-answers.pdf").pages[
+            int(row["answers_print_pages"].split("-")[0]) - 1]
+        assert key.get_contents().get_data() in printed.get_contents().get_data()
+    # no pupil's name but the stamp's (the school's first kit, which the key was taken from)
+    assert not any(k["owner"] in answers[0] for k in kits[1:])
+    assert not any(k["owner"] in answers[1] for k in kits[:2] + kits[3:])

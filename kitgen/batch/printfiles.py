@@ -1,8 +1,8 @@
 """The set's print files, one a stock (:data:`MATERIALS`): every kit's
 instruction pages (plain paper), then in files of their own the answer
-keys, the two-sided mater sheets, the card pages and the film pages, in
-kit order, each kit as many times as its copies, each page stamped with
-the kit's number and owner (#12).
+keys (one a school: :data:`ONCE_A_SCHOOL`), the two-sided mater sheets,
+the card pages and the film pages, in kit order, each kit as many times
+as its copies, each page stamped with the kit's number and owner (#12).
 
 The files are written by hand (:mod:`kitgen.render.pdf_objects`): a
 page's objects are copied from its kit's PDF as they are, content and
@@ -35,6 +35,13 @@ from .stamp import STAMP_FORM, stamp_at
 #: (:data:`FILE_NAMES`), written only when some kit has such pages.
 MATERIALS = ("paper", "answers", "duplex", "card", "film")
 FILE_NAMES = {m: f"print-{m}.pdf" for m in MATERIALS}
+
+#: Stocks printed once for kits the same but for their owner (a
+#: school's pupils), whatever their copies: the teacher needs one answer
+#: key for a class, not one a pupil.  The key is printed without a
+#: pupil's name, and each of the school's kits names its pages in the
+#: manifest.
+ONCE_A_SCHOOL = ("answers",)
 
 
 @dataclass(frozen=True)
@@ -77,14 +84,20 @@ class PrintFiles:
             if not chosen:
                 continue
             file = self.files[material]
+            once = material in ONCE_A_SCHOOL
+            if once:
+                printed = file.printed.get((kit.shared or kit.pdf, tuple(chosen)))
+                if printed is not None:
+                    spans[material] = list(printed)
+                    continue
             pages = file.shared(kit.shared) if kit.shared else Copier(Written(kit.pdf), file.out)
             stamp = file.shared(kit.stamp)
             form = form_of(stamp, stamp.source.pages()[kit.stamp_page])
             width_pt = _media_box(stamp.source.head(stamp.source.pages()[kit.stamp_page]))[2]
             names = Copier(Written(kit.overlay), file.out) if kit.overlay else None
             owner_forms = {i: form_of(names, names.source.pages()[k])
-                           for k, i in enumerate(kit.owner_pages) if i in chosen}
-            for _ in range(kit.copies):
+                           for k, i in enumerate(kit.owner_pages) if i in chosen and not once}
+            for _ in range(1 if once else kit.copies):
                 first = len(file.pages) + 1
                 for i in chosen:
                     number = pages.source.pages()[i]
@@ -92,6 +105,8 @@ class PrintFiles:
                     forms = [(OWNER_FORM, owner_forms[i], None)] if i in owner_forms else []
                     file.page(pages, number, forms + [(STAMP_FORM, form, at)])
                 spans[material].append((first, len(file.pages)))
+            if once:
+                file.printed[(kit.shared or kit.pdf, tuple(chosen))] = tuple(spans[material])
 
     def finish(self) -> dict[str, bytes]:
         """``{material: pdf bytes}`` for each material that has pages."""
@@ -108,6 +123,9 @@ class _File:
         self.layering = Layering(self.out)
         self.pages: list[int] = []
         self._shared: dict[bytes, Copier] = {}
+        #: {(the kit's shared or own PDF, its pages here): their spans}
+        #: for the stocks printed once a school (:data:`ONCE_A_SCHOOL`).
+        self.printed: dict[tuple, tuple] = {}
 
     def shared(self, pdf: bytes) -> Copier:
         """The copier of a PDF a school's kits share (its shared pages, its
