@@ -11,7 +11,7 @@ program that writes these kits as PDF must at least spend.  Measured:
     against one floor process drawing the same N geometries;
 (c) the same set with one and with two workers, beside its ceiling on
     this machine: one one-worker build alone against two at once, which
-    no number of workers can better (cores that slow each other down);
+    two workers cannot better (cores that slow each other down);
 (d) bytes of a kit's PDF in every shipped language;
 (e) peak resident memory of a worker.
 
@@ -19,7 +19,7 @@ Run: ``python3 benchmarks/batch_speed.py [--kits N] [--schools S]``
 (``--kits 10`` for a quick look; ``--schools 4`` for a roster of four
 schools, ten pupils each at 40 kits), or ``--set SET.yaml`` to measure a
 set of one's own (its kits with errors left out).  Each command runs
-three times, taking turns with the one it is measured against, and its
+five times, taking turns with the one it is measured against, and its
 least disturbed run counts (the least CPU time for (a) and (b), the
 least wall time for (c)), kitgen's and the floor's alike.  It prints
 each measure as a figure and a ratio beside its target, and exits 0
@@ -97,7 +97,7 @@ def _run(args, **kw) -> Timing:
 #: Runs of each command; each measure takes the best (least CPU or wall
 #: time), the run least disturbed by the rest of the machine, for kitgen
 #: and the floor alike.
-RUNS = 3
+RUNS = 5
 
 
 def _run_pair(first, second) -> Timing:
