@@ -10,8 +10,8 @@ program that writes these kits as PDF must at least spend.  Measured:
 (b) a set of N kits (default 100) built by ``kitgen batch --jobs 1``
     against one floor process drawing the same N geometries;
 (c) the same set with one and with two workers, beside its ceiling on
-    this machine: one one-worker build alone against two at once, which
-    two workers cannot better (cores that slow each other down);
+    this machine: one one-worker build alone against two at once, about
+    the most two workers can gain here (cores that slow each other down);
 (d) bytes of a kit's PDF in every shipped language;
 (e) peak resident memory of a worker.
 
@@ -107,10 +107,12 @@ def _run_pair(first, second) -> Timing:
     t = time.perf_counter()
     children = [subprocess.Popen([sys.executable, *args], env=env, stdout=subprocess.DEVNULL,
                                  stderr=subprocess.DEVNULL) for args in (first, second)]
-    for child in children:
-        if child.wait():
-            raise subprocess.CalledProcessError(child.returncode, child.args)
-    return Timing(time.perf_counter() - t)
+    codes = [child.wait() for child in children]
+    wall = Timing(time.perf_counter() - t)
+    for child, code in zip(children, codes):
+        if code:
+            raise subprocess.CalledProcessError(code, child.args)
+    return wall
 
 
 def _best(first, second, key: str) -> tuple[Timing, Timing]:
@@ -229,9 +231,10 @@ def _ceiling(one, other) -> tuple[Timing, Timing]:
     one-worker build ``one`` alone, and two one-worker builds (``one``
     and ``other``, the same set into another folder) at once, each the
     least wall time of :data:`RUNS` runs, taking turns.  Two workers can
-    be at most 2 x alone / together faster than one: on a machine whose
-    two cores slow each other down (shared caches, a host's other
-    guests), less than 2."""
+    be about 2 x alone / together faster than one at most (they share
+    the pages their parent imported, which two separate builds do not):
+    on a machine whose two cores slow each other down (shared caches, a
+    host's other guests), less than 2."""
     runs = [(_run(one), _run_pair(one, other)) for _ in range(RUNS)]
     return min(a for a, _ in runs), min(b for _, b in runs)
 

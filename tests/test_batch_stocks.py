@@ -95,7 +95,8 @@ def test_duplex_sides_pair_in_their_own_file(built):
 def test_one_answer_key_a_school(tmp_path):
     """Three pupils of one school (one with two copies) and a kit of
     another: the teacher's file holds each school's key once, without a
-    pupil's name, and every kit's manifest row names its school's key."""
+    pupil's name or a kit's stamp, and every kit's manifest row names its
+    school's key."""
     school = {**DEFAULTS, "worksheet": True}
     kits = [{"owner": "Ada Brookfield"}, {"owner": "Rui Amendoeira", "copies": 2},
             {"owner": "Mirela Tavira", "latitude": -33.9}, {"owner": "Teodora Valcorvo"}]
@@ -112,6 +113,7 @@ def test_one_answer_key_a_school(tmp_path):
         printed = pypdf.PdfReader(tmp_path / "out" / "print-answers.pdf").pages[
             int(row["answers_print_pages"].split("-")[0]) - 1]
         assert key.get_contents().get_data() in printed.get_contents().get_data()
-    # no pupil's name but the stamp's (the school's first kit, which the key was taken from)
-    assert not any(k["owner"] in answers[0] for k in kits[1:])
-    assert not any(k["owner"] in answers[1] for k in kits[:2] + kits[3:])
+    # no pupil's name, no kit's stamp: the key's heading names the place and year
+    assert not any(k["owner"] in t for t in answers for k in kits)
+    stamp = load_words("en").template("batch.stamp").split("{")[0]
+    assert not any(stamp in t for t in answers)

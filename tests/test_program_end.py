@@ -10,28 +10,32 @@ that ends must behave as if it had ended normally.
 
 from __future__ import annotations
 
+import os
 import subprocess
 import sys
 import textwrap
 
 
 def _run(code: str) -> subprocess.CompletedProcess:
+    """Run ``code`` in a child whose output to the pipes is buffered, as
+    Python buffers it by default (``PYTHONUNBUFFERED`` unset)."""
+    env = {k: v for k, v in os.environ.items() if k != "PYTHONUNBUFFERED"}
     return subprocess.run([sys.executable, "-c", textwrap.dedent(code)], capture_output=True, text=True,
-                          timeout=60)
+                          timeout=60, env=env)
 
 
 def test_status_output_and_exit_handlers_kept():
     done = _run("""
         import atexit, sys
         from kitgen.start import end
-        atexit.register(lambda: print("handler ran"))
+        atexit.register(lambda: print("handler ran", end=""))   # buffered, written at the end
         print("written before the end", end="")   # no newline: still buffered
         sys.stderr.write("said on stderr")
         end(3)
         print("never")
     """)
     assert done.returncode == 3
-    assert done.stdout == "written before the end" + "handler ran\n"
+    assert done.stdout == "written before the end" + "handler ran"
     assert done.stderr == "said on stderr"
 
 

