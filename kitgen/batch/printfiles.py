@@ -61,6 +61,9 @@ class PrintedKit:
     owner_pages: tuple[int, ...] = ()
     overlay: bytes = b""
     stamp_page: int = 0     # the kit's own stamp's page in ``stamp``
+    #: The kit's school (kitgen.kit.school_of: its recipe but for the
+    #: owner), for the stocks printed once a school; None: told by its PDF.
+    school: object = None
 
 
 class PrintFiles:
@@ -87,7 +90,7 @@ class PrintFiles:
             file = self.files[material]
             once = material in ONCE_A_SCHOOL
             if once:
-                key = (hashlib.sha256(kit.shared or kit.pdf).digest(), tuple(chosen))
+                key = kit.school if kit.school is not None else (hashlib.sha256(kit.pdf).digest(), tuple(chosen))
                 printed = file.printed.get(key)
                 if printed is not None:
                     spans[material] = list(printed)
@@ -125,8 +128,8 @@ class _File:
         self.layering = Layering(self.out)
         self.pages: list[int] = []
         self._shared: dict[bytes, Copier] = {}
-        #: {(the SHA-256 of the kit's shared or own PDF, its pages here):
-        #: their spans} for the stocks printed once a school
+        #: {a kit's school (or the SHA-256 of its PDF and its pages here):
+        #: the spans of its pages} for the stocks printed once a school
         #: (:data:`ONCE_A_SCHOOL`).
         self.printed: dict[tuple, tuple] = {}
 

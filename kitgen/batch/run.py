@@ -21,6 +21,7 @@ from dataclasses import dataclass, replace
 from pathlib import Path
 
 from ..errors import EXIT_INTERNAL, EXIT_OK, EXIT_USER, Message, one_line
+from ..kit import school_of
 from ..words.templates import available_languages, load_words
 from .folder import KITS, MANIFEST, check_output_folder, fresh_folder, write_file
 from .manifest import manifest_csv, manifest_row
@@ -147,7 +148,8 @@ def _print_ready(printing, stamps, waiting: dict, next_number: int, by_number: d
             kit = by_number[next_number]
             stamp, stamp_page = stamps.of(next_number)
             printing.add(PrintedKit(next_number, result.pdf, stamp, result.materials, result.margin_mm,
-                                    kit.copies, result.shared, result.owner_pages, result.overlay, stamp_page))
+                                    kit.copies, result.shared, result.owner_pages, result.overlay, stamp_page,
+                                    school_of(kit.recipe)))
         next_number += 1
     return next_number
 
