@@ -18,7 +18,10 @@ Columns (RFC 4180 CSV, UTF-8, ``\\r\\n`` line ends as the RFC writes them):
   the print file of that stock (``print-paper.pdf`` ...), such as
   ``5-8 9-12``; for the answer key, its school's one key, which the
   school's kits all name;
-- ``status``: ``ok``, or the one-line reason it was not built.
+- ``status``: ``ok``, or the one-line reason it was not built;
+- ``notes``: what its build thinned or left out to keep every scale
+  legible, as ``kitgen build`` says it, in the kit's language, the notes
+  separated by `` | `` (:data:`NOTE_SEPARATOR`); empty when there are none.
 
 A text cell that a spreadsheet would take for a formula (one starting
 with ``=``, ``+``, ``-`` or ``@``) is written with a leading apostrophe.
@@ -32,7 +35,7 @@ import io
 from .printfiles import MATERIALS
 
 COLUMNS = ("kit", "owner", "title", "place", "latitude", "language", "copies", "file", "pages",
-           *(f"{m}_pages" for m in MATERIALS), *(f"{m}_print_pages" for m in MATERIALS), "status")
+           *(f"{m}_pages" for m in MATERIALS), *(f"{m}_print_pages" for m in MATERIALS), "status", "notes")
 STATUS_OK = "ok"
 
 
@@ -58,11 +61,16 @@ def manifest_row(kit, file_name: str, result, spans: dict, error: str) -> dict:
         **{f"{m}_pages": materials.count(m) if ok else "" for m in MATERIALS},
         **{f"{m}_print_pages": _spans(spans.get(m, [])) for m in MATERIALS},
         "status": status,
+        "notes": NOTE_SEPARATOR.join(result.notes) if ok else "",
     }
 
 
+#: Between two of a kit's notes in the ``notes`` cell.
+NOTE_SEPARATOR = " | "
+
+
 #: Columns of free text, from the set's own values or messages.
-TEXT_COLUMNS = ("owner", "title", "place", "status")
+TEXT_COLUMNS = ("owner", "title", "place", "status", "notes")
 #: A cell starting so is taken for a formula by spreadsheet programs
 #: (OWASP, "CSV Injection"): such a text cell gets a leading apostrophe.
 _FORMULA_START = ("=", "+", "-", "@", "\t", "\r")

@@ -75,6 +75,9 @@ class KitResult:
     overlay: bytes = b""
     #: The school's stamps (kitgen.batch.stamp.stamps_pdf), with its first kit.
     stamps: bytes = b""
+    #: What the build thinned or left out to keep every scale legible, a
+    #: line a note in the kit's language (as ``kitgen build`` says them).
+    notes: tuple[str, ...] = ()
 
 
 def warm(languages: tuple[str, ...] = ()) -> None:
@@ -140,9 +143,10 @@ def _built(job: KitJob) -> KitResult:
         with speaking(job.recipe.language, job.recipe.language_file or None):
             if job.drawn:   # the school's kit without a name, with the parts drawn elsewhere, kept
                 build_kit(school_of(job.recipe), job.drawn)
-            _, layers, materials, margin = _kit_pdf(job.recipe)
+            kit, layers, materials, margin = _kit_pdf(job.recipe)
+            notes = tuple(one_line(note.text(kit.words)) for note in kit.notes)
         return KitResult(job.number, layers.pdf, materials, margin, peak_rss_kib=_peak_rss_kib(),
-                         shared=layers.shared, owner_pages=layers.indices, overlay=layers.overlay)
+                         shared=layers.shared, owner_pages=layers.indices, overlay=layers.overlay, notes=notes)
     except UserError as exc:
         return KitResult(job.number, error=one_line(exc.text(_speak(job))), peak_rss_kib=_peak_rss_kib())
     except Exception as exc:  # an internal fault of this kit: the others go on
