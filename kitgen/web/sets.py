@@ -29,6 +29,7 @@ from pathlib import Path
 import yaml
 
 from ..errors import one_line
+from ..words.templates import load_words
 
 try:  # class sets (#12); the page says it has none without them
     from .. import batch
@@ -102,7 +103,17 @@ def prepare(root: Path, defaults: dict, roster_text: str) -> tuple[str, Path]:
 
 #: A progress line of ``kitgen batch`` when its stderr is not a terminal
 #: (kitgen.batch.progress, errors.batch_progress: always English there).
-PROGRESS_LINE = re.compile(r"^kitgen: (\d+) of (\d+) kits built")
+def _progress_line() -> re.Pattern:
+    """The progress line ``kitgen batch`` writes when stderr is not a
+    terminal (kitgen.batch.progress; always English), its ``done`` and
+    ``total`` captured, read from the template itself so that the two
+    never disagree."""
+    pattern = re.escape(load_words("en").template("errors.batch_progress"))
+    pattern = pattern.replace(r"\{done\}", r"(?P<done>\d+)").replace(r"\{total\}", r"(?P<total>\d+)")
+    return re.compile("^" + re.sub(r"\\\{\w+\\\}", ".*", pattern))
+
+
+PROGRESS_LINE = _progress_line()
 
 
 def run(folder: Path) -> None:
@@ -122,7 +133,7 @@ def run(folder: Path) -> None:
             for line in child.stderr:
                 found = PROGRESS_LINE.match(line)
                 if found:
-                    state.update(done=int(found.group(1)), total=int(found.group(2)))
+                    state.update(done=int(found.group("done")), total=int(found.group("total")))
                     _write_state(folder, **state)
                 elif line.strip() and ": note:" not in line:
                     said.append(one_line(line))
