@@ -19,7 +19,6 @@ identifier (``/ID``, 14.4) and fixed document information.
 
 from __future__ import annotations
 
-import hashlib
 from dataclasses import dataclass
 
 from ..render import pdf_objects
@@ -62,7 +61,7 @@ class PrintedKit:
     overlay: bytes = b""
     stamp_page: int = 0     # the kit's own stamp's page in ``stamp``
     #: The kit's school (kitgen.kit.school_of: its recipe but for the
-    #: owner), for the stocks printed once a school; None: told by its PDF.
+    #: owner), for the stocks printed once a school; None: the kit alone.
     school: object = None
 
 
@@ -90,7 +89,7 @@ class PrintFiles:
             file = self.files[material]
             once = material in ONCE_A_SCHOOL
             if once:
-                key = kit.school if kit.school is not None else (hashlib.sha256(kit.pdf).digest(), tuple(chosen))
+                key = kit.school if kit.school is not None else ("kit", kit.number)
                 printed = file.printed.get(key)
                 if printed is not None:
                     spans[material] = list(printed)
@@ -128,9 +127,8 @@ class _File:
         self.layering = Layering(self.out)
         self.pages: list[int] = []
         self._shared: dict[bytes, Copier] = {}
-        #: {a kit's school (or the SHA-256 of its PDF and its pages here):
-        #: the spans of its pages} for the stocks printed once a school
-        #: (:data:`ONCE_A_SCHOOL`).
+        #: {a kit's school (or its number): the spans of its pages} for
+        #: the stocks printed once a school (:data:`ONCE_A_SCHOOL`).
         self.printed: dict[tuple, tuple] = {}
 
     def shared(self, pdf: bytes) -> Copier:

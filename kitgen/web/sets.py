@@ -101,11 +101,10 @@ def prepare(root: Path, defaults: dict, roster_text: str) -> tuple[str, Path]:
     return set_id, folder
 
 
-#: A progress line of ``kitgen batch`` when its stderr is not a terminal
-#: (kitgen.batch.progress, errors.batch_progress: always English there).
 def _progress_line() -> re.Pattern:
     """The progress line ``kitgen batch`` writes when stderr is not a
-    terminal (kitgen.batch.progress; always English), its ``done`` and
+    terminal (kitgen.batch.progress, errors.batch_progress: always
+    English there), its ``done`` and
     ``total`` captured, read from the template itself so that the two
     never disagree."""
     pattern = re.escape(load_words("en").template("errors.batch_progress"))
