@@ -156,3 +156,67 @@ def test_answer_key_on_a_page_of_its_own(kit):
 def test_no_worksheet_unless_asked():
     kit = build_kit(parse_recipe_text(f"latitude: {LAT}\nepoch: {EPOCH}\n"))
     assert kit.plan.worksheet == ()
+
+
+# Sites between the tropics (real latitudes, invented schools), and one
+# beyond them in the south.
+TROPICAL_SITES = [(12.97, 77.59, "Asia/Kolkata", "en"), (-1.29, 36.82, "Africa/Nairobi", "fr"),
+                  (-19.92, -43.94, "America/Sao_Paulo", "pt"), (22.9, 72.6, "Asia/Kolkata", "hi")]
+
+
+def _site_kit(lat, lon, tz, language):
+    return build_kit(parse_recipe_text(f"latitude: {lat}\nlongitude: {lon}\ntimezone: {tz}\nepoch: {EPOCH}\n"
+                                       f"language: {language}\nworksheet: true\n"))
+
+
+def _de421_noon_declination_deg(lon):
+    """(dates, the Sun's apparent geocentric declination at local mean
+    noon, degrees) for every day of EPOCH, by DE421."""
+    import numpy as np
+
+    ts, eph = ephemeris()
+    dates = [dt.date(EPOCH, 1, 1) + dt.timedelta(days=k) for k in range((dt.date(EPOCH + 1, 1, 1)
+                                                                       - dt.date(EPOCH, 1, 1)).days)]
+    t = ts.utc(EPOCH, 1, 1 + np.arange(len(dates)), 12.0 - lon / 15.0)
+    return dates, eph["earth"].at(t).observe(eph["sun"]).apparent().radec(epoch="date")[1].degrees
+
+
+@pytest.mark.parametrize("lat, lon, tz, language", TROPICAL_SITES)
+def test_between_the_tropics_the_overhead_sun_dates_against_de421(lat, lon, tz, language):
+    """Between the tropics the Sun is highest at noon, in the zenith, on two
+    dates, when its declination equals the latitude (Smart 1977, ch. II):
+    those of DE421 (the day of each sign change of declination - latitude,
+    the nearer noon) within a day.  The key in the kit's words carries
+    both dates as CLDR writes them (Babel's format_skeleton)."""
+    from babel.dates import format_skeleton
+
+    from kitgen.layout.instructions import worksheet_blocks
+
+    kit = _site_kit(lat, lon, tz, language)
+    a = _answers(kit)
+    assert "longest_day" not in a
+    z = a["zenith_days"]
+    dates, dec = _de421_noon_declination_deg(lon)
+    gap = dec - lat
+    truth = [dates[k] if abs(gap[k]) <= abs(gap[k + 1]) else dates[k + 1]
+             for k in range(len(dates) - 1) if (gap[k] < 0) != (gap[k + 1] < 0)]
+    assert len(truth) == 2
+    got = sorted(dt.date(EPOCH, m, d) for m, d in ((z["month"], z["day"]), (z["month2"], z["day2"])))
+    assert all(abs((g - t).days) <= 1 for g, t in zip(got, sorted(truth)))
+    text = " ".join(b.text for b in worksheet_blocks(kit))
+    for g in got:
+        assert format_skeleton("MMMMd", g, locale=kit.words.language.replace("-", "_")) in text
+
+
+@pytest.mark.parametrize("lat, lon, tz, month", [(-33.93, 18.42, "Africa/Johannesburg", 12),
+                                                 (23.9, 90.4, "Asia/Dhaka", 6)])
+def test_beyond_the_tropics_the_longest_day_against_de421(lat, lon, tz, month):
+    """Beyond the tropics (here just beyond the northern one, and in the
+    south) the Sun is highest at noon on the date DE421 gives the greatest
+    apparent declination toward the site's pole, within a day."""
+    kit = _site_kit(lat, lon, tz, "en")
+    a = _answers(kit)
+    assert "zenith_days" not in a
+    dates, dec = _de421_noon_declination_deg(lon)
+    best = dates[int((dec if lat > 0 else -dec).argmax())]
+    assert a["longest_day"]["month"] == month == best.month and abs(a["longest_day"]["day"] - best.day) <= 1

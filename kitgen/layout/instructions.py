@@ -432,6 +432,8 @@ def _worksheet_values(kit, q) -> dict:
     out = {"place": _place(kit), "year": w.number(kit.plan.epoch), "clock_name": clock_name(kit)}
     if "month" in v:
         out["date"] = _date(kit, v["month"], v["day"], False)
+    if "month2" in v:
+        out["date2"] = _date(kit, v["month2"], v["day2"], False)
     if "altitude_deg" in v:
         out["altitude"] = w.number(v["altitude_deg"], 0 if float(v["altitude_deg"]).is_integer() else 1)
     if "solar_hours" in v:

@@ -49,16 +49,42 @@ def _q(kind: str, **values) -> Question:
     return Question(kind, tuple(values.items()))
 
 
+def zenith_dates(latitude_deg: float, sky: SkyForKit) -> tuple[tuple[int, int], ...]:
+    """The calendar's dates (month, day) on which the Sun stands nearest
+    the zenith at noon: where its declination passes the latitude, one
+    date for each crossing of the year (two between the tropics, none
+    beyond them).  Of the two noons around a crossing, the one with the
+    declination nearer the latitude (degrees at the edge)."""
+    gap_deg = [math.degrees(sun_place_rad(lon, sky.obliquity_rad)[1]) - latitude_deg for _, _, lon in sky.calendar]
+    out = []
+    for k, here in enumerate(gap_deg):
+        after = gap_deg[(k + 1) % len(gap_deg)]
+        if (here < 0.0) != (after < 0.0):
+            near = k if abs(here) <= abs(after) else (k + 1) % len(gap_deg)
+            out.append(sky.calendar[near][:2])
+    return tuple(sorted(set(out)))
+
+
+def _first_question(latitude_deg: float, sky: SkyForKit) -> Question:
+    """Between the tropics, the two dates of the overhead noon Sun; beyond
+    them (or where both crossings fall on one date, at a tropic), the
+    date of the longest day and highest noon Sun: the Sun's place nearest
+    the summer solstice of the site's hemisphere."""
+    dates = zenith_dates(latitude_deg, sky)
+    if len(dates) == 2:
+        (m, d), (m2, d2) = dates
+        return _q("zenith_days", month=m, day=d, month2=m2, day2=d2)
+    solstice = 90.0 if latitude_deg >= 0 else 270.0
+    m, d, _ = min(sky.calendar, key=lambda c: abs((c[2] - solstice + 180.0) % 360.0 - 180.0))
+    return _q("longest_day", month=m, day=d)
+
+
 def worksheet_questions(latitude_deg: float, sky: SkyForKit, almanac: Almanac) -> tuple[Question, ...]:
     """Six to eight questions for the site (fewer where the Sun or the
     stars do not allow one, as in polar day)."""
     phi = math.radians(latitude_deg)
     out = []
-    # 1. The date of the longest day: the Sun's place nearest the summer
-    #    solstice of the site's hemisphere.
-    solstice = 90.0 if latitude_deg >= 0 else 270.0
-    m, d, _ = min(sky.calendar, key=lambda c: abs((c[2] - solstice + 180.0) % 360.0 - 180.0))
-    out.append(_q("longest_day", month=m, day=d))
+    out.append(_first_question(latitude_deg, sky))
     # 2. The Sun's noon altitude and 3. sunrise and day length, on the
     #    20th of a school month where the Sun rises and sets.
     for month in MONTH_ORDER:
