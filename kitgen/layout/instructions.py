@@ -399,7 +399,7 @@ def sunrise_blocks(kit) -> list[Block]:
             entries.append((r.month, w("almanac.polar_night", day=day)))
         else:
             entries.append((r.month, w("almanac.rise_set_entry", day=day, rise=clock_text(w, r.rise_min / 60.0),
-                                       set=clock_text(w, r.set_min / 60.0), length=_length(w, r.day_length_min))))
+                                       set=clock_text(w, r.set_min / 60.0), length=_length(w, r.day_length_whole_min))))
     return out + _month_rows(kit, entries)
 
 

@@ -63,7 +63,7 @@ def site_and_almanac(kit) -> dict:
             "clock_correction": [{"month": m, "day": d, "minutes": round(x, 3)}
                                  for m, d, x in almanac.clock_correction],
             "sun_rise_set": [{"month": r.month, "day": r.day, "rise": r.rise, "set": r.set,
-                              "day_length": hh_mm(r.day_length_min) if r.day_length_min < 1440 else "24:00",
+                              "day_length": hh_mm(r.day_length_whole_min) if r.day_length_min < 1440 else "24:00",
                               "reason": r.reason} for r in almanac.sun_rise_set],
         },
     }

@@ -51,6 +51,18 @@ class SunRiseSet:
         """Sunset as ``HH:MM`` to the nearest minute."""
         return hh_mm(self.set_min)
 
+    @property
+    def day_length_whole_min(self) -> int:
+        """The day's length in whole minutes as the printed times give it:
+        sunset's minute less sunrise's, so that a reader who subtracts the
+        table's two times finds the table's length (each is rounded on its
+        own, and the true length can lie a minute either way)."""
+        whole = int(round(self.day_length_min))
+        if self.rise_min is None or self.set_min is None:
+            return whole
+        printed = (int(round(self.set_min)) - int(round(self.rise_min))) % 1440
+        return printed if abs(printed - self.day_length_min) < 2.0 else whole
+
 
 @dataclass(frozen=True)
 class Almanac:

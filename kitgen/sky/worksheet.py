@@ -96,8 +96,10 @@ def worksheet_questions(latitude_deg: float, sky: SkyForKit, almanac: Almanac) -
             continue
         rise = 12.0 - math.degrees(h0) / 15.0
         out.append(_q("noon_altitude", month=month, day=QUESTION_DAY, altitude_deg=noon))
+        # The length from the minute the key prints: sunset mirrors sunrise
+        # about noon on the hour ring, and the two add up for the reader.
         out.append(_q("sunrise", month=month, day=QUESTION_DAY, solar_hours=rise, correction_min=corr,
-                      day_length_hours=2.0 * math.degrees(h0) / 15.0))
+                      day_length_hours=2.0 * (12.0 - round(rise * 60.0) / 60.0)))
         break
     # 4. The clock correction, and 5. the time from an afternoon altitude,
     #    on the 20th of another month.
