@@ -7,7 +7,8 @@ Columns (RFC 4180 CSV, UTF-8, ``\\r\\n`` line ends as the RFC writes them):
 - ``owner``, ``title``, ``place``, ``latitude``, ``language``: as the merged
   recipe gives them (the latitude in degrees, north positive);
 - ``copies``: how many times the kit is in the print files (its answer
-  key, once for its school: kitgen.batch.printfiles.ONCE_A_SCHOOL);
+  key, once for its school: kitgen.batch.printfiles.ONCE_A_SCHOOL); for
+  a kit that failed, the copies its row asked for, to print once mended;
 - ``file``: its PDF under ``kits/`` (empty when it failed);
 - ``pages``, then ``paper_pages``, ``answers_pages``, ``duplex_pages``,
   ``card_pages``, ``film_pages``: page counts of one copy, by the stock

@@ -152,9 +152,12 @@ def _set_kit(number: int, where: Message, item, defaults: dict, base: Path) -> S
     tree = {**defaults, **own}
     try:
         copies = _copies(item.get("copies", 1), where)
-        return SetKit(number, where, tree, copies, recipe=validate_recipe(dict(tree), where))
     except UserError as exc:
         return SetKit(number, where, tree, 1, error=exc)
+    try:
+        return SetKit(number, where, tree, copies, recipe=validate_recipe(dict(tree), where))
+    except UserError as exc:
+        return SetKit(number, where, tree, copies, error=exc)
 
 
 def _copies(value, where) -> int:
