@@ -118,7 +118,7 @@ _NAMED_BASE: dict[int, tuple] = {}
 
 def _named_base(base: "_Nameless", plan: Plan) -> Kit:
     """The nameless kit with room for an owner's name (the plate's slot,
-    the rule's and the alidade's halves) but no name: every element of a
+    the rule's and the alidade's room) but no name: every element of a
     named kit but the name's own (role ``owner``) and the lines drawn
     again beside it (``beside_owner``).  Kept for the last few
     nameless kits (by identity), so a school's pupils share it."""

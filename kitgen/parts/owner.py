@@ -48,6 +48,12 @@ def _before_pin(part: model.Part, new) -> model.Part:
 SLOT_RADII = 0.5
 #: ... and never narrower than this share of the latitude label's width.
 SLOT_LEAST = 0.6
+#: Where the places by the latitude label are narrower than this (mm), a
+#: small plate's, the slot goes to the widest free row of the plate up
+#: to this wide (or :data:`SLOT_RADII`, if wider): room for a long name,
+#: some 26 letters at the 5 pt minimum, a first name and a double surname
+#: such as "Amélie Beauchamp-Lefèvre" (22 mm), whole (#9).
+LONG_NAME_MM = 25.0
 #: ... and this many times as high as the label's ink at the name's size:
 #: room for a name's capitals, accents and descenders whatever the label's
 #: letters are (a label's height is that of its ink, kitgen.words.measure).
@@ -57,11 +63,13 @@ SLOT_HEIGHTS = 1.5
 def plate_slot(part: model.Part, ctx: PartContext) -> model.Part:
     """The plate with room for an owner's name, whatever the name: a line
     under the plate's latitude label, or over it, left-aligned with it or
-    mirrored across the meridian, :data:`SLOT_RADII` plate radii wide or
-    as far as the drawing's edge if that is nearer (but not narrower than
-    :data:`SLOT_LEAST` labels): the widest of those places clear of every word and
-    of the pin (:data:`MARGIN_MM` apart), the first of them at equal
-    width.  The plate's lines are broken round that line as round every
+    mirrored across the meridian, :data:`SLOT_RADII` plate radii wide (at
+    least :data:`LONG_NAME_MM`) or as far as the drawing's edge if that is
+    nearer (but not narrower than :data:`SLOT_LEAST` labels): the widest
+    of those places clear of every word and of the pin (:data:`MARGIN_MM`
+    apart), the first of them at equal width; where that is narrower than
+    :data:`LONG_NAME_MM`, the widest free row of the plate
+    (:func:`_free_row`) if it is wider.  The plate's lines are broken round that line as round every
     other word.  The slot, ``(x, y, anchor, width,
     height)`` in mm, is in the part's values under ``owner_slot``; a
     plate with no such room is returned as it is."""
@@ -78,7 +86,7 @@ def plate_slot(part: model.Part, ctx: PartContext) -> model.Part:
     x = lines[0].geom["at"][0]
     top, bottom = max(b[3] for b in boxes), min(b[1] for b in boxes)
     least = SLOT_LEAST * max(b[2] - b[0] for b in boxes)
-    most = SLOT_RADII * d.plate_radius_mm
+    most = max(SLOT_RADII * d.plate_radius_mm, LONG_NAME_MM)
     rim = disc - 2 * m - stroke_width_mm("heavy", d)   # the slot's break stops short of the rim
     best = None
     for y in (bottom - m - height / 2, top + m + height / 2):
@@ -92,9 +100,11 @@ def plate_slot(part: model.Part, ctx: PartContext) -> model.Part:
             if not any(labels.boxes_meet(box, t) for t in taken):
                 best = (sx, y, anchor, width, height)
                 break
-    if best is None:
-        best = _free_row(lines[0].geom["at"][1], (bottom, top), height, taken + _flat_stretches(part, height),
-                         rim, (least, most))
+    if best is None or best[3] < LONG_NAME_MM:
+        row = _free_row(lines[0].geom["at"][1], (bottom, top), height, taken + _flat_stretches(part, height),
+                        rim, (least, most))
+        if row is not None and (best is None or row[3] > best[3]):
+            best = row
     if best is None:
         return part
     slot = _slot_box(best)
@@ -105,9 +115,9 @@ def plate_slot(part: model.Part, ctx: PartContext) -> model.Part:
 
 
 def _free_row(label_y: float, label_rows: tuple, height: float, taken: list, rim: float, widths: tuple):
-    """Where :func:`plate_slot`'s two places by the label are taken (a
-    small plate): the rows ``height`` mm high and :data:`MARGIN_MM` apart,
-    from the label's towards the plate's centre and on across it, each
+    """Where :func:`plate_slot`'s places by the label are taken or narrow
+    (a small plate): the rows ``height`` mm high, a row every
+    :data:`MARGIN_MM`, from the label's towards the plate's centre and on across it, each
     with its widest stretch inside ``rim`` (mm) clear of every box of
     ``taken``; the slot in the first stretch ``widths[1]`` wide, else in
     the widest at least ``widths[0]`` wide (as near the meridian as the
@@ -123,7 +133,7 @@ def _free_row(label_y: float, label_rows: tuple, height: float, taken: list, rim
             best = (gap, y)
             if gap[1] >= most:
                 break
-        y += inward * (height + m)
+        y += inward * m
     if best is None:
         return None
     (x0, room), y = best

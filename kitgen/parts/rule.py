@@ -31,8 +31,10 @@ def rule(ctx: PartContext) -> model.Part:
     # the pin that every reading is taken on (the body's other long edge is
     # straight too: #9), in a band of one line next to it, ending where the
     # tip starts to narrow.  The name runs along the rest of the body's
-    # width, from clear of the pin's crosshair (2 mm) to the tip; the
-    # owner's name (#9), if any, on the outer half.
+    # width, from clear of the pin's crosshair (2 mm) to the tip; with an
+    # owner (#9) the name takes what it needs next to the pin (half the
+    # length at most) and the owner's name the whole rest, centred there
+    # (:func:`owner_split_mm`).
     # The band starts beyond half the width of the edge's cut line, which
     # grows with the instrument (kitgen.geometry.style), so that no
     # descender reaches the line (#9).
@@ -42,7 +44,7 @@ def rule(ctx: PartContext) -> model.Part:
     band = w.measure(w("rule.reading_edge"), d.small_text_pt).height_mm + 2 * m + 0.1
     els += reading_edge_label(w, w("rule.reading_edge"), d.small_text_pt, band, hi, hi - lo, inset)
     across, x = width - inset - band - 2 * m, -(inset + band + width) / 2
-    mid = (lo + hi) / 2 if ctx.plan.owner else hi
+    mid = owner_split_mm(w, w("rule.title"), d.small_text_pt, lo, hi) if ctx.plan.owner else hi
     els += labels.fitted_text("part_label", (x, (lo + mid) / 2), w("rule.title"), d.small_text_pt, w,
                               mid - lo - m, across, angle_deg=90.0)
     if ctx.plan.owner:
@@ -50,6 +52,18 @@ def rule(ctx: PartContext) -> model.Part:
                                   hi - mid - m, across, angle_deg=90.0)
     return model.Part("rule", "card", tuple(els), (-width - 1.0, -tail - 1.0, boss + 1.0, length + 1.0), {},
                       w("rule.title"))
+
+
+def owner_split_mm(w, title: str, size_pt: float, lo_mm: float, hi_mm: float) -> float:
+    """Where the rule's name ends and its owner's line begins, between
+    ``lo_mm`` and ``hi_mm`` along it: after what the name ``title`` needs
+    at ``size_pt`` with its margin, but never past the middle, so that the
+    owner's name has the whole rest of the length and is shortened only
+    where even that is too short (#9).  It depends on there being an owner,
+    never on the name itself: a class set's rules differ only in the
+    owner's words (#12, kitgen.kit)."""
+    need = w.measure(title, size_pt).width_mm + 2 * labels.MARGIN_MM   # its room is a margin narrower
+    return lo_mm + min(need, (hi_mm - lo_mm) / 2)
 
 
 def reading_edge_label(w, text: str, size_pt: float, band_mm: float, end_mm: float, most_mm: float,

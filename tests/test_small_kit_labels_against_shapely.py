@@ -1,0 +1,172 @@
+"""A pupil reads a small kit alone (#9): the owner's name on every part is
+there, whole where the room exists, inside their part,
+and neither meet another word nor are crossed by a line.
+
+Read from the exported geometry (``kitgen geometry``'s JSON,
+:func:`kitgen.render.json_export.render_json`) as a user of it would.
+
+References:
+
+* Shapely/GEOS for the geometry: each word's box a polygon, each drawn
+  line a line (``tests/geos_lines.py``) buffered by half its printed width
+  (``kitgen.geometry.style``), the part's outline a polygon; containment
+  and intersection are GEOS's.
+* Each word's box from its ink, measured with the shipped fonts by the
+  kit's own ``Words`` (its advance width, its leftmost and rightmost ink
+  and its height, turned as it is set), as in
+  tests/test_owner_on_every_part.py.
+* The words themselves from the template files (``templates/LANG.yaml``):
+  a label is whole when its lines, joined, are the template's text (a
+  label shortened by the fitting rule ends in U+2026).
+* Small kits on A5 (120 mm), Letter and 90 to 100 mm across, north,
+  south and on the equator, in French, Spanish, English, Arabic (right to
+  left) and Hindi (Devanagari), with long invented names.
+"""
+
+from __future__ import annotations
+
+import json
+import math
+
+import pytest
+from shapely.geometry import Point, Polygon
+
+from kitgen.geometry.style import stroke_width_mm
+from kitgen.kit import build_kit
+from kitgen.recipe.load import validate_recipe
+from kitgen.render.json_export import render_json
+from tests.geos_lines import stroke_line
+
+#: (name, recipe, invented owner, whether the plate has room for the whole name)
+KITS = [
+    ("fr-a5-90", {"latitude": 51.5, "language": "fr", "sheet": "a5", "diameter_mm": 90},
+     "Amélie Beauchamp-Lefèvre", False),
+    ("fr-a5", {"latitude": 51.5, "language": "fr", "sheet": "a5"}, "Amélie Beauchamp-Lefèvre", True),
+    ("es-a5-south", {"latitude": -45.0, "language": "es", "sheet": "a5"}, "Ximena Montalbán-Echeverría", True),
+    ("ar-a5-south", {"latitude": -33.9, "language": "ar", "sheet": "a5"}, "ليلى عبد الرحمن الحدّاد", True),
+    ("hi-a5-equator", {"latitude": 0.0, "language": "hi", "sheet": "a5"}, "अनन्या श्रीवास्तव", True),
+    ("hi-a5-90-south", {"latitude": -12.0, "language": "hi", "sheet": "a5", "diameter_mm": 90},
+     "अनन्या श्रीवास्तव", True),
+    ("en-letter-100", {"latitude": 40.7, "language": "en", "sheet": "letter", "diameter_mm": 100},
+     "Theodora Quillfeather-Marsh", True),
+    ("ar-a4", {"latitude": 24.5, "language": "ar", "sheet": "a4"}, "ليلى عبد الرحمن الحدّاد", True),
+]
+@pytest.fixture(scope="module", params=[k[0] for k in KITS])
+def built(request):
+    """A kit of :data:`KITS` (its name, the kit and its exported geometry),
+    built once for the three tests."""
+    name, recipe, owner, _ = next(k for k in KITS if k[0] == request.param)
+    kit = build_kit(validate_recipe({**recipe, "owner": owner, "epoch": 2027}))
+    return name, kit, json.loads(render_json(kit))
+
+
+def _text_polygon(el: dict, words, style: str = "label") -> Polygon:
+    """The ink box of a text element of the JSON: along the line from its
+    leftmost to its rightmost ink (its anchor at ``at``), its height
+    centred on ``at``, turned by ``angle_deg``."""
+    text, size = el["text"], el["size_pt"]
+    ext = words.measure(text, size, style)
+    left, right = words.ink_span_mm(text, size, style)
+    start = {"start": 0.0, "middle": -ext.width_mm / 2, "end": -ext.width_mm}[el["anchor"]]
+    a = math.radians(el["angle_deg"])
+    (x, y), h = el["at"], ext.height_mm / 2
+    corners = [(start + u, v) for u, v in ((left, -h), (right, -h), (right, h), (left, h))]
+    return Polygon([(x + u * math.cos(a) - v * math.sin(a), y + u * math.sin(a) + v * math.cos(a))
+                    for u, v in corners])
+
+
+def _style(el: dict) -> str:
+    return "bold" if el["role"] in ("title", "part_title") else "label"
+
+
+def _outline(part: dict) -> Polygon:
+    """The part's cut outline: its largest cut circle or closed polyline
+    (a plate's rim is an arc broken by its key: its circle)."""
+    shapes = []
+    for el in part["elements"]:
+        if el["role"] != "cut":
+            continue
+        if el["shape"] in ("circle", "arc"):
+            shapes.append(Point(el["center"]).buffer(el["radius"], 256))
+        elif el["shape"] == "polyline" and el["closed"]:
+            shapes.append(Polygon(el["points"]))
+    return max(shapes, key=lambda s: s.area)
+
+
+class _Line:
+    """A JSON stroke element in the form tests/geos_lines.py reads."""
+
+    def __init__(self, el: dict):
+        self.shape, self.geom = el["shape"], el
+
+
+def _ink_lines(part: dict, dims):
+    """Every drawn line of the part, as GEOS areas of its printed width."""
+    out = []
+    for el in part["elements"]:
+        if el["shape"] in ("circle", "arc", "segment", "polyline") and el["stroke"] != "none":
+            out.append((el, stroke_line(_Line(el)).buffer(stroke_width_mm(el["stroke"], dims) / 2)))
+    return out
+
+
+def _check_clear(kit, part: dict, role: str, select=lambda el: True):
+    """The texts of ``role`` (those ``select`` keeps) lie inside the part's
+    outline, meet no other text and no drawn line; returns them."""
+    words = kit.words
+    mine = [el for el in part["elements"] if el["shape"] == "text" and el["role"] == role and select(el)]
+    others = [el for el in part["elements"] if el["shape"] == "text" and el not in mine]
+    outline = _outline(part)
+    lines = _ink_lines(part, kit.dims)
+    for el in mine:
+        box = _text_polygon(el, words)
+        assert outline.contains(box), (part["id"], el["text"])
+        for other in others:
+            assert not box.intersects(_text_polygon(other, words, _style(other))), \
+                (part["id"], el["text"], other["text"])
+        for line, ink in lines:
+            assert not box.intersects(ink), (part["id"], el["text"], line["role"])
+    return mine
+
+
+def _joined(els) -> str:
+    """The whole label the elements are the lines of (each carries
+    ``full_text`` where it was broken or shortened)."""
+    full = {el.get("full_text") for el in els} - {None}
+    return full.pop() if full else " ".join(el["text"] for el in els)
+
+
+def _shown(els) -> str:
+    return " ".join(el["text"] for el in els)
+
+
+def test_the_owner_on_every_part_whole_inside_and_clear(built):
+    name, kit, data = built
+    owner, plate_room = next(k for k in KITS if k[0] == name)[2:]
+    said = {m.values["text"] for n in kit.notes if n.key == "notes.shortened" for m in n.values["labels"]}
+    for part in data["parts"]:
+        els = _check_clear(kit, part, "owner")
+        assert els, part["id"]
+        assert _joined(els) == owner, part["id"]
+        whole = "\u2026" not in _shown(els)
+        if part["kind"] != "plate" or plate_room:
+            assert whole and _shown(els).replace(" ", "") == owner.replace(" ", ""), (part["id"], _shown(els))
+        else:   # shortened only where the plate truly has no room: and then said
+            assert not whole and owner in said, (part["id"], said)
+            assert owner.startswith(_shown(els).rstrip("\u2026")), _shown(els)
+
+
+def test_the_checks_see_a_word_on_a_line_or_a_word():
+    # Self-test: the plate's name moved across the tropic below the pin,
+    # onto the latitude label and off the plate fails the check that
+    # should catch it.
+    name, recipe, owner, _ = KITS[1]
+    kit = build_kit(validate_recipe({**recipe, "owner": owner, "epoch": 2027}))
+    plate = next(p for p in json.loads(render_json(kit))["parts"] if p["kind"] == "plate")
+    label = next(el for el in plate["elements"] if el["role"] == "plate_label")
+    for at, caught in (((0.0, -20.0), ("tropic",)), (label["at"], (label["text"],)),
+                       ((0.0, 2 * kit.dims.plate_radius_mm), ())):
+        moved = {**plate, "elements": [{**el, "at": list(at), "anchor": "middle"} if el["role"] == "owner" else el
+                                       for el in plate["elements"]]}
+        with pytest.raises(AssertionError) as failed:
+            _check_clear(kit, moved, "owner")
+        assert str(failed.value).startswith(repr(("plate-1", owner) + caught)), str(failed.value)
