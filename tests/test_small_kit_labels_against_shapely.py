@@ -1,5 +1,5 @@
-"""A pupil reads a small kit alone (#9): the owner's name on every part is
-there, whole where the room exists, inside their part,
+"""A pupil reads a small kit alone (#9): the owner's name on every part
+and the twilight line's name on the plate are there, whole where the room exists, inside their part,
 and neither meet another word nor are crossed by a line.
 
 Read from the exported geometry (``kitgen geometry``'s JSON,
@@ -35,6 +35,7 @@ from kitgen.geometry.style import stroke_width_mm
 from kitgen.kit import build_kit
 from kitgen.recipe.load import validate_recipe
 from kitgen.render.json_export import render_json
+from kitgen.words.locale import true_minus
 from tests.geos_lines import stroke_line
 
 #: (name, recipe, invented owner, whether the plate has room for the whole name)
@@ -51,6 +52,9 @@ KITS = [
      "Theodora Quillfeather-Marsh", True),
     ("ar-a4", {"latitude": 24.5, "language": "ar", "sheet": "a4"}, "ليلى عبد الرحمن الحدّاد", True),
 ]
+#: The kits whose plate has room along the twilight line for its name.
+TWILIGHT_NAMED = {"fr-a5-90", "fr-a5", "es-a5-south", "ar-a5-south", "en-letter-100", "ar-a4"}
+
 @pytest.fixture(scope="module", params=[k[0] for k in KITS])
 def built(request):
     """A kit of :data:`KITS` (its name, the kit and its exported geometry),
@@ -153,6 +157,23 @@ def test_the_owner_on_every_part_whole_inside_and_clear(built):
         else:   # shortened only where the plate truly has no room: and then said
             assert not whole and owner in said, (part["id"], said)
             assert owner.startswith(_shown(els).rstrip("\u2026")), _shown(els)
+
+
+def test_the_twilight_line_is_named_or_the_notes_say_why(built):
+    name, kit, data = built
+    w = kit.words
+    plate = next(p for p in data["parts"] if p["kind"] == "plate")
+    for alt in kit.plan.drawing.twilight_deg:
+        text = w("plate.line_twilight", altitude=true_minus(w.number(alt)))   # templates/LANG.yaml
+        assert any(el["role"] == "twilight" and el["stroke"] != "none" for el in plate["elements"])
+        named = _check_clear(kit, plate, "curve_label",
+                             lambda el: el.get("curve") == "twilight" and el.get("altitude_deg") == alt)
+        if name in TWILIGHT_NAMED:
+            assert [el["text"] for el in named] == [text], (name, alt)
+        elif not named:
+            said = [m.values["text"] for n in kit.notes if n.key == "notes.plate_labels_left_out"
+                    for m in n.values["labels"]]
+            assert text in plate["labels_left_out"] and text in said, (name, said)
 
 
 def test_the_checks_see_a_word_on_a_line_or_a_word():

@@ -827,33 +827,41 @@ class PlateLabeller:
             paths.append((cands, [upright(a) for _, _, a in cands]))
         # On the curve, then beside it at four offsets (one list of places
         # for those four, tried in the same order, so that they are
-        # screened in fewer and longer runs, #12).
-        for offsets in ((0.0,), (-aside, aside, -aside - bulge, aside + bulge)):
-            near = self.reference + (els if offsets[0] else [])   # one list for all places: its index is kept
-            centers, angles = [], []
-            for offset in offsets:
-                for cands, turns in paths:
-                    centers += [(x - math.sin(a) * offset, y + math.cos(a) * offset) for x, y, a in cands]
-                    angles += turns
-            places = Places(centers, angles, ext.width_mm / 2, ext.height_mm / 2)
-            can = places.inside(room)
-            for run in _runs(len(places), 32, 512):
-                idx = run[can[run]]
-                b, best = self._name_place(places, idx, (near, protected, named, thin), best)
-                if b is not None:
-                    return self.put("curve_label", b, text, size, curve=role, **match)
+        # screened in fewer and longer runs, #12); CLEAR_MM from the other
+        # named lines, and only where no such place is found MARGIN_MM
+        # beside them, as any label may stand beside a line (a name where
+        # named lines cross, as a twilight line's near a tropic on a small
+        # plate, #9).
+        for named_clear in (CLEAR_MM, MARGIN_MM):
+            for offsets in ((0.0,), (-aside, aside, -aside - bulge, aside + bulge)):
+                near = self.reference + (els if offsets[0] else [])   # one list for all places: its index is kept
+                centers, angles = [], []
+                for offset in offsets:
+                    for cands, turns in paths:
+                        centers += [(x - math.sin(a) * offset, y + math.cos(a) * offset) for x, y, a in cands]
+                        angles += turns
+                places = Places(centers, angles, ext.width_mm / 2, ext.height_mm / 2)
+                can = places.inside(room)
+                for run in _runs(len(places), 32, 512):
+                    idx = run[can[run]]
+                    b, best = self._name_place(places, idx, (near, protected, named, thin), best, named_clear)
+                    if b is not None:
+                        return self.put("curve_label", b, text, size, curve=role, **match)
+            if best is not None:
+                break
         if best is not None:
             return self.put("curve_label", best[1], text, size, curve=role, **match)
         return self.left_out(text)
 
 
-    def _name_place(self, places: Places, idx, lines, best):
+    def _name_place(self, places: Places, idx, lines, best, named_clear: float = CLEAR_MM):
         """Of :meth:`curve_name`'s places ``idx`` (an index array of
         ``places``), the first MARGIN_MM from the lines ``near``, clear of
-        the labels and :data:`CLEAR_MM` from the lines ``protected``
+        the labels, ``named_clear`` from the named lines and :data:`CLEAR_MM`
+        from the lines ``protected``
         (``lines`` is (near, protected, named, thin)), as (its box,
         ``best``); else (None, ``best`` bettered by those of the places
-        CLEAR_MM from the named lines: the fewest thin lines through a
+        ``named_clear`` from the named lines: the fewest thin lines through a
         box grown by MARGIN_MM + 0.3, and the first with so few).  The
         tests of :meth:`Room.free`, many places at once: each list's
         screen made only for the places that the ones before let through
@@ -861,7 +869,7 @@ class PlateLabeller:
         near, protected, named, thin = lines
         room = self.room
         # a place clear of every line is clear of the named ones
-        beside = Screen(room, places, idx, named, CLEAR_MM)
+        beside = Screen(room, places, idx, named, named_clear)
         maybe = np.array(beside.maybe_clear(), dtype=int)
         by_near = Screen(room, places, idx[maybe], near, MARGIN_MM)
         fit = [int(maybe[q]) for q in by_near.maybe_clear()
