@@ -1,5 +1,6 @@
-"""A pupil reads a small kit alone (#9): the owner's name on every part
-and the twilight line's name on the plate are there, whole where the room exists, inside their part,
+"""A pupil reads a small kit alone (#9): the owner's name on every part,
+the twilight line's name on the plate and the clock ring's caption on the
+mater's back are there, whole where the room exists, inside their part,
 and neither meet another word nor are crossed by a line.
 
 Read from the exported geometry (``kitgen geometry``'s JSON,
@@ -174,6 +175,18 @@ def test_the_twilight_line_is_named_or_the_notes_say_why(built):
             said = [m.values["text"] for n in kit.notes if n.key == "notes.plate_labels_left_out"
                     for m in n.values["labels"]]
             assert text in plate["labels_left_out"] and text in said, (name, said)
+
+
+def test_the_clock_rings_caption_is_whole_inside_the_ring(built):
+    name, kit, data = built
+    back = next(p for p in data["parts"] if p["kind"] == "mater_back")
+    caption = _check_clear(kit, back, "clock_caption")
+    assert _joined(caption) == kit.words("clock_scale.caption_mean"), name   # no place: local mean time
+    assert "\u2026" not in _shown(caption)
+    inner = min(el["radius"] for el in back["elements"] if el["role"] == "clock_edge")
+    ring = Point(0.0, 0.0).buffer(inner, 256)
+    for el in caption:
+        assert ring.contains(_text_polygon(el, kit.words)), el["text"]
 
 
 def test_the_checks_see_a_word_on_a_line_or_a_word():

@@ -44,10 +44,20 @@ TITLE_Y = 0.47
 TITLE_H = 0.22
 
 
+#: The caption's room inside the ring, as shares of the ring's inner
+#: radius: the height of its middle and its height; and the taller room
+#: it takes where it fits only on two lines and the back's place line is
+#: free, the year's line then moving up to the place's
+#: (kitgen.parts.mater_back, #9: a small back keeps the ring's caption).
+CAPTION_ROW = (0.12, 0.085)
+TALL_CAPTION_ROW = (0.175, 0.18)
+
+
 @dataclass(frozen=True)
 class ClockScale:
     elements: tuple[model.Element, ...]
     inner_radius_mm: float     # the ring's inner edge: what lies inside must keep within it
+    tall_caption: bool = False   # the caption took the place line's room too
 
 
 def _direction_deg(longitude_deg: float) -> float:
@@ -126,9 +136,11 @@ def signed(words, minutes: int) -> str:
     return words("clock_scale.plus" if minutes > 0 else "clock_scale.minus", n=words.number(abs(minutes)))
 
 
-def clock_scale(ctx: PartContext, r_outer_mm: float) -> ClockScale:
+def clock_scale(ctx: PartContext, r_outer_mm: float, room_above: bool = False) -> ClockScale:
     """The ring of the clock correction inside radius ``r_outer_mm`` (the
-    calendar ring's inner edge), and its caption near the centre."""
+    calendar ring's inner edge), and its caption near the centre: in
+    :data:`CAPTION_ROW`, or where it does not fit there and ``room_above``
+    (the back has no place line) in :data:`TALL_CAPTION_ROW`, on two lines."""
     d, w = ctx.dims, ctx.words
     cal = ctx.sky.calendar
     almanac = ctx.plan.almanac
@@ -163,8 +175,18 @@ def clock_scale(ctx: PartContext, r_outer_mm: float) -> ClockScale:
     key = "clock_scale.caption_zone" if almanac.time == "zone" else "clock_scale.caption_mean"
     # The zone's city (or UTC offset), never its IANA name.
     zone = zone_place(ctx.plan.site.timezone, w.language) if almanac.time == "zone" else ""
-    y, room_h = 0.12 * r0, 0.085 * r0
-    room = 2.0 * math.sqrt(max((r0 - labels.MARGIN_MM) ** 2 - (y + room_h / 2) ** 2, 0.0))
-    els += labels.fitted_text("clock_caption", (0.0, y), w(key, zone=zone), size, w,
-                              room, room_h, optional=True)
-    return ClockScale(tuple(els), r0 - labels.MARGIN_MM)
+    caption = _caption(w, w(key, zone=zone), size, r0, CAPTION_ROW)
+    tall = not caption and room_above
+    if tall:
+        caption = _caption(w, w(key, zone=zone), size, r0, TALL_CAPTION_ROW)
+    return ClockScale(tuple(els + caption), r0 - labels.MARGIN_MM, tall and bool(caption))
+
+
+def _caption(w, text: str, size_pt: float, r0_mm: float, row) -> list[model.Element]:
+    """The ring's caption fitted to the chord of the circle ``r0_mm`` at
+    the far edge of ``row`` (its middle's height and its height as shares
+    of ``r0_mm``), or none where it would be cut short: the instructions
+    explain the ring too."""
+    y, room_h = row[0] * r0_mm, row[1] * r0_mm
+    room = 2.0 * math.sqrt(max((r0_mm - labels.MARGIN_MM) ** 2 - (y + room_h / 2) ** 2, 0.0))
+    return labels.fitted_text("clock_caption", (0.0, y), text, size_pt, w, room, room_h, optional=True)

@@ -50,21 +50,23 @@ def mater_back(ctx: PartContext) -> model.Part:
     els += _altitude_scale(d, w, r_alt, R, ctx.scales.altitude_tick_deg)
     els += _zodiac_scale(d, w, r_zod, r_alt, ctx.scales.zodiac_tick_deg)
     els += _calendar_scale(ctx, r_cal, r_zod)
-    clock = clock_scale(ctx, r_cal)
-    els, r_cal = els + list(clock.elements), clock.inner_radius_mm
-    els += _shadow_square(d, w, r_cal, ctx.scales.shadow_labels)
     # Title, place and epoch inside the calendar ring, each fitted to the
     # chord of that ring at the far edge of its room; a place that is the
-    # title already is printed once (#9).  The owner's line comes later
-    # (kitgen.parts.owner).
+    # title already is printed once (#9).  Where there is no place line
+    # and the clock ring's caption needs two lines, the epoch takes the
+    # place's row and the caption its own and the epoch's (#9).  The
+    # owner's line comes later (kitgen.parts.owner).
     place = ctx.plan.site.place
     if place and place.strip().casefold() == (ctx.plan.title or "").strip().casefold():
         place = ""
+    clock = clock_scale(ctx, r_cal, room_above=not place)
+    els, r_cal = els + list(clock.elements), clock.inner_radius_mm
+    els += _shadow_square(d, w, r_cal, ctx.scales.shadow_labels)
     for role, row, text, size, style in (
             ("title", (TITLE_Y, TITLE_H), ctx.plan.title or w("kit.default_title"), d.title_pt, "bold"),
-            ("place", (0.33, 0.09), place, d.text_pt, "label"),
-            ("epoch", (0.225, 0.09), w("mater_back.epoch", year=w.number(ctx.plan.epoch)), d.small_text_pt,
-             "label")):
+            ("place", PLACE_ROW, place, d.text_pt, "label"),
+            ("epoch", PLACE_ROW if clock.tall_caption else (0.225, 0.09),
+             w("mater_back.epoch", year=w.number(ctx.plan.epoch)), d.small_text_pt, "label")):
         # The title goes onto two lines rather than below its 8 pt
         # where it can (kitgen.parts.clock_scale keeps the ring for it).
         low = title_min_pt(ctx, r_cal) if role == "title" else labels.MIN_TEXT_PT
@@ -74,6 +76,11 @@ def mater_back(ctx: PartContext) -> model.Part:
     els.append(model.point("pin", (0.0, 0.0), hole="centre"))
     return model.Part("mater_back", "card", tuple(els), (-R, -R, R, R), {"words_radius_mm": r_cal},
                       w("mater_back.title"))
+
+
+#: The place's line on the back: its middle's height and its height as
+#: shares of the radius inside which the back's words stand.
+PLACE_ROW = (0.33, 0.09)
 
 
 def inner_words(role: str, row, text: str, size_pt: float, w, r_mm: float, style: str = "label",
