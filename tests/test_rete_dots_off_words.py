@@ -42,6 +42,7 @@ KITS = [
     "latitude: 40\nlanguage: en\ndiameter_mm: 120\nowner: Robin Example\n",
     "latitude: 24.5\nlanguage: ar\n",                         # the review's Arabic kit: Orion, Gemini
     "latitude: -37.8\nlanguage: es\n",                        # the review's southern kit: Centaurus, Crux
+    "latitude: -23.5\nlanguage: pt\nsheet: a5\n",              # Orion: a later name with a leader, cut off by one before
 ]
 
 

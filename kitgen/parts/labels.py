@@ -283,11 +283,13 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
                     or by_leader and any(_segment_meets_box(a, b, box) for a, b in near(lines, box, k, slack)):
                 continue
             if with_leaders:
-                if not needs_leader and (not _once(memo, ("own", i), _nearest_own, box, k, points, leaders_from_mm,
-                                                   dots, dot_mm)
-                                         or any(_segments_cross(a, b, p, q)
-                                                for a, b in near(lines, _link_box((x, y), box), k, slack)
-                                                for p, q in _link((x, y), box))):
+                if not needs_leader and not _once(memo, ("own", i), _nearest_own, box, k, points, leaders_from_mm,
+                                                  dots, dot_mm):
+                    continue
+                # (no leader chosen before passes between this label and
+                # its point, with a leader of its own or not)
+                if any(_segments_cross(a, b, p, q) for a, b in near(lines, _link_box((x, y), box), k, slack)
+                       for p, q in _link((x, y), box)):
                     continue
                 if needs_leader and _once(memo, ("beside", i), _beside_another, box, k, points, leaders_from_mm,
                                           max(offset_mm * LEADER_NAME_CLEAR, NAME_GAP_MM), dots, dot_mm):
