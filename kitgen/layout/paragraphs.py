@@ -251,7 +251,8 @@ def fitting_size(blocks, box_mm, words, sizes=(10.5, 10.0, 9.5, 9.0, 8.5, 8.0, 7
 def split_blocks(blocks, width_pt: float, height_pt: float, words, n_pages: int):
     """``(size_pt, chunks)``: the largest body size at which the blocks,
     taken in order, fill at most ``n_pages`` boxes of this size (a heading
-    never left alone at the foot of a page; a :data:`PAGE_BREAK` block
+    never left at the foot of a page without :data:`HEADING_KEEPS_LINES`
+    lines of its text, :func:`_kept_with_next`; a :data:`PAGE_BREAK` block
     starts a new page), and the blocks of each page; or ``None`` when even
     :data:`MIN_BODY_PT` needs more pages."""
     breaks = {k for k, b in enumerate(blocks) if b.kind == PAGE_BREAK}
@@ -262,7 +263,7 @@ def split_blocks(blocks, width_pt: float, height_pt: float, words, n_pages: int)
             if blocks_height_pt(blocks, width_pt, size, words) <= height_pt:
                 return size, [list(blocks)]
             continue
-        alone, after = _alone_and_after_pt(blocks, breaks, width_pt, size, words)
+        alone, after, lines = _alone_and_after_pt(blocks, breaks, width_pt, size, words)
         chunks, current, used = [], [], 0.0
         for k, block in enumerate(blocks):
             if k in breaks:
@@ -271,12 +272,10 @@ def split_blocks(blocks, width_pt: float, height_pt: float, words, n_pages: int)
                 current, used = [], 0.0
                 continue
             if current and used + after[k] > height_pt:
-                moved = []
-                if blocks[current[-1]].kind == "heading" and len(current) > 1:
-                    moved = [current.pop()]
-                chunks.append(current)
+                moved = _kept_with_next(blocks, current, lines)
+                chunks.append(current[:len(current) - len(moved)])
                 current = moved
-                used = alone[moved[0]] if moved else 0.0
+                used = alone[moved[0]] + sum(after[i] for i in moved[1:]) if moved else 0.0
             used += after[k] if current else alone[k]
             current.append(k)
         chunks = [ch for ch in chunks + [current] if ch]
@@ -286,6 +285,29 @@ def split_blocks(blocks, width_pt: float, height_pt: float, words, n_pages: int)
     return None
 
 
+#: Lines of its text that a heading keeps under it on its page: a heading
+#: is kept with its text, never left at the foot of a page with less than
+#: the first two lines of what it heads (common practice in typesetting;
+#: a lead-in of one line, such as a table's, is not enough).
+HEADING_KEEPS_LINES = 2
+
+
+def _kept_with_next(blocks, current, lines) -> list[int]:
+    """The blocks at the end of the page ``current`` (their indices) that
+    go on to the next page with the block that does not fit: the last
+    heading and what stands under it, when that is less than
+    :data:`HEADING_KEEPS_LINES` lines.  The page's first block always
+    stays, so that a page is never left empty."""
+    under = 0
+    for j in range(len(current) - 1, 0, -1):
+        if blocks[current[j]].kind == "heading":
+            return current[j:] if under < HEADING_KEEPS_LINES else []
+        under += lines[current[j]]
+        if under >= HEADING_KEEPS_LINES:
+            return []
+    return []
+
+
 #: A paragraph of one short line: what each block is measured after, for
 #: the space between it and the block above.
 _PROBE = Block("body", "x")
@@ -293,15 +315,17 @@ _PROBE = Block("body", "x")
 
 def _alone_and_after_pt(blocks, breaks, width_pt: float, body_pt: float, words):
     """Per block (0 for a :data:`PAGE_BREAK`): its height at the top of a
-    page, and what it adds under another block, each the very float
+    page, what it adds under another block, each the very float
     :func:`blocks_height_pt` gives for ``[block]`` and for ``[probe,
-    block]`` less ``[probe]``, from one setting of the blocks (#12: the
+    block]`` less ``[probe]``, and its lines (a picture counts as
+    :data:`HEADING_KEEPS_LINES`), from one setting of the blocks (#12: the
     pages' split measured each block three times at each size)."""
     laid = iter(_laid([_PROBE] + [b for k, b in enumerate(blocks) if k not in breaks], width_pt, body_pt, words))
     base = _height_pt(next(laid), 0.0)
-    alone, after = [0.0] * len(blocks), [0.0] * len(blocks)
+    alone, after, lines = [0.0] * len(blocks), [0.0] * len(blocks), [0] * len(blocks)
     for k in (k for k in range(len(blocks)) if k not in breaks):
         item = next(laid)
         alone[k] = _height_pt(item, 0.0)
         after[k] = (base + _height_pt(item, item[4])) - base
-    return alone, after
+        lines[k] = HEADING_KEEPS_LINES if item[0].figure is not None else len(item[3])
+    return alone, after, lines
