@@ -19,11 +19,14 @@ from __future__ import annotations
 import math
 from dataclasses import replace
 
+import numpy as np
+
 from ..geometry import model
 from ..geometry.style import stroke_width_mm
 from . import breaks, curves, labels
 from .context import PartContext
 from .mater_back import inner_words
+from .plate_labels import _midpoint, points_along
 from .rete import NAME_CLEARANCE_MM
 
 #: The pin's crosshair, kept clear of every word (mm).
@@ -101,8 +104,8 @@ def plate_slot(part: model.Part, ctx: PartContext) -> model.Part:
                 best = (sx, y, anchor, width, height)
                 break
     if best is None or best[3] < LONG_NAME_MM:
-        row = _free_row(lines[0].geom["at"][1], (bottom, top), height, taken + _flat_stretches(part, height),
-                        rim, (least, most))
+        row = _free_row_off_named_curves(lines[0].geom["at"][1], (bottom, top), height,
+                                         taken + _flat_stretches(part, height), rim, (least, most), part, d)
         if row is not None and (best is None or row[3] > best[3]):
             best = row
     if best is None:
@@ -114,12 +117,38 @@ def plate_slot(part: model.Part, ctx: PartContext) -> model.Part:
     return replace(part, elements=tuple(broken) + tuple(rest), values={**part.values, "owner_slot": best})
 
 
-def _free_row(label_y: float, label_rows: tuple, height: float, taken: list, rim: float, widths: tuple):
+#: The plate's named curves: a name in a free row keeps off them where it
+#: can (#9: a horizon or a tropic broken for a name reads wrong), crossing
+#: only the thin grid and the straight meridian and east-west line.
+NAMED_CURVES = ("horizon", "equator", "tropic", "twilight")
+
+
+def _free_row_off_named_curves(label_y: float, label_rows: tuple, height: float, taken: list, rim: float,
+                               widths: tuple, part: model.Part, d):
+    """:func:`_free_row` off the plate's :data:`NAMED_CURVES` (each
+    sampled every :data:`MARGIN_MM`, with half its width); across them
+    only where no row off them is :data:`LONG_NAME_MM` wide and a row
+    across them is wider."""
+    m = labels.MARGIN_MM
+    points = np.array([(x, y, stroke_width_mm(e.stroke, d) / 2) for e in part.elements
+                       if e.role in NAMED_CURVES and e.stroke not in ("none", "cut")
+                       for x, y, _ in points_along(e, _midpoint(e), step_mm=m, reach_mm=1e4)]).reshape(-1, 3)
+    row = _free_row(label_y, label_rows, height, taken, rim, widths, points)
+    if row is None or row[3] < LONG_NAME_MM:
+        across = _free_row(label_y, label_rows, height, taken, rim, widths)
+        if across is not None and (row is None or across[3] > row[3]):
+            return across
+    return row
+
+
+def _free_row(label_y: float, label_rows: tuple, height: float, taken: list, rim: float, widths: tuple,
+              points=None):
     """Where :func:`plate_slot`'s places by the label are taken or narrow
     (a small plate): the rows ``height`` mm high, a row every
     :data:`MARGIN_MM`, from the label's towards the plate's centre and on across it, each
     with its widest stretch inside ``rim`` (mm) clear of every box of
-    ``taken``; the slot in the first stretch ``widths[1]`` wide, else in
+    ``taken`` and of the ``points`` (an array of x, y and half a line's
+    width, if any); the slot in the first stretch ``widths[1]`` wide, else in
     the widest at least ``widths[0]`` wide (as near the meridian as the
     stretch allows, at most ``widths[1]`` wide), or None."""
     m = labels.MARGIN_MM
@@ -128,7 +157,7 @@ def _free_row(label_y: float, label_rows: tuple, height: float, taken: list, rim
     y = label_rows[0] - m - height / 2 if inward > 0 else label_rows[1] + m + height / 2
     best = None
     while abs(y) + height / 2 < rim or y * inward < 0:
-        gap = _widest_gap(y, height, taken, rim)
+        gap = _widest_gap(y, height, taken, rim, points)
         if gap is not None and gap[1] >= least and (best is None or gap[1] > best[0][1]):
             best = (gap, y)
             if gap[1] >= most:
@@ -159,16 +188,22 @@ def _flat_stretches(part: model.Part, height: float) -> list[tuple]:
     return out
 
 
-def _widest_gap(y: float, height: float, taken: list, rim: float):
+def _widest_gap(y: float, height: float, taken: list, rim: float, points=None):
     """The widest stretch ``(x0, width)`` in mm of the row centred at ``y``,
     ``height`` high, inside the circle of radius ``rim`` and clear of
-    every box of ``taken`` by :data:`MARGIN_MM`; None outside the circle."""
+    every box of ``taken`` and every point of ``points`` (an array of x,
+    y and how much each is grown) by :data:`MARGIN_MM`; None outside the
+    circle."""
     m, half = labels.MARGIN_MM, height / 2
     reach = rim ** 2 - (abs(y) + half) ** 2
     if reach <= 0:
         return None
     edge = math.sqrt(reach)
-    spans = sorted((t[0] - m, t[2] + m) for t in taken if t[1] - m < y + half and t[3] + m > y - half)
+    spans = [(t[0] - m, t[2] + m) for t in taken if t[1] - m < y + half and t[3] + m > y - half]
+    if points is not None:
+        near = points[np.abs(points[:, 1] - y) < half + points[:, 2] + m]
+        spans += zip((near[:, 0] - near[:, 2] - m).tolist(), (near[:, 0] + near[:, 2] + m).tolist())
+    spans.sort()
     best, x = None, -edge
     for lo, hi in spans + [(edge, edge)]:
         if min(lo, edge) - x > (best[1] if best else 0.0):
