@@ -52,8 +52,8 @@ SLOT_RADII = 0.5
 #: ... and never narrower than this share of the latitude label's width.
 SLOT_LEAST = 0.6
 #: Where the places by the latitude label are narrower than this (mm), a
-#: small plate's, the slot goes to the widest free row of the plate up
-#: to this wide (or :data:`SLOT_RADII`, if wider): room for a long name,
+#: small plate's, the slot goes to a free row of the plate this wide (or
+#: :data:`SLOT_RADII`, if wider), if there is one: room for a long name,
 #: some 26 letters at the 5 pt minimum, a first name and a double surname
 #: such as "Amélie Beauchamp-Lefèvre" (22 mm), whole (#9).
 LONG_NAME_MM = 25.0
@@ -71,11 +71,12 @@ def plate_slot(part: model.Part, ctx: PartContext) -> model.Part:
     nearer (but not narrower than :data:`SLOT_LEAST` labels): the widest
     of those places clear of every word and of the pin (:data:`MARGIN_MM`
     apart), the first of them at equal width; where that is narrower than
-    :data:`LONG_NAME_MM`, the widest free row of the plate
-    (:func:`_free_row`) if it is wider.  The plate's lines are broken round that line as round every
-    other word.  The slot, ``(x, y, anchor, width,
-    height)`` in mm, is in the part's values under ``owner_slot``; a
-    plate with no such room is returned as it is."""
+    :data:`LONG_NAME_MM`, a free row of the plate that wide off its named
+    curves (:func:`_free_row_off_named_curves`), if there is one; with no
+    place by the label, the widest free row.  The plate's lines are
+    broken round that line as round every other word.  The slot, ``(x,
+    y, anchor, width, height)`` in mm, is in the part's values under
+    ``owner_slot``; a plate with no such room is returned as it is."""
     d, w = ctx.dims, ctx.words
     texts = [e for e in part.elements if e.shape == "text"]
     lines = [e for e in texts if e.role == "plate_label"]
@@ -106,7 +107,7 @@ def plate_slot(part: model.Part, ctx: PartContext) -> model.Part:
     if best is None or best[3] < LONG_NAME_MM:
         row = _free_row_off_named_curves(lines[0].geom["at"][1], (bottom, top), height,
                                          taken + _flat_stretches(part, height), rim, (least, most), part, d)
-        if row is not None and (best is None or row[3] > best[3]):
+        if row is not None and (best is None or row[3] >= LONG_NAME_MM):
             best = row
     if best is None:
         return part
@@ -118,24 +119,28 @@ def plate_slot(part: model.Part, ctx: PartContext) -> model.Part:
 
 
 #: The plate's named curves: a name in a free row keeps off them where it
-#: can (#9: a horizon or a tropic broken for a name reads wrong), crossing
-#: only the thin grid and the straight meridian and east-west line.
+#: can (#9: a tropic or a twilight line broken for a name reads wrong),
+#: crossing only the thin grid and the straight meridian and east-west
+#: line; and off the horizon always, the line of every rising, setting
+#: and altitude read on the plate.
 NAMED_CURVES = ("horizon", "equator", "tropic", "twilight")
 
 
 def _free_row_off_named_curves(label_y: float, label_rows: tuple, height: float, taken: list, rim: float,
                                widths: tuple, part: model.Part, d):
     """:func:`_free_row` off the plate's :data:`NAMED_CURVES` (each
-    sampled every :data:`MARGIN_MM`, with half its width); across them
-    only where no row off them is :data:`LONG_NAME_MM` wide and a row
-    across them is wider."""
-    m = labels.MARGIN_MM
-    points = np.array([(x, y, stroke_width_mm(e.stroke, d) / 2) for e in part.elements
-                       if e.role in NAMED_CURVES and e.stroke not in ("none", "cut")
-                       for x, y, _ in points_along(e, _midpoint(e), step_mm=m, reach_mm=1e4)]).reshape(-1, 3)
-    row = _free_row(label_y, label_rows, height, taken, rim, widths, points)
+    sampled every :data:`MARGIN_MM`, with half its width); off the
+    horizon alone where no row off them all is :data:`LONG_NAME_MM`
+    wide and a row off the horizon is wider."""
+    def off(roles):
+        points = np.array([(x, y, stroke_width_mm(e.stroke, d) / 2) for e in part.elements
+                           if e.role in roles and e.stroke not in ("none", "cut")
+                           for x, y, _ in points_along(e, _midpoint(e), step_mm=labels.MARGIN_MM, reach_mm=1e4)])
+        return _free_row(label_y, label_rows, height, taken, rim, widths, points.reshape(-1, 3))
+
+    row = off(NAMED_CURVES)
     if row is None or row[3] < LONG_NAME_MM:
-        across = _free_row(label_y, label_rows, height, taken, rim, widths)
+        across = off(("horizon",))
         if across is not None and (row is None or across[3] > row[3]):
             return across
     return row
