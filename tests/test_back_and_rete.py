@@ -264,7 +264,7 @@ def test_star_names_beside_their_dots_and_off_the_zodiac(head):
     drawn = [e for e in stars if e.stroke != "none"]
     labels = {e.values["name"]: e for e in rete.elements if e.role == "star_label"}
     leaders = {e.values["name"]: e for e in rete.elements if e.role == "star_leader"}
-    unnamed = " ".join(n.text(w) for n in kit.notes if n.key == "notes.unnamed_stars")
+    unnamed = " ".join(n.text(w) for n in kit.notes if n.key.startswith("notes.unnamed_stars"))
     offset = kit.dims.tick_mm * 1.3
     words = [e for e in rete.elements if e.role in ("zodiac_label", "ecliptic_number")]
     (band,) = [e for e in rete.elements if e.role == "ecliptic_band"]

@@ -368,7 +368,12 @@ def test_the_notes_of_a_small_kit_are_told_in_the_recipes_language(tmp_path, cap
     notes = build_kit(load_recipe(recipe)).notes
     keys = {n.key for n in notes}
     # No label of a shipped language is cut short, even at 80 mm (#11).
-    assert len(notes) >= 4 and "notes.unnamed_stars" in keys and "notes.shortened" not in keys
+    assert len(notes) >= 4 and keys & {"notes.unnamed_stars", "notes.unnamed_stars_many"}
+    assert "notes.shortened" not in keys
+    # One star or several: the note agrees with the count (the templates' own
+    # two forms, as the printing steps' _one and _many).
+    assert all(n.key.endswith("_many") == (len(n.values["stars"]) > 1)
+               for n in notes if n.key.startswith("notes.unnamed_stars"))
     report = _messages(code)["notes.report"]
     assert err.splitlines() == [report.format(message=_filled(n, code)) for n in notes]
     if code == "de":

@@ -443,6 +443,7 @@ def shortened_notes(parts, dims, words) -> tuple[Message, ...]:
         unnamed = [e.values["name"] for e in part.elements if e.role == "star" and e.stroke != "none"
                    and e.values["name"] not in named]
         if unnamed:
-            out.append(Message("notes.unnamed_stars", part=name,
-                               stars=[words.star_name(n) for n in unnamed], diameter=size))
+            stars = [words.star_name(n) for n in unnamed]
+            out.append(Message("notes.unnamed_stars", part=name, stars=stars, diameter=size) if len(stars) == 1
+                       else Message("notes.unnamed_stars_many", part=name, stars=stars, diameter=size))
     return tuple(out)
