@@ -1,7 +1,8 @@
 """A pupil reads a small kit alone (#9): the owner's name on every part,
-the twilight line's name on the plate and the clock ring's caption on the
-mater's back are there, whole where the room exists, inside their part,
-and neither meet another word nor are crossed by a line.
+the twilight line's name on the plate, the clock ring's caption on the
+mater's back and the key slot's name on its front are there, whole where
+the room exists, inside their part, and neither meet another word nor
+are crossed by a line.
 
 Read from the exported geometry (``kitgen geometry``'s JSON,
 :func:`kitgen.render.json_export.render_json`) as a user of it would.
@@ -35,7 +36,11 @@ from shapely.geometry import Point, Polygon
 from kitgen.geometry.style import stroke_width_mm
 from kitgen.kit import build_kit
 from kitgen.recipe.load import validate_recipe
+from kitgen.parts.dimensions import dimensions
+from kitgen.parts.mater_front import key_slot
 from kitgen.render.json_export import render_json
+from kitgen.template_files import available_languages
+from kitgen.words.templates import load_words
 from kitgen.words.locale import true_minus
 from tests.geos_lines import stroke_line
 
@@ -187,6 +192,26 @@ def test_the_clock_rings_caption_is_whole_inside_the_ring(built):
     ring = Point(0.0, 0.0).buffer(inner, 256)
     for el in caption:
         assert ring.contains(_text_polygon(el, kit.words)), el["text"]
+
+
+def test_the_key_slot_is_named_whole_and_clear(built):
+    name, kit, data = built
+    front = next(p for p in data["parts"] if p["kind"] == "mater_front")
+    assert any(el.get("purpose") == "key_slot" for el in front["elements"])
+    named = _check_clear(kit, front, "key_slot_label")
+    assert [el["text"] for el in named] == [kit.words("mater_front.key_slot")], name
+
+
+@pytest.mark.parametrize("language", available_languages())
+def test_the_key_slot_is_named_at_every_size(language):
+    # The name had been left out wherever rounding made its room, a chord
+    # as wide as the words, a hair too narrow (A5 in French, 90 to 105 mm
+    # in English).
+    words = load_words(language)
+    for diameter in range(80, 605, 5):
+        els = key_slot(dimensions(diameter, math.radians(23.44)), words)
+        assert [el.geom["text"] for el in els if el.role == "key_slot_label"] == \
+            [words("mater_front.key_slot")], (language, diameter)
 
 
 def test_the_checks_see_a_word_on_a_line_or_a_word():
