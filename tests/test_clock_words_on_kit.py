@@ -144,3 +144,16 @@ def test_a_kit_without_a_place_names_its_latitude_in_the_sentence():
     assert "At Latitude" not in text and "at Latitude" not in text
     assert "At latitude 52.2° N on " in text
     assert "Sunrise and sunset at latitude 52.2° N in 2027" in text
+
+
+@pytest.mark.parametrize("language", ["en", "fr", "ru"])
+def test_a_kit_without_longitude_says_where_the_zone_meridian_lies(language):
+    """Made without longitude and time zone, the kit tells the pupil how to
+    find the zone's meridian for the step to the clock by hand: 15 deg for
+    each hour from UTC, the standard zones' definition (common practice);
+    a kit with its zone prints the step itself and not this."""
+    w = _kit(f"latitude: 48.85\nlanguage: {language}\n").words
+    sentence = w("almanac.zone_meridian")
+    assert "15°" in sentence and "UTC" in sentence + w("almanac.mean_missing")
+    assert sentence in _story_text(_kit(f"latitude: 48.85\nlanguage: {language}\n"))
+    assert sentence not in _story_text(_kit(LONDON + f"language: {language}\n"))

@@ -324,12 +324,19 @@ def clock_step(kit, number: int) -> list[Block]:
     if not has_clock_ring(kit):
         out = [Block("item", w("almanac.clock_step_table", heading=w("almanac.correction_heading"),
                                clock_name=clock_name(kit)), w.number(number) + ".")]
-        return out if _zoned(kit) else out + [Block("body", w("almanac.mean_missing"))]
+        return out if _zoned(kit) else out + [Block("body", w("almanac.mean_missing")), _zone_meridian(w)]
     if _zoned(kit):
         text = w("almanac.clock_step" if _summer(kit) else "almanac.clock_step_standard", zone=zone_name(kit))
-    else:
-        text = w("almanac.clock_step_mean")
-    return [Block("item", text, w.number(number) + ".")]
+        return [Block("item", text, w.number(number) + ".")]
+    return [Block("item", w("almanac.clock_step_mean"), w.number(number) + "."), _zone_meridian(w)]
+
+
+def _zone_meridian(w) -> Block:
+    """Where a zone's meridian lies, for the pupil who works out the step
+    from local mean time to the clock by hand (a kit made without the
+    longitude and time zone): 15 deg for each hour from UTC, by the
+    definition of the standard zones (common practice)."""
+    return Block("body", w("almanac.zone_meridian"))
 
 
 @_per_kit
