@@ -151,6 +151,9 @@ def test_answer_key_on_a_page_of_its_own(kit):
     # The key's page holds the answers and no question.
     assert w.number(height["height_m"], 1) in pages[key_pages[0]]
     assert "?" not in pages[key_pages[0]]
+    # The pupil's sheet has a line for the name; the teacher's key has none.
+    name_label = w("worksheet.name_line").split(":")[0]
+    assert name_label in pages[sheet_pages[0]] and name_label not in pages[key_pages[0]]
 
 
 def test_no_worksheet_unless_asked():

@@ -469,7 +469,7 @@ def worksheet_blocks(kit) -> list[Block]:
     w = kit.words
     values = [_worksheet_values(kit, q) for q in questions]
     out = [Block(PAGE_BREAK, ""), Block("heading", w("worksheet.heading", **values[0])),
-           Block("body", w("worksheet.intro", **values[0]))]
+           Block("body", w("worksheet.name_line")), Block("body", w("worksheet.intro", **values[0]))]
     out += [Block("item", w("worksheet.q_" + q.kind, **v), w.number(k) + ".")
             for k, (q, v) in enumerate(zip(questions, values), start=1)]
     out += [Block(PAGE_BREAK, ""), Block("heading", w("worksheet.key_heading", **values[0]))]
