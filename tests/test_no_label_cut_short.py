@@ -34,3 +34,23 @@ def test_no_label_is_cut_short_at_small_sizes(language):
                     if e.shape == "text" and e.geom["text"].endswith("\u2026")]
             assert not any(n.key == "notes.shortened" for n in kit.notes)
     assert not cut, cut[:5]
+
+
+@pytest.mark.parametrize("language", ["en", "ar", "hi"])
+def test_a_room_as_wide_as_the_words_holds_them_at_their_size(language):
+    """A room worked out from the words' own width, as the key slot's
+    chord is (kitgen.parts.mater_front), holds them at their size, the
+    fitting rule's first step, even at the legible minimum and with the
+    room short of the width by floating-point rounding: its words in the
+    shipped fonts, measured by the same rule (kitgen.words.measure)."""
+    from kitgen.words.fit import fit_label
+    from kitgen.words.templates import load_words
+
+    w = load_words(language)
+    text = w("mater_front.key_slot")
+    width = w.measure(text, 5.0).width_mm
+    for room in (width, width * (1 - 1e-12), width - 1e-12):
+        fitted = fit_label(text, 5.0, room, w.measure, min_pt=5.0)
+        assert (fitted.lines, fitted.size_pt, fitted.step) == ((text,), 5.0, 1)
+    # A room truly narrower does not hold them whole at that size.
+    assert fit_label(text, 5.0, width * 0.99, w.measure, min_pt=5.0).step != 1

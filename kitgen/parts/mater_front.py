@@ -56,10 +56,6 @@ def hang_hole(dims) -> model.Element:
     return model.circle("hang_hole", (0.0, y), radius, "cut")
 
 
-#: Room (mm) the key slot's name has beyond its own width.
-FIT_SLACK_MM = 0.1
-
-
 def key_slot(d, w) -> list[model.Element]:
     """The slot for the plate's key (kitgen.parts.plate.key_tab_mm), cut
     across the key halfway along it, in the gap between the plate and the
@@ -68,11 +64,9 @@ def key_slot(d, w) -> list[model.Element]:
     y = -(d.plate_radius_mm + 0.5 * tl)
     out = [model.segment("cut", (-(tw / 2 + 0.5), y), (tw / 2 + 0.5, y), "cut", purpose="key_slot")]
     # Named just inside the plate's circle, which covers it once built,
-    # as near the slot as the chord leaves room for the words (#9), with
-    # FIT_SLACK_MM to spare: a room exactly as wide as the words fails
-    # the fitting rule by rounding, and the name was left out.
+    # as near the slot as the chord leaves room for the words (#9).
     ext = w.measure(w("mater_front.key_slot"), d.small_text_pt)
-    h, half = ext.height_mm + 0.1, ext.width_mm / 2 + labels.MARGIN_MM + FIT_SLACK_MM / 2
+    h, half = ext.height_mm + 0.1, ext.width_mm / 2 + labels.MARGIN_MM
     rp = d.plate_radius_mm
     y_in = min(rp - labels.MARGIN_MM, math.sqrt(max(rp ** 2 - half ** 2, 0.0))) - h / 2
     out += labels.fitted_text("key_slot_label", (0.0, -y_in), w("mater_front.key_slot"), d.small_text_pt, w,

@@ -25,6 +25,9 @@ from dataclasses import dataclass
 #: Lines of a two-line label are this many times the size apart
 #: (common practice in typesetting: leading of about 1.2 em).
 LEADING = 1.15
+#: Share of the room by which words may exceed it and still fit at their
+#: size: floating-point rounding, a billionth of the width.
+FIT_TOLERANCE = 1e-9
 
 
 @dataclass(frozen=True)
@@ -52,7 +55,10 @@ def fit_label(text: str, size_pt: float, max_width_mm: float, measure, min_pt: f
         scale = min([1.0] + [max_width_mm / w for w in widths if w > 0])
         if max_height_mm is not None and height > 0:
             scale = min(scale, max_height_mm / height)
-        s = top_pt if scale >= 1.0 else top_pt * scale * 0.999
+        # A room as wide as the words, worked out from their own width,
+        # holds them: its last bits of floating-point rounding are no
+        # reason to shrink them (below the minimum, where they fit at it).
+        s = top_pt if scale >= 1.0 - FIT_TOLERANCE else top_pt * scale * 0.999
         return min(top_pt, s) if s >= min_pt - 1e-9 else None
 
     s = size_for((text,), size_pt)
