@@ -26,7 +26,7 @@ from ..geometry.style import stroke_width_mm
 from . import breaks, curves, labels
 from .context import PartContext
 from .mater_back import inner_words
-from .plate_labels import _midpoint, points_along
+from .plate_labels import midpoint, points_along
 from .rete import NAME_CLEARANCE_MM
 
 #: The pin's crosshair, kept clear of every word (mm).
@@ -135,7 +135,7 @@ def _free_row_off_named_curves(label_y: float, label_rows: tuple, height: float,
     def off(roles):
         points = np.array([(x, y, stroke_width_mm(e.stroke, d) / 2) for e in part.elements
                            if e.role in roles and e.stroke not in ("none", "cut")
-                           for x, y, _ in points_along(e, _midpoint(e), step_mm=labels.MARGIN_MM, reach_mm=1e4)])
+                           for x, y, _ in points_along(e, midpoint(e), step_mm=labels.MARGIN_MM, reach_mm=1e4)])
         return _free_row(label_y, label_rows, height, taken, rim, widths, points.reshape(-1, 3))
 
     row = off(NAMED_CURVES)

@@ -695,13 +695,13 @@ class PlateLabeller:
         for lines in (protected, grid, named, ()):
             # anywhere along the circle where it is clear, then beside a small one
             for el in els:
-                b = self.first_free(points_along(el, _midpoint(el), reach_mm=1e4), text, size, lines)
+                b = self.first_free(points_along(el, midpoint(el), reach_mm=1e4), text, size, lines)
                 if b is not None:
                     return [self.put("almucantar_label", b, text, size, altitude_deg=float(alt))]
             for el in els:
                 if el.geom.get("radius", math.inf) > 4 * self.d.tick_mm + 5.0:
                     continue
-                for c in points_along(el, _midpoint(el), step_mm=0.5, reach_mm=1e4):
+                for c in points_along(el, midpoint(el), step_mm=0.5, reach_mm=1e4):
                     b = self.first_free([(x, y, 0.0) for x, y in around(c, STEP_MM, 2.5)], text, size, lines)
                     if b is not None:
                         return [self.put("almucantar_label", b, text, size, altitude_deg=float(alt))]
@@ -823,7 +823,7 @@ class PlateLabeller:
         # the points along each piece of the curve, and the names' turns there, the same at every offset
         paths = []
         for el in els:
-            cands = points_along(el, _midpoint(el), step_mm=max(1.0, ext.height_mm / 3), reach_mm=4 * room.disc)
+            cands = points_along(el, midpoint(el), step_mm=max(1.0, ext.height_mm / 3), reach_mm=4 * room.disc)
             paths.append((cands, [upright(a) for _, _, a in cands]))
         # On the curve, then beside it at four offsets (one list of places
         # for those four, tried in the same order, so that they are
@@ -929,7 +929,10 @@ def on_meridian(el) -> bool:
     return (abs(x0) < 1e-6 and abs(x1) < 1e-6) or (abs(y0) < 1e-6 and abs(y1) < 1e-6)
 
 
-def _midpoint(el):
+def midpoint(el):
+    """The middle (mm) of a stroke: a circle's lowest point, an arc's
+    middle, a segment's or a polyline's (where :func:`points_along`
+    starts to walk it both ways)."""
     g = el.geom
     if el.shape == "circle":
         c, r = g["center"], g["radius"]
