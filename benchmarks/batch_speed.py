@@ -263,7 +263,7 @@ def measure(set_path: Path, work: Path) -> dict:
                                          "--jobs", "1", "--quiet"])
 
     sizes: dict[str, list[float]] = {}
-    with open(work / "out-1" / "manifest.csv", newline="", encoding="utf-8") as fh:
+    with open(work / "out-1" / "manifest.csv", newline="", encoding="utf-8-sig") as fh:
         for row in csv.DictReader(fh):
             sizes.setdefault(row["language"], []).append((work / "out-1" / row["file"]).stat().st_size / 1024)
     out["d"] = {code: max(sizes[code]) for code in LANGUAGES if code in sizes}

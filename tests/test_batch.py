@@ -113,7 +113,7 @@ def two_workers(class_set):
 
 def _manifest(folder: Path) -> list[dict]:
     # Reference: Python's csv module, RFC 4180.
-    with open(folder / "manifest.csv", newline="", encoding="utf-8") as fh:
+    with open(folder / "manifest.csv", newline="", encoding="utf-8-sig") as fh:
         return list(csv.DictReader(fh))
 
 
@@ -207,7 +207,8 @@ def test_print_files_hold_every_kits_pages_in_order(one_worker):
                     assert [float(v) for v in got.mediabox] == [float(v) for v in page.mediabox]
                     assert page.get_contents().get_data() in got.get_contents().get_data()
                     assert stamp in got.extract_text()
-                spans.append(f"{first}-{at[material]}")
+                # one page as its number, else first and last with an en dash
+                spans.append(str(first) if first == at[material] else f"{first}\u2013{at[material]}")
             assert row[f"{material}_print_pages"] == " ".join(spans)
     assert at == {m: len(printed[m]) for m in at}
 
@@ -220,7 +221,7 @@ def test_a_school_listed_apart_shares_its_pages_in_the_print_files(one_worker):
     _, out = one_worker
     rows = {r["owner"]: r for r in _manifest(out)}
     card = PdfReader(out / "print-card.pdf")
-    pages = [card.pages[int(rows[name]["card_print_pages"].split("-")[0]) - 1] for name in
+    pages = [card.pages[int(re.match(r"\d+", rows[name]["card_print_pages"]).group()) - 1] for name in
              ("Mira Quellstone", "Lena Okonkwo-Fry")]
     numbers = [int(rows[name]["kit"]) for name in ("Mira Quellstone", "Lena Okonkwo-Fry")]
     assert numbers[1] - numbers[0] > 5
@@ -423,7 +424,7 @@ def test_manifest_text_is_never_a_spreadsheet_formula():
 
     row = {c: "" for c in COLUMNS}
     row.update(kit=1, owner="=HYPERLINK(\"http://x\")", title="@SUM(A1)", place="+1", latitude="-33.9", status="ok")
-    got = next(csv.DictReader(manifest_csv([row]).decode("utf-8").splitlines()))
+    got = next(csv.DictReader(manifest_csv([row]).decode("utf-8-sig").splitlines()))
     assert (got["owner"], got["title"], got["place"]) == ("'=HYPERLINK(\"http://x\")", "'@SUM(A1)", "'+1")
     assert got["latitude"] == "-33.9"   # a number stays a number
 
@@ -458,3 +459,34 @@ def test_print_files_embed_every_font_they_name(one_worker):
                 assert base.split("+", 1)[-1] not in STANDARD_14, (material, base)
                 assert "/FontFile2" in font["/FontDescriptor"].get_object(), (material, base)
         assert count > 0
+
+
+@pytest.mark.parametrize("spans", [[(1, 4)], [(5, 8), (9, 12)], [(3, 3)], [(1, 1), (2, 2)], [(10, 12), (13, 15)]])
+def test_manifest_opens_in_a_spreadsheet_as_written(spans):
+    # The byte order mark EF BB BF (The Unicode Standard, sec. 23.8) is how
+    # spreadsheet programs tell a UTF-8 file from their code page (common
+    # practice, no source).  A page range must not be read as a date: the
+    # general-purpose parser python-dateutil stands in for a spreadsheet's
+    # guess (it reads "1-4", with a hyphen, as a date); a cell that is one
+    # whole number stays a number.
+    from dateutil import parser as dates
+
+    from kitgen.batch.manifest import COLUMNS, manifest_csv, manifest_row
+    from kitgen.batch.setfile import SetKit
+
+    assert dates.parse("1-4").month in (1, 4)   # the check below can fail
+    row = {c: "" for c in COLUMNS}
+    row.update(kit=1, owner="Ñuñoa Ødegård", status="ok")
+    data = manifest_csv([row])
+    assert data.startswith(b"\xef\xbb\xbf")
+    assert next(csv.DictReader(data.decode("utf-8-sig").splitlines()))["owner"] == "Ñuñoa Ødegård"
+    kit = SetKit(number=1, where=None, tree={"owner": "A"}, copies=1)
+    cells = manifest_row(kit, "", None, {"card": spans}, "failed")["card_print_pages"].split(" ")
+    assert len(cells) == len(spans)
+    for cell, (first, last) in zip(cells, spans):
+        if first == last:
+            assert cell == str(first)
+        else:
+            assert re.findall(r"\d+", cell) == [str(first), str(last)]
+            with pytest.raises((ValueError, OverflowError)):
+                dates.parse(cell)

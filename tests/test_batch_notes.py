@@ -38,7 +38,7 @@ def test_each_kits_notes_are_its_single_builds(tmp_path, capsys):
     (tmp_path / "set.yaml").write_text(yaml.safe_dump({"defaults": {"epoch": 2027}, "kits": KITS},
                                                       allow_unicode=True), encoding="utf-8")
     assert main(["batch", str(tmp_path / "set.yaml"), "-o", str(tmp_path / "out"), "--jobs", "1", "--quiet"]) == 0
-    with open(tmp_path / "out" / "manifest.csv", newline="", encoding="utf-8") as fh:
+    with open(tmp_path / "out" / "manifest.csv", newline="", encoding="utf-8-sig") as fh:
         rows = list(csv.DictReader(fh))
     for k, (row, recipe) in enumerate(zip(rows, KITS)):
         said = _single_notes(tmp_path, recipe, k, capsys)

@@ -42,7 +42,7 @@ def built(tmp_path_factory):
     root = tmp_path_factory.mktemp("stocks")
     (root / "set.yaml").write_text(yaml.safe_dump({"defaults": DEFAULTS, "kits": KITS}), encoding="utf-8")
     assert main(["batch", str(root / "set.yaml"), "-o", str(root / "out"), "--jobs", "1", "--quiet"]) == 0
-    with open(root / "out" / "manifest.csv", newline="", encoding="utf-8") as fh:
+    with open(root / "out" / "manifest.csv", newline="", encoding="utf-8-sig") as fh:
         return root / "out", list(csv.DictReader(fh))
 
 
@@ -73,7 +73,7 @@ def test_answer_keys_go_to_the_teachers_file_only(built):
     assert not any(_key_heading() in t for t in paper)
     assert len(answers) == 2 and all(_key_heading() in t for t in answers)
     assert [int(r["answers_pages"]) for r in rows] == [1, 0, 1]
-    assert [r["answers_print_pages"] for r in rows] == ["1-1", "", "2-2"]
+    assert [r["answers_print_pages"] for r in rows] == ["1", "", "2"]
 
 
 def test_duplex_sides_pair_in_their_own_file(built):
@@ -83,7 +83,7 @@ def test_duplex_sides_pair_in_their_own_file(built):
     texts = [p.extract_text() for p in kit]
     said = load_words("en").template("printing.duplex_long").split("{front}")[1].split("{back}")[0]
     front = next(int(m.group(1)) for t in texts for m in [re.search(r"(\d+)" + re.escape(said) + r"(\d+)", t)] if m)
-    assert len(duplex) == 4 and rows[1]["duplex_print_pages"] == "1-2 3-4"
+    assert len(duplex) == 4 and rows[1]["duplex_print_pages"] == "1\u20132 3\u20134"
     for first in (0, 2):   # each copy: its front on an odd page, its back on the next
         assert kit[front - 1].get_contents().get_data() in duplex[first].get_contents().get_data()
         assert kit[front].get_contents().get_data() in duplex[first + 1].get_contents().get_data()
@@ -102,16 +102,16 @@ def test_one_answer_key_a_school(tmp_path):
             {"owner": "Mirela Tavira", "latitude": -33.9}, {"owner": "Teodora Valcorvo"}, {"copies": 1}]
     (tmp_path / "set.yaml").write_text(yaml.safe_dump({"defaults": school, "kits": kits}), encoding="utf-8")
     assert main(["batch", str(tmp_path / "set.yaml"), "-o", str(tmp_path / "out"), "--jobs", "1", "--quiet"]) == 0
-    with open(tmp_path / "out" / "manifest.csv", newline="", encoding="utf-8") as fh:
+    with open(tmp_path / "out" / "manifest.csv", newline="", encoding="utf-8-sig") as fh:
         rows = list(csv.DictReader(fh))
     answers = _texts(tmp_path / "out" / "print-answers.pdf")
     assert len(answers) == 2 and all(_key_heading() in t for t in answers)
-    assert [r["answers_print_pages"] for r in rows] == ["1-1", "1-1", "2-2", "1-1", "1-1"]
+    assert [r["answers_print_pages"] for r in rows] == ["1", "1", "2", "1", "1"]
     for row in rows:   # each pupil's own key page is the one printed (its content stream, read by pypdf)
         own = pypdf.PdfReader(tmp_path / "out" / row["file"]).pages
         key = next(p for p in own if _key_heading() in p.extract_text())
         printed = pypdf.PdfReader(tmp_path / "out" / "print-answers.pdf").pages[
-            int(row["answers_print_pages"].split("-")[0]) - 1]
+            int(row["answers_print_pages"]) - 1]
         assert key.get_contents().get_data() in printed.get_contents().get_data()
     # no pupil's name, no kit's stamp: the key's heading names the place and year
     assert not any(k["owner"] in t for t in answers for k in kits if k.get("owner"))

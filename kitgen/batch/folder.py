@@ -73,9 +73,12 @@ def _is_set_output(folder: Path) -> bool:
 
 
 def _is_manifest(path) -> bool:
+    """Whether ``path`` starts as a set's manifest does, after its byte
+    order mark (kitgen.batch.manifest) or, written by an earlier kitgen,
+    without one."""
     try:
         with open(path, "rb") as fh:
-            return fh.read(16).startswith(b"kit,owner,")
+            return fh.read(19).removeprefix(b"\xef\xbb\xbf").startswith(b"kit,owner,")
     except OSError:
         return False
 

@@ -1,7 +1,10 @@
 """The set's ``manifest.csv``: one row a kit, what it is, where its file
 and its pages are, and whether it was built (#12).
 
-Columns (RFC 4180 CSV, UTF-8, ``\\r\\n`` line ends as the RFC writes them):
+Columns (RFC 4180 CSV, UTF-8 after a byte order mark, ``\\r\\n`` line ends
+as the RFC writes them; the mark is how spreadsheet programs tell UTF-8
+from the system's own code page, common practice, so that a pupil's
+"Ñ" or a Cyrillic title opens as written):
 
 - ``kit``: the kit's number in the set, from 1;
 - ``owner``, ``title``, ``place``, ``latitude``, ``language``: as the merged
@@ -17,8 +20,8 @@ Columns (RFC 4180 CSV, UTF-8, ``\\r\\n`` line ends as the RFC writes them):
   a worksheet's answer key for the teacher, a duplex mater's two sides);
 - ``paper_print_pages`` ... ``film_print_pages``: where its copies are in
   the print file of that stock (``print-paper.pdf`` ...), such as
-  ``5-8 9-12``; for the answer key, its school's one key, which the
-  school's kits all name;
+  ``5–8 9–12`` (:data:`SPAN_DASH`), or ``3`` for one page; for the answer
+  key, its school's one key, which the school's kits all name;
 - ``status``: ``ok``, or the one-line reason it was not built;
 - ``notes``: what its build thinned or left out to keep every scale
   legible, as ``kitgen build`` says it, in the kit's language, the notes
@@ -83,7 +86,7 @@ def manifest_csv(rows) -> bytes:
     writer.writeheader()
     for row in rows:
         writer.writerow({k: _inert(v) if k in TEXT_COLUMNS else v for k, v in row.items()})
-    return buf.getvalue().encode("utf-8")
+    return buf.getvalue().encode("utf-8-sig")
 
 
 def _inert(value) -> str:
@@ -92,8 +95,16 @@ def _inert(value) -> str:
     return "'" + text if text.startswith(_FORMULA_START) else text
 
 
+#: Between a span's first and last page: the en dash (U+2013) of
+#: typesetting's ranges.  Spreadsheet programs take "1-4", with a hyphen,
+#: for a date (4 January) and keep "1–4" as text (common practice, no source).
+SPAN_DASH = "\u2013"
+
+
 def _spans(spans) -> str:
-    return " ".join(f"{a}-{b}" for a, b in spans)
+    """Print-file spans ``[(first, last), ...]`` as a cell: ``5–8 9–12``,
+    one page as its number."""
+    return " ".join(str(a) if a == b else f"{a}{SPAN_DASH}{b}" for a, b in spans)
 
 
 def _text(value) -> str:
