@@ -367,7 +367,7 @@ def _month_rows(kit, entries) -> list[Block]:
         texts = [t for m, t in entries if m == month]
         if texts:
             out.append(Block("item", w("almanac.month_row", month=months[month - 1],
-                                       entries=w("page.list_separator").join(texts)), "\u2022"))
+                                       entries=w("page.list_separator").join(texts)), "\u2022", row=True))
     return out
 
 

@@ -26,12 +26,15 @@ class Block:
     ``body``, ``item`` or ``caution`` (or :data:`PAGE_BREAK`, which starts
     a new page); ``bullet`` is printed before an item.  A ``figure`` block
     is a picture (:class:`kitgen.layout.figures.Figure`, built for the
-    column's width) under its caption ``text``, never split across pages."""
+    column's width) under its caption ``text``, never split across pages.
+    A ``row`` is one of a table's rows, which a run of them makes
+    (:data:`TABLE_KEEPS_ROWS`)."""
 
     kind: str
     text: str
     bullet: str = ""
     figure: Any = None
+    row: bool = False
 
 
 @dataclass(frozen=True)
@@ -273,6 +276,9 @@ def split_blocks(blocks, width_pt: float, height_pt: float, words, n_pages: int)
                 continue
             if current and used + after[k] > height_pt:
                 moved = _kept_with_next(blocks, current, lines)
+                if not moved:
+                    rows = _rows_kept_together(blocks, current, k)
+                    moved = _kept_with_next(blocks, current[:len(current) - len(rows)], lines) + rows
                 chunks.append(current[:len(current) - len(moved)])
                 current = moved
                 used = alone[moved[0]] + sum(after[i] for i in moved[1:]) if moved else 0.0
@@ -306,6 +312,34 @@ def _kept_with_next(blocks, current, lines) -> list[int]:
         if under >= HEADING_KEEPS_LINES:
             return []
     return []
+
+
+#: Rows of a table that a page break leaves on each side of it: a table's
+#: first row is not left alone at a page's foot, nor its last alone at the
+#: top of the next page (common practice in typesetting, as for the lines
+#: of a paragraph: no orphan, no widow).
+TABLE_KEEPS_ROWS = 2
+
+
+def _rows_kept_together(blocks, current, k: int) -> list[int]:
+    """The rows at the end of the page ``current`` (their indices) that go
+    on to the next page with the row ``k`` that does not fit, so that
+    each page holds at least :data:`TABLE_KEEPS_ROWS` of the table, or the
+    table's rows on this page all go where it has too few to give.  The
+    page's first block always stays."""
+    if not blocks[k].row:
+        return []
+    tail = 0
+    while tail < len(current) - 1 and blocks[current[len(current) - 1 - tail]].row:
+        tail += 1
+    rest = 0   # the table's rows from k on
+    while k + rest < len(blocks) and blocks[k + rest].row:
+        rest += 1
+    need = max(0, TABLE_KEEPS_ROWS - rest)
+    if tail == 0 or (tail >= TABLE_KEEPS_ROWS and need == 0):
+        return []
+    go = need if tail - need >= TABLE_KEEPS_ROWS else tail
+    return current[len(current) - go:]
 
 
 #: A paragraph of one short line: what each block is measured after, for
