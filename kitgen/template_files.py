@@ -16,6 +16,10 @@ import yaml
 
 #: A section of optional local star names (IAU name -> local name).
 STAR_NAMES = "star_names"
+#: A section of a shipped template's optional contractions: a preposition
+#: of its text and the article a name put after it begins with, as they
+#: join (French "à" and "Le Havre": "au Havre"), kitgen.words.templates.
+CONTRACTIONS = "contractions"
 
 
 def available_languages() -> list[str]:
@@ -37,6 +41,13 @@ def shipped_tree(language: str) -> dict:
     return yaml.load(text, Loader=_SAFE_LOADER)
 
 
+def shipped_contractions(language: str) -> dict[str, str]:
+    """The shipped template's :data:`CONTRACTIONS`: ``{"à Le ": "au "}``,
+    the preposition and the name's first word as written, and what they
+    become; none for most languages."""
+    return {str(k): str(v) for k, v in (shipped_tree(language).get(CONTRACTIONS) or {}).items()}
+
+
 def flatten(tree, prefix: str = "") -> dict:
     """``{"a": {"b": "x"}}`` as ``{"a.b": "x"}``; lists kept as lists of text."""
     out = {}
@@ -55,6 +66,7 @@ def split_tree(tree: dict) -> tuple[dict, dict]:
     """(flattened words, star names) of a template tree."""
     tree = dict(tree)
     stars = tree.pop(STAR_NAMES, None) or {}
+    tree.pop(CONTRACTIONS, None)   # not words of their own (shipped_contractions)
     return flatten(tree), {str(k): str(v) for k, v in stars.items()}
 
 

@@ -12,11 +12,12 @@ English template before anything is built.
 
 from __future__ import annotations
 
+import re
 import string
 import unicodedata
 
 from ..errors import Message, UserError, few
-from ..template_files import STAR_NAMES, available_languages, shipped_tree
+from ..template_files import STAR_NAMES, available_languages, shipped_contractions, shipped_tree
 from ..template_files import split_tree as _split
 from . import fonts, locale
 from .fit import Fitted, fit_label
@@ -28,6 +29,27 @@ META_KEYS = ("language", "reviewed_by_native_speaker")
 #: A language file is a few kilobytes; refuse anything absurdly large unread.
 MAX_LANGUAGE_FILE_BYTES = 256 * 1024
 MAX_STRING_CHARS = 600
+
+
+#: Where a value begins in a composed text, while contractions are made: a
+#: private-use character, which no template or name holds.
+_START = "\ue000"
+
+
+def _joins(contractions: dict):
+    """The pattern that finds a contraction's preposition (after no
+    letter) and article (a value's first word) on either side of
+    :data:`_START`, with what each pair becomes; None without any."""
+    if not contractions:
+        return None
+    pairs = {}
+    for written, joined in contractions.items():
+        head, _, tail = written.partition(" ")
+        pairs[(head + " ", tail)] = joined
+    heads = "|".join(sorted({re.escape(h) for h, _ in pairs}, key=len, reverse=True))
+    tails = "|".join(sorted({re.escape(t) for _, t in pairs}, key=len, reverse=True))
+    pattern = re.compile(rf"(?<!\w)({heads}){_START}({tails})")
+    return pattern, {h + t: j for (h, t), j in pairs.items()}
 
 
 def word_keys(table: dict) -> set[str]:
@@ -46,7 +68,8 @@ class Words:
     divisions of the ecliptic, the month names from CLDR) by :meth:`items`;
     numbers by :meth:`number`; text sizes by :meth:`measure`."""
 
-    def __init__(self, language: str, table: dict, star_names: dict | None = None, native_digits: bool = False):
+    def __init__(self, language: str, table: dict, star_names: dict | None = None, native_digits: bool = False,
+                 contractions: dict | None = None):
         self.language = language
         self.native_digits = bool(native_digits)
         self.script = locale.script(language)
@@ -56,6 +79,7 @@ class Words:
         self._table["calendar.months_short"] = locale.month_names(language, "abbreviated")
         self._stars = dict(star_names or {})
         self._numbers: dict[tuple, str] = {}
+        self._joins = _joins(contractions or {})
 
     def __call__(self, key: str, **values) -> str:
         try:
@@ -64,10 +88,27 @@ class Words:
             raise KeyError(f"template {self.language!r} has no key {key!r}") from None
         if isinstance(template, list):
             raise KeyError(f"template key {key!r} is a list; use items()")
-        text = template.format(**{name: self.isolated(v) for name, v in values.items()}) if values else template
+        if not values:
+            text = template
+        elif self._joins is None:
+            text = template.format(**{name: self.isolated(v) for name, v in values.items()})
+        else:
+            text = self._joined(template.format(**{name: _START + self.isolated(v) if isinstance(v, str) else v
+                                                   for name, v in values.items()}))
         # In a right-to-left language each number reads left to right,
         # its sign and degree sign with it (#9).
         return isolate_numbers(text) if self.rtl else text
+
+    def _joined(self, text: str) -> str:
+        """``text`` with each contraction made where a value (marked by
+        :data:`_START`) begins with the article its preposition joins,
+        and the marks taken out."""
+        pattern, joined = self._joins
+        def join(m) -> str:
+            both = joined.get(m.group(1) + m.group(2))
+            return m.group(0) if both is None else both + _START
+
+        return pattern.sub(join, text).replace(_START, "")
 
     def isolated(self, value):
         """``value`` as it goes into a template: text holding a letter
@@ -153,7 +194,7 @@ def load_words(language: str, native_digits: bool = False) -> Words:
     if language not in available_languages():
         raise UserError("errors.unknown_language_code", value=repr(language), codes=available_languages())
     table, stars = _split(shipped_tree(language))
-    return Words(language, table, stars, native_digits)
+    return Words(language, table, stars, native_digits, shipped_contractions(language))
 
 
 def words_from_tree(tree: dict, native_digits: bool = False) -> Words:
