@@ -223,3 +223,24 @@ def test_beyond_the_tropics_the_longest_day_against_de421(lat, lon, tz, month):
     dates, dec = _de421_noon_declination_deg(lon)
     best = dates[int((dec if lat > 0 else -dec).argmax())]
     assert a["longest_day"]["month"] == month == best.month and abs(a["longest_day"]["day"] - best.day) <= 1
+
+
+@pytest.mark.parametrize("language", ["es", "de", "ru", "fr"])
+def test_a_kit_without_a_place_names_its_latitude_as_a_title(language):
+    # Common practice: a heading names its subject in the nominative,
+    # without the article or preposition a sentence gives it ("Hoja de
+    # trabajo: latitud 0,2° S", not "la latitud"; "Breite", not "der
+    # Breite"; "широта", not "на широте").
+    from kitgen.layout.instructions import worksheet_blocks
+    from kitgen.recipe.load import validate_recipe
+    from kitgen.words.templates import load_words
+
+    kit = build_kit(validate_recipe({"language": language, "latitude": -0.2, "worksheet": True, "epoch": 2027}))
+    w = load_words(language)
+    sentence = w.template("almanac.place_latitude").split("{value}")[0].strip()
+    title = w.template("almanac.place_latitude_title").split("{value}")[0].strip()
+    assert sentence != title
+    headings = [b.text for b in worksheet_blocks(kit) if b.kind == "heading"]
+    assert len(headings) == 2
+    for heading in headings:
+        assert f": {title} " in heading.replace("\u00a0", " ") and (sentence == title or sentence not in heading)

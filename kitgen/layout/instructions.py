@@ -268,14 +268,17 @@ def _date(kit, month: int, day: int, with_year: bool = True) -> str:
     return format_date(kit.plan.epoch, month, day, w.language, w.native_digits, with_year)
 
 
-def _place(kit) -> str:
+def _place(kit, title: bool = False) -> str:
     """The place the kit was made for, as the examples name it: its name,
-    or its latitude in words that read in the sentence (#10)."""
+    or its latitude in words that read in the sentence (#10), or as a
+    heading names it (``title``: "latitude 0.2° S", where a sentence has
+    "la latitud", "der Breite", "на широте")."""
     if kit.plan.site.place:
         return kit.plan.site.place
     w, lat = kit.words, kit.plan.site.latitude_deg
     hemi = w("cardinal.north_short") if lat >= 0 else w("cardinal.south_short")
-    return w("almanac.place_latitude", value=w.number(abs(lat), 1), hemisphere=hemi)
+    key = "almanac.place_latitude_title" if title else "almanac.place_latitude"
+    return w(key, value=w.number(abs(lat), 1), hemisphere=hemi)
 
 
 def _zoned(kit) -> bool:
@@ -468,11 +471,12 @@ def worksheet_blocks(kit) -> list[Block]:
         return []
     w = kit.words
     values = [_worksheet_values(kit, q) for q in questions]
-    out = [Block(PAGE_BREAK, ""), Block("heading", w("worksheet.heading", **values[0])),
+    titled = {**values[0], "place": _place(kit, title=True)}
+    out = [Block(PAGE_BREAK, ""), Block("heading", w("worksheet.heading", **titled)),
            Block("body", w("worksheet.name_line")), Block("body", w("worksheet.intro", **values[0]))]
     out += [Block("item", w("worksheet.q_" + q.kind, **v), w.number(k) + ".")
             for k, (q, v) in enumerate(zip(questions, values), start=1)]
-    out += [Block(PAGE_BREAK, ""), Block("heading", w("worksheet.key_heading", **values[0]))]
+    out += [Block(PAGE_BREAK, ""), Block("heading", w("worksheet.key_heading", **titled))]
     out += [Block("item", w("worksheet.a_" + q.kind, **v), w.number(k) + ".")
             for k, (q, v) in enumerate(zip(questions, values), start=1)]
     return out
