@@ -412,3 +412,19 @@ def test_arabic_reads_right_to_left_on_the_text_pages():
     assert rights.count(common) >= 10
     width = doc[0].get_size()[0]
     assert common > width * 0.8
+
+
+@pytest.mark.parametrize("code", LANGUAGES)
+def test_one_apostrophe_throughout(code):
+    """A template writes the apostrophe within words one way throughout:
+    the typographic ’ (U+2019) or the typewriter ' (common practice in
+    typesetting, no source; French and Italian print ’)."""
+    import re
+
+    texts = [t for v in _flat(_tree(code)).values() if isinstance(v, (str, list))
+             for t in (v if isinstance(v, list) else [v])]
+    straight = sum(len(re.findall(r"(?<=\w)'(?=\w)", t)) for t in texts)
+    curly = sum(len(re.findall(r"(?<=\w)\u2019(?=\w)", t)) for t in texts)
+    assert not (straight and curly), (straight, curly)
+    if code in ("fr", "it"):
+        assert curly and not straight
