@@ -88,8 +88,8 @@ def _parser() -> argparse.ArgumentParser:
     a = sub.add_parser("batch", help="build a class set: many kits from one set recipe, into one folder")
     a.add_argument("set", help="the set recipe (YAML): defaults, kits and/or a roster CSV")
     a.add_argument("-o", "--output", required=True,
-                   help="the folder to write: kits/, print-paper.pdf, print-card.pdf, print-film.pdf, "
-                        "manifest.csv "
+                   help="the folder to write: kits/, print-paper.pdf, print-card.pdf, print-film.pdf "
+                        "(a file a sheet size where the kits' sheets differ), manifest.csv "
                         "(made fresh; an earlier set's folder is replaced whole)")
     a.add_argument("-j", "--jobs", type=int, help="worker processes (default: the machine's cores)")
     a.add_argument("--quiet", action="store_true", help="no progress bar or progress lines")

@@ -200,7 +200,7 @@ def test_a_schools_pupils_share_their_pages_in_the_print_files():
         assert r.shared and r.owner_pages and r.overlay
         files.add(PrintedKit(r.number, r.pdf, stamps, r.materials, r.margin_mm, 1, r.shared, r.owner_pages,
                              r.overlay, k))
-    card = PdfReader(io.BytesIO(files.finish()["card"]))
+    card = PdfReader(io.BytesIO(files.finish()["print-card.pdf"]))
     per_kit = len(card.pages) // 2
     for k in range(per_kit):
         a, b = card.pages[k], card.pages[per_kit + k]

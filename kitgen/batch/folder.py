@@ -27,11 +27,11 @@ from pathlib import Path
 from .. import outfile
 from ..errors import Message, UserError
 from ..outfile import OLD_DIR_SUFFIX, STALE_SECONDS, TEMP_DIR_SUFFIX, made_by_kitgen, write_error
-from .printfiles import FILE_NAMES
+from .printfiles import is_print_file_name
 
 KITS = "kits"
 MANIFEST = "manifest.csv"
-_OWN_NAMES = {KITS, MANIFEST, *FILE_NAMES.values()}
+_OWN_NAMES = {KITS, MANIFEST}
 
 
 def check_output_folder(folder: Path, inputs=()) -> None:
@@ -56,7 +56,7 @@ def _is_set_output(folder: Path) -> bool:
     """Whether every entry of ``folder`` is one a set writes: an empty
     folder, or the manifest, the print files and ``kits/`` of kitgen PDFs."""
     for entry in os.scandir(folder):
-        if entry.name not in _OWN_NAMES:
+        if entry.name not in _OWN_NAMES and not is_print_file_name(entry.name):
             return False
         if entry.name == KITS:
             if not entry.is_dir(follow_symlinks=False):

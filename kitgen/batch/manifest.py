@@ -7,8 +7,9 @@ from the system's own code page, common practice, so that a pupil's
 "Ñ" or a Cyrillic title opens as written):
 
 - ``kit``: the kit's number in the set, from 1;
-- ``owner``, ``title``, ``place``, ``latitude``, ``language``: as the merged
-  recipe gives them (the latitude in degrees, north positive);
+- ``owner``, ``title``, ``place``, ``latitude``, ``language``, ``sheet``: as
+  the merged recipe gives them (the latitude in degrees, north positive;
+  the sheet as kitgen.batch.printfiles.sheet_key names it);
 - ``copies``: how many times the kit is in the print files (its answer
   key, once for its school: kitgen.batch.printfiles.ONCE_A_SCHOOL); for
   a kit that failed, the copies its row asked for, to print once mended;
@@ -19,7 +20,9 @@ from the system's own code page, common practice, so that a pupil's
   (kitgen.batch.printfiles.MATERIALS: the instructions on plain paper,
   a worksheet's answer key for the teacher, a duplex mater's two sides);
 - ``paper_print_pages`` ... ``film_print_pages``: where its copies are in
-  the print file of that stock (``print-paper.pdf`` ...), such as
+  the print file of that stock (``print-paper.pdf`` ..., or
+  ``print-paper-letter.pdf`` ... for the kit's sheet where the set mixes
+  sheets), such as
   ``5–8 9–12`` (:data:`SPAN_DASH`), or ``3`` for one page; for the answer
   key, its school's one key, which the school's kits all name;
 - ``status``: ``ok``, or the one-line reason it was not built;
@@ -36,9 +39,9 @@ from __future__ import annotations
 import csv
 import io
 
-from .printfiles import MATERIALS
+from .printfiles import MATERIALS, sheet_key
 
-COLUMNS = ("kit", "owner", "title", "place", "latitude", "language", "copies", "file", "pages",
+COLUMNS = ("kit", "owner", "title", "place", "latitude", "language", "sheet", "copies", "file", "pages",
            *(f"{m}_pages" for m in MATERIALS), *(f"{m}_print_pages" for m in MATERIALS), "status", "notes")
 STATUS_OK = "ok"
 
@@ -51,16 +54,16 @@ def manifest_row(kit, file_name: str, result, spans: dict, error: str) -> dict:
     recipe, tree = kit.recipe, kit.tree
     if recipe is not None:
         owner, title, place = getattr(recipe, "owner", ""), recipe.title, recipe.place
-        latitude, language = repr(recipe.latitude_deg), recipe.language
+        latitude, language, sheet = repr(recipe.latitude_deg), recipe.language, sheet_key(recipe.sheet)
     else:
         owner, title, place = (_text(tree.get(k)) for k in ("owner", "title", "place"))
-        latitude, language = _text(tree.get("latitude")), _text(tree.get("language"))
+        latitude, language, sheet = (_text(tree.get(k)) for k in ("latitude", "language", "sheet"))
     ok = not error
     materials = result.materials if ok else ()
     status = STATUS_OK if ok else error
     return {
         "kit": kit.number, "owner": owner, "title": title, "place": place, "latitude": latitude,
-        "language": language, "copies": kit.copies, "file": f"kits/{file_name}" if ok else "",
+        "language": language, "sheet": sheet, "copies": kit.copies, "file": f"kits/{file_name}" if ok else "",
         "pages": len(materials) if ok else "",
         **{f"{m}_pages": materials.count(m) if ok else "" for m in MATERIALS},
         **{f"{m}_print_pages": _spans(spans.get(m, [])) for m in MATERIALS},
@@ -74,7 +77,7 @@ NOTE_SEPARATOR = " | "
 
 
 #: Columns of free text, from the set's own values or messages.
-TEXT_COLUMNS = ("owner", "title", "place", "status", "notes")
+TEXT_COLUMNS = ("owner", "title", "place", "sheet", "status", "notes")
 #: A cell starting so is taken for a formula by spreadsheet programs
 #: (OWASP, "CSV Injection"): such a text cell gets a leading apostrophe.
 _FORMULA_START = ("=", "+", "-", "@", "\t", "\r")

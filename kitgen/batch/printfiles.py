@@ -4,6 +4,12 @@ keys (one a school: :data:`ONCE_A_SCHOOL`), the two-sided mater sheets,
 the card pages and the film pages, in kit order, each kit as many times
 as its copies, each page stamped with the kit's number and owner (#12).
 
+A set whose kits are on sheets of more than one size has a print file a
+stock and sheet (:func:`print_file_name`: ``print-card-a4.pdf``,
+``print-card-letter.pdf``), so that a printer is never sent a job that
+mixes paper sizes, which it would print scaled or cut to the one loaded,
+and no part at its true scale.
+
 The files are written by hand (:mod:`kitgen.render.pdf_objects`): a
 page's objects are copied from its kit's PDF as they are, content and
 fonts untouched, and the stamp (:mod:`kitgen.batch.stamp`; a school's
@@ -19,6 +25,7 @@ identifier (``/ID``, 14.4) and fixed document information.
 
 from __future__ import annotations
 
+import re
 from dataclasses import dataclass
 
 from ..render import pdf_objects
@@ -35,6 +42,31 @@ from .stamp import STAMP_FORM, stamp_at
 #: (:data:`FILE_NAMES`), written only when some kit has such pages.
 MATERIALS = ("paper", "answers", "duplex", "card", "film")
 FILE_NAMES = {m: f"print-{m}.pdf" for m in MATERIALS}
+
+#: A print file's name: a stock's (:data:`FILE_NAMES`), or with its sheet
+#: where a set mixes sheets (:func:`print_file_name`).
+_FILE_NAME = re.compile(r"print-(%s)(-[a-z0-9.]+)?\.pdf" % "|".join(MATERIALS))
+
+
+def print_file_name(material: str, sheet: str, several_sheets: bool) -> str:
+    """The print file of ``material`` on ``sheet`` (:func:`sheet_key`): the
+    stock's file, or ``print-card-a4.pdf`` where the set's kits are on
+    several sheets."""
+    return f"print-{material}-{sheet}.pdf" if several_sheets else FILE_NAMES[material]
+
+
+def is_print_file_name(name: str) -> bool:
+    """Whether ``name`` is one :func:`print_file_name` gives."""
+    return _FILE_NAME.fullmatch(name) is not None
+
+
+def sheet_key(sheet) -> str:
+    """A recipe's sheet as print files and the manifest name it: a sheet's
+    name (``a4``), or a custom sheet's size (``200x250mm``)."""
+    if isinstance(sheet, str):
+        return sheet
+    width_mm, height_mm = sheet
+    return f"{width_mm:g}x{height_mm:g}mm"
 
 #: Stocks printed once for kits the same but for their owner (a
 #: school's pupils), whatever their copies: the teacher needs one answer
@@ -63,6 +95,8 @@ class PrintedKit:
     #: The kit's school (kitgen.kit.school_of: its recipe but for the
     #: owner), for the stocks printed once a school; None: the kit alone.
     school: object = None
+    #: The kit's sheet (:func:`sheet_key`), whose print files it goes in.
+    sheet: str = "a4"
 
 
 class PrintFiles:
@@ -71,8 +105,10 @@ class PrintFiles:
     built kit, then :meth:`finish`."""
 
     def __init__(self):
-        self.files = {m: _File() for m in MATERIALS}
-        #: {kit number: {material: [(first, last), ...]}}, page numbers from 1.
+        #: {(material, sheet): its file}, made as kits on the sheet come.
+        self.files: dict[tuple[str, str], _File] = {}
+        #: {kit number: {material: [(first, last), ...]}}, page numbers
+        #: from 1, in the file of the kit's sheet.
         self.ranges: dict[int, dict[str, list[tuple[int, int]]]] = {}
 
     def add(self, kit: PrintedKit) -> None:
@@ -86,7 +122,7 @@ class PrintFiles:
             chosen = [i for i, m in enumerate(kit.materials) if m == material]
             if not chosen:
                 continue
-            file = self.files[material]
+            file = self.files.setdefault((material, kit.sheet), _File())
             once = material in ONCE_A_SCHOOL
             if once:
                 key = kit.school if kit.school is not None else ("kit", kit.number)
@@ -113,8 +149,13 @@ class PrintFiles:
                 file.printed[key] = tuple(spans[material])
 
     def finish(self) -> dict[str, bytes]:
-        """``{material: pdf bytes}`` for each material that has pages."""
-        return {m: f.finish() for m, f in self.files.items() if f.pages}
+        """``{file name: pdf bytes}`` (:func:`print_file_name`) for each
+        stock and sheet that has pages, by stock, the sheets in the order
+        the kits brought them."""
+        filled = [key for key in self.files if self.files[key].pages]
+        several = len({sheet for _, sheet in filled}) > 1
+        order = sorted(filled, key=lambda key: MATERIALS.index(key[0]))
+        return {print_file_name(m, sheet, several): self.files[(m, sheet)].finish() for m, sheet in order}
 
 
 class _File:
@@ -165,7 +206,7 @@ def _media_box(head: bytes) -> tuple[float, ...]:
 
 
 def print_files(kits) -> tuple[dict[str, bytes], dict[int, dict[str, list[tuple[int, int]]]]]:
-    """``({material: pdf bytes}, {kit number: {material: [(first, last), ...]}})``:
+    """``({file name: pdf bytes}, {kit number: {material: [(first, last), ...]}})``:
     the print files of ``kits`` (in kit order) and where each copy of
     each kit's pages landed in them (page numbers from 1)."""
     files = PrintFiles()

@@ -26,7 +26,7 @@ from ..words.templates import available_languages, load_words
 from .folder import KITS, MANIFEST, check_output_folder, fresh_folder, write_file
 from .manifest import manifest_csv, manifest_row
 from .naming import kit_file_names
-from .printfiles import FILE_NAMES, PrintedKit, PrintFiles
+from .printfiles import PrintedKit, PrintFiles, sheet_key
 from .progress import progress
 from .setfile import load_set
 from .stamp import SchoolStamps
@@ -123,8 +123,8 @@ def _run(kit_set, out_dir: Path, pools: list, quiet: bool, stream, started: floa
                 next_number = _print_ready(printing, stamps, waiting, next_number, by_number)
                 bar.advance()
             _print_ready(printing, stamps, waiting, next_number, by_number, last=True)
-            for material, data in printing.finish().items():
-                write_file(tmp / FILE_NAMES[material], data)
+            for name, data in printing.finish().items():
+                write_file(tmp / name, data)
             spans = printing.ranges
             rows = [manifest_row(k, names[k.number - 1], results.get(k.number), spans.get(k.number, {}),
                                  errors.get(k.number, "")) for k in kit_set.kits]
@@ -149,7 +149,7 @@ def _print_ready(printing, stamps, waiting: dict, next_number: int, by_number: d
             stamp, stamp_page = stamps.of(next_number)
             printing.add(PrintedKit(next_number, result.pdf, stamp, result.materials, result.margin_mm,
                                     kit.copies, result.shared, result.owner_pages, result.overlay, stamp_page,
-                                    school_of(kit.recipe)))
+                                    school_of(kit.recipe), sheet_key(kit.recipe.sheet)))
         next_number += 1
     return next_number
 
