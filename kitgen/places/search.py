@@ -233,6 +233,25 @@ def resolve(name: str) -> Place:
     raises :class:`PlaceError` when it names none (suggesting close
     spellings) or several that are not one place for a kit (listing the
     most populous and saying how to choose)."""
+    return _resolve(name, suggest=True)
+
+
+def _query_for(place: Place) -> str:
+    """The shortest query that finds ``place`` again, as a suggestion
+    writes it: ``Name, CC`` where that names it alone, else ``Name,
+    REGION, CC`` (:meth:`Place.label`; a region's GeoNames code is digits
+    in many countries, and tells a reader little)."""
+    short = f"{place.name}, {place.country_code}"
+    try:
+        if _resolve(short, suggest=False).geonameid == place.geonameid:
+            return short
+    except PlaceError:
+        pass
+    return place.label()
+
+
+def _resolve(name: str, suggest: bool) -> Place:
+    """:func:`resolve`, with close spellings suggested or not."""
     index = place_index()
     text = " ".join(str(name).split())
     q = _parse(index, text)
@@ -240,7 +259,7 @@ def resolve(name: str) -> Place:
         raise PlaceError("errors.place_qualifier", name=shown(text))
     rows = _matches(index, q, prefix=False) if q.name else np.array([], dtype=np.int64)
     if len(rows) == 0:
-        close = [p.label() for p in (_place(index, r) for r in _fuzzy_rows(index, q, 3))] if q.name else []
+        close = [_query_for(_place(index, r)) for r in _fuzzy_rows(index, q, 3)] if q.name and suggest else []
         hint = (Message("errors.hint_did_you_mean", name=" / ".join(close)) if close
                 else Message("errors.hint_place_search"))
         raise PlaceError("errors.place_unknown", name=shown(text), hint=hint)
