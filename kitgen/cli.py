@@ -413,7 +413,7 @@ def _cmd_places(args) -> int:
     REGION, CC``, latitude, longitude, time zone and population, separated
     by tabs.  No match: the one-line message that a recipe's ``place``
     would give, with close spellings."""
-    from .places import PlaceError, resolve, search
+    from .places import PlaceError, query_for, resolve, search
 
     found = search(args.query, limit=args.limit)
     if not found:
@@ -421,7 +421,7 @@ def _cmd_places(args) -> int:
             found = [resolve(args.query)]
         except PlaceError as exc:
             raise UserError.of(exc) from None
-    _emit("".join(f"{p.label()}\t{p.latitude_deg:.5f}\t{p.longitude_deg:.5f}\t{p.timezone}\t{p.population}\n"
+    _emit("".join(f"{query_for(p)}\t{p.latitude_deg:.5f}\t{p.longitude_deg:.5f}\t{p.timezone}\t{p.population}\n"
                   for p in found))
     return EXIT_OK
 

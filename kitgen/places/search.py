@@ -236,7 +236,7 @@ def resolve(name: str) -> Place:
     return _resolve(name, suggest=True)
 
 
-def _query_for(place: Place) -> str:
+def query_for(place: Place) -> str:
     """The shortest query that finds ``place`` again, as a suggestion
     writes it: ``Name, CC`` where that names it alone, else ``Name,
     REGION, CC`` (:meth:`Place.label`; a region's GeoNames code is digits
@@ -259,7 +259,7 @@ def _resolve(name: str, suggest: bool) -> Place:
         raise PlaceError("errors.place_qualifier", name=shown(text))
     rows = _matches(index, q, prefix=False) if q.name else np.array([], dtype=np.int64)
     if len(rows) == 0:
-        close = [_query_for(_place(index, r)) for r in _fuzzy_rows(index, q, 3)] if q.name and suggest else []
+        close = [query_for(_place(index, r)) for r in _fuzzy_rows(index, q, 3)] if q.name and suggest else []
         hint = (Message("errors.hint_did_you_mean", name=" / ".join(close)) if close
                 else Message("errors.hint_place_search"))
         raise PlaceError("errors.place_unknown", name=shown(text), hint=hint)

@@ -5,7 +5,9 @@ Coordinates given in the recipe win: ``place`` is then only the name
 printed on the kit, and nothing is looked up (an invented town still
 builds).  Without a latitude, ``place`` is looked up in the offline
 gazetteer (:mod:`kitgen.places`), which gives latitude, longitude and
-time zone; a ``timezone`` key still overrides the place's zone.  A
+time zone, and the kit prints the name as written, without its country
+or region (:func:`printed_name`); a ``timezone`` key still overrides the
+place's zone.  A
 longitude without a latitude is refused: half a position is a mistake.
 So is a longitude without a time zone, or a zone without a longitude:
 the kit's clock time needs both, and one alone would go unused (#10).
@@ -37,6 +39,14 @@ def parse_timezone(value) -> str:
     return value
 
 
+def printed_name(query: str) -> str:
+    """The name a kit prints for a place looked up by ``query``: the name
+    as the user wrote it, without the country or region that told the
+    gazetteer which place it is ("Le Havre, FR": "Le Havre"; "Wien, AT"
+    stays "Wien", where the gazetteer's own name is "Vienna")."""
+    return " ".join(str(query).split(",")[0].split())
+
+
 def resolve_site(values: dict, source, place_where) -> None:
     """Complete the validated recipe ``values`` (Recipe field names) with
     the site: look ``place`` up when no latitude is given.  ``source``
@@ -55,6 +65,7 @@ def resolve_site(values: dict, source, place_where) -> None:
         values["latitude_deg"] = place.latitude_deg
         values["longitude_deg"] = place.longitude_deg
         values.setdefault("timezone", place.timezone)
+        values["place"] = printed_name(values["place"])
     # Clock time needs both: one alone would be silently unused (#10).
     has_longitude, has_zone = values.get("longitude_deg") is not None, values.get("timezone") is not None
     if has_longitude != has_zone:
