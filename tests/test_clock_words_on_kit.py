@@ -137,12 +137,12 @@ def test_a_french_kit_names_the_city_in_french():
 
 
 def test_a_kit_without_a_place_names_its_latitude_in_the_sentence():
-    """No place: the worked example reads "At latitude 52.2° N on ...",
-    not the plate's capitalised label."""
+    """No place: the worked example reads "In latitude 52.2° N on ...",
+    not the plate's capitalised label (English: in a place, in latitude)."""
     kit = _kit("latitude: 52.2\n")
     text = _story_text(kit)
-    assert "At Latitude" not in text and "at Latitude" not in text
-    assert "At latitude 52.2° N on " in text
+    assert "In Latitude" not in text and "in Latitude" not in text
+    assert "In latitude 52.2° N on " in text
     assert "Sunrise and sunset at latitude 52.2° N in 2027" in text
 
 
