@@ -244,3 +244,36 @@ def test_a_kit_without_a_place_names_its_latitude_as_a_title(language):
     assert len(headings) == 2
     for heading in headings:
         assert f": {title} " in heading.replace("\u00a0", " ") and (sentence == title or sentence not in heading)
+
+
+@pytest.mark.parametrize("language, sheet", [("en", "a5"), ("ar", "a4"), ("hi", "letter")])
+def test_each_question_has_a_line_to_write_on(language, sheet):
+    # Common practice for a class worksheet: room to write each answer
+    # under its question; the teacher's key has none.  The line runs to
+    # the column's end (measured by the words layer's own shaping, within
+    # one low line's width) and stays on its question's page.
+    from kitgen.layout.pages import instructions_split, layout_kit, page_content_mm
+    from kitgen.recipe.load import validate_recipe
+    from kitgen.words.shaping import set_line
+
+    kit = build_kit(validate_recipe({"language": language, "sheet": sheet, "latitude": 40.4, "worksheet": True,
+                                     "epoch": 2027}))
+    pages = layout_kit(kit)
+    label = kit.words("worksheet.answer_label")
+    text_pages = [p for p in pages if p.kind == "instructions"]
+    x0, _, x1, _ = page_content_mm(text_pages[0])
+    answers = [(p, ln) for p in text_pages for ln in p.lines if ln.text.startswith(label) and "_" in ln.text]
+    questions = len(kit.plan.worksheet)
+    assert len(answers) == questions >= 6
+    for _, ln in answers:
+        width_mm = set_line(ln.text, kit.words.script, ln.style, kit.words.rtl).width_em * ln.size_pt * 25.4 / 72
+        low_line_mm = set_line("_", kit.words.script, ln.style, kit.words.rtl).width_em * ln.size_pt * 25.4 / 72
+        indent_mm = abs(ln.x_mm - (x1 if kit.words.rtl else x0))
+        assert x1 - x0 - indent_mm - low_line_mm <= width_mm <= x1 - x0 - indent_mm + 1e-6
+    size_pt, chunks = instructions_split(kit, pages)
+    for chunk in chunks:
+        kinds = [b.kind for b in chunk]
+        assert kinds[:1] != ["answer"]   # never an answer's line alone at a page's top
+    key = [p for p in text_pages if any(ln.text.startswith(kit.words("worksheet.key_heading", place="", year="")
+                                                                  .split(":")[0]) for ln in p.lines)]
+    assert key and not any(ln.text.startswith(label) for p in key for ln in p.lines)

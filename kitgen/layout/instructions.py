@@ -474,8 +474,9 @@ def worksheet_blocks(kit) -> list[Block]:
     titled = {**values[0], "place": _place(kit, title=True)}
     out = [Block(PAGE_BREAK, ""), Block("heading", w("worksheet.heading", **titled)),
            Block("body", w("worksheet.name_line")), Block("body", w("worksheet.intro", **values[0]))]
-    out += [Block("item", w("worksheet.q_" + q.kind, **v), w.number(k) + ".")
-            for k, (q, v) in enumerate(zip(questions, values), start=1)]
+    for k, (q, v) in enumerate(zip(questions, values), start=1):
+        out += [Block("item", w("worksheet.q_" + q.kind, **v), w.number(k) + "."),
+                Block("answer", w("worksheet.answer_label"))]
     out += [Block(PAGE_BREAK, ""), Block("heading", w("worksheet.key_heading", **titled))]
     out += [Block("item", w("worksheet.a_" + q.kind, **v), w.number(k) + ".")
             for k, (q, v) in enumerate(zip(questions, values), start=1)]

@@ -23,9 +23,10 @@ from ..words.shaping import line_width_em, plain_advances, set_line
 @dataclass(frozen=True)
 class Block:
     """A paragraph of the text pages: ``kind`` is ``title``, ``heading``,
-    ``body``, ``item`` or ``caution`` (or :data:`PAGE_BREAK`, which starts
-    a new page); ``bullet`` is printed before an item.  A ``figure`` block
-    is a picture (:class:`kitgen.layout.figures.Figure`, built for the
+    ``body``, ``item``, ``caution`` or ``answer`` (its text a label, then a
+    line to write on to the column's end, :func:`writing_line`), or
+    :data:`PAGE_BREAK`, which starts a new page; ``bullet`` is printed
+    before an item.  A ``figure`` block is a picture (:class:`kitgen.layout.figures.Figure`, built for the
     column's width) under its caption ``text``, never split across pages.
     A ``row`` is one of a table's rows, which a run of them makes
     (:data:`TABLE_KEEPS_ROWS`)."""
@@ -74,6 +75,7 @@ KINDS = {
     "body": (1.0, "body", 0.0, 0.3, 0.0),
     "item": (1.0, "body", 0.0, 0.15, 1.8),
     "caution": (1.0, "bold", 0.0, 0.15, 1.8),
+    "answer": (1.0, "body", 0.5, 0.6, 1.8),
     "figure": (1.0, "bold", 0.6, 0.6, 0.0),
 }
 #: Line height in body sizes (common practice for body text: 120 to 130 %).
@@ -184,9 +186,26 @@ def _laid(blocks, width_limit_pt: float, body_pt: float, words):
     for k, b in enumerate(blocks):
         scale, style, before, after, indent = KINDS[b.kind]
         size = body_pt * scale
-        lines = wrap(b.text, width_limit_pt - indent * body_pt, size, words, style)
+        if b.kind == "answer":
+            lines = [writing_line(b.text, width_limit_pt - indent * body_pt, size, words)]
+        else:
+            lines = wrap(b.text, width_limit_pt - indent * body_pt, size, words, style)
         out.append((b, size, style, lines, before * body_pt if k else 0.0, after * body_pt, indent * body_pt))
     return out
+
+
+#: What an ``answer`` block's line is drawn with after its label, to
+#: the end of the column: the low line of a form's blank to write on.
+WRITING_MARK = "_"
+
+
+def writing_line(label: str, width_limit_pt: float, size_pt: float, words) -> str:
+    """``label`` and a blank to write on (:data:`WRITING_MARK`), as long
+    as the column's width holds."""
+    n = max(0, int((width_limit_pt - width_pt(label + " ", size_pt, words)) // width_pt(WRITING_MARK, size_pt, words)))
+    while n and width_pt(f"{label} {WRITING_MARK * n}", size_pt, words) > width_limit_pt:
+        n -= 1
+    return f"{label} {WRITING_MARK * n}"
 
 
 def _figure_pt(block) -> float:
@@ -278,6 +297,8 @@ def split_blocks(blocks, width_pt: float, height_pt: float, words, n_pages: int)
                 moved = _kept_with_next(blocks, current, lines)
                 if not moved:
                     rows = _rows_kept_together(blocks, current, k)
+                    if blocks[k].kind == "answer" and len(current) > 1:
+                        rows = current[-1:]   # an answer's line stays with its question
                     moved = _kept_with_next(blocks, current[:len(current) - len(rows)], lines) + rows
                 chunks.append(current[:len(current) - len(moved)])
                 current = moved
