@@ -23,11 +23,11 @@ from kitgen.layout import paragraphs
 from kitgen.layout.pages import instructions_split, layout_kit
 from kitgen.recipe.load import validate_recipe
 
+from .test_headings_kept import CAPE_TOWN, LISBON
+
 #: Rows of a table kept on each side of a page break (common practice).
 ROWS_EACH_SIDE = 2
 
-CAPE_TOWN = {"latitude": -33.9, "longitude": 18.4, "timezone": "Africa/Johannesburg"}
-LISBON = {"latitude": 38.7, "longitude": -9.14, "timezone": "Europe/Lisbon"}
 REYKJAVIK = {"latitude": 64.1, "longitude": -21.9, "timezone": "Atlantic/Reykjavik"}
 SINGAPORE = {"latitude": 1.3, "longitude": 103.8, "timezone": "Asia/Singapore"}
 
