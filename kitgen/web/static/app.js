@@ -161,7 +161,7 @@
         li.id = "place-" + k;
         li.setAttribute("role", "option");
         li.setAttribute("aria-selected", "false");
-        li.textContent = [p.name, p.region, p.country_code].filter(Boolean).join(", ");
+        li.textContent = p.label;   // the shortest query that names it: "Lisbon, PT"
         li.addEventListener("mousedown", function (ev) { ev.preventDefault(); choose(k); });
         return li;
       }));
