@@ -30,6 +30,7 @@ from reportlab.pdfbase.ttfonts import ShapedStr, ShapeData, TTFont, makeToUnicod
 from ..layout.paragraphs import width_pt
 from ..words import fonts
 from ..words.shaping import Line, Run, set_line
+from .font_names import without_mac_names
 
 
 def register_fonts(faces=None) -> None:
@@ -112,7 +113,8 @@ class TaggedTTFont(TTFont):
 
 
 class _KeptSubsets:
-    """A font face's ``makeSubset``, each subset's font file made once and
+    """A font face's ``makeSubset``, each subset's font file made once,
+    its naming table's Macintosh copies left out (:mod:`.font_names`), and
     kept (the last few): a class set's kits of one language embed the
     same subsets again and again (#12).  A subset is its characters in
     code order, and a character, once the face maps it to a glyph (a
@@ -130,7 +132,7 @@ class _KeptSubsets:
         if made is None:
             if len(self.kept) >= self.MOST:
                 self.kept.clear()
-            made = self.kept[key] = self.make(subset)
+            made = self.kept[key] = without_mac_names(self.make(subset))
         return made
 
 
