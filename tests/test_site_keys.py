@@ -276,3 +276,22 @@ def test_the_plate_names_its_place_then_its_latitude(language, label):
     plate = next(p for p in kit.parts if p.id == "plate-1")
     texts = [e.values.get("text") or e.geom.get("text") for e in plate.elements if e.shape == "text"]
     assert label in texts
+
+
+@pytest.mark.parametrize("language", ["en", "de", "fr", "ru", "el"])
+def test_the_list_of_plates_names_the_latitude_one_way(language):
+    # One term in one form for one thing through a list (common practice):
+    # a named plate's latitude and a nameless one's read alike, in the
+    # form that goes on within a line.
+    import re
+
+    from kitgen.kit import build_kit
+    from kitgen.layout.instructions import plates_blocks
+    from kitgen.recipe.load import validate_recipe
+
+    kit = build_kit(validate_recipe({"language": language, "epoch": 2027,
+                                     "plates": [{"latitude": 24.7, "place": "Oakmere"}, 30.5]}))
+    items = [b.text for b in plates_blocks(kit) if b.kind == "item"]
+    assert len(items) == 2 and "Oakmere" in items[0]
+    words = [re.search(r"\(([^\d(]+)\d", item).group(1).strip() for item in items]
+    assert words[0] == words[1], items

@@ -46,7 +46,7 @@ def plates_blocks(kit) -> list[Block]:
              else w("plate.plates_intro_duplex", noon=w.number(12)))
     out = [Block("body", intro)]
     for p in plates:
-        latitude = latitude_text(w, p.latitude_deg, after_name=bool(p.place))
+        latitude = latitude_text(w, p.latitude_deg, after_name=True)   # within the line, named plate or not
         text = (w("plate.plates_item_place", number=w.number(p.number), place=p.place, latitude=latitude) if p.place
                 else w("plate.plates_item", number=w.number(p.number), latitude=latitude))
         out.append(Block("item", text, "\u2022"))
