@@ -12,7 +12,7 @@ import functools
 from ..check.report import report_lines
 from ..kept import kept_for
 from ..parts.clock_scale import signed
-from ..parts.format import latitude_text
+from ..parts.format import IN_SENTENCE, WITHIN_LINE, latitude_text
 from ..parts.plate import keyed
 from ..paper import CHECK_BAR_MM, content_area_mm
 from .figures import kit_figures
@@ -46,7 +46,7 @@ def plates_blocks(kit) -> list[Block]:
              else w("plate.plates_intro_duplex", noon=w.number(12)))
     out = [Block("body", intro)]
     for p in plates:
-        latitude = latitude_text(w, p.latitude_deg, after_name=True)   # within the line, named plate or not
+        latitude = latitude_text(w, p.latitude_deg, WITHIN_LINE)   # named plate or not
         text = (w("plate.plates_item_place", number=w.number(p.number), place=p.place, latitude=latitude) if p.place
                 else w("plate.plates_item", number=w.number(p.number), latitude=latitude))
         out.append(Block("item", text, "\u2022"))
@@ -275,10 +275,7 @@ def _place(kit, title: bool = False) -> str:
     "la latitud", "der Breite", "на широте")."""
     if kit.plan.site.place:
         return kit.plan.site.place
-    w, lat = kit.words, kit.plan.site.latitude_deg
-    hemi = w("cardinal.north_short") if lat >= 0 else w("cardinal.south_short")
-    key = "almanac.place_latitude_title" if title else "almanac.place_latitude"
-    return w(key, value=w.number(abs(lat), 1), hemisphere=hemi)
+    return latitude_text(kit.words, kit.plan.site.latitude_deg, WITHIN_LINE if title else IN_SENTENCE)
 
 
 def _zoned(kit) -> bool:

@@ -26,8 +26,9 @@ class Block:
     ``body``, ``item``, ``caution`` or ``answer`` (its text a label, then a
     line to write on to the column's end, :func:`writing_line`), or
     :data:`PAGE_BREAK`, which starts a new page; ``bullet`` is printed
-    before an item.  A ``figure`` block is a picture (:class:`kitgen.layout.figures.Figure`, built for the
-    column's width) under its caption ``text``, never split across pages.
+    before an item.  A ``figure`` block is a picture
+    (:class:`kitgen.layout.figures.Figure`, built for the column's width)
+    under its caption ``text``, never split across pages.
     A ``row`` is one of a table's rows, which a run of them makes
     (:data:`TABLE_KEEPS_ROWS`)."""
 
@@ -296,10 +297,8 @@ def split_blocks(blocks, width_pt: float, height_pt: float, words, n_pages: int)
             if current and used + after[k] > height_pt:
                 moved = _kept_with_next(blocks, current, lines)
                 if not moved:
-                    rows = _rows_kept_together(blocks, current, k)
-                    if blocks[k].kind == "answer" and len(current) > 1:
-                        rows = current[-1:]   # an answer's line stays with its question
-                    moved = _kept_with_next(blocks, current[:len(current) - len(rows)], lines) + rows
+                    going = _going_with(blocks, current, k)
+                    moved = _kept_with_next(blocks, current[:len(current) - len(going)], lines) + going
                 chunks.append(current[:len(current) - len(moved)])
                 current = moved
                 used = alone[moved[0]] + sum(after[i] for i in moved[1:]) if moved else 0.0
@@ -340,6 +339,16 @@ def _kept_with_next(blocks, current, lines) -> list[int]:
 #: top of the next page (common practice in typesetting, as for the lines
 #: of a paragraph: no orphan, no widow).
 TABLE_KEEPS_ROWS = 2
+
+
+def _going_with(blocks, current, k: int) -> list[int]:
+    """The blocks at the end of the page ``current`` that go on to the next
+    page with the block ``k`` that does not fit: an answer's line takes
+    its question along, a table's row the rows :func:`_rows_kept_together`
+    gives.  The page's first block always stays."""
+    if blocks[k].kind == "answer":
+        return current[-1:] if len(current) > 1 else []
+    return _rows_kept_together(blocks, current, k)
 
 
 def _rows_kept_together(blocks, current, k: int) -> list[int]:

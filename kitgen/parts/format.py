@@ -3,11 +3,17 @@
 from __future__ import annotations
 
 
-def latitude_text(words, latitude_deg: float, after_name: bool = False) -> str:
-    """'Latitude 48.2° N' in the kit's language; one decimal, as recipes
-    give it.  ``after_name``: as it follows a place's name ("Le Havre,
-    latitude 49.5° N"), in the heading's form, not capitalised as a label
-    standing alone."""
+#: The forms of a latitude in words (template keys): a label standing
+#: alone ("Latitude 48.2° N"), going on within a line or heading after a
+#: place's name or in a list ("Le Havre, latitude 49.5° N"), and in a
+#: sentence, with the article or case it takes there ("la latitud …").
+LABEL = "plate.latitude"
+WITHIN_LINE = "almanac.place_latitude_title"
+IN_SENTENCE = "almanac.place_latitude"
+
+
+def latitude_text(words, latitude_deg: float, form: str = LABEL) -> str:
+    """'Latitude 48.2° N' in the kit's language, in the ``form`` (one of
+    the keys above); one decimal, as recipes give it."""
     hemi = words("cardinal.north_short") if latitude_deg >= 0 else words("cardinal.south_short")
-    key = "almanac.place_latitude_title" if after_name else "plate.latitude"
-    return words(key, value=words.number(abs(latitude_deg), 1), hemisphere=hemi)
+    return words(form, value=words.number(abs(latitude_deg), 1), hemisphere=hemi)

@@ -21,7 +21,7 @@ from . import breaks, curves, labels, legibility, plate_labels, stroke_index
 from ..words.locale import true_minus
 from .context import PartContext
 from .dimensions import MIN_TEXT_PT
-from .format import latitude_text
+from .format import WITHIN_LINE, latitude_text
 
 
 def plate(ctx: PartContext) -> model.Part:
@@ -95,7 +95,8 @@ def plate_label_text(ctx: PartContext) -> str:
     w = ctx.words
     if not ctx.plate.place:
         return latitude_text(w, ctx.plate.latitude_deg)
-    return w("plate.place_latitude", place=ctx.plate.place, latitude=latitude_text(w, ctx.plate.latitude_deg, True))
+    latitude = latitude_text(w, ctx.plate.latitude_deg, WITHIN_LINE)
+    return w("plate.place_latitude", place=ctx.plate.place, latitude=latitude)
 
 
 def key_tab_mm(dims) -> tuple[float, float]:

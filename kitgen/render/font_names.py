@@ -88,9 +88,10 @@ def _font(version: bytes, tables: dict[bytes, bytes]) -> bytes:
     offset = len(directory) + 16 * count
     records, body = [], bytearray()
     for tag, data in tables.items():
+        if tag == b"head":
+            head_at = offset + len(body)
         records.append(struct.pack(">4sIII", tag, _checksum(data), offset + len(body), len(data)))
         body += data + b"\0" * (-len(data) % 4)
     font = bytearray(directory + b"".join(records) + body)
-    at = offset + sum(len(d) + (-len(d) % 4) for d in list(tables.values())[:list(tables).index(b"head")])
-    struct.pack_into(">I", font, at + 8, (_FONT_CHECKSUM - _checksum(bytes(font))) & 0xFFFFFFFF)
+    struct.pack_into(">I", font, head_at + 8, (_FONT_CHECKSUM - _checksum(bytes(font))) & 0xFFFFFFFF)
     return bytes(font)

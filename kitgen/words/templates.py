@@ -42,14 +42,10 @@ def _joins(contractions: dict):
     :data:`_START`, with what each pair becomes; None without any."""
     if not contractions:
         return None
-    pairs = {}
-    for written, joined in contractions.items():
-        head, _, tail = written.partition(" ")
-        pairs[(head + " ", tail)] = joined
-    heads = "|".join(sorted({re.escape(h) for h, _ in pairs}, key=len, reverse=True))
-    tails = "|".join(sorted({re.escape(t) for _, t in pairs}, key=len, reverse=True))
-    pattern = re.compile(rf"(?<!\w)({heads}){_START}({tails})")
-    return pattern, {h + t: j for (h, t), j in pairs.items()}
+    split = [written.partition(" ") for written in contractions]   # "à Le ": ("à", " ", "Le ")
+    heads = "|".join(sorted({re.escape(h + " ") for h, _, _ in split}, key=len, reverse=True))
+    tails = "|".join(sorted({re.escape(t) for _, _, t in split}, key=len, reverse=True))
+    return re.compile(rf"(?<!\w)({heads}){_START}({tails})"), dict(contractions)
 
 
 def word_keys(table: dict) -> set[str]:
@@ -104,6 +100,7 @@ class Words:
         :data:`_START`) begins with the article its preposition joins,
         and the marks taken out."""
         pattern, joined = self._joins
+
         def join(m) -> str:
             both = joined.get(m.group(1) + m.group(2))
             return m.group(0) if both is None else both + _START
