@@ -4,8 +4,12 @@ The order of the work never shows in the output: each kit's file name,
 its place in the print files and its manifest row follow its number in
 the set, and each kit is built alone from its own recipe, so the same set
 gives the same bytes whatever ``jobs`` is and whichever worker finishes
-first.  Workers are long-lived processes (``concurrent.futures``) that
-load fonts, templates and catalogue once (:func:`kitgen.batch.work.warm`).
+first.  Workers are long-lived processes (``concurrent.futures``).  The
+main process reads and checks the set and warms what every kit needs (the
+fonts, the set's languages, the catalogue: :func:`kitgen.batch.work.warm`)
+before they start, so that a forked worker begins with it all, as the
+one-process build does: each worker loading them itself had put 0.1 to
+0.2 s more before every worker's first kit.
 """
 
 from __future__ import annotations
@@ -80,11 +84,12 @@ def run_set(set_path, out_dir, jobs: int | None = None, quiet: bool = False, str
     built."""
     started = time.monotonic()
     set_path, out_dir = Path(set_path), Path(out_dir)
+    kit_set = load_set(set_path)
+    check_output_folder(out_dir, [set_path, *kit_set.inputs])
+    buildable = [k for k in kit_set.kits if k.error is None]
+    warm(tuple(sorted({k.recipe.language for k in buildable})))
     with ExitStack() as stack:
-        # Workers start before the set is read, and load their fonts meanwhile.
-        pools = _start_workers(stack, jobs or default_jobs())
-        kit_set = load_set(set_path)
-        check_output_folder(out_dir, [set_path, *kit_set.inputs])
+        pools = _start_workers(stack, min(jobs or default_jobs(), len(buildable)))
         return _run(kit_set, out_dir, pools, quiet, stream, started)
 
 
@@ -174,7 +179,6 @@ def _build_all(jobs_list, pools: list):
     if pools:
         yield from dispatch(jobs_list, pools)
         return
-    warm(tuple(sorted({job.recipe.language for job in jobs_list})))
     with rare_collections():
         for job in worker_shares(jobs_list, 1)[0]:
             yield build_one(job)
@@ -183,7 +187,8 @@ def _build_all(jobs_list, pools: list):
 def _worker_start() -> None:
     """A worker leaves Ctrl-C to the main process, which stops the pool
     and cleans up, and ends at once on the other signals (it writes
-    nothing); then it warms its caches and collects garbage rarely."""
+    nothing); then it warms its caches (already warm when forked from the
+    main process) and collects garbage rarely."""
     signal.signal(signal.SIGINT, signal.SIG_IGN)
     for name in ("SIGTERM", "SIGHUP", "SIGQUIT"):
         if hasattr(signal, name):
