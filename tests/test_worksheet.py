@@ -277,3 +277,43 @@ def test_each_question_has_a_line_to_write_on(language, sheet):
     key = [p for p in text_pages if any(ln.text.startswith(kit.words("worksheet.key_heading", place="", year="")
                                                                   .split(":")[0]) for ln in p.lines)]
     assert key and not any(ln.text.startswith(label) for p in key for ln in p.lines)
+
+
+#: The parts of each answer a pupil writes (common practice: a line to
+#: write on for each part): the zenith question asks for two dates, the
+#: sunrise question for a time and the day's length, the height question
+#: for its working and the height; every other question for one thing.
+PARTS = {"zenith_days": 2, "sunrise": 2, "height": 2}
+
+
+@pytest.mark.parametrize("language, sheet, latitude", [("en", "a5", 10.0), ("ar", "a4", -23.0), ("de", "letter", 48.1)])
+def test_a_line_to_write_on_for_each_part_of_an_answer(language, sheet, latitude):
+    """Under each question, its labelled line, then a further line for each
+    further part it asks for (a blank alone, as wide as the column), all on
+    the question's page."""
+    from kitgen.layout.pages import layout_kit, page_content_mm
+    from kitgen.recipe.load import validate_recipe
+    from kitgen.words.shaping import set_line
+
+    kit = build_kit(validate_recipe({"language": language, "sheet": sheet, "latitude": latitude, "worksheet": True,
+                                     "epoch": 2027}))
+    label = kit.words("worksheet.answer_label")
+    pages = [p for p in layout_kit(kit) if p.kind == "instructions"]
+    lines = [(k, ln.text) for k, p in enumerate(pages) for ln in p.lines]
+    answer = next(ln for p in pages for ln in p.lines if ln.text.startswith(label))
+    x0, _, x1, _ = page_content_mm(pages[0])
+    column_mm = x1 - x0 - abs(answer.x_mm - (x1 if kit.words.rtl else x0))
+
+    def width_mm(text):
+        return set_line(text, kit.words.script, answer.style, kit.words.rtl).width_em * answer.size_pt * 25.4 / 72
+    starts = [i for i, (_, text) in enumerate(lines) if text.startswith(label) and "_" in text]
+    questions = kit.plan.worksheet
+    assert len(starts) == len(questions) >= 6 and any(q.kind in PARTS for q in questions)
+    for i, q in zip(starts, questions):
+        blanks = 0
+        while i + 1 + blanks < len(lines) and set(lines[i + 1 + blanks][1]) == {"_"}:
+            blanks += 1
+        assert 1 + blanks == PARTS.get(q.kind, 1), q.kind
+        assert len({page for page, _ in lines[i:i + 1 + blanks]}) == 1
+        for _, text in lines[i + 1:i + 1 + blanks]:   # the column's width, within one low line
+            assert width_mm(text) <= column_mm < width_mm(text) + width_mm("_")

@@ -459,6 +459,14 @@ def _worksheet_values(kit, q) -> dict:
     return out
 
 
+#: Lines to write on under a question that asks for more than one thing
+#: (one under any other): a line for each part of the answer, as a class
+#: worksheet gives (common practice): the Sun's two days in the zenith,
+#: the time of sunrise and the day's length, the height's working and
+#: the height.
+ANSWER_LINES = {"zenith_days": 2, "sunrise": 2, "height": 2}
+
+
 @_per_kit
 def worksheet_blocks(kit) -> list[Block]:
     """The worksheet, when the recipe asks for one: the questions, then the
@@ -474,6 +482,7 @@ def worksheet_blocks(kit) -> list[Block]:
     for k, (q, v) in enumerate(zip(questions, values), start=1):
         out += [Block("item", w("worksheet.q_" + q.kind, **v), w.number(k) + "."),
                 Block("answer", w("worksheet.answer_label"))]
+        out += [Block("answer", "")] * (ANSWER_LINES.get(q.kind, 1) - 1)
     out += [Block(PAGE_BREAK, ""), Block("heading", w("worksheet.key_heading", **titled))]
     out += [Block("item", w("worksheet.a_" + q.kind, **v), w.number(k) + ".")
             for k, (q, v) in enumerate(zip(questions, values), start=1)]

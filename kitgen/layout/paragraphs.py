@@ -24,7 +24,8 @@ from ..words.shaping import line_width_em, plain_advances, set_line
 class Block:
     """A paragraph of the text pages: ``kind`` is ``title``, ``heading``,
     ``body``, ``item``, ``caution`` or ``answer`` (its text a label, then a
-    line to write on to the column's end, :func:`writing_line`), or
+    line to write on to the column's end, :func:`writing_line`; without a
+    label, a further line of the answer above it), or
     :data:`PAGE_BREAK`, which starts a new page; ``bullet`` is printed
     before an item.  A ``figure`` block is a picture
     (:class:`kitgen.layout.figures.Figure`, built for the column's width)
@@ -202,11 +203,13 @@ WRITING_MARK = "_"
 
 def writing_line(label: str, width_limit_pt: float, size_pt: float, words) -> str:
     """``label`` and a blank to write on (:data:`WRITING_MARK`), as long
-    as the column's width holds."""
-    n = max(0, int((width_limit_pt - width_pt(label + " ", size_pt, words)) // width_pt(WRITING_MARK, size_pt, words)))
-    while n and width_pt(f"{label} {WRITING_MARK * n}", size_pt, words) > width_limit_pt:
+    as the column's width holds; without a label, the blank alone (an
+    answer's further line)."""
+    lead = f"{label} " if label else ""
+    n = max(0, int((width_limit_pt - width_pt(lead, size_pt, words)) // width_pt(WRITING_MARK, size_pt, words)))
+    while n and width_pt(lead + WRITING_MARK * n, size_pt, words) > width_limit_pt:
         n -= 1
-    return f"{label} {WRITING_MARK * n}"
+    return lead + WRITING_MARK * n
 
 
 def _figure_pt(block) -> float:
@@ -344,10 +347,14 @@ TABLE_KEEPS_ROWS = 2
 def _going_with(blocks, current, k: int) -> list[int]:
     """The blocks at the end of the page ``current`` that go on to the next
     page with the block ``k`` that does not fit: an answer's line takes
-    its question along, a table's row the rows :func:`_rows_kept_together`
-    gives.  The page's first block always stays."""
+    its question and the answer's lines before it along, a table's row
+    the rows :func:`_rows_kept_together` gives.  The page's first block
+    always stays."""
     if blocks[k].kind == "answer":
-        return current[-1:] if len(current) > 1 else []
+        n = 1   # the answer's lines before this one, and its question
+        while n < len(current) and blocks[current[-n]].kind == "answer":
+            n += 1
+        return current[-n:] if len(current) > n else []
     return _rows_kept_together(blocks, current, k)
 
 
