@@ -29,6 +29,7 @@ from ..layout.instructions import answer_key_page
 from ..layout.pages import layout_kit
 from ..render.pdf import render_layers
 from ..sky import stars
+from ..words import fonts
 from ..words.templates import available_languages, load_words
 from .stamp import stamps_pdf
 
@@ -81,10 +82,13 @@ class KitResult:
 
 
 def warm(languages: tuple[str, ...] = ()) -> None:
-    """Fonts, the templates of ``languages`` and the catalogue loaded once
-    (a worker's initializer; a language not loaded yet is loaded when a
-    kit first needs it, and kept)."""
+    """Fonts (registered, their metrics and glyph bounds read), the
+    templates of ``languages`` and the catalogue loaded once (before a
+    set's workers fork, and a spawned worker's initializer; a language not
+    loaded yet is loaded when a kit first needs it, and kept)."""
     pdf_text.register_fonts()
+    for face in fonts.DEJAVU.values():
+        fonts.preload(face)
     for code in languages:
         if code in available_languages():
             load_words(code)
