@@ -15,11 +15,11 @@ program that writes these kits as PDF must at least spend.  Measured:
 (d) bytes of a kit's PDF in every shipped language;
 (e) peak resident memory of a worker.
 
-Run: ``python3 benchmarks/batch_speed.py [--kits N] [--schools S]``
+Run: ``python3 benchmarks/batch_speed.py [--kits N] [--schools S] [--runs R]``
 (``--kits 10`` for a quick look; ``--schools 4`` for a roster of four
 schools, ten pupils each at 40 kits), or ``--set SET.yaml`` to measure a
 set of one's own (its kits with errors left out).  Each command runs
-five times, taking turns with the one it is measured against, and its
+five times (``--runs``), taking turns with the one it is measured against, and its
 least disturbed run counts (the least CPU time for (a) and (b), the
 least wall time for (c)), kitgen's and the floor's alike.  It prints
 each measure as a figure and a ratio beside its target, and exits 0
@@ -94,9 +94,9 @@ def _run(args, **kw) -> Timing:
     return wall
 
 
-#: Runs of each command; each measure takes the best (least CPU or wall
-#: time), the run least disturbed by the rest of the machine, for kitgen
-#: and the floor alike.
+#: Runs of each command by default (``--runs``); each measure takes the
+#: best (least CPU or wall time), the run least disturbed by the rest of
+#: the machine, for kitgen and the floor alike.
 RUNS = 5
 
 
@@ -115,17 +115,17 @@ def _run_pair(first, second) -> Timing:
     return wall
 
 
-def _best(first, second, key: str) -> tuple[Timing, Timing]:
+def _best(first, second, key: str, runs: int = RUNS) -> tuple[Timing, Timing]:
     """The runs of the commands ``first`` and ``second`` (:func:`_run`,
-    :data:`RUNS` times each, taking turns, so that a machine that slows
+    ``runs`` times each, taking turns, so that a machine that slows
     down or speeds up over the minutes weighs on both alike) with the
     least ``key`` time: ``"cpu"`` or ``"wall"``."""
-    runs = [(_run(first), _run(second)) for _ in range(RUNS)]
+    pairs = [(_run(first), _run(second)) for _ in range(runs)]
 
     def measure(t: Timing) -> float:
         return t.cpu if key == "cpu" else float(t)
 
-    return min((a for a, _ in runs), key=measure), min((b for _, b in runs), key=measure)
+    return min((a for a, _ in pairs), key=measure), min((b for _, b in pairs), key=measure)
 
 
 def _export_geometries(recipes, folder: Path) -> list[Path]:
@@ -226,22 +226,23 @@ def floor(paths, out_folder) -> None:
 
 # -- the measures -----------------------------------------------------------------------
 
-def _ceiling(one, other) -> tuple[Timing, Timing]:
+def _ceiling(one, other, runs: int = RUNS) -> tuple[Timing, Timing]:
     """What two cores of this machine give this work at most: the
     one-worker build ``one`` alone, and two one-worker builds (``one``
     and ``other``, the same set into another folder) at once, each the
-    least wall time of :data:`RUNS` runs, taking turns.  Two workers can
+    least wall time of ``runs`` runs, taking turns.  Two workers can
     be about 2 x alone / together faster than one at most (they share
     the pages their parent imported, which two separate builds do not):
     on a machine whose two cores slow each other down (shared caches, a
     host's other guests), less than 2."""
-    runs = [(_run(one), _run_pair(one, other)) for _ in range(RUNS)]
-    return min(a for a, _ in runs), min(b for _, b in runs)
+    pairs = [(_run(one), _run_pair(one, other)) for _ in range(runs)]
+    return min(a for a, _ in pairs), min(b for _, b in pairs)
 
 
-def measure(set_path: Path, work: Path) -> dict:
+def measure(set_path: Path, work: Path, runs: int = RUNS) -> dict:
     """The five measures of the set at ``set_path`` (a set file, as
-    ``kitgen batch`` takes), working in the folder ``work``."""
+    ``kitgen batch`` takes), working in the folder ``work``, each command
+    run ``runs`` times."""
     from kitgen.batch import run_set
     from kitgen.batch.setfile import load_set
 
@@ -252,15 +253,15 @@ def measure(set_path: Path, work: Path) -> dict:
     out = {"kits": len(kits)}
 
     out["a"] = _best(["-m", "kitgen", "build", str(work / "one.yaml"), "-o", str(work / "one.pdf")],
-                     [*floor_cmd, str(geometries[0])], "cpu")
+                     [*floor_cmd, str(geometries[0])], "cpu", runs)
 
     def batch(jobs: int) -> list[str]:
         return ["-m", "kitgen", "batch", str(set_path), "-o", str(work / f"out-{jobs}"), "--jobs", str(jobs), "--quiet"]
 
-    out["b"] = _best(batch(1), [*floor_cmd, *map(str, geometries)], "cpu")
-    out["c"] = _best(batch(1), batch(2), "wall")
+    out["b"] = _best(batch(1), [*floor_cmd, *map(str, geometries)], "cpu", runs)
+    out["c"] = _best(batch(1), batch(2), "wall", runs)
     out["ceiling"] = _ceiling(batch(1), ["-m", "kitgen", "batch", str(set_path), "-o", str(work / "out-1b"),
-                                         "--jobs", "1", "--quiet"])
+                                         "--jobs", "1", "--quiet"], runs)
 
     sizes: dict[str, list[float]] = {}
     with open(work / "out-1" / "manifest.csv", newline="", encoding="utf-8-sig") as fh:
@@ -310,6 +311,9 @@ def main() -> int:
                         f"(at most {len(SCHOOLS)}; default 0: every kit its own latitude and language)")
     p.add_argument("--set", type=Path, metavar="SET.yaml",
                    help="measure this set file (as kitgen batch takes it) instead of a generated one")
+    p.add_argument("--runs", type=int, default=RUNS,
+                   help=f"runs of each command, the least disturbed counting (default {RUNS}; "
+                        "more where the machine's speed moves from minute to minute)")
     p.add_argument("--floor", nargs="+", help=argparse.SUPPRESS)
     args = p.parse_args()
     if args.floor:
@@ -317,6 +321,8 @@ def main() -> int:
         return 0
     if not 0 <= args.schools <= len(SCHOOLS):
         p.error(f"--schools: from 0 to {len(SCHOOLS)}")
+    if args.runs < 1:
+        p.error("--runs: at least 1")
     # kitgen's modules compiled to bytecode first, as pip compiles any package
     # it installs (reportlab's, which the floor runs, among them): where the
     # environment stops Python writing bytecode (PYTHONDONTWRITEBYTECODE), an
@@ -328,7 +334,7 @@ def main() -> int:
             else "every kit its own latitude and language")
     print(f"machine: {os.cpu_count()} cores, Python {sys.version.split()[0]}, {sys.platform}, "
           f"load average {os.getloadavg()[0]:.1f} at the start; {what}")
-    ok = report(measure(set_path, work))
+    ok = report(measure(set_path, work, args.runs))
     print("all targets met" if ok else "some targets not met")
     return 0 if ok else 1
 
