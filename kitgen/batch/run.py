@@ -84,11 +84,12 @@ def run_set(set_path, out_dir, jobs: int | None = None, quiet: bool = False, str
     built."""
     started = time.monotonic()
     set_path, out_dir = Path(set_path), Path(out_dir)
-    kit_set = load_set(set_path)
-    check_output_folder(out_dir, [set_path, *kit_set.inputs])
-    buildable = [k for k in kit_set.kits if k.error is None]
-    warm(tuple(sorted({k.recipe.language for k in buildable})))
     with ExitStack() as stack:
+        stack.enter_context(rare_collections())   # the whole run, main process and workers
+        kit_set = load_set(set_path)
+        check_output_folder(out_dir, [set_path, *kit_set.inputs])
+        buildable = [k for k in kit_set.kits if k.error is None]
+        warm(tuple(sorted({k.recipe.language for k in buildable})))
         pools = _start_workers(stack, min(jobs or default_jobs(), len(buildable)))
         return _run(kit_set, out_dir, pools, quiet, stream, started)
 
@@ -179,9 +180,8 @@ def _build_all(jobs_list, pools: list):
     if pools:
         yield from dispatch(jobs_list, pools)
         return
-    with rare_collections():
-        for job in worker_shares(jobs_list, 1)[0]:
-            yield build_one(job)
+    for job in worker_shares(jobs_list, 1)[0]:
+        yield build_one(job)
 
 
 def _worker_start() -> None:
