@@ -15,6 +15,7 @@ import sys
 from pathlib import Path
 
 from . import __version__, interrupt
+from .collect import rare_collections
 from .errors import (EXIT_INTERNAL, EXIT_INTERRUPTED, EXIT_OK, EXIT_USER, Message, UserError, one_line, speaking,
                      typed)
 
@@ -426,6 +427,10 @@ def _cmd_places(args) -> int:
     return EXIT_OK
 
 
+#: The commands that build a kit, which run with the garbage collector's
+#: passes rare (kitgen.collect; ``batch`` sees to its own).
+BUILDING = frozenset({"build", "geometry", "preview", "check"})
+
 COMMANDS = {"build": _cmd_build, "geometry": _cmd_geometry, "new": _cmd_new, "stars": _cmd_stars,
             "calibrate": _cmd_calibrate, "preview": _cmd_preview,
             "batch": _cmd_batch, "serve": _cmd_serve, "places": _cmd_places, "check": _cmd_check}
@@ -461,7 +466,8 @@ def _main(argv) -> int:
         if not args.command:
             parser.print_help(sys.stderr)
             return EXIT_USER
-        status = COMMANDS[args.command](args)
+        with rare_collections() if args.command in BUILDING else contextlib.nullcontext():
+            status = COMMANDS[args.command](args)
         _flush_stdout()
         return status
     except UserError as exc:

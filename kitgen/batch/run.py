@@ -36,7 +36,8 @@ from .setfile import load_set
 from .stamp import SchoolStamps
 from .dispatch import dispatch
 from .shares import worker_shares
-from .work import KitJob, build_one, collect_rarely, rare_collections, warm
+from ..collect import collect_rarely, rare_collections
+from .work import KitJob, build_one, warm
 
 #: Most worker processes one run may ask for.
 MAX_JOBS = 256

@@ -15,9 +15,7 @@ and draws a school's stamps with its first kit (:class:`KitJob` ``stamps``).
 
 from __future__ import annotations
 
-import gc
 import sys
-from contextlib import contextmanager
 from dataclasses import dataclass, field, replace
 from functools import lru_cache
 
@@ -93,36 +91,6 @@ def warm(languages: tuple[str, ...] = ()) -> None:
         if code in available_languages():
             load_words(code)
     stars.catalogue()
-
-
-def collect_rarely() -> tuple[int, ...]:
-    """Leave what is loaded so far out of the cyclic garbage collector's
-    passes (``gc.freeze``) and make the passes rarer
-    (:data:`GC_THRESHOLDS`); the thresholds before.  A worker's heap is
-    large and long-lived, the kits' own garbage is freed by reference
-    counting, and the passes over the heap took 4 to 6 per cent of a class
-    set's time."""
-    thresholds = gc.get_threshold()
-    gc.freeze()
-    gc.set_threshold(*GC_THRESHOLDS)
-    return thresholds
-
-
-@contextmanager
-def rare_collections():
-    """:func:`collect_rarely` within the block, as it was after."""
-    thresholds = collect_rarely()
-    try:
-        yield
-    finally:
-        gc.set_threshold(*thresholds)
-        gc.unfreeze()
-
-
-#: The collector's thresholds while a set is built (Python's own: 700, 10,
-#: 10): a 40-kit set of five schools made 5 full passes and 629 in all,
-#: 0.35 s; with these, 1 and 133, 0.08 s, and the same peak memory.
-GC_THRESHOLDS = (50_000, 50, 100)
 
 
 def draw_for(recipe) -> dict | None:
