@@ -17,11 +17,13 @@ from __future__ import annotations
 
 import base64
 import io
+import multiprocessing
 import re
 import traceback
 import zipfile
 from dataclasses import replace
 
+from ..collect import collect_rarely
 from ..errors import UserError
 from ..kit import build_kit
 from ..recipe.load import validate_recipe
@@ -118,5 +120,11 @@ def download(recipe, language: str, fmt: str, tree: dict, heading: str) -> bytes
 
 def warm() -> None:
     """Build one small preview, so that a new worker has loaded kitgen,
-    its fonts and its catalogue before the first teacher asks."""
+    its fonts and its catalogue before the first teacher asks; then, in a
+    worker process (never the server's own, whose requests' garbage the
+    collector keeps clearing), leave all that out of the collector's
+    passes and make them rare, for the worker's life (kitgen.collect, as
+    a class set's workers do)."""
     preview(validate_recipe({"latitude": 45.0, "epoch": 2026}), "en")
+    if multiprocessing.parent_process() is not None:
+        collect_rarely()
