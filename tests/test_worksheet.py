@@ -254,7 +254,6 @@ def test_each_question_has_a_line_to_write_on(language, sheet):
     # one low line's width) and stays on its question's page.
     from kitgen.layout.pages import instructions_split, layout_kit, page_content_mm
     from kitgen.recipe.load import validate_recipe
-    from kitgen.words.shaping import set_line
 
     kit = build_kit(validate_recipe({"language": language, "sheet": sheet, "latitude": 40.4, "worksheet": True,
                                      "epoch": 2027}))
@@ -266,8 +265,7 @@ def test_each_question_has_a_line_to_write_on(language, sheet):
     questions = len(kit.plan.worksheet)
     assert len(answers) == questions >= 6
     for _, ln in answers:
-        width_mm = set_line(ln.text, kit.words.script, ln.style, kit.words.rtl).width_em * ln.size_pt * 25.4 / 72
-        low_line_mm = set_line("_", kit.words.script, ln.style, kit.words.rtl).width_em * ln.size_pt * 25.4 / 72
+        width_mm, low_line_mm = _set_width_mm(kit, ln, ln.text), _set_width_mm(kit, ln, "_")
         indent_mm = abs(ln.x_mm - (x1 if kit.words.rtl else x0))
         assert x1 - x0 - indent_mm - low_line_mm <= width_mm <= x1 - x0 - indent_mm + 1e-6
     size_pt, chunks = instructions_split(kit, pages)
@@ -293,7 +291,6 @@ def test_a_line_to_write_on_for_each_part_of_an_answer(language, sheet, latitude
     the question's page."""
     from kitgen.layout.pages import layout_kit, page_content_mm
     from kitgen.recipe.load import validate_recipe
-    from kitgen.words.shaping import set_line
 
     kit = build_kit(validate_recipe({"language": language, "sheet": sheet, "latitude": latitude, "worksheet": True,
                                      "epoch": 2027}))
@@ -303,9 +300,6 @@ def test_a_line_to_write_on_for_each_part_of_an_answer(language, sheet, latitude
     answer = next(ln for p in pages for ln in p.lines if ln.text.startswith(label))
     x0, _, x1, _ = page_content_mm(pages[0])
     column_mm = x1 - x0 - abs(answer.x_mm - (x1 if kit.words.rtl else x0))
-
-    def width_mm(text):
-        return set_line(text, kit.words.script, answer.style, kit.words.rtl).width_em * answer.size_pt * 25.4 / 72
     starts = [i for i, (_, text) in enumerate(lines) if text.startswith(label) and "_" in text]
     questions = kit.plan.worksheet
     assert len(starts) == len(questions) >= 6 and any(q.kind in PARTS for q in questions)
@@ -316,4 +310,13 @@ def test_a_line_to_write_on_for_each_part_of_an_answer(language, sheet, latitude
         assert 1 + blanks == PARTS.get(q.kind, 1), q.kind
         assert len({page for page, _ in lines[i:i + 1 + blanks]}) == 1
         for _, text in lines[i + 1:i + 1 + blanks]:   # the column's width, within one low line
-            assert width_mm(text) <= column_mm < width_mm(text) + width_mm("_")
+            width_mm = _set_width_mm(kit, answer, text)
+            assert width_mm <= column_mm < width_mm + _set_width_mm(kit, answer, "_")
+
+
+def _set_width_mm(kit, line, text: str) -> float:
+    """The width (mm) of ``text`` set in a laid-out line's style and size,
+    by the words layer's own shaping (25.4 mm to 72 pt)."""
+    from kitgen.words.shaping import set_line
+
+    return set_line(text, kit.words.script, line.style, kit.words.rtl).width_em * line.size_pt * 25.4 / 72

@@ -24,6 +24,7 @@ from contextlib import ExitStack
 from dataclasses import dataclass, replace
 from pathlib import Path
 
+from ..collect import collect_rarely, rare_collections
 from ..errors import EXIT_INTERNAL, EXIT_OK, EXIT_USER, Message, one_line
 from ..kit import school_of
 from ..words.templates import available_languages, load_words
@@ -36,7 +37,6 @@ from .setfile import load_set
 from .stamp import SchoolStamps
 from .dispatch import dispatch
 from .shares import worker_shares
-from ..collect import collect_rarely, rare_collections
 from .work import KitJob, build_one, warm
 
 #: Most worker processes one run may ask for.
