@@ -2,8 +2,9 @@
 
 The floor is bare reportlab drawing the very primitives a kit exports
 (``kitgen geometry``'s JSON: circles, arcs, segments, polylines, dots and
-text) with the same shipped fonts, embedded, one part a page: what any
-program that writes these kits as PDF must at least spend.  Measured:
+text, each at its angle and from its anchor) with the same shipped
+fonts, embedded, one part a page: what any program that writes these
+kits as PDF must at least spend.  Measured:
 
 (a) one ``kitgen build`` as a whole process against one floor process
     drawing the same kit;
@@ -191,9 +192,17 @@ def floor(paths, out_folder) -> None:
             c.translate((10 - x0) * mm, (10 - y0) * mm)
             for el in part["elements"]:
                 shape = el["shape"]
-                if shape == "text":
+                if shape == "text":   # at its angle, from its anchor, as the kit sets it
                     c.setFont(font_for(el["text"]), el["size_pt"])
-                    c.drawCentredString(el["at"][0] * mm, el["at"][1] * mm, el["text"])
+                    draw = {"start": c.drawString, "end": c.drawRightString}.get(el["anchor"], c.drawCentredString)
+                    if el["angle_deg"]:
+                        c.saveState()
+                        c.translate(el["at"][0] * mm, el["at"][1] * mm)
+                        c.rotate(el["angle_deg"])
+                        draw(0, 0, el["text"])
+                        c.restoreState()
+                    else:
+                        draw(el["at"][0] * mm, el["at"][1] * mm, el["text"])
                     continue
                 if shape == "point":
                     c.circle(el["at"][0] * mm, el["at"][1] * mm, 0.3 * mm, stroke=0, fill=1)
