@@ -498,10 +498,14 @@ def _nearest_own(box, k: int, points, radii_mm, dots, dot_mm: float) -> bool:
 def _segments_cross(p, q, a, b) -> bool:
     """Whether segments pq and ab cross (the signs of the orientations of
     each one's ends about the other, the usual test of computational
-    geometry)."""
-    def side(o, u, v):
-        return (u[0] - o[0]) * (v[1] - o[1]) - (u[1] - o[1]) * (v[0] - o[0])
-    return side(p, q, a) * side(p, q, b) < 0 and side(a, b, p) * side(a, b, q) < 0
+    geometry), the orientations written out: a set's labels ask it
+    about a hundred thousand times a kit (#12)."""
+    (px, py), (qx, qy), (ax, ay), (bx, by) = p, q, a, b
+    ex, ey = qx - px, qy - py
+    if (ex * (ay - py) - ey * (ax - px)) * (ex * (by - py) - ey * (bx - px)) >= 0:
+        return False
+    fx, fy = bx - ax, by - ay
+    return (fx * (py - ay) - fy * (px - ax)) * (fx * (qy - ay) - fy * (qx - ax)) < 0
 
 
 def _passes_another(leader, k: int, points, radii_mm, near_mm: float, dots, dot_mm: float) -> bool:
