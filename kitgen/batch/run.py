@@ -6,10 +6,14 @@ the set, and each kit is built alone from its own recipe, so the same set
 gives the same bytes whatever ``jobs`` is and whichever worker finishes
 first.  Workers are long-lived processes (``concurrent.futures``).  The
 main process reads and checks the set and warms what every kit needs (the
-fonts, the set's languages, the catalogue: :func:`kitgen.batch.work.warm`)
+fonts, their glyph bounds, the catalogue: :func:`kitgen.batch.work.warm`)
 before they start, so that a forked worker begins with it all, as the
 one-process build does: each worker loading them itself had put 0.1 to
-0.2 s more before every worker's first kit.
+0.2 s more before every worker's first kit.  A language is loaded by the
+worker whose kit first needs it (a worker builds school by school, so the
+set's languages are mostly loaded side by side, each by one worker),
+where the main process had loaded them all, one after another, before
+any worker started.
 """
 
 from __future__ import annotations
@@ -90,7 +94,7 @@ def run_set(set_path, out_dir, jobs: int | None = None, quiet: bool = False, str
         kit_set = load_set(set_path)
         check_output_folder(out_dir, [set_path, *kit_set.inputs])
         buildable = [k for k in kit_set.kits if k.error is None]
-        warm(tuple(sorted({k.recipe.language for k in buildable})))
+        warm()   # the languages: as each kit first needs one, in whichever process builds it
         pools = _start_workers(stack, min(jobs or default_jobs(), len(buildable)))
         return _run(kit_set, out_dir, pools, quiet, stream, started)
 
