@@ -31,7 +31,7 @@ def without_mac_names(font: bytes) -> bytes:
     """``font`` (a TrueType file) without its Macintosh name records; the
     font as it was where it has none, or where its tables are not as
     this reads them (a 'name' table of format 1)."""
-    tables = _tables(font)
+    tables = font_tables(font)
     name = tables.get(b"name")
     if name is None or b"head" not in tables:
         return font
@@ -39,10 +39,10 @@ def without_mac_names(font: bytes) -> bytes:
     if trimmed is None or trimmed == name:
         return font
     tables[b"name"] = trimmed
-    return _font(font[:4], tables)
+    return font_file(font[:4], tables)
 
 
-def _tables(font: bytes) -> dict[bytes, bytes]:
+def font_tables(font: bytes) -> dict[bytes, bytes]:
     """The font's tables by tag, in the directory's order."""
     count = struct.unpack_from(">H", font, 4)[0]
     out = {}
@@ -77,7 +77,7 @@ def _checksum(data: bytes) -> int:
     return sum(struct.unpack(f">{len(padded) // 4}I", padded)) & 0xFFFFFFFF
 
 
-def _font(version: bytes, tables: dict[bytes, bytes]) -> bytes:
+def font_file(version: bytes, tables: dict[bytes, bytes]) -> bytes:
     """A font file of ``tables`` (in their order), each on a four-byte
     boundary, with 'head''s checkSumAdjustment made anew."""
     count = len(tables)

@@ -30,6 +30,7 @@ from reportlab.pdfbase.ttfonts import ShapedStr, ShapeData, TTFont, makeToUnicod
 from ..layout.paragraphs import width_pt
 from ..words import fonts
 from ..words.shaping import Line, Run, set_line
+from .font_hints import without_hinting
 from .font_names import without_mac_names
 
 
@@ -114,8 +115,8 @@ class TaggedTTFont(TTFont):
 
 class _KeptSubsets:
     """A font face's ``makeSubset``, each subset's font file made once,
-    its naming table's Macintosh copies left out (:mod:`.font_names`), and
-    kept (the last few): a class set's kits of one language embed the
+    its naming table's Macintosh copies (:mod:`.font_names`) and its
+    hinting (:mod:`.font_hints`) left out, and kept (the last few): a class set's kits of one language embed the
     same subsets again and again (#12).  A subset is its characters in
     code order, and a character, once the face maps it to a glyph (a
     private-use one included), keeps that glyph, so the same characters
@@ -132,7 +133,7 @@ class _KeptSubsets:
         if made is None:
             if len(self.kept) >= self.MOST:
                 self.kept.clear()
-            made = self.kept[key] = without_mac_names(self.make(subset))
+            made = self.kept[key] = without_hinting(without_mac_names(self.make(subset)))
         return made
 
 
