@@ -190,19 +190,60 @@ def _shaped_str(run: Run) -> tuple[ShapedStr, dict]:
         return same[2], same[3]
     face = ttf.face
     chars, data = [], []
-    order = fonts._metrics(run.face)[2]
     for g in run.glyphs:
         mapped = face.glyphToChar.get(g.gid)
         if mapped:
             uchar = mapped[0]
         else:
-            uchar = ttf.hbAddPrivate(order[g.gid], g.gid, fonts.glyph_advance_em(run.face, g.gid) * 1000.0)
+            uchar = _private_char(ttf, g.gid, fonts.glyph_advance_em(run.face, g.gid) * 1000.0)
         chars.append(chr(uchar))
         data.append(ShapeData(g.cluster, g.x_advance_em * 1000.0, 0, g.x_offset_em * 1000.0,
                               g.y_offset_em * 1000.0, face.charWidths[uchar]))
     shaped = ShapedStr("".join(chars), shapeData=data)
     _SHAPED[id(run)] = _SHAPED_BY_VALUE[run] = (run, ttf, shaped, {})
     return shaped, _SHAPED[id(run)][3]
+
+
+def _private_char(ttf, gid: int, advance: float) -> int:
+    """The private-use character (Unicode's Private Use Area, from U+E000)
+    that stands for glyph ``gid`` of the font ``ttf``, which no character
+    maps to (a contextual form, a conjunct), made the font's with the
+    glyph's ``advance`` (thousandths of the size) where it is not yet.
+    Each such glyph has its own character, fixed by the font alone: the
+    font's unmapped glyphs in glyph order take the private-use characters
+    in order, those the font maps itself passed over
+    (:func:`_private_chars`).  reportlab's own registry hands them out in
+    the order a process first draws the glyphs, so a class set's pupil
+    whose name held a conjunct that an earlier pupil's did not got other
+    characters, and so other font subsets and other bytes, than a lone
+    ``kitgen build`` of the same recipe (#12)."""
+    uchar = _private_chars(ttf)[gid]
+    face = ttf.face
+    if uchar not in face.charToGlyph:
+        face.charToGlyph[uchar] = gid
+        face.glyphToChar.setdefault(gid, []).append(uchar)
+        face.charWidths[uchar] = advance
+    return uchar
+
+
+def _private_chars(ttf) -> dict[int, int]:
+    """{glyph id: its private-use character} for every glyph of ``ttf``
+    that its character map leaves out (worked out before any is added,
+    once per font)."""
+    table = _PRIVATE.get(ttf.fontName)
+    if table is None or table[0] is not ttf:
+        face = ttf.face
+        codes = (c for c in range(PRIVATE_USE_FIRST, PRIVATE_USE_END) if c not in face.charToGlyph)
+        table = _PRIVATE[ttf.fontName] = (ttf, {gid: next(codes) for gid in range(face.numGlyphs)
+                                                if gid not in face.glyphToChar})
+    return table[1]
+
+
+#: The Private Use Area of Unicode's Basic Multilingual Plane: its first
+#: character and the one after its last (U+E000 to U+F8FF).
+PRIVATE_USE_FIRST, PRIVATE_USE_END = 0xE000, 0xF900
+#: Each font's table of :func:`_private_chars`, by font name, with the font.
+_PRIVATE: dict[str, tuple] = {}
 
 
 #: Shaped runs as reportlab strings, by the run's identity: (run, font,
