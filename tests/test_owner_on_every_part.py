@@ -27,7 +27,6 @@ from kitgen.kit import build_kit
 from kitgen.parts import labels
 from kitgen.parts.legibility import shortened_notes
 from kitgen.parts.owner import left_out
-from kitgen.geometry.style import stroke_width_mm
 from kitgen.recipe.load import validate_recipe
 
 #: A long invented owner's name (a double surname).
@@ -108,33 +107,3 @@ def test_the_plates_name_does_not_lie_along_a_line(lat, diameter, language):
                 h = box[3] - box[1]   # within a name's height above or below it: along the name
                 assert not (on_arc and box[0] <= cx <= box[2] and box[1] - h <= y <= box[3] + h), \
                     (e.role, lat, diameter)
-
-
-#: A4 plates whose name had been set across their outer tropic or twilight
-#: line, the line broken round it (the name read as the line's): the
-#: latitudes where the room under the latitude label runs out (#12).
-ACROSS = [41.0, 41.5, 47.5, -41.0, -42.88, -45.5, -47.0, 88.0, -87.5]
-
-
-@pytest.mark.parametrize("lat", ACROSS)
-def test_the_plates_name_is_not_set_on_a_named_line(lat):
-    """No named line of the plate (a tropic, the equator, the horizon,
-    the twilight line) runs through the owner's name, even where the line
-    is broken round it: its whole circle, from any of its pieces, is
-    tested (Shapely/GEOS, the general-purpose geometry library), half its
-    width and ``MARGIN_MM`` about it (common practice of map lettering: a
-    name set in a line's gap reads as that line's name)."""
-    from shapely.geometry import Point, box
-
-    kit = build_kit(validate_recipe({"latitude": lat, "sheet": "a4", "epoch": 2027, "owner": OWNER}))
-    plate = next(p for p in kit.parts if p.kind == "plate")
-    names = [box(*labels.element_box_mm(e, kit.words)) for e in plate.elements if e.role == "owner"]
-    assert names
-    circles = {(round(e.geom["center"][0], 6), round(e.geom["center"][1], 6), round(e.geom["radius"], 6), e.stroke)
-               for e in plate.elements if e.role in ("tropic", "equator", "horizon", "twilight")
-               and e.shape in ("circle", "arc") and e.stroke not in ("none", "cut")}
-    assert circles
-    for cx, cy, r, stroke in circles:
-        ring = Point(cx, cy).buffer(r, 256).exterior.buffer(stroke_width_mm(stroke, kit.dims) / 2 + labels.MARGIN_MM)
-        for name in names:
-            assert not ring.intersects(name), (lat, r)

@@ -67,10 +67,8 @@ def plate_slot(part: model.Part, ctx: PartContext) -> model.Part:
     """The plate with room for an owner's name, whatever the name: a line
     under the plate's latitude label, or over it, left-aligned with it or
     mirrored across the meridian, :data:`SLOT_RADII` plate radii wide (at
-    least :data:`LONG_NAME_MM`) or as far as the drawing's edge or the
-    nearest of its :data:`NAMED_CURVES` if that is nearer (a name laid on
-    a tropic reads as the tropic's, #12), but not narrower than
-    :data:`SLOT_LEAST` labels: the widest
+    least :data:`LONG_NAME_MM`) or as far as the drawing's edge if that is
+    nearer (but not narrower than :data:`SLOT_LEAST` labels): the widest
     of those places clear of every word and of the pin (:data:`MARGIN_MM`
     apart), the first of them at equal width; where that is narrower than
     :data:`LONG_NAME_MM`, a free row of the plate that wide off its named
@@ -94,16 +92,13 @@ def plate_slot(part: model.Part, ctx: PartContext) -> model.Part:
     least = SLOT_LEAST * max(b[2] - b[0] for b in boxes)
     most = max(SLOT_RADII * d.plate_radius_mm, LONG_NAME_MM)
     rim = disc - 2 * m - stroke_width_mm("heavy", d)   # the slot's break stops short of the rim
-    named = _named_points(part, d)
     best = None
     for y in (bottom - m - height / 2, top + m + height / 2):
         reach = rim ** 2 - (abs(y) + height / 2) ** 2
-        edge = min(most, math.sqrt(max(reach, 0.0)) - abs(x))   # to the drawing's edge, at most
+        width = min(most, math.sqrt(max(reach, 0.0)) - abs(x))   # to the drawing's edge, at most
+        if width < least or (best is not None and width <= best[3]):
+            continue
         for sx, anchor in ((x, "start"), (-x, "end")):
-            # and short of the named curves (#12: a name on a tropic read as the tropic's)
-            width = _reach_clear(sx, 1.0 if anchor == "start" else -1.0, y, height, edge, named)
-            if width < least or (best is not None and width <= best[3]):
-                continue
             x0 = sx if anchor == "start" else sx - width
             box = (x0 - m, y - height / 2 - m, x0 + width + m, y + height / 2 + m)
             if not any(labels.boxes_meet(box, t) for t in taken):
@@ -131,29 +126,6 @@ def plate_slot(part: model.Part, ctx: PartContext) -> model.Part:
 NAMED_CURVES = ("horizon", "equator", "tropic", "twilight")
 
 
-def _named_points(part: model.Part, d, roles=NAMED_CURVES):
-    """The plate's curves of ``roles`` sampled every :data:`MARGIN_MM`:
-    an array of x, y and half the line's width (mm)."""
-    return np.array([(x, y, stroke_width_mm(e.stroke, d) / 2) for e in part.elements
-                     if e.role in roles and e.stroke not in ("none", "cut")
-                     for x, y, _ in points_along(e, midpoint(e), step_mm=labels.MARGIN_MM, reach_mm=1e4)]
-                    ).reshape(-1, 3)
-
-
-def _reach_clear(x: float, direction: float, y: float, height: float, most: float, points) -> float:
-    """How far (mm, at most ``most``) a row ``height`` high centred at
-    ``y`` may run from ``x`` towards ``direction`` (+1 right, -1 left)
-    and stay :data:`MARGIN_MM` clear of every point of ``points`` (x, y
-    and half a line's width, as :func:`_named_points` gives them);
-    negative where a point stands at ``x`` itself."""
-    m = labels.MARGIN_MM
-    near = points[np.abs(points[:, 1] - y) < height / 2 + points[:, 2] + m]
-    ahead = (near[:, 0] - x) * direction
-    grown = near[:, 2] + m
-    blocking = ahead + grown > 0
-    return min(most, float(np.min(ahead[blocking] - grown[blocking]))) if blocking.any() else most
-
-
 def _free_row_off_named_curves(label_y: float, label_rows: tuple, height: float, taken: list, rim: float,
                                widths: tuple, part: model.Part, d):
     """:func:`_free_row` off the plate's :data:`NAMED_CURVES` (each
@@ -161,7 +133,10 @@ def _free_row_off_named_curves(label_y: float, label_rows: tuple, height: float,
     horizon alone where no row off them all is :data:`LONG_NAME_MM`
     wide and a row off the horizon is wider."""
     def off(roles):
-        return _free_row(label_y, label_rows, height, taken, rim, widths, _named_points(part, d, roles))
+        points = np.array([(x, y, stroke_width_mm(e.stroke, d) / 2) for e in part.elements
+                           if e.role in roles and e.stroke not in ("none", "cut")
+                           for x, y, _ in points_along(e, midpoint(e), step_mm=labels.MARGIN_MM, reach_mm=1e4)])
+        return _free_row(label_y, label_rows, height, taken, rim, widths, points.reshape(-1, 3))
 
     row = off(NAMED_CURVES)
     if row is None or row[3] < LONG_NAME_MM:
