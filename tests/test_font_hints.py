@@ -152,3 +152,24 @@ def test_pdfium_draws_the_unhinted_kit_as_the_hinted_one(language):
         assert a.shape == b.shape
         assert (np.abs(a - b) > 64).mean() < 1e-3, k
         assert (b < 128).mean() > 1e-3, k   # the page has ink
+
+
+def test_a_glyph_it_cannot_read_leaves_the_font_as_it_was():
+    """A simple glyph whose instruction length runs past its own end (not
+    as the OpenType 'glyf' table lays a glyph out): the font is embedded
+    as it came, hinting and all, rather than cut wrong."""
+    from kitgen.render.font_names import font_file, font_tables
+
+    data = _shipped("NotoSansArabic-Regular.ttf")
+    tables = font_tables(data)
+    font = TTFont(io.BytesIO(data))
+    gid = next(k for k, name in enumerate(font.getGlyphOrder())
+               if font["glyf"][name].numberOfContours > 0 and _instructions(font["glyf"][name]))
+    start = font["loca"][gid]
+    contours = struct.unpack_from(">h", tables[b"glyf"], start)[0]
+    glyf = bytearray(tables[b"glyf"])
+    struct.pack_into(">H", glyf, start + 10 + 2 * contours, 0xFFFF)   # its instructionLength
+    tables[b"glyf"] = bytes(glyf)
+    broken = font_file(data[:4], tables)
+    assert without_hinting(broken) == broken
+    assert without_hinting(data) != data   # the same font, readable, loses its hinting

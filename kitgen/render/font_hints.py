@@ -52,15 +52,19 @@ _HAS_INSTRUCTIONS = 0x0100
 def without_hinting(font: bytes) -> bytes:
     """``font`` (a TrueType file) with its glyphs' instructions left out
     and its hinting tables empty; the font as it was where it has no
-    'glyf' and 'loca' (not a TrueType outline font) or no hinting."""
+    'glyf' and 'loca' (not a TrueType outline font), no hinting, or a
+    glyph this cannot read."""
     tables = font_tables(font)
     if not all(tag in tables for tag in (b"glyf", b"loca", b"head", b"maxp")):
         return font
-    short = struct.unpack_from(">h", tables[b"head"], 50)[0] == 0
-    count = struct.unpack_from(">H", tables[b"maxp"], 4)[0]
-    offsets = _offsets(tables[b"loca"], count, short)
-    glyf = tables[b"glyf"]
-    glyphs = [_unhinted(glyf[a:b]) for a, b in zip(offsets, offsets[1:])]
+    try:
+        short = struct.unpack_from(">h", tables[b"head"], 50)[0] == 0
+        count = struct.unpack_from(">H", tables[b"maxp"], 4)[0]
+        offsets = _offsets(tables[b"loca"], count, short)
+        glyf = tables[b"glyf"]
+        glyphs = [_unhinted(glyf[a:b]) for a, b in zip(offsets, offsets[1:])]
+    except (struct.error, IndexError):   # a glyph not as the specification lays it out: the font as it was
+        return font
     new_glyf, new_offsets = bytearray(), [0]
     for glyph in glyphs:
         new_glyf += glyph + b"\0" * (-len(glyph) % 4)
@@ -109,6 +113,8 @@ def _unhinted(glyph: bytes) -> bytes:
     if not glyph:
         return glyph
     contours = struct.unpack_from(">h", glyph, 0)[0]
+    if contours == 0 and len(glyph) < 12:   # a header alone
+        return glyph
     if contours >= 0:   # simple: header, endPtsOfContours, instructionLength, instructions, the points
         at = 10 + 2 * contours
         points = struct.unpack_from(">H", glyph, at - 2)[0] + 1 if contours else 0
