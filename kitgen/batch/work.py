@@ -1,8 +1,10 @@
 """Build one kit of a set, in a worker process or in the calling one (#12).
 
-A worker is long-lived: :func:`warm` (the pool's initializer) registers the
-fonts, reads the templates of the set's languages and the star catalogue
-once, and every kit after that is built with those caches warm.  The kit
+A worker is long-lived: :func:`warm` (in the main process before the
+workers fork, or a spawned pool's initializer) registers the fonts and
+reads their glyph bounds and the star catalogue once, a language's
+templates are read by its first kit, and every kit after that is built
+with those caches warm.  The kit
 goes through the very entry points ``kitgen build`` uses
 (:func:`kitgen.kit.build_kit`, :func:`kitgen.layout.pages.layout_kit` and
 :func:`kitgen.render.pdf.render_layers`, as :func:`kitgen.render.pdf.build_pdf`), so its
@@ -79,17 +81,14 @@ class KitResult:
     notes: tuple[str, ...] = ()
 
 
-def warm(languages: tuple[str, ...] = ()) -> None:
-    """Fonts (registered, their metrics and glyph bounds read), the
-    templates of ``languages`` and the catalogue loaded once (before a
-    set's workers fork, and a spawned worker's initializer; a language not
-    loaded yet is loaded when a kit first needs it, and kept)."""
+def warm() -> None:
+    """Fonts (registered, their metrics and glyph bounds read) and the
+    catalogue loaded once (before a set's workers fork, and a spawned
+    worker's initializer); a language is loaded when a kit first needs
+    it, in the process that builds the kit, and kept."""
     pdf_text.register_fonts()
     for face in fonts.DEJAVU.values():
         fonts.preload(face)
-    for code in languages:
-        if code in available_languages():
-            load_words(code)
     stars.catalogue()
 
 
