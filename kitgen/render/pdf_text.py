@@ -20,16 +20,20 @@ from __future__ import annotations
 import hashlib
 import math
 import zlib
+from fnmatch import fnmatch
+from weakref import WeakKeyDictionary
 
+from reportlab import rl_config
 from reportlab.lib.rl_accel import fp_str
 from reportlab.lib.units import mm
 from reportlab.pdfbase import pdfmetrics
 from reportlab.pdfbase.pdfdoc import PDFName
-from reportlab.pdfbase.ttfonts import ShapedStr, ShapeData, TTFont, makeToUnicodeCMap
+from reportlab.pdfbase.ttfonts import ShapedStr, ShapeData, TTEncoding, TTFont, makeToUnicodeCMap
 
 from ..layout.paragraphs import width_pt
 from ..words import fonts
 from ..words.shaping import Line, Run, set_line
+from .face_reading import WholeTableFace
 from .font_hints import without_hinting
 from .font_names import without_mac_names
 
@@ -88,8 +92,15 @@ class TaggedTTFont(TTFont):
     character maps compressed, are kept for the next document
     (:class:`_KeptSubsets`, :class:`_KeptFlate`)."""
 
-    def __init__(self, *args, **kwargs):
-        super().__init__(*args, **kwargs)
+    def __init__(self, name: str, filename: str):
+        # reportlab's TTFont.__init__ (5.1) but for the face, which reads
+        # its character tables whole (:mod:`.face_reading`; #12).
+        self.fontName = name
+        self.face = WholeTableFace(filename)
+        self.encoding = TTEncoding()
+        self.state = WeakKeyDictionary()
+        self._asciiReadable = rl_config.ttfAsciiReadable
+        self.shapable = not any(fnmatch(name, pattern) for pattern in rl_config.unShapedFontGlob)
         self.face.makeSubset = _KeptSubsets(self.face.makeSubset)
 
     def addObjects(self, doc):
