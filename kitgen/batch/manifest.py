@@ -9,7 +9,9 @@ from the system's own code page, common practice, so that a pupil's
 - ``kit``: the kit's number in the set, from 1;
 - ``owner``, ``title``, ``place``, ``latitude``, ``language``, ``sheet``: as
   the merged recipe gives them (the latitude in degrees, north positive;
-  the sheet as kitgen.batch.printfiles.sheet_key names it);
+  the sheet as kitgen.batch.printfiles.sheet_key names it); for a kit
+  that failed, as its row and the set's defaults give them, the recipe's
+  own default where both leave one out (``a4``, ``en``);
 - ``copies``: how many times the kit is in the print files (its answer
   key, once for its school: kitgen.batch.printfiles.ONCE_A_SCHOOL); for
   a kit that failed, the copies its row asked for, to print once mended;
@@ -38,12 +40,18 @@ from __future__ import annotations
 
 import csv
 import io
+from dataclasses import MISSING, fields
 
+from ..recipe.schema import Recipe
 from .printfiles import MATERIALS, sheet_key
 
 COLUMNS = ("kit", "owner", "title", "place", "latitude", "language", "sheet", "copies", "file", "pages",
            *(f"{m}_pages" for m in MATERIALS), *(f"{m}_print_pages" for m in MATERIALS), "status", "notes")
 STATUS_OK = "ok"
+
+#: The recipe's defaults, for a failed row's cells that its row and the
+#: set's defaults leave empty (the sheet and language it would be built on).
+_DEFAULTS = {f.name: f.default for f in fields(Recipe) if f.default is not MISSING}
 
 
 def manifest_row(kit, file_name: str, result, spans: dict, error: str) -> dict:
@@ -55,9 +63,9 @@ def manifest_row(kit, file_name: str, result, spans: dict, error: str) -> dict:
     if recipe is not None:
         owner, title, place = getattr(recipe, "owner", ""), recipe.title, recipe.place
         latitude, language, sheet = repr(recipe.latitude_deg), recipe.language, sheet_key(recipe.sheet)
-    else:
+    else:   # the row as given; a key it leaves out, the recipe's default
         owner, title, place = (_text(tree.get(k)) for k in ("owner", "title", "place"))
-        latitude, language, sheet = (_text(tree.get(k)) for k in ("latitude", "language", "sheet"))
+        latitude, language, sheet = (_text(tree.get(k, _DEFAULTS.get(k))) for k in ("latitude", "language", "sheet"))
     ok = not error
     materials = result.materials if ok else ()
     status = STATUS_OK if ok else error
