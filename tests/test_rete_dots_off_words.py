@@ -26,7 +26,7 @@ import math
 
 import pytest
 
-from shapely.geometry import LineString, MultiPoint, Polygon
+from shapely.geometry import LineString, MultiPoint, Point, Polygon
 
 from kitgen.kit import build_kit
 from kitgen.recipe.load import parse_recipe_text
@@ -43,6 +43,8 @@ KITS = [
     "latitude: 24.5\nlanguage: ar\n",                         # the review's Arabic kit: Orion, Gemini
     "latitude: -37.8\nlanguage: es\n",                        # the review's southern kit: Centaurus, Crux
     "latitude: -23.5\nlanguage: pt\nsheet: a5\n",              # Orion: a later name with a leader, cut off by one before
+    "latitude: -34.9\nlanguage: en\nsheet: a5\n",              # Kaus Australis had touched the ecliptic
+    "latitude: 30\nlanguage: en\nsheet: letter\n",             # Pollux had touched it
 ]
 
 
@@ -255,3 +257,26 @@ def test_no_leader_between_another_name_and_its_dot(kit):
         hits += [(leader.values["name"], name) for name, hull in spans.items()
                  if name != leader.values["name"] and line.intersects(hull)]
     assert not hits
+
+
+def test_names_keep_clear_of_the_ecliptic_bands_ink(kit):
+    # A name beside the ecliptic's band keeps the labels' margin of paper
+    # from the ink of its edge lines (common practice: a word touching a
+    # line reads as joined to it).  Distances by Shapely/GEOS, between the
+    # name's turned box and each edge circle's centre line, less half the
+    # line's width as the style table gives it.
+    from kitgen.geometry.style import stroke_width_mm
+    from kitgen.parts.labels import MARGIN_MM
+
+    rete, w = kit.part("rete"), kit.words
+    edges = [e for e in rete.elements if e.role in ("ecliptic", "ecliptic_band")]
+    assert len(edges) == 2
+    close = []
+    for e in (e for e in rete.elements if e.role == "star_label"):
+        box = Polygon([tuple(c) for c in ink_box(e, w)])
+        for edge in edges:
+            ring = Point(*edge.geom["center"]).buffer(edge.geom["radius"], 2048).exterior
+            gap = box.distance(ring) - stroke_width_mm(edge.stroke, kit.dims) / 2
+            if gap < MARGIN_MM - 0.01:   # the circle drawn as 8192 chords: within 0.01 mm
+                close.append((e.geom["text"], edge.role, round(gap, 3)))
+    assert not close

@@ -128,9 +128,10 @@ def rete(ctx: PartContext) -> model.Part:
     # A name stands beside its dot, farther out with a leader line where
     # the near places are taken; never on the ecliptic's band, nor on the
     # ink of the band's edge lines, whose width grows with the instrument
-    # (#9: no line over a word).
-    edge_out = stroke_width_mm("heavy", d) / 2
-    edge_in = stroke_width_mm("light", d) / 2
+    # (#9: no line over a word), nor touching that ink: it keeps the
+    # labels' margin from it, as a plate's labels keep from their lines.
+    edge_out = stroke_width_mm("heavy", d) / 2 + labels.MARGIN_MM
+    edge_in = stroke_width_mm("light", d) / 2 + labels.MARGIN_MM
     def place(texts):
         return labels.place_labels(pts, texts, d.small_text_pt, d.tick_mm * 1.3,
                                    keep_out=[pin_box] + zodiac_boxes + dot_boxes,
