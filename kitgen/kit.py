@@ -24,7 +24,7 @@ from .parts.legibility import plan_scales, shortened_notes
 from .parts.owner import ADD_OWNER, plate_owner, plate_slot
 from .parts.rete import rim_notes
 from .plan.model import Plan
-from .plan.resolve import plan_kit
+from .plan.resolve import plan_kit, site_notes
 from .recipe.schema import Recipe
 from .sky.almanac import SkyForKit
 from .words.templates import Words
@@ -181,6 +181,7 @@ def _nameless(plan: Plan, drawn: dict | None = None) -> _Nameless:
             parts.append(drawn[key] if key in drawn else _draw(plan, dims, scales, kind, plate))
     parts = tuple(parts)
     notes += rim_notes(plan)
+    notes += site_notes(plan)   # a place not looked up: local mean time
     notes += clock_ring_notes(parts, dims)  # the back without its clock ring says so (#10)
     kit = Kit(plan, dims, parts, tuple(notes) + shortened_notes(parts, dims, plan.words))
     if plan.accuracy_page:

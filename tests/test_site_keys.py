@@ -146,6 +146,32 @@ def test_coordinates_win_and_nothing_is_looked_up(monkeypatch):
     assert r.longitude_deg is None and r.timezone is None
 
 
+def test_a_place_beside_a_latitude_alone_is_said_to_tell_local_mean_time(tmp_path, capsys):
+    # A place named beside a latitude and no longitude is only printed
+    # (the coordinates win), so the kit tells local mean time: the build
+    # says so in a note (the wording of templates/en.yaml and fr.yaml),
+    # where a roster row that gives its town's latitude most likely meant
+    # the town's clock.  With a longitude and a zone, or a place looked
+    # up, there is no such note.
+    from kitgen.kit import build_kit
+
+    def notes(text):
+        kit = build_kit(parse_recipe_text(text + "epoch: 2027\nparts: [rete]\n"))
+        return [n.key for n in kit.notes]
+
+    assert "notes.place_not_looked_up" in notes("latitude: 40.5\nplace: Nowhere Springs\n")
+    assert "notes.place_not_looked_up" not in notes("latitude: 40.5\n")
+    assert "notes.place_not_looked_up" not in notes(
+        "latitude: 52.2\nlongitude: 0.12\ntimezone: Europe/London\nplace: Larkspur Valley\n")
+    assert "notes.place_not_looked_up" not in notes("place: Lisbon, PT\n")
+    recipe = tmp_path / "r.yaml"
+    recipe.write_text("latitude: 45.76\nplace: Lyon\nepoch: 2027\nlanguage: fr\nparts: [rete]\n", encoding="utf-8")
+    assert main(["build", str(recipe), "-o",
+                 str(tmp_path / "r.pdf")]) == 0
+    err = capsys.readouterr().err
+    assert "« Lyon » est imprimé sur le kit mais pas cherché" in err and "l’heure moyenne locale" in err
+
+
 def test_sexagesimal_longitude_in_yaml_is_read_as_written():
     # YAML 1.1 would read 9:08:24 as the base-60 integer 32904.
     r = parse_recipe_text("latitude: 38.7\nlongitude: -9:08:24\ntimezone: Europe/Lisbon\n")

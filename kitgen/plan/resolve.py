@@ -9,7 +9,7 @@ from the plan.
 
 from __future__ import annotations
 
-from ..errors import UserError
+from ..errors import Message, UserError
 from ..paper import SheetError, default_diameter_mm, make_sheet
 from ..recipe.load import load_language_file
 from ..recipe.schema import Recipe
@@ -54,6 +54,17 @@ def plan_site(recipe: Recipe, plates) -> Site:
     kitgen.recipe.site); the place's name as printed."""
     longitude = None if recipe.longitude_deg is None else float(recipe.longitude_deg)
     return Site(plates[0].latitude_deg, longitude, recipe.timezone or None, recipe.place)
+
+
+def site_notes(plan) -> tuple[Message, ...]:
+    """The build's note where a place is named beside a latitude and no
+    longitude: the name is then only printed, not looked up (kitgen.recipe.site),
+    so the kit tells local mean time where its user, a class set's roster
+    above all, most likely meant the place's own clock."""
+    site = plan.site
+    if not site.place or site.longitude_deg is not None:
+        return ()
+    return (Message("notes.place_not_looked_up", place=site.place),)
 
 
 def plan_kit(recipe: Recipe) -> Plan:
