@@ -224,7 +224,9 @@ def test_no_character_is_crossed_on_these_kits(recipe):
        site=st.sampled_from([None, (2.35, "Europe/Paris"), (-74.0, "America/New_York"),
                              (77.2, "Asia/Kolkata"), (151.2, "Australia/Sydney")]))
 def test_no_character_is_crossed_anywhere(latitude, diameter, sheet, language, site):
-    recipe = f"latitude: {latitude!r}\nsheet: {sheet}\nlanguage: {language}\n"
+    # (in fixed notation: YAML 1.1 reads 1e-05 as a word, which no recipe
+    # latitude is; a latitude is written with its decimals)
+    recipe = f"latitude: {latitude:.9f}\nsheet: {sheet}\nlanguage: {language}\n"
     if diameter is not None:
         recipe += f"diameter_mm: {diameter!r}\n"
     if site is not None:

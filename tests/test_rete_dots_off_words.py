@@ -147,6 +147,9 @@ ALONE_OFFSETS = 2.0
 #: choice, common practice in map labelling, no standard.
 CLEARLY_NEARER_MM = 0.45
 LEADER_NAME_FROM_OTHER_DOTS_MM = 1.0
+#: No other dot stands level with a name without a leader, within this
+#: many label offsets beyond either end of it (a choice, as above).
+BESIDE_OFFSETS = 1.5
 #: Paper (mm) between two names (#9: "Pollux" ran into Sirius's name);
 #: about a letter's width at 5 pt, common practice.
 NAME_GAP_MM = 1.0
@@ -159,6 +162,7 @@ NAME_GAP_MM = 1.0
     "latitude: -34\n", "latitude: -34\ndiameter_mm: 120\n", "latitude: -34\ndiameter_mm: 300\nlanguage: es\n",
     "latitude: 24.5\nlanguage: ar\n", "latitude: -37.8\nlanguage: es\n", "latitude: 3.1\nsheet: letter\nlanguage: fr\n",
     "latitude: 45\nsheet: a5\nlanguage: ar\n", "latitude: 12\ndiameter_mm: 150\nlanguage: hi\n",
+    "latitude: 52\nsheet: a5\nlanguage: de\n",   # "Alioth" had stood beside Dubhe's dot
 ])
 def test_each_name_reads_as_its_own_stars(head):
     """Each star's name stands within ALONE_OFFSETS of its own dot and
@@ -193,6 +197,15 @@ def test_each_name_reads_as_its_own_stars(head):
             if other != name and dot_to_box_mm(dot.geom["at"], dot.values["radius_mm"], box) \
                     <= gap + CLEARLY_NEARER_MM:
                 bad.append((name, "nearer", other))
+            # nor does another dot stand beside an end of the name, level
+            # with its words, where a reader looks for a point's name first
+            # (common practice in map labelling; "Alioth" beside Dubhe's dot)
+            (x, y), r = dot.geom["at"], dot.values["radius_mm"]
+            ys = [c[1] for c in box]
+            xs = [c[0] for c in box]
+            if other != name and min(ys) <= y <= max(ys) \
+                    and max(min(xs) - x, x - max(xs)) - r < BESIDE_OFFSETS * offset - 1e-6:
+                bad.append((name, "beside", other))
     assert not bad, bad
 
 

@@ -106,6 +106,9 @@ NAME_GAP_MM = 1.0
 #: How much nearer (mm) its own dot a name without a leader stands than
 #: any other dot, so that it is *clearly* that dot's (#9).
 NEARER_BY_MM = 0.5
+#: ... and no other dot stands level with it within this many offsets
+#: beyond either end, where a reader looks for a point's name first (#12).
+BESIDE_OFFSETS = 1.5
 #: A name with a leader keeps this many offsets (and :data:`NAME_GAP_MM`
 #: at least) from every other dot, so that it never reads as that dot's
 #: name (#9: Bellatrix's name, at the end of its leader, stood beside
@@ -184,7 +187,8 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
     ``own_boxes`` (one per point, e.g. its dot) are left out of the
     leader's own point's test.  With leaders, a label without one stands
     within :data:`ALONE_REACH` offsets of its point and nearer its own dot
-    than any other point's, by :data:`NEARER_BY_MM`; every other place,
+    than any other point's, by :data:`NEARER_BY_MM`, with no other dot
+    level with it within :data:`BESIDE_OFFSETS` offsets of its ends; every other place,
     near or far, takes a leader, keeps :data:`LEADER_NAME_CLEAR` offsets
     (and :data:`NAME_GAP_MM` at least) from every other dot, and its
     leader crosses no other leader and keeps :data:`LEADER_CLEAR_MM` from
@@ -284,7 +288,7 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
                 continue
             if with_leaders:
                 if not needs_leader and not _once(memo, ("own", i), _nearest_own, box, k, points, leaders_from_mm,
-                                                  dots, dot_mm):
+                                                  dots, dot_mm, BESIDE_OFFSETS * offset_mm):
                     continue
                 # (no leader chosen before passes between this label and
                 # its point, with a leader of its own or not)
@@ -484,15 +488,26 @@ def _link(point, box):
     return [((x, y), c) for c in ((box[0], box[1]), (box[2], box[1]), (box[2], box[3]), (box[0], box[3]), near)]
 
 
-def _nearest_own(box, k: int, points, radii_mm, dots, dot_mm: float) -> bool:
+def _nearest_own(box, k: int, points, radii_mm, dots, dot_mm: float, offset_mm: float = 0.0) -> bool:
     """Whether the box lies nearer point ``k``'s dot than any other
-    point's, by :data:`NEARER_BY_MM` at least.  Only the points of the
-    grid ``dots`` near enough to fail are tested (``dot_mm``: the widest
-    dot's radius)."""
+    point's, by :data:`NEARER_BY_MM` at least, and no other dot stands
+    beside one of its ends, level with its words, within ``offset_mm``:
+    there a name reads as that dot's whatever the distances, the place
+    beside a point being where a name is looked for first (common practice
+    in map labelling; #12: "Alioth" beside Dubhe's dot, its own below it).
+    Only the points of the grid ``dots`` near enough to fail are tested
+    (``dot_mm``: the widest dot's radius)."""
     own = _box_gap_mm(box, points[k], radii_mm[k])
-    reach = own + NEARER_BY_MM + dot_mm + SEARCH_SLACK_MM
-    return all(own + NEARER_BY_MM < _box_gap_mm(box, points[j], radii_mm[j])
-               for j in dots.near(box, max(reach, 0.0)) if j != k)
+    reach = max(own + NEARER_BY_MM, offset_mm) + dot_mm + SEARCH_SLACK_MM
+    for j in dots.near(box, max(reach, 0.0)):
+        if j == k:
+            continue
+        if own + NEARER_BY_MM >= _box_gap_mm(box, points[j], radii_mm[j]):
+            return False
+        x, y = points[j]
+        if box[1] <= y <= box[3] and max(box[0] - x, x - box[2]) - radii_mm[j] < offset_mm:
+            return False
+    return True
 
 
 def _segments_cross(p, q, a, b) -> bool:
