@@ -150,6 +150,8 @@ LEADER_NAME_FROM_OTHER_DOTS_MM = 1.0
 #: No other dot stands level with a name without a leader, within this
 #: many label offsets beyond either end of it (a choice, as above).
 BESIDE_OFFSETS = 1.5
+#: Half the pin's crosshair (mm), kept clear of every word on the rete.
+PIN_HALF_MM = 2.5
 #: Paper (mm) between two names (#9: "Pollux" ran into Sirius's name);
 #: about a letter's width at 5 pt, common practice.
 NAME_GAP_MM = 1.0
@@ -191,7 +193,11 @@ def test_each_name_reads_as_its_own_stars(head):
                     bad.append((name, "leader's name beside", other))
             continue
         gap = dot_to_box_mm(own.geom["at"], own.values["radius_mm"], box)
-        if gap > ALONE_OFFSETS * offset:
+        # A dot under the pin's crosshair (Polaris) is named beside the
+        # mark, which no word may cross: its name is measured from the mark.
+        (px, py), half = own.geom["at"], PIN_HALF_MM
+        reach = gap - half if abs(px) <= half and abs(py) <= half else gap
+        if reach > ALONE_OFFSETS * offset:
             bad.append((name, "far", round(gap, 2)))
         for other, dot in dots.items():
             if other != name and dot_to_box_mm(dot.geom["at"], dot.values["radius_mm"], box) \
@@ -293,3 +299,24 @@ def test_names_keep_clear_of_the_ecliptic_bands_ink(kit):
             if gap < MARGIN_MM - 0.01:   # the circle drawn as 8192 chords: within 0.01 mm
                 close.append((e.geom["text"], edge.role, round(gap, 3)))
     assert not close
+
+
+@pytest.mark.parametrize("head", ["latitude: 41.5\nsheet: a5\n", "latitude: 52\nsheet: a5\nlanguage: de\n",
+                                  "latitude: 65\nsheet: a5\nlanguage: ru\n", "latitude: 52.2\n"])
+def test_polaris_is_named_beside_the_pin(head):
+    # Polaris lies within a degree of the celestial pole (PyEphem's star
+    # list gives +89 deg 23' for 2027), so under the pin's crosshair of a
+    # northern rete: it is named beside the mark, clear of it, and no
+    # leader crosses the mark (#12: on A5 it had no name).
+    kit = build_kit(parse_recipe_text("epoch: 2027\n" + head + "parts: [rete]\n"))
+    rete, w = kit.part("rete"), kit.words
+    (x, y) = next(e.geom["at"] for e in rete.elements if e.role == "star" and e.values["name"] == "Polaris")
+    assert abs(x) < PIN_HALF_MM and abs(y) < PIN_HALF_MM
+    label = [e for e in rete.elements if e.role == "star_label" and e.values["name"] == "Polaris"]
+    assert len(label) == 1
+    corners = ink_box(label[0], w)
+    pin = Polygon([(-PIN_HALF_MM, -PIN_HALF_MM), (PIN_HALF_MM, -PIN_HALF_MM), (PIN_HALF_MM, PIN_HALF_MM),
+                   (-PIN_HALF_MM, PIN_HALF_MM)])
+    assert not Polygon([tuple(c) for c in corners]).intersects(pin)
+    assert Polygon([tuple(c) for c in corners]).distance(pin) < 2.0 * kit.dims.tick_mm * 1.3
+    assert not any(e.role == "star_leader" and e.values["name"] == "Polaris" for e in rete.elements)

@@ -169,7 +169,7 @@ def leader_ends(point, box, start_mm: float, gap_mm: float = MARGIN_MM):
 
 
 def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), inside_radius_mm=None,
-                 keep_out_rings=(), *, measure, leaders_from_mm=None, own_boxes=None):
+                 keep_out_rings=(), *, measure, leaders_from_mm=None, own_boxes=None, marks=()):
     """For each point (in order of importance) the (at, anchor) of its
     label: right, left, above, below the point or at a corner, at the
     offset or (when those are taken) farther out, the first of these whose
@@ -196,7 +196,11 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
     leader passes between another label and its point (#9: Hadar's name
     cut off from its dot by Rigil Kentaurus's leader), and a label with no
     free place may take that of one of its :data:`REPAIR_NEIGHBOURS`
-    nearest labels if that one then finds another."""
+    nearest labels if that one then finds another.  A point under one of
+    the ``marks`` (boxes kept out, such as the pin's crosshair: a leader
+    from it would cross the mark) reads its name alone out to the
+    farthest near place, :data:`NEAR_FIRST`'s last, beside the mark
+    (#12: Polaris, under the pin of a northern A5 rete, had no name)."""
     with_leaders = leaders_from_mm is not None
     reaches = NEAR_FIRST + (WITH_LEADER if with_leaders else ())
     chosen = {}   # point index -> (at, anchor, box, leader)
@@ -246,7 +250,8 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
         its point's, its leader, and whether that passes another dot or
         crosses a ring kept out."""
         found = tried.setdefault(k, [])
-        for n, (some, needs_leader) in enumerate(_place_blocks(reaches, with_leaders)):
+        alone = NEAR_FIRST[-1] if any(_inside(points[k], m) for m in marks) else ALONE_REACH
+        for n, (some, needs_leader) in enumerate(_place_blocks(reaches, with_leaders, alone)):
             if n == len(found):
                 (x, y), text = points[k], texts[k]
                 ext = measure(text, size_pt)
@@ -383,13 +388,17 @@ def _rings_met(segment, rings) -> list:
     return [ring for ring in rings if _segment_meets_ring(segment[0], segment[1], ring)]
 
 
-def _place_blocks(reaches, with_leaders):
+def _place_blocks(reaches, with_leaders, alone: float = ALONE_REACH):
     """The places tried for a label, as blocks of (reaches, needs_leader):
-    with leaders, first the places a name reads from alone, then every
-    place with a leader."""
+    with leaders, first the places a name reads from alone (out to
+    ``alone`` offsets), then every place with a leader."""
     if with_leaders:
-        return [(tuple(r for r in reaches if r <= ALONE_REACH), False), (reaches, True)]
+        return [(tuple(r for r in reaches if r <= alone), False), (reaches, True)]
     return [(reaches, False)]
+
+
+def _inside(point, box) -> bool:
+    return box[0] <= point[0] <= box[2] and box[1] <= point[1] <= box[3]
 
 
 @functools.lru_cache(maxsize=64)

@@ -139,7 +139,7 @@ def rete(ctx: PartContext) -> model.Part:
                                    keep_out_rings=[(tuple(c), image.radius_mm - band - edge_in,
                                                     image.radius_mm + edge_out)],
                                    measure=w.measure, leaders_from_mm=[radii[k] for k in lead],
-                                   own_boxes=dot_boxes)
+                                   own_boxes=dot_boxes, marks=[pin_box])
 
     places = place(names)
     # A dot of several stars with no room for all their names is named
