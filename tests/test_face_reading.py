@@ -10,7 +10,6 @@ OpenType specification 1.9 defines those tables.
 
 from __future__ import annotations
 
-import io
 import struct
 from importlib import resources
 

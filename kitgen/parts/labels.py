@@ -218,6 +218,8 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
     for j, (px, py) in enumerate(points):
         dots.add(j, (px, py, px, py), j)
     dot_mm = max(leaders_from_mm, default=0.0) if with_leaders else 0.0
+    # how far out each point's name reads alone: farther for one under a mark
+    alone = [NEAR_FIRST[-1] if any(_box_gap_mm(m, p, 0.0) == 0.0 for m in marks) else ALONE_REACH for p in points]
     slack = SEARCH_SLACK_MM
 
     def put(k, c):
@@ -250,8 +252,7 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
         its point's, its leader, and whether that passes another dot or
         crosses a ring kept out."""
         found = tried.setdefault(k, [])
-        alone = NEAR_FIRST[-1] if any(_inside(points[k], m) for m in marks) else ALONE_REACH
-        for n, (some, needs_leader) in enumerate(_place_blocks(reaches, with_leaders, alone)):
+        for n, (some, needs_leader) in enumerate(_place_blocks(reaches, with_leaders, alone[k])):
             if n == len(found):
                 (x, y), text = points[k], texts[k]
                 ext = measure(text, size_pt)
@@ -397,9 +398,6 @@ def _place_blocks(reaches, with_leaders, alone: float = ALONE_REACH):
     return [(reaches, False)]
 
 
-def _inside(point, box) -> bool:
-    return box[0] <= point[0] <= box[2] and box[1] <= point[1] <= box[3]
-
 
 @functools.lru_cache(maxsize=64)
 def _place_terms(offset_mm: float, h: float, reaches):
@@ -497,24 +495,24 @@ def _link(point, box):
     return [((x, y), c) for c in ((box[0], box[1]), (box[2], box[1]), (box[2], box[3]), (box[0], box[3]), near)]
 
 
-def _nearest_own(box, k: int, points, radii_mm, dots, dot_mm: float, offset_mm: float = 0.0) -> bool:
+def _nearest_own(box, k: int, points, radii_mm, dots, dot_mm: float, beside_mm: float = 0.0) -> bool:
     """Whether the box lies nearer point ``k``'s dot than any other
     point's, by :data:`NEARER_BY_MM` at least, and no other dot stands
-    beside one of its ends, level with its words, within ``offset_mm``:
+    beside one of its ends, level with its words, within ``beside_mm``:
     there a name reads as that dot's whatever the distances, the place
     beside a point being where a name is looked for first (common practice
     in map labelling; #12: "Alioth" beside Dubhe's dot, its own below it).
     Only the points of the grid ``dots`` near enough to fail are tested
     (``dot_mm``: the widest dot's radius)."""
     own = _box_gap_mm(box, points[k], radii_mm[k])
-    reach = max(own + NEARER_BY_MM, offset_mm) + dot_mm + SEARCH_SLACK_MM
+    reach = max(own + NEARER_BY_MM, beside_mm) + dot_mm + SEARCH_SLACK_MM
     for j in dots.near(box, max(reach, 0.0)):
         if j == k:
             continue
         if own + NEARER_BY_MM >= _box_gap_mm(box, points[j], radii_mm[j]):
             return False
         x, y = points[j]
-        if box[1] <= y <= box[3] and max(box[0] - x, x - box[2]) - radii_mm[j] < offset_mm:
+        if box[1] <= y <= box[3] and max(box[0] - x, x - box[2]) - radii_mm[j] < beside_mm:
             return False
     return True
 
