@@ -344,12 +344,10 @@ def _cmd_batch(args) -> int:
     if args.jobs is not None and not 1 <= args.jobs <= MAX_JOBS:
         raise UserError("errors.jobs_option", high=MAX_JOBS, value=args.jobs)
     summary = run_set(args.set, args.output, args.jobs, args.quiet)
-    words = load_words(summary.language) if summary.language in available_languages() else None
-    lines = summary_lines(summary, words)
-    for line in lines[:-1]:
-        _tell(line)
-    if summary.failures or not args.quiet:
-        _tell(lines[-1])
+    if summary.failures or not args.quiet:   # a quiet run that built every kit says only its folder
+        words = load_words(summary.language) if summary.language in available_languages() else None
+        for line in summary_lines(summary, words):
+            _tell(line)
     _emit(f"{summary.folder}\n")
     return summary.exit_status
 

@@ -161,6 +161,17 @@ def test_cache_file_gives_the_same_index_as_the_package(tmp_path, monkeypatch):
     for field in ("geonameid", "latitude_deg", "longitude_deg", "population", "key_rows", "key_offsets"):
         assert np.array_equal(getattr(again, field), getattr(built, field))
     assert again.key_blob == built.key_blob and again.zones == built.zones
+    # The arrays are mapped from the file (np.savez stores them whole), and
+    # equal to what NumPy's own reader gives.
+    mapped = places_index._mapped_arrays(path)
+    with np.load(path, allow_pickle=False) as npz:
+        assert all(np.array_equal(mapped[k], npz[k]) and mapped[k].dtype == npz[k].dtype
+                   for k in places_index._ARRAYS)
+    # A compressed file (not one kitgen writes) is read whole, to the same index.
+    with open(path, "wb") as fh:
+        np.savez_compressed(fh, **arrays)
+    assert places_index._mapped_arrays(path) is None
+    assert places_index._read_cached(path).key_blob == built.key_blob
     path.write_bytes(b"not an index")
     assert places_index._read_cached(path) is None
 

@@ -184,6 +184,8 @@ def _build_all(jobs_list, pools: list):
     free (:func:`kitgen.batch.dispatch.dispatch`)."""
     if pools:
         yield from dispatch(jobs_list, pools)
+        for pool in pools:   # every kit is in: the workers end while the print files are written
+            pool.shutdown(wait=False)
         return
     for job in worker_shares(jobs_list, 1)[0]:
         yield build_one(job)

@@ -14,6 +14,7 @@ names, in every script.
 from __future__ import annotations
 
 from dataclasses import dataclass
+from functools import lru_cache
 
 import numpy as np
 
@@ -228,11 +229,14 @@ def _how_to_choose(places: list[Place]) -> Message:
     return Message("errors.hint_place_qualify", example=example)
 
 
+@lru_cache(maxsize=1024)
 def resolve(name: str) -> Place:
     """The one place ``name`` (a query, see the module docstring) names;
     raises :class:`PlaceError` when it names none (suggesting close
     spellings) or several that are not one place for a kit (listing the
-    most populous and saying how to choose)."""
+    most populous and saying how to choose).  Kept for the process, as
+    the index is: a class set's roster names each school's town on every
+    pupil's row (#12)."""
     return _resolve(name, suggest=True)
 
 
