@@ -20,7 +20,11 @@ lines; only on a kit where even so it cannot fit is the ring left out,
 and the build says so (:func:`clock_ring_notes`; the instructions then
 carry the table alone).
 The horizontal through the centre crosses the ring at the equinoxes; no
-number stands on it.  Each run is
+number stands on it.  Where the clocks change (summer time begins or
+ends: the correction jumps by :data:`CLOCK_CHANGE_MIN` or more from one
+day to the next), a heavier bar crosses the whole ring, so that the jump
+(from +5 to +65 in London's spring) reads as the change it is, and no
+number stands on the bar either.  Each run is
 also an undrawn arc carrying its dates and minutes, so that the JSON
 says exactly what the ring says.  Lengths in mm, directions in degrees
 counter-clockwise from +x, as on the rest of the back.
@@ -60,6 +64,12 @@ class ClockScale:
     tall_caption: bool = False   # the caption took the place line's room too
 
 
+#: The least jump of the correction (minutes) from one day to the next
+#: that is a change of the clocks: the equation of time moves by well
+#: under a minute a day, and zones change by half an hour or an hour.
+CLOCK_CHANGE_MIN = 20
+
+
 def _direction_deg(longitude_deg: float) -> float:
     """Direction on the back of ecliptic longitude (as kitgen.parts.mater_back)."""
     return 180.0 - longitude_deg
@@ -78,17 +88,18 @@ def runs(correction):
     return out
 
 
-def _numbers(w, numbers, r_text: float, size_pt: float):
+def _numbers(w, numbers, r_text: float, size_pt: float, bars_deg=()):
     """The runs' numbers under their ticks: the longest runs first, each
-    where it keeps a margin from the numbers already placed and off the
-    horizontal; a run too short keeps its number only when its neighbours
+    where it keeps a margin from the numbers already placed, off the
+    horizontal and off the bars of the clock changes (``bars_deg``, their
+    directions); a run too short keeps its number only when its neighbours
     leave room (so in a fast-changing season about every other run is
     numbered, its neighbours one more and one less)."""
     placed, out = [], []
     for span, mid, minutes, month, day in sorted(numbers, key=lambda x: -x[0]):
         text = signed(w, minutes)
         half = math.degrees((w.measure(text, size_pt).width_mm / 2.0 + labels.MARGIN_MM) / r_text)
-        if any(abs((mid - axis + 180.0) % 360.0 - 180.0) < half for axis in (0.0, 180.0)):
+        if any(abs((mid - axis + 180.0) % 360.0 - 180.0) < half for axis in (0.0, 180.0, *bars_deg)):
             continue
         if any(abs((mid - other + 180.0) % 360.0 - 180.0) < half + other_half for other, other_half in placed):
             continue
@@ -162,16 +173,22 @@ def clock_scale(ctx: PartContext, r_outer_mm: float, room_above: bool = False) -
         return ClockScale((), r_outer_mm)
     els = [model.circle("clock_edge", (0.0, 0.0), r0, "light"),
            model.circle("clock_edge", (0.0, 0.0), r1, "light")]
-    numbers = []
-    for first, last, minutes in runs(almanac.clock_correction):
+    numbers, bars = [], []
+    ring_runs = runs(almanac.clock_correction)
+    for k, (first, last, minutes) in enumerate(ring_runs):
         start, end = edge_deg(first), edge_deg((last + 1) % n)
         span = (start - end) % 360.0 or 360.0
         (m0, d0, _), (m1, d1, _) = cal[first], cal[last]
         els.append(model.arc("clock_run", (0.0, 0.0), r_text, end % 360.0, end % 360.0 + span, "none",
                              minutes=minutes, from_month=m0, from_day=d0, to_month=m1, to_day=d1))
         els.append(curves.radial_tick("clock_tick", start, r1 - tick, r1, r1, "light", month=m0, day=d0))
+        before = ring_runs[k - 1][2]
+        if len(ring_runs) > 1 and abs(minutes - before) >= CLOCK_CHANGE_MIN:
+            els.append(curves.radial_tick("clock_change", start, r0, r1, r1, "medium", month=m0, day=d0,
+                                          minutes_before=before, minutes=minutes))
+            bars.append(start)
         numbers.append((span, end + span / 2.0, minutes, m0, d0))
-    els += _numbers(w, numbers, r_text, size)
+    els += _numbers(w, numbers, r_text, size, bars)
     key = "clock_scale.caption_zone" if almanac.time == "zone" else "clock_scale.caption_mean"
     # The zone's city (or UTC offset), never its IANA name.
     zone = zone_place(ctx.plan.site.timezone, w.language) if almanac.time == "zone" else ""

@@ -1,0 +1,118 @@
+"""The bars across the back's clock ring where the clocks change, against
+the IANA time zone database (Python's zoneinfo with tzdata).
+
+Where a zone's clocks change in the epoch year (summer time begins or
+ends), the correction jumps by half an hour or an hour from one day to
+the next; a heavier bar crosses the whole ring there, at the first day of
+the new offset, so that the jump reads as the change it is
+(kitgen.parts.clock_scale).  Checked here:
+
+* a bar stands at exactly the dates on which the zone's UTC offset at
+  noon differs from the day before's (zoneinfo), north and south, for an
+  hour and for Lord Howe Island's half hour, and at none for zones that
+  keep one offset all year;
+* the bar's date and the minutes either side of it are those of the
+  ring's runs that meet there;
+* no number of the ring touches a bar's ink (Shapely: the number's ink
+  box against the bar's line at its printed width).
+"""
+
+from __future__ import annotations
+
+import datetime as dt
+import math
+import zoneinfo
+
+import pytest
+from shapely.geometry import LineString, Polygon
+
+from kitgen.geometry.style import stroke_width_mm
+from kitgen.kit import build_kit
+from kitgen.recipe.load import validate_recipe
+
+EPOCH = 2027
+
+#: (latitude, longitude, IANA zone) of sites on each side of the equator;
+#: the coordinates are the towns' as commonly given (from memory): only
+#: the zone's rules are checked against the reference.
+SITES = {
+    "London": (51.5, -0.13, "Europe/London"),
+    "Sydney": (-33.87, 151.21, "Australia/Sydney"),
+    "Lord Howe Island": (-31.55, 159.08, "Australia/Lord_Howe"),
+    "Chicago": (41.88, -87.63, "America/Chicago"),
+    "Kolkata": (22.57, 88.36, "Asia/Kolkata"),
+    "Johannesburg": (-26.2, 28.05, "Africa/Johannesburg"),
+}
+
+
+def _changes(zone: str, year: int) -> list[tuple[int, int]]:
+    """The reference: (month, day) of each day whose UTC offset at noon
+    differs from the day before's (zoneinfo, the IANA database)."""
+    tz = zoneinfo.ZoneInfo(zone)
+    out, day = [], dt.date(year, 1, 1)
+    before = dt.datetime(year - 1, 12, 31, 12, tzinfo=tz).utcoffset()
+    while day.year == year:
+        offset = dt.datetime(day.year, day.month, day.day, 12, tzinfo=tz).utcoffset()
+        if offset != before:
+            out.append((day.month, day.day))
+        before, day = offset, day + dt.timedelta(days=1)
+    return out
+
+
+@pytest.fixture(scope="module", params=sorted(SITES))
+def back(request):
+    latitude, longitude, zone = SITES[request.param]
+    kit = build_kit(validate_recipe({"latitude": latitude, "longitude": longitude, "timezone": zone,
+                                     "epoch": EPOCH, "sheet": "a4"}))
+    return zone, kit, kit.part("mater_back")
+
+
+def test_a_bar_stands_where_the_clocks_change_and_nowhere_else(back):
+    zone, _, part = back
+    bars = [e for e in part.elements if e.role == "clock_change"]
+    assert sorted((e.values["month"], e.values["day"]) for e in bars) == _changes(zone, EPOCH)
+
+
+def test_the_bar_parts_the_runs_whose_minutes_jump(back):
+    """The bar's date is the first day of a run; the run before it ends
+    the day before; their minutes are the bar's, and differ by the change
+    of offset (30 or 60 minutes, less a minute of the equation of time)."""
+    zone, _, part = back
+    runs = [e.values for e in part.elements if e.role == "clock_run"]
+    for bar in (e.values for e in part.elements if e.role == "clock_change"):
+        after = next(r for r in runs if (r["from_month"], r["from_day"]) == (bar["month"], bar["day"]))
+        first = dt.date(EPOCH, bar["month"], bar["day"])
+        last = first - dt.timedelta(days=1)
+        before = next(r for r in runs if (r["to_month"], r["to_day"]) == (last.month, last.day))
+        assert (before["minutes"], after["minutes"]) == (bar["minutes_before"], bar["minutes"])
+        tz = zoneinfo.ZoneInfo(zone)
+        shift_min = (dt.datetime(first.year, first.month, first.day, 12, tzinfo=tz).utcoffset()
+                     - dt.datetime(last.year, last.month, last.day, 12, tzinfo=tz).utcoffset()).total_seconds() / 60
+        assert abs(after["minutes"] - before["minutes"] - shift_min) <= 1
+
+
+def test_no_number_of_the_ring_touches_a_bar(back):
+    _, kit, part = back
+    bars = [e for e in part.elements if e.role == "clock_change"]
+    numbers = [e for e in part.elements if e.role == "clock_number"]
+    assert numbers
+    words = kit.words
+    for bar in bars:
+        ink = LineString([bar.geom["from"], bar.geom["to"]]).buffer(stroke_width_mm(bar.stroke, kit.dims) / 2)
+        for number in numbers:
+            assert not _ink_box(number.geom, words).intersects(ink), number.geom["text"]
+
+
+def _ink_box(geom: dict, words) -> Polygon:
+    """A text element's ink box (``geom``, its shape's fields): along its
+    line from its leftmost to its rightmost ink, its height centred on its
+    point, turned by its angle (the ring's numbers are centred there)."""
+    text, size = geom["text"], geom["size_pt"]
+    ext = words.measure(text, size)
+    left, right = words.ink_span_mm(text, size)
+    start = -ext.width_mm / 2
+    a = math.radians(geom["angle_deg"])
+    (x, y), h = geom["at"], ext.height_mm / 2
+    corners = [(start + u, v) for u, v in ((left, -h), (right, -h), (right, h), (left, h))]
+    return Polygon([(x + u * math.cos(a) - v * math.sin(a), y + u * math.sin(a) + v * math.cos(a))
+                    for u, v in corners])
