@@ -13,8 +13,15 @@ the new offset, so that the jump reads as the change it is
   keep one offset all year;
 * the bar's date and the minutes either side of it are those of the
   ring's runs that meet there;
-* no number of the ring touches a bar's ink (Shapely: the number's ink
-  box against the bar's line at its printed width).
+* no number of the ring comes within 0.45 mm of a bar's ink (Shapely: the
+  number's ink box against the bar's line at its printed width), and the
+  bar is drawn heavier than the calendar's month lines beside it;
+* each side of a bar has a number for a run within 10 days of the change,
+  so that both sides of the jump are read (a week on A4 and Letter; a
+  change a week from an equinox on A5 leaves no room between the bar and
+  the horizontal, where no number stands, for one more number);
+* the instructions' clock step says what the bars mark exactly when the
+  ring has one.
 """
 
 from __future__ import annotations
@@ -28,6 +35,8 @@ from shapely.geometry import LineString, Polygon
 
 from kitgen.geometry.style import stroke_width_mm
 from kitgen.kit import build_kit
+from kitgen.layout.instructions import story
+from kitgen.layout.pages import layout_kit
 from kitgen.recipe.load import validate_recipe
 
 EPOCH = 2027
@@ -42,7 +51,11 @@ SITES = {
     "Chicago": (41.88, -87.63, "America/Chicago"),
     "Kolkata": (22.57, 88.36, "Asia/Kolkata"),
     "Johannesburg": (-26.2, 28.05, "Africa/Johannesburg"),
+    "Beirut": (33.89, 35.5, "Asia/Beirut"),
 }
+#: (sheet, language) of the kits: the ring's sizes from A4 to A5, in a
+#: left-to-right and a right-to-left script.
+KITS = (("a4", "en"), ("a5", "es"), ("letter", "ar"))
 
 
 def _changes(zone: str, year: int) -> list[tuple[int, int]]:
@@ -59,11 +72,13 @@ def _changes(zone: str, year: int) -> list[tuple[int, int]]:
     return out
 
 
-@pytest.fixture(scope="module", params=sorted(SITES))
+@pytest.fixture(scope="module", params=[(site, sheet, language) for site in sorted(SITES)
+                                        for sheet, language in KITS], ids=lambda p: "-".join(p))
 def back(request):
-    latitude, longitude, zone = SITES[request.param]
+    site, sheet, language = request.param
+    latitude, longitude, zone = SITES[site]
     kit = build_kit(validate_recipe({"latitude": latitude, "longitude": longitude, "timezone": zone,
-                                     "epoch": EPOCH, "sheet": "a4"}))
+                                     "epoch": EPOCH, "sheet": sheet, "language": language}))
     return zone, kit, kit.part("mater_back")
 
 
@@ -97,10 +112,33 @@ def test_no_number_of_the_ring_touches_a_bar(back):
     numbers = [e for e in part.elements if e.role == "clock_number"]
     assert numbers
     words = kit.words
+    months = {e.stroke for e in part.elements if e.role == "calendar_tick" and e.values["day"] == 1}   # month lines
+    assert months
     for bar in bars:
+        assert all(stroke_width_mm(bar.stroke, kit.dims) > stroke_width_mm(m, kit.dims) for m in months)
         ink = LineString([bar.geom["from"], bar.geom["to"]]).buffer(stroke_width_mm(bar.stroke, kit.dims) / 2)
         for number in numbers:
-            assert not _ink_box(number.geom, words).intersects(ink), number.geom["text"]
+            assert _ink_box(number.geom, words).distance(ink) >= 0.45, number.geom["text"]
+
+
+def test_both_sides_of_a_change_are_numbered(back):
+    zone, _, part = back
+    numbered = {(e.values["month"], e.values["day"]) for e in part.elements if e.role == "clock_number"}
+    runs = [(dt.date(EPOCH, r["from_month"], r["from_day"]), dt.date(EPOCH, r["to_month"], r["to_day"]))
+            for r in (e.values for e in part.elements if e.role == "clock_run")
+            if (r["from_month"], r["from_day"]) in numbered]   # the numbered runs: their first and last days
+    for bar in (e.values for e in part.elements if e.role == "clock_change"):
+        change = dt.date(EPOCH, bar["month"], bar["day"])
+        after = [first for first, _ in runs if 0 <= (first - change).days <= 10]
+        before = [last for _, last in runs if 1 <= (change - last).days <= 10]
+        assert after and before, (zone, change)
+
+
+def test_the_instructions_say_what_the_bars_mark(back):
+    _, kit, part = back
+    text = "\n".join(b.text for b in story(kit, layout_kit(kit)))
+    bars = any(e.role == "clock_change" for e in part.elements)
+    assert (kit.words("almanac.clock_bars") in text) == bars
 
 
 def _ink_box(geom: dict, words) -> Polygon:

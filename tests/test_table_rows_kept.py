@@ -68,8 +68,9 @@ def test_no_table_row_alone_on_a_page(language, sheet, site, worksheet):
 
 
 def test_the_check_finds_a_row_alone(monkeypatch):
-    """Self-test: with the layout told to keep one row, the first kit's
-    table is split with one row alone, and the check says so."""
+    """Self-test: with the layout told to keep one row, a table of one of
+    the kits is split with one row alone, and the check says so (which
+    kit depends on where its pages break)."""
     monkeypatch.setattr(paragraphs, "TABLE_KEEPS_ROWS", 1)
-    splits = split_tables(_chunks(*KITS[0]))
-    assert splits and min(min(s) for s in splits) == 1
+    found = (split_tables(_chunks(*kit)) for kit in KITS)
+    assert any(splits and min(min(s) for s in splits) == 1 for splits in found)

@@ -317,6 +317,12 @@ def has_clock_ring(kit) -> bool:
     return any(e.role == "clock_run" for p in kit.parts_of("mater_back") for e in p.elements)
 
 
+def _has_clock_bars(kit) -> bool:
+    """Whether the back's ring marks a change of the clocks with a bar
+    (kitgen.parts.clock_scale), read from the drawn part."""
+    return any(e.role == "clock_change" for p in kit.parts_of("mater_back") for e in p.elements)
+
+
 def clock_step(kit, number: int) -> list[Block]:
     """The time-telling procedure's last step: to clock time, from the
     back's ring, or from the table where the kit has no ring."""
@@ -327,6 +333,8 @@ def clock_step(kit, number: int) -> list[Block]:
         return out if _zoned(kit) else out + [Block("body", w("almanac.mean_missing")), _zone_meridian(w)]
     if _zoned(kit):
         text = w("almanac.clock_step" if _summer(kit) else "almanac.clock_step_standard", zone=zone_name(kit))
+        if _has_clock_bars(kit):
+            text += " " + w("almanac.clock_bars")
         return [Block("item", text, w.number(number) + ".")]
     return [Block("item", w("almanac.clock_step_mean"), w.number(number) + "."), _zone_meridian(w)]
 

@@ -22,9 +22,11 @@ carry the table alone).
 The horizontal through the centre crosses the ring at the equinoxes; no
 number stands on it.  Where the clocks change (summer time begins or
 ends: the correction jumps by :data:`CLOCK_CHANGE_MIN` or more from one
-day to the next), a heavier bar crosses the whole ring, so that the jump
-(from +5 to +65 in London's spring) reads as the change it is, and no
-number stands on the bar either.  Each run is
+day to the next), a heavy bar crosses the whole ring, heavier than the
+calendar's month lines beside it, so that the jump of an hour reads as
+the change it is (the instructions say so); no number stands within
+:data:`BAR_CLEAR_MM` of a bar, and the runs nearest each side of it are
+numbered first, so that both sides of the jump are read.  Each run is
 also an undrawn arc carrying its dates and minutes, so that the JSON
 says exactly what the ring says.  Lengths in mm, directions in degrees
 counter-clockwise from +x, as on the rest of the back.
@@ -37,6 +39,7 @@ from dataclasses import dataclass
 
 from ..errors import Message, Number
 from ..geometry import model
+from ..geometry.style import stroke_width_mm
 from ..words.locale import zone_place
 from . import curves, labels
 from .context import PartContext
@@ -68,6 +71,18 @@ class ClockScale:
 #: that is a change of the clocks: the equation of time moves by well
 #: under a minute a day, and zones change by half an hour or an hour.
 CLOCK_CHANGE_MIN = 20
+#: The room (mm) a number of the ring keeps from a bar's ink, beyond the
+#: margin every label keeps: numbers 0.4 mm from the bar read as
+#: touching it on paper.
+BAR_CLEAR_MM = 0.5
+#: How many runs on each side of a bar are tried first for a number,
+#: nearest first: the runs beside a change are a day or two long, too
+#: short for their numbers, and the next ones show the jump as well.
+BAR_RUNS = 4
+#: A number stands centred on its run, or where that is not clear of the
+#: horizontal, a bar or the numbers placed, slid along the run by steps
+#: of this (degrees), its centre kept inside the run.
+SLIDE_STEP_DEG = 0.1
 
 
 def _direction_deg(longitude_deg: float) -> float:
@@ -88,24 +103,51 @@ def runs(correction):
     return out
 
 
-def _numbers(w, numbers, r_text: float, size_pt: float, bars_deg=()):
-    """The runs' numbers under their ticks: the longest runs first, each
-    where it keeps a margin from the numbers already placed, off the
-    horizontal and off the bars of the clock changes (``bars_deg``, their
-    directions); a run too short keeps its number only when its neighbours
-    leave room (so in a fast-changing season about every other run is
-    numbered, its neighbours one more and one less)."""
-    placed, out = [], []
-    for span, mid, minutes, month, day in sorted(numbers, key=lambda x: -x[0]):
+def _numbers(w, numbers, r_text: float, size_pt: float, bars_deg=(), bar_half_mm: float = 0.0, first=()):
+    """The runs' numbers under their ticks: for each group of runs of
+    ``first`` (their positions in ``numbers``) none of which is numbered
+    yet, the first of the group that finds room; then the longest runs
+    first.  Each keeps a margin from the numbers already placed, keeps
+    off the horizontal and, by :data:`BAR_CLEAR_MM` more, off the bars of
+    the clock changes (``bars_deg``, their directions; ``bar_half_mm``,
+    half their ink's width), centred on its run (a run beside a bar's,
+    where that is not clear, slid along it by :data:`SLIDE_STEP_DEG` as
+    far as its run reaches).  A run too short
+    keeps its number only when its neighbours leave room (so in a
+    fast-changing season about every other run is numbered, its
+    neighbours one more and one less)."""
+    placed, out, done = [], [], set()
+    bar_deg = math.degrees((bar_half_mm + BAR_CLEAR_MM) / r_text)
+
+    def clear(at: float, half: float) -> bool:
+        return not (any(abs((at - axis + 180.0) % 360.0 - 180.0) < half for axis in (0.0, 180.0))
+                    or any(abs((at - bar + 180.0) % 360.0 - 180.0) < half + bar_deg for bar in bars_deg)
+                    or any(abs((at - other + 180.0) % 360.0 - 180.0) < half + other_half
+                           for other, other_half in placed))
+
+    def put(k, slide: bool = False) -> bool:
+        span, mid, minutes, month, day = numbers[k]
+        if k in done:
+            return False
         text = signed(w, minutes)
         half = math.degrees((w.measure(text, size_pt).width_mm / 2.0 + labels.MARGIN_MM) / r_text)
-        if any(abs((mid - axis + 180.0) % 360.0 - 180.0) < half for axis in (0.0, 180.0, *bars_deg)):
-            continue
-        if any(abs((mid - other + 180.0) % 360.0 - 180.0) < half + other_half for other, other_half in placed):
-            continue
-        placed.append((mid, half))
-        out.append(curves.ring_text("clock_number", text, mid, r_text, size_pt, minutes=minutes, month=month,
+        # centred on its run, else (``slide``) slid along it, its centre kept inside the run
+        steps = int(span / 2.0 / SLIDE_STEP_DEG) if slide else 0
+        at = next((mid + sign * i * SLIDE_STEP_DEG for i in range(steps + 1) for sign in (1, -1)
+                   if clear(mid + sign * i * SLIDE_STEP_DEG, half)), None)
+        if at is None:
+            return False
+        done.add(k)
+        placed.append((at, half))
+        out.append(curves.ring_text("clock_number", text, at, r_text, size_pt, minutes=minutes, month=month,
                                     day=day))
+        return True
+
+    for group in first:
+        if not done.intersection(group):
+            any(put(k, slide=True) for k in group)   # the first of the group that finds room
+    for k in sorted(range(len(numbers)), key=lambda k: -numbers[k][0]):
+        put(k)
     return out
 
 
@@ -173,7 +215,7 @@ def clock_scale(ctx: PartContext, r_outer_mm: float, room_above: bool = False) -
         return ClockScale((), r_outer_mm)
     els = [model.circle("clock_edge", (0.0, 0.0), r0, "light"),
            model.circle("clock_edge", (0.0, 0.0), r1, "light")]
-    numbers, bars = [], []
+    numbers, bars, beside = [], [], []
     ring_runs = runs(almanac.clock_correction)
     for k, (first, last, minutes) in enumerate(ring_runs):
         start, end = edge_deg(first), edge_deg((last + 1) % n)
@@ -184,11 +226,13 @@ def clock_scale(ctx: PartContext, r_outer_mm: float, room_above: bool = False) -
         els.append(curves.radial_tick("clock_tick", start, r1 - tick, r1, r1, "light", month=m0, day=d0))
         before = ring_runs[k - 1][2]
         if len(ring_runs) > 1 and abs(minutes - before) >= CLOCK_CHANGE_MIN:
-            els.append(curves.radial_tick("clock_change", start, r0, r1, r1, "medium", month=m0, day=d0,
+            els.append(curves.radial_tick("clock_change", start, r0, r1, r1, "heavy", month=m0, day=d0,
                                           minutes_before=before, minutes=minutes))
             bars.append(start)
+            beside += [[(k + i) % len(ring_runs) for i in range(BAR_RUNS)],          # after the change
+                       [(k - 1 - i) % len(ring_runs) for i in range(BAR_RUNS)]]      # and before it
         numbers.append((span, end + span / 2.0, minutes, m0, d0))
-    els += _numbers(w, numbers, r_text, size, bars)
+    els += _numbers(w, numbers, r_text, size, bars, stroke_width_mm("heavy", d) / 2, beside)
     key = "clock_scale.caption_zone" if almanac.time == "zone" else "clock_scale.caption_mean"
     # The zone's city (or UTC offset), never its IANA name.
     zone = zone_place(ctx.plan.site.timezone, w.language) if almanac.time == "zone" else ""
