@@ -21,7 +21,15 @@ the new offset, so that the jump reads as the change it is
   change a week from an equinox on A5 leaves no room between the bar and
   the horizontal, where no number stands, for one more number);
 * the instructions' clock step says what the bars mark exactly when the
-  ring has one.
+  ring has one;
+* the correction each worked example quotes stands on the ring, as the
+  number of the run of the example's date, on A4 and Letter (on A5 a
+  change a day before the example's date and the equinox's horizontal a
+  few days after can leave its run no room: Chicago's 14 March change
+  and 15 March example leave 6.6 deg between bar and horizontal, where
+  the number needs 7.2 deg; the runs beside the bar are numbered first),
+  and there, away from a bar, at least a number within a minute of it
+  within three days.
 """
 
 from __future__ import annotations
@@ -154,3 +162,25 @@ def _ink_box(geom: dict, words) -> Polygon:
     corners = [(start + u, v) for u, v in ((left, -h), (right, -h), (right, h), (left, h))]
     return Polygon([(x + u * math.cos(a) - v * math.sin(a), y + u * math.sin(a) + v * math.cos(a))
                     for u, v in corners])
+
+
+def test_the_worked_examples_corrections_are_on_the_ring(back):
+    _, kit, part = back
+
+    numbered = {(e.values["month"], e.values["day"]) for e in part.elements if e.role == "clock_number"}
+    runs = [e.values for e in part.elements if e.role == "clock_run"]
+    examples = [ex for ex in (kit.plan.examples.sun, kit.plan.examples.star) if ex is not None]
+    assert examples
+    for ex in examples:
+        day = dt.date(EPOCH, ex.month, ex.day)
+        run = next(r for r in runs if dt.date(EPOCH, r["from_month"], r["from_day"]) <= day
+                   <= dt.date(EPOCH, r["to_month"], r["to_day"]))
+        assert run["minutes"] == round(ex.correction_min)
+        bars = [dt.date(EPOCH, e.values["month"], e.values["day"]) for e in part.elements if e.role == "clock_change"]
+        if kit.plan.printing.sheet.name != "a5":
+            assert (run["from_month"], run["from_day"]) in numbered
+        elif not any(abs((bar - day).days) <= 3 for bar in bars):
+            # at least a number within a minute of it, within three days of the date
+            near = [r for r in runs if (r["from_month"], r["from_day"]) in numbered
+                    and abs((dt.date(EPOCH, r["from_month"], r["from_day"]) - day).days) <= 3]
+            assert any(abs(r["minutes"] - run["minutes"]) <= 1 for r in near), (ex.month, ex.day)

@@ -26,7 +26,9 @@ day to the next), a heavy bar crosses the whole ring, heavier than the
 calendar's month lines beside it, so that the jump of an hour reads as
 the change it is (the instructions say so); no number stands within
 :data:`BAR_CLEAR_MM` of a bar, and the runs nearest each side of it are
-numbered first, so that both sides of the jump are read.  Each run is
+numbered first, so that both sides of the jump are read.  The runs of
+the instructions' worked examples' dates are numbered next, so that a
+pupil finds on the ring the correction the example quotes.  Each run is
 also an undrawn arc carrying its dates and minutes, so that the JSON
 says exactly what the ring says.  Lengths in mm, directions in degrees
 counter-clockwise from +x, as on the rest of the back.
@@ -232,7 +234,11 @@ def clock_scale(ctx: PartContext, r_outer_mm: float, room_above: bool = False) -
             beside += [[(k + i) % len(ring_runs) for i in range(BAR_RUNS)],          # after the change
                        [(k - 1 - i) % len(ring_runs) for i in range(BAR_RUNS)]]      # and before it
         numbers.append((span, end + span / 2.0, minutes, m0, d0))
-    els += _numbers(w, numbers, r_text, size, bars, stroke_width_mm("heavy", d) / 2, beside)
+    examples = [ex for ex in (ctx.plan.examples.sun, ctx.plan.examples.star) if ex is not None]
+    dates = {(m, dd): i for i, (m, dd, _) in enumerate(cal)}
+    quoted = [[k] for ex in examples for k, (first, last, _) in enumerate(ring_runs)
+              if (ex.month, ex.day) in dates and (dates[(ex.month, ex.day)] - first) % n <= (last - first) % n]
+    els += _numbers(w, numbers, r_text, size, bars, stroke_width_mm("heavy", d) / 2, beside + quoted)
     key = "clock_scale.caption_zone" if almanac.time == "zone" else "clock_scale.caption_mean"
     # The zone's city (or UTC offset), never its IANA name.
     zone = zone_place(ctx.plan.site.timezone, w.language) if almanac.time == "zone" else ""
