@@ -16,20 +16,16 @@ the new offset, so that the jump reads as the change it is
 * no number of the ring comes within 0.45 mm of a bar's ink (Shapely: the
   number's ink box against the bar's line at its printed width), and the
   bar is drawn heavier than the calendar's month lines beside it;
-* each side of a bar has a number for a run within 10 days of the change,
-  so that both sides of the jump are read (a week on A4 and Letter; a
-  change a week from an equinox on A5 leaves no room between the bar and
-  the horizontal, where no number stands, for one more number);
+* each side of a bar has a number for a run within a week of the change,
+  so that both sides of the jump are read;
 * the instructions' clock step says what the bars mark exactly when the
   ring has one;
 * the correction each worked example quotes stands on the ring, as the
-  number of the run of the example's date, on A4 and Letter (on A5 a
-  change a day before the example's date and the equinox's horizontal a
-  few days after can leave its run no room: Chicago's 14 March change
-  and 15 March example leave 6.6 deg between bar and horizontal, where
-  the number needs 7.2 deg; the runs beside the bar are numbered first),
-  and there, away from a bar, at least a number within a minute of it
-  within three days.
+  number of the run of the example's date (Chicago's on A5: its 15 March
+  run lies between the 14 March bar and the equinox, where the
+  horizontal, before it stopped at the ring's inner edge, left no room);
+* the horizontal through the centre does not cross the ring (it stops at
+  the ring's inner circle), so the numbers at the equinoxes are clear.
 """
 
 from __future__ import annotations
@@ -137,8 +133,8 @@ def test_both_sides_of_a_change_are_numbered(back):
             if (r["from_month"], r["from_day"]) in numbered]   # the numbered runs: their first and last days
     for bar in (e.values for e in part.elements if e.role == "clock_change"):
         change = dt.date(EPOCH, bar["month"], bar["day"])
-        after = [first for first, _ in runs if 0 <= (first - change).days <= 10]
-        before = [last for _, last in runs if 1 <= (change - last).days <= 10]
+        after = [first for first, _ in runs if 0 <= (first - change).days <= 7]
+        before = [last for _, last in runs if 1 <= (change - last).days <= 7]
         assert after and before, (zone, change)
 
 
@@ -176,11 +172,19 @@ def test_the_worked_examples_corrections_are_on_the_ring(back):
         run = next(r for r in runs if dt.date(EPOCH, r["from_month"], r["from_day"]) <= day
                    <= dt.date(EPOCH, r["to_month"], r["to_day"]))
         assert run["minutes"] == round(ex.correction_min)
-        bars = [dt.date(EPOCH, e.values["month"], e.values["day"]) for e in part.elements if e.role == "clock_change"]
-        if kit.plan.printing.sheet.name != "a5":
-            assert (run["from_month"], run["from_day"]) in numbered
-        elif not any(abs((bar - day).days) <= 3 for bar in bars):
-            # at least a number within a minute of it, within three days of the date
-            near = [r for r in runs if (r["from_month"], r["from_day"]) in numbered
-                    and abs((dt.date(EPOCH, r["from_month"], r["from_day"]) - day).days) <= 3]
-            assert any(abs(r["minutes"] - run["minutes"]) <= 1 for r in near), (ex.month, ex.day)
+        assert (run["from_month"], run["from_day"]) in numbered
+
+
+def test_the_horizontal_stops_at_the_ring(back):
+    """The horizontal's pieces (the back's level segments through the
+    centre's height) reach the ring's inner circle and none runs across
+    the ring."""
+    _, kit, part = back
+    radii = [e.geom["radius"] for e in part.elements if e.role == "clock_edge"]
+    inner, outer = min(radii), max(radii)
+    level = [sorted((e.geom["from"][0], e.geom["to"][0])) for e in part.elements
+             if e.role == "scale_edge" and e.shape == "segment" and e.geom["from"][1] == e.geom["to"][1] == 0.0]
+    assert [-inner, inner] in level
+    for lo, hi in level:
+        assert hi <= -outer or lo >= -inner - 1e-9, (lo, hi)   # clear of the ring's left side
+        assert lo >= outer or hi <= inner + 1e-9, (lo, hi)     # and of its right side

@@ -19,8 +19,10 @@ makes room for the ring: inside it the title may go down to
 lines; only on a kit where even so it cannot fit is the ring left out,
 and the build says so (:func:`clock_ring_notes`; the instructions then
 carry the table alone).
-The horizontal through the centre crosses the ring at the equinoxes; no
-number stands on it.  Where the clocks change (summer time begins or
+The horizontal through the centre stops at the ring's inner edge
+(kitgen.parts.mater_back breaks it across the ring, as across the
+calendar's), so that numbers stand at the equinoxes as on any other
+date.  Where the clocks change (summer time begins or
 ends: the correction jumps by :data:`CLOCK_CHANGE_MIN` or more from one
 day to the next), a heavy bar crosses the whole ring, heavier than the
 calendar's month lines beside it, so that the jump of an hour reads as
@@ -67,6 +69,7 @@ class ClockScale:
     elements: tuple[model.Element, ...]
     inner_radius_mm: float     # the ring's inner edge: what lies inside must keep within it
     tall_caption: bool = False   # the caption took the place line's room too
+    edge_radius_mm: float | None = None   # the ring's inner circle, where the horizontal stops (None: no ring)
 
 
 #: The least jump of the correction (minutes) from one day to the next
@@ -81,9 +84,9 @@ BAR_CLEAR_MM = 0.5
 #: nearest first: the runs beside a change are a day or two long, too
 #: short for their numbers, and the next ones show the jump as well.
 BAR_RUNS = 4
-#: A number stands centred on its run, or where that is not clear of the
-#: horizontal, a bar or the numbers placed, slid along the run by steps
-#: of this (degrees), its centre kept inside the run.
+#: A number stands centred on its run, or where that is not clear of a
+#: bar or the numbers placed, slid along the run by steps of this
+#: (degrees), its centre kept inside the run.
 SLIDE_STEP_DEG = 0.1
 
 
@@ -109,21 +112,19 @@ def _numbers(w, numbers, r_text: float, size_pt: float, bars_deg=(), bar_half_mm
     """The runs' numbers under their ticks: for each group of runs of
     ``first`` (their positions in ``numbers``) none of which is numbered
     yet, the first of the group that finds room; then the longest runs
-    first.  Each keeps a margin from the numbers already placed, keeps
-    off the horizontal and, by :data:`BAR_CLEAR_MM` more, off the bars of
-    the clock changes (``bars_deg``, their directions; ``bar_half_mm``,
-    half their ink's width), centred on its run (a run beside a bar's,
-    where that is not clear, slid along it by :data:`SLIDE_STEP_DEG` as
-    far as its run reaches).  A run too short
-    keeps its number only when its neighbours leave room (so in a
-    fast-changing season about every other run is numbered, its
-    neighbours one more and one less)."""
+    first.  Each keeps a margin from the numbers already placed and, by
+    :data:`BAR_CLEAR_MM` more, from the bars of the clock changes
+    (``bars_deg``, their directions; ``bar_half_mm``, half their ink's
+    width), centred on its run (a run beside a bar's, where that is not
+    clear, slid along it by :data:`SLIDE_STEP_DEG` as far as its run
+    reaches).  A run too short keeps its number only when its neighbours
+    leave room (so in a fast-changing season about every other run is
+    numbered, its neighbours one more and one less)."""
     placed, out, done = [], [], set()
     bar_deg = math.degrees((bar_half_mm + BAR_CLEAR_MM) / r_text)
 
     def clear(at: float, half: float) -> bool:
-        return not (any(abs((at - axis + 180.0) % 360.0 - 180.0) < half for axis in (0.0, 180.0))
-                    or any(abs((at - bar + 180.0) % 360.0 - 180.0) < half + bar_deg for bar in bars_deg)
+        return not (any(abs((at - bar + 180.0) % 360.0 - 180.0) < half + bar_deg for bar in bars_deg)
                     or any(abs((at - other + 180.0) % 360.0 - 180.0) < half + other_half
                            for other, other_half in placed))
 
@@ -246,7 +247,7 @@ def clock_scale(ctx: PartContext, r_outer_mm: float, room_above: bool = False) -
     tall = not caption and room_above
     if tall:
         caption = _caption(w, w(key, zone=zone), size, r0, TALL_CAPTION_ROW)
-    return ClockScale(tuple(els + caption), r0 - labels.MARGIN_MM, tall and bool(caption))
+    return ClockScale(tuple(els + caption), r0 - labels.MARGIN_MM, tall and bool(caption), r0)
 
 
 def _caption(w, text: str, size_pt: float, r0_mm: float, row) -> list[model.Element]:

@@ -41,11 +41,11 @@ def mater_back(ctx: PartContext) -> model.Part:
            model.circle("scale_edge", (0.0, 0.0), r_zod, "medium"),
            model.circle("scale_edge", (0.0, 0.0), r_cal, "medium"),
            # The horizontal: the altitude scale's base and the shadow
-           # square's top, broken across the calendar ring, whose numbers
-           # stand there at the equinoxes (the zodiac ring's first ticks
-           # of Aries and Libra lie along it).
+           # square's top, broken across the calendar ring and the clock
+           # ring, whose numbers stand there at the equinoxes (the zodiac
+           # ring's first ticks of Aries and Libra lie along it); its
+           # middle piece is drawn with the clock ring, below.
            model.segment("scale_edge", (-R, 0.0), (-r_zod, 0.0), "light"),
-           model.segment("scale_edge", (-r_cal, 0.0), (r_cal, 0.0), "light"),
            model.segment("scale_edge", (r_zod, 0.0), (R, 0.0), "light")]
     els += _altitude_scale(d, w, r_alt, R, ctx.scales.altitude_tick_deg)
     els += _zodiac_scale(d, w, r_zod, r_alt, ctx.scales.zodiac_tick_deg)
@@ -60,6 +60,8 @@ def mater_back(ctx: PartContext) -> model.Part:
     if place and place.strip().casefold() == (ctx.plan.title or "").strip().casefold():
         place = ""
     clock = clock_scale(ctx, r_cal, room_above=not place)
+    middle = clock.edge_radius_mm if clock.edge_radius_mm is not None else r_cal
+    els.append(model.segment("scale_edge", (-middle, 0.0), (middle, 0.0), "light"))
     els, r_cal = els + list(clock.elements), clock.inner_radius_mm
     els += _shadow_square(d, w, r_cal, ctx.scales.shadow_labels)
     for role, row, text, size, style in (
