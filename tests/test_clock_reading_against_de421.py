@@ -39,9 +39,11 @@ CASES = [
 ]
 
 
-def _clock_minutes_when_sun_at(lat, lon, zone, day, altitude_deg, morning) -> float:
+def _clock_minutes_when_sun_at(lat, lon, zone, day, altitude_deg, morning, days_ahead: int = 0) -> float:
     """Minutes after local midnight on the zone's clock when the Sun's
-    apparent centre reaches ``altitude_deg`` (DE421, bisection)."""
+    apparent centre reaches ``altitude_deg`` on the local solar date
+    ``day`` (DE421, bisection); the clock's date is ``days_ahead`` later
+    (a zone across the date line from its place)."""
     ts, eph = ephemeris()
     site = eph["earth"] + wgs84.latlon(lat, lon)
     base = dt.datetime(day.year, day.month, day.day, tzinfo=dt.timezone.utc)
@@ -61,7 +63,7 @@ def _clock_minutes_when_sun_at(lat, lon, zone, day, altitude_deg, morning) -> fl
         else:
             lo, f_lo = mid, alt(mid)
     local = (base + dt.timedelta(hours=(lo + hi) / 2)).astimezone(zoneinfo.ZoneInfo(zone))
-    assert local.date() == day
+    assert local.date() == day + dt.timedelta(days=days_ahead)
     return local.hour * 60 + local.minute + local.second / 60 + local.microsecond / 6e7
 
 
@@ -77,3 +79,31 @@ def test_reading_plus_correction_is_clock_time(lat, lon, zone, day, alt, morning
     error = (read_min + correction - truth_min + 720.0) % 1440.0 - 720.0
     assert abs(error) < TOLERANCE_MIN, f"{zone} {day}: {error:+.2f} min"
     assert geom["almanac"]["time"] == "zone"
+
+
+#: Places whose zone lies across the date line from them, so their clocks
+#: run a day and some minutes ahead of local mean time (coordinates as
+#: commonly given, from memory; the zones' offsets from zoneinfo):
+#: (latitude, east longitude, zone, local solar date, altitude, morning).
+ACROSS_THE_DATE_LINE = [
+    (-43.95, -176.55, "Pacific/Chatham", dt.date(2027, 2, 10), 30.0, True),   # UTC+13:45 in summer time
+    (-43.95, -176.55, "Pacific/Chatham", dt.date(2027, 6, 20), 15.0, False),  # UTC+12:45
+    (-13.83, -171.76, "Pacific/Apia", dt.date(2027, 9, 5), 40.0, True),       # UTC+13
+]
+
+
+@pytest.mark.parametrize("lat,lon,zone,day,alt,morning", ACROSS_THE_DATE_LINE)
+def test_across_the_date_line_the_correction_is_the_days_minutes(lat, lon, zone, day, alt, morning):
+    """The correction is the minutes of the day the clock runs ahead
+    (+31 at Chatham), not a day and more (+1471): every day's within two
+    hours, and the reading plus the correction is the clock's time of day
+    (DE421 and zoneinfo), within the tolerance, the clock's date being the
+    next day."""
+    recipe = parse_recipe_text(f"latitude: {lat}\nlongitude: {lon}\ntimezone: {zone}\nepoch: {day.year}\n")
+    geom = geometry_dict(build_kit(recipe))
+    assert all(abs(c["minutes"]) < 120 for c in geom["almanac"]["clock_correction"])
+    correction = next(c["minutes"] for c in geom["almanac"]["clock_correction"]
+                      if (c["month"], c["day"]) == (day.month, day.day))
+    read_min = read_time(geom, day.month, day.day, alt, morning) * 60.0
+    truth_min = _clock_minutes_when_sun_at(lat, lon, zone, day, alt, morning, days_ahead=1)
+    assert abs(read_min + correction - truth_min) < TOLERANCE_MIN, f"{zone} {day}"

@@ -11,7 +11,12 @@ time included (IANA time zone database).  So
                = T + [mean - apparent] + (zone meridian - longitude) x 4 min
                    + summer time,
 
-the zone meridian being 15 deg a standard hour of offset.  Without a
+the zone meridian being 15 deg a standard hour of offset, taken to the
+nearest whole day: a place whose zone lies across the date line from it
+(the Chatham Islands at 176.5 deg W keep UTC+12:45, Samoa at 171.8 deg W
+UTC+13) has clocks a day and some minutes ahead of its local mean time,
+and its correction is those minutes (+31 at Chatham), never a day and
+more (+1471).  Without a
 longitude (or a zone) there is no clock to set: the correction is -E
 alone, which gives local mean time.  One value a day, for the instant of
 12:00 on the zone's clock (E changes by at most 0.5 min a day).
@@ -39,4 +44,5 @@ def clock_correction_min(year: int, longitude_deg: float | None = None, timezone
         offsets = np.array([offset_at_noon_min(timezone, year, m, d)[0] for m, d in dates])
         jd = np.array([julian_date_ut(year, m, d, 12.0) for m, d in dates]) - offsets / 1440.0
         minutes = -equation_of_time_min(jd) + offsets - 4.0 * longitude_deg
+        minutes = (minutes + 720.0) % 1440.0 - 720.0   # across the date line: the day's minutes alone
     return [(m, d, float(x)) for (m, d), x in zip(dates, minutes)]
