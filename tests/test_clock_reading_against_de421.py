@@ -84,7 +84,7 @@ def test_reading_plus_correction_is_clock_time(lat, lon, zone, day, alt, morning
 #: Places whose zone lies across the date line from them, so their clocks
 #: run a day and some minutes ahead of local mean time (coordinates as
 #: commonly given, from memory; the zones' offsets from zoneinfo):
-#: (latitude, east longitude, zone, local solar date, altitude, morning).
+#: (latitude, east longitude, zone, the clock's date, altitude, morning).
 ACROSS_THE_DATE_LINE = [
     (-43.95, -176.55, "Pacific/Chatham", dt.date(2027, 2, 10), 30.0, True),   # UTC+13:45 in summer time
     (-43.95, -176.55, "Pacific/Chatham", dt.date(2027, 6, 20), 15.0, False),  # UTC+12:45
@@ -96,14 +96,15 @@ ACROSS_THE_DATE_LINE = [
 def test_across_the_date_line_the_correction_is_the_days_minutes(lat, lon, zone, day, alt, morning):
     """The correction is the minutes of the day the clock runs ahead
     (+31 at Chatham), not a day and more (+1471): every day's within two
-    hours, and the reading plus the correction is the clock's time of day
-    (DE421 and zoneinfo), within the tolerance, the clock's date being the
-    next day."""
+    hours.  And the calendar's dates are the clock's: the time read with
+    the alidade on the clock's date, plus that date's correction, is the
+    clock's time (DE421 and zoneinfo) within the tolerance, the Sun's
+    local solar date being the day before."""
     recipe = parse_recipe_text(f"latitude: {lat}\nlongitude: {lon}\ntimezone: {zone}\nepoch: {day.year}\n")
     geom = geometry_dict(build_kit(recipe))
     assert all(abs(c["minutes"]) < 120 for c in geom["almanac"]["clock_correction"])
     correction = next(c["minutes"] for c in geom["almanac"]["clock_correction"]
                       if (c["month"], c["day"]) == (day.month, day.day))
     read_min = read_time(geom, day.month, day.day, alt, morning) * 60.0
-    truth_min = _clock_minutes_when_sun_at(lat, lon, zone, day, alt, morning, days_ahead=1)
+    truth_min = _clock_minutes_when_sun_at(lat, lon, zone, day - dt.timedelta(days=1), alt, morning, days_ahead=1)
     assert abs(read_min + correction - truth_min) < TOLERANCE_MIN, f"{zone} {day}"

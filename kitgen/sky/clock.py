@@ -46,3 +46,16 @@ def clock_correction_min(year: int, longitude_deg: float | None = None, timezone
         minutes = -equation_of_time_min(jd) + offsets - 4.0 * longitude_deg
         minutes = (minutes + 720.0) % 1440.0 - 720.0   # across the date line: the day's minutes alone
     return [(m, d, float(x)) for (m, d), x in zip(dates, minutes)]
+
+
+def calendar_longitude_deg(year: int, longitude_deg: float | None, timezone: str | None) -> float | None:
+    """The longitude (degrees, east positive) whose local mean noon the
+    calendar's ticks are drawn for, so that a tick's date is the clock's:
+    the site's own, moved by whole turns where its zone lies across the
+    date line from it (the Chatham Islands' -176.55 becomes 183.45, whose
+    noon on a date is the clocks' noon of that date, where the site's own
+    is the clocks' noon of the next).  ``None`` without a longitude."""
+    if longitude_deg is None or timezone is None:
+        return longitude_deg
+    offset_min, _ = offset_at_noon_min(timezone, year, 1, 1)
+    return longitude_deg + 360.0 * round((offset_min - 4.0 * longitude_deg) / 1440.0)
