@@ -84,8 +84,9 @@ BAR_CLEAR_MM = 0.5
 #: nearest first: the runs beside a change are a day or two long, too
 #: short for their numbers, and the next ones show the jump as well.
 BAR_RUNS = 4
-#: A number stands centred on its run, or where that is not clear of a
-#: bar or the numbers placed, slid along the run by steps of this
+#: The number of a run tried first (beside a bar, or of a worked
+#: example's date) stands centred on its run or, where that is not clear
+#: of a bar or the numbers placed, slid along the run by steps of this
 #: (degrees), its centre kept inside the run.
 SLIDE_STEP_DEG = 0.1
 
@@ -115,7 +116,7 @@ def _numbers(w, numbers, r_text: float, size_pt: float, bars_deg=(), bar_half_mm
     first.  Each keeps a margin from the numbers already placed and, by
     :data:`BAR_CLEAR_MM` more, from the bars of the clock changes
     (``bars_deg``, their directions; ``bar_half_mm``, half their ink's
-    width), centred on its run (a run beside a bar's, where that is not
+    width), centred on its run (a run of ``first``, where that is not
     clear, slid along it by :data:`SLIDE_STEP_DEG` as far as its run
     reaches).  A run too short keeps its number only when its neighbours
     leave room (so in a fast-changing season about every other run is
