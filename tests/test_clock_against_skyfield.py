@@ -125,6 +125,7 @@ SITES = (
     ("Buenos Aires", -34.60, -58.38, "America/Argentina/Buenos_Aires"),  # south, 13 deg west of -3 h's
     ("Punta Arenas", -53.16, -70.91, "America/Punta_Arenas"),
     ("Denver", 39.74, -104.99, "America/Denver"),               # west, US summer time
+    ("Chatham Islands", -43.95, -176.55, "Pacific/Chatham"),    # across the date line from its zone: the clock's dates
 )
 
 

@@ -31,17 +31,17 @@ the new offset, so that the jump reads as the change it is
 from __future__ import annotations
 
 import datetime as dt
-import math
 import zoneinfo
 
 import pytest
-from shapely.geometry import LineString, Polygon
+from shapely.geometry import LineString
 
 from kitgen.geometry.style import stroke_width_mm
 from kitgen.kit import build_kit
 from kitgen.layout.instructions import story
 from kitgen.layout.pages import layout_kit
 from kitgen.recipe.load import validate_recipe
+from tests.geos_lines import text_polygon
 
 EPOCH = 2027
 
@@ -122,7 +122,7 @@ def test_no_number_of_the_ring_touches_a_bar(back):
         assert all(stroke_width_mm(bar.stroke, kit.dims) > stroke_width_mm(m, kit.dims) for m in months)
         ink = LineString([bar.geom["from"], bar.geom["to"]]).buffer(stroke_width_mm(bar.stroke, kit.dims) / 2)
         for number in numbers:
-            assert _ink_box(number.geom, words).distance(ink) >= 0.45, number.geom["text"]
+            assert text_polygon(number.geom, words).distance(ink) >= 0.45, number.geom["text"]
 
 
 def test_both_sides_of_a_change_are_numbered(back):
@@ -143,21 +143,6 @@ def test_the_instructions_say_what_the_bars_mark(back):
     text = "\n".join(b.text for b in story(kit, layout_kit(kit)))
     bars = any(e.role == "clock_change" for e in part.elements)
     assert (kit.words("almanac.clock_bars") in text) == bars
-
-
-def _ink_box(geom: dict, words) -> Polygon:
-    """A text element's ink box (``geom``, its shape's fields): along its
-    line from its leftmost to its rightmost ink, its height centred on its
-    point, turned by its angle (the ring's numbers are centred there)."""
-    text, size = geom["text"], geom["size_pt"]
-    ext = words.measure(text, size)
-    left, right = words.ink_span_mm(text, size)
-    start = -ext.width_mm / 2
-    a = math.radians(geom["angle_deg"])
-    (x, y), h = geom["at"], ext.height_mm / 2
-    corners = [(start + u, v) for u, v in ((left, -h), (right, -h), (right, h), (left, h))]
-    return Polygon([(x + u * math.cos(a) - v * math.sin(a), y + u * math.sin(a) + v * math.cos(a))
-                    for u, v in corners])
 
 
 def test_the_worked_examples_corrections_are_on_the_ring(back):

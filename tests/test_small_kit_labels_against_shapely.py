@@ -42,7 +42,7 @@ from kitgen.render.json_export import render_json
 from kitgen.template_files import available_languages
 from kitgen.words.templates import load_words
 from kitgen.words.locale import true_minus
-from tests.geos_lines import stroke_line
+from tests.geos_lines import stroke_line, text_polygon
 
 #: (name, recipe, invented owner, whether the plate has room for the whole name)
 KITS = [
@@ -68,21 +68,6 @@ def built(request):
     name, recipe, owner, _ = next(k for k in KITS if k[0] == request.param)
     kit = build_kit(validate_recipe({**recipe, "owner": owner, "epoch": 2027}))
     return name, kit, json.loads(render_json(kit))
-
-
-def _text_polygon(el: dict, words, style: str = "label") -> Polygon:
-    """The ink box of a text element of the JSON: along the line from its
-    leftmost to its rightmost ink (its anchor at ``at``), its height
-    centred on ``at``, turned by ``angle_deg``."""
-    text, size = el["text"], el["size_pt"]
-    ext = words.measure(text, size, style)
-    left, right = words.ink_span_mm(text, size, style)
-    start = {"start": 0.0, "middle": -ext.width_mm / 2, "end": -ext.width_mm}[el["anchor"]]
-    a = math.radians(el["angle_deg"])
-    (x, y), h = el["at"], ext.height_mm / 2
-    corners = [(start + u, v) for u, v in ((left, -h), (right, -h), (right, h), (left, h))]
-    return Polygon([(x + u * math.cos(a) - v * math.sin(a), y + u * math.sin(a) + v * math.cos(a))
-                    for u, v in corners])
 
 
 def _style(el: dict) -> str:
@@ -128,10 +113,10 @@ def _check_clear(kit, part: dict, role: str, select=lambda el: True):
     outline = _outline(part)
     lines = _ink_lines(part, kit.dims)
     for el in mine:
-        box = _text_polygon(el, words)
+        box = text_polygon(el, words)
         assert outline.contains(box), (part["id"], el["text"])
         for other in others:
-            assert not box.intersects(_text_polygon(other, words, _style(other))), \
+            assert not box.intersects(text_polygon(other, words, _style(other))), \
                 (part["id"], el["text"], other["text"])
         for line, ink in lines:
             assert not box.intersects(ink), (part["id"], el["text"], line["role"])
@@ -191,7 +176,7 @@ def test_the_clock_rings_caption_is_whole_inside_the_ring(built):
     inner = min(el["radius"] for el in back["elements"] if el["role"] == "clock_edge")
     ring = Point(0.0, 0.0).buffer(inner, 256)
     for el in caption:
-        assert ring.contains(_text_polygon(el, kit.words)), el["text"]
+        assert ring.contains(text_polygon(el, kit.words)), el["text"]
 
 
 def test_the_key_slot_is_named_whole_and_clear(built):

@@ -314,13 +314,13 @@ def sun_place(words, longitude_deg: float) -> str:
 def has_clock_ring(kit) -> bool:
     """Whether the back carries the clock correction ring (it is left out
     on a kit too small for it, kitgen.parts.clock_scale)."""
-    return any(e.role == "clock_run" for p in kit.parts_of("mater_back") for e in p.elements)
+    return _on_back(kit, "clock_run")
 
 
-def _has_clock_bars(kit) -> bool:
-    """Whether the back's ring marks a change of the clocks with a bar
-    (kitgen.parts.clock_scale), read from the drawn part."""
-    return any(e.role == "clock_change" for p in kit.parts_of("mater_back") for e in p.elements)
+def _on_back(kit, role: str) -> bool:
+    """Whether the drawn back carries an element of ``role`` (a clock
+    change's bar, kitgen.parts.clock_scale: ``clock_change``)."""
+    return any(e.role == role for p in kit.parts_of("mater_back") for e in p.elements)
 
 
 def clock_step(kit, number: int) -> list[Block]:
@@ -333,7 +333,7 @@ def clock_step(kit, number: int) -> list[Block]:
         return out if _zoned(kit) else out + [Block("body", w("almanac.mean_missing")), _zone_meridian(w)]
     if _zoned(kit):
         text = w("almanac.clock_step" if _summer(kit) else "almanac.clock_step_standard", zone=zone_name(kit))
-        if _has_clock_bars(kit):
+        if _on_back(kit, "clock_change"):
             text += " " + w("almanac.clock_bars")
         return [Block("item", text, w.number(number) + ".")]
     return [Block("item", w("almanac.clock_step_mean"), w.number(number) + "."), _zone_meridian(w)]

@@ -398,7 +398,6 @@ def _place_blocks(reaches, with_leaders, alone: float = ALONE_REACH):
     return [(reaches, False)]
 
 
-
 @functools.lru_cache(maxsize=64)
 def _place_terms(offset_mm: float, h: float, reaches):
     """What :func:`_place_table` adds to a point's coordinates for the

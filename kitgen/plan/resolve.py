@@ -15,7 +15,7 @@ from ..recipe.load import load_language_file
 from ..recipe.schema import Recipe
 from ..recipe.twilight import twilight_altitudes_deg
 from ..sky.almanac import sky_for_kit
-from ..sky.clock import calendar_longitude_deg
+from ..sky.clock import clock_longitude_deg
 from ..sky.rete_rim import kit_rim_deg
 from ..sky.site_almanac import almanac_for_site
 from ..sky.worked_example import worked_examples
@@ -83,7 +83,7 @@ def plan_kit(recipe: Recipe) -> Plan:
     latitudes = tuple(p.latitude_deg for p in plates)
     rim = kit_rim_deg(recipe.rete_limit_deg, latitudes, sign, recipe.epoch, diameter)
     sky = sky_for_kit(recipe.epoch, sign, stars.names, stars.brightest, stars.magnitude_limit,
-                      calendar_longitude_deg(recipe.epoch, site.longitude_deg, site.timezone), rim, latitudes)
+                      clock_longitude_deg(recipe.epoch, site.longitude_deg, site.timezone), rim, latitudes)
     almanac = almanac_for_site(recipe.epoch, site.latitude_deg, site.longitude_deg, site.timezone)
     return Plan(
         title=recipe.title,

@@ -11,12 +11,12 @@ time included (IANA time zone database).  So
                = T + [mean - apparent] + (zone meridian - longitude) x 4 min
                    + summer time,
 
-the zone meridian being 15 deg a standard hour of offset, taken to the
-nearest whole day: a place whose zone lies across the date line from it
-(the Chatham Islands at 176.5 deg W keep UTC+12:45, Samoa at 171.8 deg W
-UTC+13) has clocks a day and some minutes ahead of its local mean time,
-and its correction is those minutes (+31 at Chatham), never a day and
-more (+1471).  Without a
+the zone meridian being 15 deg a standard hour of offset, and the
+longitude as the clocks count it (:func:`clock_longitude_deg`): a place
+whose zone lies across the date line from it (the Chatham Islands at
+176.5 deg W keep UTC+12:45, Samoa at 171.8 deg W UTC+13) has clocks a day
+and some minutes ahead of its local mean time, and its correction is
+those minutes (+31 at Chatham), never a day and more (+1471).  Without a
 longitude (or a zone) there is no clock to set: the correction is -E
 alone, which gives local mean time.  One value a day, for the instant of
 12:00 on the zone's clock (E changes by at most 0.5 min a day).
@@ -43,18 +43,19 @@ def clock_correction_min(year: int, longitude_deg: float | None = None, timezone
     else:
         offsets = np.array([offset_at_noon_min(timezone, year, m, d)[0] for m, d in dates])
         jd = np.array([julian_date_ut(year, m, d, 12.0) for m, d in dates]) - offsets / 1440.0
-        minutes = -equation_of_time_min(jd) + offsets - 4.0 * longitude_deg
-        minutes = (minutes + 720.0) % 1440.0 - 720.0   # across the date line: the day's minutes alone
+        minutes = -equation_of_time_min(jd) + offsets - 4.0 * clock_longitude_deg(year, longitude_deg, timezone)
     return [(m, d, float(x)) for (m, d), x in zip(dates, minutes)]
 
 
-def calendar_longitude_deg(year: int, longitude_deg: float | None, timezone: str | None) -> float | None:
-    """The longitude (degrees, east positive) whose local mean noon the
-    calendar's ticks are drawn for, so that a tick's date is the clock's:
-    the site's own, moved by whole turns where its zone lies across the
-    date line from it (the Chatham Islands' -176.55 becomes 183.45, whose
-    noon on a date is the clocks' noon of that date, where the site's own
-    is the clocks' noon of the next).  ``None`` without a longitude."""
+def clock_longitude_deg(year: int, longitude_deg: float | None, timezone: str | None) -> float | None:
+    """The site's longitude (degrees, east positive) as the clocks of
+    ``timezone`` count it: its own, moved by whole turns where the zone
+    lies across the date line from it (the Chatham Islands' -176.55
+    becomes 183.45), so that its local mean time is within half a day of
+    the clocks' and its dates are the clocks'.  The clock correction, the
+    almanac's dates and the calendar's ticks (local mean noon of each
+    date) are all worked out for it; it is its own clock longitude.
+    ``None`` without a longitude."""
     if longitude_deg is None or timezone is None:
         return longitude_deg
     offset_min, _ = offset_at_noon_min(timezone, year, 1, 1)

@@ -14,7 +14,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
-from .clock import clock_correction_min
+from .clock import clock_correction_min, clock_longitude_deg
 from .sun_rise_set import POLAR_DAY, rise_set_jd
 from .zone import changes_offset, local_clock_min
 
@@ -113,6 +113,8 @@ def almanac_for_site(year: int, latitude_deg: float, longitude_deg: float | None
     """The clock correction for every date of ``year`` and the sunrise and
     sunset table for the 1st and 16th of each month, at the site."""
     zoned = longitude_deg is not None and timezone is not None
+    if zoned:   # its dates the clock's, across the date line too
+        longitude_deg = clock_longitude_deg(year, longitude_deg, timezone)
     correction = clock_correction_min(year, longitude_deg if zoned else None, timezone if zoned else None)
     table = tuple(sun_rise_set_for(year, m, d, latitude_deg, longitude_deg, timezone)
                   for m in range(1, 13) for d in TABLE_DAYS)
