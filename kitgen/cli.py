@@ -425,9 +425,9 @@ def _cmd_places(args) -> int:
     return EXIT_OK
 
 
-#: The commands that build a kit, which run with the garbage collector's
-#: passes rare (kitgen.collect; ``batch`` sees to its own).
-BUILDING = frozenset({"build", "geometry", "preview", "check"})
+#: The commands that build kits, which run with the garbage collector's
+#: passes rare (kitgen.collect), their own imports included.
+BUILDING = frozenset({"build", "geometry", "preview", "check", "batch"})
 
 COMMANDS = {"build": _cmd_build, "geometry": _cmd_geometry, "new": _cmd_new, "stars": _cmd_stars,
             "calibrate": _cmd_calibrate, "preview": _cmd_preview,

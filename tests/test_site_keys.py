@@ -132,12 +132,12 @@ def test_timezone_key_overrides_the_places_zone():
 
 
 def test_coordinates_win_and_nothing_is_looked_up(monkeypatch):
-    import kitgen.recipe.site as site
+    import kitgen.places as gazetteer
 
     def no_lookup(name):
         raise AssertionError("looked up although coordinates were given")
 
-    monkeypatch.setattr(site, "resolve", no_lookup)
+    monkeypatch.setattr(gazetteer, "resolve", no_lookup)   # as kitgen.recipe.site imports it, when it looks up
     r = parse_recipe_text("latitude: 52.2\nlongitude: 0 7 W\ntimezone: Europe/London\nplace: Larkspur Valley\n")
     assert (r.latitude_deg, r.longitude_deg, r.timezone, r.place) == (52.2, pytest.approx(-7 / 60),
                                                                       "Europe/London", "Larkspur Valley")

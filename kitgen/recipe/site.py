@@ -18,7 +18,6 @@ from __future__ import annotations
 import difflib
 
 from ..errors import KeyedError, Message, UserError
-from ..places import PlaceError, resolve
 from ..sky.zone import MAX_ZONE_CHARS, UnknownZone, known_zones, zone
 
 
@@ -57,6 +56,8 @@ def resolve_site(values: dict, source, place_where) -> None:
     if "longitude_deg" in values and "latitude_deg" not in values:
         raise UserError("errors.longitude_without_latitude", source=source)
     if "latitude_deg" not in values and values.get("place"):
+        from ..places import PlaceError, resolve   # the gazetteer, only for a recipe that names a place
+
         try:
             place = resolve(values["place"])
         except PlaceError as exc:
