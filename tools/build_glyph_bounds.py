@@ -17,7 +17,7 @@ from pathlib import Path
 
 import numpy as np
 
-from kitgen.words.glyph_bounds import TABLE_NAME, file_digest, font_metrics, metrics_arrays, outline_bounds
+from kitgen.words.glyph_bounds import TABLE_NAME, file_digest, font_metrics, metrics_arrays, outline_bounds, text_array
 
 FONTS = Path(__file__).resolve().parents[1] / "kitgen" / "fonts"
 
@@ -27,7 +27,7 @@ def main() -> None:
     for path in sorted(FONTS.glob("*.ttf")):
         data = path.read_bytes()
         arrays[f"{path.name}:bounds"] = outline_bounds(data)
-        arrays[f"{path.name}:sha256"] = np.array(file_digest(data))
+        arrays[f"{path.name}:sha256"] = text_array(file_digest(data))
         for key, array in metrics_arrays(font_metrics(data)).items():
             arrays[f"{path.name}:{key}"] = array
     buf = io.BytesIO()
