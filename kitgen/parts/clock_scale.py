@@ -242,8 +242,9 @@ def clock_scale(ctx: PartContext, r_outer_mm: float, room_above: bool = False) -
               if (ex.month, ex.day) in dates and (dates[(ex.month, ex.day)] - first) % n <= (last - first) % n]
     els += _numbers(w, numbers, r_text, size, bars, stroke_width_mm("heavy", d) / 2, beside + quoted)
     key = "clock_scale.caption_zone" if almanac.time == "zone" else "clock_scale.caption_mean"
-    # The zone's city (or UTC offset), never its IANA name.
-    zone = zone_place(ctx.plan.site.timezone, w.language) if almanac.time == "zone" else ""
+    # The looked-up town, or the zone's city (or UTC offset), never its IANA name.
+    site = ctx.plan.site
+    zone = zone_place(site.timezone, w.language, site.clock_place) if almanac.time == "zone" else ""
     caption = _caption(w, w(key, zone=zone), size, r0, CAPTION_ROW)
     tall = not caption and room_above
     if tall:

@@ -37,6 +37,8 @@ class Site:
     longitude_deg: float | None = None
     timezone: str | None = None
     place: str = ""
+    #: The looked-up town whose clock the kit tells (Recipe.clock_place).
+    clock_place: str = ""
 
 
 @dataclass(frozen=True)

@@ -54,7 +54,7 @@ def plan_site(recipe: Recipe, plates) -> Site:
     longitude and time zone (given, or its place's as looked up by
     kitgen.recipe.site); the place's name as printed."""
     longitude = None if recipe.longitude_deg is None else float(recipe.longitude_deg)
-    return Site(plates[0].latitude_deg, longitude, recipe.timezone or None, recipe.place)
+    return Site(plates[0].latitude_deg, longitude, recipe.timezone or None, recipe.place, recipe.clock_place)
 
 
 def site_notes(plan) -> tuple[Message, ...]:

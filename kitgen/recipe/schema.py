@@ -93,6 +93,10 @@ class Recipe:
     #: given or looked up from ``place`` (kitgen.recipe.site); None unknown.
     longitude_deg: float | None = None
     timezone: str | None = None
+    #: The looked-up town whose zone the kit's clocks keep, as printed
+    #: (kitgen.recipe.site), by which the kit names its clock; empty where
+    #: the recipe gives the zone or coordinates itself.
+    clock_place: str = ""
     #: The plates, when the recipe lists them under ``plates:``; empty for
     #: the one-plate form (``latitude:`` and ``place:``).
     plates: tuple[PlateSpec, ...] = ()

@@ -65,8 +65,10 @@ def resolve_site(values: dict, source, place_where) -> None:
             raise UserError("errors.key_problem", label=label, problem=exc) from None
         values["latitude_deg"] = place.latitude_deg
         values["longitude_deg"] = place.longitude_deg
-        values.setdefault("timezone", place.timezone)
         values["place"] = printed_name(values["place"])
+        if values.get("timezone") is None:   # the town's own clock, named by the town (not the zone's city)
+            values["timezone"] = place.timezone
+            values["clock_place"] = values["place"]
     # Clock time needs both: one alone would be silently unused (#10).
     has_longitude, has_zone = values.get("longitude_deg") is not None, values.get("timezone") is not None
     if has_longitude != has_zone:

@@ -128,13 +128,17 @@ def format_date(year: int, month: int, day: int, code: str, native_digits: bool 
     return text
 
 
-def zone_place(timezone: str, code: str) -> str:
-    """The words for an IANA zone on a kit in language ``code``: the
+def zone_place(timezone: str, code: str, town: str = "") -> str:
+    """The words for an IANA zone on a kit in language ``code``: ``town``,
+    where the kit is for a looked-up town that keeps the zone (a Delhi
+    kit's clock is Delhi's, where the zone's city is Kolkata); else the
     zone's exemplar city in that language (the Unicode CLDR through Babel:
     ``London`` for Europe/London, ``Londres`` in French), as pupils know
     their clock by a city and never by the database's name; for a zone of
     no city (``UTC``, ``Etc/GMT-3``), its offset from UT in January,
     ``UTC+3``."""
+    if town:
+        return town
     if "/" in timezone and not timezone.startswith("Etc/"):
         try:
             return get_timezone_location(timezone, locale=cldr_locale(code), return_city=True)
