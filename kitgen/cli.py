@@ -343,11 +343,13 @@ def _cmd_batch(args) -> int:
 
     if args.jobs is not None and not 1 <= args.jobs <= MAX_JOBS:
         raise UserError("errors.jobs_option", high=MAX_JOBS, value=args.jobs)
-    summary = run_set(args.set, args.output, args.jobs, args.quiet)
+    summary = run_set(args.set, args.output, args.jobs, args.quiet, debug=args.debug)
     if summary.failures or not args.quiet:   # a quiet run that built every kit says only its folder
         words = load_words(summary.language) if summary.language in available_languages() else None
         for line in summary_lines(summary, words):
             _tell(line)
+    for number, trace in summary.traces:   # --debug: each of kitgen's own faults, whole
+        _tell(f"kit {number}:\n{trace.rstrip()}")
     _emit(f"{summary.folder}\n")
     return summary.exit_status
 
@@ -464,6 +466,7 @@ def _main(argv) -> int:
         if not args.command:
             parser.print_help(sys.stderr)
             return EXIT_USER
+        args.debug = debug
         with rare_collections() if args.command in BUILDING else contextlib.nullcontext():
             status = COMMANDS[args.command](args)
         _flush_stdout()

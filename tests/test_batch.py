@@ -275,6 +275,36 @@ def test_a_folder_of_the_users_is_never_replaced(tmp_path, capsys):
     assert len(capsys.readouterr().err.strip().splitlines()) == 1
 
 
+def test_a_kits_internal_fault_is_one_line_or_its_traceback_with_debug(tmp_path, capsys, monkeypatch):
+    """A fault of kitgen's own in one kit: the others are built, the kit's
+    line names the program once, as every line of kitgen's does (the
+    English template's own words, PyYAML), and ``--debug`` adds the
+    kit's traceback (Python's own "Traceback (most recent call last)"),
+    as the line itself says to ask for it."""
+    import kitgen.batch.work as work
+
+    real = work._kit_pdf
+
+    def faulty(recipe):
+        if recipe.owner == "Uma":
+            raise ZeroDivisionError("float division by zero")
+        return real(recipe)
+
+    monkeypatch.setattr(work, "_kit_pdf", faulty)
+    (tmp_path / "two.yaml").write_text(yaml.safe_dump({"defaults": DEFAULTS, "kits": [{"owner": "Ivo"},
+                                                                                      {"owner": "Uma"}]}))
+    internal = _template("en")["errors"]["internal"].split("{kind}")[0]   # "kitgen: internal error: "
+    for debug in ([], ["--debug"]):
+        out = tmp_path / f"out{len(debug)}"
+        assert main(["batch", str(tmp_path / "two.yaml"), "-o", str(out), "--quiet", "--jobs", "1", *debug]) == 1
+        err = capsys.readouterr().err
+        line = next(x for x in err.splitlines() if "ZeroDivisionError" in x)
+        assert line.startswith("kitgen: ") and line.count("kitgen") == 1
+        assert internal.removeprefix("kitgen: ") in line
+        assert ("Traceback (most recent call last)" in err) == bool(debug)
+        assert sorted(x.name for x in (out / "kits").iterdir()) == ["001-Ivo.pdf"]
+
+
 @pytest.mark.parametrize("text, key", [
     ("defaults: {latitude: 10}\nkits: [{owner: A}]\nwallpaper: 1\n", "errors.set_unknown_key"),
     ("defaults: {latitude: 10}\n", "errors.set_no_kits"),

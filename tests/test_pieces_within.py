@@ -84,3 +84,28 @@ def test_an_arc_in_the_slot_less_the_name():
     expected = ring.intersection(_rect(box)).difference(_rect(words))
     assert len(got) == 2
     assert sum(_length(x) for x in got) == pytest.approx(expected.length, abs=0.01)
+
+
+def test_a_named_small_plate_has_no_line_of_no_length():
+    """A plate whose owner's slot an azimuth circle only grazes (64 deg 8'
+    N on A5, with its place's name, found by a class set's roster) drew the circle's piece in the
+    slot as an arc from an angle to the same angle, which the PDF writer
+    cannot draw (reportlab's bezierArc divides by the sine of half the
+    extent): every arc and segment of every part now has a length, and
+    the kit's PDF is written and read back (pypdf, an independent reader)."""
+    import io
+
+    from pypdf import PdfReader
+
+    from kitgen.kit import build_kit
+    from kitgen.recipe.load import parse_recipe_text
+    from kitgen.render.pdf import build_pdf
+
+    kit = build_kit(parse_recipe_text("latitude: 64 08 N\nplace: Nordvík Field Hut\nsheet: a5\nowner: Halla Þórsdóttir\n"
+                                     "epoch: 2027\n"))
+    for part in kit.parts:
+        for el in part.elements:
+            if el.shape in ("arc", "segment"):
+                assert _length(el) > 1e-6, (part.id, el.role, el.geom)
+    pages, data = build_pdf(kit)
+    assert len(PdfReader(io.BytesIO(data)).pages) == len(pages)

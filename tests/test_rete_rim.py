@@ -18,6 +18,7 @@ References:
 from __future__ import annotations
 
 import math
+import re
 
 import ephem
 import ephem.stars
@@ -97,7 +98,7 @@ def test_default_on_a4_near_the_equator_keeps_the_equator_readable():
     assert farther > rim_mm
     # the bright southern stars left off are named in the notes, with the value that brings them in
     (note,) = [n for n in kit.notes if n.key == "notes.stars_beyond_rim"]
-    value = note.values["value"].value
+    value = float(note.values["value"])
     for name in ("Canopus", "Achernar", "Acrux"):
         dec = ephem_dec_deg(name)  # PyEphem's place
         assert dec <= kit.sky.rim_deg + RIM_MARGIN_DEG  # off this rete ...
@@ -154,12 +155,28 @@ def test_notes_name_the_bright_stars_beyond_the_rim_and_the_key():
             assert dec <= -30.0 + RIM_MARGIN_DEG
     assert "Fomalhaut" in named
     # the value offered brings them all in
-    value = note.values["value"].value
+    value = float(note.values["value"])
     kit2 = kit_of(f"latitude: 30\nrete_limit_deg: {value:g}\n")
     stars = {e.values["name"] for e in kit2.part("rete").elements if e.role == "star"}
     assert not [n for n in kit2.notes if n.key == "notes.stars_beyond_rim"]
     assert named <= stars or len(stars) == 32  # the 32 brightest that fit
     assert "rete_limit_deg" in note.text(kit.words)
+
+
+@pytest.mark.parametrize("language", ["hi", "ar", "fr"])
+def test_the_notes_line_is_one_to_copy_into_the_recipe(language):
+    """The note quotes the recipe line that brings the stars in; in a
+    kit of the locale's own digits (Devanagari, Arabic-Indic) or a decimal
+    comma, the line is still as a recipe writes it, so that, copied into
+    the recipe, it is read (YAML, a number) and the note goes."""
+    text = f"latitude: 0\nlanguage: {language}\nnative_digits: true\n"
+    kit = kit_of(text)
+    (note,) = [n for n in kit.notes if n.key == "notes.stars_beyond_rim"]
+    line = re.search(r"rete_limit_deg: [^\s'\u2019\u201d\u00bb]+", note.text(kit.words)).group(0)
+    assert re.fullmatch(r"rete_limit_deg: -?[0-9]+(\.[0-9]+)?", line), line
+    again = kit_of(text + line + "\n")
+    assert again.sky.rim_deg == float(line.split(": ")[1])
+    assert not [n for n in again.notes if n.key == "notes.stars_beyond_rim"]
 
 
 def test_a_refused_star_names_the_key_that_lets_it_in():

@@ -62,6 +62,8 @@ class Summary:
     seconds: float
     peak_rss_kib: int
     language: str | None = None   # the set's language, to say the summary in
+    #: With ``debug``: (kit number, traceback) of each fault of kitgen's own.
+    traces: tuple[tuple[int, str], ...] = ()
 
     @property
     def exit_status(self) -> int:
@@ -79,11 +81,13 @@ def default_jobs() -> int:
         return os.cpu_count() or 1
 
 
-def run_set(set_path, out_dir, jobs: int | None = None, quiet: bool = False, stream=None) -> Summary:
+def run_set(set_path, out_dir, jobs: int | None = None, quiet: bool = False, stream=None,
+            debug: bool = False) -> Summary:
     """Build the set at ``set_path`` into the folder ``out_dir`` (made
     fresh), with ``jobs`` worker processes (default: the machine's
     cores), showing progress on ``stream`` (default stderr) unless
-    ``quiet``.  A fault of the set as a whole raises
+    ``quiet``; with ``debug``, a kit's internal fault comes back with its
+    traceback (:attr:`Summary.traces`).  A fault of the set as a whole raises
     :class:`~kitgen.errors.UserError` before anything is written; a kit
     that fails is in the summary and the manifest, and the others are
     built."""
@@ -96,10 +100,10 @@ def run_set(set_path, out_dir, jobs: int | None = None, quiet: bool = False, str
         buildable = [k for k in kit_set.kits if k.error is None]
         warm()   # the languages: as each kit first needs one, in whichever process builds it
         pools = _start_workers(stack, min(jobs or default_jobs(), len(buildable)))
-        return _run(kit_set, out_dir, pools, quiet, stream, started)
+        return _run(kit_set, out_dir, pools, quiet, stream, started, debug)
 
 
-def _run(kit_set, out_dir: Path, pools: list, quiet: bool, stream, started: float) -> Summary:
+def _run(kit_set, out_dir: Path, pools: list, quiet: bool, stream, started: float, debug: bool = False) -> Summary:
     """:func:`run_set` once the set is read: its kits built with the
     workers ``pools`` (none: in this process) into ``out_dir``."""
     speak = kit_set.language if kit_set.language in available_languages() else None
@@ -108,11 +112,11 @@ def _run(kit_set, out_dir: Path, pools: list, quiet: bool, stream, started: floa
     errors = {k.number: one_line(k.error.text(words)) for k in kit_set.kits if k.error is not None}
     stamps = SchoolStamps(k for k in kit_set.kits if k.error is None)
     stamp_lists = stamps.lists()   # drawn with each school's first kit, where its words are loaded
-    jobs_list = [KitJob(k.number, k.recipe, speak=speak, stamps=stamp_lists.get(k.number, ()))
+    jobs_list = [KitJob(k.number, k.recipe, speak=speak, stamps=stamp_lists.get(k.number, ()), debug=debug)
                  for k in kit_set.kits if k.error is None]
     jobs = max(1, min(len(pools) or 1, len(jobs_list) or 1))
     bar = progress(len(kit_set.kits), quiet, stream)
-    results, internal, peak = {}, False, 0
+    results, internal, peak, traces = {}, False, 0, []
     by_number = {k.number: k for k in kit_set.kits}
     try:
         with fresh_folder(out_dir) as tmp:
@@ -126,6 +130,8 @@ def _run(kit_set, out_dir: Path, pools: list, quiet: bool, stream, started: floa
                 if result.error:
                     errors[result.number] = result.error
                     internal = internal or result.internal
+                    if result.trace:
+                        traces.append((result.number, result.trace))
                 else:
                     write_file(tmp / KITS / names[kit.number - 1], result.pdf)
                     # the manifest's part
@@ -144,7 +150,7 @@ def _run(kit_set, out_dir: Path, pools: list, quiet: bool, stream, started: floa
         bar.close()
     failures = tuple(sorted(errors.items()))
     return Summary(out_dir, len(kit_set.kits), len(results), failures, internal, jobs,
-                   time.monotonic() - started, peak, speak)
+                   time.monotonic() - started, peak, speak, tuple(sorted(traces)))
 
 
 def _print_ready(printing, stamps, waiting: dict, next_number: int, by_number: dict, last: bool = False) -> int:

@@ -17,7 +17,9 @@ and draws a school's stamps with its first kit (:class:`KitJob` ``stamps``).
 
 from __future__ import annotations
 
+import re
 import sys
+import traceback
 from dataclasses import dataclass, field, replace
 from functools import lru_cache
 
@@ -53,6 +55,8 @@ class KitJob:
     #: of each of its kits in order, for the worker to draw
     #: (kitgen.batch.stamp.stamps_pdf).
     stamps: tuple = ()
+    #: ``--debug``: a fault of kitgen's own comes back with its traceback.
+    debug: bool = False
 
 
 @dataclass(frozen=True)
@@ -79,6 +83,8 @@ class KitResult:
     #: What the build thinned or left out to keep every scale legible, a
     #: line a note in the kit's language (as ``kitgen build`` says them).
     notes: tuple[str, ...] = ()
+    #: The traceback of an internal fault, with ``--debug`` (KitJob.debug).
+    trace: str = ""
 
 
 def warm() -> None:
@@ -122,7 +128,18 @@ def _built(job: KitJob) -> KitResult:
         return KitResult(job.number, error=one_line(exc.text(_speak(job))), peak_rss_kib=_peak_rss_kib())
     except Exception as exc:  # an internal fault of this kit: the others go on
         text = Message("errors.internal", kind=type(exc).__name__, detail=exc).text(_speak(job))
-        return KitResult(job.number, error=one_line(text), internal=True, peak_rss_kib=_peak_rss_kib())
+        return KitResult(job.number, error=one_line(without_program(text)), internal=True,
+                         peak_rss_kib=_peak_rss_kib(), trace=traceback.format_exc() if job.debug else "")
+
+
+def without_program(text: str) -> str:
+    """A message without the program's name it starts with ("kitgen: ",
+    "kitgen : " in French), to stand as a kit's reason in the line that
+    names the program already ("kitgen: kit 3 not built: ...")."""
+    return _PROGRAM.sub("", text, count=1)
+
+
+_PROGRAM = re.compile(r"^kitgen\s*:\s*")
 
 
 def _stamps(job: KitJob) -> bytes:

@@ -32,6 +32,10 @@ from ..kept import keep_last
 #: widths of the heaviest plate line at A4.  A line that no label cuts is
 #: kept whole, however short.
 MIN_PIECE_MM = 1.5
+#: A piece shorter than this (mm) is no line at all, wherever it ends: a
+#: circle that only grazes a box leaves, by rounding, a piece of no length
+#: (an arc from an angle to the same angle, which no renderer can draw).
+NO_PIECE_MM = 1e-6
 
 
 @dataclass(frozen=True)
@@ -716,7 +720,7 @@ def pieces_within(el, box: Box, boxes) -> list:
     :func:`break_element`.  A piece shorter than :data:`MIN_PIECE_MM` is
     dropped only where it ends at a box of ``boxes`` on both sides; one
     that reaches ``box``'s edge goes on outside it (drawn separately),
-    so it is no stub.  Polylines go by whole segments, as there: those
+    so it is no stub, unless it has no length (:data:`NO_PIECE_MM`).  Polylines go by whole segments, as there: those
     that meet ``box`` and no box of ``boxes``."""
     g = el.geom
     if not may_meet(el, box):
@@ -729,7 +733,7 @@ def pieces_within(el, box: Box, boxes) -> list:
         for a, b in _clip_to_range(circle_inside(c, r, box), lo, hi):
             cuts = [x for o in boxes if may_meet(el, o) for x in _clip_to_range(circle_inside(c, r, o), a, b)]
             for s, e in _complement(cuts, a, b):
-                if (e - s) * r >= MIN_PIECE_MM or s == a or e == b:
+                if (e - s) * r >= MIN_PIECE_MM or ((s == a or e == b) and (e - s) * r > NO_PIECE_MM):
                     out.append(model.arc(el.role, c, r, math.degrees(s), math.degrees(e), el.stroke, **el.values))
         return out
     if el.shape == "segment":
@@ -741,7 +745,8 @@ def pieces_within(el, box: Box, boxes) -> list:
         cuts = [t for t in (segment_inside(p, q, o) for o in boxes) if t is not None]
         length = math.dist(p, q)
         return [model.segment(el.role, _lerp(p, q, s), _lerp(p, q, e), el.stroke, **el.values)
-                for s, e in _complement(cuts, a, b) if (e - s) * length >= MIN_PIECE_MM or s == a or e == b]
+                for s, e in _complement(cuts, a, b)
+                if (e - s) * length >= MIN_PIECE_MM or ((s == a or e == b) and (e - s) * length > NO_PIECE_MM)]
     if el.shape == "polyline":
         pts = list(g["points"])
         if g["closed"]:

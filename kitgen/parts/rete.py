@@ -252,4 +252,5 @@ def rim_notes(plan) -> tuple[Message, ...]:
         value = rim_for_stars_deg([p.dec_deg for p in beyond], plan.hemisphere_sign)
     return (Message("notes.stars_beyond_rim", part=legibility.PART_NAMES["rete"],
                     stars=[plan.words.star_name(p.star.label) for p in beyond],
-                    rim=Number(round(plan.sky.rim_deg, 1)), value=Number(value)),)
+                    rim=Number(round(plan.sky.rim_deg, 1)),
+                    value=f"{value:g}"),)   # as a recipe writes it, to be copied into one: never native digits
