@@ -24,8 +24,15 @@ CONTRACTIONS = "contractions"
 
 def available_languages() -> list[str]:
     """Language codes that have a shipped template."""
+    return list(_shipped_codes())
+
+
+@lru_cache(maxsize=1)
+def _shipped_codes() -> tuple[str, ...]:
+    """The shipped templates' codes, the package's folder listed once a
+    process (a class set checks every row's language against them)."""
     folder = resources.files("kitgen.templates")
-    return sorted(p.name[:-5] for p in folder.iterdir() if p.name.endswith(".yaml"))
+    return tuple(sorted(p.name[:-5] for p in folder.iterdir() if p.name.endswith(".yaml")))
 
 
 #: YAML's safe loader in C (libyaml) where PyYAML was built with it, ten

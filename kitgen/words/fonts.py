@@ -156,8 +156,10 @@ def units_per_em(face: Face) -> int:
 
 def missing_chars(text: str, faces) -> set[str]:
     """Characters of ``text`` that no font of ``faces`` holds (format and
-    joining controls, which draw nothing, excepted)."""
-    return {ch for ch in text if not _invisible(ch) and not any(has_char(f, ch) for f in faces)}
+    joining controls, which draw nothing, excepted); each character
+    looked at once, however often the text has it."""
+    maps = [_metrics(f)[0] for f in faces]
+    return {ch for ch in set(text) if not any(ord(ch) in m for m in maps) and not _invisible(ch)}
 
 
 def _invisible(ch: str) -> bool:
