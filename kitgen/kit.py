@@ -32,6 +32,9 @@ from .words.templates import Words
 
 @dataclass(frozen=True)
 class Kit:
+    """A whole kit as geometry: the plan it was built from, its dimensions
+    and its parts in mm, with what the build has to tell the user."""
+
     plan: Plan
     dims: Dimensions
     parts: tuple[Part, ...]

@@ -76,6 +76,9 @@ class SetKit:
 
 @dataclass(frozen=True)
 class KitSet:
+    """A class set as read and checked: its kits in order, the language to
+    speak to the user in, and the files it reads."""
+
     path: Path
     kits: tuple[SetKit, ...]
     language: str | None   # the defaults' language, to speak to the user in

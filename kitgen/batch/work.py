@@ -43,6 +43,9 @@ except ImportError:   # Windows: no peak memory to tell
 
 @dataclass(frozen=True)
 class KitJob:
+    """One kit of a class set for a worker to build: its number in the set,
+    its recipe, and what else the worker needs for it."""
+
     number: int
     recipe: object          # kitgen.recipe.schema.Recipe
     #: Parts of the kit's school drawn by another worker (:func:`draw_for`),

@@ -49,6 +49,9 @@ TRIED_DIAMETERS_MM = (180.0, 240.0, 300.0, 360.0, 420.0, 480.0, 540.0, 600.0)
 
 @dataclass(frozen=True)
 class Errors:
+    """How many readings were compared, and their worst and median error
+    in minutes of time."""
+
     count: int
     worst_min: float
     median_min: float

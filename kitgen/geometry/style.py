@@ -97,6 +97,8 @@ HAIRLINE_MM = 0.0254
 
 @dataclass(frozen=True)
 class Stroke:
+    """How a line is drawn: its width, its dash pattern and its grey."""
+
     width_mm: float
     dash_mm: tuple[float, ...]  # empty: solid
     grey: float                 # 0 = black

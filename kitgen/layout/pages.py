@@ -135,6 +135,10 @@ class Mark:
 
 @dataclass(frozen=True)
 class Page:
+    """One printed page: its number among ``total``, its kind and sheet, the
+    parts placed on it (and, for instructions, its set lines), with the
+    marks, mirroring and print-scale correction it is drawn with."""
+
     number: int
     total: int
     kind: str  # "instructions", "card" or "film"

@@ -66,6 +66,9 @@ TALL_CAPTION_ROW = (0.175, 0.18)
 
 @dataclass(frozen=True)
 class ClockScale:
+    """The clock ring of the mater's back: its elements, and the radii that
+    what lies inside it must keep within."""
+
     elements: tuple[model.Element, ...]
     inner_radius_mm: float     # the ring's inner edge: what lies inside must keep within it
     tall_caption: bool = False   # the caption took the place line's room too

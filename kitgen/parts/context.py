@@ -15,6 +15,9 @@ from .legibility import Scales
 
 @dataclass(frozen=True)
 class PartContext:
+    """What a part's builder is given: the plan, the kit's dimensions, what
+    each scale carries at this size, and the plate being drawn."""
+
     plan: Plan
     dims: Dimensions
     scales: Scales                 # what each scale carries at this size (kitgen.parts.legibility)

@@ -40,6 +40,10 @@ MIN_NAMED_RING_MM = 5.7
 
 @dataclass(frozen=True)
 class Dimensions:
+    """The kit's proportions in mm and pt for one mater diameter: the radii
+    of the limb's rings, the plate and the rim, the text sizes and the
+    tick length (:func:`dimensions`)."""
+
     mater_radius_mm: float
     limb_inner_radius_mm: float    # inner edge of the hour ring
     hour_ring_outer_mm: float      # between the hour ring and the degree ring

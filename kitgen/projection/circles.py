@@ -31,6 +31,8 @@ _LINE_TOLERANCE = 2.5e-7
 
 @dataclass(frozen=True)
 class PlaneCircle:
+    """A circle of the drawing: its centre and radius in mm."""
+
     center_mm: tuple[float, float]
     radius_mm: float
 

@@ -58,6 +58,10 @@ class PlateSpec:
 
 @dataclass(frozen=True)
 class Recipe:
+    """A validated recipe: every key of the recipe file (kitgen.recipe.load),
+    checked and with its defaults, under its field name: what the plan is
+    resolved from (nothing below the plan reads it)."""
+
     latitude_deg: float
     epoch: int
     sheet: str | tuple[float, float] = "a4"  # a name, or (width_mm, height_mm) of a custom sheet

@@ -18,6 +18,8 @@ from .sun import calendar_longitudes_deg
 
 @dataclass(frozen=True)
 class PlacedStar:
+    """A catalogue star at its mean place of the kit's epoch (precessed)."""
+
     star: Star
     ra_deg: float   # mean place at the epoch
     dec_deg: float
@@ -25,6 +27,9 @@ class PlacedStar:
 
 @dataclass(frozen=True)
 class SkyForKit:
+    """The sky a kit draws for its epoch: the obliquity, the Sun's place on
+    each calendar date, the stars at their places, and the rim."""
+
     epoch: int
     obliquity_rad: float
     calendar: tuple[tuple[int, int, float], ...]  # (month, day, sun longitude deg at the site's noon)

@@ -50,6 +50,10 @@ STAR_MIN_HOUR_ANGLE_DEG = 30.0
 
 @dataclass(frozen=True)
 class SunExample:
+    """The instructions' worked example by the Sun: a date, the altitude
+    measured, the solar time the instrument reads and, with the ring's
+    correction, the clock time."""
+
     month: int
     day: int
     sun_longitude_deg: float     # as the calendar gives it
@@ -61,6 +65,10 @@ class SunExample:
 
 @dataclass(frozen=True)
 class StarExample:
+    """The instructions' worked example by a star: a night, the star and
+    its measured altitude east or west, the Sun's place that night, and
+    the solar and clock times the instrument gives."""
+
     month: int
     day: int
     star_index: int              # which of the sky's placed stars
@@ -74,6 +82,8 @@ class StarExample:
 
 @dataclass(frozen=True)
 class WorkedExamples:
+    """The instructions' two worked examples, each None where none suits."""
+
     sun: SunExample | None       # None where the Sun never stands right (polar night all year)
     star: StarExample | None     # None where no night or no star suits
 

@@ -32,6 +32,9 @@ FIT_TOLERANCE = 1e-9
 
 @dataclass(frozen=True)
 class Fitted:
+    """A label fitted to its room: its lines, its size, and which step of
+    the fitting rule made it fit."""
+
     lines: tuple[str, ...]
     size_pt: float
     step: int            # which step of the rule fitted (1-5)

@@ -60,6 +60,9 @@ class Glyph(NamedTuple):
 
 @dataclass(frozen=True)
 class Run:
+    """A stretch of a line in one font and one direction, shaped to glyphs
+    (HarfBuzz) where its script needs it, else drawn as plain text."""
+
     face: Face
     text: str            # logical order
     rtl: bool
@@ -70,6 +73,9 @@ class Run:
 
 @dataclass(frozen=True)
 class Line:
+    """One line of text shaped for drawing: its runs in visual order, its
+    width and its ink's extent, in em."""
+
     text: str                 # logical order
     runs: tuple[Run, ...]     # visual order, left to right
     width_em: float
