@@ -147,21 +147,39 @@ def _geonames(name: str, country: str) -> dict:
     return max((t for t in towns if t["name"] == name and t["countrycode"] == country), key=lambda t: t["population"])
 
 
-@pytest.mark.parametrize("language", ["en", "hi"])
-def test_a_looked_up_towns_kit_names_the_clock_by_the_town(language):
-    """New Delhi keeps Asia/Kolkata (GeoNames), whose CLDR city is Kolkata
-    (Babel): a kit looked up for New Delhi names its clock by New Delhi,
-    on the back's caption and in the steps, and never by Kolkata."""
-    town = _geonames("New Delhi", "IN")
-    assert town["timezone"] == "Asia/Kolkata"
-    city = get_timezone_location("Asia/Kolkata", locale=language, return_city=True)
-    kit = _kit(f"place: New Delhi, IN\nlanguage: {language}\n")
+@pytest.mark.parametrize("query, name, country, language", [
+    ("New Delhi, IN", "New Delhi", "IN", "en"),
+    ("Θεσσαλονίκη, GR", "Thessaloníki", "GR", "el"),   # the town's name as written, in the kit's script
+])
+def test_a_looked_up_towns_kit_names_the_clock_by_the_town(query, name, country, language):
+    """New Delhi keeps Asia/Kolkata and Thessaloniki Europe/Athens
+    (GeoNames), whose CLDR cities are Kolkata and Athens (Babel): a kit
+    looked up for the town names its clock by the town as the recipe
+    writes it, on the back's caption and in the steps, never by the
+    zone's city."""
+    town = _geonames(name, country)
+    written = query.split(",")[0]
+    city = get_timezone_location(town["timezone"], locale=language, return_city=True)
+    assert city != written
+    kit = _kit(f"place: {query}\nlanguage: {language}\n")
     assert kit.plan.site.timezone == town["timezone"]
     caption = " ".join(e.geom["text"] for e in kit.part("mater_back").elements if e.role == "clock_caption")
     text = _story_text(kit)
-    assert kit.words("almanac.clock_zone", zone="New Delhi") in text
-    assert "New Delhi" in caption or not caption   # a caption too long for its ring is left out whole
+    assert kit.words("almanac.clock_zone", zone=written) in text
+    assert written in caption or not caption   # a caption too long for its ring is left out whole
     assert city not in caption and city not in text
+
+
+def test_a_town_in_another_script_leaves_the_clock_to_the_zones_city():
+    """A Hindi kit for "New Delhi" (Latin letters; Unicode names its
+    letters LATIN) names its clock by CLDR's Hindi name for the zone's city
+    (Babel), in Devanagari like the sentences around it, not by a Latin
+    name inside them."""
+    city = get_timezone_location("Asia/Kolkata", locale="hi", return_city=True)
+    kit = _kit("place: New Delhi, IN\nlanguage: hi\n")
+    assert kit.words("almanac.clock_zone", zone=city) in _story_text(kit)
+    caption = " ".join(e.geom["text"] for e in kit.part("mater_back").elements if e.role == "clock_caption")
+    assert city in caption and "New Delhi" not in caption
 
 
 def test_a_town_given_another_zone_names_the_clock_by_the_zone():

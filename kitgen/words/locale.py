@@ -128,16 +128,31 @@ def format_date(year: int, month: int, day: int, code: str, native_digits: bool 
     return text
 
 
+#: The first word of the Unicode names of each script's letters ("LATIN
+#: SMALL LETTER A", "DEVANAGARI LETTER KA").
+SCRIPT_NAMES = {"Latn": "LATIN", "Grek": "GREEK", "Cyrl": "CYRILLIC", "Arab": "ARABIC", "Deva": "DEVANAGARI"}
+
+
+def in_script(text: str, code: str) -> bool:
+    """Whether every letter of ``text`` belongs to the script language
+    ``code`` is written in (its ISO 15924 code, :func:`script`, and the
+    letters' Unicode character names); a text without letters is."""
+    want = SCRIPT_NAMES.get(script(code))
+    return want is not None and all(unicodedata.name(ch, "").startswith(want + " ") for ch in text if ch.isalpha())
+
+
 def zone_place(timezone: str, code: str, town: str = "") -> str:
     """The words for an IANA zone on a kit in language ``code``: ``town``,
     where the kit is for a looked-up town that keeps the zone (a Delhi
-    kit's clock is Delhi's, where the zone's city is Kolkata); else the
+    kit's clock is Delhi's, where the zone's city is Kolkata) and its name
+    is written in the language's script (:func:`in_script`: a Hindi kit's
+    sentences take no Latin name the zone's city can replace); else the
     zone's exemplar city in that language (the Unicode CLDR through Babel:
     ``London`` for Europe/London, ``Londres`` in French), as pupils know
     their clock by a city and never by the database's name; for a zone of
     no city (``UTC``, ``Etc/GMT-3``), its offset from UT in January,
     ``UTC+3``."""
-    if town:
+    if town and in_script(town, code):
         return town
     if "/" in timezone and not timezone.startswith("Etc/"):
         try:
