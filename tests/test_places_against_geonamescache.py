@@ -57,6 +57,17 @@ def test_names_in_other_scripts_and_without_accents():
     assert _same(resolve("東京"), tokyo)
 
 
+def test_a_town_is_itself_beside_a_larger_one_of_its_name():
+    # GeoNames records New Delhi, and Delhi, eleven times as large, with
+    # "New Delhi" among its alternate names, 3.4 km apart in one zone: the
+    # two are one place for a kit, and the town asked for is New Delhi's
+    # own record (the latitude the kit prints is New Delhi's).
+    new_delhi, delhi = _record("New Delhi", "IN"), _record("Delhi", "IN")
+    assert "New Delhi" in delhi["alternatenames"] and delhi["population"] > new_delhi["population"]
+    assert _same(resolve("New Delhi, IN"), new_delhi)
+    assert _same(resolve("Delhi, IN"), delhi)
+
+
 def test_ambiguous_name_lists_the_largest_and_says_how_to_choose():
     own = sorted((r for r in records() if r["name"] == "Lisbon"), key=lambda r: -r["population"])
     assert len(own) > 1

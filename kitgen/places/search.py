@@ -269,7 +269,10 @@ def _resolve(name: str, suggest: bool) -> Place:
         raise PlaceError("errors.place_unknown", name=shown(text), hint=hint)
     rows = _candidates(index, rows, q.name)
     if len(rows) == 1 or _one_place(index, rows):
-        return _place(index, int(rows[0]))
+        # One place for a kit: the one of that very name where there is
+        # one (New Delhi, not the larger Delhi that also bears the name).
+        own = [r for r in rows if index.is_main_name(int(r), q.name)]
+        return _place(index, int(own[0] if own else rows[0]))
     places = [_place(index, int(r)) for r in rows[:MAX_CANDIDATES]]
     raise PlaceError("errors.place_ambiguous", name=shown(text), count=len(rows),
                      candidates=[candidate(p) for p in places], hint=_how_to_choose(places))
