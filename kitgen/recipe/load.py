@@ -358,7 +358,8 @@ def _check_drawable(values: dict, source: str, lines: dict) -> None:
     for name, text in texts.items():
         if not text:
             continue
-        lost = set().union(*(fonts.missing_chars(text, fonts.stack(script, style)) for style in fonts.STYLES))
+        lost = set().union(*(fonts.missing_chars(text, fonts.stack(script, style) + fonts.fallbacks(fonts.stack(script, style)))
+                             for style in fonts.STYLES))
         if lost:
             where = at_line(source, lines[name]) if name in lines else source
             chars = [f"U+{ord(c):04X}" for c in sorted(lost)[:5]]

@@ -59,6 +59,16 @@ def stack(script: str, style: str) -> tuple[Face, ...]:
     return (own[style], DEJAVU[style]) if own else (DEJAVU[style],)
 
 
+@lru_cache(maxsize=None)
+def fallbacks(stack_: tuple[Face, ...]) -> tuple[Face, ...]:
+    """The other scripts' fonts, of the stack's style, for a character
+    that no font of ``stack_`` holds: a pupil's name in Devanagari on an
+    English kit, or in Arabic letters that DejaVu lacks (#12).  Only such
+    characters go to them, so a text the stack draws is drawn as before."""
+    style = next(s for s, face in DEJAVU.items() if face in stack_)
+    return tuple(faces[style] for faces in SCRIPT_FACES.values() if faces[style] not in stack_)
+
+
 def font_path(face: Face):
     """A context manager giving the font file's path (importlib.resources)."""
     return resources.as_file(resources.files("kitgen").joinpath("fonts", face.filename))

@@ -348,8 +348,11 @@ def _faces_for(text: str, stack: tuple[Face, ...]) -> list[Face]:
         if found is None:
             cat = unicodedata.category(ch)
             holders = tuple(f for f in stack if fonts.has_char(f, ch))
+            # another script's font for a character none of the stack holds
+            others = () if holders else tuple(f for f in fonts.fallbacks(stack) if fonts.has_char(f, ch))
             stays = cat[0] in "MZPS" or cat in ("Cf", "Nd")
-            found = table[ch] = (holders if stays else (), holders[0] if holders else stack[-1])
+            first = holders[0] if holders else others[0] if others else stack[-1]
+            found = table[ch] = (holders + others if stays else (), first)
             if holders and holders[0] == stack[0]:
                 _HELD_BY_FIRST[stack] = _HELD_BY_FIRST.get(stack, frozenset()) | {ch}
         holders, face = found
