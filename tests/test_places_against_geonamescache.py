@@ -68,6 +68,23 @@ def test_a_town_is_itself_beside_a_larger_one_of_its_name():
     assert _same(resolve("Delhi, IN"), delhi)
 
 
+def test_a_name_is_not_a_near_equal_city_that_bears_it_as_well():
+    # GeoNames gives Bordeaux "porto" among its alternate names, and it is
+    # about as large as Porto: "Porto" lists Portugal's Porto first, and
+    # suggests it, never Bordeaux; Köln, a hundred times the largest place
+    # called Cologne, is still among what "Cologne" may mean.
+    porto, bordeaux = _record("Porto", "PT"), _record("Bordeaux", "FR")
+    assert "porto" in bordeaux["alternatenames"] and bordeaux["population"] < 2 * porto["population"]
+    with pytest.raises(PlaceError) as info:
+        resolve("Porto")
+    text = info.value.text()
+    assert "Bordeaux" not in text and "'Porto, PT'" in text
+    assert _same(resolve("Porto, PT"), porto)
+    with pytest.raises(PlaceError) as info:
+        resolve("Cologne")
+    assert "'Köln, DE'" in info.value.text()
+
+
 def test_ambiguous_name_lists_the_largest_and_says_how_to_choose():
     own = sorted((r for r in records() if r["name"] == "Lisbon"), key=lambda r: -r["population"])
     assert len(own) > 1

@@ -33,7 +33,8 @@ SAME_PLACE_DEG = 0.1
 #: matches before those matched by an alternate name.
 OWN_NAME_SCAN = 200
 #: How many times larger than the next a place known by a name only as an
-#: alternate must be to be the one meant.
+#: alternate must be to be the one meant, and than the largest place of
+#: that very name to be among those it may mean.
 ALTERNATE_DOMINANCE = 100
 #: Least similarity (0-100, rapidfuzz's ratio) of a suggested spelling.
 SUGGESTION_CUTOFF = 75.0
@@ -193,10 +194,12 @@ def _one_place(index: PlaceIndex, rows: np.ndarray) -> bool:
 
 def _candidates(index: PlaceIndex, rows: np.ndarray, folded: str) -> np.ndarray:
     """The places a name may mean: those whose own name it is, and those
-    that bear it as an alternate name only when they are larger than all
-    of the first (Cologne is Köln as well as a village of that name;
-    a hamlet once called São Paulo is not what "São Paulo" means).  Most
-    populous first."""
+    that bear it as an alternate name only when they are
+    :data:`ALTERNATE_DOMINANCE` times the largest of the first (Cologne is
+    Köln as well as a village of that name; a hamlet once called São Paulo
+    is not what "São Paulo" means, nor is Bordeaux, which GeoNames also
+    calls Porto and which is about as large as Porto, what "Porto"
+    means).  Most populous first."""
     own = [r for r in rows if index.is_main_name(int(r), folded)]
     if not own:
         # Alternate names only: the largest place is meant when it is
@@ -205,8 +208,8 @@ def _candidates(index: PlaceIndex, rows: np.ndarray, folded: str) -> np.ndarray:
         if len(rows) > 1 and index.population[rows[0]] >= ALTERNATE_DOMINANCE * index.population[rows[1]]:
             return rows[:1]
         return rows
-    largest = index.population[own[0]]
-    return np.array([r for r in rows if r in own or index.population[r] > largest], dtype=rows.dtype)
+    least = ALTERNATE_DOMINANCE * index.population[own[0]]
+    return np.array([r for r in rows if r in own or index.population[r] >= least], dtype=rows.dtype)
 
 
 def candidate(place: Place) -> Message:
