@@ -88,3 +88,13 @@ def test_a_name_no_shipped_font_draws_is_refused_in_one_line():
     with pytest.raises(UserError) as caught:
         parse_recipe_text(RECIPE % ("en", han))
     assert "U+738B" in caught.value.text() and "\n" not in caught.value.text()
+
+
+def test_a_plates_place_no_shipped_font_draws_is_refused_in_one_line():
+    """The places named on the plates of a ``plates:`` list are checked
+    like the kit's own place (they had reached the drawing and failed
+    there): a Han name is refused in one line naming the key."""
+    with pytest.raises(UserError) as caught:
+        parse_recipe_text("plates:\n- {latitude: 45, place: 李华}\n- 50\nepoch: 2027\n")
+    text = caught.value.text()
+    assert "'plates'" in text and "U+674E" in text and "\n" not in text

@@ -110,7 +110,11 @@ def test_default_on_a4_near_the_equator_keeps_the_equator_readable():
 @pytest.mark.parametrize("text,limit", [("latitude: 30\nrete_limit_deg: -50\n", -50.0),
                                         ("latitude: -20\nrete_limit_deg: 45\n", 45.0),
                                         ("latitude: -20\nrete_limit_deg: -45\n", 45.0),  # the sign may be left out
-                                        ("latitude: 52.2\n", None)])
+                                        ("latitude: 52.2\n", None),
+                                        # a pole's plate, the farthest rim, a small duplex kit: its
+                                        # labels had met a line width never looked up (#12)
+                                        ("latitude: 90\nrete_limit_deg: -80\ndiameter_mm: 120\n"
+                                         "duplex: long_edge\n", -80.0)])
 def test_rim_of_rete_and_plate_follow_snyder(text, limit):
     kit = kit_of(text)
     sign = kit.plan.hemisphere_sign

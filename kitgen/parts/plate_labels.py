@@ -300,10 +300,19 @@ class Room:
         grows = got[4]
         if (clear_mm, widths) not in grows:
             n = len(self._arrays.elements)
-            grow = clear_mm + self._arrays.half_widths(self._half_width) if widths else np.full(n, clear_mm)
+            grow = clear_mm + self._arrays.half_widths(self._half_widths()) if widths else np.full(n, clear_mm)
             grows[(clear_mm, widths)] = (grow[got[1]["owner"]], grow[got[2]["run_owner"]])
         return got[1:4] + grows[(clear_mm, widths)]
 
+
+    def _half_widths(self) -> dict[str, float]:
+        """Half the width of each stroke of the arrays' lines: those of the
+        lists tested so far, and of strokes only entered (:meth:`enter`),
+        such as a polar plate's fine azimuths entered before any list of
+        them is tested."""
+        half = self._half_width
+        missing = {el.stroke for el in self._arrays.elements} - half.keys()
+        return {**half, **{stroke: stroke_width_mm(stroke, self.dims) / 2 for stroke in missing}} if missing else half
 
     def free(self, box: Box, protected=(), near=(), clear_mm: float = CLEAR_MM) -> bool:
         """Inside the drawing, clear of the labels, ``clear_mm`` from the

@@ -345,10 +345,12 @@ _PRINTED_KEYS = ("title", "place", "owner")
 
 
 def _check_drawable(values: dict, source: str, lines: dict) -> None:
-    """Refuse printed text (title, place) holding a character that no
-    shipped font of the kit's language draws, in every style it is set in:
-    it would print as an empty box, or not at all."""
+    """Refuse printed text (title, place, owner, the plates' places)
+    holding a character that no shipped font draws (the kit's language's,
+    or another script's, :func:`kitgen.words.fonts.fallbacks`), in every
+    style it is set in: it would print as an empty box, or not at all."""
     texts = {k: values.get(KEYS_BY_NAME[k].attr) for k in _PRINTED_KEYS if k in KEYS_BY_NAME}
+    texts["plates"] = "".join(getattr(p, "place", "") for p in values.get("plates", ()))
     if not any(texts.values()):
         return
     code = values.get("language", "en")
