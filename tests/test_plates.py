@@ -145,6 +145,9 @@ def test_a_kit_of_plates_names_each_plate_apart():
     ("plates: [40]\nlatitude: 40\n", "plates_and_latitude"),
     ("plates: [1, 2, 3, 4, 5, 6, 7, 8, 9]\n", "plates_too_many"),
     ("plates: []\n", "plates_not_list"),
+    # a plate's place said as of the one-plate form's (the entry itself is right)
+    ("plates: [{latitude: 45, place: \"A\\tB\"}, 50]\n", "control_character"),
+    ("plates: [{latitude: 45, place: " + "x" * 130 + "}, 50]\n", "text_too_long"),
 ])
 def test_bad_plates_are_refused_in_one_line_and_nothing_is_written(tmp_path, capsys, text, key):
     from kitgen.template_files import shipped_table

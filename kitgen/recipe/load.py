@@ -515,8 +515,13 @@ def _check_plates(value, label: Message, where) -> tuple[PlateSpec, ...]:
             if unknown or "latitude" not in entry:
                 raise UserError("errors.plate_entry", label=label, number=k)
             place = entry.get("place", "")
-            if not isinstance(place, str) or len(place) > MAX_TEXT_CHARS or _text_problem(place):
+            if not isinstance(place, str):
                 raise UserError("errors.plate_entry", label=label, number=k)
+            if len(place) > MAX_TEXT_CHARS:   # said as of the one-plate form's place
+                raise UserError("errors.text_too_long", label=label, length=len(place), limit=MAX_TEXT_CHARS)
+            bad = _text_problem(place)
+            if bad:
+                raise UserError("errors.control_character", label=label, code=f"{ord(bad):04X}")
             entry = entry["latitude"]
         try:
             latitude = parse_latitude(entry)
