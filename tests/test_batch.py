@@ -340,6 +340,11 @@ def test_file_names_keep_the_letters_and_are_safe():
     assert kit_stem("Ana/Beltrán: ..\\x?") == "Ana-Beltrán-..-x"
     assert kit_stem("../..") == ""
     assert kit_stem("Оскар\u202eЛ") == "Оскар-Л"
+    # a name longer than the stem's 100 bytes is cut at the end of a word
+    long = "Maximilian Alexander Konstantin von Thornwick-Ridge " * 3
+    stem = kit_stem(long)
+    assert len(stem.encode("utf-8")) <= 100 and long.replace(" ", "-").startswith(stem + "-")
+    assert kit_stem("Святослав Кондратьевич " * 6).endswith("Кондратьевич")
     kits = [SetKit(n, Message("errors.none"), tree, 1) for n, tree in
             enumerate([{"owner": "CON"}, {"title": "ab"}, {"owner": "AB"}, {}], start=1)]
     assert kit_file_names(kits) == ["001-CON.pdf", "002-ab.pdf", "003-AB.pdf", "004.pdf"]
