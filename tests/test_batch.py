@@ -275,6 +275,45 @@ def test_a_folder_of_the_users_is_never_replaced(tmp_path, capsys):
     assert len(capsys.readouterr().err.strip().splitlines()) == 1
 
 
+def test_a_set_whose_every_kit_is_refused_says_so_kit_by_kit(tmp_path, capsys):
+    """Every kit refused (here its copies): each kit's line and the
+    summary, exit status 2, the manifest's rows saying why; never an
+    internal fault for want of a kit to build (a malformed-sets sweep)."""
+    (tmp_path / "s.yaml").write_text(yaml.safe_dump({"defaults": DEFAULTS, "kits": [{"owner": "A", "copies": 0}]}))
+    assert main(["batch", str(tmp_path / "s.yaml"), "-o", str(tmp_path / "out"), "--quiet", "--jobs", "1"]) == 2
+    err = capsys.readouterr().err.strip().splitlines()
+    assert len(err) == 2 and "copies" in err[0] and "internal" not in " ".join(err)
+    with open(tmp_path / "out" / "manifest.csv", newline="", encoding="utf-8-sig") as fh:
+        (row,) = list(csv.DictReader(fh))
+    assert row["status"] != "ok" and "copies" in row["status"]
+
+
+@pytest.mark.parametrize("out_name, roster", [("c" * 300, None), ("out", "a\0b.csv")])
+def test_impossible_names_are_one_line_and_write_nothing(tmp_path, capsys, out_name, roster):
+    """An output folder's name longer than a file system takes (255 bytes,
+    POSIX NAME_MAX on Linux) and a roster name with a NUL (no file system
+    has one) are refused in one line, before anything is written."""
+    tree = {"defaults": DEFAULTS, **({"roster": roster} if roster else {"kits": [{"owner": "A"}]})}
+    (tmp_path / "s.yaml").write_text(yaml.safe_dump(tree))
+    assert main(["batch", str(tmp_path / "s.yaml"), "-o", str(tmp_path / out_name), "--jobs", "1"]) == 2
+    err = capsys.readouterr().err.strip().splitlines()
+    assert len(err) == 1 and err[0].startswith("kitgen: error: ")
+    assert sorted(p.name for p in tmp_path.iterdir()) == ["s.yaml"]
+
+
+def test_an_output_folder_named_by_a_link_is_made_where_it_points(tmp_path):
+    """``-o`` names a symbolic link to a folder: the set is made fresh in
+    the folder it points to, the link stays, and nothing is left beside
+    them, run after run."""
+    (tmp_path / "s.yaml").write_text(yaml.safe_dump({"defaults": DEFAULTS, "kits": [{"owner": "Ivo"}]}))
+    (tmp_path / "real").mkdir()
+    (tmp_path / "out").symlink_to(tmp_path / "real")
+    for _ in range(2):
+        assert main(["batch", str(tmp_path / "s.yaml"), "-o", str(tmp_path / "out"), "--quiet", "--jobs", "1"]) == 0
+    assert (tmp_path / "out").is_symlink() and (tmp_path / "out" / "kits" / "001-Ivo.pdf").is_file()
+    assert sorted(p.name for p in tmp_path.iterdir()) == ["out", "real", "s.yaml"]
+
+
 def test_a_kits_internal_fault_is_one_line_or_its_traceback_with_debug(tmp_path, capsys, monkeypatch):
     """A fault of kitgen's own in one kit: the others are built, the kit's
     line names the program once, as every line of kitgen's does (the

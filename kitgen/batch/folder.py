@@ -34,11 +34,24 @@ MANIFEST = "manifest.csv"
 _OWN_NAMES = {KITS, MANIFEST}
 
 
+def target_folder(folder) -> Path:
+    """The folder ``-o`` names: itself, or the folder it links to where it
+    is a symbolic link (made fresh there, the link kept); a name longer
+    than the file system takes is refused in one line."""
+    folder = Path(folder)
+    outfile.check_name_length(folder)
+    try:
+        return Path(os.path.realpath(folder)) if folder.is_symlink() else folder
+    except OSError as exc:
+        raise write_error(folder, exc) from None
+
+
 def check_output_folder(folder: Path, inputs=()) -> None:
     """Refuse, before any work, a target that is a file, that holds one of
     ``inputs`` (the set file, the roster) or the current folder, or that
     holds anything a set does not write."""
     folder = Path(folder)
+    outfile.check_name_length(folder)
     if folder.exists() and not folder.is_dir():
         raise UserError("errors.batch_folder_is_file", path=folder)
     if not folder.exists():

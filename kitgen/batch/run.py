@@ -32,7 +32,7 @@ from ..collect import collect_rarely, rare_collections
 from ..errors import EXIT_INTERNAL, EXIT_OK, EXIT_USER, Message, one_line
 from ..kit import school_of
 from ..words.templates import available_languages, load_words
-from .folder import KITS, MANIFEST, check_output_folder, fresh_folder, write_file
+from .folder import KITS, MANIFEST, check_output_folder, fresh_folder, target_folder, write_file
 from .manifest import manifest_csv, manifest_row
 from .naming import kit_file_names
 from .printfiles import PrintedKit, PrintFiles, sheet_key
@@ -92,7 +92,7 @@ def run_set(set_path, out_dir, jobs: int | None = None, quiet: bool = False, str
     that fails is in the summary and the manifest, and the others are
     built."""
     started = time.monotonic()
-    set_path, out_dir = Path(set_path), Path(out_dir)
+    set_path, out_dir = Path(set_path), target_folder(out_dir)
     with ExitStack() as stack:
         stack.enter_context(rare_collections())   # the whole run, main process and workers
         kit_set = load_set(set_path)
@@ -188,6 +188,8 @@ def _build_all(jobs_list, pools: list):
     in this process without ``pools``, school by school
     (:func:`kitgen.batch.shares.worker_shares`), else as the workers come
     free (:func:`kitgen.batch.dispatch.dispatch`)."""
+    if not jobs_list:   # every kit of the set refused: nothing to build
+        return
     if pools:
         yield from dispatch(jobs_list, pools)
         for pool in pools:   # every kit is in: the workers end while the print files are written

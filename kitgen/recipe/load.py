@@ -84,6 +84,8 @@ def read_text_file(path, max_bytes: int = MAX_RECIPE_BYTES, what: Message = RECI
         raise UserError("errors.read_permission", path=p) from None
     except OSError as exc:
         raise UserError("errors.cannot_read", path=p, reason=exc.strerror or exc) from None
+    except ValueError:   # a NUL in the name: no file system has such a file
+        raise UserError("errors.no_such_file", path=shown(str(p)), name=shown(p.name), what=what) from None
     if len(data) > max_bytes:
         raise UserError("errors.file_too_large", path=p, kib=max_bytes // 1024, what=what)
     encoding = _other_encoding(data)
