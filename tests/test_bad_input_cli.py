@@ -228,7 +228,7 @@ def test_empty_file(tmp_path, capsys, text):
 
 
 def test_binary_file(tmp_path, capsys):
-    build_fails(tmp_path, capsys, b"\x89PNG\r\n\x1a\n\x00\x00\x00\rIHDR", "not a text file", "UTF-8 YAML")
+    build_fails(tmp_path, capsys, b"\x89PNG\r\n\x1a\n\x00\x00\x00\rIHDR", "not a text file", "UTF-8 text")
 
 
 def test_not_utf8(tmp_path, capsys):
