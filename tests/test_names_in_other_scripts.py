@@ -18,6 +18,7 @@ References:
 from __future__ import annotations
 
 import io
+from functools import lru_cache
 from importlib import resources
 
 import pytest
@@ -37,6 +38,7 @@ NAME = "अनन्या शर्मा"   # an invented pupil's name, in Dev
 RECIPE = "latitude: 52.2\nepoch: 2027\ndiameter_mm: 80\nstars: {brightest: 6}\nlanguage: %s\nowner: %s\n"
 
 
+@lru_cache(maxsize=None)
 def _cmap(filename: str) -> dict:
     path = resources.files("kitgen").joinpath("fonts", filename)
     return TTFont(io.BytesIO(path.read_bytes()), lazy=True).getBestCmap()

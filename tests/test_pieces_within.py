@@ -101,8 +101,8 @@ def test_a_named_small_plate_has_no_line_of_no_length():
     from kitgen.recipe.load import parse_recipe_text
     from kitgen.render.pdf import build_pdf
 
-    kit = build_kit(parse_recipe_text("latitude: 64 08 N\nplace: Nordvík Field Hut\nsheet: a5\nowner: Halla Þórsdóttir\n"
-                                     "epoch: 2027\n"))
+    kit = build_kit(parse_recipe_text("latitude: 64 08 N\nplace: Nordvík Field Hut\nsheet: a5\n"
+                                      "owner: Halla Þórsdóttir\nepoch: 2027\n"))
     for part in kit.parts:
         for el in part.elements:
             if el.shape in ("arc", "segment"):

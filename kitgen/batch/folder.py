@@ -47,11 +47,11 @@ def target_folder(folder) -> Path:
 
 
 def check_output_folder(folder: Path, inputs=()) -> None:
-    """Refuse, before any work, a target that is a file, that holds one of
+    """Refuse, before any work, a target (named as :func:`target_folder`
+    gives it, its name's length checked there) that is a file, that holds one of
     ``inputs`` (the set file, the roster) or the current folder, or that
     holds anything a set does not write."""
     folder = Path(folder)
-    outfile.check_name_length(folder)
     if folder.exists() and not folder.is_dir():
         raise UserError("errors.batch_folder_is_file", path=folder)
     if not folder.exists():

@@ -5,7 +5,8 @@ script, so that a teacher finds a pupil's kit by the pupil's name.  What
 could harm a file system or a reader is replaced by ``-``: path separators,
 the characters Windows reserves (``<>:"/\\|?*``), control and format
 characters, and spaces; a leading dot and trailing dots or spaces are
-dropped; a name too long is cut at the end of a word where it can be.  The kit's number leads every name, so no name is ever a device
+dropped; a name too long is cut at the end of a word where it can be.
+The kit's number leads every name, so no name is ever a device
 name that Windows reserves (CON, NUL, COM1 ...), and two kits never share
 a name; names that differ only in case (which a case-insensitive disk
 would merge) are still told apart, in kit order, by a ``-2``, ``-3`` ...
@@ -35,8 +36,9 @@ def kit_stem(text: str) -> str:
     whole = stem = re.sub(r"-+", "-", "".join(out)).strip("-. ")
     while len(stem.encode("utf-8")) > MAX_STEM_BYTES:
         stem = stem[:-1]
-    if len(stem) < len(whole) and whole[len(stem)] != "-" and stem.rfind("-") >= len(stem) // 2:
-        stem = stem[:stem.rfind("-")]   # cut at the end of a word, not inside one (or a syllable)
+    word_end = stem.rfind("-")
+    if len(stem) < len(whole) and whole[len(stem)] != "-" and word_end >= len(stem) // 2:
+        stem = stem[:word_end]   # cut at the end of a word, not inside one (or a syllable)
     return stem.rstrip("-. ")
 
 

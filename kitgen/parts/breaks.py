@@ -720,8 +720,9 @@ def pieces_within(el, box: Box, boxes) -> list:
     :func:`break_element`.  A piece shorter than :data:`MIN_PIECE_MM` is
     dropped only where it ends at a box of ``boxes`` on both sides; one
     that reaches ``box``'s edge goes on outside it (drawn separately),
-    so it is no stub, unless it has no length (:data:`NO_PIECE_MM`).  Polylines go by whole segments, as there: those
-    that meet ``box`` and no box of ``boxes``."""
+    so it is no stub, unless it has no length (:data:`NO_PIECE_MM`).
+    Polylines go by whole segments, as there: those that meet ``box``
+    and no box of ``boxes``."""
     g = el.geom
     if not may_meet(el, box):
         return []

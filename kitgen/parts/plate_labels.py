@@ -304,7 +304,6 @@ class Room:
             grows[(clear_mm, widths)] = (grow[got[1]["owner"]], grow[got[2]["run_owner"]])
         return got[1:4] + grows[(clear_mm, widths)]
 
-
     def _half_widths(self) -> dict[str, float]:
         """Half the width of each stroke of the arrays' lines: those of the
         lists tested so far, and of strokes only entered (:meth:`enter`),
@@ -312,7 +311,9 @@ class Room:
         them is tested."""
         half = self._half_width
         missing = {el.stroke for el in self._arrays.elements} - half.keys()
-        return {**half, **{stroke: stroke_width_mm(stroke, self.dims) / 2 for stroke in missing}} if missing else half
+        if not missing:
+            return half
+        return {**half, **{stroke: stroke_width_mm(stroke, self.dims) / 2 for stroke in missing}}
 
     def free(self, box: Box, protected=(), near=(), clear_mm: float = CLEAR_MM) -> bool:
         """Inside the drawing, clear of the labels, ``clear_mm`` from the

@@ -359,11 +359,11 @@ def _check_drawable(values: dict, source: str, lines: dict) -> None:
     if values.get("language_file"):
         code = load_language_file(values["language_file"])["language"]
     script = locale.script(code)
+    stacks = [fonts.stack(script, style) for style in fonts.STYLES]
     for name, text in texts.items():
         if not text:
             continue
-        lost = set().union(*(fonts.missing_chars(text, fonts.stack(script, style) + fonts.fallbacks(fonts.stack(script, style)))
-                             for style in fonts.STYLES))
+        lost = set().union(*(fonts.missing_chars(text, faces + fonts.fallbacks(faces)) for faces in stacks))
         if lost:
             where = at_line(source, lines[name]) if name in lines else source
             chars = [f"U+{ord(c):04X}" for c in sorted(lost)[:5]]
