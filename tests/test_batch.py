@@ -517,6 +517,64 @@ def test_a_roster_separated_as_spreadsheets_save_it(tmp_path, sep):
     assert [(k.recipe.owner, k.recipe.latitude_deg) for k in kits] == [("Ana, B.", -12.5), ("Ivo", 10.0)]
 
 
+@pytest.mark.parametrize("first_line, sep", [("", ";"), ("", "\t"), ("sep=;\r\n", ";"), ('"sep=;"\r\n', ";"),
+                                             ("SEP=,\r\n", ",")])
+def test_a_spreadsheets_decimal_commas_and_separator_line(tmp_path, first_line, sep):
+    """A roster saved where the comma is the decimal sign: separated by
+    semicolons (or tabs), each number's decimal comma as the spreadsheet
+    wrote it (51,48), read as the number it is; and a first line "sep=;",
+    which spreadsheets write to name the separator (common practice, no
+    published source), names it and is no row.  Row numbers stay the
+    file's own.  In a comma-separated roster a decimal comma is still
+    refused, with its own message: there it may be a mistake."""
+    from kitgen.batch.setfile import load_set
+
+    (tmp_path / "set.yaml").write_text("defaults: {epoch: 2027}\nroster: r.csv\n")
+    numbers = sep != ","
+    rows = [["owner", "latitude", "longitude", "timezone", "diameter_mm"],
+            ["Ana", "51,48" if numbers else "51.48", "0,12W" if numbers else "0.12W", "Europe/London",
+             "150,5" if numbers else "150.5"],
+            ["Ivo", "-33,9" if numbers else '"-33,9"', "", "", ""]]
+    (tmp_path / "r.csv").write_text(first_line + "\r\n".join(sep.join(row) for row in rows) + "\r\n",
+                                    encoding="utf-8")
+    kits = load_set(tmp_path / "set.yaml").kits
+    assert (kits[0].recipe.latitude_deg, kits[0].recipe.longitude_deg, kits[0].recipe.diameter_mm) == \
+        (51.48, -0.12, 150.5)
+    if numbers:
+        assert kits[1].recipe.latitude_deg == -33.9
+    else:
+        assert kits[1].recipe is None and "decimal comma" in kits[1].error.text()
+    row = 3 + (1 if first_line else 0)
+    assert f"row {row}" in kits[1].where.text()
+
+
+def test_a_run_leaves_no_pool_thread_behind(tmp_path, monkeypatch):
+    """Each worker's pool is told to shut down, without waiting, as the
+    last kit comes in; the run must still end only once the pools'
+    managing threads have (Python's concurrent.futures: a thread still
+    ending at the process's exit met the exit handler of the pools, which
+    printed a traceback).  The threads' last step is slowed here so that
+    one is surely still running when the kits are done."""
+    import threading
+    import time
+    from concurrent.futures import process
+
+    from kitgen.batch import run_set
+
+    original = process._ExecutorManagerThread.join_executor_internals
+
+    def slowly(self):
+        time.sleep(0.3)
+        original(self)
+
+    monkeypatch.setattr(process._ExecutorManagerThread, "join_executor_internals", slowly)
+    (tmp_path / "s.yaml").write_text(yaml.safe_dump({"defaults": DEFAULTS, "kits": [{"owner": "A"}, {"owner": "B"}]}))
+    before = set(threading.enumerate())
+    summary = run_set(tmp_path / "s.yaml", tmp_path / "out", jobs=2, quiet=True)
+    assert summary.exit_status == 0 and summary.jobs == 2
+    assert [t for t in threading.enumerate() if t not in before] == []
+
+
 def test_print_files_embed_every_font_they_name(one_worker):
     """PDF 32000-1:2008, 9.8 and 9.9: every font a print file's pages and
     stamps name carries its program (FontFile2), and none is one of the

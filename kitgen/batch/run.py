@@ -22,6 +22,7 @@ import multiprocessing
 import os
 import signal
 import sys
+import threading
 import time
 from concurrent.futures import ProcessPoolExecutor
 from contextlib import ExitStack
@@ -173,14 +174,34 @@ def _print_ready(printing, stamps, waiting: dict, next_number: int, by_number: d
 
 def _start_workers(stack: ExitStack, jobs: int) -> list:
     """``jobs`` worker processes (none for one: the kits are built in this
-    process), each a pool of one, started at once; closed with ``stack``."""
+    process), each a pool of one, started at once; closed with ``stack``,
+    which then waits for each pool's managing thread to end
+    (:func:`_join_all`)."""
     if jobs < 2:
         return []
+    threads: list[threading.Thread] = []
+    stack.callback(_join_all, threads)   # before the pools: it runs after they are shut down
     pools = [stack.enter_context(ProcessPoolExecutor(max_workers=1, mp_context=_context(),
                                                      initializer=_worker_start)) for _ in range(jobs)]
     for pool in pools:
         pool.submit(int)   # starts its process now
+        thread = getattr(pool, "_executor_manager_thread", None)
+        if thread is not None:
+            threads.append(thread)
     return pools
+
+
+def _join_all(threads: list) -> None:
+    """Wait for the pools' managing threads to end.  A pool told to shut
+    down without waiting, as the last kit comes in (:func:`_build_all`),
+    forgets its thread, and its shutdown at the end of the run then waits
+    for nothing; a thread still ending when the process exits met
+    Python's own exit handler for the pools, which wrote to the pipe the
+    thread was closing and printed a traceback (Python 3.11's
+    ``concurrent.futures.process._python_exit``).  The thread is CPython's
+    own attribute of the pool; where a Python has none, nothing is joined."""
+    for thread in threads:
+        thread.join()
 
 
 def _build_all(jobs_list, pools: list):

@@ -10,7 +10,10 @@ A set is a mapping with up to three keys::
 The roster is UTF-8 CSV with a header whose columns are recipe keys (and
 ``copies``), separated by commas, or by semicolons or tabs as spreadsheets
 write them where the comma is the decimal sign; an empty cell takes the
-default.  The keys that say where a kit is for (place, latitude,
+default.  In a roster separated by semicolons or tabs a number's comma is
+its decimal sign (``51,48``), as the spreadsheet wrote it.  A first line
+``sep=;`` (which spreadsheets write and read to name the separator) names
+the separator and is not a row.  The keys that say where a kit is for (place, latitude,
 longitude, time zone, plates) go as one: a kit that gives a place, a
 latitude or plates takes none of them from the defaults (:data:`SITE_KEYS`).  Kits are
 numbered in the order they come: the ``kits`` list first, then the
@@ -31,6 +34,7 @@ from __future__ import annotations
 import csv
 import difflib
 import io
+import re
 from dataclasses import dataclass
 from pathlib import Path
 
@@ -187,8 +191,12 @@ def _roster_rows(value, set_path: Path, line: int) -> list[tuple[Message, dict]]
         raise UserError("errors.set_roster_not_file", where=at_line(set_path, line), value=shown(value))
     path = set_path.parent / value
     text = read_text_file(path, MAX_ROSTER_BYTES, KIND_ROSTER)
-    reader = csv.reader(io.StringIO(text, newline=""), delimiter=_delimiter(text), strict=True)
+    named = _separator_line(text)
+    delimiter = named or _delimiter(text)
+    reader = csv.reader(io.StringIO(text, newline=""), delimiter=delimiter, strict=True)
     try:
+        if named:
+            next(reader)   # the "sep=" line
         header = next(reader, None)
         if header is None:
             raise UserError("errors.roster_empty", path=path)
@@ -203,10 +211,21 @@ def _roster_rows(value, set_path: Path, line: int) -> list[tuple[Message, dict]]
                 rows.append((where, _RowError(UserError("errors.roster_cells", where=where, count=len(cells),
                                                         columns=len(columns)))))
                 continue
-            rows.append((where, _row_tree(columns, cells)))
+            rows.append((where, _row_tree(columns, cells, decimal_comma=delimiter != ",")))
     except csv.Error as exc:
         raise UserError("errors.roster_not_csv", where=at_line(path, reader.line_num), problem=str(exc)) from None
     return rows
+
+
+#: A spreadsheet's first line naming the roster's separator (``sep=;``,
+#: quoted by some programs), for the separators a roster may have.
+_SEPARATOR_LINE = re.compile(r'"?sep=([,;\t])"?[ \t]*(?:\r?\n|\Z)', re.IGNORECASE)
+
+
+def _separator_line(text: str) -> str | None:
+    """The separator the roster's first line names (``sep=;``), or None."""
+    found = _SEPARATOR_LINE.match(text)
+    return found.group(1) if found else None
 
 
 def _delimiter(text: str) -> str:
@@ -240,15 +259,31 @@ class _RowError(dict):
         self.error = error
 
 
-def _row_tree(columns: list[str], cells: list[str]) -> dict:
+#: The keys whose value is a number (or a latitude or longitude written
+#: with one), whose decimal comma a semicolon or tab roster may hold.
+_NUMBER_KINDS = ("number", "latitude")
+_NUMBER_KEYS = ("longitude", "rete_limit_deg", "print_scale")
+
+#: A comma between two digits: a decimal comma, where it is the only comma.
+_DECIMAL_COMMA = re.compile(r"(?<=\d),(?=\d)")
+
+
+def _row_tree(columns: list[str], cells: list[str], decimal_comma: bool = False) -> dict:
     """The row's recipe keys: non-empty cells only, each read as its key
-    reads a value (see :data:`_TEXT_KINDS`)."""
+    reads a value (see :data:`_TEXT_KINDS`); with ``decimal_comma`` (a
+    roster separated by semicolons or tabs), a number's one comma between
+    digits read as its decimal point.  A recipe refuses a decimal comma,
+    which YAML cannot tell from a list; a cell of such a roster is one
+    value, and its spreadsheet wrote the comma as the decimal sign."""
     tree = {}
     for name, cell in zip(columns, cells):
         cell = cell.strip()
         if not cell:
             continue
         key = KEYS_BY_NAME.get(name)
+        if decimal_comma and key is not None and (key.kind in _NUMBER_KINDS or name in _NUMBER_KEYS) \
+                and cell.count(",") == 1:
+            cell = _DECIMAL_COMMA.sub(".", cell)
         if key is not None and key.kind in _TEXT_KINDS:
             tree[name] = cell
         else:
