@@ -185,7 +185,7 @@ def test_no_such_file(tmp_path, capsys):
 
 def test_a_folder(tmp_path, capsys):
     (tmp_path / "school").mkdir()
-    _build_path_fails(tmp_path, capsys, tmp_path / "school", "is a folder, not a recipe file",
+    _build_path_fails(tmp_path, capsys, tmp_path / "school", "is a folder, not a file (recipe)",
                       "give the file's name")
 
 

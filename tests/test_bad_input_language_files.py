@@ -162,3 +162,11 @@ def test_mistakes_found_late_still_name_the_recipe_line(tmp_path, capsys, text, 
     err = capsys.readouterr().err.strip().splitlines()[-1]
     assert f"r.yaml, line {line}: " in err and needle in err
     assert not (tmp_path / "k.pdf").exists()
+
+
+def test_a_folder_given_as_the_language_file_says_so_once(tmp_path):
+    """``language_file: .`` names a folder: one line saying so, the kind of
+    file named once (it read "not a language file file")."""
+    (tmp_path / "r.yaml").write_text("latitude: 40\nlanguage_file: .\n", encoding="utf-8")
+    text = _refused(tmp_path / "r.yaml")
+    assert "is a folder" in text and "language file" in text and "file file" not in text

@@ -140,7 +140,7 @@ def test_a_recipe_path_naming_a_folder(kit_dir, capsys, recipe, command):
     extra = ["-o", str(kit_dir / "look")] if command == "preview" else []
     assert main([command, recipe, *extra]) == EXIT_USER
     err = capsys.readouterr().err
-    assert "is a folder, not a recipe file" in err and len(err.splitlines()) == 1
+    assert "is a folder, not a file (recipe)" in err and len(err.splitlines()) == 1
 
 
 @pytest.mark.parametrize("name", ["x" * 256 + ".pdf", "é" * 128 + ".pdf", "ok/" + "y" * 300 + "/kit.pdf"])
