@@ -288,6 +288,24 @@ def test_a_set_whose_every_kit_is_refused_says_so_kit_by_kit(tmp_path, capsys):
     assert row["status"] != "ok" and "copies" in row["status"]
 
 
+@pytest.mark.parametrize("defaults_text, line, words", [
+    ("  latitude: 40\n  plates: [30, 50]\n", 3, "not both"),
+    ("  latitude: 40\n  diameter_mm: 5\n", 3, "'diameter_mm' is 5"),
+    ("  latitud: 40\n", 2, "'latitud'"),
+])
+def test_a_mistake_in_the_defaults_is_said_once_with_its_line(tmp_path, capsys, defaults_text, line, words):
+    """A key of ``defaults:`` that no recipe could take is the set's own
+    mistake: one line naming its line in the set file (counted here from
+    the text written), and nothing built, where each of forty kits had
+    said it as its own mistake, on its own line."""
+    (tmp_path / "s.yaml").write_text("defaults:\n" + defaults_text + "kits:\n  - owner: A\n  - owner: B\n",
+                                     encoding="utf-8")
+    assert main(["batch", str(tmp_path / "s.yaml"), "-o", str(tmp_path / "out"), "--jobs", "1"]) == 2
+    (err,) = capsys.readouterr().err.strip().splitlines()
+    assert err.startswith(f"kitgen: error: {tmp_path / 's.yaml'}, line {line}: ") and words in err
+    assert not (tmp_path / "out").exists()
+
+
 @pytest.mark.parametrize("out_name, roster", [("c" * 300, None), ("out", "a\0b.csv")])
 def test_impossible_names_are_one_line_and_write_nothing(tmp_path, capsys, out_name, roster):
     """An output folder's name longer than a file system takes (255 bytes,

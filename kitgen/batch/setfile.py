@@ -41,7 +41,7 @@ from pathlib import Path
 import yaml
 
 from ..errors import Message, UserError, shown
-from ..recipe.load import at_line, read_text_file, safe_yaml, validate_recipe
+from ..recipe.load import at_line, check_defaults, read_text_file, safe_yaml, validate_recipe
 from ..recipe.schema import KEYS_BY_NAME, Recipe
 
 #: The keys of a set file.
@@ -110,6 +110,7 @@ def load_set(path) -> KitSet:
     if "copies" in defaults:
         raise UserError("errors.set_copies_in_defaults", where=at_line(path, lines.get("defaults", 1)))
     defaults = _absolute_language_file(defaults, path.parent)
+    check_defaults(defaults, path, _defaults_lines(text))
     raws: list[tuple[Message, dict]] = []
     listed = tree.get("kits") or []
     if not isinstance(listed, list):
@@ -315,6 +316,17 @@ def _top_lines(text: str) -> dict:
     if not isinstance(node, yaml.MappingNode):
         return {}
     return {k.value: k.start_mark.line + 1 for k, _ in node.value if isinstance(k, yaml.ScalarNode)}
+
+
+def _defaults_lines(text: str) -> dict:
+    """The line of each key of ``defaults``."""
+    node = _compose(text)
+    if not isinstance(node, yaml.MappingNode):
+        return {}
+    for k, v in node.value:
+        if isinstance(k, yaml.ScalarNode) and k.value == "defaults" and isinstance(v, yaml.MappingNode):
+            return {dk.value: dk.start_mark.line + 1 for dk, _ in v.value if isinstance(dk, yaml.ScalarNode)}
+    return {}
 
 
 def _item_lines(text: str) -> list[int]:

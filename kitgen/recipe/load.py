@@ -313,22 +313,8 @@ def validate_recipe(tree: dict, source=RECIPE, lines: dict | None = None) -> Rec
 
 
 def _validate(tree: dict, source, lines: dict) -> Recipe:
-    values: dict = {}
-    local_stars = _local_star_names(tree, source) if "stars" in tree else {}
-    for name, value in tree.items():
-        where = at_line(source, lines[name]) if isinstance(name, str) and name in lines else source
-        if not isinstance(name, str) or name not in KEYS_BY_NAME:
-            close = difflib.get_close_matches(str(name)[:MAX_TEXT_CHARS], KEYS_BY_NAME, n=1)
-            hint = (Message("errors.hint_did_you_mean", name=close[0]) if close
-                    else Message("errors.hint_valid_keys", names=list(KEYS_BY_NAME)))
-            raise UserError("errors.unknown_key", where=where, name=shown(name), hint=hint)
-        key = KEYS_BY_NAME[name]
-        values[key.attr] = _check(key, value, where, local_stars)
-        if key.name == "language_file" and values[key.attr]:
-            values[key.attr] = resolve_language_file(values[key.attr], source, where)
+    values = _checked_keys(tree, source, lines)
     if values.get("plates"):
-        if "latitude_deg" in values:
-            raise UserError("errors.plates_and_latitude", source=source)
         south = any(p.latitude_deg < 0 for p in values["plates"])
         values["latitude_deg"] = next(p.latitude_deg for p in values["plates"]
                                       if not south or p.latitude_deg < 0)
@@ -340,6 +326,44 @@ def _validate(tree: dict, source, lines: dict) -> Recipe:
     _check_stars_fit(values, source, lines)
     _check_drawable(values, source, lines)
     return Recipe(**values)
+
+
+def _checked_keys(tree: dict, source, lines: dict, skip: tuple[str, ...] = ()) -> dict:
+    """Each key of ``tree`` checked on its own (but for ``skip``), as
+    ``{attribute: value}``: a key no recipe has, or a value its key
+    refuses, is a :class:`UserError` naming its line; a recipe gives
+    either ``latitude`` or ``plates``."""
+    values: dict = {}
+    local_stars = _local_star_names(tree, source) if "stars" in tree and "stars" not in skip else {}
+    for name, value in tree.items():
+        where = at_line(source, lines[name]) if isinstance(name, str) and name in lines else source
+        if not isinstance(name, str) or name not in KEYS_BY_NAME:
+            close = difflib.get_close_matches(str(name)[:MAX_TEXT_CHARS], KEYS_BY_NAME, n=1)
+            hint = (Message("errors.hint_did_you_mean", name=close[0]) if close
+                    else Message("errors.hint_valid_keys", names=list(KEYS_BY_NAME)))
+            raise UserError("errors.unknown_key", where=where, name=shown(name), hint=hint)
+        if name in skip:
+            continue
+        key = KEYS_BY_NAME[name]
+        values[key.attr] = _check(key, value, where, local_stars)
+        if key.name == "language_file" and values[key.attr]:
+            values[key.attr] = resolve_language_file(values[key.attr], source, where)
+    if values.get("plates") and "latitude_deg" in values:
+        raise UserError("errors.plates_and_latitude", source=at_line(source, lines["plates"]) if "plates" in lines
+                        else source)
+    return values
+
+
+def check_defaults(tree: dict, source, lines: dict) -> None:
+    """Check a class set's ``defaults`` key by key, as a recipe's keys are
+    checked: a mistake there is the set's own, said once with its line,
+    where every kit that takes the defaults would have said it as its own
+    mistake, on its own line (#12).  What depends on a kit's other keys
+    (a place's lookup, stars that must fit its rete, the text its fonts
+    must draw) is left to each kit; so are the star names, which are read
+    in the kit's language."""
+    with speaking(lambda: recipe_language(tree, source)):
+        _checked_keys(tree, source, lines, skip=("stars",))
 
 
 #: Recipe keys whose text is printed on the kit.
