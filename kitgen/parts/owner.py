@@ -61,6 +61,12 @@ LONG_NAME_MM = 25.0
 #: room for a name's capitals, accents and descenders whatever the label's
 #: letters are (a label's height is that of its ink, kitgen.words.measure).
 SLOT_HEIGHTS = 1.5
+#: Another word at either end of the slot, on its row, keeps this many
+#: slot heights from it: closer, the two read as one phrase, as a name
+#: set just after a tropic's label reads "Tropic of Cancer  Ann Lee"
+#: (common practice in map lettering: different features' names stand
+#: further apart than the spaces within a name).
+APART_HEIGHTS = 2.0
 
 
 def plate_slot(part: model.Part, ctx: PartContext) -> model.Part:
@@ -86,12 +92,48 @@ def plate_slot(part: model.Part, ctx: PartContext) -> model.Part:
     boxes = [labels.element_box_mm(e, w) for e in lines]
     height = SLOT_HEIGHTS * w.measure(lines[0].geom["text"], size).height_mm
     disc = d.outer_tropic_radius_mm
-    taken = [labels.element_box_mm(e, w) for e in texts] + [PIN_BOX_MM]
     x = lines[0].geom["at"][0]
     top, bottom = max(b[3] for b in boxes), min(b[1] for b in boxes)
     least = SLOT_LEAST * max(b[2] - b[0] for b in boxes)
     most = max(SLOT_RADII * d.plate_radius_mm, LONG_NAME_MM)
     rim = disc - 2 * m - stroke_width_mm("heavy", d)   # the slot's break stops short of the rim
+    words = [labels.element_box_mm(e, w) for e in texts]
+    # With every other word kept apart from the name (APART_HEIGHTS along
+    # its row, a slot's height above and below); where a small plate
+    # leaves no such room for a long name, with the margin alone, if that
+    # gives a wider one: the name is on every plate.
+    apart = max(0.0, APART_HEIGHTS * height - m)
+    best = None
+    for taken in ([_widened(b, apart, 0.0 if e.role == "plate_label" else height) for b, e in zip(words, texts)],
+                  words):
+        taken = taken + [PIN_BOX_MM]
+        found = _slot_by_label((x, top, bottom), height, taken, rim, (least, most))
+        if found is None or found[3] < LONG_NAME_MM:
+            row = _free_row_off_named_curves(lines[0].geom["at"][1], (bottom, top), height,
+                                             taken + _flat_stretches(part, height), rim, (least, most), part, d)
+            if row is not None and (found is None or row[3] >= LONG_NAME_MM):
+                found = row
+        if found is not None and (best is None or found[3] > best[3]):
+            best = found
+        if best is not None and best[3] >= LONG_NAME_MM:
+            break
+    if best is None:
+        return part
+    slot = _slot_box(best)
+    strokes = [e for e in part.elements if e.shape != "text" and e.role != "pin"]
+    broken = breaks.break_around(strokes, [slot], m, lambda stroke: stroke_width_mm(stroke, d))
+    rest = [e for e in part.elements if e.shape == "text" or e.role == "pin"]
+    return replace(part, elements=tuple(broken) + tuple(rest), values={**part.values, "owner_slot": best})
+
+
+def _slot_by_label(label: tuple, height: float, taken: list, rim: float, widths: tuple):
+    """:func:`plate_slot`'s places by the latitude label (``label``: its
+    lines' x, top and bottom, mm): under it, else over it, left-aligned
+    with it or mirrored across the meridian, the widest clear of every
+    box of ``taken`` by :data:`MARGIN_MM`, or None."""
+    m = labels.MARGIN_MM
+    x, top, bottom = label
+    least, most = widths
     best = None
     for y in (bottom - m - height / 2, top + m + height / 2):
         reach = rim ** 2 - (abs(y) + height / 2) ** 2
@@ -104,18 +146,13 @@ def plate_slot(part: model.Part, ctx: PartContext) -> model.Part:
             if not any(labels.boxes_meet(box, t) for t in taken):
                 best = (sx, y, anchor, width, height)
                 break
-    if best is None or best[3] < LONG_NAME_MM:
-        row = _free_row_off_named_curves(lines[0].geom["at"][1], (bottom, top), height,
-                                         taken + _flat_stretches(part, height), rim, (least, most), part, d)
-        if row is not None and (best is None or row[3] >= LONG_NAME_MM):
-            best = row
-    if best is None:
-        return part
-    slot = _slot_box(best)
-    strokes = [e for e in part.elements if e.shape != "text" and e.role != "pin"]
-    broken = breaks.break_around(strokes, [slot], m, lambda stroke: stroke_width_mm(stroke, d))
-    rest = [e for e in part.elements if e.shape == "text" or e.role == "pin"]
-    return replace(part, elements=tuple(broken) + tuple(rest), values={**part.values, "owner_slot": best})
+    return best
+
+
+def _widened(box: tuple, along_mm: float, across_mm: float = 0.0) -> tuple:
+    """An axis-aligned box (x0, y0, x1, y1) made ``along_mm`` longer at
+    each end of its row and ``across_mm`` higher above and below."""
+    return (box[0] - along_mm, box[1] - across_mm, box[2] + along_mm, box[3] + across_mm)
 
 
 #: The plate's named curves: a name in a free row keeps off them where it
