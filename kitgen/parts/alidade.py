@@ -33,11 +33,17 @@ def caution_text(at, d, w, room_mm: float, height_mm: float) -> list[model.Eleme
     return labels.fitted_text("caution", at, text, size, w, room_mm, height_mm, style="bold", min_pt=low)
 
 
+#: The words across a vane keep this far beyond its cut lines' ink: a cut
+#: by hand strays about half a millimetre (common practice).
+CUT_CLEAR_MM = 0.5
+
+
 def alidade(ctx: PartContext) -> model.Part:
     d, w = ctx.dims, ctx.words
     half = d.mater_radius_mm * 0.99
     # At least 10 mm wide, so that "fold up" fits across a vane at 5 pt in
-    # every shipped language (kitgen.parts.legibility's rule: no word cut short).
+    # every shipped language, clear of the cut lines (CUT_CLEAR_MM), as
+    # kitgen.parts.legibility's rule asks: no word cut short.
     width = max(10.0, 0.10 * d.mater_radius_mm)
     vane = max(14.0, 0.16 * d.mater_radius_mm)
     hole_at = vane * 0.55
@@ -76,6 +82,7 @@ def alidade(ctx: PartContext) -> model.Part:
     gap = hole_at - cross
     for sx in (1.0, -1.0):
         els += labels.fitted_text("vane_label", (sx * (half + gap / 2), -width / 2), w("alidade.vane"),
-                                  d.small_text_pt, w, width - 2 * m, gap - 2 * m, angle_deg=-90.0)
+                                  d.small_text_pt, w, width - 2 * (inset + CUT_CLEAR_MM), gap - 2 * m,
+                                  angle_deg=-90.0)
     return model.Part("alidade", "card", tuple(els), (-half - vane - 1, -width - 1, half + vane + 1, width * 0.4 + 1), {},
                       w("alidade.title"))
