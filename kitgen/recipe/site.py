@@ -2,8 +2,9 @@
 place, made one consistent site (#10).
 
 Coordinates given in the recipe win: ``place`` is then only the name
-printed on the kit, and nothing is looked up (an invented town still
-builds).  Without a latitude, ``place`` is looked up in the offline
+printed on the kit (an invented town still builds), and the gazetteer
+is asked only whether the coordinates and zone are the place's own, to
+name the clock by the town (:func:`_is_the_towns_own`).  Without a latitude, ``place`` is looked up in the offline
 gazetteer (:mod:`kitgen.places`), which gives latitude, longitude and
 time zone, and the kit prints the name as written, without its country
 or region (:func:`printed_name`); a ``timezone`` key still overrides the
@@ -74,3 +75,25 @@ def resolve_site(values: dict, source, place_where) -> None:
     if has_longitude != has_zone:
         given, missing = ("longitude", "timezone") if has_longitude else ("timezone", "longitude")
         raise UserError("errors.clock_needs_both", source=source, given=given, missing=missing)
+    if has_zone and values.get("place") and not values.get("clock_place"):
+        if _is_the_towns_own(values["place"], values["latitude_deg"], values["longitude_deg"], values["timezone"]):
+            values["clock_place"] = values["place"]
+
+
+def _is_the_towns_own(place: str, latitude_deg: float, longitude_deg: float, timezone: str) -> bool:
+    """Whether the recipe's coordinates and zone are the gazetteer's record
+    of the place it names (within the gazetteer's own SAME_PLACE_DEG, as
+    the web page fills them in for a town picked from its suggestions, or
+    a user copies them): its clock is then named by the town, as for a
+    town looked up, not by the zone's city ("New Delhi", not "Kolkata").
+    A name the gazetteer does not know (an invented town), or coordinates
+    or a zone that are not its, keep the zone's city; nothing is refused."""
+    from ..places import search   # the gazetteer, only for a recipe that names a place
+    from ..places.search import SAME_PLACE_DEG
+
+    try:
+        found = search(place, limit=10)
+    except Exception:   # any fault of the lookup: the clock keeps the zone's name
+        return False
+    return any(p.timezone == timezone and abs(p.latitude_deg - latitude_deg) <= SAME_PLACE_DEG
+               and abs(p.longitude_deg - longitude_deg) <= SAME_PLACE_DEG for p in found)
