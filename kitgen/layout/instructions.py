@@ -7,6 +7,8 @@ sets them into lines and pages, and a backend only draws those lines.
 
 from __future__ import annotations
 
+import unicodedata
+
 import functools
 
 from ..check.report import report_lines
@@ -30,10 +32,39 @@ def kit_latitudes(kit) -> str:
     return w("page.list_separator").join(latitude_text(w, p.latitude_deg) for p in kit.plan.plates)
 
 
-def kit_line(kit) -> str:
-    """The kit's title, its plates' latitudes and its epoch, in one line."""
+def kit_line(kit, fits=None) -> str:
+    """The kit's title, its plates' latitudes and its epoch, in one line;
+    with ``fits`` (a test of a line: whether it fits its room), the title
+    shortened with "…", word by word, then letter by letter, until the
+    line fits, or as short as it goes: a long title in a page's footer
+    (#12), whose whole title the first page and the mater print."""
     w = kit.words
-    return w("page.kit_line", title=kit_title(kit), latitude=kit_latitudes(kit), year=w.number(kit.plan.epoch))
+    latitude, year = kit_latitudes(kit), w.number(kit.plan.epoch)
+    title = kit_title(kit)
+    line = w("page.kit_line", title=title, latitude=latitude, year=year)
+    if fits is None or fits(line):
+        return line
+    for shorter in _shortened(title):
+        line = w("page.kit_line", title=shorter, latitude=latitude, year=year)
+        if fits(line):
+            break
+    return line
+
+
+def _shortened(text: str):
+    """``text`` cut ever shorter, each ending in "…": by whole words from
+    the end, then the first word letter by letter (never just before a
+    combining mark, nor just after a virama, which would change how the
+    letter before it is drawn)."""
+    words = text.split()
+    for k in range(len(words) - 1, 0, -1):
+        yield " ".join(words[:k]).rstrip(",;:·-–—") + "\u2026"
+    first = words[0] if words else ""
+    for k in range(len(first) - 1, 0, -1):
+        if unicodedata.category(first[k])[0] == "M" or unicodedata.name(first[k - 1], "").endswith("VIRAMA"):
+            continue
+        yield first[:k] + "\u2026"
+    yield "\u2026"
 
 
 def plates_blocks(kit) -> list[Block]:

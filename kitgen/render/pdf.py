@@ -41,6 +41,10 @@ _BOLD_ROLES = {"title", "caution"}
 FOOTER_PT = 7.0
 PAGE_NUMBER_PT = 9.0
 NOTE_PT = 9.0
+#: The least size of the stock's note ("Print this page on film"), where
+#: a long kit line shares its row, and the gap between them (mm).
+MIN_NOTE_PT = 7.0
+NOTE_GAP_MM = 5.0
 MIN_FURNITURE_PT = 5.0
 #: The check bar's note goes onto two rows of TWO_ROWS_PT, ROW_MM apart,
 #: where one row would need type smaller than TWO_ROWS_BELOW_PT; the two
@@ -417,10 +421,17 @@ def _footer(c: Canvas, kit, page: Page) -> None:
         note = w("page.on_film")
     note_w_mm = 0.0
     if note:
-        note_w_mm = pdf_text.draw_at_baseline(c, right * mm, (m + FOOTER_MM - 3.0) * mm, note, NOTE_PT, w,
-                                              "bold", "right") / mm + 5.0
-    line = kit_line(kit)
-    size = _fitted_pt(line, w, "body", 8.0, usable - note_w_mm)
+        # The stock's note and the kit's line share a row: the note gives
+        # way down to MIN_NOTE_PT for the line at its least size, up to
+        # half the row; the line then fits the rest, its title shortened
+        # where even its least size does not (#12: a long title on A5).
+        least_mm = min(pdf_text.width_pt(kit_line(kit), MIN_FURNITURE_PT, w, "body") / mm, usable / 2)
+        note_pt = pdf_text.fitted_pt(note, NOTE_PT, (usable - least_mm - NOTE_GAP_MM) * mm, w, "bold", MIN_NOTE_PT)
+        note_w_mm = pdf_text.draw_at_baseline(c, right * mm, (m + FOOTER_MM - 3.0) * mm, note, note_pt, w,
+                                              "bold", "right") / mm + NOTE_GAP_MM
+    room_mm = usable - note_w_mm
+    line = kit_line(kit, lambda s: pdf_text.width_pt(s, MIN_FURNITURE_PT, w, "body") <= room_mm * mm)
+    size = _fitted_pt(line, w, "body", 8.0, room_mm)
     pdf_text.draw_at_baseline(c, m * mm, (m + FOOTER_MM - 3.0) * mm, line, size, w, "body")
 
 
