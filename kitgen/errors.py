@@ -59,6 +59,28 @@ class Number:
         return f"Number({self.value!r}, {self.decimals})"
 
 
+class CountryName:
+    """A country, given by its ISO 3166-1 code, that a message names in its
+    language: the Unicode CLDR's name for it (through Babel), "Spain" in
+    English and "Espagne" in French; the code itself where CLDR has no
+    name or the language is a user's own that CLDR does not know."""
+
+    def __init__(self, code: str):
+        self.code = code
+
+    def text(self, words=None) -> str:
+        language = getattr(words, "language", None) or "en"
+        try:
+            from babel import Locale
+
+            return Locale.parse(language).territories.get(self.code, self.code)
+        except Exception:   # a language CLDR does not know: the code
+            return self.code
+
+    def __repr__(self) -> str:
+        return f"CountryName({self.code!r})"
+
+
 class Message:
     """One entry of the templates' ``errors`` or ``notes`` section
     (``key``, such as ``"errors.unknown_key"``) and the values of its
@@ -118,7 +140,7 @@ def _say(key: str, values: dict, words) -> str | None:
 
 
 def _value_text(value, words) -> str:
-    if isinstance(value, (Message, KeyedError, Number)):
+    if isinstance(value, (Message, KeyedError, Number, CountryName)):
         return value.text(words)
     if isinstance(value, (list, tuple)):
         sep = (words.template("page.list_separator") if words is not None else None) \

