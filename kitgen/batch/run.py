@@ -116,7 +116,9 @@ def _run(kit_set, out_dir: Path, pools: list, quiet: bool, stream, started: floa
     jobs_list = [KitJob(k.number, k.recipe, speak=speak, stamps=stamp_lists.get(k.number, ()), debug=debug)
                  for k in kit_set.kits if k.error is None]
     jobs = max(1, min(len(pools) or 1, len(jobs_list) or 1))
-    bar = progress(len(kit_set.kits), quiet, stream)
+    # No progress where every kit is refused: nothing is built, and the
+    # summary says why each kit was not.
+    bar = progress(len(kit_set.kits) if jobs_list else 0, quiet, stream)
     results, internal, peak, traces = {}, False, 0, []
     by_number = {k.number: k for k in kit_set.kits}
     try:
