@@ -92,3 +92,31 @@ def test_footer_words_never_overlap_nor_leave_the_margins(language, title):
             for j in range(k + 1, len(glyphs)):
                 if lines[j] != lines[k]:
                     assert _overlap_pt(a, glyphs[j]) <= tolerance, (number, a.text, glyphs[j].text)
+
+
+@pytest.mark.parametrize("language, title", [
+    ("ru", "Клуб «Северная звезда юных астрономов у озера Ясное и их друзей»"),
+    ("de", "Sternwarte „Falkenbucht am Großen See der Nordlicht-Schule“"),
+])
+def test_a_shortened_title_is_one_line_on_every_card_and_film_page(language, title):
+    """Every card and film page of a kit carries the same kit line, so a
+    stack of them sorts by one line (they had shortened the title by the
+    room their own note left: one title on the card pages, a shorter one
+    on the film page); a title cut inside quotation marks has them closed
+    (common practice of typesetting, no published source). Read back with
+    pypdf's text extraction."""
+    kit = build_kit(validate_recipe({"latitude": 55.7, "sheet": "a5", "language": language, "epoch": 2027,
+                                     "title": title}))
+    pages, data = build_pdf(kit)
+    reader = pypdf.PdfReader(io.BytesIO(data))
+    notes = {kit.words("page.on_card"), kit.words("page.on_film")}
+    lines = set()
+    for page, pdf_page in zip(pages, reader.pages):
+        if page.kind in ("card", "film"):
+            text = pdf_page.extract_text().split("\n")
+            lines |= {row for row in text if row.endswith("2027") and "\u00b7" in row and row not in notes}
+    (line,) = lines
+    assert "\u2026" in line   # shortened on A5 beside the note, inside the quotation marks
+    for opening, closing in (("«", "»"), ("„", "“")):
+        assert line.count(opening) == line.count(closing)
+    assert "\u2026»" in line or "\u2026“" in line

@@ -58,13 +58,31 @@ def _shortened(text: str):
     letter before it is drawn)."""
     words = text.split()
     for k in range(len(words) - 1, 0, -1):
-        yield " ".join(words[:k]).rstrip(",;:·-–—") + "\u2026"
+        yield _closed(" ".join(words[:k]).rstrip(",;:·-–—") + "\u2026")
     first = words[0] if words else ""
     for k in range(len(first) - 1, 0, -1):
         if unicodedata.category(first[k])[0] == "M" or unicodedata.name(first[k - 1], "").endswith("VIRAMA"):
             continue
-        yield first[:k] + "\u2026"
+        yield _closed(first[:k] + "\u2026")
     yield "\u2026"
+
+
+#: Quotation marks and brackets a shortened title may leave open, and
+#: what closes each.
+_PAIRS = {"«": "»", "‹": "›", "“": "”", "„": "“", "‘": "’", "(": ")", "[": "]"}
+
+
+def _closed(text: str) -> str:
+    """``text`` with the quotation marks and brackets it opens and does not
+    close closed at its end, innermost first ("«Северная…" becomes
+    "«Северная…»")."""
+    open_ = []
+    for ch in text:
+        if open_ and ch == _PAIRS[open_[-1]]:
+            open_.pop()
+        elif ch in _PAIRS:
+            open_.append(ch)
+    return text + "".join(_PAIRS[ch] for ch in reversed(open_))
 
 
 def plates_blocks(kit) -> list[Block]:

@@ -33,8 +33,9 @@ def caution_text(at, d, w, room_mm: float, height_mm: float) -> list[model.Eleme
     return labels.fitted_text("caution", at, text, size, w, room_mm, height_mm, style="bold", min_pt=low)
 
 
-#: The words across a vane keep this far beyond its cut lines' ink: a cut
-#: by hand strays about half a millimetre (common practice).
+#: The words across a vane, and "reading edge" under the cut edge it
+#: names, keep this far beyond the cut lines' ink: a cut by hand strays
+#: about half a millimetre (common practice).
 CUT_CLEAR_MM = 0.5
 
 
@@ -75,7 +76,7 @@ def alidade(ctx: PartContext) -> model.Part:
     edge_len = min(w.measure(edge_text, d.small_text_pt).width_mm + 2 * m, 0.5 * arm)
     band = w.measure(edge_text, d.small_text_pt).height_mm + 0.1
     inset = style.stroke_width_mm("cut", d) / 2     # the edge's cut line grows with the instrument
-    els += labels.fitted_text("reading_edge", (half - m - edge_len / 2, -(inset + m + band / 2)), edge_text,
+    els += labels.fitted_text("reading_edge", (half - m - edge_len / 2, -(inset + CUT_CLEAR_MM + band / 2)), edge_text,
                               d.small_text_pt, w, edge_len - 2 * m, band)
     room = arm - edge_len - m
     els += caution_text((cross + m + room / 2, -width / 2), d, w, room, width - 2 * m)

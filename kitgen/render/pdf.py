@@ -45,6 +45,8 @@ NOTE_PT = 9.0
 #: a long kit line shares its row, and the gap between them (mm).
 MIN_NOTE_PT = 7.0
 NOTE_GAP_MM = 5.0
+#: The size of the kit's line in the footer, where it has the room.
+LINE_PT = 8.0
 MIN_FURNITURE_PT = 5.0
 #: The check bar's note goes onto two rows of TWO_ROWS_PT, ROW_MM apart,
 #: where one row would need type smaller than TWO_ROWS_BELOW_PT; the two
@@ -414,25 +416,38 @@ def _footer(c: Canvas, kit, page: Page) -> None:
     for k, row in enumerate(reversed(rows)):
         pdf_text.draw_at_baseline(c, m * mm, (bar_y + 2.8 + k * ROW_MM) * mm, row, size, w, "body")
 
-    note = ""
-    if page.kind == "card":
-        note = w("page.on_card")
-    elif page.kind == "film":
-        note = w("page.on_film")
-    note_w_mm = 0.0
-    if note:
-        # The stock's note and the kit's line share a row: the note gives
-        # way down to MIN_NOTE_PT for the line at its least size, up to
-        # half the row; the line then fits the rest, its title shortened
-        # where even its least size does not (#12: a long title on A5).
-        least_mm = min(pdf_text.width_pt(kit_line(kit), MIN_FURNITURE_PT, w, "body") / mm, usable / 2)
-        note_pt = pdf_text.fitted_pt(note, NOTE_PT, (usable - least_mm - NOTE_GAP_MM) * mm, w, "bold", MIN_NOTE_PT)
-        note_w_mm = pdf_text.draw_at_baseline(c, right * mm, (m + FOOTER_MM - 3.0) * mm, note, note_pt, w,
-                                              "bold", "right") / mm + NOTE_GAP_MM
-    room_mm = usable - note_w_mm
+    note = _STOCK_NOTES.get(page.kind)
+    note = w(note) if note else ""
+    if not note:   # an instructions page: the row is the line's own
+        line = kit_line(kit, lambda t: pdf_text.width_pt(t, MIN_FURNITURE_PT, w, "body") <= usable * mm)
+        size = _fitted_pt(line, w, "body", LINE_PT, usable)
+        pdf_text.draw_at_baseline(c, m * mm, (m + FOOTER_MM - 3.0) * mm, line, size, w, "body")
+        return
+    note_pt, line, line_pt = _noted_row(kit, usable)
+    pdf_text.draw_at_baseline(c, right * mm, (m + FOOTER_MM - 3.0) * mm, note, note_pt, w, "bold", "right")
+    pdf_text.draw_at_baseline(c, m * mm, (m + FOOTER_MM - 3.0) * mm, line, line_pt, w, "body")
+
+
+#: The stock's note of a page of each kind, on the footer's top row.
+_STOCK_NOTES = {"card": "page.on_card", "film": "page.on_film"}
+
+
+def _noted_row(kit, usable_mm: float) -> tuple[float, str, float]:
+    """The footer's top row on a card or film page: the note's size, the
+    kit's line and its size, the same on every such page of the kit (the
+    room left by the wider of the two notes), so that a stack's pages all carry one
+    line to sort them by (#12).  The note gives way first, down to
+    MIN_NOTE_PT, for the line at LINE_PT; the line then takes the rest,
+    down to MIN_FURNITURE_PT, and only where even that does not fit is
+    its title shortened with "…"."""
+    w = kit.words
+    widest = max((w(key) for key in _STOCK_NOTES.values()), key=lambda n: pdf_text.width_pt(n, NOTE_PT, w, "bold"))
+    wanted_mm = pdf_text.width_pt(kit_line(kit), LINE_PT, w, "body") / mm
+    note_pt = pdf_text.fitted_pt(widest, NOTE_PT, (usable_mm - wanted_mm - NOTE_GAP_MM) * mm, w, "bold",
+                                 MIN_NOTE_PT)
+    room_mm = usable_mm - pdf_text.width_pt(widest, note_pt, w, "bold") / mm - NOTE_GAP_MM
     line = kit_line(kit, lambda s: pdf_text.width_pt(s, MIN_FURNITURE_PT, w, "body") <= room_mm * mm)
-    size = _fitted_pt(line, w, "body", 8.0, room_mm)
-    pdf_text.draw_at_baseline(c, m * mm, (m + FOOTER_MM - 3.0) * mm, line, size, w, "body")
+    return note_pt, line, _fitted_pt(line, w, "body", LINE_PT, room_mm)
 
 
 # -- the instructions page ------------------------------------------------------
