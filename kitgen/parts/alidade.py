@@ -76,8 +76,8 @@ def alidade(ctx: PartContext) -> model.Part:
     edge_len = min(w.measure(edge_text, d.small_text_pt).width_mm + 2 * m, 0.5 * arm)
     band = w.measure(edge_text, d.small_text_pt).height_mm + 0.1
     inset = style.stroke_width_mm("cut", d) / 2     # the edge's cut line grows with the instrument
-    els += labels.fitted_text("reading_edge", (half - m - edge_len / 2, -(inset + CUT_CLEAR_MM + band / 2)), edge_text,
-                              d.small_text_pt, w, edge_len - 2 * m, band)
+    edge_at = (half - m - edge_len / 2, -(inset + CUT_CLEAR_MM + band / 2))
+    els += labels.fitted_text("reading_edge", edge_at, edge_text, d.small_text_pt, w, edge_len - 2 * m, band)
     room = arm - edge_len - m
     els += caution_text((cross + m + room / 2, -width / 2), d, w, room, width - 2 * m)
     gap = hole_at - cross
