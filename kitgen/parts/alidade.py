@@ -85,5 +85,5 @@ def alidade(ctx: PartContext) -> model.Part:
         els += labels.fitted_text("vane_label", (sx * (half + gap / 2), -width / 2), w("alidade.vane"),
                                   d.small_text_pt, w, width - 2 * (inset + CUT_CLEAR_MM), gap - 2 * m,
                                   angle_deg=-90.0)
-    return model.Part("alidade", "card", tuple(els), (-half - vane - 1, -width - 1, half + vane + 1, width * 0.4 + 1), {},
-                      w("alidade.title"))
+    bounds = (-half - vane - 1, -width - 1, half + vane + 1, width * 0.4 + 1)
+    return model.Part("alidade", "card", tuple(els), bounds, {}, w("alidade.title"))
