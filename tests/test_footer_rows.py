@@ -120,3 +120,37 @@ def test_a_shortened_title_is_one_line_on_every_card_and_film_page(language, tit
     for opening, closing in (("«", "»"), ("„", "“")):
         assert line.count(opening) == line.count(closing)
     assert "\u2026»" in line or "\u2026“" in line
+
+
+@pytest.mark.parametrize("language", ["ar", "en"])
+def test_the_footer_starts_where_the_language_starts_a_line(language):
+    """In Arabic, written right to left, the footer's kit line and the
+    check bar's note end at the right margin, where a reader starts
+    (Unicode Standard Annex #9: a right-to-left paragraph is set from the
+    right); in English they start at the left. The stock's note stands at
+    the other end. Read back from the PDF's glyphs (tests/pdf_ink.py) on
+    the first page (instructions) and a card page."""
+    kit = build_kit(validate_recipe({"latitude": 24.7, "sheet": "a5", "language": language, "epoch": 2027,
+                                     "title": "Sky Valley Club"}))
+    pages, data = build_pdf(kit)
+    reader = pypdf.PdfReader(io.BytesIO(data))
+    card = next(k for k, p in enumerate(pages) if p.kind == "card")
+    for k in (0, card):
+        page = pages[k]
+        margin, width = page.sheet.margin_mm * MM, page.width_mm * MM
+        band = margin + FOOTER_MM * MM
+        glyphs = [g for g in pdf_ink.read_page_ink(reader, reader.pages[k]).glyphs
+                  if not g.part and g.box[:, 1].min() < band]
+        lines = _lines(glyphs)
+        rows = {}
+        for g, n in zip(glyphs, lines):
+            x0, x1 = g.box[:, 0].min(), g.box[:, 0].max()
+            lo, hi = rows.get(n, (x0, x1))
+            rows[n] = (min(lo, x0), max(hi, x1))
+        # The kit line and the bar's note, the rows over 30 mm long but the stock's note.
+        wide = [span for span in rows.values() if span[1] - span[0] > 30 * MM]
+        if language == "ar":
+            started = [(lo, hi) for lo, hi in wide if hi >= width - margin - 1.5 * MM]
+        else:
+            started = [(lo, hi) for lo, hi in wide if lo <= margin + 1.5 * MM]
+        assert len(started) >= 2, (k, [(lo / MM, hi / MM) for lo, hi in wide])

@@ -413,19 +413,23 @@ def _footer(c: Canvas, kit, page: Page) -> None:
         rows = wrap(bar_note, usable * mm / 2 + 1.0, TWO_ROWS_PT, w, "body")
         rows = wrap(bar_note, usable * mm, TWO_ROWS_PT, w, "body") if len(rows) != 2 else rows
         size = min(_fitted_pt(row, w, "body", TWO_ROWS_PT, usable) for row in rows)
+    # The words start where the page's language starts a line: at the
+    # right margin in a right-to-left language, the note at the other end.
+    start_x, start, end_x, end = (right, "right", m, "left") if w.rtl else (m, "left", right, "right")
     for k, row in enumerate(reversed(rows)):
-        pdf_text.draw_at_baseline(c, m * mm, (bar_y + 2.8 + k * ROW_MM) * mm, row, size, w, "body")
+        pdf_text.draw_at_baseline(c, start_x * mm, (bar_y + 2.8 + k * ROW_MM) * mm, row, size, w, "body", start)
 
     note = _STOCK_NOTES.get(page.kind)
     note = w(note) if note else ""
+    top = (m + FOOTER_MM - 3.0) * mm
     if not note:   # an instructions page: the row is the line's own
         line = kit_line(kit, lambda t: pdf_text.width_pt(t, MIN_FURNITURE_PT, w, "body") <= usable * mm)
         size = _fitted_pt(line, w, "body", LINE_PT, usable)
-        pdf_text.draw_at_baseline(c, m * mm, (m + FOOTER_MM - 3.0) * mm, line, size, w, "body")
+        pdf_text.draw_at_baseline(c, start_x * mm, top, line, size, w, "body", start)
         return
     note_pt, line, line_pt = _noted_row(kit, usable)
-    pdf_text.draw_at_baseline(c, right * mm, (m + FOOTER_MM - 3.0) * mm, note, note_pt, w, "bold", "right")
-    pdf_text.draw_at_baseline(c, m * mm, (m + FOOTER_MM - 3.0) * mm, line, line_pt, w, "body")
+    pdf_text.draw_at_baseline(c, end_x * mm, top, note, note_pt, w, "bold", end)
+    pdf_text.draw_at_baseline(c, start_x * mm, top, line, line_pt, w, "body", start)
 
 
 #: The stock's note of a page of each kind, on the footer's top row.
