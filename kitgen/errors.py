@@ -73,7 +73,7 @@ class CountryName:
         try:
             from babel import Locale
 
-            return Locale.parse(language).territories.get(self.code, self.code)
+            return Locale.parse(language.replace("-", "_")).territories.get(self.code, self.code)   # pt-BR as BCP 47
         except Exception:   # a language CLDR does not know: the code
             return self.code
 

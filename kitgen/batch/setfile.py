@@ -97,9 +97,10 @@ def load_set(path) -> KitSet:
     tree = safe_yaml(text, str(path), KIND_SET, MAX_SET_EVENTS)
     if not isinstance(tree, dict):
         raise UserError("errors.set_not_mapping", source=path)
-    _refuse_duplicates(text, path)
-    _keep_sexagesimal_latitudes(text, tree)
-    lines = _top_lines(text)
+    node = _compose(text)   # where things are in the file, composed once
+    _refuse_duplicates(node, path)
+    _keep_sexagesimal_latitudes(node, tree)
+    lines = _top_lines(node)
     for name in tree:
         if name not in SET_KEYS:
             where = at_line(path, lines[name]) if name in lines else path
@@ -110,12 +111,12 @@ def load_set(path) -> KitSet:
     if "copies" in defaults:
         raise UserError("errors.set_copies_in_defaults", where=at_line(path, lines.get("defaults", 1)))
     defaults = _absolute_language_file(defaults, path.parent)
-    check_defaults(defaults, path, _defaults_lines(text))
+    check_defaults(defaults, path, _defaults_lines(node))
     raws: list[tuple[Message, dict]] = []
     listed = tree.get("kits") or []
     if not isinstance(listed, list):
         raise UserError("errors.set_kits_not_list", where=at_line(path, lines.get("kits", 1)))
-    item_lines = _item_lines(text)
+    item_lines = _item_lines(node)
     for index, item in enumerate(listed, start=1):
         line = item_lines[index - 1] if index <= len(item_lines) else lines.get("kits", 1)
         where = Message("errors.set_kit_where", source=path, index=index, line=line)
@@ -311,36 +312,34 @@ def _compose(text: str):
         return None
 
 
-def _top_lines(text: str) -> dict:
-    node = _compose(text)
+def _top_lines(node) -> dict:
+    """The line of each key of the composed mapping ``node``."""
     if not isinstance(node, yaml.MappingNode):
         return {}
     return {k.value: k.start_mark.line + 1 for k, _ in node.value if isinstance(k, yaml.ScalarNode)}
 
 
-def _defaults_lines(text: str) -> dict:
+def _value_of(node, key: str, kind):
+    """The composed value of ``key`` in the set's mapping ``node``, if it is
+    a node of ``kind``; else None."""
+    if not isinstance(node, yaml.MappingNode):
+        return None
+    return next((v for k, v in node.value if isinstance(k, yaml.ScalarNode) and k.value == key
+                 and isinstance(v, kind)), None)
+
+
+def _defaults_lines(node) -> dict:
     """The line of each key of ``defaults``."""
-    node = _compose(text)
-    if not isinstance(node, yaml.MappingNode):
-        return {}
-    for k, v in node.value:
-        if isinstance(k, yaml.ScalarNode) and k.value == "defaults" and isinstance(v, yaml.MappingNode):
-            return {dk.value: dk.start_mark.line + 1 for dk, _ in v.value if isinstance(dk, yaml.ScalarNode)}
-    return {}
+    return _top_lines(_value_of(node, "defaults", yaml.MappingNode))
 
 
-def _item_lines(text: str) -> list[int]:
+def _item_lines(node) -> list[int]:
     """The line of each item of the ``kits`` list."""
-    node = _compose(text)
-    if not isinstance(node, yaml.MappingNode):
-        return []
-    for k, v in node.value:
-        if isinstance(k, yaml.ScalarNode) and k.value == "kits" and isinstance(v, yaml.SequenceNode):
-            return [item.start_mark.line + 1 for item in v.value]
-    return []
+    listed = _value_of(node, "kits", yaml.SequenceNode)
+    return [item.start_mark.line + 1 for item in listed.value] if listed is not None else []
 
 
-def _refuse_duplicates(text: str, path: Path) -> None:
+def _refuse_duplicates(node, path: Path) -> None:
     """A key given twice in any mapping of the set (YAML's loader would
     silently keep the last)."""
     def walk(node):
@@ -357,14 +356,13 @@ def _refuse_duplicates(text: str, path: Path) -> None:
         elif isinstance(node, yaml.SequenceNode):
             for item in node.value:
                 walk(item)
-    walk(_compose(text))
+    walk(node)
 
 
-def _keep_sexagesimal_latitudes(text: str, tree: dict) -> None:
+def _keep_sexagesimal_latitudes(node, tree: dict) -> None:
     """A plain ``latitude: 40:26:46`` is a base-60 number to YAML 1.1; keep
     it as written, as the recipe loader does, for the defaults and every
     kit of the list."""
-    node = _compose(text)
     if not isinstance(node, yaml.MappingNode):
         return
     for k, v in node.value:

@@ -7,9 +7,8 @@ sets them into lines and pages, and a backend only draws those lines.
 
 from __future__ import annotations
 
-import unicodedata
-
 import functools
+import unicodedata
 
 from ..check.report import report_lines
 from ..kept import kept_for

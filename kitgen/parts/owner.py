@@ -103,6 +103,7 @@ def plate_slot(part: model.Part, ctx: PartContext) -> model.Part:
     # leaves no such room for a long name, with the margin alone, if that
     # gives a wider one: the name is on every plate.
     apart = max(0.0, APART_HEIGHTS * height - m)
+    flats = _flat_stretches(part, height)
     best = None
     for taken in ([_widened(b, apart, 0.0 if e.role == "plate_label" else height) for b, e in zip(words, texts)],
                   words):
@@ -110,7 +111,7 @@ def plate_slot(part: model.Part, ctx: PartContext) -> model.Part:
         found = _slot_by_label((x, top, bottom), height, taken, rim, (least, most))
         if found is None or found[3] < LONG_NAME_MM:
             row = _free_row_off_named_curves(lines[0].geom["at"][1], (bottom, top), height,
-                                             taken + _flat_stretches(part, height), rim, (least, most), part, d)
+                                             taken + flats, rim, (least, most), part, d)
             if row is not None and (found is None or row[3] >= LONG_NAME_MM):
                 found = row
         if found is not None and (best is None or found[3] > best[3]):

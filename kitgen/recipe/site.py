@@ -17,6 +17,7 @@ the kit's clock time needs both, and one alone would go unused (#10).
 from __future__ import annotations
 
 import difflib
+from functools import lru_cache
 
 from ..errors import KeyedError, Message, UserError
 from ..sky.zone import MAX_ZONE_CHARS, UnknownZone, known_zones, zone
@@ -80,6 +81,7 @@ def resolve_site(values: dict, source, place_where) -> None:
             values["clock_place"] = values["place"]
 
 
+@lru_cache(maxsize=256)   # a roster gives its school's town, coordinates and zone on every pupil's row
 def _is_the_towns_own(place: str, latitude_deg: float, longitude_deg: float, timezone: str) -> bool:
     """Whether the recipe's coordinates and zone are the gazetteer's record
     of the place it names (within the gazetteer's own SAME_PLACE_DEG, as
