@@ -15,7 +15,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 from .clock import clock_correction_min, clock_longitude_deg
-from .sun_rise_set import POLAR_DAY, rise_set_jd
+from .sun_rise_set import POLAR_DAY, sun_events_jd
 from .zone import changes_offset, local_clock_min
 
 #: Days of the month of the sunrise and sunset table (by half month).
@@ -94,18 +94,21 @@ def _clock_min(jd_ut: float, longitude_deg: float, timezone: str | None) -> floa
     return ((jd_ut - UNIX_EPOCH_JD) * 1440.0 + 4.0 * longitude_deg) % 1440.0
 
 
-def sun_rise_set_for(year: int, month: int, day: int, latitude_deg: float, longitude_deg: float | None = None,
-                     timezone: str | None = None) -> SunRiseSet:
-    """Sunrise, sunset and day length on one date (see :class:`Almanac`
-    for the clock)."""
+def sun_rise_set_table(year: int, dates, latitude_deg: float, longitude_deg: float | None = None,
+                       timezone: str | None = None) -> tuple[SunRiseSet, ...]:
+    """Sunrise, sunset and day length on each (month, day) of ``dates``
+    (see :class:`Almanac` for the clock)."""
     zoned = longitude_deg is not None and timezone is not None
     lon = longitude_deg if zoned else 0.0
-    rise, setting, why = rise_set_jd(year, month, day, latitude_deg, lon)
-    if why:
-        return SunRiseSet(month, day, None, None, 1440.0 if why == POLAR_DAY else 0.0, why)
     tz = timezone if zoned else None
-    return SunRiseSet(month, day, _clock_min(rise, lon, tz), _clock_min(setting, lon, tz),
-                      (setting - rise) * 1440.0)
+    out = []
+    for (month, day), (rise, setting, why) in zip(dates, sun_events_jd(year, dates, latitude_deg, lon)):
+        if why:
+            out.append(SunRiseSet(month, day, None, None, 1440.0 if why == POLAR_DAY else 0.0, why))
+        else:
+            out.append(SunRiseSet(month, day, _clock_min(rise, lon, tz), _clock_min(setting, lon, tz),
+                                  (setting - rise) * 1440.0))
+    return tuple(out)
 
 
 def almanac_for_site(year: int, latitude_deg: float, longitude_deg: float | None = None,
@@ -116,7 +119,7 @@ def almanac_for_site(year: int, latitude_deg: float, longitude_deg: float | None
     if zoned:   # its dates the clock's, across the date line too
         longitude_deg = clock_longitude_deg(year, longitude_deg, timezone)
     correction = clock_correction_min(year, longitude_deg if zoned else None, timezone if zoned else None)
-    table = tuple(sun_rise_set_for(year, m, d, latitude_deg, longitude_deg, timezone)
-                  for m in range(1, 13) for d in TABLE_DAYS)
+    table = sun_rise_set_table(year, [(m, d) for m in range(1, 13) for d in TABLE_DAYS],
+                               latitude_deg, longitude_deg, timezone)
     return Almanac(year, ZONE_TIME if zoned else LOCAL_MEAN_TIME, tuple(correction), table,
                    zoned and changes_offset(timezone, year))

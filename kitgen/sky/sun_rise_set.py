@@ -46,54 +46,51 @@ def declination_rad(t_centuries_tt):
     return np.arcsin(np.sin(eps) * np.sin(lam))
 
 
-def cos_hour_angle(latitude_rad: float, declination: float, altitude_rad: float) -> float:
-    """cos H0 of Meeus (1998) eq. 15.1; outside -1..1 when the Sun does
-    not reach ``altitude_rad`` (above 1) or never goes below it (below -1)."""
-    return ((math.sin(altitude_rad) - math.sin(latitude_rad) * math.sin(declination))
-            / (math.cos(latitude_rad) * math.cos(declination)))
+def cos_hour_angle(latitude_rad: float, declination, altitude_rad: float):
+    """cos H0 of Meeus (1998) eq. 15.1, for one declination (radians) or
+    an array; outside -1..1 when the Sun does not reach ``altitude_rad``
+    (above 1) or never goes below it (below -1)."""
+    return ((math.sin(altitude_rad) - math.sin(latitude_rad) * np.sin(declination))
+            / (math.cos(latitude_rad) * np.cos(declination)))
 
 
-def _sun_at(jd_ut: float) -> tuple[float, float]:
-    """(declination rad, equation of time rad) at a UT Julian Date."""
-    t = float(julian_centuries_tt(julian_date_tt(jd_ut)))
-    return float(declination_rad(t)), float(equation_of_time_rad(t))
+def _sun_at(jd_ut):
+    """(declination rad, equation of time rad) at UT Julian Dates (an
+    array, or one date)."""
+    t = julian_centuries_tt(julian_date_tt(jd_ut))
+    return declination_rad(t), equation_of_time_rad(t)
 
 
-def sun_event_jd(year: int, month: int, day: int, latitude_deg: float, longitude_deg: float,
-                 rising: bool, altitude_deg: float = STANDARD_ALTITUDE_DEG) -> tuple[float | None, str | None]:
-    """(UT Julian Date of the Sun's rising or setting, None), or (None,
+def sun_events_jd(year: int, dates, latitude_deg: float, longitude_deg: float,
+                  altitude_deg: float = STANDARD_ALTITUDE_DEG) -> list[tuple[float | None, float | None, str | None]]:
+    """For each (month, day) of ``dates`` in ``year``: (UT Julian Date of
+    the Sun's rising, of its setting, None), or (None, None,
     ``"polar_day"`` or ``"polar_night"``), on the date whose local mean
     noon at ``longitude_deg`` is 12 h - longitude/15 of UT that day.
 
-    At the poles themselves (|latitude| within 1e-9 deg of 90) the Sun's
-    hour angle plays no part: it is up all day when its declination
-    exceeds h0 in the pole's hemisphere."""
+    Every date and both events are approximated together, one array each
+    round (the same rounds as one date alone; #12: a site's table of 24
+    dates took 190 evaluations of the Sun one by one).  At the poles
+    themselves (|latitude| within 1e-9 deg of 90) the Sun's hour angle
+    plays no part: it is up all day when its declination exceeds h0 in
+    the pole's hemisphere."""
     phi = math.radians(latitude_deg)
     h0 = math.radians(altitude_deg)
-    noon_jd = julian_date_ut(year, month, day, 12.0) - longitude_deg / 360.0
-    delta, e = _sun_at(noon_jd)
+    noon_jd = np.array([julian_date_ut(year, m, d, 12.0) for m, d in dates]) - longitude_deg / 360.0
+    delta, _ = _sun_at(noon_jd)
     if abs(latitude_deg) > 90.0 - 1e-9:
         up = math.copysign(1.0, latitude_deg) * delta > h0
-        return None, POLAR_DAY if up else POLAR_NIGHT
+        return [(None, None, POLAR_DAY if u else POLAR_NIGHT) for u in up.tolist()]
     c = cos_hour_angle(phi, delta, h0)
-    if c > 1.0:
-        return None, POLAR_NIGHT
-    if c < -1.0:
-        return None, POLAR_DAY
-    sign = -1.0 if rising else 1.0
-    jd = noon_jd
+    why = [POLAR_NIGHT if x > 1.0 else POLAR_DAY if x < -1.0 else None for x in c.tolist()]
+    noon2 = np.concatenate([noon_jd, noon_jd])
+    sign = np.repeat([-1.0, 1.0], len(noon_jd))
+    jd = noon2
     for _ in range(ROUNDS):
         delta, e = _sun_at(jd)
-        h = math.acos(min(1.0, max(-1.0, cos_hour_angle(phi, delta, h0))))
-        jd = noon_jd + (sign * h - e) / (2.0 * math.pi)
-    return jd, None
-
-
-def rise_set_jd(year: int, month: int, day: int, latitude_deg: float, longitude_deg: float = 0.0):
-    """(rise UT JD or None, set UT JD or None, reason or None) for a date."""
-    rise, why = sun_event_jd(year, month, day, latitude_deg, longitude_deg, rising=True)
-    if why:
-        return None, None, why
-    setting, why = sun_event_jd(year, month, day, latitude_deg, longitude_deg, rising=False)
-    return rise, setting, why
+        h = np.arccos(np.clip(cos_hour_angle(phi, delta, h0), -1.0, 1.0))
+        jd = noon2 + (sign * h - e) / (2.0 * math.pi)
+    n = len(noon_jd)
+    return [(None, None, w) if w else (rise, setting, None)
+            for w, rise, setting in zip(why, jd[:n].tolist(), jd[n:].tolist())]
 
