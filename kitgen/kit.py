@@ -10,9 +10,8 @@ from __future__ import annotations
 
 from dataclasses import dataclass, field, replace
 from functools import lru_cache
+from typing import TYPE_CHECKING
 
-from .check.accuracy import Accuracy, check_kit
-from .check.reading import READING_PARTS
 from .errors import Message, UserError
 from .geometry.model import Part
 from .kept import keep_last, kept_for
@@ -28,6 +27,9 @@ from .plan.resolve import plan_kit, site_notes
 from .recipe.schema import Recipe
 from .sky.almanac import SkyForKit
 from .words.templates import Words
+
+if TYPE_CHECKING:   # kitgen check's figures are worked out only for a kit that prints them
+    from .check.accuracy import Accuracy
 
 
 @dataclass(frozen=True)
@@ -188,6 +190,8 @@ def _nameless(plan: Plan, drawn: dict | None = None) -> _Nameless:
     notes += clock_ring_notes(parts, dims)  # the back without its clock ring says so (#10)
     kit = Kit(plan, dims, parts, tuple(notes) + shortened_notes(parts, dims, plan.words))
     if plan.accuracy_page:
+        from .check.accuracy import check_kit
+        from .check.reading import READING_PARTS
         missing = [k for k in READING_PARTS if k not in plan.parts]
         if missing:
             raise UserError("errors.accuracy_page_parts", parts=list(READING_PARTS), missing=missing)

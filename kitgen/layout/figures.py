@@ -480,13 +480,15 @@ def _choose_targets(named, lines, samples, reach_mm: float, rim_mm: float, spaci
     by_x = np.argsort(others_all[:, 0], kind="stable")
     xs = others_all[by_x, 0]
     chosen: dict[int, tuple] = {}
-    order = sorted(range(len(named)), key=lambda i: sum(
-        len(samples[j]) for j, el in enumerate(lines) if _matches(el, *named[i][:2])))
+    by_role: dict[str, list[int]] = {}
+    for j, el in enumerate(lines):
+        by_role.setdefault(el.role, []).append(j)
+    mine = [[j for j in by_role.get(role, ()) if _matches(lines[j], role, values)] for role, values, _ in named]
+    order = sorted(range(len(named)), key=lambda i: sum(len(samples[j]) for j in mine[i]))
     for i in order:
-        role, values, _ = named[i]
-        mine = [j for j, el in enumerate(lines) if _matches(el, role, values)]
+        role = named[i][0]
         best = None
-        for j in mine:
+        for j in mine[i]:
             pts = samples[j][::2]   # a candidate every millimetre
             if role == "zenith":
                 clear = np.full(len(pts), 1.0)

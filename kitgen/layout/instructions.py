@@ -10,7 +10,6 @@ from __future__ import annotations
 import functools
 import unicodedata
 
-from ..check.report import report_lines
 from ..kept import kept_for
 from ..parts.clock_scale import signed
 from ..parts.format import IN_SENTENCE, WITHIN_LINE, latitude_text
@@ -554,6 +553,7 @@ def accuracy_blocks(kit) -> list[Block]:
     accuracy = getattr(kit, "accuracy", None)
     if accuracy is None:
         return []
+    from ..check.report import report_lines   # only for a kit that prints its accuracy page
     lines = report_lines(kit, accuracy)
     return ([Block(PAGE_BREAK, ""), Block("heading", lines[0])]
             + [Block("body", line.strip()) for line in lines[1:]])
