@@ -61,7 +61,9 @@ def own_lines(label, line) -> bool:
     if label.role == "almucantar_label":
         return line.role in ("almucantar", "horizon") and abs(line.values.get("altitude_deg", 1e9) - v["altitude_deg"]) < 1e-9
     if label.role == "azimuth_label":
-        return line.role == "azimuth" and abs(line.values.get("azimuth_deg", 1e9) - v["azimuth_deg"]) < 1e-9
+        # (and its leader, where it stands beside its horizon point)
+        return line.role in ("azimuth", "azimuth_leader") \
+            and abs(line.values.get("azimuth_deg", 1e9) - v["azimuth_deg"]) < 1e-9
     if label.role == "curve_label":
         return line.role == v["curve"] and all(abs(line.values.get(k, 1e9) - x) < 1e-6
                                                for k, x in v.items() if k != "curve")

@@ -31,6 +31,7 @@ from hypothesis import strategies as st
 
 from kitgen.geometry.style import dot_radius_mm, pin_cross_half_mm, stroke_width_mm
 from kitgen.kit import build_kit
+from kitgen.parts.labels import MARGIN_MM
 from kitgen.words.locale import true_minus
 from kitgen.recipe.load import validate_recipe
 from kitgen.recipe.schema import SHEETS
@@ -288,7 +289,7 @@ def test_unequal_hours_numbered_between_their_lines(lat):
         assert e.values["hour"] - 1 < share < e.values["hour"], (lat, e.values["hour"], share)
 
 
-@pytest.mark.parametrize("lat", [52.2, -33.9, 0.5, 23.44, -64.0, 75.0])
+@pytest.mark.parametrize("lat", [52.2, -33.9, 0.5, 23.44, -64.0, 75.0, 10.0, -6.2])
 def test_azimuth_numbers_stand_on_their_azimuth(lat):
     # The number's centre is on its vertical circle (continued below the
     # horizon, or where the line ends at the rim): its azimuth, from
@@ -301,8 +302,17 @@ def test_azimuth_numbers_stand_on_their_azimuth(lat):
     labels = part.with_role("azimuth_label")
     assert len(labels) >= 4
     north = np.array([0.0, -math.sin(phi), math.cos(phi)])
+    leaders = {e.values["azimuth_deg"]: e for e in part.with_role("azimuth_leader")}
     for e in labels:
-        v = sky_vector(e.geom["at"], lat, R)
+        at = e.geom["at"]
+        if e.values["azimuth_deg"] in leaders:
+            # A number with no room on its line stands beside its horizon
+            # point, its leader ending MARGIN_MM short of that point.
+            g = leaders[e.values["azimuth_deg"]].geom
+            (ax, ay), (zx, zy) = g["from"], g["to"]
+            L = math.hypot(zx - ax, zy - ay)
+            at = (zx + (zx - ax) / L * MARGIN_MM, zy + (zy - ay) / L * MARGIN_MM)
+        v = sky_vector(at, lat, R)
         az = math.degrees(math.atan2(-v[0], v @ north)) % 360.0
         off = (az - e.values["azimuth_deg"] + 180.0) % 360.0 - 180.0
         assert abs(off) < 1e-3, (lat, e.values["azimuth_deg"], az)
@@ -448,3 +458,26 @@ def test_no_stub_of_a_broken_line_beside_a_label(lat, diameter):
         if any(distance_to_box(ends, b).min() <= reach for b in boxes):
             stubs.append((e.role, round(stroke_length_mm(e), 2)))
     assert not stubs, (lat, diameter, stubs)
+
+
+@pytest.mark.parametrize("lat", [-9.5, -6.2, -0.5, 0.5, 4.0, 10.0, 17.5, 28.6])
+def test_every_thirty_degrees_of_azimuth_is_numbered_near_the_equator(lat):
+    # Every reading numbered (common practice on an astrolabe's plate: the
+    # azimuths numbered at least every 30 degrees). Near the equator the
+    # azimuths meet the horizon close together by the north and south
+    # points, among the tropics; on an A4 kit from 1 to 19 deg N the 60 and
+    # 300 deg azimuths, and from 0.5 to 18.5 deg S the 120 and 240 deg ones,
+    # had no number. Each multiple of 30 whose horizon point lies on the
+    # plate has one (where it stands is checked against the projection in
+    # test_azimuth_numbers_stand_on_their_azimuth). (From 11 to 18.5 deg S
+    # the 240 deg azimuth still finds no place, nor a leader crossing no
+    # line: left for later, said in the build's notes.)
+    kit = kit_of(latitude=lat, sheet="a4")
+    part = plates(kit)[0]
+    numbered = {round(e.values["azimuth_deg"]) for e in part.with_role("azimuth_label")}
+    owed = {a for a in range(30, 360, 30) if a % 90}
+    assert owed <= numbered, (lat, sorted(owed - numbered))
+    assert not [t for t in part.values.get("labels_left_out", ()) if t.endswith("°")]
+    for leader in part.with_role("azimuth_leader"):
+        (ax, ay), (zx, zy) = leader.geom["from"], leader.geom["to"]
+        assert math.hypot(zx - ax, zy - ay) >= 1.5   # no shorter than a line's least piece

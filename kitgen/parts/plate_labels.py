@@ -38,7 +38,7 @@ from ..geometry import model
 from ..geometry.arrays import ints_not_in, unique_ints
 from ..geometry.style import dot_radius_mm, pin_cross_half_mm, stroke_width_mm, zenith_mark_half_mm
 from ..projection.stereographic import equatorial_vector, horizontal_vector, project_vectors
-from .breaks import (MEETS, UNSURE, Box, arcs_meet_boxes, boxes_overlap, meets_near, reach_of,
+from .breaks import (MEETS, MIN_PIECE_MM, UNSURE, Box, arcs_meet_boxes, boxes_overlap, meets_near, reach_of,
                      ring_meets_grown, segments_meet_boxes)
 from .labels import MARGIN_MM
 from .stroke_index import BoxIndex, StrokeArrays, StrokeIndex
@@ -58,6 +58,16 @@ PREFER_CLEAR_MM = 3.0
 NEAR_MM = 2.5
 #: How far (mm, along its curve) a number may slide from where it belongs.
 SLIDE_MM = 12.0
+#: How far (mm) along its own line from its horizon point the leader of an
+#: azimuth's number with no room on its line may meet the line instead.
+LED_ALONG_MM = 4.0
+#: The longest such leader (mm, a choice: a number farther from its line
+#: is hard to follow to it).
+LED_MOST_MM = 4.0
+#: How far (mm) from its horizon point the number's centre may stand: as
+#: far as a leader of the most length from the farthest point it may meet,
+#: and half a three-figure number's width (about 2.5 mm at 6 pt).
+LED_REACH_MM = LED_ALONG_MM + LED_MOST_MM + 2 * MARGIN_MM + 2.5
 #: How far (mm, along its circle) a number slides before it may cross
 #: the azimuths near the zenith rather than slide on.
 NEAR_SLIDE_MM = 4.0
@@ -771,14 +781,67 @@ class PlateLabeller:
                 b = self.first_free([c for el in own for c in points_along(el, p0)], text, size, protected)
             if b is not None:
                 return self.put("azimuth_label", b, text, size, azimuth_deg=float(az))
-            return self._azimuth_missing(az, text)
-        for el in own:
-            for end in _ends(el):
-                if abs(math.hypot(*end) - (self.room.disc + MARGIN_MM)) < 1e-3:
-                    b = self.first_free(points_along(el, end, reach_mm=2 * SLIDE_MM), text, size, protected)
-                    if b is not None:
-                        return self.put("azimuth_label", b, text, size, azimuth_deg=float(az))
+            if _multiple_of(az, 30.0):
+                # Owed a number: beside its horizon point with a leader to it
+                # (near the equator the azimuths meet the horizon close
+                # together among the tropics, and on an A5 plate among the
+                # almucantars, where no number fits on a line).
+                return self._led_number(p0, text, size, az, own)
+            return None
+        rim_ends = [(el, end) for el in own for end in _ends(el)
+                    if abs(math.hypot(*end) - (self.room.disc + MARGIN_MM)) < 1e-3]
+        for el, end in rim_ends:
+            b = self.first_free(points_along(el, end, reach_mm=2 * SLIDE_MM), text, size, protected)
+            if b is not None:
+                return self.put("azimuth_label", b, text, size, azimuth_deg=float(az))
+        if rim_ends and _multiple_of(az, 30.0):   # owed a number: beside its end, with a leader
+            return self._led_number(rim_ends[0][1], text, size, az, own)
         return self._azimuth_missing(az, text)
+
+    def _led_number(self, p0, text: str, size_pt: float, az: float, own):
+        """An azimuth's number the nearest it can stand to its horizon
+        point ``p0`` (out to :data:`LED_REACH_MM`), clear of every line and
+        label, with a fine leader that crosses none (:meth:`_leader`), no
+        shorter than a line's least piece (``breaks.MIN_PIECE_MM``) and no
+        longer than :data:`LED_MOST_MM`, to
+        that point or else to its own line ``own`` (its pieces) within
+        :data:`LED_ALONG_MM` of it; else left out."""
+        targets = [p0] + [(x, y) for el in own for x, y, _ in points_along(el, p0, 1.0, LED_ALONG_MM)]
+        ext = self.w.measure(text, size_pt)
+        dx, dy = _around_offsets(2 * STEP_MM, LED_REACH_MM, np.zeros(2))
+        places = Places.of_arrays(p0[0] + dx, p0[1] + dy, ext.width_mm / 2, ext.height_mm / 2)
+        room, lines = self.room, self.others()
+        can = places.inside(room)
+        for clear in (CLEAR_MM, MARGIN_MM):
+            for run in _runs(len(places), 64, 1024):
+                idx = run[can[run]]
+                screen = Screen(room, places, idx, lines, clear)
+                for i in screen.maybe_clear():
+                    if not screen.clear(i):
+                        continue
+                    b = places.box(int(idx[i]))
+                    if not (room.clear_of_labels(b) and room.clear_of(b, self.reference)):
+                        continue
+                    lead = None
+                    for target in targets:
+                        # (a leader shorter than a line's least piece reads as
+                        # a stray tick, a long one is hard to follow: its
+                        # length, known before its lane is tested, rules it
+                        # out first)
+                        if not MIN_PIECE_MM <= math.dist(_box_nearest(b, target), target) - 2 * MARGIN_MM <= LED_MOST_MM:
+                            continue
+                        lead = self._leader(b, target)
+                        if lead is not None:
+                            break
+                    if lead is not None:
+                        (ax, ay), (zx, zy) = lead
+                        # the leader's ink kept clear of the labels set after it
+                        self.room.taken.append(Box(((ax + zx) / 2, (ay + zy) / 2), math.atan2(zy - ay, zx - ax),
+                                                   math.dist(lead[0], lead[1]) / 2,
+                                                   stroke_width_mm("fine", self.d) / 2))
+                        self.out.append(model.segment("azimuth_leader", *lead, "fine", azimuth_deg=float(az)))
+                        return self.put("azimuth_label", b, text, size_pt, azimuth_deg=float(az))
+        return self.left_out(text)
 
     def _azimuth_missing(self, az: float, text: str):
         # Only the multiples of 30 degrees are owed a number (the others
@@ -990,3 +1053,7 @@ def _on_element(el, q) -> bool:
     lo, hi = el.geom["start_deg"], el.geom["end_deg"]
     t = lo + (t - lo) % 360.0
     return t <= hi
+
+
+def _multiple_of(value: float, of: float) -> bool:
+    return abs(value / of - round(value / of)) < 1e-9
