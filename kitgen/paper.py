@@ -42,14 +42,15 @@ DEFAULT_MARGIN_MM = 10.0
 MIN_MARGIN_MM = 6.0
 MAX_MARGIN_MM = 30.0
 
-#: Limits on a custom sheet's sides (mm): the short side must hold the
-#: 100 mm check bar and the page number inside the margins; the long side
-#: stays within what roll plotters take (A0 is 841 x 1189 mm).
-MIN_SIDE_MM = 140.0
-MAX_SIDE_MM = 1500.0
 #: Room (mm) across the sheet, inside the margins, for the check bar and
 #: the page number beside it.
 MIN_USABLE_MM = 120.0
+#: Limits on a custom sheet's sides (mm): the short side must hold the
+#: 100 mm check bar and the page number inside the least margins (132 mm:
+#: a US half-letter sheet, 5.5 x 8.5 in, is 139.7 mm across); the long side
+#: stays within what roll plotters take (A0 is 841 x 1189 mm).
+MIN_SIDE_MM = MIN_USABLE_MM + 2 * MIN_MARGIN_MM
+MAX_SIDE_MM = 1500.0
 
 
 class SheetError(KeyedError, ValueError):

@@ -158,7 +158,7 @@ def test_sheet_too_small(tmp_path, capsys):
     page furniture is refused with the limits (a named sheet, however
     large the instrument, is tiled instead)."""
     build_fails(tmp_path, capsys, "latitude: 40\nsheet: {width_mm: 100, height_mm: 100}\n", "line 2",
-                "'sheet'", "100", "140")
+                "'sheet'", "100", "132")
 
 
 def test_unknown_sheet(tmp_path, capsys):
