@@ -433,3 +433,15 @@ def test_one_apostrophe_throughout(code):
     assert not (straight and curly), (straight, curly)
     if code in ("fr", "it"):
         assert curly and not straight
+
+
+@pytest.mark.parametrize("given, printed", [(31.95, "Latitude 32.0° N"), (-12.35, "Latitude 12.4° S"),
+                                            (48.25, "Latitude 48.3° N"), (51.4778, "Latitude 51.5° N")])
+def test_a_latitude_is_printed_rounded_as_its_decimal_figures_read(given, printed):
+    # One decimal, a half rounded up as a reader rounds the figures given
+    # (common practice in print; from memory, rule B of the rounding annex
+    # of ISO 80000-1:2009); binary rounding had printed 31.95 as 31.9, a
+    # plate's label a teacher would take for a mistake.
+    kit = build_kit(parse_recipe_text(f"latitude: {given}\nepoch: 2027\nparts: [plate]\n"))
+    labels = [e.geom["text"] for e in kit.part("plate-1").elements if e.shape == "text"]
+    assert printed in labels, labels
