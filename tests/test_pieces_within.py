@@ -34,7 +34,9 @@ def _length(el) -> float:
     return math.dist(g["from"], g["to"])
 
 
-coord = st.floats(-20, 20)
+# (no subnormal numbers: a drawing in mm has none, and the reference, shapely
+# (GEOS), buffers a segment 1e-313 mm off an axis into a wrong polygon)
+coord = st.floats(-20, 20, allow_subnormal=False)
 
 
 @settings(max_examples=60, deadline=None)

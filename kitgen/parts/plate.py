@@ -201,7 +201,7 @@ def _labels(ctx, phi, s, R, disc, strokes):
             lab.unequal_hour(k, phi, s, R, eps)
     az_step = ctx.scales.azimuth_step_deg
     azimuths = [a for a in np.arange(0.0, 360.0 - 1e-9, az_step) if not _multiple(a, 90.0)]
-    for az in sorted(azimuths, key=lambda a: (not _multiple(a, 30.0), a)):
+    for az in [a for a in azimuths if _multiple(a, 30.0)]:
         lab.azimuth(float(az), phi, s, R)
     lab.curve_name("horizon", w("plate.line_horizon"))
     lab.curve_name("equator", w("plate.line_equator"))
@@ -209,6 +209,10 @@ def _labels(ctx, phi, s, R, disc, strokes):
     lab.curve_name("tropic", w("plate.line_tropic_capricorn"), declination_deg=-math.degrees(eps))
     for alt in ctx.plan.drawing.twilight_deg:
         lab.curve_name("twilight", w("plate.line_twilight", altitude=true_minus(w.number(alt))), altitude_deg=alt)
+    # The azimuths between the thirties, numbered where the names have left room (#12: on an A5 plate from
+    # 34 S to 34 N the 15 and 345 deg numbers had taken the twilight line's only places, and it had no name)
+    for az in [a for a in azimuths if not _multiple(a, 30.0)]:
+        lab.azimuth(float(az), phi, s, R)
     for alt in numbered:
         if alt not in tens:
             lab.almucantar(alt, False)
