@@ -636,29 +636,34 @@ class PlateLabeller:
         base, leads = {}, {}
         # Last, a letter over other lines (broken round it): a pupil must
         # always find the four points (#9).
-        for lines, clear in ((protected, CLEAR_MM), (protected, MARGIN_MM), ((), MARGIN_MM)):
+        for k, b in self._free_places(places, can, ((protected, CLEAR_MM), (protected, MARGIN_MM), ((), MARGIN_MM))):
+            ok = base.get(k)
+            if ok is None:
+                ok = base[k] = room.clear_of_labels(b) and room.clear_of(b, self.reference)
+            if not ok:
+                continue
+            if far[k]:
+                if k not in leads:
+                    leads[k] = self._leader(b, p0)
+                lead = leads[k]
+                if lead is None:
+                    continue
+                self.out.append(model.segment("cardinal_leader", *lead, "fine", azimuth_deg=az_deg))
+            return self.put("cardinal", b, text, size, azimuth_deg=az_deg)
+        return self.left_out(text)
+
+    def _free_places(self, places: "Places", can, levels):
+        """(index, box) of each place of ``places`` where ``can``, in order,
+        clear of the lines of each (lines, clearance in mm) of ``levels`` in
+        turn: screened many at a time, as arrays (:class:`Screen`, #12)."""
+        for lines, clear in levels:
             for run in _runs(len(places), 64, 1024):
                 idx = run[can[run]]
-                screen = Screen(room, places, idx, lines, clear)
+                screen = Screen(self.room, places, idx, lines, clear)
                 for i in screen.maybe_clear():
-                    if not screen.clear(i):
-                        continue
-                    k = int(idx[i])
-                    b = places.box(k)
-                    ok = base.get(k)
-                    if ok is None:
-                        ok = base[k] = room.clear_of_labels(b) and room.clear_of(b, self.reference)
-                    if not ok:
-                        continue
-                    if far[k]:
-                        if k not in leads:
-                            leads[k] = self._leader(b, p0)
-                        lead = leads[k]
-                        if lead is None:
-                            continue
-                        self.out.append(model.segment("cardinal_leader", *lead, "fine", azimuth_deg=az_deg))
-                    return self.put("cardinal", b, text, size, azimuth_deg=az_deg)
-        return self.left_out(text)
+                    if screen.clear(i):
+                        k = int(idx[i])
+                        yield k, places.box(k)
 
     def _leader(self, b: Box, p0):
         """The ends of a fine line from the letter's box to its horizon
@@ -811,36 +816,26 @@ class PlateLabeller:
         dx, dy = _around_offsets(2 * STEP_MM, LED_REACH_MM, np.zeros(2))
         places = Places.of_arrays(p0[0] + dx, p0[1] + dy, ext.width_mm / 2, ext.height_mm / 2)
         room, lines = self.room, self.others()
-        can = places.inside(room)
-        for clear in (CLEAR_MM, MARGIN_MM):
-            for run in _runs(len(places), 64, 1024):
-                idx = run[can[run]]
-                screen = Screen(room, places, idx, lines, clear)
-                for i in screen.maybe_clear():
-                    if not screen.clear(i):
-                        continue
-                    b = places.box(int(idx[i]))
-                    if not (room.clear_of_labels(b) and room.clear_of(b, self.reference)):
-                        continue
-                    lead = None
-                    for target in targets:
-                        # (a leader shorter than a line's least piece reads as
-                        # a stray tick, a long one is hard to follow: its
-                        # length, known before its lane is tested, rules it
-                        # out first)
-                        if not MIN_PIECE_MM <= math.dist(_box_nearest(b, target), target) - 2 * MARGIN_MM <= LED_MOST_MM:
-                            continue
-                        lead = self._leader(b, target)
-                        if lead is not None:
-                            break
-                    if lead is not None:
-                        (ax, ay), (zx, zy) = lead
-                        # the leader's ink kept clear of the labels set after it
-                        self.room.taken.append(Box(((ax + zx) / 2, (ay + zy) / 2), math.atan2(zy - ay, zx - ax),
-                                                   math.dist(lead[0], lead[1]) / 2,
-                                                   stroke_width_mm("fine", self.d) / 2))
-                        self.out.append(model.segment("azimuth_leader", *lead, "fine", azimuth_deg=float(az)))
-                        return self.put("azimuth_label", b, text, size_pt, azimuth_deg=float(az))
+        for _, b in self._free_places(places, places.inside(room), ((lines, CLEAR_MM), (lines, MARGIN_MM))):
+            if not (room.clear_of_labels(b) and room.clear_of(b, self.reference)):
+                continue
+            lead = None
+            for target in targets:
+                # (a leader shorter than a line's least piece reads as a
+                # stray tick, a long one is hard to follow: its length, known
+                # before its lane is tested, rules it out first)
+                if not MIN_PIECE_MM <= math.dist(_box_nearest(b, target), target) - 2 * MARGIN_MM <= LED_MOST_MM:
+                    continue
+                lead = self._leader(b, target)
+                if lead is not None:
+                    break
+            if lead is not None:
+                (ax, ay), (zx, zy) = lead
+                # the leader's ink kept clear of the labels set after it
+                room.taken.append(Box(((ax + zx) / 2, (ay + zy) / 2), math.atan2(zy - ay, zx - ax),
+                                      math.dist(lead[0], lead[1]) / 2, stroke_width_mm("fine", self.d) / 2))
+                self.out.append(model.segment("azimuth_leader", *lead, "fine", azimuth_deg=float(az)))
+                return self.put("azimuth_label", b, text, size_pt, azimuth_deg=float(az))
         return self.left_out(text)
 
     def _azimuth_missing(self, az: float, text: str):
