@@ -481,3 +481,62 @@ def test_every_thirty_degrees_of_azimuth_is_numbered_near_the_equator(lat):
     for leader in part.with_role("azimuth_leader"):
         (ax, ay), (zx, zy) = leader.geom["from"], leader.geom["to"]
         assert math.hypot(zx - ax, zy - ay) >= 1.5   # no shorter than a line's least piece
+
+
+def _lines_between(part, lat, R, label):
+    """The drawn lines (other than the number's own azimuth and the
+    horizon) that run between an azimuth's number and its horizon point:
+    within 0.06 mm of the straight stretch from 0.3 mm off the point to
+    1.2 mm short of the number's centre. The point is the horizon's, among
+    points every 0.02 mm along it, whose azimuth (by the inverse projection
+    of sky_vector: Snyder 1987 and Meeus eq. 13.5) is the number's; none
+    where the azimuth meets the horizon off the plate."""
+    north = np.array([0.0, -math.sin(math.radians(lat)), math.cos(math.radians(lat))])
+    best = None
+    for e in part.with_role("horizon"):
+        for q in samples(e, 0.02):
+            v = sky_vector(q, lat, R)
+            az = math.degrees(math.atan2(-v[0], v @ north))
+            off = abs((az - label.values["azimuth_deg"] + 180.0) % 360.0 - 180.0)
+            if best is None or off < best[1]:
+                best = (q, off)
+    if best is None or best[1] > 0.2:
+        return []   # the azimuth meets the horizon off the plate: its number stands at the rim
+    p0, c = np.asarray(best[0]), np.asarray(label.geom["at"])
+    d = float(np.hypot(*(c - p0)))
+    if d < 1.5:
+        return []
+    u = (c - p0) / d
+    stretch = np.linspace(p0 + 0.3 * u, c - 1.2 * u, max(2, int(d / 0.05)))
+    lo, hi = stretch.min(axis=0) - 0.5, stretch.max(axis=0) + 0.5
+    found = []
+    for e in part.elements:
+        if e.shape not in STROKES or e.stroke in ("none", "cut", "fold") or e.role == "horizon":
+            continue
+        if e.role in ("azimuth", "azimuth_leader") and abs(e.values.get("azimuth_deg", -1.0)
+                                                           - label.values["azimuth_deg"]) < 1e-6:
+            continue
+        pts = samples(e)
+        pts = pts[np.all((pts >= lo) & (pts <= hi), axis=1)]
+        if len(pts) and float(np.min(np.hypot(pts[:, None, 0] - stretch[None, :, 0],
+                                              pts[:, None, 1] - stretch[None, :, 1]))) < 0.06:
+            found.append(e.role)
+    return found
+
+
+@pytest.mark.parametrize("lat", [-6.2, -45.0, 10.0, 52.2])
+def test_a_number_owed_has_no_other_line_between_it_and_its_point(lat):
+    # A number set on its azimuth continued below the horizon, with another
+    # line between it and the azimuth's horizon point, reads as that line's
+    # (a teacher-style review: 60 and 300 deg under the east-west line at
+    # 6.2 deg S). Where a leader fits, the number is moved beside its point
+    # with one (common practice in map labelling: a label by its feature, or
+    # led to it); at these latitudes every multiple of 30 is so placed.
+    kit = kit_of(latitude=lat, sheet="a4")
+    part = plates(kit)[0]
+    R = kit.dims.equator_radius_mm
+    led = {e.values["azimuth_deg"] for e in part.with_role("azimuth_leader")}
+    for label in part.with_role("azimuth_label"):
+        if label.values["azimuth_deg"] % 30 or label.values["azimuth_deg"] in led:
+            continue
+        assert not _lines_between(part, lat, R, label), (lat, label.geom["text"])

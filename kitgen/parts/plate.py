@@ -203,6 +203,7 @@ def _labels(ctx, phi, s, R, disc, strokes):
     azimuths = [a for a in np.arange(0.0, 360.0 - 1e-9, az_step) if not _multiple(a, 90.0)]
     for az in [a for a in azimuths if _multiple(a, 30.0)]:
         lab.azimuth(float(az), phi, s, R)
+    lab.lead_the_hidden()
     lab.curve_name("horizon", w("plate.line_horizon"))
     lab.curve_name("equator", w("plate.line_equator"))
     lab.curve_name("tropic", w("plate.line_tropic_cancer"), declination_deg=math.degrees(eps))
