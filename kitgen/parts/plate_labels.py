@@ -663,12 +663,12 @@ class PlateLabeller:
             return self.put("cardinal", b, text, size, azimuth_deg=az_deg)
         return self.left_out(text)
 
-    def _free_places(self, places: "Places", can, levels):
+    def _free_places(self, places: "Places", can, levels, first: int = 64):
         """(index, box) of each place of ``places`` where ``can``, in order,
         clear of the lines of each (lines, clearance in mm) of ``levels`` in
         turn: screened many at a time, as arrays (:class:`Screen`, #12)."""
         for lines, clear in levels:
-            for run in _runs(len(places), 64, 1024):
+            for run in _runs(len(places), first, 1024):
                 idx = run[can[run]]
                 screen = Screen(self.room, places, idx, lines, clear)
                 for i in screen.maybe_clear():
@@ -860,8 +860,17 @@ class PlateLabeller:
         ext = self.w.measure(text, size_pt)
         dx, dy = _around_offsets(2 * STEP_MM, LED_REACH_MM, np.zeros(2))
         places = Places.of_arrays(p0[0] + dx, p0[1] + dy, ext.width_mm / 2, ext.height_mm / 2)
-        room, lines = self.room, self.others()
-        for _, b in self._free_places(places, places.inside(room), ((lines, CLEAR_MM), (lines, MARGIN_MM))):
+        room = self.room
+        # only the lines that come within the places' reach (with their boxes and clearances) of the point
+        reach = LED_REACH_MM + math.hypot(ext.width_mm, ext.height_mm) / 2 + CLEAR_MM + 1.0
+        lines = [el for el in self.others() if _comes_within(el, p0, reach)]
+        # the places some leader's length suits (from an upright box's nearest point to a target), found at once
+        t = np.asarray(targets, dtype=float)
+        gap = np.hypot(np.maximum(np.abs(t[None, :, 0] - places.x[:, None]) - places.half_w, 0.0),
+                       np.maximum(np.abs(t[None, :, 1] - places.y[:, None]) - places.half_h, 0.0)) - 2 * MARGIN_MM
+        suits = np.any((gap >= MIN_PIECE_MM - 1e-9) & (gap <= LED_MOST_MM + 1e-9), axis=1)
+        for _, b in self._free_places(places, places.inside(room) & suits, ((lines, CLEAR_MM), (lines, MARGIN_MM)),
+                                      1024):
             if not (room.clear_of_labels(b) and room.clear_of(b, self.reference)):
                 continue
             lead = None
@@ -1097,3 +1106,13 @@ def _on_element(el, q) -> bool:
 
 def _multiple_of(value: float, of: float) -> bool:
     return abs(value / of - round(value / of)) < 1e-9
+
+
+def _comes_within(el, p, reach_mm: float) -> bool:
+    """Whether a stroke may come within ``reach_mm`` of the point ``p``:
+    a circle's or an arc's circle, or a line's bounds (a test that may
+    say yes for a stroke that does not)."""
+    ring, a, b, c, d = reach_of(el)
+    if ring:
+        return abs(math.dist((a, b), p) - c) <= reach_mm
+    return a - reach_mm <= p[0] <= b + reach_mm and c - reach_mm <= p[1] <= d + reach_mm
