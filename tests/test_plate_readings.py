@@ -524,19 +524,52 @@ def _lines_between(part, lat, R, label):
     return found
 
 
-@pytest.mark.parametrize("lat", [-6.2, -45.0, 10.0, 52.2])
-def test_a_number_owed_has_no_other_line_between_it_and_its_point(lat):
+@pytest.mark.parametrize("lat, numbers", [(-6.2, ("60°", "300°")), (-45.0, ("60°",)), (0.5, ("120°", "240°")),
+                                          (23.44, ("60°",)), (52.2, ("60°", "120°", "240°", "300°"))])
+def test_a_number_owed_has_no_other_line_between_it_and_its_point(lat, numbers):
     # A number set on its azimuth continued below the horizon, with another
     # line between it and the azimuth's horizon point, reads as that line's
     # (a teacher-style review: 60 and 300 deg under the east-west line at
     # 6.2 deg S). Where a leader fits, the number is moved beside its point
     # with one (common practice in map labelling: a label by its feature, or
-    # led to it); at these latitudes every multiple of 30 is so placed.
+    # led to it). These numbers each had a line between them and their
+    # point, or (52.2 N) had none; where no leader fits (150 and 210 deg at
+    # 6.2 S, past the twilight line) the number stays as it was.
     kit = kit_of(latitude=lat, sheet="a4")
     part = plates(kit)[0]
     R = kit.dims.equator_radius_mm
     led = {e.values["azimuth_deg"] for e in part.with_role("azimuth_leader")}
-    for label in part.with_role("azimuth_label"):
-        if label.values["azimuth_deg"] % 30 or label.values["azimuth_deg"] in led:
+    labels = {e.geom["text"]: e for e in part.with_role("azimuth_label")}
+    for text in numbers:
+        label = labels[text]
+        if label.values["azimuth_deg"] in led:
             continue
-        assert not _lines_between(part, lat, R, label), (lat, label.geom["text"])
+        assert not _lines_between(part, lat, R, label), (lat, text)
+
+
+@pytest.mark.parametrize("lat", [-45.0, -6.2, 0.5, 10.0, 23.44, 40.7, 60.0])
+def test_a_numbers_leader_is_steep_and_crosses_no_line(lat):
+    # A leader from a number to its point crosses no drawn line on its way
+    # (it would put the number across that line from its point), and is no
+    # level dash, which beside a number reads as its minus sign (common
+    # practice in map labelling; the 30 deg least slope is kitgen's choice).
+    kit = kit_of(latitude=lat, sheet="a4")
+    part = plates(kit)[0]
+    for leader in part.with_role("azimuth_leader"):
+        (ax, ay), (zx, zy) = leader.geom["from"], leader.geom["to"]
+        slope = abs(math.degrees(math.atan2(zy - ay, zx - ax)))
+        assert 30.0 - 1e-9 <= slope <= 150.0 + 1e-9, (lat, leader.values, slope)
+        length = math.hypot(zx - ax, zy - ay)
+        u = ((zx - ax) / length, (zy - ay) / length)
+        # from its start to 0.6 mm short of its end, where its own lines meet the point
+        stretch = np.linspace((ax, ay), (zx - 0.6 * u[0], zy - 0.6 * u[1]), 60)
+        lo, hi = stretch.min(axis=0) - 0.5, stretch.max(axis=0) + 0.5
+        for e in part.elements:
+            if e is leader or e.shape not in STROKES or e.stroke in ("none", "cut", "fold"):
+                continue
+            pts = samples(e)
+            pts = pts[np.all((pts >= lo) & (pts <= hi), axis=1)]
+            if len(pts):
+                d = float(np.min(np.hypot(pts[:, None, 0] - stretch[None, :, 0],
+                                          pts[:, None, 1] - stretch[None, :, 1])))
+                assert d > stroke_width_mm(e.stroke, kit.dims) / 2, (lat, leader.values, e.role, d)

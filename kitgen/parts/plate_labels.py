@@ -64,6 +64,9 @@ LED_ALONG_MM = 4.0
 #: The longest such leader (mm, a choice: a number farther from its line
 #: is hard to follow to it).
 LED_MOST_MM = 4.0
+#: The least slope (degrees from level) of a number's leader: a level
+#: dash beside a number reads as its minus sign (a choice).
+LEADER_LEAST_SLOPE_DEG = 30.0
 #: How far (mm) from its horizon point the number's centre may stand: a
 #: leader of the most length from the point, and half a three-figure
 #: number's width (about 2.5 mm at 6 pt).  (Over 40 kits from 60 S to
@@ -857,6 +860,11 @@ class PlateLabeller:
         that point or else to its own line ``own`` (its pieces) within
         :data:`LED_ALONG_MM` of it; else None."""
         targets = [p0] + [(x, y) for el in own for x, y, _ in points_along(el, p0, 1.0, LED_ALONG_MM)]
+        # (not where a label stands: its line is broken round it, and the leader would point at nothing)
+        targets = [t for t in targets if self.room.clear_of_labels(Box((float(t[0]), float(t[1])), 0.0,
+                                                                       MARGIN_MM, MARGIN_MM))]
+        if not targets:
+            return None
         ext = self.w.measure(text, size_pt)
         dx, dy = _around_offsets(2 * STEP_MM, LED_REACH_MM, np.zeros(2))
         places = Places.of_arrays(p0[0] + dx, p0[1] + dy, ext.width_mm / 2, ext.height_mm / 2)
@@ -881,16 +889,38 @@ class PlateLabeller:
                 if not MIN_PIECE_MM <= math.dist(_box_nearest(b, target), target) - 2 * MARGIN_MM <= LED_MOST_MM:
                     continue
                 lead = self._leader(b, target)
-                if lead is not None:
+                if lead is not None and self._plain_leader(b, lead, target):
                     break
+                lead = None
             if lead is not None:
-                (ax, ay), (zx, zy) = lead
-                # the leader's ink kept clear of the labels set after it
-                room.taken.append(Box(((ax + zx) / 2, (ay + zy) / 2), math.atan2(zy - ay, zx - ax),
-                                      math.dist(lead[0], lead[1]) / 2, stroke_width_mm("fine", self.d) / 2))
+                (ax, ay), _ = lead
+                # the leader's ink, and its line where it points, kept clear of the labels set after it
+                room.taken.append(Box(((ax + target[0]) / 2, (ay + target[1]) / 2),
+                                      math.atan2(target[1] - ay, target[0] - ax), math.dist((ax, ay), target) / 2,
+                                      stroke_width_mm("fine", self.d) / 2))
                 self.out.append(model.segment("azimuth_leader", *lead, "fine", azimuth_deg=float(az)))
                 return self.put("azimuth_label", b, text, size_pt, azimuth_deg=float(az))
         return None
+
+    def _plain_leader(self, b: Box, lead, target) -> bool:
+        """Whether a number's leader reads as one: no line runs between the
+        number and the leader's far end, from the number's box on
+        (:meth:`_leader` tests a lane 0.6 mm short of both ends, and a line
+        within the first 0.6 mm had put the number across it from its
+        leader, as the twilight line at 6.2 deg S), and the leader is
+        steeper than :data:`LEADER_LEAST_SLOPE_DEG` (a level dash beside a
+        number reads as its minus sign)."""
+        (ax, ay), (zx, zy) = lead
+        slope = abs(math.degrees(math.atan2(zy - ay, zx - ax)))
+        if slope < LEADER_LEAST_SLOPE_DEG or slope > 180.0 - LEADER_LEAST_SLOPE_DEG:
+            return False
+        q = _box_nearest(b, target)
+        length = math.dist((ax, ay), (zx, zy))
+        ux, uy = (zx - ax) / length, (zy - ay) / length
+        end = (zx - 0.6 * ux, zy - 0.6 * uy)   # short of the point's own lines, as _leader's lane
+        lane = Box(((q[0] + end[0]) / 2, (q[1] + end[1]) / 2), math.atan2(end[1] - q[1], end[0] - q[0]),
+                   math.dist(q, end) / 2, 0.05)
+        return self.room.clear_of(lane, self.strokes, 0.0)
 
     def _azimuth_missing(self, az: float, text: str):
         # Only the multiples of 30 degrees are owed a number (the others
