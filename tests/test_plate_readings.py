@@ -508,20 +508,26 @@ def _lines_between(part, lat, R, label):
         return []
     u = (c - p0) / d
     stretch = np.linspace(p0 + 0.3 * u, c - 1.2 * u, max(2, int(d / 0.05)))
+
+    def own(e):
+        return e.role == "horizon" or (e.role in ("azimuth", "azimuth_leader")
+                                       and abs(e.values.get("azimuth_deg", -1.0) - label.values["azimuth_deg"]) < 1e-6)
+    return [e.role for e, dist in _ink_near(part, stretch, own) if dist < 0.06]
+
+
+def _ink_near(part, stretch, skip):
+    """(stroke, its least distance in mm) for each drawn stroke of the
+    part, but those ``skip`` says to leave out, that comes within 0.5 mm of
+    the bounds of the points ``stretch`` (N, 2)."""
     lo, hi = stretch.min(axis=0) - 0.5, stretch.max(axis=0) + 0.5
-    found = []
     for e in part.elements:
-        if e.shape not in STROKES or e.stroke in ("none", "cut", "fold") or e.role == "horizon":
-            continue
-        if e.role in ("azimuth", "azimuth_leader") and abs(e.values.get("azimuth_deg", -1.0)
-                                                           - label.values["azimuth_deg"]) < 1e-6:
+        if e.shape not in STROKES or e.stroke in ("none", "cut", "fold") or skip(e):
             continue
         pts = samples(e)
         pts = pts[np.all((pts >= lo) & (pts <= hi), axis=1)]
-        if len(pts) and float(np.min(np.hypot(pts[:, None, 0] - stretch[None, :, 0],
-                                              pts[:, None, 1] - stretch[None, :, 1]))) < 0.06:
-            found.append(e.role)
-    return found
+        if len(pts):
+            yield e, float(np.min(np.hypot(pts[:, None, 0] - stretch[None, :, 0],
+                                           pts[:, None, 1] - stretch[None, :, 1])))
 
 
 @pytest.mark.parametrize("lat, numbers", [(-6.2, ("60°", "300°")), (-45.0, ("60°",)), (0.5, ("120°", "240°")),
@@ -563,13 +569,5 @@ def test_a_numbers_leader_is_steep_and_crosses_no_line(lat):
         u = ((zx - ax) / length, (zy - ay) / length)
         # from its start to 0.6 mm short of its end, where its own lines meet the point
         stretch = np.linspace((ax, ay), (zx - 0.6 * u[0], zy - 0.6 * u[1]), 60)
-        lo, hi = stretch.min(axis=0) - 0.5, stretch.max(axis=0) + 0.5
-        for e in part.elements:
-            if e is leader or e.shape not in STROKES or e.stroke in ("none", "cut", "fold"):
-                continue
-            pts = samples(e)
-            pts = pts[np.all((pts >= lo) & (pts <= hi), axis=1)]
-            if len(pts):
-                d = float(np.min(np.hypot(pts[:, None, 0] - stretch[None, :, 0],
-                                          pts[:, None, 1] - stretch[None, :, 1])))
-                assert d > stroke_width_mm(e.stroke, kit.dims) / 2, (lat, leader.values, e.role, d)
+        for e, d in _ink_near(part, stretch, lambda e: e is leader):
+            assert d > stroke_width_mm(e.stroke, kit.dims) / 2, (lat, leader.values, e.role, d)

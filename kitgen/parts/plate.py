@@ -22,6 +22,7 @@ from ..words.locale import true_minus
 from .context import PartContext
 from .dimensions import MIN_TEXT_PT
 from .format import WITHIN_LINE, latitude_text
+from .plate_labels import multiple_of
 
 
 def plate(ctx: PartContext) -> model.Part:
@@ -193,15 +194,15 @@ def _labels(ctx, phi, s, R, disc, strokes):
     step = ctx.scales.altitude_step_deg
     every = legibility.label_every_deg(step)
     numbered = ctx.scales.almucantar_labels_deg
-    tens = [a for a in numbered if _multiple(a, every)]
+    tens = [a for a in numbered if multiple_of(a, every)]
     for alt in tens:
         lab.almucantar(alt, True)
     if ctx.plan.drawing.unequal_hours and abs(math.degrees(phi)) < 90.0 - math.degrees(eps):
         for k in range(1, 13):
             lab.unequal_hour(k, phi, s, R, eps)
     az_step = ctx.scales.azimuth_step_deg
-    azimuths = [a for a in np.arange(0.0, 360.0 - 1e-9, az_step) if not _multiple(a, 90.0)]
-    for az in [a for a in azimuths if _multiple(a, 30.0)]:
+    azimuths = [a for a in np.arange(0.0, 360.0 - 1e-9, az_step) if not multiple_of(a, 90.0)]
+    for az in [a for a in azimuths if multiple_of(a, 30.0)]:
         lab.azimuth(float(az), phi, s, R)
     lab.lead_the_hidden()
     lab.curve_name("horizon", w("plate.line_horizon"))
@@ -212,16 +213,12 @@ def _labels(ctx, phi, s, R, disc, strokes):
         lab.curve_name("twilight", w("plate.line_twilight", altitude=true_minus(w.number(alt))), altitude_deg=alt)
     # The azimuths between the thirties, numbered where the names have left room (#12: on an A5 plate from
     # 34 S to 34 N the 15 and 345 deg numbers had taken the twilight line's only places, and it had no name)
-    for az in [a for a in azimuths if not _multiple(a, 30.0)]:
+    for az in [a for a in azimuths if not multiple_of(a, 30.0)]:
         lab.azimuth(float(az), phi, s, R)
     for alt in numbered:
         if alt not in tens:
             lab.almucantar(alt, False)
     return first + lab.out, lab.missing
-
-
-def _multiple(value: float, of: float) -> bool:
-    return abs(value / of - round(value / of)) < 1e-9
 
 
 def _latitude_label(ctx, disc, strokes, index):

@@ -680,20 +680,21 @@ class PlateLabeller:
                         yield k, places.box(k)
 
     def _leader(self, b: Box, p0):
-        """The ends of a fine line from the letter's box to its horizon
-        point, stopping MARGIN_MM short of both, where it crosses no line
-        and no label; else None."""
+        """The ends of a fine line from the label's box to the point ``p0``,
+        stopping MARGIN_MM short of both, where it crosses no line and no
+        label; else None.  Its lane is tested from its start (kept
+        MARGIN_MM from every line, so that no line runs between it and the
+        box either) to 0.6 mm short of its end, where the point's own
+        lines meet it."""
         q = _box_nearest(b, p0)
         dx, dy = p0[0] - q[0], p0[1] - q[1]
         L = math.hypot(dx, dy)
         ux, uy = dx / L, dy / L
         a = (q[0] + ux * MARGIN_MM, q[1] + uy * MARGIN_MM)
         z = (p0[0] - ux * MARGIN_MM, p0[1] - uy * MARGIN_MM)
-        # the lane the leader runs in, short of the point's own lines
-        lane = Box(((a[0] + z[0]) / 2, (a[1] + z[1]) / 2), math.atan2(uy, ux),
-                   math.dist(a, z) / 2 - 0.6, 0.05)
-        if lane.half_w <= 0:
+        if L - 2 * MARGIN_MM <= 0.6:
             return None
+        lane = _lane(a, (z[0] - ux * 0.6, z[1] - uy * 0.6), 0.05)
         if not self.room.clear_of(lane, self.strokes) or not self.room.clear_of_labels(lane):
             return None
         return a, z
@@ -804,7 +805,7 @@ class PlateLabeller:
             b = self.first_free([c for el in own for c in points_along(el, p0)], text, size, protected)
             if b is not None:
                 return self.put("azimuth_label", b, text, size, azimuth_deg=float(az))
-            if _multiple_of(az, 30.0):
+            if multiple_of(az, 30.0):
                 # Owed a number: beside its horizon point with a leader to it
                 # (near the equator the azimuths meet the horizon close
                 # together among the tropics, and on an A5 plate among the
@@ -817,7 +818,7 @@ class PlateLabeller:
             b = self.first_free(points_along(el, end, reach_mm=2 * SLIDE_MM), text, size, protected)
             if b is not None:
                 return self.put("azimuth_label", b, text, size, azimuth_deg=float(az))
-        if rim_ends and _multiple_of(az, 30.0):   # owed a number: beside its end, with a leader
+        if rim_ends and multiple_of(az, 30.0):   # owed a number: beside its end, with a leader
             return self._led_number(rim_ends[0][1], text, size, az, own) or self.left_out(text)
         return self._azimuth_missing(az, text)
 
@@ -831,7 +832,7 @@ class PlateLabeller:
         where it is."""
         for el, b, p0, own in self.continued:
             az = el.values["azimuth_deg"]
-            if not _multiple_of(az, 30.0) or self._in_sight(b, p0, self.others(own) + self.reference):
+            if not multiple_of(az, 30.0) or self._in_sight(b, p0, self.others(own) + self.reference):
                 continue
             self.out = [e for e in self.out if e is not el]
             self.room.give_back(b)
@@ -847,8 +848,9 @@ class PlateLabeller:
         length = math.dist(q, p0)
         if length <= 2 * MARGIN_MM + 0.1:
             return True
-        lane = Box(((q[0] + p0[0]) / 2, (q[1] + p0[1]) / 2), math.atan2(q[1] - p0[1], q[0] - p0[0]),
-                   length / 2 - MARGIN_MM, 0.05)
+        ux, uy = (q[0] - p0[0]) / length, (q[1] - p0[1]) / length
+        lane = _lane((p0[0] + ux * MARGIN_MM, p0[1] + uy * MARGIN_MM),
+                     (q[0] - ux * MARGIN_MM, q[1] - uy * MARGIN_MM), 0.05)
         return self.room.clear_of(lane, lines, 0.0)
 
     def _led_number(self, p0, text: str, size_pt: float, az: float, own):
@@ -889,43 +891,20 @@ class PlateLabeller:
                 if not MIN_PIECE_MM <= math.dist(_box_nearest(b, target), target) - 2 * MARGIN_MM <= LED_MOST_MM:
                     continue
                 lead = self._leader(b, target)
-                if lead is not None and self._plain_leader(b, lead, target):
+                if lead is not None and _steep(lead):
                     break
                 lead = None
             if lead is not None:
-                (ax, ay), _ = lead
                 # the leader's ink, and its line where it points, kept clear of the labels set after it
-                room.taken.append(Box(((ax + target[0]) / 2, (ay + target[1]) / 2),
-                                      math.atan2(target[1] - ay, target[0] - ax), math.dist((ax, ay), target) / 2,
-                                      stroke_width_mm("fine", self.d) / 2))
+                room.taken.append(_lane(lead[0], target, stroke_width_mm("fine", self.d) / 2))
                 self.out.append(model.segment("azimuth_leader", *lead, "fine", azimuth_deg=float(az)))
                 return self.put("azimuth_label", b, text, size_pt, azimuth_deg=float(az))
         return None
 
-    def _plain_leader(self, b: Box, lead, target) -> bool:
-        """Whether a number's leader reads as one: no line runs between the
-        number and the leader's far end, from the number's box on
-        (:meth:`_leader` tests a lane 0.6 mm short of both ends, and a line
-        within the first 0.6 mm had put the number across it from its
-        leader, as the twilight line at 6.2 deg S), and the leader is
-        steeper than :data:`LEADER_LEAST_SLOPE_DEG` (a level dash beside a
-        number reads as its minus sign)."""
-        (ax, ay), (zx, zy) = lead
-        slope = abs(math.degrees(math.atan2(zy - ay, zx - ax)))
-        if slope < LEADER_LEAST_SLOPE_DEG or slope > 180.0 - LEADER_LEAST_SLOPE_DEG:
-            return False
-        q = _box_nearest(b, target)
-        length = math.dist((ax, ay), (zx, zy))
-        ux, uy = (zx - ax) / length, (zy - ay) / length
-        end = (zx - 0.6 * ux, zy - 0.6 * uy)   # short of the point's own lines, as _leader's lane
-        lane = Box(((q[0] + end[0]) / 2, (q[1] + end[1]) / 2), math.atan2(end[1] - q[1], end[0] - q[0]),
-                   math.dist(q, end) / 2, 0.05)
-        return self.room.clear_of(lane, self.strokes, 0.0)
-
     def _azimuth_missing(self, az: float, text: str):
         # Only the multiples of 30 degrees are owed a number (the others
         # are numbered where there is room, as the almucantars' fives).
-        if abs(az / 30.0 - round(az / 30.0)) < 1e-9:
+        if multiple_of(az, 30.0):
             self.left_out(text)
         return None
 
@@ -1134,8 +1113,25 @@ def _on_element(el, q) -> bool:
     return t <= hi
 
 
-def _multiple_of(value: float, of: float) -> bool:
+def multiple_of(value: float, of: float) -> bool:
+    """Whether ``value`` is a whole multiple of ``of`` (to rounding)."""
     return abs(value / of - round(value / of)) < 1e-9
+
+
+def _lane(p, q, half_mm: float) -> Box:
+    """The thin box from the point ``p`` to the point ``q``, ``half_mm``
+    either side of the line between them."""
+    return Box(((p[0] + q[0]) / 2, (p[1] + q[1]) / 2), math.atan2(q[1] - p[1], q[0] - p[0]),
+               math.dist(p, q) / 2, half_mm)
+
+
+def _steep(lead) -> bool:
+    """Whether a leader (its two ends) is steeper than
+    :data:`LEADER_LEAST_SLOPE_DEG`: a level dash beside a number reads as
+    its minus sign."""
+    (ax, ay), (zx, zy) = lead
+    slope = abs(math.degrees(math.atan2(zy - ay, zx - ax)))
+    return LEADER_LEAST_SLOPE_DEG <= slope <= 180.0 - LEADER_LEAST_SLOPE_DEG
 
 
 def _comes_within(el, p, reach_mm: float) -> bool:
