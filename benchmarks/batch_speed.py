@@ -1,10 +1,15 @@
 """Benchmark of class sets (#12), side by side in one run, against a floor.
 
-The floor is bare reportlab drawing the very primitives a kit exports
-(``kitgen geometry``'s JSON: circles, arcs, segments, polylines, dots and
-text, each at its angle and from its anchor) with the same shipped
-fonts, embedded, one part a page: what any program that writes these
-kits as PDF must at least spend.  Measured:
+The floor is bare reportlab drawing the very primitives a kit's PDF
+draws, page by page: its parts' elements as ``kitgen geometry`` exports
+them (circles, arcs, segments, polylines, dots and text, each at its
+angle and from its anchor) where the pages place them, the instructions'
+lines, titles and footers as runs of text at their points, and the
+marks' lines, with the same shipped fonts, embedded: what any program
+that writes these kits as PDF must at least spend.  The floor of the
+parts alone, one a page, is printed beside it (the floor measured until
+4 December 2026, which left out every kit's pages of instructions and
+footers).  Measured:
 
 (a) one ``kitgen build`` as a whole process against one floor process
     drawing the same kit;
@@ -44,6 +49,7 @@ import time
 from pathlib import Path
 
 import yaml
+from reportlab.lib.units import mm
 
 TARGETS = {"a": ("<=", 1.5), "b": ("<=", 1.3), "c": (">=", 1.8), "d": ("<=", 150.0), "e": ("<=", 150.0)}
 #: The issue's own check on a 40-kit set (#12's Done-when): (b) and (c)
@@ -140,17 +146,74 @@ def _best(first, second, key: str, runs: int = RUNS) -> tuple[Timing, Timing]:
     return min((a for a, _ in pairs), key=measure), min((b for _, b in pairs), key=measure)
 
 
-def _export_geometries(recipes, folder: Path) -> list[Path]:
-    """Each kit's exported geometry (JSON), made before any timing."""
+def _export_geometries(recipes, folder: Path) -> tuple[list[Path], list[Path]]:
+    """Each kit's exported geometry (JSON, as ``kitgen geometry`` writes
+    it), and its pages as its PDF draws them (JSON, ``{"pages": ...}``,
+    :func:`_page_primitives`), each in a file of its own, so that each
+    floor reads only what it draws; made before any timing."""
     from kitgen.kit import build_kit
     from kitgen.render.json_export import render_json
 
-    paths = []
+    parts, pages = [], []
     for k, recipe in enumerate(recipes):
-        path = folder / f"geometry-{k:03d}.json"
-        path.write_bytes(render_json(build_kit(recipe)))
-        paths.append(path)
-    return paths
+        kit = build_kit(recipe)
+        parts.append(folder / f"geometry-{k:03d}.json")
+        parts[-1].write_bytes(render_json(kit))
+        pages.append(folder / f"pages-{k:03d}.json")
+        pages[-1].write_text(json.dumps({"pages": _page_primitives(kit)}), encoding="utf-8")
+    return parts, pages
+
+
+def _page_primitives(kit) -> list[dict]:
+    """Every page of the kit as its PDF draws it, as primitives: each page's
+    size (pt) and its items, each under the transformation it is drawn
+    with (``m``, the canvas's matrix): a list of elements (a part's, a
+    picture's: ``kitgen geometry``'s element dicts, in mm), a run of text
+    at a point (pt) in its font file (the instructions' lines, titles,
+    footers and marks' words), or a segment or rectangle (pt; check bars
+    and marks).  Recorded by drawing the kit through kitgen's own PDF
+    backend with its lowest drawing calls (a list of elements, a line of
+    text, a canvas's line and rectangle) replaced by recorders, so that
+    the floor draws what the kit's PDF draws, page by page."""
+    from reportlab.pdfgen.canvas import Canvas
+
+    from kitgen.layout.pages import layout_kit
+    from kitgen.render import pdf, pdf_text
+    from kitgen.render.json_export import element_dict
+
+    pages, items = [], []
+
+    def elements(c, pen, els, *rest, **kw):
+        items.append({"m": list(c._currentMatrix), "elements": [element_dict(el) for el in els]})
+
+    def text_line(c, line, x_pt, baseline_pt, size_pt):
+        x = x_pt
+        for run in line.runs:
+            items.append({"m": list(c._currentMatrix), "text": run.text, "face": run.face.filename,
+                          "at_pt": [x, baseline_pt], "size_pt": size_pt})
+            x += run.width_em * size_pt
+
+    def segment(c, x0, y0, x1, y1):
+        items.append({"m": list(c._currentMatrix), "segment_pt": [x0, y0, x1, y1]})
+
+    def rect(c, x, y, w, h, *rest, **kw):
+        items.append({"m": list(c._currentMatrix), "rect_pt": [x, y, w, h]})
+
+    def show_page(c):
+        pages.append({"size_pt": list(c._pagesize), "items": list(items)})
+        items.clear()
+        kept["showPage"](c)
+
+    kept = {"draw_elements": pdf.draw_elements, "draw_line": pdf_text.draw_line, "line": Canvas.line,
+            "rect": Canvas.rect, "showPage": Canvas.showPage}
+    pdf.draw_elements, pdf_text.draw_line = elements, text_line
+    Canvas.line, Canvas.rect, Canvas.showPage = segment, rect, show_page
+    try:
+        pdf._render(kit, layout_kit(kit))
+    finally:
+        pdf.draw_elements, pdf_text.draw_line = kept["draw_elements"], kept["draw_line"]
+        Canvas.line, Canvas.rect, Canvas.showPage = kept["line"], kept["rect"], kept["showPage"]
+    return pages
 
 
 def _write_set(n: int, schools: int, work: Path) -> Path:
@@ -169,10 +232,13 @@ def _write_set(n: int, schools: int, work: Path) -> Path:
 
 # -- the floor: bare reportlab ------------------------------------------------------
 
-def floor(paths, out_folder) -> None:
-    """Draw each exported geometry as a PDF with reportlab only."""
+def floor(paths, out_folder, whole: bool = True) -> None:
+    """Draw each exported geometry as a PDF with reportlab only: its pages
+    as the kit's PDF draws them (``pages``, :func:`_page_primitives`), or
+    with ``whole`` false only its parts, one a page (the floor measured
+    before 4 December 2026, which left out the instructions' pages, the
+    titles and the footers that every kit prints)."""
     from reportlab import rl_config
-    from reportlab.lib.units import mm
     from reportlab.pdfbase import pdfmetrics
     from reportlab.pdfbase.ttfonts import TTFont
     from reportlab.pdfgen.canvas import Canvas
@@ -180,16 +246,18 @@ def floor(paths, out_folder) -> None:
     fonts = ROOT / "kitgen" / "fonts"
     faces = {"latin": "DejaVuSansCondensed.ttf", "arab": "NotoSansArabic-Regular.ttf",
              "deva": "NotoSansDevanagari-Regular.ttf"}
-    widths = {"cut": 0.35, "fold": 0.2, "heavy": 0.35, "medium": 0.25, "light": 0.15, "fine": 0.1}
-    registered = set()
+    registered: dict[str, str] = {}
+
+    def font(filename: str) -> str:
+        if filename not in registered:
+            registered[filename] = "Floor-" + Path(filename).stem
+            pdfmetrics.registerFont(TTFont(registered[filename], str(fonts / filename)))
+        return registered[filename]
 
     def font_for(text: str) -> str:
         script = ("arab" if any("\u0600" <= c <= "\u06ff" for c in text)
                   else "deva" if any("\u0900" <= c <= "\u097f" for c in text) else "latin")
-        if script not in registered:
-            pdfmetrics.registerFont(TTFont(f"Floor-{script}", str(fonts / faces[script])))
-            registered.add(script)
-        return f"Floor-{script}"
+        return font(faces[script])
 
     # The floor writes its streams as kitgen does (kitgen.render.pdf_canvas:
     # compressed, no ASCII85 layer), so that the two write the same kind of file.
@@ -197,51 +265,82 @@ def floor(paths, out_folder) -> None:
     for k, path in enumerate(paths):
         geometry = json.loads(Path(path).read_text(encoding="utf-8"))
         c = Canvas(str(Path(out_folder) / f"floor-{k:03d}.pdf"), invariant=1, pageCompression=1)
-        for part in geometry["parts"]:
-            x0, y0, x1, y1 = part["bounds_mm"]
-            c.setPageSize(((x1 - x0 + 20) * mm, (y1 - y0 + 20) * mm))
-            c.translate((10 - x0) * mm, (10 - y0) * mm)
-            for el in part["elements"]:
-                shape = el["shape"]
-                if shape == "text":   # at its angle, from its anchor, as the kit sets it
-                    c.setFont(font_for(el["text"]), el["size_pt"])
-                    draw = {"start": c.drawString, "end": c.drawRightString}.get(el["anchor"], c.drawCentredString)
-                    if el["angle_deg"]:
-                        c.saveState()
-                        c.translate(el["at"][0] * mm, el["at"][1] * mm)
-                        c.rotate(el["angle_deg"])
-                        draw(0, 0, el["text"])
-                        c.restoreState()
-                    else:
-                        draw(el["at"][0] * mm, el["at"][1] * mm, el["text"])
-                    continue
-                if shape == "point":
-                    c.circle(el["at"][0] * mm, el["at"][1] * mm, 0.3 * mm, stroke=0, fill=1)
-                    continue
-                if el.get("stroke") == "none":
-                    continue
-                c.setLineWidth(widths.get(el.get("stroke"), 0.2) * mm)
-                if shape == "circle":
-                    c.circle(el["center"][0] * mm, el["center"][1] * mm, el["radius"] * mm, stroke=1, fill=0)
-                elif shape == "arc":
-                    (cx, cy), r = el["center"], el["radius"]
-                    p = c.beginPath()
-                    p.arc((cx - r) * mm, (cy - r) * mm, (cx + r) * mm, (cy + r) * mm, el["start_deg"],
-                          el["end_deg"] - el["start_deg"])
-                    c.drawPath(p, stroke=1, fill=0)
-                elif shape == "segment":
-                    c.line(el["from"][0] * mm, el["from"][1] * mm, el["to"][0] * mm, el["to"][1] * mm)
-                elif shape == "polyline":
-                    pts = el["points"]
-                    p = c.beginPath()
-                    p.moveTo(pts[0][0] * mm, pts[0][1] * mm)
-                    for x, y in pts[1:]:
-                        p.lineTo(x * mm, y * mm)
-                    if el.get("closed"):
-                        p.close()
-                    c.drawPath(p, stroke=1, fill=0)
+        if not whole:
+            for part in geometry["parts"]:
+                x0, y0, x1, y1 = part["bounds_mm"]
+                c.setPageSize(((x1 - x0 + 20) * mm, (y1 - y0 + 20) * mm))
+                c.translate((10 - x0) * mm, (10 - y0) * mm)
+                for el in part["elements"]:
+                    _floor_element(c, el, font_for)
+                c.showPage()
+            c.save()
+            continue
+        for page in geometry["pages"]:
+            c.setPageSize(tuple(page["size_pt"]))
+            for item in page["items"]:
+                c.saveState()
+                c.transform(*item["m"])
+                if "elements" in item:
+                    for el in item["elements"]:
+                        _floor_element(c, el, font_for)
+                elif "text" in item:
+                    c.setFont(font(item["face"]), item["size_pt"])
+                    c.drawString(*item["at_pt"], item["text"])
+                elif "segment_pt" in item:
+                    c.line(*item["segment_pt"])
+                else:
+                    c.rect(*item["rect_pt"], stroke=1, fill=0)
+                c.restoreState()
             c.showPage()
         c.save()
+
+
+#: Line widths (mm) of the floor's strokes, by kitgen's stroke names.
+_FLOOR_WIDTHS_MM = {"cut": 0.35, "fold": 0.2, "heavy": 0.35, "medium": 0.25, "light": 0.15, "fine": 0.1}
+
+
+def _floor_element(c, el: dict, font_for) -> None:
+    """One exported element (mm) drawn with the canvas's own calls: a text at
+    its angle and from its anchor, as the kit sets it, a dot, a circle, an
+    arc, a segment or a polyline."""
+    shape = el["shape"]
+    if shape == "text":
+        c.setFont(font_for(el["text"]), el["size_pt"])
+        draw = {"start": c.drawString, "end": c.drawRightString}.get(el["anchor"], c.drawCentredString)
+        if el["angle_deg"]:
+            c.saveState()
+            c.translate(el["at"][0] * mm, el["at"][1] * mm)
+            c.rotate(el["angle_deg"])
+            draw(0, 0, el["text"])
+            c.restoreState()
+        else:
+            draw(el["at"][0] * mm, el["at"][1] * mm, el["text"])
+        return
+    if shape == "point":
+        c.circle(el["at"][0] * mm, el["at"][1] * mm, 0.3 * mm, stroke=0, fill=1)
+        return
+    if el.get("stroke") == "none":
+        return
+    c.setLineWidth(_FLOOR_WIDTHS_MM.get(el.get("stroke"), 0.2) * mm)
+    if shape == "circle":
+        c.circle(el["center"][0] * mm, el["center"][1] * mm, el["radius"] * mm, stroke=1, fill=0)
+    elif shape == "arc":
+        (cx, cy), r = el["center"], el["radius"]
+        p = c.beginPath()
+        p.arc((cx - r) * mm, (cy - r) * mm, (cx + r) * mm, (cy + r) * mm, el["start_deg"],
+              el["end_deg"] - el["start_deg"])
+        c.drawPath(p, stroke=1, fill=0)
+    elif shape == "segment":
+        c.line(el["from"][0] * mm, el["from"][1] * mm, el["to"][0] * mm, el["to"][1] * mm)
+    elif shape == "polyline":
+        pts = el["points"]
+        p = c.beginPath()
+        p.moveTo(pts[0][0] * mm, pts[0][1] * mm)
+        for x, y in pts[1:]:
+            p.lineTo(x * mm, y * mm)
+        if el.get("closed"):
+            p.close()
+        c.drawPath(p, stroke=1, fill=0)
 
 
 # -- the measures -----------------------------------------------------------------------
@@ -267,17 +366,19 @@ def measure(set_path: Path, work: Path, runs: int = RUNS) -> dict:
 
     kits = [k for k in load_set(set_path).kits if k.error is None]
     (work / "one.yaml").write_text(yaml.safe_dump(kits[0].tree, allow_unicode=True), encoding="utf-8")
-    geometries = _export_geometries([k.recipe for k in kits], work)
+    geometries, pages = _export_geometries([k.recipe for k in kits], work)
     floor_cmd = [str(Path(__file__).resolve()), "--floor", str(work)]
+    parts_cmd = [str(Path(__file__).resolve()), "--floor-parts", str(work)]
     out = {"kits": len(kits)}
 
     out["a"] = _best(["-m", "kitgen", "build", str(work / "one.yaml"), "-o", str(work / "one.pdf")],
-                     [*floor_cmd, str(geometries[0])], "cpu", runs)
+                     [*floor_cmd, str(pages[0])], "cpu", runs)
 
     def batch(jobs: int) -> list[str]:
         return ["-m", "kitgen", "batch", str(set_path), "-o", str(work / f"out-{jobs}"), "--jobs", str(jobs), "--quiet"]
 
-    out["b"] = _best(batch(1), [*floor_cmd, *map(str, geometries)], "cpu", runs)
+    out["b"] = _best(batch(1), [*floor_cmd, *map(str, pages)], "cpu", runs)
+    out["parts"] = _best([*parts_cmd, str(geometries[0])], [*parts_cmd, *map(str, geometries)], "cpu", runs)
     out["c"] = _best(batch(1), batch(2), "wall", runs)
     out["ceiling"] = _ceiling(batch(1), ["-m", "kitgen", "batch", str(set_path), "-o", str(work / "out-1b"),
                                          "--jobs", "1", "--quiet"], runs)
@@ -331,6 +432,9 @@ def report(m: dict) -> bool:
     s1, fa = m["b"]
     line("b", f"{n} kits, one process vs floor", f"CPU {s1.cpu:.1f} s vs {fa.cpu:.1f} s (wall {s1:.1f} vs {fa:.1f})",
          f"{s1.cpu / fa.cpu:.2f}x", s1.cpu / fa.cpu)
+    p1, pa = m["parts"]
+    print(f"    (a), (b) against a floor of the parts only, one a page (as before 4 December 2026): "
+          f"CPU {p1.cpu:.2f} s and {pa.cpu:.1f} s, {k1.cpu / p1.cpu:.2f}x and {s1.cpu / pa.cpu:.2f}x")
     s1, s2 = m["c"]
     line("c", f"{n} kits, 1 worker vs 2 workers", f"wall {s1:.1f} s vs {s2:.1f} s", f"{s1 / s2:.2f}x", s1 / s2)
     alone, both = m["ceiling"]
@@ -358,9 +462,11 @@ def main() -> int:
                    help=f"runs of each command, the least disturbed counting (default {RUNS}; "
                         "more where the machine's speed moves from minute to minute)")
     p.add_argument("--floor", nargs="+", help=argparse.SUPPRESS)
+    p.add_argument("--floor-parts", nargs="+", help=argparse.SUPPRESS)
     args = p.parse_args()
-    if args.floor:
-        floor(args.floor[1:], args.floor[0])
+    if args.floor or args.floor_parts:
+        paths = args.floor or args.floor_parts
+        floor(paths[1:], paths[0], whole=bool(args.floor))
         return 0
     if not 0 <= args.schools <= len(SCHOOLS):
         p.error(f"--schools: from 0 to {len(SCHOOLS)}")
