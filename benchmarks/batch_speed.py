@@ -278,8 +278,10 @@ def floor(paths, out_folder, whole: bool = True) -> None:
         for page in geometry["pages"]:
             c.setPageSize(tuple(page["size_pt"]))
             for item in page["items"]:
-                c.saveState()
-                c.transform(*item["m"])
+                moved = item["m"] != IDENTITY
+                if moved:
+                    c.saveState()
+                    c.transform(*item["m"])
                 if "elements" in item:
                     for el in item["elements"]:
                         _floor_element(c, el, font_for)
@@ -290,10 +292,15 @@ def floor(paths, out_folder, whole: bool = True) -> None:
                     c.line(*item["segment_pt"])
                 else:
                     c.rect(*item["rect_pt"], stroke=1, fill=0)
-                c.restoreState()
+                if moved:
+                    c.restoreState()
             c.showPage()
         c.save()
 
+
+#: The canvas's matrix where nothing is moved: an item so drawn needs no
+#: saved state.
+IDENTITY = [1.0, 0.0, 0.0, 1.0, 0.0, 0.0]
 
 #: Line widths (mm) of the floor's strokes, by kitgen's stroke names.
 _FLOOR_WIDTHS_MM = {"cut": 0.35, "fold": 0.2, "heavy": 0.35, "medium": 0.25, "light": 0.15, "fine": 0.1}
