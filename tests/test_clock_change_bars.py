@@ -173,3 +173,16 @@ def test_the_horizontal_stops_at_the_ring(back):
     for lo, hi in level:
         assert hi <= -outer or lo >= -inner - 1e-9, (lo, hi)   # clear of the ring's left side
         assert lo >= outer or hi <= inner + 1e-9, (lo, hi)     # and of its right side
+
+
+def test_the_rings_numbers_stand_apart(back):
+    """No two numbers of the ring nearer than a millimetre, ink to ink
+    (Shapely: the numbers' ink boxes as printed): with a plain space
+    between them, signed numbers of a fast-changing season ran together
+    and read as one sum ("+9+10"; common practice, no source: the plate's
+    labels keep a millimetre from one another too)."""
+    _, kit, part = back
+    boxes = [(e.geom["text"], text_polygon(e.geom, kit.words)) for e in part.elements if e.role == "clock_number"]
+    for k, (text, box) in enumerate(boxes):
+        for other, other_box in boxes[k + 1:]:
+            assert box.distance(other_box) >= 0.95, (text, other)

@@ -87,6 +87,12 @@ BAR_CLEAR_MM = 0.5
 #: nearest first: the runs beside a change are a day or two long, too
 #: short for their numbers, and the next ones show the jump as well.
 BAR_RUNS = 4
+#: The least room (mm) between two of the ring's numbers, along the ring:
+#: a plain space between words at their size is about 0.6 mm, and with
+#: only that between them signed numbers run together ("+9+10" reads as
+#: a sum); the plate's labels keep as much from one another
+#: (kitgen.parts.plate_labels.LABEL_GAP_MM; common practice, no source).
+NUMBER_GAP_MM = 1.0
 #: The number of a run tried first (beside a bar, or of a worked
 #: example's date) stands centred on its run or, where that is not clear
 #: of a bar or the numbers placed, slid along the run by steps of this
@@ -121,15 +127,17 @@ def _numbers(w, numbers, r_text: float, size_pt: float, bars_deg=(), bar_half_mm
     (``bars_deg``, their directions; ``bar_half_mm``, half their ink's
     width), centred on its run (a run of ``first``, where that is not
     clear, slid along it by :data:`SLIDE_STEP_DEG` as far as its run
-    reaches).  A run too short keeps its number only when its neighbours
-    leave room (so in a fast-changing season about every other run is
-    numbered, its neighbours one more and one less)."""
+    reaches).  Two numbers keep :data:`NUMBER_GAP_MM` between them.  A
+    run too short keeps its number only when its neighbours leave room
+    (so in a fast-changing season about every other run is numbered, its
+    neighbours one more and one less)."""
     placed, out, done = [], [], set()
-    bar_deg = math.degrees((bar_half_mm + BAR_CLEAR_MM) / r_text)
+    bar_deg = math.degrees((bar_half_mm + BAR_CLEAR_MM + labels.MARGIN_MM) / r_text)
+    apart_deg = math.degrees(NUMBER_GAP_MM / r_text)
 
     def clear(at: float, half: float) -> bool:
         return not (any(abs((at - bar + 180.0) % 360.0 - 180.0) < half + bar_deg for bar in bars_deg)
-                    or any(abs((at - other + 180.0) % 360.0 - 180.0) < half + other_half
+                    or any(abs((at - other + 180.0) % 360.0 - 180.0) < half + other_half + apart_deg
                            for other, other_half in placed))
 
     def put(k, slide: bool = False) -> bool:
@@ -137,7 +145,7 @@ def _numbers(w, numbers, r_text: float, size_pt: float, bars_deg=(), bar_half_mm
         if k in done:
             return False
         text = signed(w, minutes)
-        half = math.degrees((w.measure(text, size_pt).width_mm / 2.0 + labels.MARGIN_MM) / r_text)
+        half = math.degrees((w.measure(text, size_pt).width_mm / 2.0) / r_text)
         # centred on its run, else (``slide``) slid along it, its centre kept inside the run
         steps = int(span / 2.0 / SLIDE_STEP_DEG) if slide else 0
         at = next((mid + sign * i * SLIDE_STEP_DEG for i in range(steps + 1) for sign in (1, -1)
