@@ -186,3 +186,22 @@ def test_the_rings_numbers_stand_apart(back):
     for k, (text, box) in enumerate(boxes):
         for other, other_box in boxes[k + 1:]:
             assert box.distance(other_box) >= 0.95, (text, other)
+
+
+def test_no_more_than_three_runs_in_a_row_go_unnumbered(back):
+    """Where the correction changes fast (near the turn of the year), the
+    runs are narrower than their numbers and only some can be numbered;
+    packed from one to the next in date order, no more than three runs
+    in a row are left without one, so that a pupil reads a date's
+    correction from a number at most two runs away (common practice, no
+    source).  The longest-first order had left four in a row on A5 and
+    Letter kits, at 1 mm between numbers as at 0.6 mm."""
+    _, _, part = back
+    runs = sorted((e.values for e in part.elements if e.role == "clock_run"),
+                  key=lambda v: (v["from_month"], v["from_day"]))
+    numbered = {(e.values["month"], e.values["day"]) for e in part.elements if e.role == "clock_number"}
+    longest = bare = 0
+    for run in runs + runs:   # round the turn of the year
+        bare = 0 if (run["from_month"], run["from_day"]) in numbered else bare + 1
+        longest = max(longest, bare)
+    assert longest <= 3

@@ -121,35 +121,49 @@ def runs(correction):
 def _numbers(w, numbers, r_text: float, size_pt: float, bars_deg=(), bar_half_mm: float = 0.0, first=()):
     """The runs' numbers under their ticks: for each group of runs of
     ``first`` (their positions in ``numbers``) none of which is numbered
-    yet, the first of the group that finds room; then the longest runs
-    first.  Each keeps a margin from the numbers already placed and, by
-    :data:`BAR_CLEAR_MM` more, from the bars of the clock changes
-    (``bars_deg``, their directions; ``bar_half_mm``, half their ink's
-    width), centred on its run (a run of ``first``, where that is not
-    clear, slid along it by :data:`SLIDE_STEP_DEG` as far as its run
-    reaches).  Two numbers keep :data:`NUMBER_GAP_MM` between them.  A
-    run too short keeps its number only when its neighbours leave room
-    (so in a fast-changing season about every other run is numbered, its
-    neighbours one more and one less)."""
+    yet, the first of the group that finds room; then, longest first,
+    the runs that hold their numbers with room to spare, centred; then
+    the other runs in date order, each number at the first clear place
+    from its run's earlier end, its centre in the run's middle half.
+    Each keeps a margin (and, by :data:`BAR_CLEAR_MM` more, from the
+    bars of the clock changes: ``bars_deg``, their directions;
+    ``bar_half_mm``, half their ink's width), and two numbers keep
+    :data:`NUMBER_GAP_MM` between them.  A run of ``first`` where
+    centred it is not clear is slid along by :data:`SLIDE_STEP_DEG` as
+    far as its run reaches.  In a fast-changing season the runs are
+    narrower than their numbers: packed so, every second or third run
+    is numbered."""
     placed, out, done = [], [], set()
     bar_deg = math.degrees((bar_half_mm + BAR_CLEAR_MM + labels.MARGIN_MM) / r_text)
-    apart_deg = math.degrees(NUMBER_GAP_MM / r_text)
+    # Numbers stand upright on the ring, so their boxes draw nearer towards
+    # the centre: widths and gaps are reckoned at their lower edge, half an
+    # em inside the ring's middle.
+    r_low = r_text - size_pt * 25.4 / 72.0 / 2.0
+    apart_deg = math.degrees(NUMBER_GAP_MM / r_low)
+
+    def roomy(k) -> bool:
+        """Whether run ``k`` holds its number centred with room to spare."""
+        width_mm = w.measure(signed(w, numbers[k][2]), size_pt).width_mm
+        return math.radians(numbers[k][0]) * r_text >= width_mm + 2.0 * NUMBER_GAP_MM
 
     def clear(at: float, half: float) -> bool:
         return not (any(abs((at - bar + 180.0) % 360.0 - 180.0) < half + bar_deg for bar in bars_deg)
                     or any(abs((at - other + 180.0) % 360.0 - 180.0) < half + other_half + apart_deg
                            for other, other_half in placed))
 
-    def put(k, slide: bool = False) -> bool:
+    def put(k, slide: bool = False, packed: bool = False) -> bool:
         span, mid, minutes, month, day = numbers[k]
         if k in done:
             return False
         text = signed(w, minutes)
-        half = math.degrees((w.measure(text, size_pt).width_mm / 2.0) / r_text)
-        # centred on its run, else (``slide``) slid along it, its centre kept inside the run
-        steps = int(span / 2.0 / SLIDE_STEP_DEG) if slide else 0
-        at = next((mid + sign * i * SLIDE_STEP_DEG for i in range(steps + 1) for sign in (1, -1)
-                   if clear(mid + sign * i * SLIDE_STEP_DEG, half)), None)
+        half = math.degrees(math.atan2(w.measure(text, size_pt).width_mm / 2.0, r_low))
+        if packed:   # the first clear place from the run's earlier end, in its middle half
+            steps = int(span / 2.0 / SLIDE_STEP_DEG)
+            tried = (mid + span / 4.0 - i * SLIDE_STEP_DEG for i in range(steps + 1))
+        else:   # centred on its run, else (``slide``) slid along it, its centre kept inside the run
+            steps = int(span / 2.0 / SLIDE_STEP_DEG) if slide else 0
+            tried = (mid + sign * i * SLIDE_STEP_DEG for i in range(steps + 1) for sign in (1, -1))
+        at = next((a for a in tried if clear(a, half)), None)
         if at is None:
             return False
         done.add(k)
@@ -162,7 +176,15 @@ def _numbers(w, numbers, r_text: float, size_pt: float, bars_deg=(), bar_half_mm
         if not done.intersection(group):
             any(put(k, slide=True) for k in group)   # the first of the group that finds room
     for k in sorted(range(len(numbers)), key=lambda k: -numbers[k][0]):
-        put(k)
+        if roomy(k):
+            put(k)
+    # The short runs in date order, each number as near the last as it
+    # may stand: packed so, about every other run of a fast-changing
+    # season is numbered, where the longest-first order left up to six
+    # in a row unnumbered on A5.
+    start = min(done) if done else 0
+    for i in range(len(numbers)):
+        put((start + i) % len(numbers), packed=True)
     return out
 
 
