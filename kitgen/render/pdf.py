@@ -410,8 +410,7 @@ def _footer(c: Canvas, kit, page: Page) -> None:
     if size < TWO_ROWS_BELOW_PT:
         # A narrow sheet in a long-worded language (Russian on A5): two
         # rows rather than type too small or running off the page (#9).
-        rows = wrap(bar_note, usable * mm / 2 + 1.0, TWO_ROWS_PT, w, "body")
-        rows = wrap(bar_note, usable * mm, TWO_ROWS_PT, w, "body") if len(rows) != 2 else rows
+        rows = _even_rows(bar_note, usable * mm, w)
         size = min(_fitted_pt(row, w, "body", TWO_ROWS_PT, usable) for row in rows)
     # The words start where the page's language starts a line: at the
     # right margin in a right-to-left language, the note at the other end.
@@ -430,6 +429,27 @@ def _footer(c: Canvas, kit, page: Page) -> None:
     note_pt, line, line_pt = _noted_row(kit, usable)
     pdf_text.draw_at_baseline(c, end_x * mm, top, note, note_pt, w, "bold", end)
     pdf_text.draw_at_baseline(c, start_x * mm, top, line, line_pt, w, "body", start)
+
+
+def _even_rows(note: str, width_pt: float, w) -> list[str]:
+    """The note wrapped onto two rows of TWO_ROWS_PT as even as its words
+    allow: at the narrowest width, from half ``width_pt`` up to all of it,
+    at which it still takes two rows (found by halving the interval to
+    within a point), so that no word or two stand alone on the second row
+    (the French note had left « page ». there on A5).  A note that takes
+    more rows even at the whole width is wrapped at the whole width."""
+    rows = wrap(note, width_pt, TWO_ROWS_PT, w, "body")
+    if len(rows) != 2:
+        return rows
+    low, high = width_pt / 2.0, width_pt
+    while high - low > 1.0:
+        middle = (low + high) / 2.0
+        tried = wrap(note, middle, TWO_ROWS_PT, w, "body")
+        if len(tried) == 2:
+            high, rows = middle, tried
+        else:
+            low = middle
+    return rows
 
 
 #: The stock's note of a page of each kind, on the footer's top row.
