@@ -179,9 +179,9 @@ def _numbers(w, numbers, r_text: float, size_pt: float, bars_deg=(), bar_half_mm
         if roomy(k):
             put(k)
     # The short runs in date order, each number as near the last as it
-    # may stand: packed so, about every other run of a fast-changing
-    # season is numbered, where the longest-first order left up to six
-    # in a row unnumbered on A5.
+    # may stand: packed so, every second or third run of a fast-changing
+    # season is numbered, where the longest-first order had left up to
+    # four in a row unnumbered on A5 and Letter kits.
     start = min(done) if done else 0
     for i in range(len(numbers)):
         put((start + i) % len(numbers), packed=True)
