@@ -124,7 +124,8 @@ def _numbers(w, numbers, r_text: float, size_pt: float, bars_deg=(), bar_half_mm
     yet, the first of the group that finds room; then, longest first,
     the runs that hold their numbers with room to spare, centred; then
     the other runs in date order, each number at the first clear place
-    from its run's earlier end, its centre in the run's middle half.
+    from its run's earlier end, its centre in the run's middle half (else
+    slid as far as the run reaches).
     Each keeps a margin (and, by :data:`BAR_CLEAR_MM` more, from the
     bars of the clock changes: ``bars_deg``, their directions;
     ``bar_half_mm``, half their ink's width), and two numbers keep
@@ -183,8 +184,9 @@ def _numbers(w, numbers, r_text: float, size_pt: float, bars_deg=(), bar_half_mm
     # season is numbered, where the longest-first order had left up to
     # four in a row unnumbered on A5 and Letter kits.
     start = min(done) if done else 0
-    for i in range(len(numbers)):
-        put((start + i) % len(numbers), packed=True)
+    for i in range(len(numbers)):   # else anywhere its centre keeps inside the run
+        k = (start + i) % len(numbers)
+        put(k, packed=True) or put(k, slide=True)
     return out
 
 
