@@ -170,11 +170,12 @@ def _page_primitives(kit) -> list[dict]:
     with (``m``, the canvas's matrix): a list of elements (a part's, a
     picture's: ``kitgen geometry``'s element dicts, in mm), a run of text
     at a point (pt) in its font file (the instructions' lines, titles,
-    footers and marks' words), or a segment or rectangle (pt; check bars
-    and marks).  Recorded by drawing the kit through kitgen's own PDF
-    backend with its lowest drawing calls (a list of elements, a line of
-    text, a canvas's line and rectangle) replaced by recorders, so that
-    the floor draws what the kit's PDF draws, page by page."""
+    footers and marks' words), or a segment or rectangle (pt, a rectangle
+    with whether it is filled; check bars and marks).  Recorded by drawing
+    the kit through kitgen's own PDF backend with its lowest drawing calls
+    (a list of elements, a line of text, a canvas's line and rectangle)
+    replaced by recorders, so that the floor draws what the kit's PDF
+    draws, page by page."""
     from reportlab.pdfgen.canvas import Canvas
 
     from kitgen.layout.pages import layout_kit
@@ -196,8 +197,8 @@ def _page_primitives(kit) -> list[dict]:
     def segment(c, x0, y0, x1, y1):
         items.append({"m": list(c._currentMatrix), "segment_pt": [x0, y0, x1, y1]})
 
-    def rect(c, x, y, w, h, *rest, **kw):
-        items.append({"m": list(c._currentMatrix), "rect_pt": [x, y, w, h]})
+    def rect(c, x, y, w, h, stroke=1, fill=0):
+        items.append({"m": list(c._currentMatrix), "rect_pt": [x, y, w, h], "fill": fill})
 
     def show_page(c):
         pages.append({"size_pt": list(c._pagesize), "items": list(items)})
@@ -265,37 +266,48 @@ def floor(paths, out_folder, whole: bool = True) -> None:
     for k, path in enumerate(paths):
         geometry = json.loads(Path(path).read_text(encoding="utf-8"))
         c = Canvas(str(Path(out_folder) / f"floor-{k:03d}.pdf"), invariant=1, pageCompression=1)
-        if not whole:
-            for part in geometry["parts"]:
-                x0, y0, x1, y1 = part["bounds_mm"]
-                c.setPageSize(((x1 - x0 + 20) * mm, (y1 - y0 + 20) * mm))
-                c.translate((10 - x0) * mm, (10 - y0) * mm)
-                for el in part["elements"]:
-                    _floor_element(c, el, font_for)
-                c.showPage()
-            c.save()
-            continue
-        for page in geometry["pages"]:
-            c.setPageSize(tuple(page["size_pt"]))
-            for item in page["items"]:
-                moved = item["m"] != IDENTITY
-                if moved:
-                    c.saveState()
-                    c.transform(*item["m"])
-                if "elements" in item:
-                    for el in item["elements"]:
-                        _floor_element(c, el, font_for)
-                elif "text" in item:
-                    c.setFont(font(item["face"]), item["size_pt"])
-                    c.drawString(*item["at_pt"], item["text"])
-                elif "segment_pt" in item:
-                    c.line(*item["segment_pt"])
-                else:
-                    c.rect(*item["rect_pt"], stroke=1, fill=0)
-                if moved:
-                    c.restoreState()
-            c.showPage()
+        if whole:
+            _floor_pages(c, geometry["pages"], font, font_for)
+        else:
+            _floor_parts(c, geometry["parts"], font_for)
         c.save()
+
+
+def _floor_pages(c, pages, font, font_for) -> None:
+    """The kit's pages as :func:`_page_primitives` recorded them, each item
+    under its recorded matrix."""
+    for page in pages:
+        c.setPageSize(tuple(page["size_pt"]))
+        for item in page["items"]:
+            moved = item["m"] != IDENTITY
+            if moved:
+                c.saveState()
+                c.transform(*item["m"])
+            if "elements" in item:
+                for el in item["elements"]:
+                    _floor_element(c, el, font_for)
+            elif "text" in item:
+                c.setFont(font(item["face"]), item["size_pt"])
+                c.drawString(*item["at_pt"], item["text"])
+            elif "segment_pt" in item:
+                c.line(*item["segment_pt"])
+            else:
+                c.rect(*item["rect_pt"], stroke=1, fill=item["fill"])
+            if moved:
+                c.restoreState()
+        c.showPage()
+
+
+def _floor_parts(c, parts, font_for) -> None:
+    """The kit's parts alone, one a page (the floor measured until
+    4 December 2026)."""
+    for part in parts:
+        x0, y0, x1, y1 = part["bounds_mm"]
+        c.setPageSize(((x1 - x0 + 20) * mm, (y1 - y0 + 20) * mm))
+        c.translate((10 - x0) * mm, (10 - y0) * mm)
+        for el in part["elements"]:
+            _floor_element(c, el, font_for)
+        c.showPage()
 
 
 #: The canvas's matrix where nothing is moved: an item so drawn needs no
