@@ -642,3 +642,35 @@ def test_manifest_opens_in_a_spreadsheet_as_written(spans):
             assert re.findall(r"\d+", cell) == [str(first), str(last)]
             with pytest.raises((ValueError, OverflowError)):
                 dates.parse(cell)
+
+
+def test_a_file_that_cannot_be_written_ends_the_run_in_one_line_and_leaves_nothing(tmp_path, capsys, monkeypatch):
+    """A kit's file that cannot be written (a full disk: ENOSPC at its
+    flush, made so here) ends the run with one line, the English
+    template's words for a full disk in it (PyYAML), status 2, and leaves
+    nothing: no output folder, no temporary one, no writing thread (the
+    files are written beside the build, kitgen.batch.folder.BackgroundWrites)."""
+    import errno
+    import threading
+
+    from kitgen.batch import folder
+
+    calls = []
+    real_fsync = os.fsync
+
+    def full_disk(fd):
+        calls.append(fd)
+        if len(calls) == 2:
+            raise OSError(errno.ENOSPC, os.strerror(errno.ENOSPC))
+        real_fsync(fd)
+
+    monkeypatch.setattr(folder.os, "fsync", full_disk)
+    kits = [{"owner": name} for name in ("Ivo", "Uma", "Ada", "Bo")]
+    (tmp_path / "s.yaml").write_text(yaml.safe_dump({"defaults": DEFAULTS, "kits": kits}))
+    before = set(threading.enumerate())
+    assert main(["batch", str(tmp_path / "s.yaml"), "-o", str(tmp_path / "out"), "--quiet", "--jobs", "1"]) == 2
+    err = capsys.readouterr().err.strip().splitlines()
+    full = _template("en")["errors"]["write_disk_full"]
+    assert len(err) == 1 and err[0].startswith("kitgen: ") and err[0].endswith(full), err
+    assert sorted(p.name for p in tmp_path.iterdir()) == ["s.yaml"]
+    assert [t for t in threading.enumerate() if t not in before] == []

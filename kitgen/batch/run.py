@@ -33,7 +33,7 @@ from ..collect import collect_rarely, rare_collections
 from ..errors import EXIT_INTERNAL, EXIT_OK, EXIT_USER, Message, one_line
 from ..kit import school_of
 from ..words.templates import available_languages, load_words
-from .folder import KITS, MANIFEST, check_output_folder, fresh_folder, target_folder, write_file
+from .folder import KITS, MANIFEST, BackgroundWrites, check_output_folder, fresh_folder, target_folder
 from .manifest import manifest_csv, manifest_row
 from .naming import kit_file_names
 from .printfiles import PrintedKit, PrintFiles, sheet_key
@@ -122,7 +122,7 @@ def _run(kit_set, out_dir: Path, pools: list, quiet: bool, stream, started: floa
     results, internal, peak, traces = {}, False, 0, []
     by_number = {k.number: k for k in kit_set.kits}
     try:
-        with fresh_folder(out_dir) as tmp:
+        with fresh_folder(out_dir) as tmp, BackgroundWrites() as files:
             for _ in errors:
                 bar.advance()
             printing, waiting, next_number = PrintFiles(), {}, 1
@@ -136,7 +136,7 @@ def _run(kit_set, out_dir: Path, pools: list, quiet: bool, stream, started: floa
                     if result.trace:
                         traces.append((result.number, result.trace))
                 else:
-                    write_file(tmp / KITS / names[kit.number - 1], result.pdf)
+                    files.write(tmp / KITS / names[kit.number - 1], result.pdf)
                     # the manifest's part
                     results[result.number] = replace(result, pdf=b"", shared=b"", overlay=b"", stamps=b"")
                 waiting[result.number] = result
@@ -144,11 +144,11 @@ def _run(kit_set, out_dir: Path, pools: list, quiet: bool, stream, started: floa
                 bar.advance()
             _print_ready(printing, stamps, waiting, next_number, by_number, last=True)
             for name, data in printing.finish().items():
-                write_file(tmp / name, data)
+                files.write(tmp / name, data)
             spans = printing.ranges
             rows = [manifest_row(k, names[k.number - 1], results.get(k.number), spans.get(k.number, {}),
                                  errors.get(k.number, "")) for k in kit_set.kits]
-            write_file(tmp / MANIFEST, manifest_csv(rows))
+            files.write(tmp / MANIFEST, manifest_csv(rows))
     finally:
         bar.close()
     failures = tuple(sorted(errors.items()))
