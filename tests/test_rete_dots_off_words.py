@@ -147,7 +147,7 @@ ALONE_OFFSETS = 2.0
 #: choice, common practice in map labelling, no standard.
 CLEARLY_NEARER_MM = 0.45
 LEADER_NAME_FROM_OTHER_DOTS_MM = 1.0
-#: No other dot stands level with a name without a leader, within this
+#: No other dot stands level with a name, with a leader or without, within this
 #: many label offsets beyond either end of it (a choice, as above).
 BESIDE_OFFSETS = 1.5
 #: Half the pin's crosshair (mm), kept clear of every word on the rete.
@@ -165,12 +165,15 @@ NAME_GAP_MM = 1.0
     "latitude: 24.5\nlanguage: ar\n", "latitude: -37.8\nlanguage: es\n", "latitude: 3.1\nsheet: letter\nlanguage: fr\n",
     "latitude: 45\nsheet: a5\nlanguage: ar\n", "latitude: 12\ndiameter_mm: 150\nlanguage: hi\n",
     "latitude: 52\nsheet: a5\nlanguage: de\n",   # "Alioth" had stood beside Dubhe's dot
+    "latitude: 51.5\nsheet: a5\n",                # "Elnath", led, had begun beside Bellatrix's dot
+    "latitude: -45\nsheet: letter\nlanguage: hi\n", "latitude: 35\nsheet: a4\nlanguage: de\n",
 ])
 def test_each_name_reads_as_its_own_stars(head):
     """Each star's name stands within ALONE_OFFSETS of its own dot and
     clearly nearer to it than to any other drawn dot, or has a leader from
     its dot to the name and keeps clear of every other dot (#9: at 0.5 N,
-    Castor's name once stood nearer Alioth's dot than its own)."""
+    Castor's name once stood nearer Alioth's dot than its own); and no
+    other dot stands level with a name just beyond one of its ends (#12)."""
     kit = build_kit(parse_recipe_text("epoch: 2027\n" + head + "parts: [rete]\n"))
     rete, w = kit.part("rete"), kit.words
     dots = {e.values["name"]: e for e in rete.elements if e.role == "star" and e.stroke != "none"}
@@ -191,6 +194,8 @@ def test_each_name_reads_as_its_own_stars(head):
                 if other != name and dot_to_box_mm(dot.geom["at"], dot.values["radius_mm"], box) \
                         < LEADER_NAME_FROM_OTHER_DOTS_MM:
                     bad.append((name, "leader's name beside", other))
+                if other != name and _level_beside(dot, box, BESIDE_OFFSETS * offset):
+                    bad.append((name, "leader's name level beside", other))
             continue
         gap = dot_to_box_mm(own.geom["at"], own.values["radius_mm"], box)
         # A dot under the pin's crosshair (Polaris) is named beside the
@@ -206,13 +211,20 @@ def test_each_name_reads_as_its_own_stars(head):
             # nor does another dot stand beside an end of the name, level
             # with its words, where a reader looks for a point's name first
             # (common practice in map labelling; "Alioth" beside Dubhe's dot)
-            (x, y), r = dot.geom["at"], dot.values["radius_mm"]
-            ys = [c[1] for c in box]
-            xs = [c[0] for c in box]
-            if other != name and min(ys) <= y <= max(ys) \
-                    and max(min(xs) - x, x - max(xs)) - r < BESIDE_OFFSETS * offset - 1e-6:
+            if other != name and _level_beside(dot, box, BESIDE_OFFSETS * offset):
                 bad.append((name, "beside", other))
     assert not bad, bad
+
+
+def _level_beside(dot, box, beside_mm: float) -> bool:
+    """Whether the dot stands level with the name's words (its disc
+    reaching into their height) beyond one end of the name, within
+    ``beside_mm`` of it: there the name reads as that dot's, whether a
+    leader runs to it from elsewhere or not (#12: "Elnath", led from its
+    own dot, began beside Bellatrix's on a northern A5 rete)."""
+    (x, y), r = dot.geom["at"], dot.values["radius_mm"]
+    xs, ys = [c[0] for c in box], [c[1] for c in box]
+    return min(ys) - r <= y <= max(ys) + r and max(min(xs) - x, x - max(xs)) - r < beside_mm - 1e-6
 
 
 def _cross(p, q, a, b) -> bool:

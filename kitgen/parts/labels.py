@@ -106,8 +106,9 @@ NAME_GAP_MM = 1.0
 #: How much nearer (mm) its own dot a name without a leader stands than
 #: any other dot, so that it is *clearly* that dot's (#9).
 NEARER_BY_MM = 0.5
-#: ... and no other dot stands level with it within this many offsets
-#: beyond either end, where a reader looks for a point's name first (#12).
+#: ... and no other dot stands level with a name, with a leader or
+#: without, within this many offsets beyond either end, where a reader
+#: looks for a point's name first (#12).
 BESIDE_OFFSETS = 1.5
 #: A name with a leader keeps this many offsets (and :data:`NAME_GAP_MM`
 #: at least) from every other dot, so that it never reads as that dot's
@@ -190,7 +191,8 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
     than any other point's, by :data:`NEARER_BY_MM`, with no other dot
     level with it within :data:`BESIDE_OFFSETS` offsets of its ends; every other place,
     near or far, takes a leader, keeps :data:`LEADER_NAME_CLEAR` offsets
-    (and :data:`NAME_GAP_MM` at least) from every other dot, and its
+    (and :data:`NAME_GAP_MM` at least) from every other dot, has none
+    level with it within :data:`BESIDE_OFFSETS` offsets of its ends, and its
     leader crosses no other leader and keeps :data:`LEADER_CLEAR_MM` from
     every other dot.  Labels keep :data:`NAME_GAP_MM` from each other, no
     leader passes between another label and its point (#9: Hadar's name
@@ -302,7 +304,8 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
                        for p, q in _link((x, y), box)):
                     continue
                 if needs_leader and _once(memo, ("beside", i), _beside_another, box, k, points, leaders_from_mm,
-                                          max(offset_mm * LEADER_NAME_CLEAR, NAME_GAP_MM), dots, dot_mm):
+                                          max(offset_mm * LEADER_NAME_CLEAR, NAME_GAP_MM), dots, dot_mm,
+                                          BESIDE_OFFSETS * offset_mm):
                     continue
             leader = None
             if needs_leader:
@@ -510,10 +513,21 @@ def _nearest_own(box, k: int, points, radii_mm, dots, dot_mm: float, beside_mm: 
             continue
         if own + NEARER_BY_MM >= _box_gap_mm(box, points[j], radii_mm[j]):
             return False
-        x, y = points[j]
-        if box[1] <= y <= box[3] and max(box[0] - x, x - box[2]) - radii_mm[j] < beside_mm:
+        if _level_beside(box, points[j], radii_mm[j], beside_mm):
             return False
     return True
+
+
+def _level_beside(box, point, radius_mm: float, beside_mm: float) -> bool:
+    """Whether a dot of ``radius_mm`` at ``point`` stands level with the
+    box's words (its disc reaching into their height) beyond one of the
+    box's ends, within ``beside_mm``: where a reader looks for a point's
+    name first, so that the name reads as that dot's, leader or not
+    (common practice in map labelling; #12: "Elnath", led from its own
+    dot, began beside Bellatrix's, whose disc stood 0.03 mm below the
+    words' box)."""
+    x, y = point
+    return box[1] - radius_mm <= y <= box[3] + radius_mm and max(box[0] - x, x - box[2]) - radius_mm < beside_mm
 
 
 def _segments_cross(p, q, a, b) -> bool:
@@ -546,13 +560,16 @@ def _passes_another(leader, k: int, points, radii_mm, near_mm: float, dots, dot_
     return False
 
 
-def _beside_another(box, k: int, points, radii_mm, near_mm: float, dots, dot_mm: float) -> bool:
+def _beside_another(box, k: int, points, radii_mm, near_mm: float, dots, dot_mm: float,
+                    beside_mm: float = 0.0) -> bool:
     """Whether the box stands within ``near_mm`` of a dot other than point
-    ``k``'s, where it would read as that dot's name, leader or not (of the
-    points of the grid ``dots`` near it; ``dot_mm``: the widest dot's
-    radius)."""
+    ``k``'s, or has one level with its words within ``beside_mm`` beyond
+    an end (:func:`_level_beside`), where it would read as that dot's
+    name, leader or not (of the points of the grid ``dots`` near it;
+    ``dot_mm``: the widest dot's radius)."""
     return any(_box_gap_mm(box, points[j], radii_mm[j]) < near_mm
-               for j in dots.near(box, near_mm + dot_mm + SEARCH_SLACK_MM) if j != k)
+               or _level_beside(box, points[j], radii_mm[j], beside_mm)
+               for j in dots.near(box, max(near_mm, beside_mm) + dot_mm + SEARCH_SLACK_MM) if j != k)
 
 
 def fitted_text(role, at, string: str, size_pt: float, words, max_width_mm: float,
