@@ -150,11 +150,18 @@ LEADER_NAME_FROM_OTHER_DOTS_MM = 1.0
 #: No other dot stands level with a name, with a leader or without, within this
 #: many label offsets beyond either end of it (a choice, as above).
 BESIDE_OFFSETS = 1.5
+#: Nor within this many offsets over or under the middle half of its words
+#: (a choice, as above).
+OVER_OFFSETS = 1.0
 #: Half the pin's crosshair (mm), kept clear of every word on the rete.
 PIN_HALF_MM = 2.5
 #: Paper (mm) between two names (#9: "Pollux" ran into Sirius's name);
 #: about a letter's width at 5 pt, common practice.
 NAME_GAP_MM = 1.0
+#: ... and along the line between two names side by side: a word space is
+#: about 0.6 mm at 5 pt, and two words 2 mm apart read as two names
+#: (common practice, a choice).
+NAME_GAP_ALONG_MM = 2.0
 
 
 @pytest.mark.parametrize("head", [
@@ -166,6 +173,7 @@ NAME_GAP_MM = 1.0
     "latitude: 45\nsheet: a5\nlanguage: ar\n", "latitude: 12\ndiameter_mm: 150\nlanguage: hi\n",
     "latitude: 52\nsheet: a5\nlanguage: de\n",   # "Alioth" had stood beside Dubhe's dot
     "latitude: 51.5\nsheet: a5\n",                # "Elnath", led, had begun beside Bellatrix's dot
+    "latitude: 24.7\nsheet: a5\nlanguage: hi\n",   # Alioth's name had stood centred under Dubhe's dot
     "latitude: -45\nsheet: letter\nlanguage: hi\n", "latitude: 35\nsheet: a4\nlanguage: de\n",
 ])
 def test_each_name_reads_as_its_own_stars(head):
@@ -194,7 +202,7 @@ def test_each_name_reads_as_its_own_stars(head):
                 if other != name and dot_to_box_mm(dot.geom["at"], dot.values["radius_mm"], box) \
                         < LEADER_NAME_FROM_OTHER_DOTS_MM:
                     bad.append((name, "leader's name beside", other))
-                if other != name and _level_beside(dot, box, BESIDE_OFFSETS * offset):
+                if other != name and _level_beside(dot, box, offset):
                     bad.append((name, "leader's name level beside", other))
             continue
         gap = dot_to_box_mm(own.geom["at"], own.values["radius_mm"], box)
@@ -211,20 +219,26 @@ def test_each_name_reads_as_its_own_stars(head):
             # nor does another dot stand beside an end of the name, level
             # with its words, where a reader looks for a point's name first
             # (common practice in map labelling; "Alioth" beside Dubhe's dot)
-            if other != name and _level_beside(dot, box, BESIDE_OFFSETS * offset):
+            if other != name and _level_beside(dot, box, offset):
                 bad.append((name, "beside", other))
     assert not bad, bad
 
 
-def _level_beside(dot, box, beside_mm: float) -> bool:
-    """Whether the dot stands level with the name's words (its disc
-    reaching into their height) beyond one end of the name, within
-    ``beside_mm`` of it: there the name reads as that dot's, whether a
-    leader runs to it from elsewhere or not (#12: "Elnath", led from its
-    own dot, began beside Bellatrix's on a northern A5 rete)."""
+def _level_beside(dot, box, offset_mm: float) -> bool:
+    """Whether the dot stands where a reader looks for a name's point, and
+    so takes the name for that dot's, whether a leader runs to it from
+    elsewhere or not: level with the name's words (its disc reaching into
+    their height) within BESIDE_OFFSETS beyond one end (#12: "Elnath",
+    led from its own dot, began beside Bellatrix's on a northern A5
+    rete), or over or under the middle half of the words within
+    OVER_OFFSETS (#12: on a Hindi A5 rete Alioth's name stood centred
+    under Dubhe's dot)."""
     (x, y), r = dot.geom["at"], dot.values["radius_mm"]
     xs, ys = [c[0] for c in box], [c[1] for c in box]
-    return min(ys) - r <= y <= max(ys) + r and max(min(xs) - x, x - max(xs)) - r < beside_mm - 1e-6
+    if min(ys) - r <= y <= max(ys) + r:
+        return max(min(xs) - x, x - max(xs)) - r < BESIDE_OFFSETS * offset_mm - 1e-6
+    middle, quarter = (min(xs) + max(xs)) / 2, (max(xs) - min(xs)) / 4
+    return abs(x - middle) <= quarter + r and max(min(ys) - y, y - max(ys)) - r < OVER_OFFSETS * offset_mm - 1e-6
 
 
 def _cross(p, q, a, b) -> bool:
@@ -261,6 +275,11 @@ def _upright_box(el, words):
 
 
 def test_names_keep_a_millimetre_apart(kit):
+    """Names keep NAME_GAP_MM from each other, and NAME_GAP_ALONG_MM
+    along the line where they stand side by side, their heights
+    overlapping, so that two never read as one name of two words (#12:
+    on an Arabic rete at the equator the names of Capella and Alioth
+    stood 1.3 mm apart on one line)."""
     rete, w = kit.part("rete"), kit.words
     boxes = [(e.geom["text"], _upright_box(e, w)) for e in rete.elements if e.role == "star_label"]
     close = []
@@ -270,6 +289,9 @@ def test_names_keep_a_millimetre_apart(kit):
             gap = math.hypot(max(p[0] - q[2], q[0] - p[2], 0.0), max(p[1] - q[3], q[1] - p[3], 0.0))
             if gap < NAME_GAP_MM - 1e-9:
                 close.append((a, b, round(gap, 2)))
+            side_by_side = p[1] < q[3] and q[1] < p[3]
+            if side_by_side and max(p[0] - q[2], q[0] - p[2]) < NAME_GAP_ALONG_MM - 1e-9:
+                close.append((a, b, "side by side", round(max(p[0] - q[2], q[0] - p[2]), 2)))
     assert not close
 
 

@@ -103,13 +103,22 @@ LEADER_CLEAR_MM = 0.4
 #: a word of its own (#9: on an Arabic rete "Pollux" ran into Sirius's
 #: name; about a letter's width at 5 pt, common practice in map labelling).
 NAME_GAP_MM = 1.0
+#: Clear paper (mm) along the line between two names side by side (less
+#: than :data:`NAME_GAP_MM` apart in height), so that they never read as
+#: one name of two words: a word space is about 0.6 mm at 5 pt, and names
+#: of two words are common (#12: on an Arabic rete at the equator the
+#: names of Capella and Alioth stood 1.3 mm apart on one line).
+NAME_GAP_ALONG_MM = 2.0
 #: How much nearer (mm) its own dot a name without a leader stands than
 #: any other dot, so that it is *clearly* that dot's (#9).
 NEARER_BY_MM = 0.5
 #: ... and no other dot stands level with a name, with a leader or
 #: without, within this many offsets beyond either end, where a reader
-#: looks for a point's name first (#12).
+#: looks for a point's name first (#12) ...
 BESIDE_OFFSETS = 1.5
+#: ... nor within this many offsets over or under the middle of its
+#: words, where a reader looks next (#12).
+OVER_OFFSETS = 1.0
 #: A name with a leader keeps this many offsets (and :data:`NAME_GAP_MM`
 #: at least) from every other dot, so that it never reads as that dot's
 #: name (#9: Bellatrix's name, at the end of its leader, stood beside
@@ -189,12 +198,15 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
     leader's own point's test.  With leaders, a label without one stands
     within :data:`ALONE_REACH` offsets of its point and nearer its own dot
     than any other point's, by :data:`NEARER_BY_MM`, with no other dot
-    level with it within :data:`BESIDE_OFFSETS` offsets of its ends; every other place,
+    level with it within :data:`BESIDE_OFFSETS` offsets of its ends, nor
+    over or under its middle within :data:`OVER_OFFSETS`; every other place,
     near or far, takes a leader, keeps :data:`LEADER_NAME_CLEAR` offsets
     (and :data:`NAME_GAP_MM` at least) from every other dot, has none
-    level with it within :data:`BESIDE_OFFSETS` offsets of its ends, and its
+    level with it within :data:`BESIDE_OFFSETS` offsets of its ends nor
+    over or under its middle within :data:`OVER_OFFSETS`, and its
     leader crosses no other leader and keeps :data:`LEADER_CLEAR_MM` from
-    every other dot.  Labels keep :data:`NAME_GAP_MM` from each other, no
+    every other dot.  Labels keep :data:`NAME_GAP_MM` from each other
+    (:data:`NAME_GAP_ALONG_MM` along the line side by side), no
     leader passes between another label and its point (#9: Hadar's name
     cut off from its dot by Rigil Kentaurus's leader), and a label with no
     free place may take that of one of its :data:`REPAIR_NEIGHBOURS`
@@ -296,7 +308,8 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
                 continue
             if with_leaders:
                 if not needs_leader and not _once(memo, ("own", i), _nearest_own, box, k, points, leaders_from_mm,
-                                                  dots, dot_mm, BESIDE_OFFSETS * offset_mm):
+                                                  dots, dot_mm, BESIDE_OFFSETS * offset_mm,
+                                                  OVER_OFFSETS * offset_mm):
                     continue
                 # (no leader chosen before passes between this label and
                 # its point, with a leader of its own or not)
@@ -305,7 +318,7 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
                     continue
                 if needs_leader and _once(memo, ("beside", i), _beside_another, box, k, points, leaders_from_mm,
                                           max(offset_mm * LEADER_NAME_CLEAR, NAME_GAP_MM), dots, dot_mm,
-                                          BESIDE_OFFSETS * offset_mm):
+                                          BESIDE_OFFSETS * offset_mm, OVER_OFFSETS * offset_mm):
                     continue
             leader = None
             if needs_leader:
@@ -335,13 +348,15 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
     def free_of(blocks, names, gap_mm, spans):
         """(index, table, memo, by_leader) of each place of the blocks, in
         order, that meets no box of ``names`` (nor, with ``gap_mm``, comes
-        within that of one), each block's places tested all at once;
+        within that of one, or within :data:`NAME_GAP_ALONG_MM` of one
+        beside it), each block's places tested all at once;
         ``by_leader`` when its box comes within the search's slack of a box
         of ``spans`` (those of the leaders chosen): a leader whose box
         stays farther cannot meet it."""
+        along_mm = None if gap_mm is None else max(gap_mm, NAME_GAP_ALONG_MM)
         for table, clear, array, memo in blocks:
             # (a box grown by the gap meets all that the box itself meets)
-            grown = array if gap_mm is None else array + np.array([-gap_mm, -gap_mm, gap_mm, gap_mm])
+            grown = array if gap_mm is None else array + np.array([-along_mm, -gap_mm, along_mm, gap_mm])
             taken = meets_any(grown, names)
             by_leader = meets_any(array + np.array([-slack, -slack, slack, slack]), spans)
             for i, t, b in zip(clear, taken.tolist(), by_leader.tolist()):
@@ -497,7 +512,8 @@ def _link(point, box):
     return [((x, y), c) for c in ((box[0], box[1]), (box[2], box[1]), (box[2], box[3]), (box[0], box[3]), near)]
 
 
-def _nearest_own(box, k: int, points, radii_mm, dots, dot_mm: float, beside_mm: float = 0.0) -> bool:
+def _nearest_own(box, k: int, points, radii_mm, dots, dot_mm: float, beside_mm: float = 0.0,
+                 over_mm: float = 0.0) -> bool:
     """Whether the box lies nearer point ``k``'s dot than any other
     point's, by :data:`NEARER_BY_MM` at least, and no other dot stands
     beside one of its ends, level with its words, within ``beside_mm``:
@@ -507,27 +523,33 @@ def _nearest_own(box, k: int, points, radii_mm, dots, dot_mm: float, beside_mm: 
     Only the points of the grid ``dots`` near enough to fail are tested
     (``dot_mm``: the widest dot's radius)."""
     own = _box_gap_mm(box, points[k], radii_mm[k])
-    reach = max(own + NEARER_BY_MM, beside_mm) + dot_mm + SEARCH_SLACK_MM
+    reach = max(own + NEARER_BY_MM, beside_mm, over_mm) + dot_mm + SEARCH_SLACK_MM
     for j in dots.near(box, max(reach, 0.0)):
         if j == k:
             continue
         if own + NEARER_BY_MM >= _box_gap_mm(box, points[j], radii_mm[j]):
             return False
-        if _level_beside(box, points[j], radii_mm[j], beside_mm):
+        if _level_beside(box, points[j], radii_mm[j], beside_mm, over_mm):
             return False
     return True
 
 
-def _level_beside(box, point, radius_mm: float, beside_mm: float) -> bool:
-    """Whether a dot of ``radius_mm`` at ``point`` stands level with the
-    box's words (its disc reaching into their height) beyond one of the
-    box's ends, within ``beside_mm``: where a reader looks for a point's
-    name first, so that the name reads as that dot's, leader or not
-    (common practice in map labelling; #12: "Elnath", led from its own
+def _level_beside(box, point, radius_mm: float, beside_mm: float, over_mm: float = 0.0) -> bool:
+    """Whether a dot of ``radius_mm`` at ``point`` stands where a reader
+    looks for a point's name, so that the box's words read as that dot's
+    name, leader or not (the usual places of a point's name in map
+    labelling, beside it, then over or under it; common practice): level
+    with the words (its disc reaching into their height) beyond one of
+    the box's ends, within ``beside_mm`` (#12: "Elnath", led from its own
     dot, began beside Bellatrix's, whose disc stood 0.03 mm below the
-    words' box)."""
+    words' box), or under or over the middle half of the words within
+    ``over_mm`` (#12: on a Hindi A5 rete the name of Alioth stood
+    centred under Dubhe's dot, and Dubhe's over Alioth's)."""
     x, y = point
-    return box[1] - radius_mm <= y <= box[3] + radius_mm and max(box[0] - x, x - box[2]) - radius_mm < beside_mm
+    if box[1] - radius_mm <= y <= box[3] + radius_mm:
+        return max(box[0] - x, x - box[2]) - radius_mm < beside_mm
+    middle, quarter = (box[0] + box[2]) / 2, (box[2] - box[0]) / 4
+    return abs(x - middle) <= quarter + radius_mm and max(box[1] - y, y - box[3]) - radius_mm < over_mm
 
 
 def _segments_cross(p, q, a, b) -> bool:
@@ -561,15 +583,16 @@ def _passes_another(leader, k: int, points, radii_mm, near_mm: float, dots, dot_
 
 
 def _beside_another(box, k: int, points, radii_mm, near_mm: float, dots, dot_mm: float,
-                    beside_mm: float = 0.0) -> bool:
+                    beside_mm: float = 0.0, over_mm: float = 0.0) -> bool:
     """Whether the box stands within ``near_mm`` of a dot other than point
     ``k``'s, or has one level with its words within ``beside_mm`` beyond
-    an end (:func:`_level_beside`), where it would read as that dot's
+    an end or within ``over_mm`` over or under their middle
+    (:func:`_level_beside`), where it would read as that dot's
     name, leader or not (of the points of the grid ``dots`` near it;
     ``dot_mm``: the widest dot's radius)."""
     return any(_box_gap_mm(box, points[j], radii_mm[j]) < near_mm
-               or _level_beside(box, points[j], radii_mm[j], beside_mm)
-               for j in dots.near(box, max(near_mm, beside_mm) + dot_mm + SEARCH_SLACK_MM) if j != k)
+               or _level_beside(box, points[j], radii_mm[j], beside_mm, over_mm)
+               for j in dots.near(box, max(near_mm, beside_mm, over_mm) + dot_mm + SEARCH_SLACK_MM) if j != k)
 
 
 def fitted_text(role, at, string: str, size_pt: float, words, max_width_mm: float,
