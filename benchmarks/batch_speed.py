@@ -252,7 +252,10 @@ def floor(paths, out_folder, whole: bool = True) -> None:
     def font(filename: str) -> str:
         if filename not in registered:
             registered[filename] = "Floor-" + Path(filename).stem
-            pdfmetrics.registerFont(TTFont(registered[filename], str(fonts / filename)))
+            # The characters drawn and no others, as kitgen embeds them
+            # (kitgen.render.pdf_text.TaggedTTFont; a floor embedding all
+            # of ASCII as well took the same time, measured).
+            pdfmetrics.registerFont(TTFont(registered[filename], str(fonts / filename), asciiReadable=False))
         return registered[filename]
 
     def font_for(text: str) -> str:
