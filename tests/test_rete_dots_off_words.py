@@ -354,3 +354,18 @@ def test_polaris_is_named_beside_the_pin(head):
     assert not Polygon([tuple(c) for c in corners]).intersects(pin)
     assert Polygon([tuple(c) for c in corners]).distance(pin) < 2.0 * kit.dims.tick_mm * 1.3
     assert not any(e.role == "star_leader" and e.values["name"] == "Polaris" for e in rete.elements)
+
+
+#: The shortest leader (mm): a shorter stroke beside a name prints as a
+#: stray hyphen or tick (common practice of lettering; the value is ours,
+#: the plate's shortest piece of a line, kitgen.parts.breaks.MIN_PIECE_MM).
+LEAST_LEADER_MM = 1.5
+
+
+def test_no_leader_is_a_stub(kit):
+    """Every leader is at least LEAST_LEADER_MM long (#12: a 0.3 mm leader
+    by Betelgeuse's name on an Arabic rete read as a hyphen)."""
+    leaders = [e for e in kit.part("rete").elements if e.role == "star_leader"]
+    short = [(e.values["name"], round(math.dist(e.geom["from"], e.geom["to"]), 2)) for e in leaders
+             if math.dist(e.geom["from"], e.geom["to"]) < LEAST_LEADER_MM - 1e-9]
+    assert not short
