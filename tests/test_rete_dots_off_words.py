@@ -187,11 +187,10 @@ def test_each_name_reads_as_its_own_stars(head):
     dots = {e.values["name"]: e for e in rete.elements if e.role == "star" and e.stroke != "none"}
     leaders = {e.values["name"]: e for e in rete.elements if e.role == "star_leader"}
     offset = kit.dims.tick_mm * 1.3
-    names = [e for e in rete.elements if e.role == "star_label"]
-    assert len(names) >= 20
+    boxes = name_boxes(rete, w)
+    assert len(boxes) >= 20
     bad = []
-    for e in names:
-        name, box = e.values["name"], ink_box(e, w)
+    for name, box in boxes.items():
         own = dots[name]
         if name in leaders:
             a, b = leaders[name].geom["from"], leaders[name].geom["to"]
@@ -274,6 +273,36 @@ def _upright_box(el, words):
     return min(xs), min(ys), max(xs), max(ys)
 
 
+def name_boxes(rete, words) -> dict:
+    """Each star's name's ink box (its four corners), the box round all
+    its lines where a long name is set on two (#12), by the star's name."""
+    lines: dict = {}
+    for e in rete.elements:
+        if e.role == "star_label":
+            lines.setdefault(e.values["name"], []).append(_upright_box(e, words))
+    out = {}
+    for name, got in lines.items():
+        x0, y0 = min(b[0] for b in got), min(b[1] for b in got)
+        x1, y1 = max(b[2] for b in got), max(b[3] for b in got)
+        out[name] = [(x0, y0), (x1, y0), (x1, y1), (x0, y1)]
+    return out
+
+
+def test_a_long_name_on_two_lines_is_its_words_in_order(kit):
+    """A name set on two lines (#12: where it had no room on one) is its
+    words in order, a line each, the lines one above the other with the
+    same anchor, each carrying the whole name."""
+    lines: dict = {}
+    for e in kit.part("rete").elements:
+        if e.role == "star_label":
+            lines.setdefault(e.values["name"], []).append(e)
+    for name, got in lines.items():
+        if len(got) > 1:
+            assert len(got) == 2 and " ".join(e.geom["text"] for e in got) == got[0].values["full_text"]
+            assert got[0].geom["at"][0] == got[1].geom["at"][0] and got[0].geom["at"][1] > got[1].geom["at"][1]
+            assert got[0].geom["anchor"] == got[1].geom["anchor"]
+
+
 def test_names_keep_a_millimetre_apart(kit):
     """Names keep NAME_GAP_MM from each other, and NAME_GAP_ALONG_MM
     along the line where they stand side by side, their heights
@@ -281,7 +310,7 @@ def test_names_keep_a_millimetre_apart(kit):
     on an Arabic rete at the equator the names of Capella and Alioth
     stood 1.3 mm apart on one line)."""
     rete, w = kit.part("rete"), kit.words
-    boxes = [(e.geom["text"], _upright_box(e, w)) for e in rete.elements if e.role == "star_label"]
+    boxes = [(name, (c[0][0], c[0][1], c[2][0], c[2][1])) for name, c in name_boxes(rete, w).items()]
     close = []
     for i, (a, p) in enumerate(boxes):
         for b, q in boxes[i + 1:]:

@@ -20,6 +20,8 @@ from ..geometry.style import MIN_DOT_RADIUS_MM, star_radius_mm, stroke_width_mm
 from ..projection.circles import project_circle
 from ..projection.stereographic import equatorial_vector, project
 from ..sky.rete_rim import MAX_RIM_DEG, rim_for_stars_deg
+from ..words.fit import line_offsets_mm
+from ..words.measure import Extent
 from ..words.symbols import ZODIAC_SIGNS
 from . import band_words, curves, labels, legibility
 from .ring_numbers import NUMBERED_TICK, SHORT_TICK, SIGN_NUMBERS_DEG, names_from_edge_mm, number_row
@@ -138,8 +140,8 @@ def rete(ctx: PartContext) -> model.Part:
                                    inside_radius_mm=d.outer_tropic_radius_mm - labels.MARGIN_MM,
                                    keep_out_rings=[(tuple(c), image.radius_mm - band - edge_in,
                                                     image.radius_mm + edge_out)],
-                                   measure=w.measure, leaders_from_mm=[radii[k] for k in lead],
-                                   own_boxes=dot_boxes, marks=[pin_box])
+                                   measure=lambda text, size_pt: _lines_extent(w, text, size_pt),
+                                   leaders_from_mm=[radii[k] for k in lead], own_boxes=dot_boxes, marks=[pin_box])
 
     places = place(names)
     # A dot of several stars with no room for all their names is named
@@ -147,6 +149,16 @@ def rete(ctx: PartContext) -> model.Part:
     alone = [w.star_name(stars[k].star.label) for k in lead]
     if any(where is None and name != one for where, name, one in zip(places, names, alone)):
         names = [one if where is None else name for where, name, one in zip(places, names, alone)]
+        places = place(names)
+    # A name of several words still without a place is set on two lines,
+    # about half as long: where the sky is crowded round the pin (the
+    # southern retes of low latitudes) a long name finds room there (#12:
+    # Rigil Kentaurus, 14 mm on one line on A4, had one place with a
+    # leader at 20 S, and went unnamed).
+    broken = [_in_two_lines(w, name, d.small_text_pt) if where is None and name == one else name
+              for where, name, one in zip(places, names, alone)]
+    if broken != names:
+        names = broken
         places = place(names)
     where_of = dict(zip(lead, places))
     for k, (placed, p) in enumerate(zip(stars, all_pts)):
@@ -162,15 +174,51 @@ def rete(ctx: PartContext) -> model.Part:
         if first == k and where is not None:
             at, anchor, leader = where
             text = names[lead.index(k)]
-            names_k = [placed.star.label] + (together if text != alone[lead.index(k)] else [])
-            els.append(model.text("star_label", at, text, d.small_text_pt, anchor=anchor,
-                                  name=placed.star.label, **({"names": names_k} if len(names_k) > 1 else {})))
+            whole = text.replace("\n", " ")   # a name set on two lines (_in_two_lines)
+            names_k = [placed.star.label] + (together if whole != alone[lead.index(k)] else [])
+            more = {"names": names_k} if len(names_k) > 1 else {}
+            lines = text.split("\n")
+            if len(lines) == 1:
+                els.append(model.text("star_label", at, text, d.small_text_pt, anchor=anchor,
+                                      name=placed.star.label, **more))
+            else:   # each line an element, as kitgen.parts.labels.fitted_text sets them
+                h = w.measure(lines[0], d.small_text_pt).height_mm
+                for line, off in zip(lines, line_offsets_mm(len(lines), h)):
+                    els.append(model.text("star_label", (at[0], at[1] + off), line, d.small_text_pt, anchor=anchor,
+                                          name=placed.star.label, full_text=whole, **more))
             if leader is not None:
                 els.append(model.segment("star_leader", leader[0], leader[1], "fine", name=placed.star.label))
     els.append(model.point("pin", (0.0, 0.0), hole="centre"))
     r = d.plate_radius_mm
     values = {"ecliptic_numbers_under_stars_deg": under_stars} if under_stars else {}
     return model.Part("rete", "film", tuple(els), (-r, -r, r, r), values, w("rete.title"))
+
+
+def _in_two_lines(w, name: str, size_pt: float) -> str:
+    """``name`` broken at the space that makes its longer line shortest
+    (measured), the lines joined by a newline; the name as it is where
+    it is one word."""
+    words = name.split(" ")
+    if len(words) < 2:
+        return name
+    splits = [(" ".join(words[:k]), " ".join(words[k:])) for k in range(1, len(words))]
+    first, second = min(splits, key=lambda two: max(w.measure(part, size_pt).width_mm for part in two))
+    return first + "\n" + second
+
+
+def _lines_extent(w, text: str, size_pt: float) -> Extent:
+    """The extent of ``text``, on as many lines as it has newlines, as
+    they are set about its middle (:func:`kitgen.words.fit.line_offsets_mm`):
+    the widest line, and twice the farther reach of the lines' ink from
+    the middle, so that the box a label is placed by, centred there,
+    holds every line."""
+    lines = text.split("\n")
+    if len(lines) == 1:
+        return w.measure(text, size_pt)
+    ext = [w.measure(line, size_pt) for line in lines]
+    offsets = line_offsets_mm(len(lines), ext[0].height_mm)
+    reach = max(abs(off) + e.height_mm / 2 for off, e in zip(offsets, ext))
+    return Extent(max(e.width_mm for e in ext), 2 * reach, 0.0)
 
 
 def _slide_range(eps, s, R, center):
