@@ -173,7 +173,7 @@ NAME_GAP_ALONG_MM = 2.0
     "latitude: 45\nsheet: a5\nlanguage: ar\n", "latitude: 12\ndiameter_mm: 150\nlanguage: hi\n",
     "latitude: 52\nsheet: a5\nlanguage: de\n",   # "Alioth" had stood beside Dubhe's dot
     "latitude: 51.5\nsheet: a5\n",                # "Elnath", led, had begun beside Bellatrix's dot
-    "latitude: 24.7\nsheet: a5\nlanguage: hi\n",   # Alioth's name had stood centred under Dubhe's dot
+    "latitude: -33.9\n",                           # Miaplacidus's led name had stood over Canopus's dot
     "latitude: -45\nsheet: letter\nlanguage: hi\n", "latitude: 35\nsheet: a4\nlanguage: de\n",
 ])
 def test_each_name_reads_as_its_own_stars(head):
@@ -201,7 +201,7 @@ def test_each_name_reads_as_its_own_stars(head):
                 if other != name and dot_to_box_mm(dot.geom["at"], dot.values["radius_mm"], box) \
                         < LEADER_NAME_FROM_OTHER_DOTS_MM:
                     bad.append((name, "leader's name beside", other))
-                if other != name and _level_beside(dot, box, offset):
+                if other != name and _reads_as_its(dot, box, offset):
                     bad.append((name, "leader's name level beside", other))
             continue
         gap = dot_to_box_mm(own.geom["at"], own.values["radius_mm"], box)
@@ -218,20 +218,20 @@ def test_each_name_reads_as_its_own_stars(head):
             # nor does another dot stand beside an end of the name, level
             # with its words, where a reader looks for a point's name first
             # (common practice in map labelling; "Alioth" beside Dubhe's dot)
-            if other != name and _level_beside(dot, box, offset):
+            if other != name and _reads_as_its(dot, box, offset):
                 bad.append((name, "beside", other))
     assert not bad, bad
 
 
-def _level_beside(dot, box, offset_mm: float) -> bool:
+def _reads_as_its(dot, box, offset_mm: float) -> bool:
     """Whether the dot stands where a reader looks for a name's point, and
     so takes the name for that dot's, whether a leader runs to it from
     elsewhere or not: level with the name's words (its disc reaching into
     their height) within BESIDE_OFFSETS beyond one end (#12: "Elnath",
     led from its own dot, began beside Bellatrix's on a northern A5
     rete), or over or under the middle half of the words within
-    OVER_OFFSETS (#12: on a Hindi A5 rete Alioth's name stood centred
-    under Dubhe's dot)."""
+    OVER_OFFSETS (#12: at 33.9 S on A4 Miaplacidus's name, at the end of
+    its leader, stood 1.3 mm over Canopus's dot)."""
     (x, y), r = dot.geom["at"], dot.values["radius_mm"]
     xs, ys = [c[0] for c in box], [c[1] for c in box]
     if min(ys) - r <= y <= max(ys) + r:
@@ -301,6 +301,18 @@ def test_a_long_name_on_two_lines_is_its_words_in_order(kit):
             assert len(got) == 2 and " ".join(e.geom["text"] for e in got) == got[0].values["full_text"]
             assert got[0].geom["at"][0] == got[1].geom["at"][0] and got[0].geom["at"][1] > got[1].geom["at"][1]
             assert got[0].geom["anchor"] == got[1].geom["anchor"]
+
+
+def test_a_long_name_without_room_on_one_line_is_named_on_two():
+    """Near the equator on A5 the rim leaves Kaus Australis no room for
+    its name on one line; it is named on two, "Kaus" over "Australis"
+    (#12: it had gone unnamed; breaking a long name over two lines is
+    common practice on maps)."""
+    kit = build_kit(parse_recipe_text("epoch: 2027\nlatitude: 0.3\nsheet: a5\nparts: [rete]\n"))
+    lines = [e for e in kit.part("rete").elements
+             if e.role == "star_label" and e.values["name"] == "Kaus Australis"]
+    assert [e.geom["text"] for e in lines] == ["Kaus", "Australis"]
+    test_a_long_name_on_two_lines_is_its_words_in_order(kit)
 
 
 def test_names_keep_a_millimetre_apart(kit):

@@ -534,12 +534,12 @@ def _nearest_own(box, k: int, points, radii_mm, dots, dot_mm: float, beside_mm: 
             continue
         if own + NEARER_BY_MM >= _box_gap_mm(box, points[j], radii_mm[j]):
             return False
-        if _level_beside(box, points[j], radii_mm[j], beside_mm, over_mm):
+        if _reads_as_its(box, points[j], radii_mm[j], beside_mm, over_mm):
             return False
     return True
 
 
-def _level_beside(box, point, radius_mm: float, beside_mm: float, over_mm: float = 0.0) -> bool:
+def _reads_as_its(box, point, radius_mm: float, beside_mm: float, over_mm: float = 0.0) -> bool:
     """Whether a dot of ``radius_mm`` at ``point`` stands where a reader
     looks for a point's name, so that the box's words read as that dot's
     name, leader or not (the usual places of a point's name in map
@@ -548,8 +548,9 @@ def _level_beside(box, point, radius_mm: float, beside_mm: float, over_mm: float
     the box's ends, within ``beside_mm`` (#12: "Elnath", led from its own
     dot, began beside Bellatrix's, whose disc stood 0.03 mm below the
     words' box), or under or over the middle half of the words within
-    ``over_mm`` (#12: on a Hindi A5 rete the name of Alioth stood
-    centred under Dubhe's dot, and Dubhe's over Alioth's)."""
+    ``over_mm`` (#12: on a southern A4 rete at 33.9 S the name of
+    Miaplacidus, at the end of its leader, stood 1.3 mm over Canopus's
+    dot)."""
     x, y = point
     if box[1] - radius_mm <= y <= box[3] + radius_mm:
         return max(box[0] - x, x - box[2]) - radius_mm < beside_mm
@@ -592,11 +593,11 @@ def _beside_another(box, k: int, points, radii_mm, near_mm: float, dots, dot_mm:
     """Whether the box stands within ``near_mm`` of a dot other than point
     ``k``'s, or has one level with its words within ``beside_mm`` beyond
     an end or within ``over_mm`` over or under their middle
-    (:func:`_level_beside`), where it would read as that dot's
+    (:func:`_reads_as_its`), where it would read as that dot's
     name, leader or not (of the points of the grid ``dots`` near it;
     ``dot_mm``: the widest dot's radius)."""
     return any(_box_gap_mm(box, points[j], radii_mm[j]) < near_mm
-               or _level_beside(box, points[j], radii_mm[j], beside_mm, over_mm)
+               or _reads_as_its(box, points[j], radii_mm[j], beside_mm, over_mm)
                for j in dots.near(box, max(near_mm, beside_mm, over_mm) + dot_mm + SEARCH_SLACK_MM) if j != k)
 
 

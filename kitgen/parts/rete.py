@@ -182,8 +182,7 @@ def rete(ctx: PartContext) -> model.Part:
                 els.append(model.text("star_label", at, text, d.small_text_pt, anchor=anchor,
                                       name=placed.star.label, **more))
             else:   # each line an element, as kitgen.parts.labels.fitted_text sets them
-                h = w.measure(lines[0], d.small_text_pt).height_mm
-                for line, off in zip(lines, line_offsets_mm(len(lines), h)):
+                for line, off in zip(lines, _line_offsets_mm(w, lines, d.small_text_pt)):
                     els.append(model.text("star_label", (at[0], at[1] + off), line, d.small_text_pt, anchor=anchor,
                                           name=placed.star.label, full_text=whole, **more))
             if leader is not None:
@@ -216,9 +215,15 @@ def _lines_extent(w, text: str, size_pt: float) -> Extent:
     if len(lines) == 1:
         return w.measure(text, size_pt)
     ext = [w.measure(line, size_pt) for line in lines]
-    offsets = line_offsets_mm(len(lines), ext[0].height_mm)
-    reach = max(abs(off) + e.height_mm / 2 for off, e in zip(offsets, ext))
+    reach = max(abs(off) + e.height_mm / 2 for off, e in zip(_line_offsets_mm(w, lines, size_pt), ext))
     return Extent(max(e.width_mm for e in ext), 2 * reach, 0.0)
+
+
+def _line_offsets_mm(w, lines, size_pt: float) -> list[float]:
+    """Offsets (mm, upwards) of the middles of a name's ``lines`` about
+    its middle, as :func:`kitgen.parts.labels.fitted_text` sets a label's
+    lines (by its first line's height)."""
+    return line_offsets_mm(len(lines), w.measure(lines[0], size_pt).height_mm)
 
 
 def _slide_range(eps, s, R, center):
