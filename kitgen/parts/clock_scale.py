@@ -41,6 +41,8 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass
 
+import numpy as np
+
 from ..errors import Message, Number
 from ..geometry import model
 from ..geometry.style import stroke_width_mm
@@ -147,10 +149,20 @@ def _numbers(w, numbers, r_text: float, size_pt: float, bars_deg=(), bar_half_mm
         width_mm = w.measure(signed(w, numbers[k][2]), size_pt).width_mm
         return math.radians(numbers[k][0]) * r_text >= width_mm + 2.0 * NUMBER_GAP_MM
 
-    def clear(at: float, half: float) -> bool:
-        return not (any(abs((at - bar + 180.0) % 360.0 - 180.0) < half + bar_deg for bar in bars_deg)
-                    or any(abs((at - other + 180.0) % 360.0 - 180.0) < half + other_half + apart_deg
-                           for other, other_half in placed))
+    bars = np.array(bars_deg, dtype=float)
+
+    def first_clear(tried, half: float):
+        """The first of the directions ``tried`` (deg, an array) where a
+        number ``half`` degrees wide keeps clear of the bars and the
+        numbers placed, or None (each tested as one at a time would be:
+        the same sums, #12)."""
+        ok = ~(np.abs((tried[:, None] - bars + 180.0) % 360.0 - 180.0) < half + bar_deg).any(axis=1)
+        if placed:
+            other, other_half = np.array(placed).T
+            ok &= ~(np.abs((tried[:, None] - other + 180.0) % 360.0 - 180.0) < (half + other_half) + apart_deg
+                    ).any(axis=1)
+        found = np.flatnonzero(ok)
+        return float(tried[found[0]]) if len(found) else None
 
     def put(k, slide: bool = False, packed: bool = False) -> bool:
         span, mid, minutes, month, day = numbers[k]
@@ -160,11 +172,11 @@ def _numbers(w, numbers, r_text: float, size_pt: float, bars_deg=(), bar_half_mm
         half = math.degrees(math.atan2(w.measure(text, size_pt).width_mm / 2.0, r_low))
         if packed:   # the first clear place from the run's earlier end, in its middle half
             steps = int(span / 2.0 / SLIDE_STEP_DEG)
-            tried = (mid + span / 4.0 - i * SLIDE_STEP_DEG for i in range(steps + 1))
+            tried = (mid + span / 4.0) - np.arange(steps + 1) * SLIDE_STEP_DEG
         else:   # centred on its run, else (``slide``) slid along it, its centre kept inside the run
             steps = int(span / 2.0 / SLIDE_STEP_DEG) if slide else 0
-            tried = (mid + sign * i * SLIDE_STEP_DEG for i in range(steps + 1) for sign in (1, -1))
-        at = next((a for a in tried if clear(a, half)), None)
+            tried = mid + (np.repeat(np.arange(steps + 1), 2) * np.tile([1, -1], steps + 1)) * SLIDE_STEP_DEG
+        at = first_clear(tried, half)
         if at is None:
             return False
         done.add(k)

@@ -154,15 +154,21 @@ def _segment_meets_box(p, q, box) -> bool:
 
 
 def _segment_meets_ring(p, q, ring) -> bool:
-    """Whether segment pq meets the annulus ``ring`` (sampled every
-    0.1 mm: far finer than any line it keeps apart)."""
+    """Whether segment pq meets the annulus ``ring`` ((centre, inner and
+    outer radius), mm): its distance from the centre runs without a break
+    from its least (at the foot of the perpendicular from the centre, or
+    an end) to its greatest (at an end), so it meets the annulus exactly
+    where the least is within the outer radius and the greatest reaches
+    the inner one (#12: worked, where it had been sampled every 0.1 mm)."""
     (cx, cy), r0, r1 = ring
-    n = max(2, int(((q[0] - p[0]) ** 2 + (q[1] - p[1]) ** 2) ** 0.5 / 0.1) + 1)
-    for k in range(n + 1):
-        x, y = p[0] + (q[0] - p[0]) * k / n, p[1] + (q[1] - p[1]) * k / n
-        if r0 <= ((x - cx) ** 2 + (y - cy) ** 2) ** 0.5 <= r1:
-            return True
-    return False
+    px, py, dx, dy = p[0] - cx, p[1] - cy, q[0] - p[0], q[1] - p[1]
+    qx, qy = px + dx, py + dy
+    if px * px + py * py < r0 * r0 and qx * qx + qy * qy < r0 * r0:
+        return False
+    length2 = dx * dx + dy * dy
+    t = 0.0 if length2 == 0.0 else min(1.0, max(0.0, -(px * dx + py * dy) / length2))
+    fx, fy = px + t * dx, py + t * dy
+    return fx * fx + fy * fy <= r1 * r1
 
 
 def leader_ends(point, box, start_mm: float, gap_mm: float = MARGIN_MM):
