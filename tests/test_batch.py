@@ -275,6 +275,23 @@ def test_a_folder_of_the_users_is_never_replaced(tmp_path, capsys):
     assert len(capsys.readouterr().err.strip().splitlines()) == 1
 
 
+@pytest.mark.parametrize("language", ["ru", "fr"])
+def test_a_folder_refused_is_said_in_the_sets_language(tmp_path, capsys, language):
+    """The refusal of a folder of the user's is said in the set's
+    language, as the set's summary and its kits' reasons are: the
+    template's own wording (a Russian set's coordinator had it in
+    English)."""
+    (tmp_path / "one.yaml").write_text(yaml.safe_dump({"defaults": {**DEFAULTS, "language": language},
+                                                       "kits": [{"owner": "Ivo"}]}))
+    mine = tmp_path / "mine"
+    mine.mkdir()
+    (mine / "notes.txt").write_text("keep me")
+    assert main(["batch", str(tmp_path / "one.yaml"), "-o", str(mine), "--quiet"]) == 2
+    (line,) = capsys.readouterr().err.strip().splitlines()
+    wording = _template(language)["errors"]["batch_folder_foreign"].split("{path}")[1].split(";")[0]
+    assert wording.strip(" :") and wording.strip(" :") in line
+
+
 def test_a_set_whose_every_kit_is_refused_says_so_kit_by_kit(tmp_path, capsys):
     """Every kit refused (here its copies): each kit's line and the
     summary, exit status 2, the manifest's rows saying why; never an

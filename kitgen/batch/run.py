@@ -30,7 +30,7 @@ from dataclasses import dataclass, replace
 from pathlib import Path
 
 from ..collect import collect_rarely, rare_collections
-from ..errors import EXIT_INTERNAL, EXIT_OK, EXIT_USER, Message, one_line
+from ..errors import EXIT_INTERNAL, EXIT_OK, EXIT_USER, Message, one_line, speaking
 from ..kit import school_of
 from ..words.templates import available_languages, load_words
 from .folder import KITS, MANIFEST, BackgroundWrites, check_output_folder, fresh_folder, target_folder
@@ -97,6 +97,9 @@ def run_set(set_path, out_dir, jobs: int | None = None, quiet: bool = False, str
     with ExitStack() as stack:
         stack.enter_context(rare_collections())   # the whole run, main process and workers
         kit_set = load_set(set_path)
+        # a fault of the whole run from here on (the folder, the disk) is
+        # said in the set's language, as its summary is
+        stack.enter_context(speaking(_spoken(kit_set)))
         check_output_folder(out_dir, [set_path, *kit_set.inputs])
         buildable = [k for k in kit_set.kits if k.error is None]
         warm()   # the languages: as each kit first needs one, in whichever process builds it
@@ -107,7 +110,7 @@ def run_set(set_path, out_dir, jobs: int | None = None, quiet: bool = False, str
 def _run(kit_set, out_dir: Path, pools: list, quiet: bool, stream, started: float, debug: bool = False) -> Summary:
     """:func:`run_set` once the set is read: its kits built with the
     workers ``pools`` (none: in this process) into ``out_dir``."""
-    speak = kit_set.language if kit_set.language in available_languages() else None
+    speak = _spoken(kit_set)
     words = load_words(speak) if speak else None
     names = kit_file_names(kit_set.kits)
     errors = {k.number: one_line(k.error.text(words)) for k in kit_set.kits if k.error is not None}
@@ -154,6 +157,12 @@ def _run(kit_set, out_dir: Path, pools: list, quiet: bool, stream, started: floa
     failures = tuple(sorted(errors.items()))
     return Summary(out_dir, len(kit_set.kits), len(results), failures, internal, jobs,
                    time.monotonic() - started, peak, speak, tuple(sorted(traces)))
+
+
+def _spoken(kit_set) -> str | None:
+    """The language the run speaks in: the set's, where it is a shipped
+    template's, else None (English)."""
+    return kit_set.language if kit_set.language in available_languages() else None
 
 
 def _print_ready(printing, stamps, waiting: dict, next_number: int, by_number: dict, last: bool = False) -> int:
