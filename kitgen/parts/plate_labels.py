@@ -53,6 +53,9 @@ LABEL_GAP_MM = CLEAR_MM
 #: How much farther (mm) a label goes for the full clearance rather than
 #: stand MARGIN_MM beside a line.
 PREFER_CLEAR_MM = 3.0
+#: Centres whose places round them are screened at once
+#: (:meth:`PlateLabeller._may_be_free`).
+MAY_BE_FREE_CENTRES = 4
 #: A cardinal letter farther than this (mm) from its horizon point gets a
 #: leader to it (#9: at low latitudes the north point is at the pin).
 NEAR_MM = 2.5
@@ -741,12 +744,40 @@ class PlateLabeller:
             for el in els:
                 if el.geom.get("radius", math.inf) > 4 * self.d.tick_mm + 5.0:
                     continue
-                for c in points_along(el, midpoint(el), step_mm=0.5, reach_mm=1e4):
+                centres = points_along(el, midpoint(el), step_mm=0.5, reach_mm=1e4)
+                for c, can in zip(centres, self._may_be_free(centres, STEP_MM, 2.5, text, size, lines)):
+                    if not can:   # every place round it surely meets a line: first_free finds none
+                        continue
                     b = self.first_free([(x, y, 0.0) for x, y in around(c, STEP_MM, 2.5)], text, size, lines)
                     if b is not None:
                         return [self.put("almucantar_label", b, text, size, altitude_deg=float(alt))]
         self.left_out(text, altitude_deg=float(alt))
         return []
+
+    def _may_be_free(self, centres, step_mm: float, reach_mm: float, text, size_pt, protected):
+        """For each centre (x, y, ...) in turn, whether any of the places
+        round it (:func:`around`) may be free as :meth:`first_free` asks
+        (inside the drawing, :data:`MARGIN_MM` from the lines ``protected``
+        and from the reference lines): False where every one surely is
+        not, found for a few centres' places at once, as arrays
+        (:class:`Screen`); a centre's places are then not tried one by
+        one, which would find none (#12: the 80 degree circle of a
+        crowded A5 plate, tried all round, had cost a tenth of a second)."""
+        ext = self.w.measure(text, size_pt)
+        dx, dy = _around_offsets(step_mm, reach_mm, (0.0, 0.0))
+        for at in range(0, len(centres), MAY_BE_FREE_CENTRES):
+            some = centres[at:at + MAY_BE_FREE_CENTRES]
+            cx = np.array([c[0] for c in some], dtype=float)
+            cy = np.array([c[1] for c in some], dtype=float)
+            places = Places.of_arrays((cx[:, None] + dx).ravel(), (cy[:, None] + dy).ravel(),
+                                      ext.width_mm / 2, ext.height_mm / 2)
+            may = places.inside(self.room)
+            for lines in (protected, self.reference):
+                idx = np.flatnonzero(may)
+                screen = Screen(self.room, places, idx, lines, MARGIN_MM)
+                may = np.zeros(len(places), dtype=bool)
+                may[idx[screen.maybe_clear()]] = True
+            yield from may.reshape(len(some), len(dx)).any(axis=1).tolist()
 
     def _numbered(self, alt: float) -> bool:
         """Whether the almucantar ``alt`` is one the plate numbers."""
