@@ -4,9 +4,12 @@ points whose every place surely meets a line, found many places at once
 (kitgen.parts.plate_labels.PlateLabeller._may_be_free, #12).  Checked
 against the one-by-one search it stands in for (first_free, whose tests
 test_screen_against_shapely checks against GEOS): wherever a point is
-skipped, the one-by-one search finds no place there either.  The kits are
-crowded A5 plates, where the search reaches that far (the case it was
-made for: the 80 degree circle at 45 N)."""
+skipped, the one-by-one search finds no place there either; and where
+the search with the named lines alone is found to find nothing
+(``_may_find``), the one-by-one search with them finds nothing, so that
+the searches with more lines, which it stands in for, find nothing too.
+The kits are crowded A5 plates, where the search reaches that far (the
+case it was made for: the 80 degree circle at 45 N)."""
 
 from __future__ import annotations
 
@@ -14,7 +17,7 @@ import pytest
 
 from kitgen import kit
 from kitgen.errors import speaking
-from kitgen.parts.plate_labels import PlateLabeller, around
+from kitgen.parts.plate_labels import STEP_MM, PlateLabeller, around, midpoint, points_along
 from kitgen.recipe.load import validate_recipe
 
 
@@ -35,9 +38,25 @@ def test_a_point_skipped_has_no_free_place(monkeypatch, latitude, language):
                 seen["kept"] += 1
         yield from verdicts
 
+    may_find = PlateLabeller._may_find
+
+    def checked_find(self, els, small, text, size_pt, lines):
+        found = may_find(self, els, small, text, size_pt, lines)
+        if not found:   # then the one-by-one search finds no place with these lines, nor with more
+            seen["levels skipped"] = seen.get("levels skipped", 0) + 1
+            for el in els:
+                assert self.first_free(points_along(el, midpoint(el), reach_mm=1e4), text, size_pt, lines) is None
+            for el in small:
+                for c in points_along(el, midpoint(el), step_mm=0.5, reach_mm=1e4):
+                    places = [(x, y, 0.0) for x, y in around(c, STEP_MM, 2.5)]
+                    assert self.first_free(places, text, size_pt, lines) is None, (text, c)
+        return found
+
     monkeypatch.setattr(PlateLabeller, "_may_be_free", checked)
+    monkeypatch.setattr(PlateLabeller, "_may_find", checked_find)
     monkeypatch.setattr(kit, "_NAMELESS", {})   # drawn afresh, not taken from an earlier test's kits
     recipe = validate_recipe({"latitude": latitude, "language": language, "sheet": "a5", "epoch": 2027})
     with speaking(language, None):
         kit.build_kit(recipe)
     assert seen["skipped"] > 0   # the search reached the small circle, and points were skipped
+    assert seen.get("levels skipped", 0) > 0   # and searches were left out as finding nothing

@@ -735,15 +735,21 @@ class PlateLabeller:
         # Last, a number that crosses named lines too (they are broken round
         # it) rather than a circle left off the plate: a reading needs the
         # circle more than the lines need their gap (#9).
-        for lines in (protected, grid, named, ()):
+        small = [el for el in els if el.geom.get("radius", math.inf) <= 4 * self.d.tick_mm + 5.0]
+        # Each list of lines holds the next one's, so a search finds a
+        # place only where the one of the named lines alone may: where
+        # that one surely finds none, the searches before the last are
+        # not made, as none of them would find a place (#12).
+        levels = (protected, grid, named, ())
+        if not self._may_find(els, small, text, size, named):
+            levels = ((),)
+        for lines in levels:
             # anywhere along the circle where it is clear, then beside a small one
             for el in els:
                 b = self.first_free(points_along(el, midpoint(el), reach_mm=1e4), text, size, lines)
                 if b is not None:
                     return [self.put("almucantar_label", b, text, size, altitude_deg=float(alt))]
-            for el in els:
-                if el.geom.get("radius", math.inf) > 4 * self.d.tick_mm + 5.0:
-                    continue
+            for el in small:
                 centres = points_along(el, midpoint(el), step_mm=0.5, reach_mm=1e4)
                 for c, can in zip(centres, self._may_be_free(centres, STEP_MM, 2.5, text, size, lines)):
                     if not can:   # every place round it surely meets a line: first_free finds none
@@ -753,6 +759,16 @@ class PlateLabeller:
                         return [self.put("almucantar_label", b, text, size, altitude_deg=float(alt))]
         self.left_out(text, altitude_deg=float(alt))
         return []
+
+    def _may_find(self, els, small, text, size_pt, lines) -> bool:
+        """Whether :meth:`almucantar`'s last search with ``lines`` may find
+        a place: along a piece of the circle (``els``), or round a point
+        of a small one (``small``) where some place is not surely met."""
+        if any(self.first_free(points_along(el, midpoint(el), reach_mm=1e4), text, size_pt, lines) is not None
+               for el in els):
+            return True
+        return any(any(self._may_be_free(points_along(el, midpoint(el), step_mm=0.5, reach_mm=1e4), STEP_MM, 2.5,
+                                         text, size_pt, lines)) for el in small)
 
     def _may_be_free(self, centres, step_mm: float, reach_mm: float, text, size_pt, protected):
         """For each centre (x, y, ...) in turn, whether any of the places
