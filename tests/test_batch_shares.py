@@ -10,7 +10,7 @@ from __future__ import annotations
 import pickle
 
 from kitgen import kit as kit_module
-from kitgen.batch.shares import PLATE_COST_KITS, SCHOOL_COST_KITS, plate_moves, worker_shares
+from kitgen.batch.shares import plate_cost, plate_moves, school_cost, worker_shares
 from kitgen.batch.work import KitJob
 from kitgen.recipe.load import validate_recipe
 from kitgen.render.json_export import render_json
@@ -68,14 +68,15 @@ def test_loads_within_graham_bound():
     # the best is at least the mean load.
     jobs = school_jobs([(51.5, 9), (45.8, 5), (-23.5, 4), (38.0, 3), (12.0, 2), (60.0, 1)])
     shares = worker_shares(jobs, 3)
-    loads = [len(s) + SCHOOL_COST_KITS * len({_school(j) for j in s}) for s in shares]
-    mean = (len(jobs) + SCHOOL_COST_KITS * 6) / 3
-    assert max(loads) <= 4 / 3 * max(mean, 9 + SCHOOL_COST_KITS) + 1e-9
+    loads = _loads(shares, [])
+    costs = {j.recipe.latitude_deg: school_cost(j.recipe) for j in jobs}
+    mean = (len(jobs) + sum(costs.values())) / 3
+    assert max(loads) <= 4 / 3 * max(mean, 9 + costs[51.5]) + 1e-9
 
 
 def test_a_school_stays_whole_where_splitting_costs_more():
     # 24 kits on 3 workers: a share is 8, but cutting the school of 9 in two
-    # would make one worker draw three schools' parts (SCHOOL_COST_KITS each)
+    # would make one worker draw three schools' parts (school_cost each)
     jobs = school_jobs([(51.5, 9), (45.8, 5), (-23.5, 4), (38.0, 3), (12.0, 2), (60.0, 1)])
     shares = worker_shares(jobs, 3)
     assert sum(any(_school(j) == 51.5 for j in s) for s in shares) == 1
@@ -83,10 +84,13 @@ def test_a_school_stays_whole_where_splitting_costs_more():
 
 
 def _loads(shares, moves):
-    loads = [len(s) + SCHOOL_COST_KITS * len({_school(j) for j in s}) for s in shares]
-    for busy, idle, _ in moves:
-        loads[busy] -= PLATE_COST_KITS
-        loads[idle] += PLATE_COST_KITS
+    """Each worker's work: its kits and its schools' parts, the plates
+    moved counted where they are drawn."""
+    loads = [len(s) + sum(school_cost(school) for school in {kit_module.school_of(j.recipe) for j in s})
+             for s in shares]
+    for busy, idle, school in moves:
+        loads[busy] -= plate_cost(school)
+        loads[idle] += plate_cost(school)
     return loads
 
 
@@ -98,7 +102,7 @@ def test_plates_of_an_odd_school_out_are_drawn_by_the_other_worker():
     moves = plate_moves(shares)
     assert moves
     before, after = _loads(shares, []), _loads(shares, moves)
-    assert max(after) < max(before) and max(after) - min(after) <= PLATE_COST_KITS
+    assert max(after) < max(before) and max(after) - min(after) <= max(plate_cost(m[2]) for m in moves)
     for busy, idle, school in moves:
         assert busy != idle and any(_school(j) == school.latitude_deg for j in shares[busy])
         assert school.latitude_deg != _school(shares[busy][0])   # each worker draws its first school itself
@@ -121,3 +125,20 @@ def test_plates_drawn_elsewhere_give_the_same_kit():
     assert render_json(given) == alone
     assert list(drawn) == ["plate-1"]
     assert next(iter(kit_module._NAMELESS.values())).kit.part("plate-1") is drawn["plate-1"]
+
+
+def test_schools_that_cost_more_go_to_different_workers():
+    # two schools of crowded A5 plates at 70 N and two of A4 plates at
+    # 45 N, ten pupils each: dealt by their first kits' cost (the table of
+    # kitgen.batch.shares, measured), each worker gets one of each, where
+    # schools taken to cost the same had gone two and two by size
+    jobs, n = [], 0
+    for lat, sheet in ((69.6, "a5"), (45.5, "a4"), (70.1, "a5"), (44.8, "a4")):
+        for _ in range(10):
+            n += 1
+            jobs.append(KitJob(n, validate_recipe({"latitude": lat, "sheet": sheet, "owner": f"Pupil {n}"})))
+    shares = worker_shares(jobs, 2)
+    assert sorted(sorted({j.recipe.sheet for j in s}) for s in shares) == [["a4", "a5"], ["a4", "a5"]]
+    heavy, light = (school_cost(jobs[0].recipe), school_cost(jobs[10].recipe))
+    assert heavy > 1.5 * light   # the small sheet's crowded plate: about 1.8 times the A4 kit at 45 N, measured
+

@@ -22,7 +22,7 @@ from concurrent.futures import FIRST_COMPLETED, wait
 from dataclasses import dataclass, replace
 from itertools import groupby
 
-from .shares import PLATE_COST_KITS, job_school, piece_load, plate_moves, worker_shares
+from .shares import job_school, piece_load, plate_cost, plate_moves, worker_shares
 from .work import build_one, draw_for
 
 
@@ -147,8 +147,8 @@ class _Dispatch:
         return None
 
 
-def _load(task) -> int:
+def _load(task) -> float:
     """A task's work, in a later pupil's kits (kitgen.batch.shares)."""
     if isinstance(task, _Draw):
-        return PLATE_COST_KITS
-    return piece_load(len(task.jobs), task.moved is not None)
+        return plate_cost(task.moved[1])
+    return piece_load(task.jobs, task.moved is not None)

@@ -13,20 +13,78 @@ runs out of work.  Which worker builds a kit never changes its bytes.
 from __future__ import annotations
 
 from ..kit import school_of
+from ..paper import SHEET_SIZES_MM
 
 
-#: What drawing a school's shared parts costs a worker, in its pupils'
-#: kits' time: a school's first kit took about 60 times a later pupil's
-#: (0.37 to 0.5 s against 6 to 11 ms of CPU in Latin and Greek scripts,
-#: 0.8 to 1 s in Arabic and Hindi; eight schools of ten languages).
-SCHOOL_COST_KITS = 60
+#: A later pupil's kit (ms of CPU in a warm worker: the name laid over the
+#: school's shared PDF; measured 4 December 2026).
+PUPIL_MS = 5.0
+#: A school's first kit (ms of CPU, in a warm worker whose language is
+#: already loaded), by latitude from 75 S to 75 N every 5 degrees: the
+#: whole kit, then its plate alone; on an A4 or Letter sheet, and on a
+#: small sheet (A5).  Measured on 4 December 2026 (kitgen's own kits in
+#: English and French, the least of two builds each; only their ratios
+#: matter here): the crowded plates of high latitudes and small sheets
+#: and the crowded southern retes of low latitudes cost up to twice the
+#: least, and a plan that took every school as costing the same left
+#: one worker up to a tenth of a second idle at the end of a set of five.
+FIRST_KIT_MS = (274, 258, 226, 200, 174, 167, 178, 194, 209, 224, 247, 316, 331, 317, 322, 215,
+                228, 205, 232, 229, 215, 216, 201, 188, 176, 180, 188, 227, 251, 300, 300)
+PLATE_MS = (185, 162, 124, 102, 78, 70, 68, 84, 96, 110, 109, 121, 121, 102, 113, 108,
+            121, 103, 123, 129, 113, 106, 92, 84, 74, 72, 81, 106, 126, 193, 193)
+SMALL_FIRST_KIT_MS = (360, 329, 357, 326, 255, 251, 277, 375, 303, 282, 290, 307, 313, 277, 292, 255,
+                      272, 252, 274, 264, 246, 244, 245, 317, 271, 257, 265, 349, 366, 355, 384)
+SMALL_PLATE_MS = (212, 206, 217, 178, 126, 116, 131, 198, 97, 100, 102, 125, 132, 103, 118, 110,
+                  127, 114, 134, 127, 102, 102, 102, 188, 130, 124, 129, 204, 218, 231, 238)
+#: A sheet whose shorter side is under this (mm) draws the smaller kit.
+SMALL_SHEET_MM = 180.0
+#: What a school's first kit costs more where its worker first reads its
+#: language (ms; measured: 40 to 90 in Latin, Greek and Cyrillic script,
+#: about 150 where the words are shaped, in Arabic and Devanagari).
+LANGUAGE_MS = 50.0
+SHAPED_LANGUAGE_MS = 150.0
+SHAPED_LANGUAGES = ("ar", "hi")
+
+
+def school_cost(recipe) -> float:
+    """What drawing the shared parts of ``recipe``'s school costs, in a
+    later pupil's kits: its first kit by latitude and sheet
+    (:data:`FIRST_KIT_MS`), with its language read (:func:`language_cost`)."""
+    first = _by_latitude(SMALL_FIRST_KIT_MS if _small(recipe) else FIRST_KIT_MS, recipe.latitude_deg)
+    return first / PUPIL_MS + language_cost(recipe)
+
+
+def language_cost(recipe) -> float:
+    """What reading ``recipe``'s language costs a worker that has not yet
+    (:data:`LANGUAGE_MS`), in a later pupil's kits."""
+    return (SHAPED_LANGUAGE_MS if recipe.language in SHAPED_LANGUAGES else LANGUAGE_MS) / PUPIL_MS
+
+
+def plate_cost(recipe) -> float:
+    """What drawing ``recipe``'s school's plates costs, in a later pupil's
+    kits (:data:`PLATE_MS`), for each plate it prints."""
+    plates = max(1, len(recipe.plates))
+    return plates * _by_latitude(SMALL_PLATE_MS if _small(recipe) else PLATE_MS, recipe.latitude_deg) / PUPIL_MS
+
+
+def _small(recipe) -> bool:
+    sheet = SHEET_SIZES_MM.get(recipe.sheet, (0.0, 0.0)) if isinstance(recipe.sheet, str) else recipe.sheet
+    return 0.0 < min(sheet) < SMALL_SHEET_MM
+
+
+def _by_latitude(table, latitude_deg: float) -> float:
+    """``table``'s value at the latitude, linear between its entries every
+    5 degrees from 75 S to 75 N, its end's beyond them."""
+    at = (min(max(latitude_deg, -75.0), 75.0) + 75.0) / 5.0
+    k = min(int(at), len(table) - 2)
+    return table[k] + (table[k + 1] - table[k]) * (at - k)
 
 
 def worker_shares(jobs_list, jobs: int) -> list[list]:
     """The jobs dealt to ``jobs`` workers.  Kits whose recipes are equal
     but for the owner (a school's pupils) share their parts
     (kitgen.kit.build_from_plan), so they stay with one worker, which
-    draws those parts once (:data:`SCHOOL_COST_KITS`).  A school with
+    draws those parts once (:func:`school_cost`).  A school with
     more kits than a worker's share may be split evenly into as many
     pieces as make the busiest worker's load least, each piece paying
     the school's cost again.  The pieces go largest first to the least
@@ -45,38 +103,43 @@ def worker_shares(jobs_list, jobs: int) -> list[list]:
     return [_school_order(share_) for share_ in _deal(groups, counts, jobs)[0] if share_]
 
 
-#: What drawing a school's plates costs, in its pupils' kits' time (part of
-#: :data:`SCHOOL_COST_KITS`; measured as it, 0.15 to 0.3 s).
-PLATE_COST_KITS = 25
-
-
 def plate_moves(shares: list[list]) -> list[tuple[int, int, object]]:
     """Which schools' plates another worker draws: (the school's worker,
     the drawing worker, the school) for each.  While the busiest worker's
-    load (its kits, and :data:`SCHOOL_COST_KITS` a school) less a school's
-    plates (:data:`PLATE_COST_KITS`) would still exceed the least busy
-    one's with them, the busiest worker's last school not yet moved has
-    its plates drawn by the least busy one, so that a set of few schools
-    (three, five) is shared more evenly than whole schools allow.  Each
-    worker keeps its first school's plates, drawn while the other draws
-    its plates for it.  Which worker draws a part never changes its bytes."""
+    load (its kits, and each school's :func:`school_cost`) less its last
+    school's plates not yet moved (:func:`plate_cost`) would still exceed
+    the least busy one's with them (and the school's language, where that
+    one reads it only for them: :func:`language_cost`), that school has
+    its plates drawn by the least busy one, so that a set of few schools (three, five) is
+    shared more evenly than whole schools allow.  Each worker keeps its
+    first school's plates, drawn while the other draws its plates for
+    it.  Which worker draws a part never changes its bytes."""
     schools = [list(dict.fromkeys(job_school(job) for job in share)) for share in shares]
-    loads = [len(share) + SCHOOL_COST_KITS * len(own) for share, own in zip(shares, schools)]
+    loads = [len(share) + sum(school_cost(school) for school in own) for share, own in zip(shares, schools)]
+    languages = [{school.language for school in own} for own in schools]
     moved: list[tuple[int, int, object]] = []
     while True:
         busy, idle = loads.index(max(loads)), loads.index(min(loads))
-        if len(schools[busy]) < 2 or loads[idle] + PLATE_COST_KITS >= loads[busy]:
+        if len(schools[busy]) < 2:
+            return moved
+        school = schools[busy][-1]
+        plates = plate_cost(school)
+        # the drawing worker reads the school's language too, if it has not
+        read = 0.0 if school.language in languages[idle] else language_cost(school)
+        if loads[idle] + plates + read >= loads[busy]:
             return moved
         moved.append((busy, idle, schools[busy].pop()))   # its first school stays at index 0
-        loads[busy] -= PLATE_COST_KITS
-        loads[idle] += PLATE_COST_KITS
+        loads[busy] -= plates
+        loads[idle] += plates + read
+        languages[idle].add(school.language)
 
 
-def piece_load(kits: int, plates_elsewhere: bool = False) -> int:
-    """The work of one school's ``kits`` on one worker, in a later
-    pupil's kits: the kits and the school's parts (:data:`SCHOOL_COST_KITS`),
-    less its plates where another worker draws them."""
-    return kits + SCHOOL_COST_KITS - (PLATE_COST_KITS if plates_elsewhere else 0)
+def piece_load(jobs: list, plates_elsewhere: bool = False) -> float:
+    """The work of one school's ``jobs`` on one worker, in a later
+    pupil's kits: the kits and the school's parts (:func:`school_cost`),
+    less its plates where another worker draws them (:func:`plate_cost`)."""
+    school = job_school(jobs[0])
+    return len(jobs) + school_cost(school) - (plate_cost(school) if plates_elsewhere else 0.0)
 
 
 def job_school(job):
@@ -98,7 +161,8 @@ def _school_order(share: list) -> list:
 
 def _deal(groups: dict, counts: dict, jobs: int):
     """Each group cut into ``counts[key]`` even pieces, dealt by the
-    longest-processing-time rule: the workers' jobs and loads (in kits)."""
+    longest-processing-time rule, the most work first (:func:`piece_load`):
+    the workers' jobs and loads (in a later pupil's kits)."""
     pieces = []
     for key, group in groups.items():
         q, r = divmod(len(group), counts[key])
@@ -108,8 +172,8 @@ def _deal(groups: dict, counts: dict, jobs: int):
             start += q + (i < r)
     loads = [0] * jobs
     out: list[list] = [[] for _ in range(jobs)]
-    for piece in sorted(pieces, key=len, reverse=True):
+    for piece in sorted(pieces, key=piece_load, reverse=True):
         k = loads.index(min(loads))
-        loads[k] += piece_load(len(piece))
+        loads[k] += piece_load(piece)
         out[k] += piece
     return out, loads
