@@ -17,7 +17,8 @@ import pytest
 
 from kitgen import kit
 from kitgen.errors import speaking
-from kitgen.parts.plate_labels import STEP_MM, PlateLabeller, around, midpoint, points_along
+from kitgen.parts.plate_labels import (ROUND_REACH_MM, ROUND_STEP_MM, STEP_MM, PlateLabeller, around, midpoint,
+                                      points_along)
 from kitgen.recipe.load import validate_recipe
 
 
@@ -26,13 +27,13 @@ def test_a_point_skipped_has_no_free_place(monkeypatch, latitude, language):
     seen = {"skipped": 0, "kept": 0}
     screened = PlateLabeller._may_be_free
 
-    def checked(self, centres, step_mm, reach_mm, text, size_pt, protected):
-        verdicts = list(screened(self, centres, step_mm, reach_mm, text, size_pt, protected))
+    def checked(self, centres, text, size_pt, protected):
+        verdicts = list(screened(self, centres, text, size_pt, protected))
         assert len(verdicts) == len(centres)
         for c, may in zip(centres, verdicts):
             if not may:
                 seen["skipped"] += 1
-                places = [(x, y, 0.0) for x, y in around(c, step_mm, reach_mm)]
+                places = [(x, y, 0.0) for x, y in around(c, STEP_MM, ROUND_REACH_MM)]
                 assert self.first_free(places, text, size_pt, protected) is None, (text, c)
             else:
                 seen["kept"] += 1
@@ -47,8 +48,8 @@ def test_a_point_skipped_has_no_free_place(monkeypatch, latitude, language):
             for el in els:
                 assert self.first_free(points_along(el, midpoint(el), reach_mm=1e4), text, size_pt, lines) is None
             for el in small:
-                for c in points_along(el, midpoint(el), step_mm=0.5, reach_mm=1e4):
-                    places = [(x, y, 0.0) for x, y in around(c, STEP_MM, 2.5)]
+                for c in points_along(el, midpoint(el), step_mm=ROUND_STEP_MM, reach_mm=1e4):
+                    places = [(x, y, 0.0) for x, y in around(c, STEP_MM, ROUND_REACH_MM)]
                     assert self.first_free(places, text, size_pt, lines) is None, (text, c)
         return found
 

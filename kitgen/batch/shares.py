@@ -121,10 +121,10 @@ def plate_moves(shares: list[list]) -> list[tuple[int, int, object]]:
     school's plates not yet moved (:func:`plate_cost`) would still exceed
     the least busy one's with them (and the school's language, where that
     one reads it only for them: :func:`language_cost`), that school has
-    its plates drawn by the least busy one, so that a set of few schools (three, five) is
-    shared more evenly than whole schools allow.  Each worker keeps its
-    first school's plates, drawn while the other draws its plates for
-    it.  Which worker draws a part never changes its bytes."""
+    its plates drawn by the least busy one, so that a set of few schools
+    (three, five) is shared more evenly than whole schools allow.  Each
+    worker keeps its first school's plates, drawn while the other draws
+    its plates for it.  Which worker draws a part never changes its bytes."""
     schools = [list(dict.fromkeys(job_school(job) for job in share)) for share in shares]
     loads = [len(share) + sum(school_cost(school) for school in own) for share, own in zip(shares, schools)]
     languages = [{school.language for school in own} for own in schools]
@@ -181,10 +181,10 @@ def _deal(groups: dict, counts: dict, jobs: int):
         for i in range(counts[key]):
             pieces.append(group[start:start + q + (i < r)])
             start += q + (i < r)
-    loads = [0] * jobs
+    loads = [0.0] * jobs
     out: list[list] = [[] for _ in range(jobs)]
-    for piece in sorted(pieces, key=piece_load, reverse=True):
+    for load, piece in sorted(((piece_load(piece), piece) for piece in pieces), key=lambda lp: -lp[0]):
         k = loads.index(min(loads))
-        loads[k] += piece_load(piece)
+        loads[k] += load
         out[k] += piece
     return out, loads

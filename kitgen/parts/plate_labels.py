@@ -56,6 +56,11 @@ PREFER_CLEAR_MM = 3.0
 #: Centres whose places round them are screened at once
 #: (:meth:`PlateLabeller._may_be_free`).
 MAY_BE_FREE_CENTRES = 4
+#: How far (mm) round each point of a small circle an almucantar's number
+#: is sought at last (:meth:`PlateLabeller.almucantar`), and how far apart
+#: those points are along it.
+ROUND_REACH_MM = 2.5
+ROUND_STEP_MM = 0.5
 #: A cardinal letter farther than this (mm) from its horizon point gets a
 #: leader to it (#9: at low latitudes the north point is at the pin).
 NEAR_MM = 2.5
@@ -520,6 +525,12 @@ def points_along(el, near, step_mm: float = STEP_MM, reach_mm: float = SLIDE_MM)
     return out
 
 
+def _round_centres(el):
+    """The points of a small circle (or arc) round which an almucantar's
+    number is sought at last, :data:`ROUND_STEP_MM` apart from its middle."""
+    return points_along(el, midpoint(el), step_mm=ROUND_STEP_MM, reach_mm=1e4)
+
+
 def around(point, step_mm: float, reach_mm: float, prefer=(0.0, 0.0)):
     """Points round ``point`` on a square grid ``step_mm`` apart, within
     ``reach_mm``, nearest first; at equal distance those towards the unit
@@ -750,11 +761,12 @@ class PlateLabeller:
                 if b is not None:
                     return [self.put("almucantar_label", b, text, size, altitude_deg=float(alt))]
             for el in small:
-                centres = points_along(el, midpoint(el), step_mm=0.5, reach_mm=1e4)
-                for c, can in zip(centres, self._may_be_free(centres, STEP_MM, 2.5, text, size, lines)):
+                centres = _round_centres(el)
+                for c, can in zip(centres, self._may_be_free(centres, text, size, lines)):
                     if not can:   # every place round it surely meets a line: first_free finds none
                         continue
-                    b = self.first_free([(x, y, 0.0) for x, y in around(c, STEP_MM, 2.5)], text, size, lines)
+                    b = self.first_free([(x, y, 0.0) for x, y in around(c, STEP_MM, ROUND_REACH_MM)], text, size,
+                                        lines)
                     if b is not None:
                         return [self.put("almucantar_label", b, text, size, altitude_deg=float(alt))]
         self.left_out(text, altitude_deg=float(alt))
@@ -767,20 +779,20 @@ class PlateLabeller:
         if any(self.first_free(points_along(el, midpoint(el), reach_mm=1e4), text, size_pt, lines) is not None
                for el in els):
             return True
-        return any(any(self._may_be_free(points_along(el, midpoint(el), step_mm=0.5, reach_mm=1e4), STEP_MM, 2.5,
-                                         text, size_pt, lines)) for el in small)
+        return any(any(self._may_be_free(_round_centres(el), text, size_pt, lines)) for el in small)
 
-    def _may_be_free(self, centres, step_mm: float, reach_mm: float, text, size_pt, protected):
+    def _may_be_free(self, centres, text, size_pt, protected):
         """For each centre (x, y, ...) in turn, whether any of the places
-        round it (:func:`around`) may be free as :meth:`first_free` asks
-        (inside the drawing, :data:`MARGIN_MM` from the lines ``protected``
-        and from the reference lines): False where every one surely is
+        round it (:func:`around`, out to :data:`ROUND_REACH_MM`) may be
+        free as :meth:`first_free` asks (inside the drawing,
+        :data:`MARGIN_MM` from the lines ``protected`` and from the
+        reference lines): False where every one surely is
         not, found for a few centres' places at once, as arrays
         (:class:`Screen`); a centre's places are then not tried one by
         one, which would find none (#12: the 80 degree circle of a
         crowded A5 plate, tried all round, had cost a tenth of a second)."""
         ext = self.w.measure(text, size_pt)
-        dx, dy = _around_offsets(step_mm, reach_mm, (0.0, 0.0))
+        dx, dy = _around_offsets(STEP_MM, ROUND_REACH_MM, (0.0, 0.0))
         for at in range(0, len(centres), MAY_BE_FREE_CENTRES):
             some = centres[at:at + MAY_BE_FREE_CENTRES]
             cx = np.array([c[0] for c in some], dtype=float)
