@@ -141,4 +141,3 @@ def test_schools_that_cost_more_go_to_different_workers():
     assert sorted(sorted({j.recipe.sheet for j in s}) for s in shares) == [["a4", "a5"], ["a4", "a5"]]
     heavy, light = (school_cost(jobs[0].recipe), school_cost(jobs[10].recipe))
     assert heavy > 1.5 * light   # the small sheet's crowded plate: about 1.8 times the A4 kit at 45 N, measured
-
