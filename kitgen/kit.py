@@ -15,7 +15,7 @@ from typing import TYPE_CHECKING
 from .errors import Message, UserError
 from .geometry.model import Part
 from .kept import keep_last, kept_for
-from .parts import PART_BUILDERS
+from .parts import PART_BUILDERS, breaks
 from .parts.clock_scale import clock_ring_notes
 from .parts.context import PartContext
 from .parts.dimensions import Dimensions, dimensions
@@ -171,6 +171,7 @@ def _nameless(plan: Plan, drawn: dict | None = None) -> _Nameless:
     kept = _NAMELESS.get(plan)
     if kept is not None:
         return kept
+    breaks.let_go()
     dims, scales = _sizes(plan)
     drawn = drawn or {}
     notes = list(scales[""].notes)

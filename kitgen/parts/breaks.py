@@ -465,9 +465,23 @@ _POLY_GRIDS: dict = {}
 #: and 35 tuples of points, one of eight plates 85 and 170, so these hold
 #: the largest kit whole and the last several small ones.  Kept by the
 #: thousand, they held every kit's polylines of a class set alive, a
-#: worker growing by 2 MB a kit of its own latitude (#12).
+#: worker growing by 2 MB a kit of its own latitude (#12).  A new kit
+#: lets them all go (:func:`let_go`).
 POLYLINES_KEPT = 128
 POINTS_KEPT = 512
+
+
+def let_go() -> None:
+    """Let every kept polyline grid and point tuple's bounds go
+    (:data:`POLYLINES_KEPT`), as a new kit is about to be drawn: they
+    serve one kit's label search and its owners' names, and another
+    kit's points are never the same tuples.  Left to fill up to the caps
+    over a class set's schools, they kept about 14 kits' polylines alive
+    in a worker, 20 MB of its peak; a name set again with them gone
+    costs about 0.5 ms more (#12)."""
+    _POLY_GRIDS.clear()
+    _BOUNDS.clear()
+    _LINE_BOUNDS.clear()
 
 
 def _polyline_near(g, box: Box):
