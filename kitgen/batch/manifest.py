@@ -8,7 +8,8 @@ from the system's own code page, common practice, so that a pupil's
 
 - ``kit``: the kit's number in the set, from 1;
 - ``owner``, ``title``, ``place``, ``latitude``, ``language``, ``sheet``: as
-  the merged recipe gives them (the latitude in degrees, north positive;
+  the merged recipe gives them (the latitude in degrees, north positive,
+  to :data:`LATITUDE_DECIMALS` decimals;
   the sheet as kitgen.batch.printfiles.sheet_key names it); for a kit
   that failed, as its row and the set's defaults give them, the recipe's
   own default where both leave one out (``a4``, ``en``);
@@ -62,7 +63,7 @@ def manifest_row(kit, file_name: str, result, spans: dict, error: str) -> dict:
     recipe, tree = kit.recipe, kit.tree
     if recipe is not None:
         owner, title, place = getattr(recipe, "owner", ""), recipe.title, recipe.place
-        latitude, language, sheet = repr(recipe.latitude_deg), recipe.language, sheet_key(recipe.sheet)
+        latitude, language, sheet = degrees_text(recipe.latitude_deg), recipe.language, sheet_key(recipe.sheet)
     else:   # the row as given; a key it leaves out, the recipe's default
         owner, title, place = (_text(tree.get(k)) for k in ("owner", "title", "place"))
         latitude, language, sheet = (_text(tree.get(k, _DEFAULTS.get(k))) for k in ("latitude", "language", "sheet"))
@@ -89,6 +90,20 @@ TEXT_COLUMNS = ("owner", "title", "place", "sheet", "status", "notes")
 #: A cell starting so is taken for a formula by spreadsheet programs
 #: (OWASP, "CSV Injection"): such a text cell gets a leading apostrophe.
 _FORMULA_START = ("=", "+", "-", "@", "\t", "\r")
+
+
+#: A latitude's decimals in the manifest: a tenth of a metre on the
+#: ground, so that one typed with up to six decimals reads as typed, and
+#: one worked out from degrees, minutes and seconds or read from a town's
+#: entry in the gazetteer does not run to sixteen figures (64.13333333333334).
+LATITUDE_DECIMALS = 6
+
+
+def degrees_text(value_deg: float) -> str:
+    """``value_deg`` to :data:`LATITUDE_DECIMALS` decimals, without
+    trailing zeros: ``51.5``, ``-33.9``, ``64.133333``, ``0``."""
+    text = f"{value_deg:.{LATITUDE_DECIMALS}f}".rstrip("0").rstrip(".")
+    return "0" if text == "-0" else text
 
 
 def manifest_csv(rows) -> bytes:
