@@ -77,6 +77,10 @@ class Placement:
     y_mm: float
     rotation_deg: float
     piece: Piece | None = None
+    #: The kit's words run right to left: the band above the box is set
+    #: from its right end (its title, a piece's name and map), where a
+    #: reader of Arabic begins (common practice of right-to-left print).
+    rtl: bool = False
 
     @property
     def box_mm(self) -> tuple[float, float, float, float]:
@@ -96,17 +100,33 @@ class Placement:
 
     @property
     def title_at_mm(self) -> tuple[float, float]:
-        """Start of the baseline of the part's title, above its box."""
+        """Where the baseline of the part's title, above its box, is set
+        from: its left end, or with ``rtl`` its right end (:meth:`band_end_mm`)."""
         x0, _, _, y1 = self.box_mm
+        x = self.band_end_mm(title_width_mm(self.part.title)) if self.rtl else x0
         if self.piece is not None:
-            return (x0, y1 + PIECE_BAND_MM - 3.5)
-        return (x0, y1 + 0.3 * TITLE_BAND_MM)
+            return (x, y1 + PIECE_BAND_MM - 3.5)
+        return (x, y1 + 0.3 * TITLE_BAND_MM)
 
     @property
     def piece_label_at_mm(self) -> tuple[float, float]:
-        """Start of the baseline of a piece's name, under its title."""
-        x0, _, _, y1 = self.box_mm
-        return (x0, y1 + 1.5)
+        """Where the baseline of a piece's name, under its title, is set
+        from: its left end, or with ``rtl`` its right end."""
+        x0, _, x1, y1 = self.box_mm
+        return (x1 if self.rtl else x0, y1 + 1.5)
+
+    def band_end_mm(self, width_mm: float) -> float:
+        """The right end of the band above the box for words ``width_mm``
+        wide set from its left end: the box's right side, or their end
+        where they run beyond it (the packing keeps that width free)."""
+        x0, _, x1, _ = self.box_mm
+        return max(x1, x0 + width_mm)
+
+    def title_span_mm(self) -> tuple[float, float]:
+        """Left and right ends (page x, mm) of the room the title may take."""
+        tx, _ = self.title_at_mm
+        w = title_width_mm(self.part.title)
+        return (tx - w, tx) if self.rtl else (tx, tx + w)
 
     def to_page(self, x_mm: float, y_mm: float) -> tuple[float, float]:
         """Page coordinates of the point ``(x, y)`` of the part."""
@@ -304,7 +324,7 @@ def _areas(sheet: Sheet, scale) -> list[tuple[float, float]]:
     return out
 
 
-def _pack(items: list[_Item], sheet: Sheet, scale) -> list[tuple[bool, tuple[Placement, ...]]]:
+def _pack(items: list[_Item], sheet: Sheet, scale, rtl: bool = False) -> list[tuple[bool, tuple[Placement, ...]]]:
     areas = _areas(sheet, scale)
     packer = Packer([Box(it.options) for it in items], areas, GAP_MM)
     pages = []
@@ -327,7 +347,7 @@ def _pack(items: list[_Item], sheet: Sheet, scale) -> list[tuple[bool, tuple[Pla
                 bx0, by0, bx1, by1 = turned_bounds(it.part.bounds_mm, rot)
                 band = TITLE_BAND_MM
             box_top = ay1 - top - band
-            placed.append(Placement(it.part, left - bx0, box_top - by1, rot, it.piece))
+            placed.append(Placement(it.part, left - bx0, box_top - by1, rot, it.piece, rtl))
         pages.append((landscape, tuple(placed)))
     return pages
 
@@ -349,7 +369,7 @@ def _layout_material(parts, sheet, scale, order, words):
         raise UserError("errors.tile_sheet_too_small", sheet=sheet_words(sheet)) from None
     best = None
     for items in candidates:
-        pages = _pack(items, sheet, scale)
+        pages = _pack(items, sheet, scale, words.rtl)
         if best is None or len(pages) < len(best):
             best = pages
     key = _order_key(order)
@@ -360,7 +380,7 @@ def _layout_material(parts, sheet, scale, order, words):
 
 # -- duplex ---------------------------------------------------------------------------
 
-def _duplex_pages(front: Part, back: Part, sheet: Sheet, scale, mode: str):
+def _duplex_pages(front: Part, back: Part, sheet: Sheet, scale, mode: str, rtl: bool = False):
     """The mater's front and back on the two sides of one sheet.
 
     Turned over about its long edge (portrait), a sheet's point (x, y) lies
@@ -387,15 +407,15 @@ def _duplex_pages(front: Part, back: Part, sheet: Sheet, scale, mode: str):
     i = REGISTRATION_INSET_MM
     xs = (max(ax0 + i, w - ax1 + i), min(ax1 - i, w - ax0 - i))
     ys = (max(ay0 + i, h - ay1 + i), min(ay1 - i, h - ay0 - i))
-    on_front, on_back = Placement(front, cx, cy, 0.0), Placement(back, bx, by, rot)
+    on_front, on_back = Placement(front, cx, cy, 0.0, rtl=rtl), Placement(back, bx, by, rot, rtl=rtl)
 
     def behind(x, y):
         return (w - x, y) if mode == "long_edge" else (x, h - y)
 
     def clear_of_title(placement, x, y):
-        tx, ty = placement.title_at_mm
+        (left, right), (_, ty) = placement.title_span_mm(), placement.title_at_mm
         q = REGISTRATION_REACH_MM
-        return (x + q <= tx or x - q >= tx + title_width_mm(placement.part.title)
+        return (x + q <= left or x - q >= right
                 or y + q <= ty - 0.3 * TITLE_PT / PT_PER_MM or y - q >= ty + TITLE_PT / PT_PER_MM)
 
     fronts = []
@@ -509,7 +529,7 @@ def _draft_pages(kit, instruction_pages: int) -> tuple[Page, ...]:
         raise UserError("errors.duplex_parts")
     if printing.duplex != "none":
         front, back = kit.part("mater_front"), kit.part("mater_back")
-        (fp, fm), (bp, bm) = _duplex_pages(front, back, sh, scale, printing.duplex)
+        (fp, fm), (bp, bm) = _duplex_pages(front, back, sh, scale, printing.duplex, kit.words.rtl)
         drafts += [("card", False, (fp,), fm, "front"), ("card", False, (bp,), bm, "back")]
         card = [p for p in card if p.kind not in ("mater_front", "mater_back")]
     for landscape, placed in _layout_material(card, sh, scale, order, kit.words):

@@ -366,7 +366,8 @@ def _draw_placement(c: Canvas, placement, dims, words, printing, only=None) -> N
     elif placement.part.title:
         x, y = placement.title_at_mm
         c.setFillGray(0.0)
-        pdf_text.draw_at_baseline(c, x * mm, y * mm, placement.part.title, TITLE_PT, words, "bold")
+        pdf_text.draw_at_baseline(c, x * mm, y * mm, placement.part.title, TITLE_PT, words, "bold",
+                                  "right" if placement.rtl else "left")
 
 
 # -- page furniture ------------------------------------------------------------

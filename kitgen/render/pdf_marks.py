@@ -10,7 +10,7 @@ from __future__ import annotations
 
 from reportlab.lib.units import mm
 
-from ..layout.pages import PIECE_LABEL_PT, TITLE_PT, map_cell_mm
+from ..layout.pages import PIECE_LABEL_PT, TITLE_PT, map_cell_mm, piece_label_width_mm, title_width_mm
 from ..layout.seams import seam_stretches_mm
 from ..layout.tiling import MARK_HALF_MM
 from . import pdf_text
@@ -79,12 +79,14 @@ def draw_piece_marks(c, placement, words, label: str) -> None:
         alignment_mark(c, ox + mx, oy + my)
     # The band: title, then the piece's name and the map of all pieces.
     c.setFillGray(0.0)
-    tx, ty = placement.title_at_mm
-    pdf_text.draw_at_baseline(c, tx * mm, ty * mm, placement.part.title, TITLE_PT, words, "bold")
-    lx, ly = placement.piece_label_at_mm
-    used_pt = pdf_text.draw_at_baseline(c, lx * mm, ly * mm, label, PIECE_LABEL_PT, words, "body")
+    (tx, ty), (lx, ly) = placement.title_at_mm, placement.piece_label_at_mm
     cell = map_cell_mm(piece)
-    left = lx + used_pt / mm + 2.0
+    if placement.rtl:   # all three from the band's right end: title, name, then the map to the name's left
+        tx = lx = placement.band_end_mm(max(title_width_mm(placement.part.title), piece_label_width_mm(label, piece)))
+    align = "right" if placement.rtl else "left"
+    pdf_text.draw_at_baseline(c, tx * mm, ty * mm, placement.part.title, TITLE_PT, words, "bold", align)
+    used_pt = pdf_text.draw_at_baseline(c, lx * mm, ly * mm, label, PIECE_LABEL_PT, words, "body", align)
+    left = lx - used_pt / mm - 2.0 - cell * piece.columns if placement.rtl else lx + used_pt / mm + 2.0
     top = ly - 0.7 + cell * piece.rows
     c.setLineWidth(MARK_LINE_MM * mm)
     for j in range(piece.rows):
