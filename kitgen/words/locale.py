@@ -56,6 +56,17 @@ UNREAD_SECTIONS = ("unit_patterns", "unit_display_names", "compound_unit_pattern
 
 
 @lru_cache(maxsize=None)
+def _parsed(code: str) -> Locale:
+    """Babel's locale for a BCP 47 code, its data not read yet (a class
+    set's rows are checked with their script alone, before its workers
+    start, where reading every language's data cost 5 ms a language)."""
+    try:
+        return Locale.parse(code.replace("-", "_"))
+    except (UnknownLocaleError, ValueError, TypeError):
+        raise LocaleError(code) from None
+
+
+@lru_cache(maxsize=None)
 def cldr_locale(code: str) -> Locale:
     """Babel's CLDR locale for a BCP 47 code (``pt``, ``pt-BR``, ``ar``),
     its data read and the sections kitgen never reads let go
@@ -64,10 +75,7 @@ def cldr_locale(code: str) -> Locale:
     same dictionary again (``babel.localedata.load``), so the sections
     are taken from the dictionaries of the locale and of those it
     inherits from (``pt_BR``, ``pt``, ``root``)."""
-    try:
-        loc = Locale.parse(code.replace("-", "_"))
-    except (UnknownLocaleError, ValueError, TypeError):
-        raise LocaleError(code) from None
+    loc = _parsed(code)
     loc.character_order   # reads the locale's data
     parts = str(loc).split("_")
     for name in ["_".join(parts[:k]) for k in range(len(parts), 0, -1)] + ["root"]:
@@ -94,7 +102,7 @@ def is_right_to_left(code: str) -> bool:
 def script(code: str) -> str:
     """ISO 15924 script of the locale (``Latn``, ``Grek``, ``Cyrl``,
     ``Arab``, ``Deva``), from CLDR's likely subtags when the code names none."""
-    loc = cldr_locale(code)
+    loc = _parsed(code)
     if loc.script:
         return loc.script
     likely = get_global("likely_subtags").get(loc.language, "")
