@@ -110,10 +110,11 @@ class Placement:
 
     @property
     def piece_label_at_mm(self) -> tuple[float, float]:
-        """Where the baseline of a piece's name, under its title, is set
-        from: its left end, or with ``rtl`` its right end."""
-        x0, _, x1, y1 = self.box_mm
-        return (x1 if self.rtl else x0, y1 + 1.5)
+        """Start of the baseline of a piece's name, under its title (with
+        ``rtl``, the band's end that kitgen.render.pdf_marks works out
+        from the name's width is its right end)."""
+        x0, _, _, y1 = self.box_mm
+        return (x0, y1 + 1.5)
 
     def band_end_mm(self, width_mm: float) -> float:
         """The right end of the band above the box for words ``width_mm``
