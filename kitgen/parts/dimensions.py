@@ -36,6 +36,14 @@ MIN_TICK_MM = 0.8
 #: every shipped language (kitgen.parts.ring_numbers.ring_needed_mm,
 #: 5.63 mm in Arabic, checked by tests/test_back_and_rete.py).
 MIN_NAMED_RING_MM = 5.7
+#: The hole for the plumb's thread (Dimensions.hang_hole_mm): at least
+#: this across (mm), a doubled sewing thread being well under 1 mm; up to
+#: this much card (mm) left between it and the mater's cut edge, where a
+#: strip of card 0.3 mm wide tears under a hanging plumb (common
+#: practice, no source); the labels' margin (mm) below it.
+THREAD_HOLE_MM = 1.4
+HANG_WEB_MM = 1.0
+HANG_MARGIN_MM = 0.3
 
 
 @dataclass(frozen=True)
@@ -68,17 +76,23 @@ class Dimensions:
     def hang_hole_mm(self) -> tuple[float, float]:
         """(y_mm, radius_mm) of the hole for the plumb's thread (#9), on the
         meridian at the top of the mater, the same point through both
-        faces: centred in the outer share of the front's degree ring, above
-        the tips of its 5-degree ticks (0.28 of the ring) and of the back's
+        faces: in the outer share of the front's degree ring, above the
+        tips of its 5-degree ticks (0.28 of the ring) and of the back's
         10-degree altitude ticks (0.45 of the back's outer ring), with the
-        labels' margin (0.3 mm) inside and outside; at most 1.5 mm across
-        the radius, enough for a thread doubled into a loop (common
-        practice).  The front's degree 0 carries no number there."""
+        labels' margin (0.3 mm) below it.  The share holds, in this order
+        of need: a hole :data:`THREAD_HOLE_MM` across, enough for a thread
+        doubled into a loop; up to :data:`HANG_WEB_MM` of card between the
+        hole and the mater's cut edge, which a thin strip tears at when the
+        plumb pulls; the hole up to 3 mm across.  It is centred in the
+        share where that leaves the web wider.  The front's degree 0
+        carries no number there."""
         r = self.mater_radius_mm
         lo = self.hour_ring_outer_mm + 0.28 * (r - self.hour_ring_outer_mm)
         lo = max(lo, self.back_altitude_ring_mm + 0.45 * (r - self.back_altitude_ring_mm))
-        radius = min(1.5, (r - lo) / 2 - 0.3)
-        return (lo + r) / 2, radius
+        room = r - lo
+        web = min(HANG_WEB_MM, max(HANG_MARGIN_MM, room - HANG_MARGIN_MM - THREAD_HOLE_MM))
+        across = min(3.0, room - HANG_MARGIN_MM - web)
+        return min((lo + r) / 2, r - web - across / 2), across / 2
 
     @property
     def scale(self) -> float:
