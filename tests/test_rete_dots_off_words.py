@@ -175,6 +175,9 @@ NAME_GAP_ALONG_MM = 2.0
     "latitude: 51.5\nsheet: a5\n",                # "Elnath", led, had begun beside Bellatrix's dot
     "latitude: -33.9\n",                           # Miaplacidus's led name had stood over Canopus's dot
     "latitude: -45\nsheet: letter\nlanguage: hi\n", "latitude: 35\nsheet: a4\nlanguage: de\n",
+    "latitude: 24.7\nlanguage: ar\n",               # Dubhe's dot had stood past "Castor" and "Pollux"
+    "latitude: -23.5\nlanguage: pt\nsheet: a5\n",   # Betelgeuse's at the tops of the letters past "Alnilam"
+    "latitude: 0.5\nsheet: letter\n",
 ])
 def test_each_name_reads_as_its_own_stars(head):
     """Each star's name stands within ALONE_OFFSETS of its own dot and
@@ -229,13 +232,20 @@ def _reads_as_its(dot, box, offset_mm: float) -> bool:
     elsewhere or not: level with the name's words (its disc reaching into
     their height) within BESIDE_OFFSETS beyond one end (#12: "Elnath",
     led from its own dot, began beside Bellatrix's on a northern A5
+    rete), or past an end and over or under the line within BESIDE_OFFSETS
+    of that end's nearer corner (#12 review: Dubhe's dot 2.2 mm past the
+    ends of "Castor" and "Pollux", between their lines, on an Arabic
     rete), or over or under the middle half of the words within
     OVER_OFFSETS (#12: at 33.9 S on A4 Miaplacidus's name, at the end of
     its leader, stood 1.3 mm over Canopus's dot)."""
     (x, y), r = dot.geom["at"], dot.values["radius_mm"]
     xs, ys = [c[0] for c in box], [c[1] for c in box]
+    beyond = max(min(xs) - x, x - max(xs))
     if min(ys) - r <= y <= max(ys) + r:
-        return max(min(xs) - x, x - max(xs)) - r < BESIDE_OFFSETS * offset_mm - 1e-6
+        return beyond - r < BESIDE_OFFSETS * offset_mm - 1e-6
+    if beyond > 0:   # past an end and over or under the line: the disc's distance to that end of the box
+        corner = (min(xs) if x < min(xs) else max(xs), min(ys) if y < min(ys) else max(ys))
+        return math.dist((x, y), corner) - r < BESIDE_OFFSETS * offset_mm - 1e-6
     middle, quarter = (min(xs) + max(xs)) / 2, (max(xs) - min(xs)) / 4
     return abs(x - middle) <= quarter + r and max(min(ys) - y, y - max(ys)) - r < OVER_OFFSETS * offset_mm - 1e-6
 

@@ -553,13 +553,20 @@ def _reads_as_its(box, point, radius_mm: float, beside_mm: float, over_mm: float
     with the words (its disc reaching into their height) beyond one of
     the box's ends, within ``beside_mm`` (#12: "Elnath", led from its own
     dot, began beside Bellatrix's, whose disc stood 0.03 mm below the
-    words' box), or under or over the middle half of the words within
+    words' box), or past an end and over or under the line as near that
+    end as ``beside_mm`` (#12 review: Dubhe's dot between the lines of
+    "Castor" and "Pollux", 2.2 mm past their ends; Betelgeuse's at the
+    tops of the letters, 2.1 mm past "Alnilam"), or under or over the
+    middle half of the words within
     ``over_mm`` (#12: on a southern A4 rete at 33.9 S the name of
     Miaplacidus, at the end of its leader, stood 1.3 mm over Canopus's
     dot)."""
     x, y = point
+    beyond = max(box[0] - x, x - box[2])   # past the nearer end (negative: within the words' run)
     if box[1] - radius_mm <= y <= box[3] + radius_mm:
-        return max(box[0] - x, x - box[2]) - radius_mm < beside_mm
+        return beyond - radius_mm < beside_mm
+    if beyond > 0.0:   # past an end, over or under the line: as near that end in any direction
+        return math.hypot(beyond, max(box[1] - y, y - box[3])) - radius_mm < beside_mm
     middle, quarter = (box[0] + box[2]) / 2, (box[2] - box[0]) / 4
     return abs(x - middle) <= quarter + radius_mm and max(box[1] - y, y - box[3]) - radius_mm < over_mm
 
