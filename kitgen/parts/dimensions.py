@@ -23,6 +23,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
+from ..geometry.style import stroke_width_mm
 from ..sky.rete_rim import plate_and_rim_radii_mm, rim_radius_factor, tropic_rim_deg
 
 #: Smallest text printed, pt.  Common practice in print: 5 pt sans-serif is
@@ -40,7 +41,7 @@ MIN_NAMED_RING_MM = 5.7
 #: this across (mm), a doubled sewing thread being well under 1 mm; up to
 #: this much card (mm) left between it and the mater's cut edge, where a
 #: strip of card 0.3 mm wide tears under a hanging plumb (common
-#: practice, no source); the labels' margin (mm) below it.
+#: practice, no source); the labels' margin (mm) of paper below its line.
 THREAD_HOLE_MM = 1.4
 HANG_WEB_MM = 1.0
 HANG_MARGIN_MM = 0.3
@@ -79,19 +80,27 @@ class Dimensions:
         faces: in the outer share of the front's degree ring, above the
         tips of its 5-degree ticks (0.28 of the ring) and of the back's
         10-degree altitude ticks (0.45 of the back's outer ring), with the
-        labels' margin (0.3 mm) below it.  The share holds, in this order
-        of need: a hole :data:`THREAD_HOLE_MM` across, enough for a thread
-        doubled into a loop; up to :data:`HANG_WEB_MM` of card between the
-        hole and the mater's cut edge, which a thin strip tears at when the
-        plumb pulls; the hole up to 3 mm across.  It is centred in the
+        labels' margin (0.3 mm) between the ticks' ends and the hole's cut
+        line, and between the hole and the mater's cut edge.  What the
+        share holds beyond that goes, in this order of need, to: a hole
+        :data:`THREAD_HOLE_MM` across, enough for a thread doubled into a
+        loop; up to :data:`HANG_WEB_MM` of card between the hole and the
+        cut edge (the cut lines' middles, where the blade runs), which a
+        thin strip tears at when the plumb pulls; the margin below made
+        paper the ticks' square ends (butt caps) keep from the ink of the
+        hole's line; the hole up to 3 mm across.  It is centred in the
         share where that leaves the web wider.  The front's degree 0
         carries no number there."""
         r = self.mater_radius_mm
         lo = self.hour_ring_outer_mm + 0.28 * (r - self.hour_ring_outer_mm)
         lo = max(lo, self.back_altitude_ring_mm + 0.45 * (r - self.back_altitude_ring_mm))
         room = r - lo
-        web = min(HANG_WEB_MM, max(HANG_MARGIN_MM, room - HANG_MARGIN_MM - THREAD_HOLE_MM))
-        across = min(3.0, room - HANG_MARGIN_MM - web)
+        spare = room - THREAD_HOLE_MM - 2 * HANG_MARGIN_MM
+        if spare < 0.0:   # a small mater: the hole takes what the margins leave
+            return (lo + r) / 2, (room - 2 * HANG_MARGIN_MM) / 2
+        web = HANG_MARGIN_MM + min(HANG_WEB_MM - HANG_MARGIN_MM, spare)
+        below = HANG_MARGIN_MM + min(stroke_width_mm("cut", self) / 2, spare - (web - HANG_MARGIN_MM))
+        across = min(3.0, room - web - below)
         return min((lo + r) / 2, r - web - across / 2), across / 2
 
     @property
