@@ -149,10 +149,10 @@ CLEARLY_NEARER_MM = 0.45
 LEADER_NAME_FROM_OTHER_DOTS_MM = 1.0
 #: No other dot stands level with a name, with a leader or without, within this
 #: many label offsets beyond either end of it (a choice, as above).
-BESIDE_OFFSETS = 1.5
+BESIDE_OFFSETS = 2.0
 #: Nor within this many offsets over or under the middle half of its words
 #: (a choice, as above).
-OVER_OFFSETS = 1.0
+OVER_OFFSETS = 1.5
 #: Half the pin's crosshair (mm), kept clear of every word on the rete.
 PIN_HALF_MM = 2.5
 #: Paper (mm) between two names (#9: "Pollux" ran into Sirius's name);

@@ -114,12 +114,15 @@ NAME_GAP_ALONG_MM = 2.0
 #: any other dot, so that it is *clearly* that dot's (#9).
 NEARER_BY_MM = 0.5
 #: ... and no other dot stands level with a name, with a leader or
-#: without, within this many offsets beyond either end, where a reader
-#: looks for a point's name first (#12) ...
-BESIDE_OFFSETS = 1.5
+#: without, within this many offsets beyond either end (or past an end,
+#: over or under the line, as near that end), where a reader looks for a
+#: point's name first (#12; 1.5 until a teacher's review found dots 2.2 to
+#: 2.8 mm past names' ends on A4 read as theirs) ...
+BESIDE_OFFSETS = 2.0
 #: ... nor within this many offsets over or under the middle of its
-#: words, where a reader looks next (#12).
-OVER_OFFSETS = 1.0
+#: words, where a reader looks next (#12; 1.0 until the same review found
+#: Alioth's dot 2.3 mm under the middle of Dubhe's name).
+OVER_OFFSETS = 1.5
 #: A name with a leader keeps this many offsets (and :data:`NAME_GAP_MM`
 #: at least) from every other dot, so that it never reads as that dot's
 #: name (#9: Bellatrix's name, at the end of its leader, stood beside
