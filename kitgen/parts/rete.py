@@ -20,6 +20,7 @@ from ..geometry.style import MIN_DOT_RADIUS_MM, star_radius_mm, stroke_width_mm
 from ..projection.circles import project_circle
 from ..projection.stereographic import equatorial_vector, project
 from ..sky.rete_rim import MAX_RIM_DEG, rim_for_stars_deg
+from ..sky.stars import POLE_STAR
 from ..words.fit import line_offsets_mm
 from ..words.measure import Extent
 from ..words.symbols import ZODIAC_SIGNS
@@ -101,7 +102,9 @@ def rete(ctx: PartContext) -> model.Part:
                                  band - tick_tip - 2 * labels.MARGIN_MM, center=tuple(c),
                                  short=ZODIAC_SIGNS[k], longitude_deg=30.0 * k + 15.0)
 
-    stars = sorted(ctx.sky.stars, key=lambda st: st.star.mag)
+    # brightest first, and named in that order; but the pole star first of
+    # all, which a pupil finds north by (its name beside the pin's mark)
+    stars = sorted(ctx.sky.stars, key=lambda st: (st.star.label != POLE_STAR, st.star.mag))
     # (all at once, #12: the projection works element by element)
     all_pts = list(project(-np.radians([st.ra_deg for st in stars]), np.radians([st.dec_deg for st in stars]), s, R))
     # Stars closer than the smallest printed dot is wide are one dot (the

@@ -46,7 +46,8 @@ def sky_for_kit(epoch: int, hemisphere_sign: int, star_names: Sequence[str] = ()
                 rim_deg: float | None = None, latitudes_deg: Sequence[float] = ()) -> SkyForKit:
     """The sky of a kit for ``epoch`` on a rete of the given hemisphere
     (+1 north, -1 south), with the stars chosen by name, as the N
-    brightest, or down to a magnitude (:func:`kitgen.sky.stars.select_stars`),
+    brightest (and Polaris on a northern rete), or down to a magnitude
+    (:func:`kitgen.sky.stars.select_stars`),
     and the calendar for local mean noon at ``site_longitude_deg`` (east
     positive; 12:00 UT when it is unknown).  The rete reaches ``rim_deg``
     (degrees, signed; the outer tropic when None); the stars beyond it
@@ -55,7 +56,7 @@ def sky_for_kit(epoch: int, hemisphere_sign: int, star_names: Sequence[str] = ()
     eps = epoch_obliquity_rad(epoch)
     rim = tropic_rim_deg(hemisphere_sign, eps) if rim_deg is None else float(rim_deg)
     fits = rete_fits(hemisphere_sign, eps, rim)
-    chosen = select_stars(star_names, brightest, magnitude_limit, epoch + 0.5, fits)
+    chosen = select_stars(star_names, brightest, magnitude_limit, epoch + 0.5, fits, pole_star=True)
     placed = _placed(chosen, epoch)
     return SkyForKit(epoch, eps, tuple(calendar_longitudes_deg(epoch, site_longitude_deg)), placed, rim,
                      bright_beyond_rim(epoch, fits, latitudes_deg))

@@ -131,16 +131,26 @@ def _fitting(stars: Sequence[Star], epoch_year: float, fits: FitTest) -> np.ndar
     return ok
 
 
+#: The pole star a brightest-N rete carries besides its N where it fits
+#: (a northern rete): the star a pupil finds north by, at the pin, on
+#: every northern planisphere (common practice, no source), though some 47
+#: named stars outshine it and a rete reaching far south leaves it out of
+#: its 32 brightest (#12 review: none at 40 N, where 52.2 N had it).
+POLE_STAR = "Polaris"
+
+
 def select_stars(names: Sequence[str], brightest: int | None, magnitude_limit: float | None,
-                 epoch_year: float, fits: FitTest) -> list[Star]:
+                 epoch_year: float, fits: FitTest, pole_star: bool = False) -> list[Star]:
     """The stars a rete carries.
 
     ``fits(ra_deg, dec_deg)`` says, for arrays of places at the epoch, which
     lie on the rete.  Named stars (names the catalogue knows, checked by the
     recipe) come in the given order, duplicates dropped, those that do not
     fit left out (see :func:`outside`); ``brightest=N`` gives the N
-    brightest named stars that fit; ``magnitude_limit=M`` every star, named
-    or not, of magnitude M or brighter that fits.
+    brightest named stars that fit, and with ``pole_star`` :data:`POLE_STAR`
+    too where it fits and is not among them (in its place by brightness);
+    ``magnitude_limit=M`` every star, named or not, of magnitude M or
+    brighter that fits.
     """
     if names:
         chosen = list(dict.fromkeys(find_star(n) for n in names))
@@ -151,7 +161,12 @@ def select_stars(names: Sequence[str], brightest: int | None, magnitude_limit: f
     if brightest is not None:
         pool = list(named_stars())
         ok = _fitting(pool, epoch_year, fits)
-        return [s for s, inside in zip(pool, ok) if inside][: max(0, int(brightest))]
+        fitting = [s for s, inside in zip(pool, ok) if inside]
+        chosen = fitting[: max(0, int(brightest))]
+        pole = find_star(POLE_STAR) if pole_star else None
+        if pole is not None and pole in fitting and pole not in chosen:
+            chosen = [s for s in fitting if s in chosen or s is pole]   # the catalogue's order: brightest first
+        return chosen
     if magnitude_limit is not None:
         pool = [s for s in catalogue() if s.mag <= magnitude_limit]
         ok = _fitting(pool, epoch_year, fits)
