@@ -325,14 +325,17 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
                                                   dots, dot_mm, BESIDE_OFFSETS * offset_mm,
                                                   OVER_OFFSETS * offset_mm):
                     continue
+                # (the other dots first: that test is kept for the place,
+                # and turns down more places since the rule of dots past a
+                # name's ends, #12)
+                if needs_leader and _once(memo, ("beside", i), _beside_another, box, k, points, leaders_from_mm,
+                                          max(offset_mm * LEADER_NAME_CLEAR, NAME_GAP_MM), dots, dot_mm,
+                                          BESIDE_OFFSETS * offset_mm, OVER_OFFSETS * offset_mm):
+                    continue
                 # (no leader chosen before passes between this label and
                 # its point, with a leader of its own or not)
                 if any(_segments_cross(a, b, p, q) for a, b in near(lines, _link_box((x, y), box), k, slack)
                        for p, q in _link((x, y), box)):
-                    continue
-                if needs_leader and _once(memo, ("beside", i), _beside_another, box, k, points, leaders_from_mm,
-                                          max(offset_mm * LEADER_NAME_CLEAR, NAME_GAP_MM), dots, dot_mm,
-                                          BESIDE_OFFSETS * offset_mm, OVER_OFFSETS * offset_mm):
                     continue
             leader = None
             if needs_leader:
