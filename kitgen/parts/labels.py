@@ -123,6 +123,11 @@ BESIDE_OFFSETS = 2.0
 #: words, where a reader looks next (#12; 1.0 until the same review found
 #: Alioth's dot 2.3 mm under the middle of Dubhe's name).
 OVER_OFFSETS = 1.5
+#: Paper (mm) a leader keeps from every word but its own name and from
+#: every box kept out, the labels' margin: a leader that grazes a word
+#: reads as struck through it or as that word's (#12 review: Alnilam's
+#: leader 0.05 mm from "Sirius", Miaplacidus's 0.04 mm from "Acrux").
+LEADER_WORD_GAP_MM = MARGIN_MM
 #: A name with a leader keeps this many offsets (and :data:`NAME_GAP_MM`
 #: at least) from every other dot, so that it never reads as that dot's
 #: name (#9: Bellatrix's name, at the end of its leader, stood beside
@@ -139,6 +144,11 @@ GRID_CELL_MM = 4.0
 #: rounding error of the tests and far below anything printed, so that a
 #: search misses nothing a test could find.
 SEARCH_SLACK_MM = 1e-6
+
+
+def _grown(box, by_mm: float):
+    """An axis-aligned box grown by ``by_mm`` on every side."""
+    return (box[0] - by_mm, box[1] - by_mm, box[2] + by_mm, box[3] + by_mm)
 
 
 def _segment_meets_box(p, q, box) -> bool:
@@ -318,7 +328,8 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
                 if leader is None or _once(memo, ("crossed", i), _rings_met, leader, keep_out_rings):
                     continue
             if not _once(memo, ("room", i), room, box) \
-                    or by_leader and any(_segment_meets_box(a, b, box) for a, b in near(lines, box, k, slack)):
+                    or by_leader and any(_segment_meets_box(a, b, _grown(box, LEADER_WORD_GAP_MM))
+                                         for a, b in near(lines, box, k, LEADER_WORD_GAP_MM + slack)):
                 continue
             if with_leaders:
                 if not needs_leader and not _once(memo, ("own", i), _nearest_own, box, k, points, leaders_from_mm,
@@ -343,8 +354,8 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
                 if leader is None:
                     continue
                 span = segment_box(*leader)
-                if any(_segment_meets_box(leader[0], leader[1], other)
-                       for other in near(placed, span, k, slack) if other is not own) \
+                if any(_segment_meets_box(leader[0], leader[1], _grown(other, LEADER_WORD_GAP_MM))
+                       for other in near(placed, span, k, LEADER_WORD_GAP_MM + slack) if other is not own) \
                         or any(_segments_cross(leader[0], leader[1], a, b) for a, b in near(lines, span, k, slack)) \
                         or any(_segments_cross(leader[0], leader[1], p, q)
                                for link in near(links, span, k, slack) for p, q in link) \
