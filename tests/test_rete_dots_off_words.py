@@ -167,6 +167,12 @@ BESIDE_OFFSETS = 2.0
 #: Nor within this many offsets over or under the middle half of its words
 #: (a choice, as above).
 OVER_OFFSETS = 1.5
+#: A first-magnitude star (1.5 and brighter), which the strict reaches
+#: above would leave unnamed, may be named keeping other dots only these
+#: (those used until a teacher's review, #12): Rigil Kentaurus at 23.5 S.
+FIRST_MAGNITUDE = 1.5
+LOOSE_BESIDE_OFFSETS = 1.5
+LOOSE_OVER_OFFSETS = 1.0
 #: Half the pin's crosshair (mm), kept clear of every word on the rete.
 PIN_HALF_MM = 2.5
 #: Paper (mm) between two names (#9: "Pollux" ran into Sirius's name);
@@ -218,7 +224,7 @@ def test_each_name_reads_as_its_own_stars(head):
                 if other != name and dot_to_box_mm(dot.geom["at"], dot.values["radius_mm"], box) \
                         < LEADER_NAME_FROM_OTHER_DOTS_MM:
                     bad.append((name, "leader's name beside", other))
-                if other != name and _reads_as_its(dot, box, offset):
+                if other != name and _reads_as_its(dot, box, offset, _loose(own)):
                     bad.append((name, "leader's name level beside", other))
             continue
         gap = dot_to_box_mm(own.geom["at"], own.values["radius_mm"], box)
@@ -235,12 +241,19 @@ def test_each_name_reads_as_its_own_stars(head):
             # nor does another dot stand beside an end of the name, level
             # with its words, where a reader looks for a point's name first
             # (common practice in map labelling; "Alioth" beside Dubhe's dot)
-            if other != name and _reads_as_its(dot, box, offset):
+            if other != name and _reads_as_its(dot, box, offset, _loose(own)):
                 bad.append((name, "beside", other))
     assert not bad, bad
 
 
-def _reads_as_its(dot, box, offset_mm: float) -> bool:
+def _loose(star) -> bool:
+    """Whether the star is of the first magnitude (1.5 and brighter, as
+    the term is commonly used), whose name may keep other dots only the
+    looser reaches where the strict ones leave it unnamed."""
+    return star.values["mag"] <= FIRST_MAGNITUDE
+
+
+def _reads_as_its(dot, box, offset_mm: float, loose: bool = False) -> bool:
     """Whether the dot stands where a reader looks for a name's point, and
     so takes the name for that dot's, whether a leader runs to it from
     elsewhere or not: level with the name's words (its disc reaching into
@@ -253,15 +266,17 @@ def _reads_as_its(dot, box, offset_mm: float) -> bool:
     OVER_OFFSETS (#12: at 33.9 S on A4 Miaplacidus's name, at the end of
     its leader, stood 1.3 mm over Canopus's dot)."""
     (x, y), r = dot.geom["at"], dot.values["radius_mm"]
+    beside = (LOOSE_BESIDE_OFFSETS if loose else BESIDE_OFFSETS) * offset_mm
+    over = (LOOSE_OVER_OFFSETS if loose else OVER_OFFSETS) * offset_mm
     xs, ys = [c[0] for c in box], [c[1] for c in box]
     beyond = max(min(xs) - x, x - max(xs))
     if min(ys) - r <= y <= max(ys) + r:
-        return beyond - r < BESIDE_OFFSETS * offset_mm - 1e-6
+        return beyond - r < beside - 1e-6
     if beyond > 0:   # past an end and over or under the line: the disc's distance to that end of the box
         corner = (min(xs) if x < min(xs) else max(xs), min(ys) if y < min(ys) else max(ys))
-        return math.dist((x, y), corner) - r < BESIDE_OFFSETS * offset_mm - 1e-6
+        return math.dist((x, y), corner) - r < beside - 1e-6
     middle, quarter = (min(xs) + max(xs)) / 2, (max(xs) - min(xs)) / 4
-    return abs(x - middle) <= quarter + r and max(min(ys) - y, y - max(ys)) - r < OVER_OFFSETS * offset_mm - 1e-6
+    return abs(x - middle) <= quarter + r and max(min(ys) - y, y - max(ys)) - r < over - 1e-6
 
 
 def _cross(p, q, a, b) -> bool:
@@ -434,3 +449,20 @@ def test_no_leader_is_a_stub(kit):
     short = [(e.values["name"], round(math.dist(e.geom["from"], e.geom["to"]), 2)) for e in leaders
              if math.dist(e.geom["from"], e.geom["to"]) < LEAST_LEADER_MM - 1e-9]
     assert not short
+
+
+@pytest.mark.parametrize("head", ["latitude: -23.5\nlanguage: pt\n", "latitude: -33.9\n", "latitude: -37.8\nlanguage: es\n",
+                                  "latitude: 24.7\nlanguage: ar\n", "latitude: 52.2\n", "latitude: 0.5\n"])
+def test_the_brightest_stars_are_named_on_a4(head):
+    """On an A4 rete every drawn star of magnitude 1.0 or brighter (the
+    brightest dozen and a half of the sky; magnitudes from the shipped
+    Hipparcos catalogue, as PyEphem's star list gives them) is named: the
+    stricter reaches of other dots never leave one of them unnamed where
+    the looser ones name it (#12 review: Rigil Kentaurus at 23.5 S)."""
+    kit = build_kit(parse_recipe_text("epoch: 2027\n" + head + "parts: [rete]\n"))
+    rete = kit.part("rete")
+    named = {e.values["name"] for e in rete.elements if e.role == "star_label"}
+    bright = [e.values["name"] for e in rete.elements
+              if e.role == "star" and e.stroke != "none" and e.values["mag"] <= 1.0]
+    assert len(bright) >= 8
+    assert [n for n in bright if n not in named] == []

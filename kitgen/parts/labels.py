@@ -128,6 +128,12 @@ OVER_OFFSETS = 1.5
 #: reads as struck through it or as that word's (#12 review: Alnilam's
 #: leader 0.05 mm from "Sirius", Miaplacidus's 0.04 mm from "Acrux").
 LEADER_WORD_GAP_MM = MARGIN_MM
+#: The reaches of those two rules for a point named loosely (place_labels'
+#: ``loose``): those kept until a teacher's review (#12), for a bright
+#: star that the wider ones leave unnamed (Rigil Kentaurus among the
+#: Centaur's and the Cross's dots at 23.5 S).
+LOOSE_BESIDE_OFFSETS = 1.5
+LOOSE_OVER_OFFSETS = 1.0
 #: A name with a leader keeps this many offsets (and :data:`NAME_GAP_MM`
 #: at least) from every other dot, so that it never reads as that dot's
 #: name (#9: Bellatrix's name, at the end of its leader, stood beside
@@ -203,7 +209,7 @@ def leader_ends(point, box, start_mm: float, gap_mm: float = MARGIN_MM):
 
 
 def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), inside_radius_mm=None,
-                 keep_out_rings=(), *, measure, leaders_from_mm=None, own_boxes=None, marks=()):
+                 keep_out_rings=(), *, measure, leaders_from_mm=None, own_boxes=None, marks=(), loose=()):
     """For each point (in order of importance) the (at, anchor) of its
     label: right, left, above, below the point or at a corner, at the
     offset or (when those are taken) farther out, the first of these whose
@@ -238,7 +244,10 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
     the ``marks`` (boxes kept out, such as the pin's crosshair: a leader
     from it would cross the mark) reads its name alone out to the
     farthest near place, :data:`NEAR_FIRST`'s last, beside the mark
-    (#12: Polaris, under the pin of a northern A5 rete, had no name)."""
+    (#12: Polaris, under the pin of a northern A5 rete, had no name).
+    The points of ``loose`` (indices) keep other dots only
+    :data:`LOOSE_BESIDE_OFFSETS` and :data:`LOOSE_OVER_OFFSETS` from their
+    names' ends and middles: a bright star named so rather than not at all."""
     with_leaders = leaders_from_mm is not None
     reaches = NEAR_FIRST + (WITH_LEADER if with_leaders else ())
     chosen = {}   # point index -> (at, anchor, box, leader)
@@ -259,6 +268,8 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
     # how far out each point's name reads alone: farther for one under a mark
     alone = [NEAR_FIRST[-1] if any(_box_gap_mm(m, p, 0.0) == 0.0 for m in marks) else ALONE_REACH for p in points]
     slack = SEARCH_SLACK_MM
+    beside_mm = [(LOOSE_BESIDE_OFFSETS if j in loose else BESIDE_OFFSETS) * offset_mm for j in range(len(points))]
+    over_mm = [(LOOSE_OVER_OFFSETS if j in loose else OVER_OFFSETS) * offset_mm for j in range(len(points))]
 
     def put(k, c):
         chosen[k] = c
@@ -333,15 +344,14 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
                 continue
             if with_leaders:
                 if not needs_leader and not _once(memo, ("own", i), _nearest_own, box, k, points, leaders_from_mm,
-                                                  dots, dot_mm, BESIDE_OFFSETS * offset_mm,
-                                                  OVER_OFFSETS * offset_mm):
+                                                  dots, dot_mm, beside_mm[k], over_mm[k]):
                     continue
                 # (the other dots first: that test is kept for the place,
                 # and turns down more places since the rule of dots past a
                 # name's ends, #12)
                 if needs_leader and _once(memo, ("beside", i), _beside_another, box, k, points, leaders_from_mm,
                                           max(offset_mm * LEADER_NAME_CLEAR, NAME_GAP_MM), dots, dot_mm,
-                                          BESIDE_OFFSETS * offset_mm, OVER_OFFSETS * offset_mm):
+                                          beside_mm[k], over_mm[k]):
                     continue
                 # (no leader chosen before passes between this label and
                 # its point, with a leader of its own or not)

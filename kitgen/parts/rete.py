@@ -36,6 +36,12 @@ from .ecliptic_points import ecliptic_points_mm
 NAME_CLEARANCE_MM = 0.1
 
 
+#: The faintest star (magnitude) named with the looser rule where the
+#: strict one leaves it unnamed: the first-magnitude stars a pupil looks
+#: for (common practice: "first magnitude" is 1.5 and brighter).
+LOOSE_MAG = 1.5
+
+
 def rete(ctx: PartContext) -> model.Part:
     s = ctx.hemisphere_sign
     d, w = ctx.dims, ctx.words
@@ -137,8 +143,8 @@ def rete(ctx: PartContext) -> model.Part:
     # labels' margin from it, as a plate's labels keep from their lines.
     edge_out = stroke_width_mm("heavy", d) / 2 + labels.MARGIN_MM
     edge_in = stroke_width_mm("light", d) / 2 + labels.MARGIN_MM
-    def place(texts):
-        return labels.place_labels(pts, texts, d.small_text_pt, d.tick_mm * 1.3,
+    def place(texts, loose=()):
+        return labels.place_labels(pts, texts, d.small_text_pt, d.tick_mm * 1.3, loose=loose,
                                    keep_out=[pin_box] + zodiac_boxes + dot_boxes,
                                    inside_radius_mm=d.outer_tropic_radius_mm - labels.MARGIN_MM,
                                    keep_out_rings=[(tuple(c), image.radius_mm - band - edge_in,
@@ -163,6 +169,15 @@ def rete(ctx: PartContext) -> model.Part:
     if broken != names:
         names = broken
         places = place(names)
+    # A first-magnitude star still unnamed is named with the looser rule of
+    # other dots near its name's ends (labels.LOOSE_BESIDE_OFFSETS) where
+    # that names more of the rete's stars (#12 review: Rigil Kentaurus at
+    # 23.5 S, the sky's third brightest star).
+    loose = [i for i, (where, k) in enumerate(zip(places, lead)) if where is None and stars[k].star.mag <= LOOSE_MAG]
+    if loose:
+        again = place(names, loose)
+        if sum(p is not None for p in again) > sum(p is not None for p in places):
+            places = again
     where_of = dict(zip(lead, places))
     for k, (placed, p) in enumerate(zip(stars, all_pts)):
         first = groups[k]
