@@ -209,7 +209,8 @@ def leader_ends(point, box, start_mm: float, gap_mm: float = MARGIN_MM):
 
 
 def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), inside_radius_mm=None,
-                 keep_out_rings=(), *, measure, leaders_from_mm=None, own_boxes=None, marks=(), loose=()):
+                 keep_out_rings=(), *, measure, leaders_from_mm=None, own_boxes=None, marks=(), loose=(),
+                 memo=None):
     """For each point (in order of importance) the (at, anchor) of its
     label: right, left, above, below the point or at a corner, at the
     offset or (when those are taken) farther out, the first of these whose
@@ -247,7 +248,12 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
     (#12: Polaris, under the pin of a northern A5 rete, had no name).
     The points of ``loose`` (indices) keep other dots only
     :data:`LOOSE_BESIDE_OFFSETS` and :data:`LOOSE_OVER_OFFSETS` from their
-    names' ends and middles: a bright star named so rather than not at all."""
+    names' ends and middles: a bright star named so rather than not at all.
+    ``memo``, a dict shared by calls that differ in ``texts`` and ``loose``
+    alone (a rete's names placed again, some of them shortened), keeps
+    each point's places and the tests of them that do not depend on what
+    is chosen, by (point, text, loosely), for the next call (#12): the
+    same places, found once."""
     with_leaders = leaders_from_mm is not None
     reaches = NEAR_FIRST + (WITH_LEADER if with_leaders else ())
     chosen = {}   # point index -> (at, anchor, box, leader)
@@ -288,7 +294,7 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
         return [item for j, item in grid.near(box, grow_mm).items() if j != k]
 
     kept_out = np.array(keep_out, dtype=float).reshape(-1, 4)
-    tried = {}   # point index -> its blocks of places found so far
+    tried = {} if memo is None else memo   # (point index, text, loosely) -> its blocks of places found so far
 
     def blocks_of(k):
         """Point k's places in the order tried, by blocks (each of
@@ -300,7 +306,7 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
         inside ``inside_radius_mm`` and off the rings kept out, reads as
         its point's, its leader, and whether that passes another dot or
         crosses a ring kept out."""
-        found = tried.setdefault(k, [])
+        found = tried.setdefault((k, texts[k], k in loose), [])
         for n, (some, needs_leader) in enumerate(_place_blocks(reaches, with_leaders, alone[k])):
             if n == len(found):
                 (x, y), text = points[k], texts[k]

@@ -143,8 +143,10 @@ def rete(ctx: PartContext) -> model.Part:
     # labels' margin from it, as a plate's labels keep from their lines.
     edge_out = stroke_width_mm("heavy", d) / 2 + labels.MARGIN_MM
     edge_in = stroke_width_mm("light", d) / 2 + labels.MARGIN_MM
+    tried = {}   # each name's places and their fixed tests, shared by the placings below (#12)
+
     def place(texts, loose=()):
-        return labels.place_labels(pts, texts, d.small_text_pt, d.tick_mm * 1.3, loose=loose,
+        return labels.place_labels(pts, texts, d.small_text_pt, d.tick_mm * 1.3, loose=loose, memo=tried,
                                    keep_out=[pin_box] + zodiac_boxes + dot_boxes,
                                    inside_radius_mm=d.outer_tropic_radius_mm - labels.MARGIN_MM,
                                    keep_out_rings=[(tuple(c), image.radius_mm - band - edge_in,
