@@ -3,8 +3,8 @@
 The rete places its names up to four times (a merged dot's names alone,
 names on two lines, a bright star named loosely); each placing after the
 first takes each name's places and their fixed tests from the one before
-(``place_labels``' ``memo``).  The reference is the rete placed without
-that memo, every placing from nothing: the same elements, value for value.
+(``place_labels``' ``kept``).  The reference is the rete placed without
+them, every placing from nothing: the same elements, value for value.
 """
 
 from __future__ import annotations
@@ -28,12 +28,12 @@ def _rete(head: str):
 
 @pytest.mark.parametrize("head", ["latitude: -23.5\nlanguage: pt\n", "latitude: -33.9\nsheet: a5\n",
                                   "latitude: 24.7\nlanguage: ar\n"])
-def test_the_same_rete_with_and_without_the_memo(head, monkeypatch):
+def test_the_same_rete_with_and_without_the_places_kept(head, monkeypatch):
     kept = _rete(head)
     place = labels.place_labels
 
-    def afresh(*args, memo=None, **kwargs):
-        return place(*args, memo=None, **kwargs)
+    def afresh(*args, kept=None, **kwargs):
+        return place(*args, kept=None, **kwargs)
 
     monkeypatch.setattr(labels, "place_labels", afresh)
     fresh = _rete(head)

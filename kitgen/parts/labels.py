@@ -210,7 +210,7 @@ def leader_ends(point, box, start_mm: float, gap_mm: float = MARGIN_MM):
 
 def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), inside_radius_mm=None,
                  keep_out_rings=(), *, measure, leaders_from_mm=None, own_boxes=None, marks=(), loose=(),
-                 memo=None):
+                 kept=None):
     """For each point (in order of importance) the (at, anchor) of its
     label: right, left, above, below the point or at a corner, at the
     offset or (when those are taken) farther out, the first of these whose
@@ -249,7 +249,7 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
     The points of ``loose`` (indices) keep other dots only
     :data:`LOOSE_BESIDE_OFFSETS` and :data:`LOOSE_OVER_OFFSETS` from their
     names' ends and middles: a bright star named so rather than not at all.
-    ``memo``, a dict shared by calls that differ in ``texts`` and ``loose``
+    ``kept``, a dict shared by calls that differ in ``texts`` and ``loose``
     alone (a rete's names placed again, some of them shortened), keeps
     each point's places and the tests of them that do not depend on what
     is chosen, by (point, text, loosely), for the next call (#12): the
@@ -274,6 +274,7 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
     # how far out each point's name reads alone: farther for one under a mark
     alone = [NEAR_FIRST[-1] if any(_box_gap_mm(m, p, 0.0) == 0.0 for m in marks) else ALONE_REACH for p in points]
     slack = SEARCH_SLACK_MM
+    loose = frozenset(loose)
     beside_mm = [(LOOSE_BESIDE_OFFSETS if j in loose else BESIDE_OFFSETS) * offset_mm for j in range(len(points))]
     over_mm = [(LOOSE_OVER_OFFSETS if j in loose else OVER_OFFSETS) * offset_mm for j in range(len(points))]
 
@@ -294,7 +295,7 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
         return [item for j, item in grid.near(box, grow_mm).items() if j != k]
 
     kept_out = np.array(keep_out, dtype=float).reshape(-1, 4)
-    tried = {} if memo is None else memo   # (point index, text, loosely) -> its blocks of places found so far
+    tried = {} if kept is None else kept   # (point index, text, loosely) -> its blocks of places found so far
 
     def blocks_of(k):
         """Point k's places in the order tried, by blocks (each of

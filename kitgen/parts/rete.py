@@ -146,7 +146,7 @@ def rete(ctx: PartContext) -> model.Part:
     tried = {}   # each name's places and their fixed tests, shared by the placings below (#12)
 
     def place(texts, loose=()):
-        return labels.place_labels(pts, texts, d.small_text_pt, d.tick_mm * 1.3, loose=loose, memo=tried,
+        return labels.place_labels(pts, texts, d.small_text_pt, d.tick_mm * 1.3, loose=loose, kept=tried,
                                    keep_out=[pin_box] + zodiac_boxes + dot_boxes,
                                    inside_radius_mm=d.outer_tropic_radius_mm - labels.MARGIN_MM,
                                    keep_out_rings=[(tuple(c), image.radius_mm - band - edge_in,

@@ -162,10 +162,11 @@ def select_stars(names: Sequence[str], brightest: int | None, magnitude_limit: f
         pool = list(named_stars())
         ok = _fitting(pool, epoch_year, fits)
         fitting = [s for s, inside in zip(pool, ok) if inside]
-        chosen = fitting[: max(0, int(brightest))]
+        n = max(0, int(brightest))
+        chosen, fainter = fitting[:n], fitting[n:]
         pole = find_star(POLE_STAR) if pole_star else None
-        if pole is not None and pole in fitting and pole not in chosen:
-            chosen = [s for s in fitting if s in chosen or s is pole]   # the catalogue's order: brightest first
+        if pole is not None and pole in fainter:   # after the N brightest: still brightest first
+            chosen.append(pole)
         return chosen
     if magnitude_limit is not None:
         pool = [s for s in catalogue() if s.mag <= magnitude_limit]
