@@ -22,6 +22,7 @@ from .parts.dimensions import Dimensions, dimensions
 from .parts.legibility import plan_scales, shortened_notes
 from .parts.owner import ADD_OWNER, plate_owner, plate_slot
 from .parts.rete import rim_notes
+from .parts.reuse import reused_or_drawn
 from .plan.model import Plan
 from .plan.resolve import plan_kit, site_notes
 from .recipe.schema import Recipe
@@ -212,11 +213,11 @@ def _sizes(plan: Plan) -> tuple[Dimensions, dict]:
 
 
 def _draw(plan: Plan, dims: Dimensions, scales: dict, kind: str, plate=None) -> Part:
-    """One part of the nameless kit, with its id."""
-    if plate is None:
-        return replace(on_material(PART_BUILDERS[kind](PartContext(plan, dims, scales[""])), plan), id=part_id(kind))
-    ctx = PartContext(plan, dims, scales[plate.id], plate)
-    return replace(on_material(PART_BUILDERS[kind](ctx), plan), id=plate.id)
+    """One part of the nameless kit, with its id: drawn, or the same part
+    kept from another plan that draws it the same (kitgen.parts.reuse)."""
+    ctx = PartContext(plan, dims, scales[""] if plate is None else scales[plate.id], plate)
+    part = reused_or_drawn(kind, ctx, PART_BUILDERS[kind])
+    return replace(on_material(part, plan), id=part_id(kind) if plate is None else plate.id)
 
 
 def school_of(recipe: Recipe) -> Recipe:

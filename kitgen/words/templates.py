@@ -77,6 +77,14 @@ class Words:
         self._numbers: dict[tuple, str] = {}
         self._joins = _joins(contractions or {})
 
+    def same_as(self, other: "Words") -> bool:
+        """Whether ``other`` writes every word as these do: the same
+        language, digits, templates, star names and contractions (a part
+        drawn with one is the same drawn with the other, kitgen.parts.reuse)."""
+        return (self is other or (self.language == other.language and self.native_digits == other.native_digits
+                                  and self._table == other._table and self._stars == other._stars
+                                  and self._joins == other._joins))
+
     def __call__(self, key: str, **values) -> str:
         try:
             template = self._table[key]
