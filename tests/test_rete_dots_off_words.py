@@ -164,8 +164,8 @@ LEADER_NAME_FROM_OTHER_DOTS_MM = 1.0
 #: No other dot stands level with a name, with a leader or without, within this
 #: many label offsets beyond either end of it (a choice, as above).
 BESIDE_OFFSETS = 2.0
-#: Nor within this many offsets over or under the middle half of its words
-#: (a choice, as above).
+#: Nor within this many offsets over or under its words (a choice, as
+#: above).
 OVER_OFFSETS = 1.5
 #: A first-magnitude star (1.5 and brighter), which the strict reaches
 #: above would leave unnamed, may be named keeping other dots only these
@@ -198,6 +198,7 @@ NAME_GAP_ALONG_MM = 2.0
     "latitude: 24.7\nlanguage: ar\n",               # Dubhe's dot had stood past "Castor" and "Pollux"
     "latitude: -23.5\nlanguage: pt\nsheet: a5\n",   # Betelgeuse's at the tops of the letters past "Alnilam"
     "latitude: 0.5\nsheet: letter\n",
+    "latitude: 40\nlanguage: de\n",               # Saiph's dot over the end of "Alnitak"
 ])
 def test_each_name_reads_as_its_own_stars(head):
     """Each star's name stands within ALONE_OFFSETS of its own dot and
@@ -262,9 +263,10 @@ def _reads_as_its(dot, box, offset_mm: float, loose: bool = False) -> bool:
     rete), or past an end and over or under the line within BESIDE_OFFSETS
     of that end's nearer corner (#12 review: Dubhe's dot 2.2 mm past the
     ends of "Castor" and "Pollux", between their lines, on an Arabic
-    rete), or over or under the middle half of the words within
-    OVER_OFFSETS (#12: at 33.9 S on A4 Miaplacidus's name, at the end of
-    its leader, stood 1.3 mm over Canopus's dot)."""
+    rete), or over or under the words within OVER_OFFSETS (#12: at 33.9 S
+    on A4 Miaplacidus's name, at the end of its leader, stood 1.3 mm over
+    Canopus's dot; at 40 N Saiph's dot 1.5 mm over the last letters of
+    "Alnitak")."""
     (x, y), r = dot.geom["at"], dot.values["radius_mm"]
     beside = (LOOSE_BESIDE_OFFSETS if loose else BESIDE_OFFSETS) * offset_mm
     over = (LOOSE_OVER_OFFSETS if loose else OVER_OFFSETS) * offset_mm
@@ -275,8 +277,7 @@ def _reads_as_its(dot, box, offset_mm: float, loose: bool = False) -> bool:
     if beyond > 0:   # past an end and over or under the line: the disc's distance to that end of the box
         corner = (min(xs) if x < min(xs) else max(xs), min(ys) if y < min(ys) else max(ys))
         return math.dist((x, y), corner) - r < beside - 1e-6
-    middle, quarter = (min(xs) + max(xs)) / 2, (max(xs) - min(xs)) / 4
-    return abs(x - middle) <= quarter + r and max(min(ys) - y, y - max(ys)) - r < over - 1e-6
+    return max(min(ys) - y, y - max(ys)) - r < over - 1e-6
 
 
 def _cross(p, q, a, b) -> bool:

@@ -119,9 +119,10 @@ NEARER_BY_MM = 0.5
 #: point's name first (#12; 1.5 until a teacher's review found dots 2.2 to
 #: 2.8 mm past names' ends on A4 read as theirs) ...
 BESIDE_OFFSETS = 2.0
-#: ... nor within this many offsets over or under the middle of its
-#: words, where a reader looks next (#12; 1.0 until the same review found
-#: Alioth's dot 2.3 mm under the middle of Dubhe's name).
+#: ... nor within this many offsets over or under its words, where a
+#: reader looks next (#12; 1.0 until the same review found Alioth's dot
+#: 2.3 mm under the middle of Dubhe's name; the middle half only until the
+#: last found Saiph's 1.5 mm over the last letters of "Alnitak").
 OVER_OFFSETS = 1.5
 #: Paper (mm) a leader keeps from every word but its own name and from
 #: every box kept out, the labels' margin: a leader that grazes a word
@@ -230,11 +231,11 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
     within :data:`ALONE_REACH` offsets of its point and nearer its own dot
     than any other point's, by :data:`NEARER_BY_MM`, with no other dot
     level with it within :data:`BESIDE_OFFSETS` offsets of its ends, nor
-    over or under its middle within :data:`OVER_OFFSETS`; every other place,
+    over or under its words within :data:`OVER_OFFSETS`; every other place,
     near or far, takes a leader, keeps :data:`LEADER_NAME_CLEAR` offsets
     (and :data:`NAME_GAP_MM` at least) from every other dot, has none
     level with it within :data:`BESIDE_OFFSETS` offsets of its ends nor
-    over or under its middle within :data:`OVER_OFFSETS`, and its
+    over or under its words within :data:`OVER_OFFSETS`, and its
     leader crosses no other leader and keeps :data:`LEADER_CLEAR_MM` from
     every other dot.  Labels keep :data:`NAME_GAP_MM` from each other
     (:data:`NAME_GAP_ALONG_MM` along the line side by side), no
@@ -591,18 +592,17 @@ def _reads_as_its(box, point, radius_mm: float, beside_mm: float, over_mm: float
     end as ``beside_mm`` (#12 review: Dubhe's dot between the lines of
     "Castor" and "Pollux", 2.2 mm past their ends; Betelgeuse's at the
     tops of the letters, 2.1 mm past "Alnilam"), or under or over the
-    middle half of the words within
-    ``over_mm`` (#12: on a southern A4 rete at 33.9 S the name of
-    Miaplacidus, at the end of its leader, stood 1.3 mm over Canopus's
-    dot)."""
+    words within ``over_mm`` (#12: on a southern A4 rete at 33.9 S the
+    name of Miaplacidus, at the end of its leader, stood 1.3 mm over
+    Canopus's dot; at 40 N Saiph's dot 1.5 mm over the end of
+    "Alnitak")."""
     x, y = point
     beyond = max(box[0] - x, x - box[2])   # past the nearer end (negative: within the words' run)
     if box[1] - radius_mm <= y <= box[3] + radius_mm:
         return beyond - radius_mm < beside_mm
     if beyond > 0.0:   # past an end, over or under the line: as near that end in any direction
         return math.hypot(beyond, max(box[1] - y, y - box[3])) - radius_mm < beside_mm
-    middle, quarter = (box[0] + box[2]) / 2, (box[2] - box[0]) / 4
-    return abs(x - middle) <= quarter + radius_mm and max(box[1] - y, y - box[3]) - radius_mm < over_mm
+    return max(box[1] - y, y - box[3]) - radius_mm < over_mm
 
 
 def _segments_cross(p, q, a, b) -> bool:

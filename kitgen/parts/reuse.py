@@ -27,6 +27,7 @@ from __future__ import annotations
 import dataclasses
 import itertools
 import math
+import threading
 
 import numpy as np
 
@@ -39,6 +40,7 @@ KEPT_PER_KIND = 4
 #: By kind: (the values read, each with its path from the context; the part), the oldest first.
 _KEPT: dict[str, dict] = {}
 _COUNT = itertools.count()
+_LOCK = threading.Lock()
 
 
 def reused_or_drawn(kind: str, ctx, build):
@@ -46,19 +48,22 @@ def reused_or_drawn(kind: str, ctx, build):
     context (kitgen.parts.context.PartContext) in which every value that
     ``build`` read (of its plan, dimensions, scales and plate) is the same
     as in ``ctx`` (:func:`_same`)."""
-    kept = _KEPT.setdefault(kind, {})
-    for reads, part in reversed(kept.values()):
+    with _LOCK:   # the web page's builds may run in threads
+        kept = list(_KEPT.setdefault(kind, {}).values())
+    for reads, part in reversed(kept):
         if all(_same(value, _read(ctx, path)) for path, value in reads):
             return part
     reading = _Reading(ctx, (), {})
     part = build(reading)
-    keep_last(kept, next(_COUNT), (tuple(reading.reads.items()), part), KEPT_PER_KIND)
+    with _LOCK:
+        keep_last(_KEPT.setdefault(kind, {}), next(_COUNT), (tuple(reading.reads.items()), part), KEPT_PER_KIND)
     return part
 
 
 def let_go() -> None:
     """Forget every kept part (the tests' fresh start)."""
-    _KEPT.clear()
+    with _LOCK:
+        _KEPT.clear()
 
 
 class _Reading:
