@@ -24,7 +24,7 @@ from ..sky.stars import POLE_STAR
 from ..words.fit import line_offsets_mm
 from ..words.measure import Extent
 from ..words.symbols import ZODIAC_SIGNS
-from . import band_words, curves, labels, legibility
+from . import band_words, breaks, curves, labels, legibility
 from .ring_numbers import NUMBERED_TICK, SHORT_TICK, SIGN_NUMBERS_DEG, names_from_edge_mm, number_row
 from .context import PartContext
 from .ecliptic_points import ecliptic_points_mm
@@ -40,6 +40,25 @@ NAME_CLEARANCE_MM = 0.1
 #: strict one leaves it unnamed: the first-magnitude stars a pupil looks
 #: for (common practice: "first magnitude" is 1.5 and brighter).
 LOOSE_MAG = 1.5
+
+
+def _ecliptic_round_dots(els: list, center, radius_mm: float, dots, d) -> list:
+    """The rete's elements with the ecliptic's heavy line broken round
+    every star's dot (centre in mm, radius in mm) that lies on its ink,
+    with the labels' margin of film between the dot and the line's ends
+    (#12 review: Regulus, half a degree off the ecliptic, was lost in the
+    line on A5; a chart's lines stop short of a star, common practice).
+    Each piece keeps the ecliptic's role, centre and radius."""
+    half = stroke_width_mm("heavy", d) / 2
+    cuts = []
+    for (x, y), r in dots:
+        if abs(math.hypot(x - center[0], y - center[1]) - radius_mm) < r + half + labels.MARGIN_MM:
+            along = math.atan2(y - center[1], x - center[0]) + math.pi / 2   # the line's direction there
+            reach = r + labels.MARGIN_MM + half
+            cuts.append(breaks.Box((float(x), float(y)), along, reach, reach))
+    if not cuts:
+        return els
+    return [piece for el in els for piece in (breaks.break_element(el, cuts) if el.role == "ecliptic" else [el])]
 
 
 def rete(ctx: PartContext) -> model.Part:
@@ -121,6 +140,7 @@ def rete(ctx: PartContext) -> model.Part:
     radii = dot_radii_mm(all_pts, [star_radius_mm(st.star.mag, d) for st in stars], groups)
     lead = [k for k in range(len(stars)) if groups[k] == k]
     pts = [all_pts[k] for k in lead]
+    els = _ecliptic_round_dots(els, tuple(c), image.radius_mm, [(q, radii[k]) for k, q in zip(lead, pts)], d)
     sep = w("page.list_separator")
     names = [sep.join(w.star_name(stars[j].star.label) for j in range(len(stars)) if groups[j] == k) for k in lead]
     # A word of the band on a star's dot slides along the band (#9); a

@@ -130,7 +130,8 @@ def _read(ctx, path: tuple):
     return value
 
 
-#: What a path that leads nowhere reads as: the same as no value read.
+#: What a path that leads nowhere (through a None) reads as: :func:`_same`
+#: takes no value read for it.
 _NONE = object()
 
 
