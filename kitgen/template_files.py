@@ -16,6 +16,10 @@ import yaml
 
 #: A section of optional local star names (IAU name -> local name).
 STAR_NAMES = "star_names"
+#: A section of a shipped template's optional short star names (IAU name
+#: -> the local name's customary short form, "Rigil Kent"), set where the
+#: whole name finds no room on the rete (kitgen.parts.rete).
+STAR_SHORT_NAMES = "star_short_names"
 #: A section of a shipped template's optional contractions: a preposition
 #: of its text and the article a name put after it begins with, as they
 #: join (French "à" and "Le Havre": "au Havre"), kitgen.words.templates.
@@ -55,6 +59,12 @@ def shipped_contractions(language: str) -> dict[str, str]:
     return {str(k): str(v) for k, v in (shipped_tree(language).get(CONTRACTIONS) or {}).items()}
 
 
+def shipped_short_star_names(language: str) -> dict[str, str]:
+    """The shipped template's :data:`STAR_SHORT_NAMES`: ``{"Rigil
+    Kentaurus": "Rigil Kent"}``; a recipe's own language file has none."""
+    return {str(k): str(v) for k, v in (shipped_tree(language).get(STAR_SHORT_NAMES) or {}).items()}
+
+
 def flatten(tree, prefix: str = "") -> dict:
     """``{"a": {"b": "x"}}`` as ``{"a.b": "x"}``; lists kept as lists of text."""
     out = {}
@@ -74,6 +84,7 @@ def split_tree(tree: dict) -> tuple[dict, dict]:
     tree = dict(tree)
     stars = tree.pop(STAR_NAMES, None) or {}
     tree.pop(CONTRACTIONS, None)   # not words of their own (shipped_contractions)
+    tree.pop(STAR_SHORT_NAMES, None)   # nor these (shipped_short_star_names)
     return flatten(tree), {str(k): str(v) for k, v in stars.items()}
 
 

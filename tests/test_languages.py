@@ -49,7 +49,7 @@ def _tree(code):
 def _flat(tree, prefix=""):
     out = {}
     for k, v in tree.items():
-        if k in ("star_names", "contractions") and not prefix:   # optional sections, not words by key
+        if k in ("star_names", "star_short_names", "contractions") and not prefix:   # optional sections, not words by key
             continue
         if isinstance(v, dict):
             out.update(_flat(v, f"{prefix}{k}."))

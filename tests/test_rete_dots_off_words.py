@@ -331,14 +331,20 @@ def name_boxes(rete, words) -> dict:
 def test_a_long_name_on_two_lines_is_its_words_in_order(kit):
     """A name set on two lines (#12: where it had no room on one) is its
     words in order, a line each, the lines one above the other with the
-    same anchor, each carrying the whole name."""
+    same anchor, each carrying the whole name; or, where the template
+    gives the name a customary short form ("Rigil Kent"), the short form's
+    words, each line carrying the whole name it stands for."""
     lines: dict = {}
+    w = kit.words
     for e in kit.part("rete").elements:
         if e.role == "star_label":
             lines.setdefault(e.values["name"], []).append(e)
     for name, got in lines.items():
         if len(got) > 1:
-            assert len(got) == 2 and " ".join(e.geom["text"] for e in got) == got[0].values["full_text"]
+            said = " ".join(e.geom["text"] for e in got)
+            assert len(got) == 2 and all(e.values["full_text"] == got[0].values["full_text"] for e in got)
+            assert said == got[0].values["full_text"] or (said == w.star_short_name(name)
+                                                           and got[0].values["full_text"] == w.star_name(name))
             assert got[0].geom["at"][0] == got[1].geom["at"][0] and got[0].geom["at"][1] > got[1].geom["at"][1]
             assert got[0].geom["anchor"] == got[1].geom["anchor"]
 
@@ -470,6 +476,28 @@ def test_the_brightest_stars_are_named_on_a4(head):
     assert [n for n in bright if n not in named] == []
 
 
+@pytest.mark.parametrize("head", ["latitude: -10\nsheet: a5\n", "latitude: -23.5\nsheet: a5\nlanguage: pt\n",
+                                  "latitude: -33.9\nsheet: a5\nlanguage: de\n", "latitude: -40\nsheet: a5\nlanguage: es\n",
+                                  "latitude: -23.5\nsheet: a5\nlanguage: ar\n"])
+def test_rigil_kentaurus_is_named_on_a_southern_a5_rete(head):
+    """Rigil Kentaurus, the third brightest star of the sky (with Toliman
+    one dot; magnitude -0.01 in the shipped Hipparcos catalogue, as
+    PyEphem's star list gives it), is named on a southern A5 rete, in its
+    customary short form where the whole name finds no room among the
+    south polar stars ("Rigil Kent", common usage; the template's
+    ``star_short_names``), the label keeping the whole name as its
+    ``full_text`` (#12: it went unnamed on every southern A5 rete)."""
+    kit = build_kit(parse_recipe_text("epoch: 2027\n" + head + "parts: [rete]\n"))
+    rete, w = kit.part("rete"), kit.words
+    label = [e for e in rete.elements if e.role == "star_label" and e.values["name"] == "Rigil Kentaurus"]
+    assert label, "Rigil Kentaurus unnamed"
+    text = " ".join(e.geom["text"] for e in label)
+    whole = w.star_name("Rigil Kentaurus")
+    assert text in (whole, w.star_short_name("Rigil Kentaurus"))
+    if text != whole:
+        assert all(e.values["full_text"] == whole for e in label)
+
+
 @pytest.mark.parametrize("head", KITS + ["latitude: 52\nsheet: a5\n", "latitude: 40\nlanguage: de\n",
                                          "latitude: 0.5\nlanguage: es\n"])
 def test_no_dot_is_lost_in_the_ecliptics_line(head):
@@ -505,3 +533,22 @@ def test_no_dot_is_lost_in_the_ecliptics_line(head):
     assert not lost
     if any(e.values["name"] == "Regulus" for e in rete.elements if e.role == "star" and e.stroke != "none"):
         assert len(pieces) >= 2 or pieces[0].shape == "arc"   # the line broken where Regulus lies on it
+    # The ticks at a dot on the line: none runs into the dot (one that did
+    # starts beyond it, the margin off), and none but a sign's bound
+    # starts in the gap away from both the line and the dot, floating.
+    (cx, cy), r_ecl = pieces[0].geom["center"], pieces[0].geom["radius"]
+    whole = Point(cx, cy).buffer(r_ecl + half, 4096).difference(Point(cx, cy).buffer(r_ecl - half, 4096))
+    on_line = [(Point(*e.geom["at"]).buffer(e.values["radius_mm"], 64), e.values["name"])
+               for e in rete.elements if e.role == "star" and e.stroke != "none"
+               and whole.distance(Point(*e.geom["at"]).buffer(e.values["radius_mm"], 64)) < MARGIN_MM]
+    bad = []
+    for tick in (e for e in rete.elements if e.role == "ecliptic_tick" and e.stroke != "none"):
+        line = LineString([tuple(tick.geom["from"]), tuple(tick.geom["to"])])
+        foot = Point(*tick.geom["from"])
+        for disc, name in on_line:
+            if line.distance(disc) < MARGIN_MM - 0.02:
+                bad.append((name, tick.values["longitude_deg"], "runs into the dot"))
+        if tick.values["longitude_deg"] % 30 and min(ink.distance(foot) for ink in inks) > 0.02 \
+                and all(disc.distance(foot) > MARGIN_MM + 0.02 for disc, _ in on_line):
+            bad.append((tick.values["longitude_deg"], "floats"))
+    assert not bad

@@ -11,6 +11,7 @@ does not keep angles about that centre).
 from __future__ import annotations
 
 import math
+from dataclasses import replace
 
 import numpy as np
 
@@ -44,21 +45,65 @@ LOOSE_MAG = 1.5
 
 def _ecliptic_round_dots(els: list, center, radius_mm: float, dots, d) -> list:
     """The rete's elements with the ecliptic's heavy line broken round
-    every star's dot (centre in mm, radius in mm) that lies on its ink,
-    with the labels' margin of film between the dot and the line's ends
-    (#12 review: Regulus, half a degree off the ecliptic, was lost in the
-    line on A5; a chart's lines stop short of a star, common practice).
-    Each piece keeps the ecliptic's role, centre and radius."""
+    every star's dot (centre in mm, radius in mm) that meets its ink, with
+    the labels' margin of film between the dot and the line's ends (#12
+    review: Regulus, half a degree off the ecliptic, was lost in the line
+    on A5; a chart's lines stop short of a star, common practice).  Each
+    piece keeps the ecliptic's role, centre and radius.  A tick that runs
+    into such a dot starts beyond it, the margin off; one whose foot is in
+    the gap and that misses the dot is not drawn (it would float in the
+    gap), unless it bounds a sign; a tick too short for a line's least
+    piece (breaks.MIN_PIECE_MM) once cut is not drawn either.  Undrawn
+    ticks keep their element and ``at``, as the legibility pass leaves
+    them."""
     half = stroke_width_mm("heavy", d) / 2
-    cuts = []
+    margin = labels.MARGIN_MM
+    cuts, on_line = [], []
     for (x, y), r in dots:
-        if abs(math.hypot(x - center[0], y - center[1]) - radius_mm) < r + half + labels.MARGIN_MM:
+        if abs(math.hypot(x - center[0], y - center[1]) - radius_mm) < r + half + margin:
             along = math.atan2(y - center[1], x - center[0]) + math.pi / 2   # the line's direction there
-            reach = r + labels.MARGIN_MM + half
+            reach = r + margin + half
             cuts.append(breaks.Box((float(x), float(y)), along, reach, reach))
+            on_line.append(((float(x), float(y)), r + margin))
     if not cuts:
         return els
-    return [piece for el in els for piece in (breaks.break_element(el, cuts) if el.role == "ecliptic" else [el])]
+    out = []
+    for el in els:
+        if el.role == "ecliptic":
+            out += breaks.break_element(el, cuts)
+        elif el.role == "ecliptic_tick" and el.stroke != "none":
+            out.append(_tick_clear_of(el, cuts, on_line))
+        else:
+            out.append(el)
+    return out
+
+
+def _tick_clear_of(tick, cuts, discs):
+    """An ecliptic tick started beyond any of the ``discs`` ((centre,
+    radius) in mm) it runs into from its foot, or not drawn where its foot
+    lies in a gap of ``cuts`` and it meets no disc (see
+    :func:`_ecliptic_round_dots`)."""
+    foot, tip = tick.geom["from"], tick.geom["to"]
+    length = math.dist(foot, tip)
+    ux, uy = (tip[0] - foot[0]) / length, (tip[1] - foot[1]) / length
+    start = 0.0
+    for (cx, cy), r in discs:
+        # where the line from the foot leaves the disc: t^2 + 2 b t + c = 0
+        fx, fy = foot[0] - cx, foot[1] - cy
+        b, c = fx * ux + fy * uy, fx * fx + fy * fy - r * r
+        if b * b - c > 0.0:
+            out = -b + math.sqrt(b * b - c)
+            if out > 0.0 and -b - math.sqrt(b * b - c) < length:
+                start = max(start, out)
+    if start == 0.0:
+        in_gap = any(box.contains(*foot) for box in cuts)
+        if in_gap and tick.values["longitude_deg"] % 30:
+            return replace(tick, stroke="none")
+        return tick
+    if length - start < breaks.MIN_PIECE_MM:
+        return replace(tick, stroke="none")
+    moved = (foot[0] + ux * start, foot[1] + uy * start)
+    return model.segment(tick.role, moved, tip, tick.stroke, **tick.values)
 
 
 def rete(ctx: PartContext) -> model.Part:
@@ -175,6 +220,7 @@ def rete(ctx: PartContext) -> model.Part:
                                    leaders_from_mm=[radii[k] for k in lead], own_boxes=dot_boxes, marks=[pin_box])
 
     places = place(names)
+    joined = list(names)   # each dot's names, all of them
     # A dot of several stars with no room for all their names is named
     # for its brightest alone (Rigil Kentaurus near the southern pole).
     alone = [w.star_name(stars[k].star.label) for k in lead]
@@ -191,6 +237,20 @@ def rete(ctx: PartContext) -> model.Part:
     if broken != names:
         names = broken
         places = place(names)
+    # A name still without a place is set in its customary short form
+    # where the language has one, on one line, then on two (#12: "Rigil
+    # Kentaurus", on two lines too, found no room among the south polar
+    # stars of any southern A5 rete; "Rigil" over "Kent" does).
+    short = [w.star_short_name(stars[k].star.label) for k in lead]
+    shortened = [cut if where is None and cut else name for where, name, cut in zip(places, names, short)]
+    if shortened != names:
+        names = shortened
+        places = place(names)
+        broken = [_in_two_lines(w, name, d.small_text_pt) if where is None and name == cut else name
+                  for where, name, cut in zip(places, names, short)]
+        if broken != names:
+            names = broken
+            places = place(names)
     # A first-magnitude star still unnamed is named with the looser rule of
     # other dots near its name's ends (labels.LOOSE_BESIDE_OFFSETS) where
     # that names more of the rete's stars (#12 review: Rigil Kentaurus at
@@ -213,18 +273,23 @@ def rete(ctx: PartContext) -> model.Part:
         where = where_of.get(k)
         if first == k and where is not None:
             at, anchor, leader = where
-            text = names[lead.index(k)]
+            i = lead.index(k)
+            text = names[i]
             whole = text.replace("\n", " ")   # a name set on two lines (_in_two_lines)
-            names_k = [placed.star.label] + (together if whole != alone[lead.index(k)] else [])
+            names_k = [placed.star.label] + (together if whole == joined[i] != alone[i] else [])
             more = {"names": names_k} if len(names_k) > 1 else {}
             lines = text.split("\n")
+            # the whole label, as kitgen.parts.labels.fitted_text keeps it: the name a short form stands for
+            full = alone[i] if whole == short[i] != alone[i] else whole
             if len(lines) == 1:
+                if full != text:
+                    more["full_text"] = full
                 els.append(model.text("star_label", at, text, d.small_text_pt, anchor=anchor,
                                       name=placed.star.label, **more))
             else:   # each line an element, as kitgen.parts.labels.fitted_text sets them
                 for line, off in zip(lines, _line_offsets_mm(w, lines, d.small_text_pt)):
                     els.append(model.text("star_label", (at[0], at[1] + off), line, d.small_text_pt, anchor=anchor,
-                                          name=placed.star.label, full_text=whole, **more))
+                                          name=placed.star.label, full_text=full, **more))
             if leader is not None:
                 els.append(model.segment("star_leader", leader[0], leader[1], "fine", name=placed.star.label))
     els.append(model.point("pin", (0.0, 0.0), hole="centre"))

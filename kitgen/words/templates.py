@@ -17,7 +17,8 @@ import string
 import unicodedata
 
 from ..errors import Message, UserError, few
-from ..template_files import STAR_NAMES, available_languages, shipped_contractions, shipped_tree
+from ..template_files import (STAR_NAMES, STAR_SHORT_NAMES, available_languages, shipped_contractions,
+                              shipped_short_star_names, shipped_tree)
 from ..template_files import split_tree as _split
 from . import fonts, locale
 from .fit import Fitted, fit_label
@@ -65,7 +66,7 @@ class Words:
     numbers by :meth:`number`; text sizes by :meth:`measure`."""
 
     def __init__(self, language: str, table: dict, star_names: dict | None = None, native_digits: bool = False,
-                 contractions: dict | None = None):
+                 contractions: dict | None = None, short_star_names: dict | None = None):
         self.language = language
         self.native_digits = bool(native_digits)
         self.script = locale.script(language)
@@ -74,6 +75,7 @@ class Words:
         self._table["calendar.months"] = locale.month_names(language)
         self._table["calendar.months_short"] = locale.month_names(language, "abbreviated")
         self._stars = dict(star_names or {})
+        self._short_stars = dict(short_star_names or {})
         self._numbers: dict[tuple, str] = {}
         self._joins = _joins(contractions or {})
 
@@ -83,7 +85,7 @@ class Words:
         drawn with one is the same drawn with the other, kitgen.parts.reuse)."""
         return (self is other or (self.language == other.language and self.native_digits == other.native_digits
                                   and self._table == other._table and self._stars == other._stars
-                                  and self._joins == other._joins))
+                                  and self._short_stars == other._short_stars and self._joins == other._joins))
 
     def __call__(self, key: str, **values) -> str:
         try:
@@ -154,6 +156,8 @@ class Words:
                 yield key, v
         for name, local in self._stars.items():
             yield f"{STAR_NAMES}.{name}", local
+        for name, short in self._short_stars.items():
+            yield f"{STAR_SHORT_NAMES}.{name}", short
 
     def number(self, value: float, decimals: int = 0) -> str:
         """A number as this language writes it: the CLDR decimal sign and,
@@ -171,6 +175,11 @@ class Words:
     def star_name(self, iau_name: str) -> str:
         """A star's name: the template's local name, else the IAU name."""
         return self._stars.get(iau_name, iau_name)
+
+    def star_short_name(self, iau_name: str) -> str | None:
+        """The customary short form of a star's name ("Rigil Kent"), where
+        the template gives one; else None."""
+        return self._short_stars.get(iau_name)
 
     def faces(self, style: str = "label"):
         return fonts.stack(self.script, style)
@@ -199,7 +208,8 @@ def load_words(language: str, native_digits: bool = False) -> Words:
     if language not in available_languages():
         raise UserError("errors.unknown_language_code", value=repr(language), codes=available_languages())
     table, stars = _split(shipped_tree(language))
-    return Words(language, table, stars, native_digits, shipped_contractions(language))
+    return Words(language, table, stars, native_digits, shipped_contractions(language),
+                 shipped_short_star_names(language))
 
 
 def words_from_tree(tree: dict, native_digits: bool = False) -> Words:
