@@ -45,65 +45,76 @@ LOOSE_MAG = 1.5
 
 def _ecliptic_round_dots(els: list, center, radius_mm: float, dots, d) -> list:
     """The rete's elements with the ecliptic's heavy line broken round
-    every star's dot (centre in mm, radius in mm) that meets its ink, with
-    the labels' margin of film between the dot and the line's ends (#12
-    review: Regulus, half a degree off the ecliptic, was lost in the line
-    on A5; a chart's lines stop short of a star, common practice).  Each
-    piece keeps the ecliptic's role, centre and radius.  A tick that runs
-    into such a dot starts beyond it, the margin off; one whose foot is in
-    the gap and that misses the dot is not drawn (it would float in the
-    gap), unless it bounds a sign; a tick too short for a line's least
-    piece (breaks.MIN_PIECE_MM) once cut is not drawn either.  Undrawn
-    ticks keep their element and ``at``, as the legibility pass leaves
-    them."""
+    every star's dot (centre in mm, radius in mm) that comes within the
+    labels' margin of its ink, with that margin of film between the dot
+    and the line's ends (#12 review: Regulus, half a degree off the
+    ecliptic, was lost in the line on A5; a chart's lines stop short of a
+    star, common practice).  Each piece keeps the ecliptic's role, centre
+    and radius.  No tick runs into a dot (:func:`_tick_clear_of`)."""
     half = stroke_width_mm("heavy", d) / 2
     margin = labels.MARGIN_MM
-    cuts, on_line = [], []
+    cuts = []
     for (x, y), r in dots:
         if abs(math.hypot(x - center[0], y - center[1]) - radius_mm) < r + half + margin:
             along = math.atan2(y - center[1], x - center[0]) + math.pi / 2   # the line's direction there
             reach = r + margin + half
             cuts.append(breaks.Box((float(x), float(y)), along, reach, reach))
-            on_line.append(((float(x), float(y)), r + margin))
-    if not cuts:
-        return els
+    discs = [((float(x), float(y)), r + margin) for (x, y), r in dots]
     out = []
     for el in els:
-        if el.role == "ecliptic":
+        if el.role == "ecliptic" and cuts:
             out += breaks.break_element(el, cuts)
         elif el.role == "ecliptic_tick" and el.stroke != "none":
-            out.append(_tick_clear_of(el, cuts, on_line))
+            out.append(_tick_clear_of(el, cuts, discs))
         else:
             out.append(el)
     return out
 
 
+#: The shortest piece (mm) of a tick cut short at a star's dot that is
+#: still drawn, from its foot on the ecliptic: a mark of its degree.
+MIN_TICK_MM = 0.5
+
+
 def _tick_clear_of(tick, cuts, discs):
-    """An ecliptic tick started beyond any of the ``discs`` ((centre,
-    radius) in mm) it runs into from its foot, or not drawn where its foot
-    lies in a gap of ``cuts`` and it meets no disc (see
-    :func:`_ecliptic_round_dots`)."""
+    """An ecliptic tick kept off every disc of ``discs`` ((centre, radius)
+    in mm: the dots grown by the labels' margin): one that runs into a dot
+    from its foot (a dot on the ecliptic) starts beyond it, and is drawn
+    only where what is left is a line's least piece
+    (``breaks.MIN_PIECE_MM``); one that runs into a dot farther on (a dot
+    in the band: Antares, #12 review) stops short of it, and is drawn
+    where :data:`MIN_TICK_MM` is left from its foot.  A tick whose foot
+    lies in a gap of the ecliptic (``cuts``) and that meets no dot would
+    float in the gap, and is not drawn unless it bounds a sign.  An
+    undrawn tick keeps its element and ``at`` (stroke ``none``), as the
+    legibility pass leaves them."""
     foot, tip = tick.geom["from"], tick.geom["to"]
     length = math.dist(foot, tip)
     ux, uy = (tip[0] - foot[0]) / length, (tip[1] - foot[1]) / length
-    start = 0.0
+    spans = []
     for (cx, cy), r in discs:
-        # where the line from the foot leaves the disc: t^2 + 2 b t + c = 0
+        # where the line from the foot meets the disc: t^2 + 2 b t + c = 0
         fx, fy = foot[0] - cx, foot[1] - cy
         b, c = fx * ux + fy * uy, fx * fx + fy * fy - r * r
         if b * b - c > 0.0:
-            out = -b + math.sqrt(b * b - c)
-            if out > 0.0 and -b - math.sqrt(b * b - c) < length:
-                start = max(start, out)
-    if start == 0.0:
-        in_gap = any(box.contains(*foot) for box in cuts)
-        if in_gap and tick.values["longitude_deg"] % 30:
+            root = math.sqrt(b * b - c)
+            if -b + root > 0.0 and -b - root < length:
+                spans.append((-b - root, -b + root))
+    start, end = 0.0, length
+    for t0, t1 in sorted(spans):
+        if t0 <= start:
+            start = max(start, t1)
+        elif t0 < end:
+            end = t0
+            break
+    if start == 0.0 and end == length:
+        if tick.values["longitude_deg"] % 30 and any(box.contains(*foot) for box in cuts):
             return replace(tick, stroke="none")
         return tick
-    if length - start < breaks.MIN_PIECE_MM:
+    if end - start < (breaks.MIN_PIECE_MM if start > 0.0 else MIN_TICK_MM):
         return replace(tick, stroke="none")
-    moved = (foot[0] + ux * start, foot[1] + uy * start)
-    return model.segment(tick.role, moved, tip, tick.stroke, **tick.values)
+    return model.segment(tick.role, (foot[0] + ux * start, foot[1] + uy * start),
+                         (foot[0] + ux * end, foot[1] + uy * end), tick.stroke, **tick.values)
 
 
 def rete(ctx: PartContext) -> model.Part:
