@@ -533,10 +533,13 @@ def test_no_dot_is_lost_in_the_ecliptics_line(head):
     assert not lost
     if any(e.values["name"] == "Regulus" for e in rete.elements if e.role == "star" and e.stroke != "none"):
         assert len(pieces) >= 2 or pieces[0].shape == "arc"   # the line broken where Regulus lies on it
-    # No tick runs into a dot (one that did starts beyond it, or stops
-    # short of it, the margin off: Antares's dot in the band had a tick
-    # through it), and none but a sign's bound starts in a gap of the line
-    # away from both the line and the dot, floating.
+    # No degree's tick runs into a dot (one that did starts beyond it, or
+    # stops short of it, the margin off: Elnath's dot in the band had one
+    # through it); a fifth degree's tick or a sign's bound, which a pupil
+    # counts by, is drawn, full length from its foot unless a dot lies on
+    # the line there (then it starts beyond it); and no degree's tick
+    # starts in a gap of the line away from both the line and the dot,
+    # floating.
     (cx, cy), r_ecl = pieces[0].geom["center"], pieces[0].geom["radius"]
     whole = Point(cx, cy).buffer(r_ecl + half, 4096).difference(Point(cx, cy).buffer(r_ecl - half, 4096))
     on_line = [(Point(*e.geom["at"]).buffer(e.values["radius_mm"], 64), e.values["name"])
@@ -548,10 +551,22 @@ def test_no_dot_is_lost_in_the_ecliptics_line(head):
     for tick in (e for e in rete.elements if e.role == "ecliptic_tick" and e.stroke != "none"):
         line = LineString([tuple(tick.geom["from"]), tuple(tick.geom["to"])])
         foot = Point(*tick.geom["from"])
-        for disc, name in every:
-            if line.distance(disc) < MARGIN_MM - 0.02:
-                bad.append((name, tick.values["longitude_deg"], "runs into the dot"))
-        if tick.values["longitude_deg"] % 30 and min(ink.distance(foot) for ink in inks) > 0.02 \
-                and all(disc.distance(foot) > MARGIN_MM + 0.02 for disc, _ in on_line):
-            bad.append((tick.values["longitude_deg"], "floats"))
+        lon = tick.values["longitude_deg"]
+        if lon % 5:
+            for disc, name in every:
+                if line.distance(disc) < MARGIN_MM - 0.02:
+                    bad.append((name, lon, "runs into the dot"))
+            if min(ink.distance(foot) for ink in inks) > 0.02 \
+                    and all(disc.distance(foot) > MARGIN_MM + 0.02 for disc, _ in on_line):
+                bad.append((lon, "floats"))
+        elif foot.distance(Point(*tick.values["at"])) > 1e-9 \
+                and all(disc.distance(Point(*tick.values["at"])) > MARGIN_MM for disc, _ in on_line):
+            bad.append((lon, "a counted tick moved off its foot"))
+    # every fifth degree is drawn (the legibility pass keeps them all; common
+    # practice: a pupil counts by them), but where a dot on the line covers
+    # all but half a millimetre of it (rete.MIN_TICK_MM): the dot marks it
+    for e in rete.elements:
+        if e.role == "ecliptic_tick" and e.values["longitude_deg"] % 5 == 0 and e.stroke == "none":
+            assert any(disc.distance(Point(*e.values["at"])) < MARGIN_MM + 0.02 for disc, _ in on_line), \
+                e.values["longitude_deg"]
     assert not bad

@@ -77,17 +77,20 @@ MIN_TICK_MM = 0.5
 
 
 def _tick_clear_of(tick, cuts, discs):
-    """An ecliptic tick kept off every disc of ``discs`` ((centre, radius)
+    """An ecliptic tick kept off the discs of ``discs`` ((centre, radius)
     in mm: the dots grown by the labels' margin): one that runs into a dot
     from its foot (a dot on the ecliptic) starts beyond it, and is drawn
-    only where what is left is a line's least piece
-    (``breaks.MIN_PIECE_MM``); one that runs into a dot farther on (a dot
-    in the band: Antares, #12 review) stops short of it, and is drawn
-    where :data:`MIN_TICK_MM` is left from its foot.  A tick whose foot
-    lies in a gap of the ecliptic (``cuts``) and that meets no dot would
-    float in the gap, and is not drawn unless it bounds a sign.  An
-    undrawn tick keeps its element and ``at`` (stroke ``none``), as the
-    legibility pass leaves them."""
+    where what is left is a line's least piece (``breaks.MIN_PIECE_MM``),
+    or :data:`MIN_TICK_MM` for a fifth degree's tick or a sign's bound; a
+    degree's tick that runs into a dot farther on (a dot in the band:
+    Antares, #12 review) stops short of it, and is drawn where
+    :data:`MIN_TICK_MM` is left from its foot, while a fifth degree's tick
+    or a sign's bound runs on through the dot whole, since a pupil counts
+    degrees by them (#12 review: Sagittarius's 10, cut short at Antares,
+    read as a degree's tick).  A degree's tick whose foot lies in a gap of
+    the ecliptic (``cuts``) and that meets no dot would float in the gap,
+    and is not drawn.  An undrawn tick keeps its element and ``at``
+    (stroke ``none``), as the legibility pass leaves them."""
     foot, tip = tick.geom["from"], tick.geom["to"]
     length = math.dist(foot, tip)
     ux, uy = (tip[0] - foot[0]) / length, (tip[1] - foot[1]) / length
@@ -100,18 +103,20 @@ def _tick_clear_of(tick, cuts, discs):
             root = math.sqrt(b * b - c)
             if -b + root > 0.0 and -b - root < length:
                 spans.append((-b - root, -b + root))
+    # a degree's tick, not a fifth degree's or a sign's bound, which a pupil counts by
+    minor = tick.values["longitude_deg"] % 5 != 0
     start, end = 0.0, length
     for t0, t1 in sorted(spans):
         if t0 <= start:
             start = max(start, t1)
-        elif t0 < end:
+        elif t0 < end and minor:
             end = t0
             break
     if start == 0.0 and end == length:
-        if tick.values["longitude_deg"] % 30 and any(box.contains(*foot) for box in cuts):
+        if minor and any(box.contains(*foot) for box in cuts):
             return replace(tick, stroke="none")
         return tick
-    if end - start < (breaks.MIN_PIECE_MM if start > 0.0 else MIN_TICK_MM):
+    if end - start < (breaks.MIN_PIECE_MM if minor and start > 0.0 else MIN_TICK_MM):
         return replace(tick, stroke="none")
     return model.segment(tick.role, (foot[0] + ux * start, foot[1] + uy * start),
                          (foot[0] + ux * end, foot[1] + uy * end), tick.stroke, **tick.values)
