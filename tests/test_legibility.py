@@ -219,6 +219,30 @@ def test_thinned_ticks_stay_in_the_geometry_undrawn():
     assert undrawn and all(round(e.values["longitude_deg"]) % 5 for e in undrawn)
 
 
+@pytest.mark.parametrize("head", ["diameter_mm: 80\n", "sheet: a5\n", "diameter_mm: 300\n",
+                                  "latitude: -23.5\nepoch: 2027\n", "latitude: 0.5\nepoch: 2027\nsheet: a5\n"])
+def test_a_run_of_five_degrees_is_graduated_evenly(head):
+    """Between two fifth degrees the rete draws all four degree ticks or
+    none, so that a pupil who counts ticks counts degrees (common practice
+    in graduating a scale; #12 review: long, short, short, long, where the
+    ticks beside each fifth degree had been left out, read as three
+    degrees).  A degree's tick left out where a star's dot stands on it
+    (kitgen.parts.rete: Regulus on the ecliptic) counts as drawn: the
+    dot marks its place."""
+    kit = kit_of(head) if not head.startswith("latitude") else build_kit(parse_recipe_text(head))
+    rete = kit.part("rete")
+    dots = [e.geom["at"] for e in rete.elements if e.role == "star" and e.stroke != "none"]
+    ticks = [e for e in rete.elements if e.role == "ecliptic_tick"]
+    drawn = {round(e.values["longitude_deg"]) for e in ticks if e.stroke != "none"}
+    at_dot = {round(e.values["longitude_deg"]) for e in ticks
+              if e.stroke == "none" and any(math.dist(e.values["at"], p) < 1.5 for p in dots)}
+    uneven = [fifth for fifth in range(0, 360, 5)
+              if sum(lon in drawn for lon in range(fifth + 1, fifth + 5)) not in (0, 4)
+              and sum(lon in drawn or lon in at_dot for lon in range(fifth + 1, fifth + 5)) != 4]
+    assert not uneven
+    assert all(fifth in drawn or fifth in at_dot for fifth in range(0, 360, 5))
+
+
 def test_the_build_says_what_it_thinned(tmp_path):
     """A 120 mm plate cannot carry almucantars every degree nor azimuths
     every 5 degrees: the kit draws them coarser and the command line says

@@ -307,9 +307,14 @@ def plan_scales(plan, plate, dims) -> Scales:
 
 
 def _ecliptic_ticks(sky, s, R, light_mm: float, medium_mm: float) -> tuple[int, ...]:
-    """Rete: every 5 degrees of longitude (drawn ``medium``), and each
-    degree between (drawn ``light``) whose tick leaves :data:`MIN_CLEAR_GAP_MM`
-    to both neighbours: their distance less half of each line's width."""
+    """Rete: every 5 degrees of longitude (drawn ``medium``), and the four
+    degrees between two of them (drawn ``light``) where each of their
+    ticks leaves :data:`MIN_CLEAR_GAP_MM` to both neighbours (their
+    distance less half of each line's width), all four or none: a run of
+    five degrees is graduated evenly, so that a pupil who counts its ticks
+    counts degrees (#12 review: where the ticks beside each fifth degree
+    were left out and the middle two kept, long, short, short, long read
+    as three degrees; common practice in graduating a scale)."""
 
     pts = ecliptic_points_mm(np.arange(0.0, 361.0, 1.0), sky.obliquity_rad, s, R)
     d = np.hypot(*(pts[1:] - pts[:-1]).T)          # d[k]: from k to k+1 degrees
@@ -317,11 +322,16 @@ def _ecliptic_ticks(sky, s, R, light_mm: float, medium_mm: float) -> tuple[int, 
     def width(lon):
         return medium_mm if lon % 5 == 0 else light_mm
 
-    out = []
-    for lon in range(360):
+    def fits(lon):
         gaps = (d[lon] - (light_mm + width(lon + 1)) / 2, d[lon - 1] - (light_mm + width(lon - 1)) / 2)
-        if lon % 5 == 0 or min(gaps) >= MIN_CLEAR_GAP_MM - 1e-9:
-            out.append(lon)
+        return min(gaps) >= MIN_CLEAR_GAP_MM - 1e-9
+
+    out = []
+    for fifth in range(0, 360, 5):
+        out.append(fifth)
+        run = range(fifth + 1, fifth + 5)
+        if all(fits(lon) for lon in run):
+            out += run
     return tuple(out)
 
 
