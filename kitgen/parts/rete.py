@@ -237,36 +237,34 @@ def rete(ctx: PartContext) -> model.Part:
 
     places = place(names)
     joined = list(names)   # each dot's names, all of them
+    def again(names, places, new):
+        """The names without a place given ``new(i, name)`` (None: as they
+        are), and placed again where that changed any."""
+        renamed = [new(i, name) if where is None else None for i, (where, name) in enumerate(zip(places, names))]
+        if all(r is None or r == name for r, name in zip(renamed, names)):
+            return names, places
+        names = [name if r is None else r for r, name in zip(renamed, names)]
+        return names, place(names)
+
     # A dot of several stars with no room for all their names is named
     # for its brightest alone (Rigil Kentaurus near the southern pole).
     alone = [w.star_name(stars[k].star.label) for k in lead]
-    if any(where is None and name != one for where, name, one in zip(places, names, alone)):
-        names = [one if where is None else name for where, name, one in zip(places, names, alone)]
-        places = place(names)
+    names, places = again(names, places, lambda i, name: alone[i])
     # A name of several words still without a place is set on two lines,
     # about half as long: where the sky is crowded round the pin (the
     # southern retes of low latitudes) a long name finds room there (#12:
     # Rigil Kentaurus, 14 mm on one line on A4, had one place with a
     # leader at 20 S, and went unnamed).
-    broken = [_in_two_lines(w, name, d.small_text_pt) if where is None and name == one else name
-              for where, name, one in zip(places, names, alone)]
-    if broken != names:
-        names = broken
-        places = place(names)
+    names, places = again(names, places,
+                          lambda i, name: _in_two_lines(w, name, d.small_text_pt) if name == alone[i] else None)
     # A name still without a place is set in its customary short form
     # where the language has one, on one line, then on two (#12: "Rigil
     # Kentaurus", on two lines too, found no room among the south polar
     # stars of any southern A5 rete; "Rigil" over "Kent" does).
     short = [w.star_short_name(stars[k].star.label) for k in lead]
-    shortened = [cut if where is None and cut else name for where, name, cut in zip(places, names, short)]
-    if shortened != names:
-        names = shortened
-        places = place(names)
-        broken = [_in_two_lines(w, name, d.small_text_pt) if where is None and name == cut else name
-                  for where, name, cut in zip(places, names, short)]
-        if broken != names:
-            names = broken
-            places = place(names)
+    names, places = again(names, places, lambda i, name: short[i])
+    names, places = again(names, places,
+                          lambda i, name: _in_two_lines(w, name, d.small_text_pt) if name == short[i] else None)
     # A first-magnitude star still unnamed is named with the looser rule of
     # other dots near its name's ends (labels.LOOSE_BESIDE_OFFSETS) where
     # that names more of the rete's stars (#12 review: Rigil Kentaurus at
