@@ -41,6 +41,10 @@ NAME_CLEARANCE_MM = 0.1
 #: strict one leaves it unnamed: the first-magnitude stars a pupil looks
 #: for (common practice: "first magnitude" is 1.5 and brighter).
 LOOSE_MAG = 1.5
+#: The shortest piece (mm) of a tick cut short at a star's dot that is
+#: still drawn, from its foot on the ecliptic: a mark of its degree, above
+#: the legibility pass's shortest tick (0.4 mm).
+MIN_TICK_MM = 0.5
 
 
 def _ecliptic_round_dots(els: list, center, radius_mm: float, dots, d) -> list:
@@ -69,11 +73,6 @@ def _ecliptic_round_dots(els: list, center, radius_mm: float, dots, d) -> list:
         else:
             out.append(el)
     return out
-
-
-#: The shortest piece (mm) of a tick cut short at a star's dot that is
-#: still drawn, from its foot on the ecliptic: a mark of its degree.
-MIN_TICK_MM = 0.5
 
 
 def _tick_clear_of(tick, cuts, discs):
@@ -237,6 +236,7 @@ def rete(ctx: PartContext) -> model.Part:
 
     places = place(names)
     joined = list(names)   # each dot's names, all of them
+
     def again(names, places, new):
         """The names without a place given ``new(i, name)`` (None: as they
         are), and placed again where that changed any."""
