@@ -271,9 +271,9 @@ def rete(ctx: PartContext) -> model.Part:
     # 23.5 S, the sky's third brightest star).
     loose = [i for i, (where, k) in enumerate(zip(places, lead)) if where is None and stars[k].star.mag <= LOOSE_MAG]
     if loose:
-        again = place(names, loose)
-        if sum(p is not None for p in again) > sum(p is not None for p in places):
-            places = again
+        loosely = place(names, loose)
+        if sum(p is not None for p in loosely) > sum(p is not None for p in places):
+            places = loosely
     where_of = dict(zip(lead, places))
     for k, (placed, p) in enumerate(zip(stars, all_pts)):
         first = groups[k]
