@@ -264,9 +264,10 @@ def story(kit, pages) -> list[Block]:
     out += sun_example_blocks(kit) + correction_blocks(kit)
     out.append(Block("heading", w("instructions.height_heading")))
     out += numbered("instructions.height_steps")
-    out += glossary_blocks(kit)
-    if plate_fig is not None:   # the plate's lines named (#9)
-        out.append(Block("figure", w("instructions.figure_plate"), figure=plate_fig))
+    glossary = glossary_blocks(kit)
+    if plate_fig is not None:   # the plate's lines named (#9), under the glossary's heading
+        glossary.insert(1, Block("figure", w("instructions.figure_plate"), figure=plate_fig))
+    out += glossary
     out += sunrise_blocks(kit) + star_blocks(kit)
     out += accuracy_blocks(kit)
     out += worksheet_blocks(kit)   # last: its answer key is the last page (answer_key_page)

@@ -291,13 +291,20 @@ def split_blocks(blocks, width_pt: float, height_pt: float, words, n_pages: int)
             continue
         alone, after, lines = _alone_and_after_pt(blocks, breaks, width_pt, size, words)
         chunks, current, used = [], [], 0.0
-        for k, block in enumerate(blocks):
+        order, at = list(range(len(blocks))), 0
+        while at < len(order):
+            k = order[at]
             if k in breaks:
                 if current:
                     chunks.append(current)
                 current, used = [], 0.0
+                at += 1
                 continue
             if current and used + after[k] > height_pt:
+                pulled = _floated_past(blocks, order, at, height_pt - used, after) if blocks[k].figure is not None else []
+                if pulled:   # the text first, then the picture comes up again
+                    order[at:at + 1 + len(pulled)] = pulled + [k]
+                    continue
                 moved = _kept_with_next(blocks, current, lines)
                 if not moved:
                     going = _going_with(blocks, current, k)
@@ -307,11 +314,36 @@ def split_blocks(blocks, width_pt: float, height_pt: float, words, n_pages: int)
                 used = alone[moved[0]] + sum(after[i] for i in moved[1:]) if moved else 0.0
             used += after[k] if current else alone[k]
             current.append(k)
+            at += 1
         chunks = [ch for ch in chunks + [current] if ch]
         heights = [alone[ch[0]] + sum(after[i] for i in ch[1:]) for ch in chunks]
         if len(chunks) <= n_pages and max(heights) <= height_pt:
             return size, [[blocks[i] for i in ch] for ch in chunks]
     return None
+
+
+#: Kinds of paragraph a picture may float past (:func:`_floated_past`).
+FLOWING_KINDS = ("body", "item", "caution")
+
+
+def _floated_past(blocks, order, at: int, room_pt: float, after) -> list[int]:
+    """The paragraphs that go before the picture ``order[at]``, which does
+    not fit the ``room_pt`` left at the page's foot: those that follow it
+    in its own section (up to the next heading, picture, table, answer or
+    page break), in order, as many as fill the room.  The picture then
+    floats to the top of the next page, its section's text filling the
+    foot of this one, where a page had been left a third empty (common
+    practice in typesetting: a figure that does not fit floats to the top
+    of the next page, and the text runs on; here never past a heading,
+    so a picture stays in the section it illustrates)."""
+    out, used = [], 0.0
+    for k in order[at + 1:]:
+        b = blocks[k]
+        if b.kind not in FLOWING_KINDS or b.figure is not None or b.row or used + after[k] > room_pt:
+            break
+        out.append(k)
+        used += after[k]
+    return out
 
 
 #: Lines of its text that a heading keeps under it on its page: a heading
