@@ -377,7 +377,8 @@ def test_real_process_internal_fault_and_debug(tmp_path):
 
 # -- text that cannot be printed; the starter recipe ------------------------------------------
 
-@pytest.mark.parametrize("title, codes", [("東京", "U+4EAC, U+6771"), ("Club \U0001f52d", "U+1F52D"),
+# each character shown beside its code point; an unassigned one (U+038B) by its code alone
+@pytest.mark.parametrize("title, codes", [("東京", "'京' U+4EAC, '東' U+6771"), ("Club \U0001f52d", "'\U0001f52d' U+1F52D"),
                                           ("\u038b", "U+038B")])
 def test_title_no_shipped_font_draws(tmp_path, capsys, title, codes):
     build_fails(tmp_path, capsys, f"latitude: 40\ntitle: '{title}'\n", "line 2",

@@ -90,6 +90,8 @@ def test_a_name_no_shipped_font_draws_is_refused_in_one_line():
     with pytest.raises(UserError) as caught:
         parse_recipe_text(RECIPE % ("en", han))
     assert "U+738B" in caught.value.text() and "\n" not in caught.value.text()
+    # the character itself beside its code point, so a coordinator finds it in the roster
+    assert "'王' U+738B" in caught.value.text()
 
 
 def test_a_plates_place_no_shipped_font_draws_is_refused_in_one_line():

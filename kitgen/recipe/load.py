@@ -390,9 +390,19 @@ def _check_drawable(values: dict, source: str, lines: dict) -> None:
         lost = set().union(*(fonts.missing_chars(text, faces + fonts.fallbacks(faces)) for faces in stacks))
         if lost:
             where = at_line(source, lines[name]) if name in lines else source
-            chars = [f"U+{ord(c):04X}" for c in sorted(lost)[:5]]
+            chars = [_shown(c) for c in sorted(lost)[:5]]
             raise UserError("errors.not_drawable", where=where, name=name, chars=chars,
                             more=" ..." if len(lost) > 5 else "")
+
+
+def _shown(char: str) -> str:
+    """A character a message names: itself, quoted, where a terminal
+    shows it alone (not a combining mark, nor a format character), and
+    its code point (U+738B), which says what it is where no font on the
+    reader's screen draws it either."""
+    code = f"U+{ord(char):04X}"
+    plain = char.isprintable() and not unicodedata.combining(char) and unicodedata.category(char) != "Cf"
+    return f"'{char}' {code}" if plain else code
 
 
 def finite_number(value) -> bool:
