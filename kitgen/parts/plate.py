@@ -59,7 +59,8 @@ def plate(ctx: PartContext) -> model.Part:
         els += _unequal_hours(phi, eps, s, R, disc)
 
     els.append(model.segment("meridian", (0.0, -disc), (0.0, disc), "medium"))
-    els.append(model.segment("east_west", (-disc, 0.0), (disc, 0.0), "medium"))
+    if horizon_gap_mm(zenith, s, R, disc) >= EAST_WEST_APART_MM:
+        els.append(model.segment("east_west", (-disc, 0.0), (disc, 0.0), "medium"))
     z = project_vectors(zenith, s, R)
     if np.hypot(*z) <= disc:
         els.append(model.point("zenith", z))
@@ -78,6 +79,32 @@ def plate(ctx: PartContext) -> model.Part:
                        "labels_left_out": tuple(t for t, v in missing if "altitude_deg" not in v),
                        "almucantars_left_out_deg": tuple(unnumbered)},
                       plate_title(ctx))
+
+
+#: Least gap (mm) between the horizon and the east-west line, somewhere
+#: on the plate, for both to be drawn: nearer the equator the horizon is
+#: the east-west line (exactly so at 0 degrees, where it projects to that
+#: very diameter), and the two drawn apart by less printed as one line
+#: doubled, 0.9 mm apart at the rim at 0.5 degrees N on A4.
+EAST_WEST_APART_MM = 1.5
+
+
+def horizon_gap_mm(zenith, sign: int, equator_radius_mm: float, disc_mm: float) -> float:
+    """The greatest distance (mm) of the horizon from the east-west line
+    (the plate's horizontal diameter) inside the drawing's disc: the
+    horizon, the great circle 90 degrees from ``zenith`` (a unit vector),
+    sampled every 0.05 degrees and projected (Snyder 1987, eq. 21-33/34,
+    :func:`project_vectors`)."""
+    east = np.cross([0.0, 0.0, 1.0], zenith)
+    if np.linalg.norm(east) < 1e-9:   # at a pole the horizon is the equator
+        return math.inf
+    east /= np.linalg.norm(east)
+    other = np.cross(zenith, east)
+    t = np.radians(np.arange(0.0, 360.0, 0.05))
+    with np.errstate(invalid="ignore"):
+        xy = project_vectors(np.cos(t)[:, None] * east + np.sin(t)[:, None] * other, sign, equator_radius_mm)
+    inside = np.isfinite(xy).all(axis=1) & (np.hypot(xy[:, 0], xy[:, 1]) <= disc_mm)
+    return float(np.abs(xy[inside, 1]).max()) if inside.any() else math.inf
 
 
 def plate_title(ctx: PartContext) -> str:
