@@ -249,10 +249,10 @@ def story(kit, pages) -> list[Block]:
         out.append(Block("body", w("printing.tiles")))
         out.append(Block("body", w("printing.tiles_pierce")))
     out += [Block("heading", w("instructions.stack_heading")), Block("body", w("instructions.stack_intro"))]
-    out += stack_blocks(kit)
     plate_fig, stack_fig = kit_figures(kit, column_mm(pages))
-    if stack_fig is not None:   # the stack drawn, in the order of the steps above (#9)
+    if stack_fig is not None:   # the stack drawn, in the order of the steps below (#9)
         out.append(Block("figure", w("instructions.figure_stack"), figure=stack_fig))
+    out += stack_blocks(kit)
     out.append(Block("body", w("instructions.fastener")))
     if {"mater_front", "mater_back"} & set(kit.plan.parts):
         out.append(Block("body", w("instructions.hang")))  # the plumb's thread (#9)

@@ -31,13 +31,16 @@ class Block:
     (:class:`kitgen.layout.figures.Figure`, built for the column's width)
     under its caption ``text``, never split across pages.
     A ``row`` is one of a table's rows, which a run of them makes
-    (:data:`TABLE_KEEPS_ROWS`)."""
+    (:data:`TABLE_KEEPS_ROWS`).  A paragraph split over two pages
+    (:func:`_split_paragraph`) is two blocks, the second ``continued``:
+    without the bullet, at the top of the next page."""
 
     kind: str
     text: str
     bullet: str = ""
     figure: Any = None
     row: bool = False
+    continued: bool = False
 
 
 @dataclass(frozen=True)
@@ -281,14 +284,16 @@ def split_blocks(blocks, width_pt: float, height_pt: float, words, n_pages: int)
     lines of its text, :func:`_kept_with_next`; a :data:`PAGE_BREAK` block
     starts a new page), and the blocks of each page; or ``None`` when even
     :data:`MIN_BODY_PT` needs more pages."""
-    breaks = {k for k, b in enumerate(blocks) if b.kind == PAGE_BREAK}
+    story = blocks
+    breaks = {k for k, b in enumerate(story) if b.kind == PAGE_BREAK}
     for size in BODY_SIZES_PT:
         if n_pages == 1 and breaks:
             return None
         if n_pages == 1:   # the common case: one measure of the whole
-            if blocks_height_pt(blocks, width_pt, size, words) <= height_pt:
-                return size, [list(blocks)]
+            if blocks_height_pt(story, width_pt, size, words) <= height_pt:
+                return size, [list(story)]
             continue
+        blocks = list(story)   # and the halves of paragraphs split over two pages, as they are made
         alone, after, lines = _alone_and_after_pt(blocks, breaks, width_pt, size, words)
         chunks, current, used = [], [], 0.0
         order, at = list(range(len(blocks))), 0
@@ -304,6 +309,13 @@ def split_blocks(blocks, width_pt: float, height_pt: float, words, n_pages: int)
                 pulled = _floated_past(blocks, order, at, height_pt - used, after) if blocks[k].figure is not None else []
                 if pulled:   # the text first, then the picture comes up again
                     order[at:at + 1 + len(pulled)] = pulled + [k]
+                    continue
+                halves = _split_paragraph(blocks[k], height_pt - used, width_pt, size, words)
+                if halves is not None:   # its first lines here, the rest on the next page
+                    measured = _alone_and_after_pt(halves, (), width_pt, size, words)
+                    for column, values in zip((blocks, alone, after, lines), (halves,) + tuple(measured)):
+                        column.extend(values)
+                    order[at:at + 1] = [len(blocks) - 2, len(blocks) - 1]
                     continue
                 moved = _kept_with_next(blocks, current, lines)
                 if not moved:
@@ -344,6 +356,39 @@ def _floated_past(blocks, order, at: int, room_pt: float, after) -> list[int]:
         out.append(k)
         used += after[k]
     return out
+
+
+#: Lines of a paragraph split over two pages left on each: its first line
+#: is never alone at a page's foot, nor its last alone at the next page's
+#: top (common practice in typesetting: no orphan, no widow).
+PARAGRAPH_KEEPS_LINES = 2
+
+
+def _split_paragraph(block, room_pt: float, width_pt: float, body_pt: float, words):
+    """``(first, rest)``: the paragraph ``block`` split where its lines
+    fill ``room_pt`` at a page's foot, ``rest`` ``continued`` on the next
+    page without the bullet, at least :data:`PARAGRAPH_KEEPS_LINES` lines
+    on each; or None, for a block that is not running text
+    (:data:`FLOWING_KINDS`; a picture, a table's row and an answer's line
+    are never split) or too short to split there.  Each half is its
+    lines joined again, which the same first fit wraps into the very
+    same lines (checked)."""
+    if block.kind not in FLOWING_KINDS or block.figure is not None or block.row:
+        return None
+    _, size, style, text_lines, before, after, indent = _laid([_PROBE, block], width_pt, body_pt, words)[1]
+    lead = size * LEADING
+    most = min(len(text_lines) - PARAGRAPH_KEEPS_LINES, int((room_pt - before - after) // lead))
+    while most >= PARAGRAPH_KEEPS_LINES and before + most * lead + after > room_pt:
+        most -= 1   # the floor's rounding
+    if most < PARAGRAPH_KEEPS_LINES:
+        return None
+    first = Block(block.kind, " ".join(text_lines[:most]), block.bullet, continued=block.continued)
+    rest = Block(block.kind, " ".join(text_lines[most:]), "", continued=True)
+    limit = width_pt - indent
+    if (wrap(first.text, limit, size, words, style) != list(text_lines[:most])
+            or wrap(rest.text, limit, size, words, style) != list(text_lines[most:])):
+        return None
+    return first, rest
 
 
 #: Lines of its text that a heading keeps under it on its page: a heading
