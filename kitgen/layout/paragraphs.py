@@ -286,6 +286,13 @@ def split_blocks(blocks, width_pt: float, height_pt: float, words, n_pages: int)
     :data:`MIN_BODY_PT` needs more pages."""
     story = blocks
     breaks = {k for k, b in enumerate(story) if b.kind == PAGE_BREAK}
+    if n_pages == 1 and breaks:
+        return None
+    # (#12) No page holds more than its height: where the blocks, each
+    # measured at the top of a page at the smallest size, take more than
+    # all the pages, no size fits, and the sizes are not tried.
+    if sum(_alone_and_after_pt(story, breaks, width_pt, MIN_BODY_PT, words)[0]) > n_pages * height_pt:
+        return None
     for size in BODY_SIZES_PT:
         if n_pages == 1 and breaks:
             return None
