@@ -80,8 +80,8 @@ def test_no_last_line_alone_at_the_top():
 #: one that splits none.
 @pytest.mark.parametrize("recipe", [{"latitude": 51.5, "language": "en", "sheet": "a5"},
                                     {"latitude": 51.5, "language": "es", "sheet": "a5"},
-                                    {"latitude": 51.5, "language": "pt", "sheet": "letter"},
-                                    {"latitude": 51.5, "language": "el", "sheet": "letter"},
+                                    {"latitude": 51.5, "language": "fr", "sheet": "letter"},
+                                    {"latitude": 51.5, "language": "ru", "sheet": "a4"},
                                     {"latitude": 24.7, "language": "ar", "sheet": "a5"}])
 def test_real_kits_split_paragraphs_only_between_pages_with_two_lines_each_side(recipe):
     kit = build_kit(validate_recipe({**recipe, "epoch": 2027}))
@@ -107,3 +107,41 @@ def test_real_kits_split_paragraphs_only_between_pages_with_two_lines_each_side(
                           if " ".join(paragraphs.line_words(text)).startswith(" ".join(head)))
             assert head + tail == wrap(source.text, limit, size_pt, kit.words, style)
     assert splits >= 1 or recipe["language"] == "ar"   # each of the others splits a paragraph somewhere
+
+
+# -- a list's items: two at least on each side of a page break (common
+# practice, as for a table's rows; #12 review: "1. the alidade" alone at a
+# page's foot, "5. the rule" alone at the next page's top) ---------------
+
+def _list_blocks(n_items: int):
+    return ([Block("body", "The parts of the astrolabe turn on one axis through their centres. " * 16)]
+            + [Block("item", f"the part number {k}, in its place;", f"{k}.") for k in range(1, n_items + 1)])
+
+
+@pytest.mark.parametrize("items_at_foot", [1, 4])
+def test_no_item_of_a_list_alone_on_either_side(items_at_foot):
+    """A page with room for one item after the paragraph: the list goes on
+    whole; with room for all but one of five: three stay, two go on."""
+    words = load_words("en")
+    blocks = _list_blocks(5)
+    first = blocks_height_pt(blocks[:1], WIDTH_PT, SIZE_PT, words)
+    one = blocks_height_pt(blocks[:2], WIDTH_PT, SIZE_PT, words) - first
+    _, chunks = split_blocks(blocks, WIDTH_PT, first + one * (items_at_foot + 0.5), words, 3)
+    on_first = sum(b.kind == "item" for b in chunks[0])
+    assert on_first == (0 if items_at_foot == 1 else 3)
+    assert sum(b.kind == "item" for b in chunks[1]) == 5 - on_first
+
+
+@pytest.mark.parametrize("recipe", [{"latitude": 51.5, "language": lang, "sheet": sheet}
+                                    for lang, sheet in (("es", "a5"), ("fr", "a5"), ("de", "a5"), ("it", "a5"),
+                                                        ("ru", "a5"), ("el", "letter"), ("en", "a4"))])
+def test_real_kits_leave_no_item_of_a_list_alone_at_a_break(recipe):
+    kit = build_kit(validate_recipe({**recipe, "epoch": 2027}))
+    _, chunks = instructions_split(kit, layout_kit(kit))
+    for page, (this, following) in enumerate(zip(chunks, chunks[1:]), start=1):
+        last, first = this[-1], following[0]
+        if last.kind == first.kind == "item" and not first.continued and bool(last.bullet[:1].isdigit()) == \
+                bool(first.bullet[:1].isdigit()):
+            foot = next((n for n, b in enumerate(reversed(this)) if b.kind != "item"), len(this))
+            top = next((n for n, b in enumerate(following) if b.kind != "item"), len(following))
+            assert foot >= 2 and top >= 2, f"page {page}: {foot} item(s) at its foot, {top} at the next top"

@@ -349,19 +349,38 @@ def _floated_past(blocks, order, at: int, room_pt: float, after) -> list[int]:
     """The paragraphs that go before the picture ``order[at]``, which does
     not fit the ``room_pt`` left at the page's foot: those that follow it
     in its own section (up to the next heading, picture, table, answer or
-    page break), in order, as many as fill the room.  The picture then
-    floats to the top of the next page, its section's text filling the
-    foot of this one, where a page had been left a third empty (common
-    practice in typesetting: a figure that does not fit floats to the top
-    of the next page, and the text runs on; here never past a heading,
-    so a picture stays in the section it illustrates)."""
-    out, used = [], 0.0
+    page break), in order, as many as fill the room, but never the last
+    of them, nor a list's items but two on either side of the picture.
+    The picture then floats to the top of the next page, its section's
+    text filling the foot of this one, where a page had been left a third
+    empty, and some of that text still follows it there (common practice
+    in typesetting: a figure that does not fit floats to the top of the
+    next page, and the text runs on; here never past a heading, nor past
+    the end of its section, so that a picture stays in the section it
+    illustrates and never stands over the next one's heading)."""
+    section = []
     for k in order[at + 1:]:
         b = blocks[k]
-        if b.kind not in FLOWING_KINDS or b.figure is not None or b.row or used + after[k] > room_pt:
+        if b.kind not in FLOWING_KINDS or b.figure is not None or b.row:
+            break
+        section.append(k)
+    out, used = [], 0.0
+    for k in section[:-1]:
+        if used + after[k] > room_pt:
             break
         out.append(k)
         used += after[k]
+    if out and len(out) < len(section) and _run_kind(blocks[out[-1]]) == _run_kind(blocks[section[len(out)]]) \
+            is not None:
+        # a list cut by the picture: two of its items at least on each side
+        kind = _run_kind(blocks[out[-1]])
+        before = next((n for n in range(len(out)) if _run_kind(blocks[out[-1 - n]]) != kind), len(out))
+        beyond = next((n for n in range(len(section) - len(out)) if _run_kind(blocks[section[len(out) + n]]) != kind),
+                      len(section) - len(out))
+        keep = LIST_KEEPS_ITEMS
+        drop = keep - beyond if beyond < keep and before - (keep - beyond) >= keep else before if before < keep \
+            or beyond < keep else 0
+        out = out[:len(out) - drop]
     return out
 
 
@@ -426,6 +445,20 @@ def _kept_with_next(blocks, current, lines) -> list[int]:
 #: top of the next page (common practice in typesetting, as for the lines
 #: of a paragraph: no orphan, no widow).
 TABLE_KEEPS_ROWS = 2
+#: Items of a list (a run of ``item`` blocks: steps, bullets) that a page
+#: break or a floated picture leaves on each side of it, as for a table's
+#: rows (#12 review: "1. the alidade" alone at a page's foot, "5. the
+#: rule" alone at the next page's top).
+LIST_KEEPS_ITEMS = 2
+
+
+def _run_kind(block) -> str | None:
+    """The kind of run ``block`` belongs to: ``row`` (a table's), ``item``
+    (a list's, a paragraph's second half aside, which goes where its first
+    half went), else None."""
+    if block.row:
+        return "row"
+    return "item" if block.kind == "item" and not block.continued else None
 
 
 def _going_with(blocks, current, k: int) -> list[int]:
@@ -445,21 +478,24 @@ def _going_with(blocks, current, k: int) -> list[int]:
 def _rows_kept_together(blocks, current, k: int) -> list[int]:
     """The rows at the end of the page ``current`` (their indices) that go
     on to the next page with the row ``k`` that does not fit, so that
-    each page holds at least :data:`TABLE_KEEPS_ROWS` of the table, or the
-    table's rows on this page all go where it has too few to give.  The
-    page's first block always stays."""
-    if not blocks[k].row:
+    each page holds at least :data:`TABLE_KEEPS_ROWS` of the table (a
+    list's items: :data:`LIST_KEEPS_ITEMS` of the list), or the table's
+    rows on this page all go where it has too few to give.  The page's
+    first block always stays."""
+    kind = _run_kind(blocks[k])
+    if kind is None:
         return []
+    keep = TABLE_KEEPS_ROWS if kind == "row" else LIST_KEEPS_ITEMS
     tail = 0
-    while tail < len(current) - 1 and blocks[current[len(current) - 1 - tail]].row:
+    while tail < len(current) - 1 and _run_kind(blocks[current[len(current) - 1 - tail]]) == kind:
         tail += 1
     rest = 0   # the table's rows from k on
-    while k + rest < len(blocks) and blocks[k + rest].row:
+    while k + rest < len(blocks) and _run_kind(blocks[k + rest]) == kind:
         rest += 1
-    need = max(0, TABLE_KEEPS_ROWS - rest)
-    if tail == 0 or (tail >= TABLE_KEEPS_ROWS and need == 0):
+    need = max(0, keep - rest)
+    if tail == 0 or (tail >= keep and need == 0):
         return []
-    go = need if tail - need >= TABLE_KEEPS_ROWS else tail
+    go = need if tail - need >= keep else tail
     return current[len(current) - go:]
 
 
