@@ -294,8 +294,6 @@ def split_blocks(blocks, width_pt: float, height_pt: float, words, n_pages: int)
     if sum(_alone_and_after_pt(story, breaks, width_pt, MIN_BODY_PT, words)[0]) > n_pages * height_pt:
         return None
     for size in BODY_SIZES_PT:
-        if n_pages == 1 and breaks:
-            return None
         if n_pages == 1:   # the common case: one measure of the whole
             if blocks_height_pt(story, width_pt, size, words) <= height_pt:
                 return size, [list(story)]
@@ -370,18 +368,30 @@ def _floated_past(blocks, order, at: int, room_pt: float, after) -> list[int]:
             break
         out.append(k)
         used += after[k]
-    if out and len(out) < len(section) and _run_kind(blocks[out[-1]]) == _run_kind(blocks[section[len(out)]]) \
-            is not None:
-        # a list cut by the picture: two of its items at least on each side
-        kind = _run_kind(blocks[out[-1]])
-        before = next((n for n in range(len(out)) if _run_kind(blocks[out[-1 - n]]) != kind), len(out))
-        beyond = next((n for n in range(len(section) - len(out)) if _run_kind(blocks[section[len(out) + n]]) != kind),
-                      len(section) - len(out))
-        keep = LIST_KEEPS_ITEMS
-        drop = keep - beyond if beyond < keep and before - (keep - beyond) >= keep else before if before < keep \
-            or beyond < keep else 0
-        out = out[:len(out) - drop]
+    kind = _run_kind(blocks[out[-1]]) if out and len(out) < len(section) else None
+    if kind is not None and _run_kind(blocks[section[len(out)]]) == kind:   # a list cut by the picture
+        before = _run_length(blocks, out[::-1], kind)
+        beyond = _run_length(blocks, section[len(out):], kind)
+        out = out[:len(out) - _items_to_move(before, beyond, LIST_KEEPS_ITEMS)]
     return out
+
+
+def _run_length(blocks, indices, kind: str) -> int:
+    """How many of the blocks ``indices``, from the first, are of the run
+    ``kind`` (:func:`_run_kind`)."""
+    return next((n for n, k in enumerate(indices) if _run_kind(blocks[k]) != kind), len(indices))
+
+
+def _items_to_move(before: int, beyond: int, keep: int) -> int:
+    """How many of the ``before`` items of a list ahead of a break go on
+    past it, so that each side keeps ``keep`` of them, the ``beyond``
+    items past it included: none where both sides have enough; enough to
+    make up the far side where the near side can spare them; else all."""
+    if before >= keep and beyond >= keep:
+        return 0
+    if beyond < keep and before - (keep - beyond) >= keep:
+        return keep - beyond
+    return before
 
 
 #: Lines of a paragraph split over two pages left on each: its first line
