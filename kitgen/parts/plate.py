@@ -293,16 +293,21 @@ def _latitude_label(ctx, disc, strokes, index):
     # the thin lines (almucantars, azimuths, unequal hours), never across
     # a named one: the plate's latitude is never left out.
     named = [e for e in others if e.role in ("horizon", "equator", "tropic", "twilight")]
+    texts = [e.geom["text"] for e in first]
+    tried = {}   # (y, side): the label there and its boxes, or None where it is set otherwise than ``first`` (#12)
     for clear, lines in ((plate_labels.CLEAR_MM, others), (labels.MARGIN_MM, others), (labels.MARGIN_MM, named)):
         for k in range(int(disc / 0.5)):
             for y in ((y0,) if k == 0 else (y0 + 0.5 * k, y0 - 0.5 * k)):
                 if not -disc < y < low:
                     continue
                 for side in (1, -1):
-                    els = at(y, side)
-                    if [e.geom["text"] for e in els] != [e.geom["text"] for e in first]:
+                    if (y, side) not in tried:
+                        els = at(y, side)
+                        same = [e.geom["text"] for e in els] == texts
+                        tried[y, side] = (els, [breaks.text_box(e, w) for e in els]) if same else None
+                    if tried[y, side] is None:
                         continue
-                    boxes = [breaks.text_box(e, w) for e in els]
+                    els, boxes = tried[y, side]
                     if all(room.inside(b) and room.clear_of(b, lines, clear) for b in boxes):
                         return els
     return first
