@@ -291,7 +291,8 @@ def split_blocks(blocks, width_pt: float, height_pt: float, words, n_pages: int)
     # (#12) No page holds more than its height: where the blocks, each
     # measured at the top of a page at the smallest size, take more than
     # all the pages, no size fits, and the sizes are not tried.
-    if sum(_alone_and_after_pt(story, breaks, width_pt, MIN_BODY_PT, words)[0]) > n_pages * height_pt:
+    smallest = _alone_and_after_pt(story, breaks, width_pt, MIN_BODY_PT, words)
+    if sum(smallest[0]) > n_pages * height_pt:
         return None
     for size in BODY_SIZES_PT:
         if n_pages == 1:   # the common case: one measure of the whole
@@ -299,7 +300,8 @@ def split_blocks(blocks, width_pt: float, height_pt: float, words, n_pages: int)
                 return size, [list(story)]
             continue
         blocks = list(story)   # and the halves of paragraphs split over two pages, as they are made
-        alone, after, lines = _alone_and_after_pt(blocks, breaks, width_pt, size, words)
+        measured = smallest if size == MIN_BODY_PT else _alone_and_after_pt(blocks, breaks, width_pt, size, words)
+        alone, after, lines = (list(column) for column in measured)
         chunks, current, used = [], [], 0.0
         order, at = list(range(len(blocks))), 0
         while at < len(order):
@@ -339,8 +341,15 @@ def split_blocks(blocks, width_pt: float, height_pt: float, words, n_pages: int)
     return None
 
 
-#: Kinds of paragraph a picture may float past (:func:`_floated_past`).
+#: Kinds of paragraph a picture may float past (:func:`_floated_past`)
+#: and that may be split over two pages (:func:`_split_paragraph`).
 FLOWING_KINDS = ("body", "item", "caution")
+
+
+def _flowing(block) -> bool:
+    """Whether ``block`` is running text (:data:`FLOWING_KINDS`): not a
+    picture nor a table's row."""
+    return block.kind in FLOWING_KINDS and block.figure is None and not block.row
 
 
 def _floated_past(blocks, order, at: int, room_pt: float, after) -> list[int]:
@@ -358,8 +367,7 @@ def _floated_past(blocks, order, at: int, room_pt: float, after) -> list[int]:
     illustrates and never stands over the next one's heading)."""
     section = []
     for k in order[at + 1:]:
-        b = blocks[k]
-        if b.kind not in FLOWING_KINDS or b.figure is not None or b.row:
+        if not _flowing(blocks[k]):
             break
         section.append(k)
     out, used = [], 0.0
@@ -409,7 +417,7 @@ def _split_paragraph(block, room_pt: float, width_pt: float, body_pt: float, wor
     are never split) or too short to split there.  Each half is its
     lines joined again, which the same first fit wraps into the very
     same lines (checked)."""
-    if block.kind not in FLOWING_KINDS or block.figure is not None or block.row:
+    if not _flowing(block):
         return None
     _, size, style, text_lines, before, after, indent = _laid([_PROBE, block], width_pt, body_pt, words)[1]
     lead = size * LEADING
@@ -496,12 +504,8 @@ def _rows_kept_together(blocks, current, k: int) -> list[int]:
     if kind is None:
         return []
     keep = TABLE_KEEPS_ROWS if kind == "row" else LIST_KEEPS_ITEMS
-    tail = 0
-    while tail < len(current) - 1 and _run_kind(blocks[current[len(current) - 1 - tail]]) == kind:
-        tail += 1
-    rest = 0   # the table's rows from k on
-    while k + rest < len(blocks) and _run_kind(blocks[k + rest]) == kind:
-        rest += 1
+    tail = _run_length(blocks, current[:0:-1], kind)   # the page's first block aside
+    rest = _run_length(blocks, range(k, len(blocks)), kind)   # the run's blocks from k on
     need = max(0, keep - rest)
     if tail == 0 or (tail >= keep and need == 0):
         return []
