@@ -74,7 +74,8 @@ def test_the_text_of_its_section_fills_the_foot_and_the_picture_tops_the_next_pa
     _, chunks = split_blocks(blocks, WIDTH_PT, _height_pt(blocks, words), words, 3)
     texts = [[b.text[:20] for b in ch] for ch in chunks]
     assert chunks[0][-1] is blocks[6], texts
-    assert chunks[1][:2] == [blocks[5], blocks[7]], texts   # the picture heads the next page, its section's end after it
+    # the picture heads the next page, its section's end after it
+    assert chunks[1][:2] == [blocks[5], blocks[7]], texts
     flat = _whole(b for ch in chunks for b in ch)
     assert flat == _whole(blocks[:5] + [blocks[6], blocks[5]] + blocks[7:]), texts   # then the next section
 

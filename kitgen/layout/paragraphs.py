@@ -313,7 +313,8 @@ def split_blocks(blocks, width_pt: float, height_pt: float, words, n_pages: int)
                 at += 1
                 continue
             if current and used + after[k] > height_pt:
-                pulled = _floated_past(blocks, order, at, height_pt - used, after) if blocks[k].figure is not None else []
+                picture = blocks[k].figure is not None
+                pulled = _floated_past(blocks, order, at, height_pt - used, after) if picture else []
                 if pulled:   # the text first, then the picture comes up again
                     order[at:at + 1 + len(pulled)] = pulled + [k]
                     continue
