@@ -38,11 +38,13 @@ def no_waiting(monkeypatch):
 class _Worker:
     """A pool of one that runs nothing: it keeps what it is sent, in order,
     unfinished until the test finishes it; once ``eager``, it finishes
-    each task as it is sent (a kit's result is its number)."""
+    each task as it is sent (a kit's result is its number), and with
+    ``draws_at_once`` each drawing of another worker's plates."""
 
-    def __init__(self):
+    def __init__(self, draws_at_once: bool = False):
         self.sent: list[tuple[object, object, Future]] = []
         self.eager = False
+        self.draws_at_once = draws_at_once
 
     def submit(self, fn, arg):
         future = Future()
@@ -50,6 +52,8 @@ class _Worker:
         self.sent.append((fn, arg, future))
         if self.eager:
             self.finish_all()
+        elif self.draws_at_once and fn is draw_for:
+            future.set_result({})
         return future
 
     def unfinished(self):
@@ -100,9 +104,10 @@ def test_an_idle_worker_takes_the_busiest_ones_waiting_school():
 
 
 def _moved_case():
-    """Five schools of eight on two workers: worker 0 has three, and the
-    third one's plates are drawn by worker 1 first (plate_moves)."""
-    jobs = school_jobs([(51.5, 8), (45.8, 8), (-23.5, 8), (38.0, 8), (12.0, 8)])
+    """Five schools of eight on two workers, in both hemispheres: one
+    worker has three, and the third one's plates are drawn by the other
+    first (plate_moves)."""
+    jobs = school_jobs([(51.5, 8), (-45.8, 8), (23.5, 8), (-38.0, 8), (12.0, 8)])
     moves = plate_moves(worker_shares(jobs, 2))
     assert len(moves) == 1
     return jobs, moves[0]
@@ -169,9 +174,10 @@ def test_a_school_whose_plates_could_not_be_drawn_elsewhere_is_built_all_the_sam
 
 def test_one_kit_a_school_is_shared_kit_by_kit():
     # forty kits each its own latitude: each worker is sent one kit at a
-    # time, and the worker that finishes faster builds more of them
+    # time, and the worker that finishes faster builds more of them (the
+    # plates a worker may draw for the other's school finished as sent)
     jobs = school_jobs([(-60 + 3 * k, 1) for k in range(40)])
-    workers = [_Worker(), _Worker()]
+    workers = [_Worker(draws_at_once=True), _Worker(draws_at_once=True)]
     results = dispatch(jobs, workers)
     done = []
     for step in range(40):

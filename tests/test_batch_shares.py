@@ -8,9 +8,10 @@ whose schedule is within 4/3 of the best."""
 from __future__ import annotations
 
 import pickle
+from itertools import groupby
 
 from kitgen import kit as kit_module
-from kitgen.batch.shares import plate_cost, plate_moves, school_cost, worker_shares
+from kitgen.batch.shares import plate_cost, plate_moves, school_cost, share_load, worker_shares
 from kitgen.batch.work import KitJob
 from kitgen.recipe.load import validate_recipe
 from kitgen.render.json_export import render_json
@@ -84,9 +85,10 @@ def test_a_school_stays_whole_where_splitting_costs_more():
 
 
 def _loads(shares, moves):
-    """Each worker's work: its kits and its schools' parts, the plates
-    moved counted where they are drawn."""
-    loads = [len(s) + sum(school_cost(school) for school in {kit_module.school_of(j.recipe) for j in s})
+    """Each worker's work (share_load: its kits, its schools' parts, a
+    family's shared parts once), the plates moved counted where they are
+    drawn."""
+    loads = [share_load([list(g) for _, g in groupby(s, key=lambda j: kit_module.school_of(j.recipe))])
              for s in shares]
     for busy, idle, school in moves:
         loads[busy] -= plate_cost(school)
@@ -95,9 +97,10 @@ def _loads(shares, moves):
 
 
 def test_plates_of_an_odd_school_out_are_drawn_by_the_other_worker():
-    # five schools of eight on two workers: three schools against two
-    # whole; with plates moved the loads differ by less than a plate
-    jobs = school_jobs([(51.5, 8), (45.8, 8), (-23.5, 8), (38.0, 8), (12.0, 8)])
+    # five schools of eight on two workers, in both hemispheres: three
+    # schools against two whole; with plates moved the loads differ by
+    # less than a plate
+    jobs = school_jobs([(51.5, 8), (-45.8, 8), (23.5, 8), (-38.0, 8), (12.0, 8)])
     shares = worker_shares(jobs, 2)
     moves = plate_moves(shares)
     assert moves
@@ -141,3 +144,29 @@ def test_schools_that_cost_more_go_to_different_workers():
     assert sorted(sorted({j.recipe.sheet for j in s}) for s in shares) == [["a4", "a5"], ["a4", "a5"]]
     heavy, light = (school_cost(jobs[0].recipe), school_cost(jobs[10].recipe))
     assert heavy > 1.5 * light   # the small sheet's crowded plate: about 1.8 times the A4 kit at 45 N, measured
+
+
+def test_schools_of_one_family_share_a_worker():
+    # four schools of ten listed in turn, two in English (north) and two
+    # in Spanish (north): each worker gets one language's two schools, so
+    # that it draws their shared rete, maters, rule and alidade and reads
+    # its language once (FAMILY_MS, measured), where dealing school by
+    # school gave each worker one school of each language
+    jobs, n = [], 0
+    for lat, language in ((51.2, "en"), (40.4, "es"), (53.1, "en"), (41.6, "es")):
+        for _ in range(10):
+            n += 1
+            jobs.append(KitJob(n, validate_recipe({"latitude": lat, "language": language, "owner": f"Pupil {n}"})))
+    shares = worker_shares(jobs, 2)
+    assert sorted(sorted({j.recipe.language for j in s}) for s in shares) == [["en"], ["es"]]
+    assert [len(s) for s in shares] == [20, 20]
+    assert plate_moves(shares) == []
+
+
+def test_a_family_is_split_where_keeping_it_whole_costs_more():
+    # six schools of five in English north and one in the south: the
+    # northern family is too large for one worker, and is split
+    jobs = school_jobs([(51.5, 5), (45.8, 5), (38.0, 5), (52.5, 5), (44.0, 5), (40.0, 5), (-33.9, 5)])
+    shares = worker_shares(jobs, 2)
+    north = [sum(_school(j) > 0 for j in s) for s in shares]
+    assert min(north) >= 10
