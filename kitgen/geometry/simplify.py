@@ -18,35 +18,42 @@ import numpy as np
 
 def simplified(points, tolerance_mm: float) -> list[tuple[float, float]]:
     """The vertices of ``points`` (a sequence of (x, y) mm) that the rule
-    keeps at ``tolerance_mm``, in order, both ends included."""
+    keeps at ``tolerance_mm``, in order, both ends included.  The spans
+    of one depth are worked out together, as arrays (each span's
+    farthest vertex the first of the farthest, as one span at a time
+    finds it): the same vertices, in far fewer steps (#12)."""
     pts = np.asarray(points, dtype=float)
     n = len(pts)
     if n < 3:
         return [tuple(map(float, p)) for p in pts]
     keep = np.zeros(n, dtype=bool)
     keep[0] = keep[-1] = True
-    spans = [(0, n - 1)]
-    while spans:
-        i, j = spans.pop()
-        if j - i < 2:
-            continue
-        a, b = pts[i], pts[j]
-        inner = pts[i + 1:j]
-        d = _distances_mm(inner, a, b)
-        k = int(np.argmax(d))
-        if d[k] > tolerance_mm:
-            m = i + 1 + k
-            keep[m] = True
-            spans += [(i, m), (m, j)]
+    first, last = np.array([0]), np.array([n - 1])
+    while len(first):
+        inner = last - first - 1
+        first, last, inner = first[inner > 0], last[inner > 0], inner[inner > 0]
+        if not len(first):
+            break
+        starts = np.cumsum(inner) - inner
+        span = np.repeat(np.arange(len(first)), inner)
+        at = np.repeat(first + 1 - starts, inner) + np.arange(int(inner.sum()))
+        d = _distances_mm(pts[at], pts[first][span], pts[last][span])
+        farthest = np.maximum.reduceat(d, starts)
+        # the first vertex of each span at its farthest
+        k = np.minimum.reduceat(np.where(d == farthest[span], at, n), starts)
+        split = farthest > tolerance_mm
+        keep[k[split]] = True
+        first, last = np.concatenate([first[split], k[split]]), np.concatenate([k[split], last[split]])
     return [tuple(map(float, p)) for p in pts[keep]]
 
 
 def _distances_mm(pts, a, b):
-    """Each point's distance to the segment from ``a`` to ``b`` (to ``a``
-    itself when the two coincide, as at a closed curve's ends)."""
-    ab = b - a
-    length2 = float(ab @ ab)
-    if length2 == 0.0:
-        return np.hypot(*(pts - a).T)
-    t = np.clip((pts - a) @ ab / length2, 0.0, 1.0)
-    return np.hypot(*(pts - (a + t[:, None] * ab)).T)
+    """Each point's distance to the segment from its ``a`` to its ``b``
+    (rows of the same length; to ``a`` itself where the two coincide, as
+    at a closed curve's ends)."""
+    abx, aby = b[:, 0] - a[:, 0], b[:, 1] - a[:, 1]
+    px, py = pts[:, 0] - a[:, 0], pts[:, 1] - a[:, 1]
+    length2 = abx * abx + aby * aby
+    t = np.clip((px * abx + py * aby) / np.where(length2 == 0.0, 1.0, length2), 0.0, 1.0)
+    t = np.where(length2 == 0.0, 0.0, t)
+    return np.hypot(pts[:, 0] - (a[:, 0] + t * abx), pts[:, 1] - (a[:, 1] + t * aby))
