@@ -44,7 +44,7 @@ def simplified(points, tolerance_mm: float) -> list[tuple[float, float]]:
         split = farthest > tolerance_mm
         keep[k[split]] = True
         first, last = np.concatenate([first[split], k[split]]), np.concatenate([k[split], last[split]])
-    return [tuple(map(float, p)) for p in pts[keep]]
+    return [tuple(p) for p in pts[keep].tolist()]
 
 
 def _distances_mm(pts, a, b):

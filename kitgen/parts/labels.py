@@ -503,22 +503,25 @@ def _place_table(x, y, w, h, offset_mm, reaches, needs_leader):
     """The places for a label ``w`` by ``h`` mm beside the point (x, y) at
     each of ``reaches`` in turn, all at once (#12): (x and y of each place
     as an array n x 2, their anchors, ``needs_leader``, their boxes of
-    :func:`_box_at` as an array n x 4), the same numbers, summed in the
-    same order, as one by one."""
+    :func:`_box_at` as an array n x 4, then the two arrays as lists), the
+    same numbers, summed in the same order, as one by one."""
     ((tx, on_x), (ty, on_y), (ty2, on_y2)), setback, anchors = _place_terms(offset_mm, h, reaches)
     at_x = np.where(on_x, x + tx, x)
     at_y = np.where(on_y, y + ty, y)
     at_y = np.where(on_y2, at_y + ty2, at_y)
     x0 = at_x - setback * w
     boxes = np.stack([x0, at_y - h / 2, x0 + w, at_y + h / 2], axis=1)
-    return np.stack([at_x, at_y], axis=1), anchors, needs_leader, boxes
+    at = np.stack([at_x, at_y], axis=1)
+    # the places also as lists, read place by place without numpy's
+    # scalars (#12)
+    return at, anchors, needs_leader, boxes, at.tolist(), boxes.tolist()
 
 
 def _place(table, i: int):
     """(at, anchor, needs_leader, box) of place ``i`` of a table of
     :func:`_place_table`."""
-    at, anchors, needs_leader, boxes = table
-    return (at[i, 0], at[i, 1]), anchors[i], needs_leader, tuple(boxes[i])
+    _, anchors, needs_leader, _, at, boxes = table
+    return tuple(at[i]), anchors[i], needs_leader, tuple(boxes[i])
 
 
 def _leader_ways():

@@ -854,7 +854,8 @@ class PlateLabeller:
             pts = project_vectors(horizontal_vector(alts, np.full_like(alts, A), phi), s, R)
             # the points near enough found as arrays (with room for rounding), then tested one by one (#12)
             near = np.all(np.isfinite(pts), axis=1) & (np.hypot(*(pts - p0).T) < SLIDE_MM + 1e-6)
-            cands = [(x, y, 0.0) for x, y in pts[near] if math.dist((x, y), p0) < SLIDE_MM]
+            p0_xy = p0.tolist()
+            cands = [(x, y, 0.0) for x, y in pts[near].tolist() if math.dist((x, y), p0_xy) < SLIDE_MM]
             b = self.first_free(cands, text, size, protected)
             if b is not None:
                 el = self.put("azimuth_label", b, text, size, azimuth_deg=float(az))
