@@ -5,9 +5,12 @@ LANGUAGE_FACTOR).  Only their ratios matter there; measure again when the
 parts' drawing changes much, and paste what this prints.
 
 Each kit is built in this warm process, its language read before (the
-shares add what reading it costs apart), the least of two builds a
-point (a later latitude a hair away, so that no kept part is reused):
-the whole kit (parts, pages, PDF) and its plate alone, in milliseconds.
+shares add what reading it costs apart), with no part kept from an
+earlier kit (kitgen.parts.reuse let go), the least of two builds a
+point (a later latitude a hair away): the whole kit (parts, pages, PDF)
+and its plate alone, in milliseconds.  Then a third kit a hair away
+again, the parts of its family kept from the second (the rete, the
+maters, the rule and the alidade): FAMILY_MS is what that saves.
 
     python3 benchmarks/school_costs.py            # the tables, about 2 minutes
     python3 benchmarks/school_costs.py --quick    # every 15 degrees, for a look
@@ -23,6 +26,7 @@ from kitgen import parts
 from kitgen.batch.work import warm
 from kitgen.errors import speaking
 from kitgen.layout.pages import layout_kit
+from kitgen.parts import reuse
 from kitgen.recipe.load import validate_recipe
 from kitgen.render.pdf import render_layers
 
@@ -58,8 +62,22 @@ def _kit_ms(spent, latitude: float, language: str, sheet: str) -> tuple[float, f
     return (time.perf_counter() - start) * 1000.0, spent["plate"] * 1000.0
 
 
+#: What a kit cost less with its family's parts kept, at each point (ms),
+#: for the latitude being measured.
+SAVED: list[float] = []
+
+
+def _cold_ms(spent, latitude: float, language: str, sheet: str) -> tuple[float, float]:
+    """:func:`_kit_ms` with nothing kept from an earlier kit."""
+    reuse.let_go()
+    kit_module._NAMELESS.clear()
+    return _kit_ms(spent, latitude, language, sheet)
+
+
 def _least(spent, latitude: float, language: str, sheet: str) -> tuple[float, float]:
-    runs = [_kit_ms(spent, latitude + 0.17 * r, language, sheet) for r in (1, 2)]
+    runs = [_cold_ms(spent, latitude + 0.17 * r, language, sheet) for r in (1, 2)]
+    kept = _kit_ms(spent, latitude + 0.51, language, sheet)   # its family's parts kept from the second
+    SAVED.append(min(runs)[0] - kept[0])
     return min(runs)
 
 
@@ -74,12 +92,16 @@ def main() -> None:
         _kit_ms(spent, 12.3, language, "a4")
     latitudes = range(-75, 76, step)
     for name, sheets in (("", ("a4", "letter")), ("SMALL_", ("a5",))):
-        rows = [[_least(spent, lat, language, sheet) for language in ("en", "fr") for sheet in sheets]
-                for lat in latitudes]
+        rows, saved = [], []
+        for lat in latitudes:
+            SAVED.clear()
+            rows.append([_least(spent, lat, language, sheet) for language in ("en", "fr") for sheet in sheets])
+            saved.append(sum(SAVED) / len(SAVED))
         print(f"{name}FIRST_KIT_MS = {tuple(round(sum(k for k, _ in row) / len(row)) for row in rows)}")
         print(f"{name}PLATE_MS = {tuple(round(sum(p for _, p in row) / len(row)) for row in rows)}")
+        print(f"{name}FAMILY_MS = {tuple(max(0, round(v)) for v in saved)}")
     means = {language: sum(_least(spent, lat, language, "a4")[0] for lat in FACTOR_LATITUDES)
-             for language in LANGUAGES}
+             for language in LANGUAGES}   # (their savings not printed)
     print("LANGUAGE_FACTOR = {" + ", ".join(f'"{k}": {v / means["en"]:.3g}' for k, v in means.items()) + "}")
     print(f"(latitudes {latitudes.start} to {latitudes.stop - 1} every {step} degrees; "
           f"a later pupil's kit is PUPIL_MS)")

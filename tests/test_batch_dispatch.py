@@ -78,7 +78,7 @@ def test_an_idle_worker_takes_the_busiest_ones_waiting_school():
     # four schools of ten on two workers: two schools each
     # (kitgen.batch.shares); worker 1 finishes both while worker 0 is
     # still on its first, so worker 1 builds worker 0's second school
-    jobs = school_jobs([(51.5, 10), (45.8, 10), (-23.5, 10), (38.0, 10)])
+    jobs = school_jobs([(51.5, 10), (45.8, 10), (-33.9, 10), (38.0, 10)])
     shares = worker_shares(jobs, 2)
     assert plate_moves(shares) == []
     planned = [[j.recipe.latitude_deg for j in share] for share in shares]

@@ -26,29 +26,30 @@ from ..paper import SHEET_SIZES_MM
 #: school's shared PDF; measured 4 December 2026).
 PUPIL_MS = 5.0
 #: A school's first kit (ms of CPU, in a warm worker whose language is
-#: already loaded), by latitude from 75 S to 75 N every 5 degrees: the
-#: whole kit, then its plate alone; on an A4 or Letter sheet, and on a
-#: small sheet (A5).  Measured on 4 December 2026 (kitgen's own kits in
+#: already loaded, nothing kept from an earlier kit), by latitude from
+#: 75 S to 75 N every 5 degrees: the whole kit, then its plate alone; on
+#: an A4 or Letter sheet, and on a small sheet (A5).  Measured on 5
+#: December 2026 with ``benchmarks/school_costs.py`` (kitgen's own kits in
 #: English and French, the least of two builds each; only their ratios
 #: matter here): the crowded plates of high latitudes and small sheets
 #: and the crowded southern retes of low latitudes cost up to twice the
 #: least, and a plan that took every school as costing the same left
 #: one worker up to a tenth of a second idle at the end of a set of five.
-FIRST_KIT_MS = (274, 258, 226, 200, 174, 167, 178, 194, 209, 224, 247, 316, 331, 317, 322, 215,
-                228, 205, 232, 229, 215, 216, 201, 188, 176, 180, 188, 227, 251, 300, 300)
-PLATE_MS = (185, 162, 124, 102, 78, 70, 68, 84, 96, 110, 109, 121, 121, 102, 113, 108,
-            121, 103, 123, 129, 113, 106, 92, 84, 74, 72, 81, 106, 126, 193, 193)
-SMALL_FIRST_KIT_MS = (360, 329, 357, 326, 255, 251, 277, 375, 303, 282, 290, 307, 313, 277, 292, 255,
-                      272, 252, 274, 264, 246, 244, 245, 317, 271, 257, 265, 349, 366, 355, 384)
-SMALL_PLATE_MS = (212, 206, 217, 178, 126, 116, 131, 198, 97, 100, 102, 125, 132, 103, 118, 110,
-                  127, 114, 134, 127, 102, 102, 102, 188, 130, 124, 129, 204, 218, 231, 238)
+FIRST_KIT_MS = (363, 312, 259, 247, 213, 220, 222, 237, 273, 304, 385, 502, 448, 473, 421, 247,
+                269, 253, 276, 268, 247, 241, 220, 221, 198, 215, 214, 254, 314, 350, 340)
+PLATE_MS = (232, 192, 140, 120, 89, 86, 80, 98, 115, 122, 132, 137, 133, 139, 125, 111,
+            131, 113, 133, 137, 128, 118, 100, 95, 83, 80, 89, 117, 153, 233, 228)
+SMALL_FIRST_KIT_MS = (440, 411, 450, 398, 335, 318, 373, 446, 371, 325, 373, 367, 353, 313, 343, 301,
+                      293, 281, 310, 307, 274, 285, 274, 366, 290, 328, 307, 395, 401, 385, 429)
+SMALL_PLATE_MS = (245, 242, 249, 200, 140, 130, 146, 215, 107, 101, 111, 134, 135, 107, 118, 115,
+                  126, 116, 136, 135, 107, 107, 106, 210, 132, 130, 142, 227, 239, 245, 263)
 #: How much a school's first kit costs in each language against English
 #: (its words' lengths and scripts: longer names to place, more lines to
-#: set; measured on 4 December 2026 as the mean over eight latitudes from
+#: set; measured on 5 December 2026 as the mean over eight latitudes from
 #: 33 S to 60 N, each language already read), and for a language of the
 #: user's own.
-LANGUAGE_FACTOR = {"en": 1.0, "fr": 1.035, "de": 1.12, "es": 1.02, "pt": 1.04, "it": 1.09, "el": 1.30,
-                   "ru": 1.21, "ar": 1.16, "hi": 1.10}
+LANGUAGE_FACTOR = {"en": 1.0, "fr": 1.05, "de": 1.16, "es": 1.01, "pt": 1.02, "it": 1.06, "el": 1.09,
+                   "ru": 1.08, "ar": 1.14, "hi": 1.05}
 OTHER_LANGUAGE_FACTOR = 1.15
 #: A sheet whose shorter side is under this (mm) draws the smaller kit.
 SMALL_SHEET_MM = 180.0
@@ -59,13 +60,14 @@ LANGUAGE_MS = 50.0
 SHAPED_LANGUAGE_MS = 150.0
 SHAPED_LANGUAGES = ("ar", "hi")
 #: What a school's first kit costs less on a worker that has already
-#: built a school of its family (:func:`family_of`): the rete, the maters,
-#: the rule and the alidade it kept (kitgen.parts.reuse) and the
-#: instructions' stack picture.  Measured on 5 December 2026 as the
-#: second school's first kit after one of its family against after one
-#: in another language (the least of three runs): 55 ms less in English
-#: at 53 N, 45 in Greek at 41 N, 36 in Spanish at 23 S.
-FAMILY_MS = 40.0
+#: built a school of its family (:func:`family_of`), by latitude as the
+#: tables above and measured with them: the rete, the maters, the rule
+#: and the alidade it takes kept (kitgen.parts.reuse); the crowded
+#: southern retes of low latitudes most.
+FAMILY_MS = (52, 39, 42, 49, 3, 44, 51, 45, 80, 106, 184, 292, 235, 267, 210, 44,
+             66, 66, 70, 61, 46, 48, 49, 48, 20, 53, 39, 33, 51, 24, 20)
+SMALL_FAMILY_MS = (54, 0, 52, 87, 91, 100, 116, 107, 161, 112, 152, 119, 111, 54, 127, 72,
+                   67, 65, 72, 65, 63, 77, 58, 62, 1, 99, 38, 57, 53, 25, 52)
 
 
 def school_cost(recipe) -> float:
@@ -80,9 +82,20 @@ def parts_cost(recipe) -> float:
     """:func:`school_cost` but for reading the language: its first kit by
     latitude, sheet and language, in a later pupil's kits."""
     first = _by_latitude(SMALL_FIRST_KIT_MS if _small(recipe) else FIRST_KIT_MS, recipe.latitude_deg)
-    factor = OTHER_LANGUAGE_FACTOR if recipe.language_file else LANGUAGE_FACTOR.get(recipe.language,
-                                                                                   OTHER_LANGUAGE_FACTOR)
-    return first * factor / PUPIL_MS
+    return first * _language_factor(recipe) / PUPIL_MS
+
+
+def _language_factor(recipe) -> float:
+    if recipe.language_file:
+        return OTHER_LANGUAGE_FACTOR
+    return LANGUAGE_FACTOR.get(recipe.language, OTHER_LANGUAGE_FACTOR)
+
+
+def family_saving(recipe) -> float:
+    """What ``recipe``'s school costs less where its worker has built a
+    school of its family (:data:`FAMILY_MS`), in a later pupil's kits."""
+    saved = _by_latitude(SMALL_FAMILY_MS if _small(recipe) else FAMILY_MS, recipe.latitude_deg)
+    return saved * _language_factor(recipe) / PUPIL_MS
 
 
 def family_of(recipe):
@@ -98,9 +111,10 @@ def family_of(recipe):
 def share_load(pieces: list[list]) -> float:
     """The work of a worker's ``pieces`` (each one school's jobs), in a
     later pupil's kits: the kits, each school's parts (:func:`parts_cost`),
-    each language read once (:func:`language_cost`), and
-    :data:`FAMILY_MS` less for each school after the first of its
-    family (:func:`family_of`)."""
+    each language read once (:func:`language_cost`), and each family's
+    shared parts drawn once (:func:`family_of`): each school's
+    :func:`family_saving` less, and the largest of a family's added back,
+    for the school that draws them."""
     return _load(_all_facts(pieces))
 
 
@@ -108,21 +122,25 @@ def _all_facts(pieces: list[list]) -> list[tuple]:
     """What :func:`share_load` reads of each piece: its kits and parts'
     cost, its language (a number) and that language's cost, its family
     (a number: hashed once, where a recipe's hash is worked out anew at
-    each call)."""
+    each call) and its :func:`family_saving`."""
     numbers: dict = {}
     out = []
     for piece in pieces:
         school = job_school(piece[0])
         language = numbers.setdefault(_language(school), len(numbers))
         family = numbers.setdefault(family_of(school), len(numbers))
-        out.append((len(piece) + parts_cost(school), language, language_cost(school), family))
+        out.append((len(piece) + parts_cost(school), language, language_cost(school), family,
+                    family_saving(school)))
     return out
 
 
 def _load(facts: list[tuple]) -> float:
     """:func:`share_load` of pieces by their :func:`_facts`."""
-    load = sum(f[0] for f in facts) + sum({f[1]: f[2] for f in facts}.values())
-    return load - FAMILY_MS / PUPIL_MS * (len(facts) - len({f[3] for f in facts}))
+    load = sum(f[0] - f[4] for f in facts) + sum({f[1]: f[2] for f in facts}.values())
+    drawn: dict = {}
+    for f in facts:
+        drawn[f[3]] = max(drawn.get(f[3], 0.0), f[4])
+    return load + sum(drawn.values())
 
 
 def _language(recipe) -> tuple:
