@@ -30,26 +30,26 @@ PUPIL_MS = 5.0
 #: 75 S to 75 N every 5 degrees: the whole kit, then its plate alone; on
 #: an A4 or Letter sheet, and on a small sheet (A5).  Measured on 5
 #: December 2026 with ``benchmarks/school_costs.py`` (kitgen's own kits in
-#: English and French, the least of two builds each; only their ratios
+#: English and French, the least of three builds each; only their ratios
 #: matter here): the crowded plates of high latitudes and small sheets
 #: and the crowded southern retes of low latitudes cost up to twice the
 #: least, and a plan that took every school as costing the same left
 #: one worker up to a tenth of a second idle at the end of a set of five.
-FIRST_KIT_MS = (363, 312, 259, 247, 213, 220, 222, 237, 273, 304, 385, 502, 448, 473, 421, 247,
-                269, 253, 276, 268, 247, 241, 220, 221, 198, 215, 214, 254, 314, 350, 340)
-PLATE_MS = (232, 192, 140, 120, 89, 86, 80, 98, 115, 122, 132, 137, 133, 139, 125, 111,
-            131, 113, 133, 137, 128, 118, 100, 95, 83, 80, 89, 117, 153, 233, 228)
-SMALL_FIRST_KIT_MS = (440, 411, 450, 398, 335, 318, 373, 446, 371, 325, 373, 367, 353, 313, 343, 301,
-                      293, 281, 310, 307, 274, 285, 274, 366, 290, 328, 307, 395, 401, 385, 429)
-SMALL_PLATE_MS = (245, 242, 249, 200, 140, 130, 146, 215, 107, 101, 111, 134, 135, 107, 118, 115,
-                  126, 116, 136, 135, 107, 107, 106, 210, 132, 130, 142, 227, 239, 245, 263)
+FIRST_KIT_MS = (346, 301, 256, 236, 208, 198, 204, 232, 261, 290, 365, 458, 436, 418, 448, 249,
+                294, 246, 265, 253, 237, 228, 208, 201, 187, 188, 200, 246, 273, 341, 327)
+PLATE_MS = (228, 189, 139, 117, 90, 79, 76, 96, 109, 117, 122, 129, 134, 113, 131, 112,
+            140, 110, 133, 134, 125, 115, 98, 89, 78, 76, 85, 115, 140, 223, 211)
+SMALL_FIRST_KIT_MS = (432, 413, 427, 395, 331, 303, 339, 428, 309, 312, 327, 336, 341, 318, 333, 287,
+                      302, 293, 327, 311, 274, 269, 268, 345, 291, 290, 306, 420, 425, 379, 416)
+SMALL_PLATE_MS = (238, 234, 235, 199, 146, 132, 135, 213, 100, 102, 105, 130, 134, 108, 117, 116,
+                  134, 124, 148, 137, 109, 107, 106, 202, 136, 136, 147, 240, 259, 243, 254)
 #: How much a school's first kit costs in each language against English
 #: (its words' lengths and scripts: longer names to place, more lines to
 #: set; measured on 5 December 2026 as the mean over eight latitudes from
 #: 33 S to 60 N, each language already read), and for a language of the
 #: user's own.
-LANGUAGE_FACTOR = {"en": 1.0, "fr": 1.05, "de": 1.16, "es": 1.01, "pt": 1.02, "it": 1.06, "el": 1.09,
-                   "ru": 1.08, "ar": 1.14, "hi": 1.05}
+LANGUAGE_FACTOR = {"en": 1.0, "fr": 0.989, "de": 1.02, "es": 0.951, "pt": 0.993, "it": 0.965, "el": 1.11,
+                   "ru": 0.971, "ar": 1.04, "hi": 0.958}
 OTHER_LANGUAGE_FACTOR = 1.15
 #: A sheet whose shorter side is under this (mm) draws the smaller kit.
 SMALL_SHEET_MM = 180.0
@@ -64,10 +64,10 @@ SHAPED_LANGUAGES = ("ar", "hi")
 #: tables above and measured with them: the rete, the maters, the rule
 #: and the alidade it takes kept (kitgen.parts.reuse); the crowded
 #: southern retes of low latitudes most.
-FAMILY_MS = (52, 39, 42, 49, 3, 44, 51, 45, 80, 106, 184, 292, 235, 267, 210, 44,
-             66, 66, 70, 61, 46, 48, 49, 48, 20, 53, 39, 33, 51, 24, 20)
-SMALL_FAMILY_MS = (54, 0, 52, 87, 91, 100, 116, 107, 161, 112, 152, 119, 111, 54, 127, 72,
-                   67, 65, 72, 65, 63, 77, 58, 62, 1, 99, 38, 57, 53, 25, 52)
+FAMILY_MS = (44, 37, 41, 41, 30, 38, 41, 53, 72, 99, 164, 253, 224, 217, 238, 63,
+             78, 64, 62, 51, 43, 44, 39, 39, 31, 32, 33, 30, 32, 36, 39)
+SMALL_FAMILY_MS = (52, 85, 68, 86, 43, 93, 102, 189, 109, 105, 119, 100, 97, 103, 114, 60,
+                   60, 67, 78, 67, 66, 63, 45, 95, 57, 54, 36, 0, 61, 42, 34)
 
 
 def school_cost(recipe) -> float:
