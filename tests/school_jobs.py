@@ -15,3 +15,13 @@ def school_jobs(schools) -> list[KitJob]:
             n += 1
             jobs.append(KitJob(n, validate_recipe({"latitude": lat, "owner": f"Pupil {n}"})))
     return jobs
+
+
+def recipe_jobs(schools) -> list[KitJob]:
+    """Jobs numbered in order: ``schools`` is a list of (recipe keys, pupils)."""
+    jobs, n = [], 0
+    for keys, pupils in schools:
+        for _ in range(pupils):
+            n += 1
+            jobs.append(KitJob(n, validate_recipe({**keys, "owner": f"Pupil {n}"})))
+    return jobs

@@ -16,7 +16,7 @@ from kitgen.batch.work import KitJob
 from kitgen.recipe.load import validate_recipe
 from kitgen.render.json_export import render_json
 
-from .school_jobs import school_jobs
+from .school_jobs import recipe_jobs, school_jobs
 
 
 def _school(job):
@@ -135,15 +135,12 @@ def test_schools_that_cost_more_go_to_different_workers():
     # 45 N, ten pupils each: dealt by their first kits' cost (the table of
     # kitgen.batch.shares, measured), each worker gets one of each, where
     # schools taken to cost the same had gone two and two by size
-    jobs, n = [], 0
-    for lat, sheet in ((69.6, "a5"), (45.5, "a4"), (70.1, "a5"), (44.8, "a4")):
-        for _ in range(10):
-            n += 1
-            jobs.append(KitJob(n, validate_recipe({"latitude": lat, "sheet": sheet, "owner": f"Pupil {n}"})))
+    jobs = recipe_jobs([({"latitude": lat, "sheet": sheet}, 10)
+                        for lat, sheet in ((69.6, "a5"), (45.5, "a4"), (70.1, "a5"), (44.8, "a4"))])
     shares = worker_shares(jobs, 2)
     assert sorted(sorted({j.recipe.sheet for j in s}) for s in shares) == [["a4", "a5"], ["a4", "a5"]]
     heavy, light = (school_cost(jobs[0].recipe), school_cost(jobs[10].recipe))
-    assert heavy > 1.5 * light   # the small sheet's crowded plate: about 1.8 times the A4 kit at 45 N, measured
+    assert heavy > 1.5 * light   # the small sheet's crowded plate: about twice the A4 kit at 45 N, measured
 
 
 def test_schools_of_one_family_share_a_worker():
@@ -152,11 +149,8 @@ def test_schools_of_one_family_share_a_worker():
     # that it draws their shared rete, maters, rule and alidade and reads
     # its language once (FAMILY_MS, measured), where dealing school by
     # school gave each worker one school of each language
-    jobs, n = [], 0
-    for lat, language in ((51.2, "en"), (40.4, "es"), (53.1, "en"), (41.6, "es")):
-        for _ in range(10):
-            n += 1
-            jobs.append(KitJob(n, validate_recipe({"latitude": lat, "language": language, "owner": f"Pupil {n}"})))
+    jobs = recipe_jobs([({"latitude": lat, "language": language}, 10)
+                        for lat, language in ((51.2, "en"), (40.4, "es"), (53.1, "en"), (41.6, "es"))])
     shares = worker_shares(jobs, 2)
     assert sorted(sorted({j.recipe.language for j in s}) for s in shares) == [["en"], ["es"]]
     assert [len(s) for s in shares] == [20, 20]
