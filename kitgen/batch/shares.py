@@ -8,9 +8,10 @@ where they can; the shares follow the longest-processing-time rule
 Appl. Math. 17, 1969).  Schools of one family (one language, sheet and
 hemisphere: :func:`family_of`) share their rete, maters, rule and
 alidade too, so a deal that keeps a family on one worker is taken where
-it leaves the busiest worker no busier.  These are only the workers' first plans:
-:mod:`kitgen.batch.dispatch` hands a school still waiting to a worker that
-runs out of work.  Which worker builds a kit never changes its bytes.
+it leaves the busiest worker no busier.  These are only the workers'
+first plans: :mod:`kitgen.batch.dispatch` hands a school still waiting
+to a worker that runs out of work.  Which worker builds a kit never
+changes its bytes.
 """
 
 from __future__ import annotations
@@ -135,7 +136,7 @@ def _all_facts(pieces: list[list]) -> list[tuple]:
 
 
 def _load(facts: list[tuple]) -> float:
-    """:func:`share_load` of pieces by their :func:`_facts`."""
+    """:func:`share_load` of pieces by their facts (:func:`_all_facts`)."""
     load = sum(f[0] - f[4] for f in facts) + sum({f[1]: f[2] for f in facts}.values())
     drawn: dict = {}
     for f in facts:
@@ -283,8 +284,8 @@ def _deal(groups: dict, counts: dict, jobs: int):
 def _lpt(units: list[list], jobs: int, facts: dict) -> list[list]:
     """Units of pieces dealt by the longest-processing-time rule, each
     whole (its pieces' load, :func:`share_load`; ``facts``, each piece's
-    :func:`_facts` by its id) to the least loaded worker: each worker's
-    pieces."""
+    facts of :func:`_all_facts` by its id) to the least loaded worker:
+    each worker's pieces."""
     out: list[list] = [[] for _ in range(jobs)]
     loads = [0.0] * jobs
     for unit in sorted(units, key=lambda unit: -_load([facts[id(p)] for p in unit])):
