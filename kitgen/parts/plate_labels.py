@@ -235,10 +235,12 @@ class Room:
         kept = self._lists.get(id(elements))
         if kept is not None and kept[0] is elements and kept[1] == len(elements):
             return kept[2]
-        self.strokes.enter(elements)
+        members = set(map(id, elements))
+        if not members <= self.strokes.entered:   # (else there is nothing to enter, #12)
+            self.strokes.enter(elements)
         for stroke in {el.stroke for el in elements} - self._half_width.keys():
             self._half_width[stroke] = stroke_width_mm(stroke, self.dims) / 2
-        near = {"members": {id(el) for el in elements}, "widest": max(self._half_width.values())}
+        near = {"members": members, "widest": max(self._half_width.values())}
         if len(self._lists) >= 8:
             self._lists.clear()
         self._lists[id(elements)] = (elements, len(elements), near)   # the list kept: its id stays its own
@@ -315,7 +317,9 @@ class Room:
         the growth (mm) of each circle or arc and of each run's stroke for
         ``clear_mm`` (with half the line's width where ``widths``)."""
         near = self._members(elements)
-        self._arrays.enter(elements)
+        if "entered" not in near:   # a list's strokes entered once, not at every screen (#12)
+            self._arrays.enter(elements)
+            near["entered"] = True
         arcs, segs = self._arrays.arrays()
         got = near.get("columns")
         if got is None or got[0] is not arcs:

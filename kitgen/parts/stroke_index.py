@@ -223,7 +223,7 @@ class StrokeArrays:
                 "whole": np.array(whole, dtype=bool)}
 
     def _segments(self) -> dict:
-        ends, owner = [], []
+        ends, owner = [np.zeros((0, 4))], [np.zeros(0, dtype=int)]
         for k, el in enumerate(self.elements):
             g = el.geom
             if el.shape == "segment":
@@ -232,10 +232,13 @@ class StrokeArrays:
                 pts = list(g["points"]) + ([g["points"][0]] if g["closed"] else [])
             else:
                 continue
-            ends += [(p[0], p[1], q[0], q[1]) for p, q in zip(pts, pts[1:])]
-            owner += [k] * (len(pts) - 1)
-        e = np.array(ends, dtype=float).reshape(-1, 4)
-        owner = np.array(owner, dtype=int)
+            xy = np.array(pts, dtype=float).reshape(-1, 2)   # each stroke's ends as arrays at once (#12)
+            if len(xy) < 2:
+                continue
+            ends.append(np.hstack([xy[:-1], xy[1:]]))
+            owner.append(np.full(len(xy) - 1, k, dtype=int))
+        e = np.concatenate(ends)
+        owner = np.concatenate(owner)
         # runs of SEGMENT_RUN segments of one stroke
         first = np.ones(len(owner), dtype=bool)
         first[1:] = owner[1:] != owner[:-1]
