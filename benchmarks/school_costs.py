@@ -62,11 +62,6 @@ def _kit_ms(spent, latitude: float, language: str, sheet: str) -> tuple[float, f
     return (time.perf_counter() - start) * 1000.0, spent["plate"] * 1000.0
 
 
-#: What a kit cost less with its family's parts kept, at each point (ms),
-#: for the latitude being measured.
-SAVED: list[float] = []
-
-
 def _cold_ms(spent, latitude: float, language: str, sheet: str) -> tuple[float, float]:
     """:func:`_kit_ms` with nothing kept from an earlier kit."""
     reuse.let_go()
@@ -74,12 +69,14 @@ def _cold_ms(spent, latitude: float, language: str, sheet: str) -> tuple[float, 
     return _kit_ms(spent, latitude, language, sheet)
 
 
-def _least(spent, latitude: float, language: str, sheet: str) -> tuple[float, float]:
+def _least(spent, latitude: float, language: str, sheet: str) -> tuple[float, float, float]:
+    """The least of three cold builds, whole and its plate, and what the
+    lesser of two builds with its family's parts kept saves (ms)."""
     runs = [_cold_ms(spent, latitude + 0.17 * r, language, sheet) for r in (1, 2, 3)]
     # its family's parts kept from the third
     kept = min(_kit_ms(spent, latitude + 0.17 * r, language, sheet)[0] for r in (4, 5))
-    SAVED.append(min(runs)[0] - kept)
-    return min(runs)
+    kit_ms, plate_ms = min(runs)
+    return kit_ms, plate_ms, kit_ms - kept
 
 
 def main() -> None:
@@ -93,16 +90,13 @@ def main() -> None:
         _kit_ms(spent, 12.3, language, "a4")
     latitudes = range(-75, 76, step)
     for name, sheets in (("", ("a4", "letter")), ("SMALL_", ("a5",))):
-        rows, saved = [], []
-        for lat in latitudes:
-            SAVED.clear()
-            rows.append([_least(spent, lat, language, sheet) for language in ("en", "fr") for sheet in sheets])
-            saved.append(sum(SAVED) / len(SAVED))
-        print(f"{name}FIRST_KIT_MS = {tuple(round(sum(k for k, _ in row) / len(row)) for row in rows)}")
-        print(f"{name}PLATE_MS = {tuple(round(sum(p for _, p in row) / len(row)) for row in rows)}")
-        print(f"{name}FAMILY_MS = {tuple(max(0, round(v)) for v in saved)}")
+        rows = [[_least(spent, lat, language, sheet) for language in ("en", "fr") for sheet in sheets]
+                for lat in latitudes]
+        print(f"{name}FIRST_KIT_MS = {tuple(round(sum(k for k, _, _ in row) / len(row)) for row in rows)}")
+        print(f"{name}PLATE_MS = {tuple(round(sum(p for _, p, _ in row) / len(row)) for row in rows)}")
+        print(f"{name}FAMILY_MS = {tuple(max(0, round(sum(f for _, _, f in row) / len(row))) for row in rows)}")
     means = {language: sum(_least(spent, lat, language, "a4")[0] for lat in FACTOR_LATITUDES)
-             for language in LANGUAGES}   # (their savings not printed)
+             for language in LANGUAGES}
     print("LANGUAGE_FACTOR = {" + ", ".join(f'"{k}": {v / means["en"]:.3g}' for k, v in means.items()) + "}")
     print(f"(latitudes {latitudes.start} to {latitudes.stop - 1} every {step} degrees; "
           f"a later pupil's kit is PUPIL_MS)")

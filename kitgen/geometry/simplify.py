@@ -20,8 +20,9 @@ def simplified(points, tolerance_mm: float) -> list[tuple[float, float]]:
     """The vertices of ``points`` (a sequence of (x, y) mm) that the rule
     keeps at ``tolerance_mm``, in order, both ends included.  The spans
     of one depth are worked out together, as arrays (each span's
-    farthest vertex the first of the farthest, as one span at a time
-    finds it): the same vertices, in far fewer steps (#12)."""
+    farthest vertex the first of the farthest): the rule's vertices in
+    far fewer steps (#12); where two lie equally far within rounding, as
+    on a closed curve, either may be the one kept."""
     pts = np.asarray(points, dtype=float)
     n = len(pts)
     if n < 3:

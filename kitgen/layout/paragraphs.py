@@ -507,11 +507,8 @@ def _rows_kept_together(blocks, current, k: int) -> list[int]:
     keep = TABLE_KEEPS_ROWS if kind == "row" else LIST_KEEPS_ITEMS
     tail = _run_length(blocks, current[:0:-1], kind)   # the page's first block aside
     rest = _run_length(blocks, range(k, len(blocks)), kind)   # the run's blocks from k on
-    need = max(0, keep - rest)
-    if tail == 0 or (tail >= keep and need == 0):
-        return []
-    go = need if tail - need >= keep else tail
-    return current[len(current) - go:]
+    go = _items_to_move(tail, rest, keep)
+    return current[len(current) - go:] if go else []
 
 
 #: A paragraph of one short line: what each block is measured after, for

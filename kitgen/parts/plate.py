@@ -45,7 +45,8 @@ def plate(ctx: PartContext) -> model.Part:
                                    declination_deg=math.degrees(dec))
 
     zenith = horizontal_vector(math.pi / 2, 0.0, phi)
-    els += curves.whole_circle("horizon", zenith, math.pi / 2, s, R, disc, "heavy", altitude_deg=0.0)
+    horizon = curves.whole_circle("horizon", zenith, math.pi / 2, s, R, disc, "heavy", altitude_deg=0.0)
+    els += horizon
     step = ctx.scales.altitude_step_deg
     for alt in np.arange(step, 90.0 - 1e-9, step):
         els += curves.whole_circle("almucantar", zenith, math.radians(90.0 - alt), s, R, disc, "light",
@@ -59,7 +60,7 @@ def plate(ctx: PartContext) -> model.Part:
         els += _unequal_hours(phi, eps, s, R, disc)
 
     els.append(model.segment("meridian", (0.0, -disc), (0.0, disc), "medium"))
-    if horizon_gap_mm(zenith, s, R, disc) >= EAST_WEST_APART_MM:
+    if horizon_gap_mm(horizon) >= EAST_WEST_APART_MM:
         els.append(model.segment("east_west", (-disc, 0.0), (disc, 0.0), "medium"))
     z = project_vectors(zenith, s, R)
     if np.hypot(*z) <= disc:
@@ -91,22 +92,27 @@ def plate(ctx: PartContext) -> model.Part:
 EAST_WEST_APART_MM = 3.0
 
 
-def horizon_gap_mm(zenith, sign: int, equator_radius_mm: float, disc_mm: float) -> float:
+def horizon_gap_mm(horizon) -> float:
     """The greatest distance (mm) of the horizon from the east-west line
-    (the plate's horizontal diameter) inside the drawing's disc: the
-    horizon, the great circle 90 degrees from ``zenith`` (a unit vector),
-    sampled every 0.05 degrees and projected (Snyder 1987, eq. 21-33/34,
-    :func:`project_vectors`)."""
-    east = np.cross([0.0, 0.0, 1.0], zenith)
-    if np.linalg.norm(east) < 1e-9:   # at a pole the horizon is the equator
-        return math.inf
-    east /= np.linalg.norm(east)
-    other = np.cross(zenith, east)
-    t = np.radians(np.arange(0.0, 360.0, 0.05))
-    with np.errstate(invalid="ignore"):
-        xy = project_vectors(np.cos(t)[:, None] * east + np.sin(t)[:, None] * other, sign, equator_radius_mm)
-    inside = np.isfinite(xy).all(axis=1) & (np.hypot(xy[:, 0], xy[:, 1]) <= disc_mm)
-    return float(np.abs(xy[inside, 1]).max()) if inside.any() else math.inf
+    (the plate's horizontal diameter), over its drawn elements, clipped
+    to the drawing's disc (kitgen.parts.curves.whole_circle): a segment's
+    farther end; a circle's or an arc's point farthest from the line, at
+    an end or where it crosses the meridian, its centre lying on it.  No
+    horizon drawn: infinite (the east-west line is then drawn)."""
+    gap = -math.inf
+    for el in horizon:
+        g = el.geom
+        if el.shape == "segment":
+            gap = max(gap, abs(g["from"][1]), abs(g["to"][1]))
+            continue
+        cy, r = g["center"][1], g["radius"]
+        if el.shape == "circle":
+            gap = max(gap, abs(cy) + r)
+            continue
+        a0, a1 = g["start_deg"], g["end_deg"]
+        turns = [a for a in (90.0, 270.0, 450.0, 630.0) if a0 <= a <= a1]
+        gap = max([gap] + [abs(cy + r * math.sin(math.radians(a))) for a in [a0, a1] + turns])
+    return math.inf if gap == -math.inf else gap
 
 
 def plate_title(ctx: PartContext) -> str:
