@@ -276,7 +276,8 @@ def _deal(groups: dict, counts: dict, jobs: int):
     for piece in pieces:
         families.setdefault(facts[id(piece)][3], []).append(piece)
     by_family = _moved_while_lighter(_lpt(list(families.values()), jobs, facts), facts)
-    best = min((by_piece, by_family), key=lambda shares: _measure(_loads(shares, facts)))
+    best = min((_swapped_while_lighter(shares, facts) for shares in (by_piece, by_family)),
+               key=lambda shares: _measure(_loads(shares, facts)))
     out = [[job for piece in share for job in piece] for share in best]
     return out, _loads(best, facts)
 
@@ -317,6 +318,49 @@ def _moved_while_lighter(shares: list[list], facts: dict) -> list[list]:
         i, k, loads = move
         shares[k] = shares[k] + [shares[busy][i]]
         shares[busy] = shares[busy][:i] + shares[busy][i + 1:]
+
+
+def _swapped_while_lighter(shares: list[list], facts: dict) -> list[list]:
+    """Pieces moved from the busiest worker (:func:`_moved_while_lighter`)
+    or swapped, one of its pieces for one of another worker's, as long as
+    that lightens the busiest load: the pairwise interchange of local
+    search for scheduling on identical machines (common practice).  Five
+    schools on two workers, dealt two and three by the
+    longest-processing-time rule, may be evened out only by a swap.  Made
+    only for sets of at most :data:`SWAPS_MOST_PIECES` pieces: beyond,
+    the pieces are small beside a worker's share, and the tries, a pair
+    of pieces each, grow as their square."""
+    shares = _moved_while_lighter(shares, facts)
+    if sum(len(share) for share in shares) > SWAPS_MOST_PIECES:
+        return shares
+    loads = _loads(shares, facts)
+    while True:
+        busy = loads.index(max(loads))
+        best, swap = _measure(loads), None
+        own = [facts[id(p)] for p in shares[busy]]
+        for k in range(len(shares)):
+            if k == busy:
+                continue
+            other = [facts[id(p)] for p in shares[k]]
+            for i in range(len(own)):
+                for j in range(len(other)):
+                    tried = list(loads)
+                    tried[busy] = _load(own[:i] + own[i + 1:] + [other[j]])
+                    tried[k] = _load(other[:j] + other[j + 1:] + [own[i]])
+                    if _measure(tried) < best:
+                        best, swap = _measure(tried), (i, k, j, tried)
+        if swap is None:
+            return shares
+        i, k, j, loads = swap
+        mine, theirs = shares[busy][i], shares[k][j]
+        shares[busy] = shares[busy][:i] + shares[busy][i + 1:] + [theirs]
+        shares[k] = shares[k][:j] + shares[k][j + 1:] + [mine]
+        shares = _moved_while_lighter(shares, facts)
+        loads = _loads(shares, facts)
+
+
+#: The most pieces of a set whose deal tries swaps (:func:`_swapped_while_lighter`).
+SWAPS_MOST_PIECES = 16
 
 
 def _loads(shares: list[list], facts: dict) -> list[float]:
