@@ -599,12 +599,17 @@ class PlateLabeller:
         self.out.append(el)
         return el
 
-    def first_free(self, candidates, text, size_pt, protected, near=None):
+    def first_free(self, candidates, text, size_pt, protected, near=None, unfree: set | None = None):
         """The first free upright box centred on one of the candidate
         points (nearest first): :data:`CLEAR_MM` from the lines
         ``protected`` where one is no more than :data:`PREFER_CLEAR_MM`
         farther on, else the first that comes no nearer them than
-        :data:`MARGIN_MM` (beside a line, never in a gap of it)."""
+        :data:`MARGIN_MM` (beside a line, never in a gap of it).
+        ``unfree``, where given, holds candidates already found not free
+        (:meth:`Room.free`, with these lines and this text, in the room as
+        it is): they are not tested again, and those found now are added
+        (#12: an almucantar's wider search goes over its nearer one's
+        places again)."""
         near = self.reference if near is None else near
         ext = self.w.measure(text, size_pt)   # measured once for all its places
         box = Box((0.0, 0.0), 0.0, ext.width_mm / 2, ext.height_mm / 2)   # moved to each place
@@ -613,12 +618,19 @@ class PlateLabeller:
             start = start or c
             if fallback is not None and math.dist(c[:2], start[:2]) > fallback[1] + PREFER_CLEAR_MM:
                 break
+            if unfree is not None and c in unfree:
+                continue
             b = box.moved((c[0], c[1]))
             if fallback is not None:   # only a place clear of the lines is of use now: that test first (#12)
-                if self.room.clear_of(b, protected, CLEAR_MM) and self.room.free(b, protected, near, MARGIN_MM):
-                    return b
+                if self.room.clear_of(b, protected, CLEAR_MM):
+                    if self.room.free(b, protected, near, MARGIN_MM):
+                        return b
+                    if unfree is not None:
+                        unfree.add(c)
                 continue
             if not self.room.free(b, protected, near, MARGIN_MM):
+                if unfree is not None:
+                    unfree.add(c)
                 continue
             if self.room.clear_of(b, protected, CLEAR_MM):
                 return b
@@ -741,8 +753,10 @@ class PlateLabeller:
         placed = []
         for el, a in self._almucantar_anchors(els, number_everywhere):
             b = None
+            along = {reach: points_along(el, a, reach_mm=reach) for reach in dict(tries)}
+            unfree: dict[int, set] = {}   # by list of lines: the places found not free (a farther reach repeats them)
             for reach, lines in tries:
-                b = b or self.first_free(points_along(el, a, reach_mm=reach), text, size, lines)
+                b = b or self.first_free(along[reach], text, size, lines, unfree=unfree.setdefault(id(lines), set()))
             if b is not None:
                 placed.append(self.put("almucantar_label", b, text, size, altitude_deg=float(alt)))
         if placed or not number_everywhere:
