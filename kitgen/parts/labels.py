@@ -363,8 +363,7 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
                     continue
                 # (no leader chosen before passes between this label and
                 # its point, with a leader of its own or not)
-                if any(_segments_cross(a, b, p, q) for a, b in near(lines, _link_box((x, y), box), k, slack)
-                       for p, q in _link((x, y), box)):
+                if _crosses_link((x, y), box, near(lines, _link_box((x, y), box), k, slack)):
                     continue
             leader = None
             if needs_leader:
@@ -550,6 +549,33 @@ def _link_box(point, box):
     """The axis-aligned box that holds a point and its label's box, and so
     every segment of :func:`_link`."""
     return (min(point[0], box[0]), min(point[1], box[1]), max(point[0], box[2]), max(point[1], box[3]))
+
+
+def _crosses_link(point, box, segments) -> bool:
+    """Whether one of ``segments`` crosses a segment of the link from the
+    point to its label's box (:func:`_link`), as :func:`_segments_cross`
+    finds it.  A segment whose box lies apart from the link's box
+    (:func:`_link_box`) by more than :data:`APART_MM` crosses none of
+    them, and is not tested: the grid's neighbours of a place are most
+    often such (#12)."""
+    x0, y0, x1, y1 = _link_box(point, box)
+    x0, y0, x1, y1 = x0 - APART_MM, y0 - APART_MM, x1 + APART_MM, y1 + APART_MM
+    links = None
+    for a, b in segments:
+        if (a[0] < x0 and b[0] < x0) or (a[0] > x1 and b[0] > x1) or (a[1] < y0 and b[1] < y0) \
+                or (a[1] > y1 and b[1] > y1):
+            continue
+        if links is None:
+            links = _link(point, box)
+        for p, q in links:
+            if _segments_cross(a, b, p, q):
+                return True
+    return False
+
+
+#: A gap (mm) between two boxes far wider than the rounding of their
+#: coordinates, past which segments in them cannot be found to cross.
+APART_MM = 1e-6
 
 
 def _link(point, box):
