@@ -17,6 +17,7 @@ import pytest
 
 from kitgen import kit
 from kitgen.errors import speaking
+from kitgen.parts import reuse
 from kitgen.parts.plate_labels import (ROUND_REACH_MM, ROUND_STEP_MM, STEP_MM, PlateLabeller, around, midpoint,
                                       points_along)
 from kitgen.recipe.load import validate_recipe
@@ -61,3 +62,31 @@ def test_a_point_skipped_has_no_free_place(monkeypatch, latitude, language):
         kit.build_kit(recipe)
     assert seen["skipped"] > 0   # the search reached the small circle, and points were skipped
     assert seen.get("levels skipped", 0) > 0   # and searches were left out as finding nothing
+
+
+@pytest.mark.parametrize("latitude, language, sheet", [(45.0, "en", "a5"), (-33.9, "es", "a4"), (0.4, "fr", "letter"),
+                                                       (66.0, "ru", "a4")])
+def test_the_farther_search_skips_only_places_found_not_free(monkeypatch, latitude, language, sheet):
+    # An almucantar's number sought farther along its circle skips the
+    # places its nearer search found not free with the same lines
+    # (first_free's ``unfree``).  Reference: the plate drawn with every
+    # place tested again, as before: the same elements, value for value.
+    recipe = validate_recipe({"epoch": 2027, "latitude": latitude, "language": language, "sheet": sheet})
+    with speaking(recipe.language, None):
+        reuse.let_go()
+        kept = kit.draw_plates(recipe)
+        reuse.let_go()   # drawn again, not taken from the kept parts
+        first_free = PlateLabeller.first_free
+        asked = {"with a set": 0}
+
+        def every_place(self, candidates, text, size_pt, protected, near=None, unfree=None):
+            asked["with a set"] += unfree is not None
+            return first_free(self, candidates, text, size_pt, protected, near)
+
+        monkeypatch.setattr(PlateLabeller, "first_free", every_place)
+        fresh = kit.draw_plates(recipe)
+        reuse.let_go()
+    assert asked["with a set"] > 0
+    for key, part in kept.items():
+        assert [(e.role, e.geom, e.values) for e in fresh[key].elements] == \
+            [(e.role, e.geom, e.values) for e in part.elements]
