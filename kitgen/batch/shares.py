@@ -30,27 +30,29 @@ PUPIL_MS = 5.0
 #: already loaded, nothing kept from an earlier kit), by latitude from
 #: 75 S to 75 N every 5 degrees: the whole kit, then its plate alone; on
 #: an A4 or Letter sheet, and on a small sheet (A5).  Measured on 5
-#: December 2026 with ``benchmarks/school_costs.py`` (kitgen's own kits in
+#: December 2026 at 04:36 UTC, after the rete's names were placed faster,
+#: with ``benchmarks/school_costs.py`` (kitgen's own kits in
 #: English and French, the least of three builds each; only their ratios
 #: matter here): the crowded plates of high latitudes and small sheets
 #: and the crowded southern retes of low latitudes cost up to twice the
 #: least, and a plan that took every school as costing the same left
 #: one worker up to a tenth of a second idle at the end of a set of five.
-FIRST_KIT_MS = (346, 301, 256, 236, 208, 198, 204, 232, 261, 290, 365, 458, 436, 418, 448, 249,
-                294, 246, 265, 253, 237, 228, 208, 201, 187, 188, 200, 246, 273, 341, 327)
-PLATE_MS = (228, 189, 139, 117, 90, 79, 76, 96, 109, 117, 122, 129, 134, 113, 131, 112,
-            140, 110, 133, 134, 125, 115, 98, 89, 78, 76, 85, 115, 140, 223, 211)
-SMALL_FIRST_KIT_MS = (432, 413, 427, 395, 331, 303, 339, 428, 309, 312, 327, 336, 341, 318, 333, 287,
-                      302, 293, 327, 311, 274, 269, 268, 345, 291, 290, 306, 420, 425, 379, 416)
-SMALL_PLATE_MS = (238, 234, 235, 199, 146, 132, 135, 213, 100, 102, 105, 130, 134, 108, 117, 116,
-                  134, 124, 148, 137, 109, 107, 106, 202, 136, 136, 147, 240, 259, 243, 254)
+FIRST_KIT_MS = (326, 287, 247, 220, 190, 183, 197, 220, 236, 270, 302, 405, 384, 359, 364, 243,
+                264, 243, 265, 260, 240, 236, 226, 211, 207, 212, 200, 253, 278, 341, 332)
+PLATE_MS = (221, 181, 134, 111, 83, 74, 75, 91, 100, 114, 111, 123, 128, 109, 117, 110,
+            129, 107, 131, 136, 123, 117, 103, 91, 86, 86, 85, 121, 140, 227, 214)
+SMALL_FIRST_KIT_MS = (429, 406, 435, 409, 305, 276, 326, 443, 307, 303, 302, 326, 341, 319, 313, 288,
+                      286, 284, 293, 302, 262, 268, 266, 362, 281, 267, 292, 378, 393, 374, 417)
+SMALL_PLATE_MS = (238, 241, 242, 206, 136, 119, 130, 214, 97, 98, 100, 123, 130, 109, 111, 117,
+                  125, 120, 132, 129, 103, 104, 103, 204, 128, 123, 132, 218, 235, 236, 254)
 #: How much a school's first kit costs in each language against English
 #: (its words' lengths and scripts: longer names to place, more lines to
 #: set; measured on 5 December 2026 as the mean over eight latitudes from
-#: 33 S to 60 N, each language already read), and for a language of the
+#: 33 S to 60 N, each language already read, then the mean of two such
+#: runs, which differed by up to a tenth), and for a language of the
 #: user's own.
-LANGUAGE_FACTOR = {"en": 1.0, "fr": 0.989, "de": 1.02, "es": 0.951, "pt": 0.993, "it": 0.965, "el": 1.11,
-                   "ru": 0.971, "ar": 1.04, "hi": 0.958}
+LANGUAGE_FACTOR = {"en": 1.0, "fr": 1.04, "de": 1.09, "es": 0.986, "pt": 1.02, "it": 1.01, "el": 1.14,
+                   "ru": 1.01, "ar": 1.1, "hi": 1.05}
 OTHER_LANGUAGE_FACTOR = 1.15
 #: A sheet whose shorter side is under this (mm) draws the smaller kit.
 SMALL_SHEET_MM = 180.0
@@ -65,10 +67,10 @@ SHAPED_LANGUAGES = ("ar", "hi")
 #: tables above and measured with them: the rete, the maters, the rule
 #: and the alidade it takes kept (kitgen.parts.reuse); the crowded
 #: southern retes of low latitudes most.
-FAMILY_MS = (44, 37, 41, 41, 30, 38, 41, 53, 72, 99, 164, 253, 224, 217, 238, 63,
-             78, 64, 62, 51, 43, 44, 39, 39, 31, 32, 33, 30, 32, 36, 39)
-SMALL_FAMILY_MS = (52, 85, 68, 86, 43, 93, 102, 189, 109, 105, 119, 100, 97, 103, 114, 60,
-                   60, 67, 78, 67, 66, 63, 45, 95, 57, 54, 36, 0, 61, 42, 34)
+FAMILY_MS = (28, 32, 41, 38, 35, 34, 38, 50, 63, 91, 123, 213, 181, 172, 181, 59,
+             63, 63, 62, 48, 42, 40, 48, 31, 39, 36, 25, 32, 28, 22, 45)
+SMALL_FAMILY_MS = (59, 77, 79, 96, 64, 71, 93, 204, 106, 101, 102, 86, 96, 104, 102, 71,
+                   60, 68, 59, 65, 56, 54, 50, 112, 51, 45, 37, 2, 47, 42, 58)
 
 
 def school_cost(recipe) -> float:
