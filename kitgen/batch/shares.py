@@ -62,6 +62,12 @@ SMALL_SHEET_MM = 180.0
 LANGUAGE_MS = 50.0
 SHAPED_LANGUAGE_MS = 150.0
 SHAPED_LANGUAGES = ("ar", "hi")
+#: What drawing a school's plates costs more where the drawing worker
+#: first reads its language for them (ms; measured on 5 December 2026:
+#: a worker's first plate in each of nine languages cost no more than
+#: 20 ms above its next two, within the runs' spread, where a whole first
+#: kit costs :data:`LANGUAGE_MS` more: a plate's words are few).
+PLATE_LANGUAGE_MS = 15.0
 #: What a school's first kit costs less on a worker that has already
 #: built a school of its family (:func:`family_of`), by latitude as the
 #: tables above and measured with them: the rete, the maters, the rule
@@ -205,7 +211,7 @@ def plate_moves(shares: list[list]) -> list[tuple[int, int, object]]:
     load (:func:`share_load`) less its last
     school's plates not yet moved (:func:`plate_cost`) would still exceed
     the least busy one's with them (and the school's language, where that
-    one reads it only for them: :func:`language_cost`), that school has
+    one reads it only for them: :data:`PLATE_LANGUAGE_MS`), that school has
     its plates drawn by the least busy one, so that a set of few schools
     (three, five) is shared more evenly than whole schools allow.  Each
     worker keeps its first school's plates, drawn while the other draws
@@ -221,7 +227,7 @@ def plate_moves(shares: list[list]) -> list[tuple[int, int, object]]:
         school = schools[busy][-1]
         plates = plate_cost(school)
         # the drawing worker reads the school's language too, if it has not
-        read = 0.0 if school.language in languages[idle] else language_cost(school)
+        read = 0.0 if school.language in languages[idle] else PLATE_LANGUAGE_MS / PUPIL_MS
         if loads[idle] + plates + read >= loads[busy]:
             return moved
         moved.append((busy, idle, schools[busy].pop()))   # its first school stays at index 0
