@@ -1083,14 +1083,20 @@ class PlateLabeller:
         by_near = Screen(room, places, idx[maybe], near, MARGIN_MM)
         fit = [int(maybe[q]) for q in by_near.maybe_clear()
                if by_near.clear(q) and room.clear_of_labels(places.box(int(idx[maybe[q]])))]
-        clear = Screen(room, places, idx[fit], protected, CLEAR_MM)
-        for p, i in enumerate(fit):
+        aside = [i for i in fit if beside.clear(i)]
+        crossing = Screen(room, places, idx[aside], thin, MARGIN_MM + 0.3, widths=False)
+        # A place clear of every line is clear of the named ones (in
+        # ``aside``), and of the thin ones by far more than the crossing
+        # test's MARGIN_MM + 0.3: only the places no thin line crosses may
+        # be clear, and only those are screened for it (#12: a name with
+        # no clear place anywhere, an equator's, had every run screened).
+        open_ = [i for p, i in enumerate(aside) if crossing.crossed(p, 1) == 0]
+        clear = Screen(room, places, idx[open_], protected, CLEAR_MM)
+        for p, i in enumerate(open_):
             if clear.clear(p):
                 return places.box(int(idx[i])), best
         if best is not None and best[0] == 0:
             return None, best
-        aside = [i for i in fit if beside.clear(i)]
-        crossing = Screen(room, places, idx[aside], thin, MARGIN_MM + 0.3, widths=False)
         for p, i in enumerate(aside):
             cost = crossing.crossed(p, best[0] if best is not None else None)
             if best is None or cost < best[0]:
