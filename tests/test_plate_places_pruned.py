@@ -18,8 +18,8 @@ import pytest
 from kitgen import kit
 from kitgen.errors import speaking
 from kitgen.parts import reuse
-from kitgen.parts.plate_labels import (ROUND_REACH_MM, ROUND_STEP_MM, STEP_MM, PlateLabeller, around, midpoint,
-                                      points_along)
+from kitgen.parts.plate_labels import (CLEAR_MM, MARGIN_MM, ROUND_REACH_MM, ROUND_STEP_MM, STEP_MM, PlateLabeller,
+                                      around, midpoint, points_along)
 from kitgen.recipe.load import validate_recipe
 
 
@@ -90,3 +90,32 @@ def test_the_farther_search_skips_only_places_found_not_free(monkeypatch, latitu
     for key, part in kept.items():
         assert [(e.role, e.geom, e.values) for e in fresh[key].elements] == \
             [(e.role, e.geom, e.values) for e in part.elements]
+
+
+@pytest.mark.parametrize("latitude, language, sheet", [(23.0, "el", "a4"), (0.5, "fr", "a4"), (-33.9, "en", "a5")])
+def test_a_place_clear_of_every_line_has_no_thin_line_through_it(monkeypatch, latitude, language, sheet):
+    # A curve's name is screened for a place clear of every line only
+    # where no thin line (almucantar, azimuth, unequal hour) crosses the
+    # place grown by MARGIN_MM + 0.3 (PlateLabeller._name_place).  Its
+    # premise, checked with the exact tests (Room.clear_of, Room.meets)
+    # on every place the search looks at: a place CLEAR_MM from every
+    # line has no thin line within MARGIN_MM + 0.3.
+    seen = {"clear": 0}
+    name_place = PlateLabeller._name_place
+
+    def checked(self, places, idx, lines, best, named_clear=CLEAR_MM):
+        _, protected, _, thin = lines
+        for k in idx.tolist():
+            box = places.box(k)
+            if self.room.clear_of(box, protected, CLEAR_MM):
+                seen["clear"] += 1
+                assert not any(self.room.meets(el, box, MARGIN_MM + 0.3) for el in thin)
+        return name_place(self, places, idx, lines, best, named_clear)
+
+    monkeypatch.setattr(PlateLabeller, "_name_place", checked)
+    recipe = validate_recipe({"epoch": 2027, "latitude": latitude, "language": language, "sheet": sheet})
+    with speaking(recipe.language, None):
+        reuse.let_go()
+        kit.draw_plates(recipe)
+        reuse.let_go()
+    assert seen["clear"] > 0
