@@ -268,8 +268,8 @@ def _deal(groups: dict, counts: dict, jobs: int):
     has least to do kept (then the one with less work in all): the
     longest-processing-time rule over the pieces, the most work first to
     the least loaded worker (Graham 1969), and the same rule over whole
-    families (:func:`family_of`), then pieces moved from the busiest
-    worker while that lightens it; a family kept on one worker draws its
+    families (:func:`family_of`), each then bettered by moves and swaps
+    of pieces (:func:`_bettered`); a family kept on one worker draws its
     shared parts and reads its language once."""
     pieces = []
     for key, group in groups.items():
@@ -283,8 +283,8 @@ def _deal(groups: dict, counts: dict, jobs: int):
     families: dict = {}
     for piece in pieces:
         families.setdefault(facts[id(piece)][3], []).append(piece)
-    by_family = _moved_while_lighter(_lpt(list(families.values()), jobs, facts), facts)
-    best = min((_swapped_while_lighter(shares, facts) for shares in (by_piece, by_family)),
+    by_family = _lpt(list(families.values()), jobs, facts)
+    best = min((_bettered(shares, facts) for shares in (by_piece, by_family)),
                key=lambda shares: _measure(_loads(shares, facts)))
     out = [[job for piece in share for job in piece] for share in best]
     return out, _loads(best, facts)
@@ -304,70 +304,44 @@ def _lpt(units: list[list], jobs: int, facts: dict) -> list[list]:
     return out
 
 
-def _moved_while_lighter(shares: list[list], facts: dict) -> list[list]:
-    """Pieces moved from the busiest worker, each to the worker where the
-    move lightens the busiest load most, as long as one does."""
+def _bettered(shares: list[list], facts: dict) -> list[list]:
+    """Pieces moved from the busiest worker to another, or swapped, one
+    of its pieces for one of another worker's, each time the change that
+    lightens the busiest load most, as long as one does: the moves and
+    pairwise interchanges of local search for scheduling on identical
+    machines (common practice).  Five schools on two workers, dealt two
+    and three by the longest-processing-time rule, may be evened out
+    only by a swap.  Swaps are tried only for sets of at most
+    :data:`SWAPS_MOST_PIECES` pieces: beyond, the pieces are small beside
+    a worker's share, and the tries, a pair of pieces each, grow as
+    their square."""
     shares = [list(share) for share in shares]
+    swaps = sum(len(share) for share in shares) <= SWAPS_MOST_PIECES
     loads = _loads(shares, facts)
     while True:
         busy = loads.index(max(loads))
-        best, move = _measure(loads), None
-        own = [facts[id(p)] for p in shares[busy]]
-        for i in range(len(own)):
-            rest = _load(own[:i] + own[i + 1:])
-            for k in range(len(shares)):
-                if k != busy:
-                    tried = list(loads)
-                    tried[busy], tried[k] = rest, _load([facts[id(p)] for p in shares[k]] + [own[i]])
-                    if _measure(tried) < best:
-                        best, move = _measure(tried), (i, k, tried)
-        if move is None:
-            return shares
-        i, k, loads = move
-        shares[k] = shares[k] + [shares[busy][i]]
-        shares[busy] = shares[busy][:i] + shares[busy][i + 1:]
-
-
-def _swapped_while_lighter(shares: list[list], facts: dict) -> list[list]:
-    """Pieces moved from the busiest worker (:func:`_moved_while_lighter`)
-    or swapped, one of its pieces for one of another worker's, as long as
-    that lightens the busiest load: the pairwise interchange of local
-    search for scheduling on identical machines (common practice).  Five
-    schools on two workers, dealt two and three by the
-    longest-processing-time rule, may be evened out only by a swap.  Made
-    only for sets of at most :data:`SWAPS_MOST_PIECES` pieces: beyond,
-    the pieces are small beside a worker's share, and the tries, a pair
-    of pieces each, grow as their square."""
-    shares = _moved_while_lighter(shares, facts)
-    if sum(len(share) for share in shares) > SWAPS_MOST_PIECES:
-        return shares
-    loads = _loads(shares, facts)
-    while True:
-        busy = loads.index(max(loads))
-        best, swap = _measure(loads), None
+        best, change = _measure(loads), None
         own = [facts[id(p)] for p in shares[busy]]
         for k in range(len(shares)):
             if k == busy:
                 continue
             other = [facts[id(p)] for p in shares[k]]
             for i in range(len(own)):
-                for j in range(len(other)):
+                for j in [None] + (list(range(len(other))) if swaps else []):   # None: a move
                     tried = list(loads)
-                    tried[busy] = _load(own[:i] + own[i + 1:] + [other[j]])
-                    tried[k] = _load(other[:j] + other[j + 1:] + [own[i]])
+                    tried[busy] = _load(own[:i] + own[i + 1:] + ([] if j is None else [other[j]]))
+                    tried[k] = _load((other if j is None else other[:j] + other[j + 1:]) + [own[i]])
                     if _measure(tried) < best:
-                        best, swap = _measure(tried), (i, k, j, tried)
-        if swap is None:
+                        best, change = _measure(tried), (i, k, j, tried)
+        if change is None:
             return shares
-        i, k, j, loads = swap
-        mine, theirs = shares[busy][i], shares[k][j]
-        shares[busy] = shares[busy][:i] + shares[busy][i + 1:] + [theirs]
-        shares[k] = shares[k][:j] + shares[k][j + 1:] + [mine]
-        shares = _moved_while_lighter(shares, facts)
-        loads = _loads(shares, facts)
+        i, k, j, loads = change
+        mine = shares[busy][i]
+        shares[busy] = shares[busy][:i] + shares[busy][i + 1:] + ([] if j is None else [shares[k][j]])
+        shares[k] = (shares[k] if j is None else shares[k][:j] + shares[k][j + 1:]) + [mine]
 
 
-#: The most pieces of a set whose deal tries swaps (:func:`_swapped_while_lighter`).
+#: The most pieces of a set whose deal tries swaps (:func:`_bettered`).
 SWAPS_MOST_PIECES = 16
 
 
