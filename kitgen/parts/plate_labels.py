@@ -753,7 +753,7 @@ class PlateLabeller:
         placed = []
         for el, a in self._almucantar_anchors(els, number_everywhere):
             b = None
-            along = {reach: points_along(el, a, reach_mm=reach) for reach in dict(tries)}
+            along = {reach: points_along(el, a, reach_mm=reach) for reach in {reach for reach, _ in tries}}
             unfree: dict[int, set] = {}   # by list of lines: the places found not free (a farther reach repeats them)
             for reach, lines in tries:
                 b = b or self.first_free(along[reach], text, size, lines, unfree=unfree.setdefault(id(lines), set()))
