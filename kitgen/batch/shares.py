@@ -322,6 +322,7 @@ def _bettered(shares: list[list], facts: dict) -> list[list]:
         busy = loads.index(max(loads))
         best, change = _measure(loads), None
         own = [facts[id(p)] for p in shares[busy]]
+        rests = [_load(own[:i] + own[i + 1:]) for i in range(len(own))]   # the busiest less one piece
         for k in range(len(shares)):
             if k == busy:
                 continue
@@ -329,7 +330,7 @@ def _bettered(shares: list[list], facts: dict) -> list[list]:
             for i in range(len(own)):
                 for j in [None] + (list(range(len(other))) if swaps else []):   # None: a move
                     tried = list(loads)
-                    tried[busy] = _load(own[:i] + own[i + 1:] + ([] if j is None else [other[j]]))
+                    tried[busy] = rests[i] if j is None else _load(own[:i] + own[i + 1:] + [other[j]])
                     tried[k] = _load((other if j is None else other[:j] + other[j + 1:]) + [own[i]])
                     if _measure(tried) < best:
                         best, change = _measure(tried), (i, k, j, tried)
