@@ -209,6 +209,10 @@ FIXED = [
     "twilight: [civil, nautical, astronomical]\nowner: Rhea Vantongeren\n",
     # a small plate whose owner's name finds room away from the latitude label
     "latitude: 51.5\nlanguage: fr\nsheet: a5\ndiameter_mm: 90\nowner: Anaïs Vermorel-Dubois\n",
+    # the smallest mater: the hour ring too narrow for "20" past the ticks' tips (an Arabic
+    # kit's figure had met its tick), and a Greek caption's descender low over the pin's mark
+    "latitude: 0\nlanguage: ar\nsheet: a5\ndiameter_mm: 80\n",
+    "latitude: 20\nlanguage: el\nsheet: a5\ndiameter_mm: 82\n",
 ]
 
 

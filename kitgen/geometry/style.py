@@ -172,3 +172,11 @@ def pin_cross_half_mm(dims) -> float:
     """Half length (mm) of a pin's crosshair arms: 4 mm across at every
     scale, enough to aim an awl at, small enough for the narrow rule."""
     return PIN_CROSS_HALF_MM
+
+
+def pin_mark_reach_mm(dims, hole_radius_mm: float) -> float:
+    """How far (mm) a pin's mark reaches from its centre along x and y:
+    the crosshair's arms (:func:`pin_cross_half_mm`), or 1 mm past the
+    rim of a hole of ``hole_radius_mm`` larger than they are, so that the
+    arms always show beyond the cut."""
+    return max(pin_cross_half_mm(dims), hole_radius_mm + 1.0)

@@ -45,7 +45,7 @@ import numpy as np
 
 from ..errors import Message, Number
 from ..geometry import model
-from ..geometry.style import stroke_width_mm
+from ..geometry.style import pin_hole_radius_mm, pin_mark_reach_mm, stroke_width_mm
 from ..words.locale import zone_place
 from . import curves, labels
 from .context import PartContext
@@ -292,18 +292,27 @@ def clock_scale(ctx: PartContext, r_outer_mm: float, room_above: bool = False) -
     # The looked-up town, or the zone's city (or UTC offset), never its IANA name.
     site = ctx.plan.site
     zone = zone_place(site.timezone, w.language, site.clock_place) if almanac.time == "zone" else ""
-    caption = _caption(w, w(key, zone=zone), size, r0, CAPTION_ROW)
+    # The pin's mark at the centre (kitgen.render.ink) with its ink and a margin below the caption
+    floor = (pin_mark_reach_mm(d, pin_hole_radius_mm("centre", ctx.plan.printing.pin_hole_mm))
+             + stroke_width_mm("medium", d) / 2 + labels.MARGIN_MM)
+    caption = _caption(w, w(key, zone=zone), size, r0, CAPTION_ROW, floor)
     tall = not caption and room_above
     if tall:
-        caption = _caption(w, w(key, zone=zone), size, r0, TALL_CAPTION_ROW)
+        caption = _caption(w, w(key, zone=zone), size, r0, TALL_CAPTION_ROW, floor)
     return ClockScale(tuple(els + caption), r0 - labels.MARGIN_MM, tall and bool(caption), r0)
 
 
-def _caption(w, text: str, size_pt: float, r0_mm: float, row) -> list[model.Element]:
+def _caption(w, text: str, size_pt: float, r0_mm: float, row, floor_mm: float = 0.0) -> list[model.Element]:
     """The ring's caption fitted to the chord of the circle ``r0_mm`` at
     the far edge of ``row`` (its middle's height and its height as shares
-    of ``r0_mm``), or none where it would be cut short: the instructions
-    explain the ring too."""
-    y, room_h = row[0] * r0_mm, row[1] * r0_mm
+    of ``r0_mm``), the row's foot raised to ``floor_mm`` above the centre
+    where it lies lower (clear of the pin's mark: on a small back a
+    descender had touched its upper arm), or none where it would be cut
+    short: the instructions explain the ring too."""
+    top = (row[0] + row[1] / 2) * r0_mm
+    foot = max((row[0] - row[1] / 2) * r0_mm, floor_mm)
+    if top <= foot:
+        return []
+    y, room_h = (top + foot) / 2, top - foot
     room = 2.0 * math.sqrt(max((r0_mm - labels.MARGIN_MM) ** 2 - (y + room_h / 2) ** 2, 0.0))
     return labels.fitted_text("clock_caption", (0.0, y), text, size_pt, w, room, room_h, optional=True)

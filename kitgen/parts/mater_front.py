@@ -47,6 +47,36 @@ def upright_hour_label(w, hour: int, sign: int, r_tips_mm: float, r_ring_mm: flo
     return model.text("hour_label", (r * math.cos(a), r * math.sin(a)), text, size_pt, 0.0, hour=hour)
 
 
+def _tip_below_mm(w, label: model.Element, half_width_mm: float) -> float:
+    """How far out (mm from the centre) an hour tick ``half_width_mm``
+    half wide may reach on its numeral's ray before its square end meets
+    the numeral's box (its ink and advance: kitgen.parts.breaks); infinite
+    where it never would: the least distance along the ray of the box's
+    part within the tick's width (the box clipped to that strip,
+    Sutherland and Hodgman, "Reentrant polygon clipping", CACM 17, 1974).
+    On a small mater (80 to 90 mm across) a two-figure numeral near the
+    horizontal is deeper along its ray than the ring leaves room for past
+    the ticks' tips, and stands over them (upright_hour_label): its own
+    tick stops at its box, a tenth or so shorter than the others, where it
+    had touched a figure."""
+    x, y = label.geom["at"]
+    r = math.hypot(x, y)
+    u, n = (x / r, y / r), (-y / r, x / r)
+    points = breaks.text_box(label, w).corners()
+    for sign in (1.0, -1.0):   # keep sign * (p . n) <= half_width_mm
+        kept = []
+        for k, p in enumerate(points):
+            q = points[k - 1]
+            dp, dq = sign * (p[0] * n[0] + p[1] * n[1]) - half_width_mm, sign * (q[0] * n[0] + q[1] * n[1]) - half_width_mm
+            if (dp <= 0.0) != (dq <= 0.0):
+                f = dq / (dq - dp)
+                kept.append((q[0] + f * (p[0] - q[0]), q[1] + f * (p[1] - q[1])))
+            if dp <= 0.0:
+                kept.append(p)
+        points = kept
+    return min((p[0] * u[0] + p[1] * u[1] for p in points), default=math.inf)
+
+
 def hang_hole(dims) -> model.Element:
     """The hole for the plumb's thread at the top of the mater (#9), cut
     through both faces at the same point (kitgen.parts.dimensions): hung
@@ -83,11 +113,13 @@ def mater_front(ctx: PartContext) -> model.Part:
     els = [model.circle("cut", (0.0, 0.0), r_out, "cut"),
            model.circle("limb", (0.0, 0.0), r_in, "heavy"),
            model.circle("limb", (0.0, 0.0), r_mid, "medium")]
+    clear = labels.MARGIN_MM + stroke_width_mm("medium", d) / 2
+    hours = [upright_hour_label(w, hour, s, r_in + 0.42 * ring, r_mid, d.text_pt, clear) for hour in range(24)]
     for step in range(24 * 12):
         hour = step / 12.0
         minutes = step * 5
         if minutes % 60 == 0:
-            length, stroke = 0.42 * ring, "medium"
+            length, stroke = min(0.42 * ring, _tip_below_mm(w, hours[step // 12], stroke_width_mm("medium", d) / 2) - r_in), "medium"
         elif minutes % 30 == 0:
             length, stroke = 0.30 * ring, "light"
         elif minutes % 15 == 0:
@@ -98,8 +130,6 @@ def mater_front(ctx: PartContext) -> model.Part:
             stroke = "none"  # thinned at this size (kitgen.parts.legibility): kept, not drawn
         els.append(curves.radial_tick("hour_tick", hour_angle_deg(hour, s), r_in, r_in + length, r_in, stroke,
                                       hour=hour))
-    clear = labels.MARGIN_MM + stroke_width_mm("medium", d) / 2
-    hours = [upright_hour_label(w, hour, s, r_in + 0.42 * ring, r_mid, d.text_pt, clear) for hour in range(24)]
     els += hours
     deg_ring = r_out - r_mid
     for deg in range(360):

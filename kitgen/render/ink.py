@@ -65,7 +65,7 @@ def inks(el, dims, holes: Holes = Holes()) -> tuple[Ink, ...]:
         at = el.geom["at"]
         if el.role == "pin":
             r = style.pin_hole_radius_mm(el.values.get("hole", "centre"), holes.pin_hole_mm, holes.sight_hole_mm)
-            h = max(style.pin_cross_half_mm(dims), r + 1.0)   # the arms reach past the hole
+            h = style.pin_mark_reach_mm(dims, r)
             x, y = at
             return (Ink("circle", {"center": at, "radius": r}, "cut", el.role),
                     Ink("segment", {"from": (x - h, y), "to": (x + h, y)}, "medium", el.role),
