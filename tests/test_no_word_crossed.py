@@ -213,6 +213,8 @@ FIXED = [
     # kit's figure had met its tick), and a Greek caption's descender low over the pin's mark
     "latitude: 0\nlanguage: ar\nsheet: a5\ndiameter_mm: 80\n",
     "latitude: 20\nlanguage: el\nsheet: a5\ndiameter_mm: 82\n",
+    # a tiled mater whose back's seam runs across the owner's line (an invented name)
+    "latitude: 15.2\nlanguage: de\nsheet: legal\ndiameter_mm: 283.2\nowner: Zofia Wrenhaven-Castellanos\n",
 ]
 
 

@@ -208,3 +208,30 @@ def test_a_schools_pupils_share_their_pages_in_the_print_files():
         assert refs[0] & refs[1], k      # the shared page's own content, once in the file
         kit_page = PdfReader(io.BytesIO(results[0].pdf)).pages[results[0].materials.index("card") + k]
         assert kit_page.get_contents().get_data() in a.get_contents().get_data()
+
+
+def test_a_seam_across_the_name_is_broken_round_it():
+    # A tiled mater (283 mm on Legal) whose back's seam runs across the
+    # owner's line: the kit cannot be its school's shared pages with the
+    # name laid over them, whose seam runs through the name (found by a
+    # random kit of tests/test_no_word_crossed.py); it is drawn whole, and
+    # its seam has a gap at the name (the words' measured boxes, 0.3 mm
+    # clear: kitgen.layout.seams).  A kit of the same school whose name
+    # meets no seam (a short name) still shares the school's pages.
+    from kitgen.render.pdf import render_layers
+    from kitgen.render.pdf_marks import seam_lines_mm
+    from kitgen.layout.pages import shared_pages
+    school = {"latitude": 15.2, "language": "de", "sheet": "legal", "diameter_mm": 283.2, "epoch": 2027}
+    kit = build_kit(validate_recipe({**school, "owner": "Zofia Wrenhaven-Castellanos"}))   # invented
+    pages = layout_kit(kit)
+    layers = render_layers(kit, pages)
+    assert layers.shared == b"" and layers.pdf == render_pdf(kit, pages)
+    base = shared_pages(kit, pages)
+    named = [(pl, bl) for page, b in zip(pages, base) for pl, bl in zip(page.placements, b.placements)
+             if pl.piece is not None and pl.part.kind == "mater_back"
+             and seam_lines_mm(pl, kit.words) != seam_lines_mm(bl, kit.words)]
+    assert named   # the back's seam breaks round the name only where the name is
+    for placed, nameless in named:
+        assert len(seam_lines_mm(placed, kit.words)) > len(seam_lines_mm(nameless, kit.words))
+    short = build_kit(validate_recipe({**school, "owner": "Ida Po"}))
+    assert render_layers(short, layout_kit(short)).shared != b""

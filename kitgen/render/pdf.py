@@ -534,7 +534,7 @@ def render_layers(kit, pages) -> pdf_owner.Layers:
     shared PDF and the name's, where the kit has them (a class set's
     print files share the shared one's pages among a school's pupils)."""
     shared = shared_pages(kit, pages)
-    if shared is None:
+    if shared is None or pdf_marks.seams_break_round_names(pages, shared, kit.words):
         return pdf_owner.Layers(_render(kit, pages))
     indices, overlay = pdf_owner.owner_pages(kit, pages, _draw_placement, page_transform, FONT)
     base = _shared_pdf(kit.nameless, shared)

@@ -55,6 +55,26 @@ def alignment_mark(c, x_mm: float, y_mm: float) -> None:
     c.drawPath(p, stroke=1, fill=0)
 
 
+def seam_lines_mm(placement, words):
+    """The stretches of a tiled piece's seams as drawn: broken round the
+    part's words with :data:`SEAM_CLEAR_MM` of paper beside the line."""
+    return seam_stretches_mm(placement, words, SEAM_CLEAR_MM + SEAM_LINE_MM / 2)
+
+
+def seams_break_round_names(pages, shared_pages, words) -> bool:
+    """Whether a seam on ``pages`` (a named kit's) breaks where the same
+    seam on ``shared_pages`` (its nameless kit's, placed alike) does not:
+    the owner's name lies across it, and the pages cannot be the shared
+    ones with the name laid over them, whose seam would run through the
+    name (kitgen.render.pdf.render_layers)."""
+    for page, base in zip(pages, shared_pages):
+        for placed, nameless in zip(page.placements, base.placements):
+            if placed.piece is not None and placed.piece.seams_mm and \
+                    seam_lines_mm(placed, words) != seam_lines_mm(nameless, words):
+                return True
+    return False
+
+
 def draw_piece_marks(c, placement, words, label: str) -> None:
     """The frame, seams and alignment marks of a piece (page coordinates,
     the canvas in mm-as-printed), and its band: title, name and map."""
@@ -71,7 +91,7 @@ def draw_piece_marks(c, placement, words, label: str) -> None:
     c.setLineWidth(SEAM_LINE_MM * mm)
     c.setDash([d * mm for d in SEAM_DASH_MM], 0)
     # Broken round the part's words, which the seam would run over (#9).
-    for (sx0, sy0), (sx1, sy1) in seam_stretches_mm(placement, words, SEAM_CLEAR_MM + SEAM_LINE_MM / 2):
+    for (sx0, sy0), (sx1, sy1) in seam_lines_mm(placement, words):
         _line(c, sx0, sy0, sx1, sy1)
     c.setDash([], 0)
     c.setLineWidth(MARK_LINE_MM * mm)
