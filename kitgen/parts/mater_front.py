@@ -47,6 +47,12 @@ def upright_hour_label(w, hour: int, sign: int, r_tips_mm: float, r_ring_mm: flo
     return model.text("hour_label", (r * math.cos(a), r * math.sin(a)), text, size_pt, 0.0, hour=hour)
 
 
+#: The least paper (mm) between an hour tick's end and its numeral's box
+#: (which holds the glyphs' side bearings too): with less, the tick's
+#: end reads as touching the figure at the 5 pt minimum.
+TIP_CLEAR_MM = 0.15
+
+
 def _tip_below_mm(w, label: model.Element, half_width_mm: float) -> float:
     """How far out (mm from the centre) an hour tick ``half_width_mm``
     half wide may reach on its numeral's ray before its square end meets
@@ -54,11 +60,11 @@ def _tip_below_mm(w, label: model.Element, half_width_mm: float) -> float:
     where it never would: the least distance along the ray of the box's
     part within the tick's width (the box clipped to that strip,
     Sutherland and Hodgman, "Reentrant polygon clipping", CACM 17, 1974).
-    On a small mater (80 to 90 mm across) a two-figure numeral near the
-    horizontal is deeper along its ray than the ring leaves room for past
-    the ticks' tips, and stands over them (upright_hour_label): its own
-    tick stops at its box, a tenth or so shorter than the others, where it
-    had touched a figure."""
+    On a small mater (80 to 130 mm across) a numeral stands as far out
+    as the ring lets it (upright_hour_label), which may leave it hard by
+    its tick's end, or, a two-figure one near the horizontal, over it:
+    its own tick stops :data:`TIP_CLEAR_MM` short of its box, up to a few
+    tenths shorter than the others, where it had touched a figure."""
     x, y = label.geom["at"]
     r = math.hypot(x, y)
     u, n = (x / r, y / r), (-y / r, x / r)
@@ -119,7 +125,8 @@ def mater_front(ctx: PartContext) -> model.Part:
         hour = step / 12.0
         minutes = step * 5
         if minutes % 60 == 0:
-            length, stroke = min(0.42 * ring, _tip_below_mm(w, hours[step // 12], stroke_width_mm("medium", d) / 2) - r_in), "medium"
+            tip = _tip_below_mm(w, hours[step // 12], stroke_width_mm("medium", d) / 2 + TIP_CLEAR_MM) - TIP_CLEAR_MM
+            length, stroke = min(0.42 * ring, tip - r_in), "medium"
         elif minutes % 30 == 0:
             length, stroke = 0.30 * ring, "light"
         elif minutes % 15 == 0:
