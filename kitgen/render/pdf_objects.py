@@ -21,6 +21,7 @@ make a new file, each with its own cross-reference section
 from __future__ import annotations
 
 import re
+from functools import lru_cache
 
 _REF = re.compile(rb"(\d+) 0 R\b")
 _BRACKET = re.compile(rb"<<|>>|\[|\]")
@@ -107,8 +108,13 @@ def value(head: bytes, key: bytes) -> bytes:
 
 def _after(head: bytes, key: bytes) -> int | None:
     """Where the value of ``key`` starts in ``head``, if it is there."""
-    at = re.search(re.escape(key) + rb"(?![A-Za-z0-9])\s*", head)
+    at = _key_pattern(key).search(head)
     return at.end() if at else None
+
+
+@lru_cache(maxsize=64)   # the few keys kitgen reads, each compiled once (a class set reads them for every page)
+def _key_pattern(key: bytes):
+    return re.compile(re.escape(key) + rb"(?![A-Za-z0-9])\s*")
 
 
 def _matched(text: bytes, start: int) -> int:
