@@ -1022,6 +1022,16 @@ class PlateLabeller:
         aside = ext.height_mm / 2 + MARGIN_MM + stroke_width_mm(els[0].stroke, self.d) / 2 + 0.05
         radius = min((e.geom["radius"] for e in els if "radius" in e.geom), default=math.inf)
         bulge = 1.2 * (ext.width_mm / 2) ** 2 / (2 * radius) + 0.05  # a straight line's rise off its arc
+        # Beside the curve: a straight name tangent to a circle at its
+        # middle clears it on the outside at ``aside`` (its ends draw
+        # away), and inside only if its middle stands the bulge farther
+        # off (a chord's ends reach the circle first).  Positive offsets
+        # lie towards the circle's centre (points_along's tangent turned
+        # left).  Outside a circle, the bulge farther only left the name
+        # floating between two named lines (#12 review: "Tropic of
+        # Cancer" halfway to the equator on an 85 mm plate).
+        round_ = all(e.shape in ("circle", "arc") for e in els)
+        beside = (-aside, aside, aside + bulge) if round_ else (-aside, aside, -aside - bulge, aside + bulge)
         # Where no place is clear of every line, a name along its curve
         # crosses the fewest of the thin lines that run across the curve
         # (almucantars, azimuths, unequal hours: lines it must cross, broken
@@ -1042,7 +1052,7 @@ class PlateLabeller:
         # named lines cross, as a twilight line's near a tropic on a small
         # plate, #9).
         for named_clear in (CLEAR_MM, MARGIN_MM):
-            for offsets in ((0.0,), (-aside, aside, -aside - bulge, aside + bulge)):
+            for offsets in ((0.0,), beside):
                 near = self.reference + (els if offsets[0] else [])   # one list for all places: its index is kept
                 centers, angles = [], []
                 for offset in offsets:
