@@ -121,10 +121,10 @@ def test_the_clock_caption_keeps_off_the_pin(language, diameter):
 
 def test_a_wider_pin_hole_lifts_the_caption():
     # A 6 mm hole: the arms reach 1 mm past it, 4 mm from the centre, and
-    # the caption keeps above them or is left out (the instructions
-    # explain the ring too).
+    # the caption keeps above them.
     kit, parts = _kit(20.0, "en", 120.0, pin_hole_mm=6.0)
     assert pin_mark_reach_mm(kit.dims, pin_hole_radius_mm("centre", 6.0)) == 4.0
     captions = [el for el in parts["mater_back"]["elements"] if el["role"] == "clock_caption"]
+    assert captions   # at 120 mm there is room above the wider mark
     for el in captions:
         assert text_polygon(el, kit.words).bounds[1] > 4.0 + stroke_width_mm("medium", kit.dims) / 2

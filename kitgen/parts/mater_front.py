@@ -70,10 +70,10 @@ def _tip_below_mm(w, label: model.Element, half_width_mm: float) -> float:
     u, n = (x / r, y / r), (-y / r, x / r)
     points = breaks.text_box(label, w).corners()
     for sign in (1.0, -1.0):   # keep sign * (p . n) <= half_width_mm
+        beyond = [sign * (p[0] * n[0] + p[1] * n[1]) - half_width_mm for p in points]
         kept = []
         for k, p in enumerate(points):
-            q = points[k - 1]
-            dp, dq = sign * (p[0] * n[0] + p[1] * n[1]) - half_width_mm, sign * (q[0] * n[0] + q[1] * n[1]) - half_width_mm
+            q, dp, dq = points[k - 1], beyond[k], beyond[k - 1]
             if (dp <= 0.0) != (dq <= 0.0):
                 f = dq / (dq - dp)
                 kept.append((q[0] + f * (p[0] - q[0]), q[1] + f * (p[1] - q[1])))
