@@ -140,6 +140,24 @@ LOOSE_OVER_OFFSETS = 1.0
 #: name (#9: Bellatrix's name, at the end of its leader, stood beside
 #: Betelgeuse's dot).
 LEADER_NAME_CLEAR = 0.75
+#: No dot but its own stands so near a name that a pupil could take it for
+#: the name's point: within this (mm, from the name's ends or middle,
+#: :func:`_reading_mm`), a dot not claimed by a name of its own beside it
+#: is no nearer than :data:`CLEARLY_OWN_RATIO` times the name's own dot,
+#: and a claimed one no nearer than the name's own mark (its dot, or the
+#: end of its leader).  In millimetres, not offsets, since the names stay
+#: 5 pt however small the kit (#12 review: on an 85 mm rete "Capella", at
+#: the end of a 10 mm leader, stood level with Alhena's unnamed dot 2.4 mm
+#: past its end, and read as Alhena's; the usual rule of map labelling,
+#: that a name is nearer its own symbol than any other, common practice).
+AMBIGUOUS_WITHIN_MM = 3.0
+#: How many times nearer than any unclaimed dot a name's own dot stands
+#: (a choice: half as far again reads as clearly the nearer).
+CLEARLY_OWN_RATIO = 1.5
+#: ... within this (mm) for a point named loosely (place_labels' ``loose``):
+#: a first-magnitude star named so rather than not at all (Capella on an
+#: 85 mm rete, Rigil Kentaurus among the Centaur's dots).
+LOOSE_AMBIGUOUS_WITHIN_MM = 2.0
 #: How many placed labels nearest an unplaced point's are tried for a swap
 #: (:func:`place_labels`' repair step).
 REPAIR_NEIGHBOURS = 6
@@ -278,6 +296,7 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
     loose = frozenset(loose)
     beside_mm = [(LOOSE_BESIDE_OFFSETS if j in loose else BESIDE_OFFSETS) * offset_mm for j in range(len(points))]
     over_mm = [(LOOSE_OVER_OFFSETS if j in loose else OVER_OFFSETS) * offset_mm for j in range(len(points))]
+    within_mm = [LOOSE_AMBIGUOUS_WITHIN_MM if j in loose else AMBIGUOUS_WITHIN_MM for j in range(len(points))]
 
     def put(k, c):
         chosen[k] = c
@@ -381,14 +400,36 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
                     # (two leaders never cross, nor pass between another
                     # label and its point)
                     continue
+                if unclear(k, _once(memo, ("rivals", i), _rivals, box, k, points,
+                                    leaders_from_mm, dots, dot_mm, leader, within_mm[k])):
+                    continue
                 crossed = _once(memo, ("crossed", i), _rings_met, leader, keep_out_rings)
                 if crossed:
                     # (a dot on a ring must cross it)
                     if across is None and all(_segment_meets_ring((x, y), (x, y), ring) for ring in crossed):
                         across = (at, anchor, box, leader)
                     continue
+            elif with_leaders \
+                    and unclear(k, _once(memo, ("rivals", i), _rivals, box, k, points, leaders_from_mm, dots, dot_mm,
+                                         None, within_mm[k])):
+                continue
             return (at, anchor, box, leader)
         return across
+
+    def unclear(k, rivals):
+        """Whether a place's ``rivals`` (of :func:`_rivals`) make its name
+        ambiguous given the names chosen: a rival dot claimed by its own
+        name beside it (nearer that name than this one) only where it is
+        nearer than this name's own mark."""
+        mark_mm, _, near_dots = rivals
+        for j, d_mm in near_dots:
+            c = chosen.get(j)
+            if c is None and k in loose and j > k and not settled:
+                continue   # (a first-magnitude star's rival still to be named: #12 review, Capella)
+            claimed = c is not None and (c[3] is not None or _reading_mm(points[j], leaders_from_mm[j], c[2]) < d_mm)
+            if not claimed or d_mm < mark_mm:
+                return True
+        return False
 
     def free_of(blocks, names, gap_mm, spans):
         """(index, table, memo, by_leader) of each place of the blocks, in
@@ -408,6 +449,7 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
                 if not t:
                     yield i, table, memo, b
 
+    settled = False   # (while the rivals of a loose point's name may still be named)
     for k in range(len(points)):
         choice = choose(k)
         if choice is not None:
@@ -431,6 +473,20 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
                         break
                     take(k)
                 put(j, kept)
+        # A name whose rival dots were to be named (a loose point's) or
+        # were named beside them when it was chosen, and are not now, is
+        # set again where it reads clearly, or left out.
+        settled = True
+        for _ in range(len(points)):
+            unsure = [k for k, c in chosen.items()
+                      if unclear(k, _rivals(c[2], k, points, leaders_from_mm, dots, dot_mm, c[3], within_mm[k]))]
+            if not unsure:
+                break
+            for k in unsure:
+                take(k)
+                again = choose(k)
+                if again is not None:
+                    put(k, again)
     out = []
     for k in range(len(points)):
         c = chosen.get(k)
@@ -607,6 +663,36 @@ def _nearest_own(box, k: int, points, radii_mm, dots, dot_mm: float, beside_mm: 
         if _reads_as_its(box, points[j], radii_mm[j], beside_mm, over_mm):
             return False
     return True
+
+
+def _reading_mm(point, radius_mm: float, box) -> float:
+    """Paper (mm) from a dot of ``radius_mm`` at ``point`` to the nearest
+    of the places a reader looks from a name for its point: the middles of
+    its two ends and its middle (common practice in map labelling: a name
+    is set beside its point, or over or under it)."""
+    x0, y0, x1, y1 = box
+    yc = (y0 + y1) / 2
+    return min(math.hypot(point[0] - x, point[1] - yc) for x in (x0, (x0 + x1) / 2, x1)) - radius_mm
+
+
+def _rivals(box, k: int, points, radii_mm, dots, dot_mm: float, leader=None, within_mm=AMBIGUOUS_WITHIN_MM):
+    """(own mark, reach, rivals) of a name's box for point ``k``: the
+    :func:`_reading_mm` of its own mark (the dot, or the end of the
+    ``leader`` at the name), the reach within which an unclaimed dot makes
+    it ambiguous (:data:`CLEARLY_OWN_RATIO` times its own dot's, at most
+    :data:`AMBIGUOUS_WITHIN_MM`), and (j, mm) of each other dot within
+    that reach (of the points of the grid ``dots`` near it; ``dot_mm``:
+    the widest dot's radius)."""
+    own_mm = _reading_mm(points[k], radii_mm[k], box)
+    mark_mm = own_mm if leader is None else _reading_mm(leader[1], 0.0, box)
+    reach = min(within_mm, CLEARLY_OWN_RATIO * own_mm)
+    out = []
+    for j in dots.near(box, max(reach, 0.0) + dot_mm + SEARCH_SLACK_MM):
+        if j != k:
+            d_mm = _reading_mm(points[j], radii_mm[j], box)
+            if d_mm < reach:
+                out.append((j, d_mm))
+    return mark_mm, reach, out
 
 
 def _reads_as_its(box, point, radius_mm: float, beside_mm: float, over_mm: float = 0.0) -> bool:

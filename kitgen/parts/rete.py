@@ -269,10 +269,15 @@ def rete(ctx: PartContext) -> model.Part:
     # other dots near its name's ends (labels.LOOSE_BESIDE_OFFSETS) where
     # that names more of the rete's stars (#12 review: Rigil Kentaurus at
     # 23.5 S, the sky's third brightest star).
-    loose = [i for i, (where, k) in enumerate(zip(places, lead)) if where is None and stars[k].star.mag <= LOOSE_MAG]
+    bright = [i for i, k in enumerate(lead) if stars[k].star.mag <= LOOSE_MAG]
+    loose = [i for i in bright if places[i] is None]
     if loose:
         loosely = place(names, loose)
-        if sum(p is not None for p in loosely) > sum(p is not None for p in places):
+
+        def named(found):   # the first-magnitude stars named, then all the stars named
+            return sum(found[i] is not None for i in bright), sum(p is not None for p in found)
+
+        if named(loosely) > named(places):
             places = loosely
     where_of = dict(zip(lead, places))
     for k, (placed, p) in enumerate(zip(stars, all_pts)):

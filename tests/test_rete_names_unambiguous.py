@@ -1,0 +1,89 @@
+"""No star's name on the rete reads as another dot's (#12 review).
+
+A name is unambiguous when its own point is clearly what it stands
+beside: from the places a reader looks from a name for its point (the
+middles of its two ends and its middle; common practice in map
+labelling: a name is set beside its point, or over or under it), no
+other drawn dot within AMBIGUOUS_WITHIN_MM is nearer than
+CLEARLY_OWN_RATIO times the name's own dot, unless that dot is claimed
+by a name of its own (its leader, or its name beside it nearer than this
+one), and then it is no nearer than this name's own mark (its dot, or its
+leader's end).  Millimetres, not label offsets: the names stay 5 pt on
+every kit (#12 review: on an 85 mm rete "Capella", at the end of a 10 mm
+leader, stood level with Alhena's unnamed dot 2.4 mm past its end).  A
+first-magnitude star (1.5 and brighter, as the term is commonly used)
+named loosely keeps unclaimed dots LOOSE_WITHIN_MM away.  The distances
+are the project's own rule (kitgen.parts.labels.AMBIGUOUS_WITHIN_MM),
+measured here from the JSON contract's elements and the shipped fonts'
+metrics (``Words.measure``).
+"""
+
+from __future__ import annotations
+
+import math
+
+import pytest
+
+from kitgen.kit import build_kit
+from kitgen.recipe.load import parse_recipe_text
+
+AMBIGUOUS_WITHIN_MM = 3.0
+CLEARLY_OWN_RATIO = 1.5
+LOOSE_WITHIN_MM = 2.0
+FIRST_MAGNITUDE = 1.5
+
+
+def _box(e, words):
+    ext = words.measure(e.geom["text"], e.geom["size_pt"])
+    (x, y), share = e.geom["at"], {"start": 0.0, "middle": 0.5, "end": 1.0}[e.geom["anchor"]]
+    return (x - share * ext.width_mm, y - ext.height_mm / 2, x + (1 - share) * ext.width_mm, y + ext.height_mm / 2)
+
+
+def _reading_mm(point, radius_mm, box):
+    x0, y0, x1, y1 = box
+    return min(math.dist(point, (x, (y0 + y1) / 2)) for x in (x0, (x0 + x1) / 2, x1)) - radius_mm
+
+
+def ambiguous_names(rete, words):
+    dots = {e.values["name"]: e for e in rete.elements if e.role == "star" and e.stroke != "none"}
+    leaders = {e.values["name"]: e for e in rete.elements if e.role == "star_leader"}
+    boxes = {}
+    for e in rete.elements:
+        if e.role == "star_label":   # a name on two lines: the box round both
+            b, o = _box(e, words), boxes.get(e.values["name"])
+            boxes[e.values["name"]] = b if o is None else (min(o[0], b[0]), min(o[1], b[1]),
+                                                            max(o[2], b[2]), max(o[3], b[3]))
+    bad = []
+    for name, box in boxes.items():
+        own = dots[name]
+        own_mm = _reading_mm(own.geom["at"], own.values["radius_mm"], box)
+        mark_mm = _reading_mm(leaders[name].geom["to"], 0.0, box) if name in leaders else own_mm
+        within = LOOSE_WITHIN_MM if own.values["mag"] <= FIRST_MAGNITUDE else AMBIGUOUS_WITHIN_MM
+        for other, dot in dots.items():
+            if other == name:
+                continue
+            d_mm = _reading_mm(dot.geom["at"], dot.values["radius_mm"], box)
+            if d_mm >= min(within, CLEARLY_OWN_RATIO * own_mm):
+                continue
+            claimed = other in leaders or other in boxes \
+                and _reading_mm(dot.geom["at"], dot.values["radius_mm"], boxes[other]) < d_mm
+            if not claimed or d_mm < mark_mm:
+                bad.append((name, other, round(d_mm, 2), round(own_mm, 2)))
+    return bad, len(boxes)
+
+
+@pytest.mark.parametrize("head", [
+    "title: Harbour View School\nlatitude: 45\nlanguage: en\ndiameter_mm: 85\n",   # the review's kit
+    "latitude: 52.2\nlanguage: en\ndiameter_mm: 90\n",
+    "latitude: 40\nlanguage: de\ndiameter_mm: 100\n",
+    "latitude: -23.5\nlanguage: pt\ndiameter_mm: 110\n",
+    "latitude: -45\nlanguage: es\ndiameter_mm: 95\n",
+    "latitude: 12\nlanguage: hi\ndiameter_mm: 120\n",
+    "latitude: 30\nlanguage: fr\nsheet: letter\n",
+    "latitude: 35\nlanguage: ar\nsheet: a5\n",
+])
+def test_no_name_reads_as_another_dots(head):
+    kit = build_kit(parse_recipe_text("epoch: 2027\n" + head + "parts: [rete]\n"))
+    bad, named = ambiguous_names(kit.part("rete"), kit.words)
+    assert named >= 18
+    assert not bad
