@@ -87,3 +87,40 @@ def test_no_name_reads_as_another_dots(head):
     bad, named = ambiguous_names(kit.part("rete"), kit.words)
     assert named >= 18
     assert not bad
+
+
+#: Common practice in map labelling: a leader crosses lines steeply, never
+#: along them; within 30 degrees of a line's direction and nearer than its
+#: half width and the labels' margin (0.3 mm) the two print as one line
+#: (#12 review: Regulus's leader 0.1 mm beside the bound of Leo and Virgo).
+ALONG_DEG, GAP_MM = 30.0, 0.3
+
+
+@pytest.mark.parametrize("head", [
+    "latitude: 45\nlanguage: en\ndiameter_mm: 85\n",     # Regulus, Capella
+    "latitude: 38\nlanguage: en\ndiameter_mm: 88\n",
+    "latitude: 0.5\nlanguage: de\nsheet: a4\n",         # Pollux
+    "latitude: -60\nlanguage: fr\ndiameter_mm: 100\n",  # Shaula
+    "latitude: -55\nlanguage: es\nsheet: a5\n",
+    "latitude: 28\nlanguage: it\ndiameter_mm: 95\n",
+])
+def test_no_leader_runs_along_a_signs_bound(head):
+    from shapely.geometry import LineString
+
+    from kitgen.geometry.style import stroke_width_mm
+    kit = build_kit(parse_recipe_text("epoch: 2027\n" + head + "parts: [rete]\n"))
+    rete = kit.part("rete")
+    bounds = [e for e in rete.elements if e.role == "ecliptic_tick" and e.stroke != "none"
+              and e.values["longitude_deg"] % 30 == 0]
+    assert len(bounds) >= 12
+    along = []
+    for leader in rete.with_role("star_leader"):
+        (ax, ay), (bx, by) = leader.geom["from"], leader.geom["to"]
+        for b in bounds:
+            (cx, cy), (dx, dy) = b.geom["from"], b.geom["to"]
+            cos = abs((bx - ax) * (dx - cx) + (by - ay) * (dy - cy)) / math.hypot(bx - ax, by - ay) \
+                / math.hypot(dx - cx, dy - cy)
+            gap = LineString([(ax, ay), (bx, by)]).distance(LineString([(cx, cy), (dx, dy)]))
+            if cos > math.cos(math.radians(ALONG_DEG)) and gap < stroke_width_mm(b.stroke, kit.dims) / 2 + GAP_MM:
+                along.append((leader.values["name"], b.values["longitude_deg"], round(gap, 2)))
+    assert not along

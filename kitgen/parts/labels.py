@@ -129,6 +129,17 @@ OVER_OFFSETS = 1.5
 #: reads as struck through it or as that word's (#12 review: Alnilam's
 #: leader 0.05 mm from "Sirius", Miaplacidus's 0.04 mm from "Acrux").
 LEADER_WORD_GAP_MM = MARGIN_MM
+#: A leader keeps this far (mm, clear paper) from a line of ``lines_along``
+#: (place_labels) wherever it runs within :data:`ALONG_DEG` of that line's
+#: direction: closer, the two print as one thicker line and the leader
+#: is lost in it (#12 review: Regulus, on the bound of Leo and Virgo of
+#: an 85 mm rete, had its leader drawn 0.1 mm beside the bound across the
+#: band).  A leader crossing a line at a wider angle still reads as a
+#: leader (common practice in map labelling: leaders cross lines
+#: steeply, never along them).
+ALONG_GAP_MM = MARGIN_MM
+#: ... the angle (degrees) under which a leader runs along a line.
+ALONG_DEG = 30.0
 #: The reaches of those two rules for a point named loosely (place_labels'
 #: ``loose``): those kept until a teacher's review (#12), for a bright
 #: star that the wider ones leave unnamed (Rigil Kentaurus among the
@@ -229,7 +240,7 @@ def leader_ends(point, box, start_mm: float, gap_mm: float = MARGIN_MM):
 
 def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), inside_radius_mm=None,
                  keep_out_rings=(), *, measure, leaders_from_mm=None, own_boxes=None, marks=(), loose=(),
-                 kept=None):
+                 kept=None, lines_along=()):
     """For each point (in order of importance) the (at, anchor) of its
     label: right, left, above, below the point or at a corner, at the
     offset or (when those are taken) farther out, the first of these whose
@@ -272,7 +283,9 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
     alone (a rete's names placed again, some of them shortened), keeps
     each point's places and the tests of them that do not depend on what
     is chosen, by (point, text, loosely), for the next call (#12): the
-    same places, found once."""
+    same places, found once.  No leader runs along a line of ``lines_along``
+    ((p, q, half_width_mm) segments, such as the rete's sign bounds):
+    :func:`runs_along`."""
     with_leaders = leaders_from_mm is not None
     reaches = NEAR_FIRST + (WITH_LEADER if with_leaders else ())
     chosen = {}   # point index -> (at, anchor, box, leader)
@@ -399,6 +412,8 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
                                  LEADER_CLEAR_MM, dots, dot_mm):
                     # (two leaders never cross, nor pass between another
                     # label and its point)
+                    continue
+                if any(runs_along(leader, line) for line in lines_along):
                     continue
                 if unclear(k, _once(memo, ("rivals", i), _rivals, box, k, points,
                                     leaders_from_mm, dots, dot_mm, leader, within_mm[k])):
@@ -718,6 +733,32 @@ def _reads_as_its(box, point, radius_mm: float, beside_mm: float, over_mm: float
     if beyond > 0.0:   # past an end, over or under the line: as near that end in any direction
         return math.hypot(beyond, max(box[1] - y, y - box[3])) - radius_mm < beside_mm
     return max(box[1] - y, y - box[3]) - radius_mm < over_mm
+
+
+def runs_along(leader, line) -> bool:
+    """Whether a ``leader`` ((p, q), mm) runs along a ``line`` ((a, b,
+    half_width_mm)): within :data:`ALONG_DEG` of its direction and nearer
+    it than its half width and :data:`ALONG_GAP_MM` anywhere (the least
+    distance of two segments: zero where they cross, else that of an end
+    of one from the other)."""
+    (p, q), (a, b, half_mm) = leader, line
+    u, v = (q[0] - p[0], q[1] - p[1]), (b[0] - a[0], b[1] - a[1])
+    nu, nv = math.hypot(*u), math.hypot(*v)
+    if nu == 0.0 or nv == 0.0:
+        return False
+    if abs(u[0] * v[0] + u[1] * v[1]) / (nu * nv) < math.cos(math.radians(ALONG_DEG)):
+        return False
+    reach = half_mm + ALONG_GAP_MM
+    return _segments_cross(p, q, a, b) or min(_point_segment_mm(p, a, b), _point_segment_mm(q, a, b),
+                                               _point_segment_mm(a, p, q), _point_segment_mm(b, p, q)) < reach
+
+
+def _point_segment_mm(pt, a, b) -> float:
+    """Distance (mm) from ``pt`` to segment ab."""
+    dx, dy = b[0] - a[0], b[1] - a[1]
+    t = ((pt[0] - a[0]) * dx + (pt[1] - a[1]) * dy) / (dx * dx + dy * dy)
+    t = min(1.0, max(0.0, t))
+    return math.hypot(pt[0] - a[0] - t * dx, pt[1] - a[1] - t * dy)
 
 
 def _segments_cross(p, q, a, b) -> bool:

@@ -224,6 +224,9 @@ def rete(ctx: PartContext) -> model.Part:
     edge_out = stroke_width_mm("heavy", d) / 2 + labels.MARGIN_MM
     edge_in = stroke_width_mm("light", d) / 2 + labels.MARGIN_MM
     tried = {}   # each name's places and their fixed tests, shared by the placings below (#12)
+    # The signs' bounds run across the whole band: a leader never runs along one (labels.runs_along)
+    bounds = [(e.geom["from"], e.geom["to"], stroke_width_mm(e.stroke, d) / 2) for e in els
+              if e.role == "ecliptic_tick" and e.values["longitude_deg"] % 30 == 0 and e.stroke != "none"]
 
     def place(texts, loose=()):
         return labels.place_labels(pts, texts, d.small_text_pt, d.tick_mm * 1.3, loose=loose, kept=tried,
@@ -232,7 +235,8 @@ def rete(ctx: PartContext) -> model.Part:
                                    keep_out_rings=[(tuple(c), image.radius_mm - band - edge_in,
                                                     image.radius_mm + edge_out)],
                                    measure=lambda text, size_pt: _lines_extent(w, text, size_pt),
-                                   leaders_from_mm=[radii[k] for k in lead], own_boxes=dot_boxes, marks=[pin_box])
+                                   leaders_from_mm=[radii[k] for k in lead], own_boxes=dot_boxes, marks=[pin_box],
+                                   lines_along=bounds)
 
     places = place(names)
     joined = list(names)   # each dot's names, all of them
