@@ -21,7 +21,7 @@ from shapely.geometry import Point, Polygon, box as shapely_box
 
 from kitgen.parts import band_words, labels
 
-CLEARANCE_MM = band_words.DOT_CLEARANCE_MM
+CLEARANCE_MM = band_words.dot_clearance_mm(5.2)   # a word space at the 5.2 pt of an A4 rete
 
 
 def _turned_box(rng):

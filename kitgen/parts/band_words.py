@@ -4,7 +4,7 @@ A star's dot is fixed by the sky, a word of the band is not: a sign's
 name may stand anywhere between its sign's bounds, a number a little to
 either side of its tick.  So a word whose measured ink box (the shipped
 fonts' metrics, :mod:`kitgen.words.measure`, turned as the PDF sets it)
-comes within :data:`DOT_CLEARANCE_MM` of a dot slides along the band,
+comes within a word space (:data:`DOT_CLEARANCE_EM`) of a dot slides along the band,
 turned about the ecliptic's centre, to the nearest place where it meets no
 dot, no drawn tick and no other word of the band (common practice in map
 labelling: the name gives way to the feature).  A sign's name with no
@@ -29,14 +29,18 @@ import math
 
 import numpy as np
 
-from ..words.measure import text_corners_mm
+from ..words.measure import MM_PER_PT, text_corners_mm
 from . import labels
 from .box_grid import segment_box
 
-#: Clearance (mm) kept between a word of the band and a star's dot: the
-#: labels' margin (kitgen.parts.labels.MARGIN_MM), the least gap that reads
-#: as "apart" in print (common practice).
-DOT_CLEARANCE_MM = labels.MARGIN_MM
+#: Clearance kept between a word of the band and a star's dot, in ems of
+#: the word's size: a word space of the shipped sans (651 of 2048 units,
+#: DejaVu Sans' own metrics), and never less than the labels' margin
+#: (kitgen.parts.labels.MARGIN_MM).  Nearer than a word space, a dot reads
+#: as a mark of the word (#12 review: Aldebaran's dot 0.4 mm before
+#: "Géminis" on a Spanish rete; common practice in lettering, where
+#: different things stand further apart than the words of one phrase).
+DOT_CLEARANCE_EM = 0.32
 
 #: How far a number may slide from its tick, in degrees of longitude: less
 #: than half the 5-degree ticks' spacing, so it still reads as its tick's.
@@ -191,6 +195,12 @@ def _surely_near_dot(boxes, deltas_deg, center, dots, clearance_mm: float) -> li
     return out.tolist()
 
 
+def dot_clearance_mm(size_pt: float) -> float:
+    """The clearance (mm) a word of the band of ``size_pt`` keeps from a
+    star's dot: :data:`DOT_CLEARANCE_EM`, at least the labels' margin."""
+    return max(labels.MARGIN_MM, DOT_CLEARANCE_EM * size_pt * MM_PER_PT)
+
+
 def clear_of_dots(elements, dots, center, words, slide_range, short_forms=None):
     """The rete's elements with the band's words (roles ``zodiac_label``
     and ``ecliptic_number``) moved off the stars' dots: ``dots`` are
@@ -226,7 +236,8 @@ def clear_of_dots(elements, dots, center, words, slide_range, short_forms=None):
 
     dropped = set()
     for key, members in groups.items():
-        if not near_dot([boxes[k] for k in members], DOT_CLEARANCE_MM):
+        clear_mm = dot_clearance_mm(els[members[0]].geom["size_pt"])
+        if not near_dot([boxes[k] for k in members], clear_mm):
             continue
         others = [boxes[k] for k in band if k not in members and k not in dropped]
         other_bounds = np.array([bounds_of(o) for o in others], dtype=float).reshape(-1, 4)
@@ -239,7 +250,9 @@ def clear_of_dots(elements, dots, center, words, slide_range, short_forms=None):
             mid = _middle(els[k] for k in members)
             tries.append([dataclasses.replace(one, geom=dict(one.geom, at=mid, text=short_forms[key[1]]))])
         found = None
-        for clearance in (DOT_CLEARANCE_MM, 0.05):
+        # (a sign's name, which has no other place, at last nearer; a
+        # number is left out rather than set on a dot, and the notes say so)
+        for clearance in (clear_mm, 0.05) if key[0] == "zodiac_label" else (clear_mm,):
             for start in tries:
                 # (the words' boxes turned; the elements only for the place found)
                 exts = [words.measure(e.geom["text"], e.geom["size_pt"]) for e in start]
