@@ -40,7 +40,7 @@ from ..geometry.style import dot_radius_mm, pin_cross_half_mm, stroke_width_mm, 
 from ..projection.stereographic import equatorial_vector, horizontal_vector, project_vectors, unproject
 from .breaks import (MEETS, MIN_PIECE_MM, UNSURE, Box, arcs_meet_boxes, boxes_overlap, meets_near, reach_of,
                      ring_meets_grown, segments_meet_boxes)
-from .labels import MARGIN_MM
+from .labels import MARGIN_MM, NAME_GAP_ALONG_MM
 from .stroke_index import BoxIndex, StrokeArrays, StrokeIndex
 
 STROKE_SHAPES = ("circle", "arc", "segment", "polyline")
@@ -97,6 +97,13 @@ BAND_ROLES = ("twilight", "east_west")
 #: 5 deg N, A4, still read as a pair).  A choice; a number owed (a multiple
 #: of 30 degrees) with no place so far off stands nearer, never unnumbered.
 STACK_APART_MM = 5.0
+#: Paper (mm) along its row between an unequal hour's number and a
+#: cardinal letter level with it: the labels' gap for names side by side
+#: (kitgen.parts.labels.NAME_GAP_ALONG_MM), since nearer the two read as
+#: one word, and a letter shaped like a digit reads as one (#12 review:
+#: "1 O", hour 1 beside the Portuguese west point, read as "10"; the
+#: Russian "З" beside "2").
+CARDINAL_APART_MM = NAME_GAP_ALONG_MM
 
 
 class Room:
@@ -1083,10 +1090,26 @@ class PlateLabeller:
         order = np.argsort(np.abs(decs - want))
         finite, rows = np.all(np.isfinite(pts), axis=1).tolist(), pts.tolist()   # read as arrays once (#12)
         cands = [(rows[i][0], rows[i][1], 0.0) for i in order.tolist() if finite[i]]
+        ext = self.w.measure(text, size)
+        cands = [c for c in cands if self._apart_from_cardinals(c[0], c[1], ext.width_mm / 2, ext.height_mm / 2)]
         b = self.first_free(cands, text, size, self.others())
         if b is not None:
             return self.put("unequal_hour_label", b, text, size, hour=k)
         return self.left_out(text)
+
+    def _apart_from_cardinals(self, x: float, y: float, half_w: float, half_h: float) -> bool:
+        """Whether an upright box centred at (x, y) keeps
+        :data:`CARDINAL_APART_MM` along its row from every cardinal letter
+        level with it (their heights overlapping)."""
+        for e in self.out:
+            if e.role != "cardinal":
+                continue
+            ext = self.w.measure(e.geom["text"], e.geom["size_pt"])
+            (cx, cy) = e.geom["at"]
+            if abs(y - cy) < half_h + ext.height_mm / 2 and \
+                    abs(x - cx) - half_w - ext.width_mm / 2 < CARDINAL_APART_MM:
+                return False
+        return True
 
     def curve_name(self, role: str, text: str, **match):
         """A curve's name set along it (the curve broken round it), clear

@@ -1,0 +1,45 @@
+"""No unequal hour's number stands beside a cardinal letter on the plate
+(#12 review: hour 1 set 1 mm before the Portuguese west point "O" read
+as "10"; the Russian "З" beside "2" read as a number).
+
+Common practice in lettering: words of different things stand further
+apart along a line than the words of one name, so two labels side by
+side keep 2 mm (the kit's own rule for names side by side,
+``labels.NAME_GAP_ALONG_MM``).  Widths and heights are the shipped
+fonts' ink, measured as the PDF sets them (``Words.measure``).
+"""
+
+from __future__ import annotations
+
+import pytest
+
+from kitgen.kit import build_kit
+from kitgen.recipe.load import parse_recipe_text
+
+ALONG_MM = 2.0
+
+
+@pytest.mark.parametrize("head", [
+    "latitude: -8.05\nlanguage: pt\n",
+    "latitude: 12\nlanguage: it\nsheet: letter\n",
+    "latitude: 64.5\nlanguage: ru\nsheet: letter\n",
+    "latitude: -27\nlanguage: fr\nsheet: a5\n",
+    "latitude: 31\nlanguage: en\nsheet: a5\n",
+    "latitude: 19.4\nlanguage: es\ndiameter_mm: 140\n",
+])
+def test_no_hour_number_stands_beside_a_cardinal_letter(head):
+    kit = build_kit(parse_recipe_text(head + "parts: [plate]\n"))
+    plate = kit.part("plate")
+    cards = plate.with_role("cardinal")
+    hours = plate.with_role("unequal_hour_label")
+    assert len(cards) >= 3 and len(hours) >= 9
+    beside = []
+    for h in hours:
+        hw = kit.words.measure(h.geom["text"], h.geom["size_pt"])
+        for c in cards:
+            cw = kit.words.measure(c.geom["text"], c.geom["size_pt"])
+            level = abs(h.geom["at"][1] - c.geom["at"][1]) < (hw.height_mm + cw.height_mm) / 2
+            gap = abs(h.geom["at"][0] - c.geom["at"][0]) - (hw.width_mm + cw.width_mm) / 2
+            if level and gap < ALONG_MM:
+                beside.append((h.geom["text"], c.geom["text"], round(gap, 2)))
+    assert not beside
