@@ -104,6 +104,10 @@ STACK_APART_MM = 5.0
 #: "1 O", hour 1 beside the Portuguese west point, read as "10"; the
 #: Russian "З" beside "2").
 CARDINAL_APART_MM = NAME_GAP_ALONG_MM
+#: A worked example's almucantar is numbered near the example's body
+#: where no number of it stands within this many of its radii (about a
+#: third of the circle's way round) from the body's place.
+EXAMPLE_NEAR_RADII = 1.0
 
 
 class Room:
@@ -851,6 +855,46 @@ class PlateLabeller:
     def _numbered(self, alt: float) -> bool:
         """Whether the almucantar ``alt`` is one the plate numbers."""
         return any(abs(alt - a) < 1e-9 for a in self.ctx.scales.almucantar_labels_deg)
+
+    def example_almucantar(self, alt_deg: float, dec_rad: float, east: bool, phi: float, s: int, R: float):
+        """The almucantar a worked example of the instructions reads
+        (``alt_deg``, a body of declination ``dec_rad`` east or west of the
+        meridian) numbered near where the body stands on it, where no
+        number of that circle stands within :data:`EXAMPLE_NEAR_RADII` of
+        its radius from there: the pupil following the example finds the
+        circle by its number where the star or the Sun is (#12 review: a
+        Greek A5 plate numbered its 30 deg circle on the north side alone,
+        where the star example set Rigel on it west of the meridian).
+        Tried along the circle from that point, clear of every line, then
+        across the azimuths, then across unnumbered almucantars, as the
+        circle's own numbers; else nothing more (the example still holds:
+        the circle is numbered elsewhere)."""
+        els = [e for e in self.role("almucantar") if abs(e.values["altitude_deg"] - alt_deg) < 1e-9]
+        alt = math.radians(alt_deg)
+        if not els or not 0.0 < alt_deg < 90.0 or abs(math.cos(phi) * math.cos(alt)) < 1e-9:
+            return None
+        cos_a = (math.sin(dec_rad) - math.sin(alt) * math.sin(phi)) / (math.cos(alt) * math.cos(phi))
+        a = math.acos(max(-1.0, min(1.0, cos_a)))   # azimuth from north (Meeus eq. 13.5 turned about)
+        p = project_vectors(horizontal_vector(np.array([alt]), np.array([a if east else 2 * math.pi - a]), phi),
+                            s, R)[0]
+        if not np.all(np.isfinite(p)) or math.hypot(*p) >= self.room.disc:
+            return None
+        radius = min(e.geom.get("radius", math.inf) for e in els)
+        near = EXAMPLE_NEAR_RADII * radius
+        if any(e.role == "almucantar_label" and abs(e.values["altitude_deg"] - alt_deg) < 1e-9
+               and math.dist(e.geom["at"], p) < near for e in self.out):
+            return None
+        text, size = self.w.number(alt_deg), self.d.small_text_pt
+        protected = self.others(els)
+        grid = [e for e in protected if e.role != "azimuth"]
+        named = [e for e in grid if e.role != "almucantar" or self._numbered(e.values["altitude_deg"])]
+        along = [c for el in els for c in points_along(el, p, reach_mm=near)]
+        along.sort(key=lambda c: math.dist(c[:2], p))
+        for lines in (protected, grid, named):
+            b = self.first_free(along, text, size, lines)
+            if b is not None:
+                return self.put("almucantar_label", b, text, size, altitude_deg=float(alt_deg))
+        return None
 
     def _almucantar_anchors(self, els, everywhere):
         """Where a circle's numbers go, as (element, point): its meridian
