@@ -116,11 +116,46 @@ def test_the_lead_in_goes_on_with_its_heading():
 
 def test_the_check_finds_a_heading_left_at_the_foot(monkeypatch):
     """Self-test: with the layout told to keep only one line under a
-    heading, the same paragraphs leave the heading and its lead-in at the
+    heading and no lead-in with what it introduces, the same paragraphs leave the heading and its lead-in at the
     first page's foot, and the check says so."""
     monkeypatch.setattr(paragraphs, "HEADING_KEEPS_LINES", 1)
+    monkeypatch.setattr(paragraphs, "_leads_in", lambda block: False)   # nor a lead-in kept with its table
     words = load_words("en")
     blocks = _foot_of_page_blocks()
     pages, size_pt, chunks = _split_and_set(blocks, words, _foot_height_pt(blocks, words))
     assert chunks[0][-2].kind == "heading"
     assert _faults(pages, size_pt, chunks) == ["page 1: 1 line(s) under the heading 'The clock correction by week'"]
+
+
+#: Kits whose instructions run over several pages, in languages and on
+#: sheets not all above: on the German A5 kit of a review (#12) the
+#: assembly steps' lead-in ("... von hinten nach vorn:") had stood over
+#: the picture, its steps on the next page.
+LEAD_IN_KITS = [
+    ("de", "a5", {"latitude": 47.8, "twilight": ["civil", "nautical", "astronomical"]}),
+    ("it", "a5", {"latitude": 45.07}),
+    ("el", "letter", LISBON),
+    ("es", "a5", CAPE_TOWN),
+    ("en", "a5", {"latitude": 12.5}),
+]
+
+
+@pytest.mark.parametrize("language, sheet, site", LEAD_IN_KITS)
+def test_a_lead_in_stays_with_what_it_introduces(language, sheet, site):
+    # Common practice in typesetting: a paragraph that ends in a colon
+    # introduces what follows it and is not parted from it, neither by a
+    # page's end nor by a picture.
+    kit = build_kit(validate_recipe({**site, "language": language, "sheet": sheet, "epoch": 2027}))
+    size_pt, chunks = instructions_split(kit, layout_kit(kit))
+    assert len(chunks) > 1
+    parted = []
+    for number, chunk in enumerate(chunks, start=1):
+        for here, after in zip(chunk, chunk[1:] + [None]):
+            if here.kind == "body" and here.text.rstrip().endswith(":") and (after is None or after.figure is not None):
+                parted.append((number, here.text[:40], "page end" if after is None else "picture"))
+    assert not parted
+    # the assembly steps' lead-in stands right above the first step
+    intro = kit.words("instructions.stack_intro")
+    flat = [b for chunk in chunks for b in chunk]
+    k = next(i for i, b in enumerate(flat) if b.text == intro)
+    assert flat[k + 1].kind == "item"

@@ -248,10 +248,12 @@ def story(kit, pages) -> list[Block]:
     if any(pl.piece is not None for p in pages for pl in p.placements):
         out.append(Block("body", w("printing.tiles")))
         out.append(Block("body", w("printing.tiles_pierce")))
-    out += [Block("heading", w("instructions.stack_heading")), Block("body", w("instructions.stack_intro"))]
+    out.append(Block("heading", w("instructions.stack_heading")))
     plate_fig, stack_fig = kit_figures(kit, column_mm(pages))
     if stack_fig is not None:   # the stack drawn, in the order of the steps below (#9)
         out.append(Block("figure", w("instructions.figure_stack"), figure=stack_fig))
+    # (the steps' lead-in right above them, never parted from them by the picture: #12 review)
+    out.append(Block("body", w("instructions.stack_intro")))
     out += stack_blocks(kit)
     out.append(Block("body", w("instructions.fastener")))
     if {"mater_front", "mater_back"} & set(kit.plan.parts):

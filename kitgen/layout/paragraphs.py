@@ -446,17 +446,30 @@ HEADING_KEEPS_LINES = 2
 def _kept_with_next(blocks, current, lines) -> list[int]:
     """The blocks at the end of the page ``current`` (their indices) that
     go on to the next page with the block that does not fit: the last
-    heading and what stands under it, when that is less than
+    heading, or paragraph that leads in to what follows it
+    (:func:`_leads_in`), and what stands under it, when that is less than
     :data:`HEADING_KEEPS_LINES` lines.  The page's first block always
     stays, so that a page is never left empty."""
-    under = 0
+    start, under = len(current), 0
     for j in range(len(current) - 1, 0, -1):
-        if blocks[current[j]].kind == "heading":
-            return current[j:] if under < HEADING_KEEPS_LINES else []
+        if blocks[current[j]].kind == "heading" or _leads_in(blocks[current[j]]):
+            if under >= HEADING_KEEPS_LINES:
+                break
+            start, under = j, 0   # it goes on, and a heading over it with nothing else under it too
+            continue
         under += lines[current[j]]
         if under >= HEADING_KEEPS_LINES:
-            return []
-    return []
+            break
+    return current[start:]
+
+
+def _leads_in(block) -> bool:
+    """Whether ``block`` is a paragraph that ends in a colon, which leads
+    in to the list or paragraph after it and stays with it, as a heading
+    does (common practice in typesetting; #12 review: "Stack the parts
+    ..., from the back to the front:" at a page's foot, its steps on the
+    next page)."""
+    return block.kind == "body" and block.figure is None and block.text.rstrip().endswith(":")
 
 
 #: Rows of a table that a page break leaves on each side of it: a table's
