@@ -418,8 +418,8 @@ def shortened_notes(parts, dims, words) -> tuple[Message, ...]:
     (by the names ``words`` prints them with): so that no shortened or
     missing word goes unsaid; for the plate's labels that found no place
     clear of the other lines, an owner's name with no room on its part
-    (kitgen.parts.owner.left_out), the almucantars not drawn for want of
-    room for their numbers and the azimuths left unnumbered; and for the rete's ecliptic numbers left
+    (kitgen.parts.owner.left_out) and the almucantars not drawn for want of
+    room for their numbers; and for the rete's ecliptic numbers left
     out because a star's dot lies where they would stand
     (kitgen.parts.band_words)."""
     out = []
@@ -449,10 +449,6 @@ def shortened_notes(parts, dims, words) -> tuple[Message, ...]:
         if dropped:
             out.append(Message("notes.almucantars_left_out", part=name,
                                altitudes=[Number(a) for a in dropped], diameter=size))
-        unnumbered = part.values.get("azimuths_left_out_deg") if part.kind == "plate" else None
-        if unnumbered:
-            out.append(Message("notes.azimuth_numbers_left_out", part=name,
-                               azimuths=[Number(a) for a in unnumbered], diameter=size))
         named = {e.values.get("name") for e in part.elements if e.role == "star_label"}
         unnamed = [e.values["name"] for e in part.elements if e.role == "star" and e.stroke != "none"
                    and e.values["name"] not in named]

@@ -78,10 +78,8 @@ def plate(ctx: PartContext) -> model.Part:
     r = d.plate_radius_mm + d.tick_mm * 4
     return model.Part("plate", "card", tuple(els), (-r, -r, r, r),
                       {"latitude_deg": lat_deg, "place": ctx.plate.place, "number": ctx.plate.number,
-                       "labels_left_out": tuple(t for t, v in missing if not v),
-                       "almucantars_left_out_deg": tuple(unnumbered),
-                       "azimuths_left_out_deg": tuple(sorted(v["azimuth_deg"] for _, v in missing
-                                                             if "azimuth_deg" in v))},
+                       "labels_left_out": tuple(t for t, v in missing if "altitude_deg" not in v),
+                       "almucantars_left_out_deg": tuple(unnumbered)},
                       plate_title(ctx))
 
 

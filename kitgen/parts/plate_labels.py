@@ -37,7 +37,7 @@ import numpy as np
 from ..geometry import model
 from ..geometry.arrays import ints_not_in, unique_ints
 from ..geometry.style import dot_radius_mm, pin_cross_half_mm, stroke_width_mm, zenith_mark_half_mm
-from ..projection.stereographic import equatorial_vector, horizontal_vector, project_vectors, unproject
+from ..projection.stereographic import equatorial_vector, horizontal_vector, project_vectors
 from .breaks import (MEETS, MIN_PIECE_MM, UNSURE, Box, arcs_meet_boxes, boxes_overlap, meets_near, reach_of,
                      ring_meets_grown, segments_meet_boxes)
 from .labels import MARGIN_MM, NAME_GAP_ALONG_MM
@@ -86,17 +86,6 @@ LED_REACH_MM = LED_MOST_MM + 2 * MARGIN_MM + 2.5
 NEAR_SLIDE_MM = 4.0
 #: Step (mm) between the places tried.
 STEP_MM = 0.25
-#: The lines that end the band below the horizon where an azimuth's number
-#: stands on its line continued: past one, it reads as that line's number.
-BAND_ROLES = ("twilight", "east_west")
-#: Least gap (mm) between an azimuth's number set at the rim, or led aside
-#: by one that may go unnumbered, and an almucantar's or an unequal hour's
-#: number: nearer, the two read as one stack (or one row, "1 255°") and a
-#: pupil cannot tell which numbers which line (#12's review: "150°" 1.3 mm
-#: over "20" at the rim at 0.4 deg N; at 4.2 mm, "165°" under "30" at
-#: 5 deg N, A4, still read as a pair).  A choice; a number owed (a multiple
-#: of 30 degrees) with no place so far off stands nearer, never unnumbered.
-STACK_APART_MM = 5.0
 #: Paper (mm) along its row between an unequal hour's number and a
 #: cardinal letter level with it: the labels' gap for names side by side
 #: (kitgen.parts.labels.NAME_GAP_ALONG_MM), since nearer the two read as
@@ -595,9 +584,6 @@ class PlateLabeller:
         self.room = Room(disc_mm, d, keep, strokes)
         self.out: list[model.Element] = []
         self.missing: list[tuple[str, dict]] = []
-        #: The boxes of the almucantars' and unequal hours' numbers
-        #: (:meth:`_apart_from_numbers`).
-        self.numbers: list[Box] = []
         #: The azimuths' numbers set on their lines continued below the
         #: horizon: (its element, its box, the horizon point, its own lines).
         self.continued: list[tuple] = []
@@ -621,8 +607,6 @@ class PlateLabeller:
     def put(self, role, box: Box, text, size_pt, **values) -> model.Element:
         el = model.text(role, box.center, text, size_pt, math.degrees(box.angle_rad), "middle", **values)
         self.room.taken.append(box)
-        if role in ("almucantar_label", "unequal_hour_label"):
-            self.numbers.append(box)
         self.out.append(el)
         return el
 
@@ -920,22 +904,15 @@ class PlateLabeller:
         return meridian + (east_west or ends)
 
     def azimuth(self, az: float, phi: float, s: int, R: float):
-        """An azimuth's number on its line continued just below the horizon,
-        on the horizon's side of the twilight and east-west lines (a number
-        past one reads as that line's: #12's review, 30 deg 6 mm down past
-        the twilight line at 0.4 deg N); else beside its horizon point, below
-        the horizon, with a leader (:meth:`_led_number`); else on the line
-        itself just above the horizon (broken round it); or, where the
-        horizon's point is outside the drawing, at its end on the rim, kept
-        :data:`STACK_APART_MM` from the almucantars' numbers there.  A number
-        owed (a multiple of 30 degrees) where none of these fits stands where
-        it would otherwise: on its line past the twilight line
-        (:meth:`lead_the_hidden`), or at the rim nearer the other numbers.
-        Clear of every other line.  It carries a degree sign ("90°"), which
-        an almucantar's plain number never does, so the two cannot be taken
-        for each other (the template's ``plate.azimuth_number``).  Returns
-        None where it has no room, and the build's notes say so
-        (:func:`kitgen.parts.legibility.shortened_notes`)."""
+        """An azimuth's number on its line continued below the horizon (on
+        the line itself just above the horizon where a tropic runs there),
+        or, where the horizon's point is outside the drawing, at its end on
+        the rim; clear of every other line.  It carries a degree sign
+        ("90°"), which an almucantar's plain number never does, so the two
+        cannot be taken for each other (the template's
+        ``plate.azimuth_number``).  Returns None where it has no room (an
+        azimuth of no multiple of 30 degrees may go unnumbered: the curve
+        is numbered on the plate wherever its neighbours are)."""
         text, size = self.w("plate.azimuth_number", value=self.w.number(az)), self.d.small_text_pt
         A = math.radians(az)
         own = [e for e in self.role("azimuth") if abs(e.values["azimuth_deg"] - az) < 1e-9]
@@ -949,99 +926,48 @@ class PlateLabeller:
             p0_xy = p0.tolist()
             cands = [(x, y, 0.0) for x, y in pts[near].tolist() if math.dist((x, y), p0_xy) < SLIDE_MM]
             b = self.first_free(cands, text, size, protected)
-            owed = multiple_of(az, 30.0)
-            # (a number owed past a band's line keeps its place for now: it is
-            # led from there, or set above the horizon, once all those owed
-            # are set, else stays)
-            if b is not None and (owed or self._in_sight(b, p0, self.role(*BAND_ROLES))):
+            if b is not None:
                 el = self.put("azimuth_label", b, text, size, azimuth_deg=float(az))
                 self.continued.append((el, b, p0, own))
                 return el
-            above = [c for el in own for c in points_along(el, p0)]
-            if owed:
-                # Owed a number: on its own line just above the horizon,
-                # else beside its horizon point with a leader to it (near
-                # the equator the azimuths meet the horizon close together
-                # among the tropics, and on an A5 plate among the
-                # almucantars, where no number fits on a line).
-                b = self.first_free(above, text, size, protected)
-                if b is not None:
-                    return self.put("azimuth_label", b, text, size, azimuth_deg=float(az))
-                return self._led_number(p0, text, size, az, own) or self.left_out(text, azimuth_deg=float(az))
-            # The others, set after the names: beside the point below the
-            # horizon with a leader, else on the line just above it.
-            led = self._led_number(p0, text, size, az, own, below=(phi, s, R), apart=True)
-            if led is not None:
-                return led
-            b = self.first_free(above, text, size, protected)
+            # on its own line just above the horizon (broken round it)
+            b = self.first_free([c for el in own for c in points_along(el, p0)], text, size, protected)
             if b is not None:
                 return self.put("azimuth_label", b, text, size, azimuth_deg=float(az))
-            return self.left_out(text, azimuth_deg=float(az))
+            if multiple_of(az, 30.0):
+                # Owed a number: beside its horizon point with a leader to it
+                # (near the equator the azimuths meet the horizon close
+                # together among the tropics, and on an A5 plate among the
+                # almucantars, where no number fits on a line).
+                return self._led_number(p0, text, size, az, own) or self.left_out(text)
+            return None
         rim_ends = [(el, end) for el in own for end in _ends(el)
                     if abs(math.hypot(*end) - (self.room.disc + MARGIN_MM)) < 1e-3]
-        ext = self.w.measure(text, size)
-        owed = multiple_of(az, 30.0)
-        # apart from the other numbers first; a number owed, where that
-        # finds no place, then nearer them rather than none (every multiple
-        # of 30 degrees is numbered: tests/test_plate_readings.py)
-        for apart in (True, False) if owed else (True,):
-            for el, end in rim_ends:
-                cands = points_along(el, end, reach_mm=2 * SLIDE_MM)
-                if apart and cands:
-                    xy = np.array([c[:2] for c in cands], dtype=float)
-                    keep = self._apart_from_numbers(xy[:, 0], xy[:, 1], ext.width_mm / 2, ext.height_mm / 2)
-                    cands = [c for c, k in zip(cands, keep.tolist()) if k]
-                b = self.first_free(cands, text, size, protected)
-                if b is not None:
-                    return self.put("azimuth_label", b, text, size, azimuth_deg=float(az))
-            if rim_ends and owed:   # owed a number: beside its end, with a leader
-                led = self._led_number(rim_ends[0][1], text, size, az, own, apart=apart)
-                if led is not None:
-                    return led
-        return self.left_out(text, azimuth_deg=float(az))
-
-    def _apart_from_numbers(self, x, y, half_w: float, half_h: float) -> np.ndarray:
-        """Whether each upright box centred at (``x``, ``y``) (arrays, mm)
-        keeps :data:`STACK_APART_MM` from every almucantar's and unequal
-        hour's number set so far (their boxes taken upright, as
-        :func:`_boxes_gap`), all at once (#12: box by box, the test took a
-        tenth of a plate's labels)."""
-        out = np.ones(len(x), dtype=bool)
-        for t in self.numbers:
-            dx = np.maximum(np.abs(x - t.center[0]) - half_w - t.half_w, 0.0)
-            dy = np.maximum(np.abs(y - t.center[1]) - half_h - t.half_h, 0.0)
-            out &= np.hypot(dx, dy) >= STACK_APART_MM
-        return out
+        for el, end in rim_ends:
+            b = self.first_free(points_along(el, end, reach_mm=2 * SLIDE_MM), text, size, protected)
+            if b is not None:
+                return self.put("azimuth_label", b, text, size, azimuth_deg=float(az))
+        if rim_ends and multiple_of(az, 30.0):   # owed a number: beside its end, with a leader
+            return self._led_number(rim_ends[0][1], text, size, az, own) or self.left_out(text)
+        return self._azimuth_missing(az, text)
 
     def lead_the_hidden(self) -> None:
         """Each number owed (a multiple of 30 degrees) that stands on its
         line continued with another line between it and its horizon point,
-        where it would read as that line's (#12's teacher-style review: 60
-        and 300 deg under the east-west line at 6.2 deg S), moved beside the
-        point with a leader where one can be drawn (:meth:`_led_number`, its
-        own place given back first); past the twilight or the east-west line
-        (:data:`BAND_ROLES`: 30 deg 6 mm below its point at 0.4 deg N, in the
-        review of #12) else on its own line just above the horizon; else
-        left where it is (every multiple of 30 degrees is numbered, even past
-        a line, rather than not)."""
+        where it would read as that line's (#12's teacher-style review: a
+        30 deg number 6 mm below its point, past the twilight line), moved
+        beside the point with a leader where one can be drawn
+        (:meth:`_led_number`, its own place given back first); else left
+        where it is."""
         for el, b, p0, own in self.continued:
             az = el.values["azimuth_deg"]
             if not multiple_of(az, 30.0) or self._in_sight(b, p0, self.others(own) + self.reference):
                 continue
             self.out = [e for e in self.out if e is not el]
             self.room.give_back(b)
-            text, size = el.geom["text"], el.geom["size_pt"]
-            if self._led_number(p0, text, size, az, own) is not None:
-                continue
-            if not self._in_sight(b, p0, self.role(*BAND_ROLES)):
-                above = self.first_free([c for line in own for c in points_along(line, p0)], text, size,
-                                        self.others(own))
-                if above is not None:
-                    self.put("azimuth_label", above, text, size, azimuth_deg=float(az))
-                    continue
-            # where it stood: past a line, but numbered rather than not
-            self.room.taken.append(b)
-            self.out.append(el)
+            if self._led_number(p0, el.geom["text"], el.geom["size_pt"], az, own) is None:
+                self.room.taken.append(b)
+                self.out.append(el)
 
     def _in_sight(self, b: Box, p0, lines) -> bool:
         """Whether no line of ``lines`` runs between the box and the point
@@ -1056,18 +982,14 @@ class PlateLabeller:
                      (q[0] - ux * MARGIN_MM, q[1] - uy * MARGIN_MM), 0.05)
         return self.room.clear_of(lane, lines, 0.0)
 
-    def _led_number(self, p0, text: str, size_pt: float, az: float, own, below=None, apart: bool = False):
+    def _led_number(self, p0, text: str, size_pt: float, az: float, own):
         """An azimuth's number the nearest it can stand to its horizon
         point ``p0`` (out to :data:`LED_REACH_MM`), clear of every line and
         label, with a fine leader that crosses none (:meth:`_leader`), no
         shorter than a line's least piece (``breaks.MIN_PIECE_MM``) and no
         longer than :data:`LED_MOST_MM`, to
         that point or else to its own line ``own`` (its pieces) within
-        :data:`LED_ALONG_MM` of it; with ``below`` (the plate's latitude in
-        radians, hemisphere sign and equator radius in mm) only below the
-        horizon, where the plate's azimuth numbers stand; with ``apart``
-        :data:`STACK_APART_MM` from the almucantars' and unequal hours'
-        numbers (:meth:`_apart_from_numbers`); else None."""
+        :data:`LED_ALONG_MM` of it; else None."""
         targets = [p0] + [(x, y) for el in own for x, y, _ in points_along(el, p0, 1.0, LED_ALONG_MM)]
         # (not where a label stands: its line is broken round it, and the leader would point at nothing)
         targets = [t for t in targets if self.room.clear_of_labels(Box((float(t[0]), float(t[1])), 0.0,
@@ -1077,11 +999,6 @@ class PlateLabeller:
         ext = self.w.measure(text, size_pt)
         dx, dy = _around_offsets(2 * STEP_MM, LED_REACH_MM, np.zeros(2))
         places = Places.of_arrays(p0[0] + dx, p0[1] + dy, ext.width_mm / 2, ext.height_mm / 2)
-        can = np.ones(len(places), dtype=bool)
-        if below is not None:   # the centre's altitude (Snyder's inverse projection) below 0
-            phi, s, R = below
-            zenith = np.array([0.0, math.cos(phi), math.sin(phi)])
-            can = unproject(np.stack([places.x, places.y], axis=1), s, R) @ zenith < 0.0
         room = self.room
         # only the lines that come within the places' reach (with their boxes and clearances) of the point
         reach = LED_REACH_MM + math.hypot(ext.width_mm, ext.height_mm) / 2 + CLEAR_MM + 1.0
@@ -1091,10 +1008,7 @@ class PlateLabeller:
         gap = np.hypot(np.maximum(np.abs(t[None, :, 0] - places.x[:, None]) - places.half_w, 0.0),
                        np.maximum(np.abs(t[None, :, 1] - places.y[:, None]) - places.half_h, 0.0)) - 2 * MARGIN_MM
         suits = np.any((gap >= MIN_PIECE_MM - 1e-9) & (gap <= LED_MOST_MM + 1e-9), axis=1)
-        can &= places.inside(room) & suits
-        if apart:
-            can &= self._apart_from_numbers(places.x, places.y, places.half_w, places.half_h)
-        for _, b in self._free_places(places, can, ((lines, CLEAR_MM), (lines, MARGIN_MM)),
+        for _, b in self._free_places(places, places.inside(room) & suits, ((lines, CLEAR_MM), (lines, MARGIN_MM)),
                                       1024):
             if not (room.clear_of_labels(b) and room.clear_of(b, self.reference)):
                 continue
@@ -1114,6 +1028,13 @@ class PlateLabeller:
                 room.taken.append(_lane(lead[0], target, stroke_width_mm("fine", self.d) / 2))
                 self.out.append(model.segment("azimuth_leader", *lead, "fine", azimuth_deg=float(az)))
                 return self.put("azimuth_label", b, text, size_pt, azimuth_deg=float(az))
+        return None
+
+    def _azimuth_missing(self, az: float, text: str):
+        # Only the multiples of 30 degrees are owed a number (the others
+        # are numbered where there is room, as the almucantars' fives).
+        if multiple_of(az, 30.0):
+            self.left_out(text)
         return None
 
     def unequal_hour(self, k: int, phi: float, s: int, R: float, eps: float):
