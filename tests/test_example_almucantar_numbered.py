@@ -10,7 +10,10 @@ Algorithms*, 2nd ed., eq. 13.5 solved for the azimuth: cos A = (sin dec
 or west as the example says; on the plate by the kit's stereographic
 projection (tested against Snyder 1987 in test_projection). "Where it
 stands" is within one radius of the circle (about a third of its way
-round), the rule the plate keeps (plate_labels.EXAMPLE_NEAR_RADII).
+round), the rule the plate keeps (plate_labels.EXAMPLE_NEAR_RADII); yet
+not under the body's place, which the rete's dot covers once the example
+is set (at least 1 mm of paper; the plate keeps 1.5 mm,
+plate_labels.EXAMPLE_CLEAR_MM).
 """
 
 from __future__ import annotations
@@ -62,3 +65,9 @@ def test_the_examples_almucantar_is_numbered_where_the_body_stands(head):
         near = [e for e in plate.with_role("almucantar_label")
                 if abs(e.values["altitude_deg"] - alt_deg) < 1e-9 and math.dist(e.geom["at"], p) < radius]
         assert near, (alt_deg, "east" if east else "west", [round(float(x), 1) for x in p])
+        # and none lies under the body's place, where the rete's dot covers it when the example is set
+        for e in near:
+            m = kit.words.measure(e.geom["text"], e.geom["size_pt"])
+            gap = math.hypot(max(abs(p[0] - e.geom["at"][0]) - m.width_mm / 2, 0.0),
+                             max(abs(p[1] - e.geom["at"][1]) - m.height_mm / 2, 0.0))
+            assert gap >= 1.0, (alt_deg, round(gap, 2))

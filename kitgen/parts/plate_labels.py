@@ -104,6 +104,11 @@ STACK_APART_MM = 5.0
 #: where no number of it stands within this many of its radii (about a
 #: third of the circle's way round) from the body's place.
 EXAMPLE_NEAR_RADII = 1.0
+#: ... and keeps this much paper (mm) from the body's place, which the
+#: rete's dot of the star (at most about 0.8 mm across) or the point of
+#: the Sun on the ecliptic covers when the example is set (#12 review: a
+#: number 0.75 mm from Rigel's place lay under its dot).
+EXAMPLE_CLEAR_MM = 1.5
 
 
 class Room:
@@ -879,7 +884,11 @@ class PlateLabeller:
         protected = self.others(els)
         grid = [e for e in protected if e.role != "azimuth"]
         named = [e for e in grid if e.role != "almucantar" or self._numbered(e.values["altitude_deg"])]
-        along = [c for el in els for c in points_along(el, p, reach_mm=near)]
+        ext = self.w.measure(text, size)
+        # (not under the body's own place, where the rete's dot of the star, or the Sun's point, then lies)
+        along = [c for el in els for c in points_along(el, p, reach_mm=near)
+                 if _boxes_gap(Box((c[0], c[1]), 0.0, ext.width_mm / 2, ext.height_mm / 2),
+                               Box((float(p[0]), float(p[1])), 0.0, 0.0, 0.0)) >= EXAMPLE_CLEAR_MM]
         along.sort(key=lambda c: math.dist(c[:2], p))
         for lines in (protected, grid, named):
             b = self.first_free(along, text, size, lines)
