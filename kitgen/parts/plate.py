@@ -18,7 +18,7 @@ from ..projection.stereographic import (equatorial_vector, horizontal_vector,
                                         project_vectors)
 from ..geometry.style import pin_cross_half_mm, stroke_width_mm
 from . import breaks, curves, labels, legibility, plate_labels, stroke_index
-from ..sky.worked_example import sun_place_rad
+from ..sky.worked_example import hour_angle_rad, sun_place_rad
 from ..words.locale import true_minus
 from .context import PartContext
 from .dimensions import MIN_TEXT_PT
@@ -233,8 +233,8 @@ def _labels(ctx, phi, s, R, disc, strokes):
     tens = [a for a in numbered if multiple_of(a, every)]
     for alt in tens:
         lab.almucantar(alt, True)
-    for alt_deg, dec, east in _examples_read(ctx, phi):
-        lab.example_almucantar(alt_deg, dec, east, phi, s, R)
+    for alt_deg, hour_angle, dec in _examples_read(ctx, phi):
+        lab.example_almucantar(alt_deg, hour_angle, dec, s, R)
     if ctx.plan.drawing.unequal_hours and abs(math.degrees(phi)) < 90.0 - math.degrees(eps):
         for k in range(1, 13):
             lab.unequal_hour(k, phi, s, R, eps)
@@ -259,17 +259,24 @@ def _labels(ctx, phi, s, R, disc, strokes):
     return first + lab.out, lab.missing
 
 
-def _examples_read(ctx, phi: float) -> list[tuple[float, float, bool]]:
-    """(altitude in degrees, declination in radians, east) of each worked
-    example of the instructions read on this plate (the site's, not a
-    second plate's): the Sun in the morning, the star east or west."""
+def _examples_read(ctx, phi: float) -> list[tuple[float, float, float]]:
+    """(altitude in degrees, hour angle and declination in radians) of
+    where each worked example of the instructions reads its body on this
+    plate (the site's, not a second plate's): the Sun in the morning, the
+    star east or west, at the hour angle the example itself works out
+    (:func:`kitgen.sky.worked_example.hour_angle_rad`)."""
     if abs(math.radians(ctx.plan.site.latitude_deg) - phi) > 1e-9:
         return []
     ex, out = ctx.plan.examples, []
+    reads = []
     if ex.sun is not None:
-        out.append((ex.sun.altitude_deg, sun_place_rad(ex.sun.sun_longitude_deg, ctx.sky.obliquity_rad)[1], True))
+        reads.append((ex.sun.altitude_deg, sun_place_rad(ex.sun.sun_longitude_deg, ctx.sky.obliquity_rad)[1], True))
     if ex.star is not None:
-        out.append((ex.star.altitude_deg, math.radians(ctx.sky.stars[ex.star.star_index].dec_deg), ex.star.east))
+        reads.append((ex.star.altitude_deg, math.radians(ctx.sky.stars[ex.star.star_index].dec_deg), ex.star.east))
+    for alt_deg, dec, east in reads:
+        h = hour_angle_rad(phi, dec, math.radians(alt_deg))
+        if h is not None:
+            out.append((alt_deg, -h if east else h, dec))
     return out
 
 

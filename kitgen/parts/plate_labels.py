@@ -37,7 +37,7 @@ import numpy as np
 from ..geometry import model
 from ..geometry.arrays import ints_not_in, unique_ints
 from ..geometry.style import dot_radius_mm, pin_cross_half_mm, stroke_width_mm, zenith_mark_half_mm
-from ..projection.stereographic import equatorial_vector, horizontal_vector, project_vectors
+from ..projection.stereographic import equatorial_vector, horizontal_vector, project, project_vectors
 from .breaks import (MEETS, MIN_PIECE_MM, UNSURE, Box, arcs_meet_boxes, boxes_overlap, meets_near, reach_of,
                      ring_meets_grown, segments_meet_boxes)
 from .labels import MARGIN_MM, NAME_GAP_ALONG_MM
@@ -596,6 +596,9 @@ class PlateLabeller:
         self.room = Room(disc_mm, d, keep, strokes)
         self.out: list[model.Element] = []
         self.missing: list[tuple[str, dict]] = []
+        #: The boxes of the labels set, by role (for the numbers' and the
+        #: cardinal letters' distances: :meth:`_apart_from_numbers`).
+        self.boxes: dict[str, list[Box]] = {}
         #: The azimuths' numbers set on their lines continued below the
         #: horizon: (its element, its box, the horizon point, its own lines).
         self.continued: list[tuple] = []
@@ -619,6 +622,7 @@ class PlateLabeller:
     def put(self, role, box: Box, text, size_pt, **values) -> model.Element:
         el = model.text(role, box.center, text, size_pt, math.degrees(box.angle_rad), "middle", **values)
         self.room.taken.append(box)
+        self.boxes.setdefault(role, []).append(box)
         self.out.append(el)
         return el
 
@@ -852,31 +856,25 @@ class PlateLabeller:
         """Whether the almucantar ``alt`` is one the plate numbers."""
         return any(abs(alt - a) < 1e-9 for a in self.ctx.scales.almucantar_labels_deg)
 
-    def example_almucantar(self, alt_deg: float, dec_rad: float, east: bool, phi: float, s: int, R: float):
+    def example_almucantar(self, alt_deg: float, hour_angle_rad: float, dec_rad: float, s: int, R: float):
         """The almucantar a worked example of the instructions reads
-        (``alt_deg``, a body of declination ``dec_rad`` east or west of the
-        meridian) numbered near where the body stands on it, where no
-        number of that circle stands within :data:`EXAMPLE_NEAR_RADII` of
-        its radius from there: the pupil following the example finds the
-        circle by its number where the star or the Sun is (#12 review: a
-        Greek A5 plate numbered its 30 deg circle on the north side alone,
-        where the star example set Rigel on it west of the meridian).
-        Tried along the circle from that point, clear of every line, then
+        (``alt_deg``, where a body of declination ``dec_rad`` stands at
+        ``hour_angle_rad``) numbered near where the body stands on it,
+        where no number of that circle stands within
+        :data:`EXAMPLE_NEAR_RADII` of its radius from there: the pupil
+        following the example finds the circle by its number where the star
+        or the Sun is (#12 review: a Greek A5 plate numbered its 30 deg
+        circle on the north side alone, where the star example set Rigel on
+        it west of the meridian).  Tried along the circle from that point
+        (but :data:`EXAMPLE_CLEAR_MM` off it), clear of every line, then
         across the azimuths, then across unnumbered almucantars, as the
         circle's own numbers; else nothing more (the example still holds:
         the circle is numbered elsewhere)."""
         els = [e for e in self.role("almucantar") if abs(e.values["altitude_deg"] - alt_deg) < 1e-9]
-        alt = math.radians(alt_deg)
-        if not els or not 0.0 < alt_deg < 90.0 or abs(math.cos(phi) * math.cos(alt)) < 1e-9:
+        p = project(hour_angle_rad, dec_rad, s, R)
+        if not els or not np.all(np.isfinite(p)) or math.hypot(*p) >= self.room.disc:
             return None
-        cos_a = (math.sin(dec_rad) - math.sin(alt) * math.sin(phi)) / (math.cos(alt) * math.cos(phi))
-        a = math.acos(max(-1.0, min(1.0, cos_a)))   # azimuth from north (Meeus eq. 13.5 turned about)
-        p = project_vectors(horizontal_vector(np.array([alt]), np.array([a if east else 2 * math.pi - a]), phi),
-                            s, R)[0]
-        if not np.all(np.isfinite(p)) or math.hypot(*p) >= self.room.disc:
-            return None
-        radius = min(e.geom.get("radius", math.inf) for e in els)
-        near = EXAMPLE_NEAR_RADII * radius
+        near = EXAMPLE_NEAR_RADII * min(e.geom.get("radius", math.inf) for e in els)
         if any(e.role == "almucantar_label" and abs(e.values["altitude_deg"] - alt_deg) < 1e-9
                and math.dist(e.geom["at"], p) < near for e in self.out):
             return None
@@ -885,11 +883,12 @@ class PlateLabeller:
         grid = [e for e in protected if e.role != "azimuth"]
         named = [e for e in grid if e.role != "almucantar" or self._numbered(e.values["altitude_deg"])]
         ext = self.w.measure(text, size)
+        body = Box((float(p[0]), float(p[1])), 0.0, 0.0, 0.0)
         # (not under the body's own place, where the rete's dot of the star, or the Sun's point, then lies)
         along = [c for el in els for c in points_along(el, p, reach_mm=near)
-                 if _boxes_gap(Box((c[0], c[1]), 0.0, ext.width_mm / 2, ext.height_mm / 2),
-                               Box((float(p[0]), float(p[1])), 0.0, 0.0, 0.0)) >= EXAMPLE_CLEAR_MM]
-        along.sort(key=lambda c: math.dist(c[:2], p))
+                 if _boxes_gap(Box((c[0], c[1]), 0.0, ext.width_mm / 2, ext.height_mm / 2), body) >= EXAMPLE_CLEAR_MM]
+        # (nearest first; at equal distances, to the last rounding, in points_along's own order)
+        along.sort(key=lambda c: round(math.dist(c[:2], p), 9))
         for lines in (protected, grid, named):
             b = self.first_free(along, text, size, lines)
             if b is not None:
@@ -980,12 +979,9 @@ class PlateLabeller:
         hour's number set so far (their boxes taken upright), all at once."""
         x, y = np.asarray(x, dtype=float), np.asarray(y, dtype=float)
         out = np.ones(len(x), dtype=bool)
-        for e in self.out:
-            if e.role not in ("almucantar_label", "unequal_hour_label"):
-                continue
-            ext = self.w.measure(e.geom["text"], e.geom["size_pt"])
-            dx = np.maximum(np.abs(x - e.geom["at"][0]) - half_w - ext.width_mm / 2, 0.0)
-            dy = np.maximum(np.abs(y - e.geom["at"][1]) - half_h - ext.height_mm / 2, 0.0)
+        for t in self.boxes.get("almucantar_label", []) + self.boxes.get("unequal_hour_label", []):
+            dx = np.maximum(np.abs(x - t.center[0]) - half_w - t.half_w, 0.0)
+            dy = np.maximum(np.abs(y - t.center[1]) - half_h - t.half_h, 0.0)
             out &= np.hypot(dx, dy) >= STACK_APART_MM
         return out.tolist()
 
@@ -1094,25 +1090,20 @@ class PlateLabeller:
         finite, rows = np.all(np.isfinite(pts), axis=1).tolist(), pts.tolist()   # read as arrays once (#12)
         cands = [(rows[i][0], rows[i][1], 0.0) for i in order.tolist() if finite[i]]
         ext = self.w.measure(text, size)
-        cands = [c for c in cands if self._apart_from_cardinals(c[0], c[1], ext.width_mm / 2, ext.height_mm / 2)]
+        cands = self._apart_from_cardinals(cands, ext.width_mm / 2, ext.height_mm / 2)
         b = self.first_free(cands, text, size, self.others())
         if b is not None:
             return self.put("unequal_hour_label", b, text, size, hour=k)
         return self.left_out(text)
 
-    def _apart_from_cardinals(self, x: float, y: float, half_w: float, half_h: float) -> bool:
-        """Whether an upright box centred at (x, y) keeps
-        :data:`CARDINAL_APART_MM` along its row from every cardinal letter
-        level with it (their heights overlapping)."""
-        for e in self.out:
-            if e.role != "cardinal":
-                continue
-            ext = self.w.measure(e.geom["text"], e.geom["size_pt"])
-            (cx, cy) = e.geom["at"]
-            if abs(y - cy) < half_h + ext.height_mm / 2 and \
-                    abs(x - cx) - half_w - ext.width_mm / 2 < CARDINAL_APART_MM:
-                return False
-        return True
+    def _apart_from_cardinals(self, cands, half_w: float, half_h: float) -> list:
+        """The candidates (x, y, ...) where an upright box of these half
+        sizes keeps :data:`CARDINAL_APART_MM` along its row from every
+        cardinal letter level with it (their heights overlapping)."""
+        letters = self.boxes.get("cardinal", [])
+        return [c for c in cands
+                if not any(abs(c[1] - t.center[1]) < half_h + t.half_h
+                           and abs(c[0] - t.center[0]) - half_w - t.half_w < CARDINAL_APART_MM for t in letters)]
 
     def curve_name(self, role: str, text: str, **match):
         """A curve's name set along it (the curve broken round it), clear
