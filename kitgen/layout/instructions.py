@@ -387,8 +387,52 @@ def clock_step(kit, number: int) -> list[Block]:
         text = w("almanac.clock_step" if _summer(kit) else "almanac.clock_step_standard", zone=zone_name(kit))
         if _on_back(kit, "clock_change"):
             text += " " + w("almanac.clock_bars")
-        return [Block("item", text, w.number(number) + ".")]
-    return [Block("item", w("almanac.clock_step_mean"), w.number(number) + "."), _zone_meridian(w)]
+        return [Block("item", text + _unnumbered_text(kit), w.number(number) + ".")]
+    return [Block("item", w("almanac.clock_step_mean") + _unnumbered_text(kit), w.number(number) + "."),
+            _zone_meridian(w)]
+
+
+def unnumbered_run(kit) -> tuple[int, int, int] | None:
+    """(minutes before, its minutes, minutes after) of a run of the back's
+    clock ring that carries no number, with the runs either side of it in
+    date order, or None where every run is numbered.  A run whose two
+    neighbours are numbered is taken first, the earliest in the year.
+
+    Between the clock changes the ring steps one minute from run to run:
+    each run is the days whose correction rounds to the same whole minute,
+    and the correction changes by less than a minute a day (the equation
+    of time by about half a minute a day at most, J. Meeus, Astronomical
+    Algorithms, 2nd ed., ch. 28), so a pupil counts on from the numbers
+    beside an unnumbered run (#12 review: in a fast season every second or
+    third run is numbered, kitgen.parts.clock_scale)."""
+    backs = kit.parts_of("mater_back")
+    if not backs:
+        return None
+    els = backs[0].elements
+    runs = [e.values for e in els if e.role == "clock_run"]
+    numbered = {(e.values["month"], e.values["day"]) for e in els if e.role == "clock_number"}
+    found = []
+    for k, run in enumerate(runs):
+        if (run["from_month"], run["from_day"]) in numbered or len(runs) < 3:
+            continue
+        before, after = runs[k - 1], runs[(k + 1) % len(runs)]
+        if abs(before["minutes"] - run["minutes"]) != 1 or abs(after["minutes"] - run["minutes"]) != 1:
+            continue   # (beside a clock change's bar, or at a turn of the correction)
+        both = all((r["from_month"], r["from_day"]) in numbered for r in (before, after))
+        found.append((not both, k, (before["minutes"], run["minutes"], after["minutes"])))
+    return min(found)[2] if found else None
+
+
+def _unnumbered_text(kit) -> str:
+    """The sentence on the ring's runs without a number (with a space
+    before it), from a run of the kit's own ring (:func:`unnumbered_run`),
+    or nothing where every run is numbered."""
+    got = unnumbered_run(kit)
+    if got is None:
+        return ""
+    w = kit.words
+    before, minutes, after = (signed(w, m) for m in got)
+    return " " + w("almanac.clock_unnumbered", before=before, between=minutes, after=after)
 
 
 def _zone_meridian(w) -> Block:
