@@ -100,6 +100,19 @@ CARDINAL_APART_MM = NAME_GAP_ALONG_MM
 #: rim at 0.4 deg N).  A choice; with no place so far off, the number
 #: stands nearer rather than not at all.
 STACK_APART_MM = 5.0
+#: Least gap (mm) between an azimuth's number on its line below (or just
+#: above) the horizon and an almucantar's or an unequal hour's number,
+#: where its line leaves such a place: the names' own gap side by side
+#: (#12 review: "105°" 1.1 mm over the hour "12" and "255°" over "1"
+#: beside the east and west points, read as one stack).  A multiple of 30
+#: degrees, owed its number, else stands as near as the lines allow; any
+#: other azimuth goes unnumbered (its neighbours' numbers name it).
+BELOW_APART_MM = NAME_GAP_ALONG_MM
+#: How much farther (mm) from its horizon point than its first free place
+#: an azimuth's number may go to keep that gap: farther along the line's
+#: undrawn continuation it reads as another line's (#12 review: "105°"
+#: 10 mm past its line's end, beside an hour line, on a 140 mm plate).
+APART_SLIDE_MM = 2.0
 #: A worked example's almucantar is numbered near the example's body
 #: where no number of it stands within this many of its radii (about a
 #: third of the circle's way round) from the body's place.
@@ -925,9 +938,12 @@ class PlateLabeller:
         the rim; clear of every other line.  It carries a degree sign
         ("90°"), which an almucantar's plain number never does, so the two
         cannot be taken for each other (the template's
-        ``plate.azimuth_number``).  Returns None where it has no room (an
-        azimuth of no multiple of 30 degrees may go unnumbered: the curve
-        is numbered on the plate wherever its neighbours are)."""
+        ``plate.azimuth_number``).  Places :data:`BELOW_APART_MM` from the
+        almucantars' and hours' numbers come first.  Returns None where it
+        has no room (an azimuth of no multiple of 30 degrees may go
+        unnumbered, and does where its only places stand nearer another
+        number than that: the curve is numbered on the plate wherever its
+        neighbours are)."""
         text, size = self.w("plate.azimuth_number", value=self.w.number(az)), self.d.small_text_pt
         A = math.radians(az)
         own = [e for e in self.role("azimuth") if abs(e.values["azimuth_deg"] - az) < 1e-9]
@@ -940,14 +956,17 @@ class PlateLabeller:
             near = np.all(np.isfinite(pts), axis=1) & (np.hypot(*(pts - p0).T) < SLIDE_MM + 1e-6)
             p0_xy = p0.tolist()
             cands = [(x, y, 0.0) for x, y in pts[near].tolist() if math.dist((x, y), p0_xy) < SLIDE_MM]
-            b = self.first_free(cands, text, size, protected)
-            if b is not None:
+            # below the horizon, else on its own line just above it (broken
+            # round it); an optional number only apart from the other numbers
+            owed = multiple_of(az, 30.0)
+            b, apart = self._first_free_apart(cands, text, size, protected, p0)
+            if b is not None and (apart or owed):
                 el = self.put("azimuth_label", b, text, size, azimuth_deg=float(az))
                 self.continued.append((el, b, p0, own))
                 return el
-            # on its own line just above the horizon (broken round it)
-            b = self.first_free([c for el in own for c in points_along(el, p0)], text, size, protected)
-            if b is not None:
+            b, apart = self._first_free_apart([c for el in own for c in points_along(el, p0)], text, size,
+                                              protected, p0)
+            if b is not None and (apart or owed):
                 return self.put("azimuth_label", b, text, size, azimuth_deg=float(az))
             if multiple_of(az, 30.0):
                 # Owed a number: beside its horizon point with a leader to it
@@ -973,16 +992,36 @@ class PlateLabeller:
             return self._led_number(rim_ends[0][1], text, size, az, own) or self.left_out(text)
         return self._azimuth_missing(az, text)
 
-    def _apart_from_numbers(self, x, y, half_w: float, half_h: float) -> list[bool]:
+    def _first_free_apart(self, cands, text: str, size_pt: float, protected, p0):
+        """(box, apart) of the first free of the upright places ``cands``
+        (x, y, angle) along a line from its point ``p0``: where it stands
+        nearer an almucantar's or an unequal hour's number than
+        :data:`BELOW_APART_MM`, the first free place apart from them at
+        most :data:`APART_SLIDE_MM` farther from ``p0``, else that first
+        place (``apart`` False); (None, False) where none is free."""
+        b = self.first_free(cands, text, size_pt, protected) if cands else None
+        if b is None:
+            return None, False
+        keep = self._apart_from_numbers([c[0] for c in cands], [c[1] for c in cands], b.half_w, b.half_h,
+                                        BELOW_APART_MM)
+        if self._apart_from_numbers([b.center[0]], [b.center[1]], b.half_w, b.half_h, BELOW_APART_MM)[0]:
+            return b, True
+        reach = math.dist(b.center, p0) + APART_SLIDE_MM
+        near = [c for c, k in zip(cands, keep) if k and math.dist(c[:2], p0) <= reach]
+        got = self.first_free(near, text, size_pt, protected) if near else None
+        return (got, True) if got is not None else (b, False)
+
+    def _apart_from_numbers(self, x, y, half_w: float, half_h: float,
+                            apart_mm: float = STACK_APART_MM) -> list[bool]:
         """Whether each upright box centred at (``x[i]``, ``y[i]``) (mm)
-        keeps :data:`STACK_APART_MM` from every almucantar's and unequal
-        hour's number set so far (their boxes taken upright), all at once."""
+        keeps ``apart_mm`` from every almucantar's and unequal hour's
+        number set so far (their boxes taken upright), all at once."""
         x, y = np.asarray(x, dtype=float), np.asarray(y, dtype=float)
         out = np.ones(len(x), dtype=bool)
         for t in self.boxes.get("almucantar_label", []) + self.boxes.get("unequal_hour_label", []):
             dx = np.maximum(np.abs(x - t.center[0]) - half_w - t.half_w, 0.0)
             dy = np.maximum(np.abs(y - t.center[1]) - half_h - t.half_h, 0.0)
-            out &= np.hypot(dx, dy) >= STACK_APART_MM
+            out &= np.hypot(dx, dy) >= apart_mm
         return out.tolist()
 
     def lead_the_hidden(self) -> None:
