@@ -47,6 +47,10 @@ KITS = [
     "latitude: -33.9\nsheet: a5\n",                          # Alnilam's leader had grazed "Sirius"
     "latitude: -23.5\nlanguage: pt\n",                        # Miaplacidus's had grazed "Acrux"
     "latitude: 30\nlanguage: en\nsheet: letter\n",             # Pollux had touched it
+    # a level leader within 0.3 mm of a name chosen after it (its box, with no height, had
+    # left the name untested): Alnilam's by "Sirius", Adhara's by Rigel's name
+    "latitude: -14.8\nlanguage: fr\ndiameter_mm: 150\n",
+    "latitude: -14.7\nlanguage: hi\nsheet: letter\n",
 ]
 
 

@@ -451,15 +451,18 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
         order, that meets no box of ``names`` (nor, with ``gap_mm``, comes
         within that of one, or within :data:`NAME_GAP_ALONG_MM` of one
         beside it), each block's places tested all at once;
-        ``by_leader`` when its box comes within the search's slack of a box
-        of ``spans`` (those of the leaders chosen): a leader whose box
-        stays farther cannot meet it."""
+        ``by_leader`` when its box comes within :data:`LEADER_WORD_GAP_MM`
+        and the search's slack of a box of ``spans`` (those of the leaders
+        chosen): a leader whose box stays farther cannot come that near it
+        (a level leader's box has no height: one 0.1 mm over a name had gone
+        untested, and ran over the tops of its letters)."""
         along_mm = None if gap_mm is None else max(gap_mm, NAME_GAP_ALONG_MM)
         for table, clear, array, memo in blocks:
             # (a box grown by the gap meets all that the box itself meets)
             grown = array if gap_mm is None else array + np.array([-along_mm, -gap_mm, along_mm, gap_mm])
             taken = meets_any(grown, names)
-            by_leader = meets_any(array + np.array([-slack, -slack, slack, slack]), spans)
+            reach = LEADER_WORD_GAP_MM + slack
+            by_leader = meets_any(array + np.array([-reach, -reach, reach, reach]), spans)
             for i, t, b in zip(clear, taken.tolist(), by_leader.tolist()):
                 if not t:
                     yield i, table, memo, b
