@@ -248,7 +248,9 @@ def _labels(ctx, phi, s, R, disc, strokes):
     lab.curve_name("tropic", w("plate.line_tropic_cancer"), declination_deg=math.degrees(eps))
     lab.curve_name("tropic", w("plate.line_tropic_capricorn"), declination_deg=-math.degrees(eps))
     for alt in ctx.plan.drawing.twilight_deg:
-        lab.curve_name("twilight", w("plate.line_twilight", altitude=true_minus(w.number(alt))), altitude_deg=alt)
+        value = true_minus(w.number(alt))
+        lab.curve_name("twilight", w("plate.line_twilight", altitude=value),
+                       w("plate.line_twilight_short", altitude=value), altitude_deg=alt)
     # The azimuths between the thirties, numbered where the names have left room (#12: on an A5 plate from
     # 34 S to 34 N the 15 and 345 deg numbers had taken the twilight line's only places, and it had no name)
     for az in [a for a in azimuths if not multiple_of(a, 30.0)]:

@@ -1144,10 +1144,13 @@ class PlateLabeller:
                 if not any(abs(c[1] - t.center[1]) < half_h + t.half_h
                            and abs(c[0] - t.center[0]) - half_w - t.half_w < CARDINAL_APART_MM for t in letters)]
 
-    def curve_name(self, role: str, text: str, **match):
+    def curve_name(self, role: str, text: str, short: str | None = None, **match):
         """A curve's name set along it (the curve broken round it), clear
         of every other line; where it cannot be, beside it, on either side
-        (the outer tropic is the drawing's edge)."""
+        (the outer tropic is the drawing's edge); where the name finds no
+        place, its ``short`` form so (a twilight line's altitude alone,
+        "−6°": #12 review, on an A5 plate with the three twilight lines
+        none of their names had room among the close arcs)."""
         els = [e for e in self.role(role) if all(abs(e.values[k] - v) < 1e-6 for k, v in match.items())]
         if not els:
             return None
@@ -1205,6 +1208,11 @@ class PlateLabeller:
                 break
         if best is not None:
             return self.put("curve_label", best[1], text, size, curve=role, **match)
+        if short is not None:
+            got = self.curve_name(role, short, **match)
+            if got is not None:
+                return got
+            self.missing.pop()   # (the short form's: the notes name the line by its name)
         return self.left_out(text)
 
 
