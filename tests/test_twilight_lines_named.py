@@ -23,6 +23,7 @@ from kitgen.kit import build_kit
 from kitgen.recipe.load import validate_recipe
 from kitgen.words.locale import true_minus
 from tests.geos_lines import text_polygon
+from tests.test_plate_readings import sky_vector
 
 TWILIGHTS = ["civil", "nautical", "astronomical"]
 RECIPES = [
@@ -62,3 +63,34 @@ def test_each_twilight_line_is_named_on_its_own_arc(recipe):
         middle = text_polygon(e.geom, w).centroid
         own = off_mm(middle, lines[alt])
         assert all(own < off_mm(middle, line) for a, line in lines.items() if a != alt), (e.geom["text"], own)
+
+
+def test_the_unequal_hours_are_numbered_between_their_lines():
+    """The three twilight circles run across the first and last hours'
+    bands, where their numbers' middle places have no room: each number
+    is now sought nearer one of its lines too (plate_labels.HOUR_SHARES),
+    and stands between its own lines (Meeus, Astronomical Algorithms,
+    eq. 15.1 and the unequal hours' definition: hour k lies between k - 1
+    and k twelfths of the night arc of its declination; the plate's point
+    read back by Snyder's inverse projection, tests.test_plate_readings).
+    A number with no place at all is left out and named in the plate's
+    notes.  Measured on these six kits: 14 hour numbers left out before
+    (1, 2, 11 and 12 on the German plate), 1 after (12 on the Spanish)."""
+    left_out = 0
+    for recipe in RECIPES:
+        kit = build_kit(validate_recipe(dict(recipe, twilight=TWILIGHTS, epoch=2027)))
+        plate = kit.parts_of("plate")[0]
+        lat = recipe["latitude"]
+        phi, R = math.radians(lat), kit.dims.equator_radius_mm
+        hours = [e for e in plate.elements if e.role == "unequal_hour_label"]
+        missing = set(range(1, 13)) - {e.values["hour"] for e in hours}
+        assert {kit.words.number(k) for k in missing} <= set(plate.values.get("labels_left_out", ()))
+        left_out += len(missing)
+        for e in hours:
+            v = sky_vector(e.geom["at"], lat, R)
+            dec = math.asin(v[2])
+            ha = math.atan2(v[0], v[1]) % (2 * math.pi)
+            h0 = math.acos(-math.tan(phi) * math.tan(dec))
+            share = (ha - h0) / (2 * math.pi - 2 * h0) * 12
+            assert e.values["hour"] - 1 < share < e.values["hour"], (recipe, e.values["hour"], share)
+    assert left_out <= 1

@@ -66,6 +66,12 @@ ROUND_STEP_MM = 0.5
 NEAR_MM = 2.5
 #: How far (mm, along its curve) a number may slide from where it belongs.
 SLIDE_MM = 12.0
+#: Where across its band (as shares of the hour, from line k - 1) an
+#: unequal hour's number is sought: the middle first, at every declination
+#: between the tropics; then nearer one of its lines, where lines running
+#: across the band (three twilight circles on an A5 plate) leave the
+#: middle no room (#12 review: the hours 1, 2, 11 and 12 had no number).
+HOUR_SHARES = (0.5, 0.42, 0.58, 0.34, 0.66, 0.26, 0.74, 0.18, 0.82, 0.1, 0.9)
 #: How far (mm) along its own line from its horizon point the leader of an
 #: azimuth's number with no room on its line may meet the line instead.
 LED_ALONG_MM = 4.0
@@ -105,8 +111,9 @@ STACK_APART_MM = 5.0
 #: where its line leaves such a place: the names' own gap side by side
 #: (#12 review: "105°" 1.1 mm over the hour "12" and "255°" over "1"
 #: beside the east and west points, read as one stack).  A multiple of 30
-#: degrees, owed its number, else stands as near as the lines allow; any
-#: other azimuth goes unnumbered (its neighbours' numbers name it).
+#: degrees, owed its number, keeps its first free place, as near its
+#: point as it can stand; any other azimuth goes unnumbered where it finds
+#: no such place (its neighbours' numbers name it).
 BELOW_APART_MM = NAME_GAP_ALONG_MM
 #: How much farther (mm) from its horizon point than its first free place
 #: an azimuth's number may go to keep that gap: farther along the line's
@@ -958,14 +965,15 @@ class PlateLabeller:
             cands = [(x, y, 0.0) for x, y in pts[near].tolist() if math.dist((x, y), p0_xy) < SLIDE_MM]
             # below the horizon, else on its own line just above it (broken
             # round it); an optional number only apart from the other numbers
+            # (a number owed takes its first free place, as near its point as it can stand)
             owed = multiple_of(az, 30.0)
-            b, apart = self._first_free_apart(cands, text, size, protected, p0)
+            b, apart = self._first_free_apart(cands, text, size, protected, p0, not owed)
             if b is not None and (apart or owed):
                 el = self.put("azimuth_label", b, text, size, azimuth_deg=float(az))
                 self.continued.append((el, b, p0, own))
                 return el
             b, apart = self._first_free_apart([c for el in own for c in points_along(el, p0)], text, size,
-                                              protected, p0)
+                                              protected, p0, not owed)
             if b is not None and (apart or owed):
                 return self.put("azimuth_label", b, text, size, azimuth_deg=float(az))
             if multiple_of(az, 30.0):
@@ -992,16 +1000,20 @@ class PlateLabeller:
             return self._led_number(rim_ends[0][1], text, size, az, own) or self.left_out(text)
         return self._azimuth_missing(az, text)
 
-    def _first_free_apart(self, cands, text: str, size_pt: float, protected, p0):
+    def _first_free_apart(self, cands, text: str, size_pt: float, protected, p0, seek: bool = True):
         """(box, apart) of the first free of the upright places ``cands``
         (x, y, angle) along a line from its point ``p0``: where it stands
         nearer an almucantar's or an unequal hour's number than
-        :data:`BELOW_APART_MM`, the first free place apart from them at
-        most :data:`APART_SLIDE_MM` farther from ``p0``, else that first
-        place (``apart`` False); (None, False) where none is free."""
+        :data:`BELOW_APART_MM`, with ``seek`` the first free place apart
+        from them at most :data:`APART_SLIDE_MM` farther from ``p0``, else
+        that first place (``apart`` False); (None, False) where none is
+        free."""
         b = self.first_free(cands, text, size_pt, protected) if cands else None
         if b is None:
             return None, False
+        if not seek:
+            return b, self._apart_from_numbers([b.center[0]], [b.center[1]], b.half_w, b.half_h,
+                                               BELOW_APART_MM)[0]
         keep = self._apart_from_numbers([c[0] for c in cands], [c[1] for c in cands], b.half_w, b.half_h,
                                         BELOW_APART_MM)
         if self._apart_from_numbers([b.center[0]], [b.center[1]], b.half_w, b.half_h, BELOW_APART_MM)[0]:
@@ -1122,17 +1134,18 @@ class PlateLabeller:
         if ok.sum() < 2:
             return None
         decs, h0 = decs[ok], np.arccos(x[ok])
-        ha = h0 + (k - 0.5) * (2 * np.pi - 2 * h0) / 12.0
-        pts = project_vectors(equatorial_vector(ha, decs), s, R)
         want = -s * eps / 2
         order = np.argsort(np.abs(decs - want))
-        finite, rows = np.all(np.isfinite(pts), axis=1).tolist(), pts.tolist()   # read as arrays once (#12)
-        cands = [(rows[i][0], rows[i][1], 0.0) for i in order.tolist() if finite[i]]
         ext = self.w.measure(text, size)
-        cands = self._apart_from_cardinals(cands, ext.width_mm / 2, ext.height_mm / 2)
-        b = self.first_free(cands, text, size, self.others())
-        if b is not None:
-            return self.put("unequal_hour_label", b, text, size, hour=k)
+        for share in HOUR_SHARES:
+            ha = h0 + (k - 1.0 + share) * (2 * np.pi - 2 * h0) / 12.0
+            pts = project_vectors(equatorial_vector(ha, decs), s, R)
+            finite, rows = np.all(np.isfinite(pts), axis=1).tolist(), pts.tolist()   # read as arrays once (#12)
+            cands = [(rows[i][0], rows[i][1], 0.0) for i in order.tolist() if finite[i]]
+            cands = self._apart_from_cardinals(cands, ext.width_mm / 2, ext.height_mm / 2)
+            b = self.first_free(cands, text, size, self.others())
+            if b is not None:
+                return self.put("unequal_hour_label", b, text, size, hour=k)
         return self.left_out(text)
 
     def _apart_from_cardinals(self, cands, half_w: float, half_h: float) -> list:
