@@ -1157,13 +1157,15 @@ class PlateLabeller:
                 if not any(abs(c[1] - t.center[1]) < half_h + t.half_h
                            and abs(c[0] - t.center[0]) - half_w - t.half_w < CARDINAL_APART_MM for t in letters)]
 
-    def curve_name(self, role: str, text: str, short: str | None = None, **match):
+    def curve_name(self, role: str, text: str, short: str | None = None, apart: bool = False, **match):
         """A curve's name set along it (the curve broken round it), clear
         of every other line; where it cannot be, beside it, on either side
         (the outer tropic is the drawing's edge); where the name finds no
         place, its ``short`` form so (a twilight line's altitude alone,
         "−6°": #12 review, on an A5 plate with the three twilight lines
-        none of their names had room among the close arcs)."""
+        none of their names had room among the close arcs), first where it
+        keeps :data:`BELOW_APART_MM` from the numbers (``apart``: a bare
+        "−6°" 1 mm over "330°" read as one stack)."""
         els = [e for e in self.role(role) if all(abs(e.values[k] - v) < 1e-6 for k, v in match.items())]
         if not els:
             return None
@@ -1212,6 +1214,8 @@ class PlateLabeller:
                         angles += turns
                 places = Places(centers, angles, ext.width_mm / 2, ext.height_mm / 2)
                 can = places.inside(room)
+                if apart:
+                    can &= self._apart_turned(places, BELOW_APART_MM)
                 for run in _runs(len(places), 32, 512):
                     idx = run[can[run]]
                     b, best = self._name_place(places, idx, (near, protected, named, thin), best, named_clear)
@@ -1222,11 +1226,26 @@ class PlateLabeller:
         if best is not None:
             return self.put("curve_label", best[1], text, size, curve=role, **match)
         if short is not None:
-            got = self.curve_name(role, short, **match)
+            got = self.curve_name(role, short, apart=True, **match) or self.curve_name(role, short, **match)
+            self.missing = [m for m in self.missing if m[0] != short]   # (the notes name the line by its name)
             if got is not None:
                 return got
-            self.missing.pop()   # (the short form's: the notes name the line by its name)
         return self.left_out(text)
+
+    def _apart_turned(self, places: "Places", apart_mm: float) -> np.ndarray:
+        """Whether each box of ``places`` (turned: its upright bounds)
+        keeps ``apart_mm`` from every number set so far (almucantars',
+        unequal hours' and azimuths', their boxes taken upright)."""
+        c, sn = np.abs(places.cos), np.abs(places.sin)
+        hw = c * places.half_w + sn * places.half_h
+        hh = sn * places.half_w + c * places.half_h
+        out = np.ones(len(places), dtype=bool)
+        for role in ("almucantar_label", "unequal_hour_label", "azimuth_label"):
+            for t in self.boxes.get(role, []):
+                dx = np.maximum(np.abs(places.x - t.center[0]) - hw - t.half_w, 0.0)
+                dy = np.maximum(np.abs(places.y - t.center[1]) - hh - t.half_h, 0.0)
+                out &= np.hypot(dx, dy) >= apart_mm
+        return out
 
 
     def _name_place(self, places: Places, idx, lines, best, named_clear: float = CLEAR_MM):
