@@ -432,7 +432,9 @@ def _unnumbered_text(kit) -> str:
         return ""
     w = kit.words
     before, minutes, after = (signed(w, m) for m in got)
-    return " " + w("almanac.clock_unnumbered", before=before, between=minutes, after=after)
+    # (across a clock change's bar the step is the change: the sentence says so where the ring has one)
+    key = "almanac.clock_unnumbered_bars" if _on_back(kit, "clock_change") else "almanac.clock_unnumbered"
+    return " " + w(key, before=before, between=minutes, after=after)
 
 
 def _zone_meridian(w) -> Block:
