@@ -115,6 +115,10 @@ STACK_APART_MM = 5.0
 #: point as it can stand; any other azimuth goes unnumbered where it finds
 #: no such place (its neighbours' numbers name it).
 BELOW_APART_MM = NAME_GAP_ALONG_MM
+#: ... and (mm) right over or under one, their widths overlapping, where
+#: two numbers 2 mm apart still read as one label (#12 review: "105°"
+#: 2.1 mm over "12" at 51.5 N).
+STACKED_APART_MM = 3.0
 #: How much farther (mm) from its horizon point than its first free place
 #: an azimuth's number may go to keep that gap: farther along the line's
 #: undrawn continuation it reads as another line's (#12 review: "105°"
@@ -1013,10 +1017,11 @@ class PlateLabeller:
             return None, False
         if not seek:
             return b, self._apart_from_numbers([b.center[0]], [b.center[1]], b.half_w, b.half_h,
-                                               BELOW_APART_MM)[0]
+                                               BELOW_APART_MM, STACKED_APART_MM)[0]
         keep = self._apart_from_numbers([c[0] for c in cands], [c[1] for c in cands], b.half_w, b.half_h,
-                                        BELOW_APART_MM)
-        if self._apart_from_numbers([b.center[0]], [b.center[1]], b.half_w, b.half_h, BELOW_APART_MM)[0]:
+                                        BELOW_APART_MM, STACKED_APART_MM)
+        if self._apart_from_numbers([b.center[0]], [b.center[1]], b.half_w, b.half_h, BELOW_APART_MM,
+                                    STACKED_APART_MM)[0]:
             return b, True
         reach = math.dist(b.center, p0) + APART_SLIDE_MM
         near = [c for c, k in zip(cands, keep) if k and math.dist(c[:2], p0) <= reach]
@@ -1024,16 +1029,18 @@ class PlateLabeller:
         return (got, True) if got is not None else (b, False)
 
     def _apart_from_numbers(self, x, y, half_w: float, half_h: float,
-                            apart_mm: float = STACK_APART_MM) -> list[bool]:
+                            apart_mm: float = STACK_APART_MM, over_mm: float = 0.0) -> list[bool]:
         """Whether each upright box centred at (``x[i]``, ``y[i]``) (mm)
         keeps ``apart_mm`` from every almucantar's and unequal hour's
-        number set so far (their boxes taken upright), all at once."""
+        number set so far (their boxes taken upright), and ``over_mm``
+        where it stands right over or under one (their widths
+        overlapping), all at once."""
         x, y = np.asarray(x, dtype=float), np.asarray(y, dtype=float)
         out = np.ones(len(x), dtype=bool)
         for t in self.boxes.get("almucantar_label", []) + self.boxes.get("unequal_hour_label", []):
             dx = np.maximum(np.abs(x - t.center[0]) - half_w - t.half_w, 0.0)
             dy = np.maximum(np.abs(y - t.center[1]) - half_h - t.half_h, 0.0)
-            out &= np.hypot(dx, dy) >= apart_mm
+            out &= (np.hypot(dx, dy) >= apart_mm) & ((dx > 0.0) | (dy >= over_mm))
         return out.tolist()
 
     def lead_the_hidden(self) -> None:
