@@ -277,16 +277,24 @@ def test_unequal_hours_numbered_between_their_lines(lat):
     # declination where its number stands.
     kit = kit_of(latitude=lat)
     part = plates(kit)[0]
-    phi, R = math.radians(lat), kit.dims.equator_radius_mm
+    R = kit.dims.equator_radius_mm
     hours = part.with_role("unequal_hour_label")
     assert sorted(e.values["hour"] for e in hours) == list(range(1, 13))
     for e in hours:
-        v = sky_vector(e.geom["at"], lat, R)
-        dec = math.asin(v[2])
-        ha = math.atan2(v[0], v[1]) % (2 * math.pi)
-        h0 = math.acos(-math.tan(phi) * math.tan(dec))
-        share = (ha - h0) / (2 * math.pi - 2 * h0) * 12
+        share = hour_share(e.geom["at"], lat, R)
         assert e.values["hour"] - 1 < share < e.values["hour"], (lat, e.values["hour"], share)
+
+
+def hour_share(xy, lat: float, R: float) -> float:
+    """How many twelfths of the night arc of its declination a point of
+    the plate lies past the western horizon (Meeus eq. 15.1: hour k lies
+    between k - 1 and k), the point read back by :func:`sky_vector`."""
+    phi = math.radians(lat)
+    v = sky_vector(xy, lat, R)
+    dec = math.asin(v[2])
+    ha = math.atan2(v[0], v[1]) % (2 * math.pi)
+    h0 = math.acos(-math.tan(phi) * math.tan(dec))
+    return (ha - h0) / (2 * math.pi - 2 * h0) * 12
 
 
 @pytest.mark.parametrize("lat", [52.2, -33.9, 0.5, 23.44, -64.0, 75.0, 10.0, -6.2])

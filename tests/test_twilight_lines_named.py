@@ -23,7 +23,7 @@ from kitgen.kit import build_kit
 from kitgen.recipe.load import validate_recipe
 from kitgen.words.locale import true_minus
 from tests.geos_lines import text_polygon
-from tests.test_plate_readings import sky_vector
+from tests.test_plate_readings import hour_share
 
 TWILIGHTS = ["civil", "nautical", "astronomical"]
 RECIPES = [
@@ -87,16 +87,12 @@ def test_the_unequal_hours_are_numbered_between_their_lines():
         kit = build_kit(validate_recipe(dict(recipe, twilight=TWILIGHTS, epoch=2027)))
         plate = kit.parts_of("plate")[0]
         lat = recipe["latitude"]
-        phi, R = math.radians(lat), kit.dims.equator_radius_mm
+        R = kit.dims.equator_radius_mm
         hours = [e for e in plate.elements if e.role == "unequal_hour_label"]
         missing = set(range(1, 13)) - {e.values["hour"] for e in hours}
         assert {kit.words.number(k) for k in missing} <= set(plate.values.get("labels_left_out", ()))
         left_out += len(missing)
         for e in hours:
-            v = sky_vector(e.geom["at"], lat, R)
-            dec = math.asin(v[2])
-            ha = math.atan2(v[0], v[1]) % (2 * math.pi)
-            h0 = math.acos(-math.tan(phi) * math.tan(dec))
-            share = (ha - h0) / (2 * math.pi - 2 * h0) * 12
+            share = hour_share(e.geom["at"], lat, R)
             assert e.values["hour"] - 1 < share < e.values["hour"], (recipe, e.values["hour"], share)
     assert left_out <= 1
