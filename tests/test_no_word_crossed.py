@@ -215,6 +215,8 @@ FIXED = [
     "latitude: 20\nlanguage: el\nsheet: a5\ndiameter_mm: 82\n",
     # a tiled mater whose back's seam runs across the owner's line (an invented name)
     "latitude: 15.2\nlanguage: de\nsheet: legal\ndiameter_mm: 283.2\nowner: Zofia Wrenhaven-Castellanos\n",
+    # a tiled rete where a level leader (Castor's) had run over the tops of a name chosen after it
+    "latitude: 0\nsheet: a5\nlanguage: en\ndiameter_mm: 200\nepoch: 2026\n",
 ]
 
 
