@@ -410,10 +410,12 @@ def unnumbered_run(kit) -> tuple[int, int, int] | None:
         return None
     els = backs[0].elements
     runs = [e.values for e in els if e.role == "clock_run"]
+    if len(runs) < 3:
+        return None
     numbered = {(e.values["month"], e.values["day"]) for e in els if e.role == "clock_number"}
     found = []
     for k, run in enumerate(runs):
-        if (run["from_month"], run["from_day"]) in numbered or len(runs) < 3:
+        if (run["from_month"], run["from_day"]) in numbered:
             continue
         before, after = runs[k - 1], runs[(k + 1) % len(runs)]
         if abs(before["minutes"] - run["minutes"]) != 1 or abs(after["minutes"] - run["minutes"]) != 1:

@@ -1006,42 +1006,41 @@ class PlateLabeller:
 
     def _first_free_apart(self, cands, text: str, size_pt: float, protected, p0, seek: bool = True):
         """(box, apart) of the first free of the upright places ``cands``
-        (x, y, angle) along a line from its point ``p0``: where it stands
-        nearer an almucantar's or an unequal hour's number than
-        :data:`BELOW_APART_MM`, with ``seek`` the first free place apart
-        from them at most :data:`APART_SLIDE_MM` farther from ``p0``, else
-        that first place (``apart`` False); (None, False) where none is
-        free."""
-        b = self.first_free(cands, text, size_pt, protected) if cands else None
+        (x, y, angle) along a line from its point ``p0``, ``apart`` where
+        it keeps :data:`BELOW_APART_MM` (:data:`STACKED_APART_MM` right
+        over or under) from the almucantars' and unequal hours' numbers;
+        where it does not, with ``seek`` the first free place that does at
+        most :data:`APART_SLIDE_MM` farther from ``p0``, else that first
+        place (``apart`` False); (None, False) where none is free."""
+        unfree: set = set()   # (the places found not free, not tested again)
+        b = self.first_free(cands, text, size_pt, protected, unfree=unfree) if cands else None
         if b is None:
             return None, False
-        if not seek:
-            return b, self._apart_from_numbers([b.center[0]], [b.center[1]], b.half_w, b.half_h,
-                                               BELOW_APART_MM, STACKED_APART_MM)[0]
+        apart = bool(self._apart_from_numbers([b.center[0]], [b.center[1]], b.half_w, b.half_h, BELOW_APART_MM,
+                                              STACKED_APART_MM)[0])
+        if apart or not seek:
+            return b, apart
         keep = self._apart_from_numbers([c[0] for c in cands], [c[1] for c in cands], b.half_w, b.half_h,
                                         BELOW_APART_MM, STACKED_APART_MM)
-        if self._apart_from_numbers([b.center[0]], [b.center[1]], b.half_w, b.half_h, BELOW_APART_MM,
-                                    STACKED_APART_MM)[0]:
-            return b, True
         reach = math.dist(b.center, p0) + APART_SLIDE_MM
         near = [c for c, k in zip(cands, keep) if k and math.dist(c[:2], p0) <= reach]
-        got = self.first_free(near, text, size_pt, protected) if near else None
+        got = self.first_free(near, text, size_pt, protected, unfree=unfree) if near else None
         return (got, True) if got is not None else (b, False)
 
-    def _apart_from_numbers(self, x, y, half_w: float, half_h: float,
-                            apart_mm: float = STACK_APART_MM, over_mm: float = 0.0) -> list[bool]:
-        """Whether each upright box centred at (``x[i]``, ``y[i]``) (mm)
-        keeps ``apart_mm`` from every almucantar's and unequal hour's
-        number set so far (their boxes taken upright), and ``over_mm``
-        where it stands right over or under one (their widths
-        overlapping), all at once."""
+    def _apart_from_numbers(self, x, y, half_w, half_h, apart_mm: float = STACK_APART_MM, over_mm: float = 0.0,
+                            roles=("almucantar_label", "unequal_hour_label")) -> np.ndarray:
+        """Whether each upright box centred at (``x[i]``, ``y[i]``) with
+        half sizes ``half_w`` and ``half_h`` (mm; numbers, or arrays along
+        ``x``) keeps ``apart_mm`` from every number of ``roles`` set so far
+        (their boxes taken upright), and ``over_mm`` where it stands right
+        over or under one (their widths overlapping), all at once."""
         x, y = np.asarray(x, dtype=float), np.asarray(y, dtype=float)
         out = np.ones(len(x), dtype=bool)
-        for t in self.boxes.get("almucantar_label", []) + self.boxes.get("unequal_hour_label", []):
+        for t in (t for role in roles for t in self.boxes.get(role, [])):
             dx = np.maximum(np.abs(x - t.center[0]) - half_w - t.half_w, 0.0)
             dy = np.maximum(np.abs(y - t.center[1]) - half_h - t.half_h, 0.0)
             out &= (np.hypot(dx, dy) >= apart_mm) & ((dx > 0.0) | (dy >= over_mm))
-        return out.tolist()
+        return out
 
     def lead_the_hidden(self) -> None:
         """Each number owed (a multiple of 30 degrees) that stands on its
@@ -1242,17 +1241,11 @@ class PlateLabeller:
     def _apart_turned(self, places: "Places", apart_mm: float) -> np.ndarray:
         """Whether each box of ``places`` (turned: its upright bounds)
         keeps ``apart_mm`` from every number set so far (almucantars',
-        unequal hours' and azimuths', their boxes taken upright)."""
+        unequal hours' and azimuths': :meth:`_apart_from_numbers`)."""
         c, sn = np.abs(places.cos), np.abs(places.sin)
-        hw = c * places.half_w + sn * places.half_h
-        hh = sn * places.half_w + c * places.half_h
-        out = np.ones(len(places), dtype=bool)
-        for role in ("almucantar_label", "unequal_hour_label", "azimuth_label"):
-            for t in self.boxes.get(role, []):
-                dx = np.maximum(np.abs(places.x - t.center[0]) - hw - t.half_w, 0.0)
-                dy = np.maximum(np.abs(places.y - t.center[1]) - hh - t.half_h, 0.0)
-                out &= np.hypot(dx, dy) >= apart_mm
-        return out
+        return self._apart_from_numbers(places.x, places.y, c * places.half_w + sn * places.half_h,
+                                        sn * places.half_w + c * places.half_h, apart_mm,
+                                        roles=("almucantar_label", "unequal_hour_label", "azimuth_label"))
 
 
     def _name_place(self, places: Places, idx, lines, best, named_clear: float = CLEAR_MM):
