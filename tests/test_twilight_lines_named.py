@@ -66,12 +66,14 @@ def test_each_twilight_line_is_named_on_its_own_arc(recipe):
             # ink, where it had stood 1 mm over "330°" and read as one stack with it
             ink = text_polygon(e.geom, w)
             assert all(ink.distance(text_polygon(n.geom, w)) >= 2.0 - 0.05 for n in numbers), e.geom["text"]
-            # set on its own line (not beside it): the line broken a dash's length (1 mm) farther at
-            # each end, so that the minus sign does not read as one more dash of it ("−6°" as "6°")
-            if off_mm(ink.centroid, lines[alt]) < 0.1:
-                pieces = [stroke_line(x) for x in plate.elements
-                          if x.role == "twilight" and x.values["altitude_deg"] == alt]
-                assert min(ink.distance(piece) for piece in pieces) >= 1.2, e.geom["text"]
+        # set on its own line (not beside it): the line broken a dash's length (1 mm) farther at each
+        # end, so that a minus sign at the name's end (a bare "−6°", or an Arabic name's left end) does
+        # not read as one more dash of it ("−6°" as "6°")
+        ink = text_polygon(e.geom, w)
+        if off_mm(ink.centroid, lines[alt]) < 0.1:
+            pieces = [stroke_line(x) for x in plate.elements
+                      if x.role == "twilight" and x.values["altitude_deg"] == alt]
+            assert min(ink.distance(piece) for piece in pieces) >= 1.2, e.geom["text"]
         middle = text_polygon(e.geom, w).centroid
         own = off_mm(middle, lines[alt])
         assert all(own < off_mm(middle, line) for a, line in lines.items() if a != alt), (e.geom["text"], own)

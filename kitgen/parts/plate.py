@@ -74,7 +74,7 @@ def plate(ctx: PartContext) -> model.Part:
     boxes = [breaks.text_box(e, ctx.words) for e in words if e.shape == "text"]
     width_of = lambda stroke: stroke_width_mm(stroke, d)   # noqa: E731
     els = breaks.break_around(els, boxes, labels.MARGIN_MM, width_of)
-    els = _bare_altitudes_set_off(ctx, els, words, width_of)
+    els = _twilight_names_set_off(ctx, els, words, width_of)
     els += words
     els.append(model.point("pin", (0.0, 0.0), hole="centre"))
     r = d.plate_radius_mm + d.tick_mm * 4
@@ -93,9 +93,9 @@ def plate(ctx: PartContext) -> model.Part:
 #: opening to 2.2 mm at the rim at 1.3 degrees S, which a review read as
 #: the horizon drawn twice.
 EAST_WEST_APART_MM = 3.0
-#: Paper (mm) added along its line at each end of a twilight line's bare
-#: altitude, beyond the labels' margin, where the line is broken round it:
-#: about a dash's length, so that the gap reads as a gap.
+#: Paper (mm) added along its line at each end of a twilight line's name
+#: (its altitude at one end), beyond the labels' margin, where the line is
+#: broken round it: about a dash's length, so that the gap reads as a gap.
 BARE_ALTITUDE_GAP_MM = 1.0
 
 
@@ -267,20 +267,19 @@ def _labels(ctx, phi, s, R, disc, strokes):
     return first + lab.out, lab.missing
 
 
-def _bare_altitudes_set_off(ctx, els, words, width_of):
-    """A twilight line named by its altitude alone ("−6°", where its name
-    had no room) broken :data:`BARE_ALTITUDE_GAP_MM` farther along it at
-    each end of the number, so that the number's minus sign does not read
-    as one more dash of the line (#12 review: "−6°" read as "6°").  Only
-    the line's own pieces are cut again; nothing else moves."""
-    w = ctx.words
+def _twilight_names_set_off(ctx, els, words, width_of):
+    """A twilight line broken :data:`BARE_ALTITUDE_GAP_MM` farther along
+    it at each end of its name, so that the minus sign of the altitude at
+    a name's end ("−6°" alone, or a right-to-left name such as Arabic's,
+    whose number stands at its left end) does not read as one more dash
+    of the line (#12 review: "−6°" read as "6°").  Only the line's own
+    pieces are cut again, and only where the name stands on it (beside
+    it, the widened box does not reach the line); nothing else moves."""
     for e in words:
         if e.role != "curve_label" or e.values.get("curve") != "twilight":
             continue
         alt = e.values["altitude_deg"]
-        if e.geom["text"] != w("plate.line_twilight_short", altitude=true_minus(w.number(alt))):
-            continue
-        b = breaks.text_box(e, w)
+        b = breaks.text_box(e, ctx.words)
         wide = breaks.Box(b.center, b.angle_rad, b.half_w + BARE_ALTITUDE_GAP_MM, b.half_h)
         els = [piece for x in els
                for piece in (breaks.break_around([x], [wide], labels.MARGIN_MM, width_of)
