@@ -7,7 +7,8 @@ the drawing is numbered where it meets the east-west line, else at its
 ends on the rim.  Multiples of 5 degrees are numbered on the meridian too
 where their neighbours leave room.  Azimuths are numbered just below the
 horizon on their own line continued (at the rim where the horizon point is
-outside the drawing), with a degree sign that the almucantars' plain
+outside the drawing, or just beyond it, between the rim and the plate's
+cut, where the line has no room), with a degree sign that the almucantars' plain
 numbers lack, so that 30° (an azimuth) never reads as 30 (an altitude);
 the cardinal letters stand beside the horizon's points, clear of the pin,
 the meridian, the east-west line, the equator and the horizon; unequal
@@ -72,6 +73,10 @@ SLIDE_MM = 12.0
 #: across the band (three twilight circles on an A5 plate) leave the
 #: middle no room (#12 review: the hours 1, 2, 11 and 12 had no number).
 HOUR_SHARES = (0.5, 0.42, 0.58, 0.34, 0.66, 0.26, 0.74, 0.18, 0.82, 0.1, 0.9)
+#: Where (mm along the ring, from right beyond its line's end) an azimuth's
+#: number set between the rim and the plate's edge is sought, nearest
+#: first (:meth:`PlateLabeller._beyond_rim`).
+RIM_SLIDES_MM = (0.0, 0.5, -0.5, 1.0, -1.0)
 #: How far (mm) along its own line from its horizon point the leader of an
 #: azimuth's number with no room on its line may meet the line instead.
 LED_ALONG_MM = 4.0
@@ -946,7 +951,8 @@ class PlateLabeller:
         """An azimuth's number on its line continued below the horizon (on
         the line itself just above the horizon where a tropic runs there),
         or, where the horizon's point is outside the drawing, at its end on
-        the rim; clear of every other line.  It carries a degree sign
+        the rim, else just beyond that end (:meth:`_beyond_rim`); clear of
+        every other line.  It carries a degree sign
         ("90°"), which an almucantar's plain number never does, so the two
         cannot be taken for each other (the template's
         ``plate.azimuth_number``).  Places :data:`BELOW_APART_MM` from the
@@ -980,13 +986,17 @@ class PlateLabeller:
                                               protected, p0, not owed)
             if b is not None and (apart or owed):
                 return self.put("azimuth_label", b, text, size, azimuth_deg=float(az))
-            if multiple_of(az, 30.0):
-                # Owed a number: beside its horizon point with a leader to it
-                # (near the equator the azimuths meet the horizon close
-                # together among the tropics, and on an A5 plate among the
-                # almucantars, where no number fits on a line).
-                return self._led_number(p0, text, size, az, own) or self.left_out(text)
-            return None
+            # Owed a number: beside its horizon point with a leader to it
+            # (near the equator the azimuths meet the horizon close
+            # together among the tropics, and on an A5 plate among the
+            # almucantars, where no number fits on a line); else, owed or
+            # not, beyond the rim where its line continued meets it.
+            el = self._led_number(p0, text, size, az, own) if owed else None
+            if el is None:
+                b = self._beyond_rim_continued(pts, p0, text, size, own, not owed)
+                if b is not None:
+                    el = self.put("azimuth_label", b, text, size, azimuth_deg=float(az))
+            return el if el is not None or not owed else self.left_out(text)
         rim_ends = [(el, end) for el in own for end in _ends(el)
                     if abs(math.hypot(*end) - (self.room.disc + MARGIN_MM)) < 1e-3]
         ext = self.w.measure(text, size)
@@ -1000,9 +1010,83 @@ class PlateLabeller:
                 b = self.first_free(cands, text, size, protected)
                 if b is not None:
                     return self.put("azimuth_label", b, text, size, azimuth_deg=float(az))
+        for el, end in rim_ends:   # else just beyond its end, between the rim and the plate's edge
+            b = self._beyond_rim(end, ext, not multiple_of(az, 30.0))
+            if b is not None:
+                return self.put("azimuth_label", b, text, size, azimuth_deg=float(az))
         if rim_ends and multiple_of(az, 30.0):   # owed a number: beside its end, with a leader
             return self._led_number(rim_ends[0][1], text, size, az, own) or self.left_out(text)
         return self._azimuth_missing(az, text)
+
+    def _beyond_rim(self, end, ext, apart: bool) -> Box | None:
+        """A box for a number of extent ``ext`` in the ring between the
+        drawing's rim and the plate's cut, just beyond the point ``end``
+        where a line meets the rim: set along the rim (its foot towards the
+        centre, turned to read upright), :data:`MARGIN_MM` clear of both
+        circles and of every other line, free of the labels, and slid
+        along the ring (:data:`RIM_SLIDES_MM`) where the place right
+        beyond the end is taken.  With ``apart`` (a number between the
+        thirties) only a place :data:`BELOW_APART_MM` from the other
+        numbers (:meth:`_apart_from_numbers`, by the turned box's upright
+        bounds).  None where the ring is too narrow or no place is free.
+        (#12 review: on an A5 plate at 45 deg N the azimuths 120 to 240
+        deg end on the rim among the almucantars' numbers, where no
+        number fits on a line.)  Lengths in mm, angles in radians."""
+        d = self.d
+        rim_mm = self.room.disc + MARGIN_MM
+        inner = rim_mm + self._rim_half_width(rim_mm) + MARGIN_MM + 1e-3
+        outer = d.plate_radius_mm - stroke_width_mm("cut", d) / 2 - MARGIN_MM
+        hw, hh = ext.width_mm / 2, ext.height_mm / 2
+        rc = inner + hh
+        if math.hypot(rc + hh, hw) > outer:
+            return None
+        t0 = math.atan2(end[1], end[0])
+        for along in RIM_SLIDES_MM:
+            t = t0 + along / rc
+            turn = t - math.pi / 2
+            if turn <= -math.pi / 2:   # the lower half: turned half round to read upright
+                turn += math.pi
+            b = Box((rc * math.cos(t), rc * math.sin(t)), turn, hw, hh)
+            if apart:
+                c, s = abs(b.cos), abs(b.sin)
+                if not self._apart_from_numbers([b.center[0]], [b.center[1]], c * hw + s * hh, s * hw + c * hh,
+                                                BELOW_APART_MM, STACKED_APART_MM)[0]:
+                    continue
+            if self.room.clear_of_labels(b) and self.room.clear_of(b, self.strokes):
+                return b
+        return None
+
+    def _beyond_rim_continued(self, pts, p0, text: str, size_pt: float, own, apart: bool) -> Box | None:
+        """:meth:`_beyond_rim` where an azimuth's line continued below the
+        horizon (its points ``pts`` from the horizon point ``p0`` on)
+        first meets the rim, within :data:`SLIDE_MM` of ``p0`` and in
+        sight of it (:meth:`_in_sight`: a number past a twilight line or
+        another azimuth reads as that line's; the tropics and the equator,
+        named by words, may run between); else None."""
+        rim_mm = self.room.disc + MARGIN_MM
+        r = np.hypot(pts[:, 0], pts[:, 1])
+        beyond = np.nonzero(np.isfinite(r) & (r >= rim_mm))[0]
+        if not len(beyond) or beyond[0] == 0:
+            return None
+        k = int(beyond[0])
+        (x0, y0), (x1, y1) = pts[k - 1].tolist(), pts[k].tolist()
+        f = (rim_mm - r[k - 1]) / (r[k] - r[k - 1])   # the rim's crossing, along the chord
+        end = (x0 + f * (x1 - x0), y0 + f * (y1 - y0))
+        if math.dist(end, p0) > SLIDE_MM:
+            return None
+        b = self._beyond_rim(end, self.w.measure(text, size_pt), apart)
+        numbered = [e for e in self.others(own) + self.reference if e.role not in ("tropic", "equator")]
+        if b is None or not self._in_sight(b, p0, numbered):
+            return None
+        return b
+
+    def _rim_half_width(self, rim_mm: float) -> float:
+        """Half the widest line drawn along the rim (a circle of radius
+        ``rim_mm`` round the pin): the outer tropic, or the declination
+        circle of a farther rim (mm)."""
+        return max((stroke_width_mm(e.stroke, self.d) / 2 for e in self.strokes
+                    if e.shape in ("circle", "arc") and abs(e.geom["radius"] - rim_mm) < 1e-3
+                    and math.hypot(*e.geom["center"]) < 1e-3), default=stroke_width_mm("medium", self.d) / 2)
 
     def _first_free_apart(self, cands, text: str, size_pt: float, protected, p0, seek: bool = True):
         """(box, apart) of the first free of the upright places ``cands``

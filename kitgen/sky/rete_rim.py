@@ -63,17 +63,26 @@ def epoch_obliquity_rad(epoch: int) -> float:
     return float(mean_obliquity_rad(epoch_centuries_tt(epoch)))
 
 
+#: The least ring (mm) between the plate's edge and the rim: room for a
+#: number of the smallest text (5 pt digits, 1.33 mm high as the shipped
+#: fonts measure them) between the cut's ink and the rim's, 0.3 mm clear of
+#: each (#12 review: at 2 mm, on small plates, the azimuths ending on
+#: the rim had no room for their numbers anywhere).
+MIN_RIM_RING_MM = 2.4
+
+
 def plate_and_rim_radii_mm(diameter_mm: float) -> tuple[float, float]:
     """(plate_mm, rim_mm): the radius of the plate's cut circle and of the
     rim, for a mater of ``diameter_mm`` (kitgen.parts.dimensions takes them
     from here).  The limb's hour ring begins at 0.84 of the mater's radius;
     a gap for the plate's key lies between it and the plate, and another
     between the plate's edge and the rim, so that the outermost line never
-    runs into the cut."""
+    runs into the cut, and an azimuth's number fits there beyond its
+    line's end (:data:`MIN_RIM_RING_MM`)."""
     r = diameter_mm / 2.0
     s = r / 90.0
     plate = r * 0.84 - max(3.0, 4.0 * s)
-    return plate, plate - max(2.0, 2.5 * s)
+    return plate, plate - max(MIN_RIM_RING_MM, 2.5 * s)
 
 
 def rim_radius_factor(rim_declination_deg: float, hemisphere_sign: int) -> float:
