@@ -986,17 +986,13 @@ class PlateLabeller:
                                               protected, p0, not owed)
             if b is not None and (apart or owed):
                 return self.put("azimuth_label", b, text, size, azimuth_deg=float(az))
-            # Owed a number: beside its horizon point with a leader to it
-            # (near the equator the azimuths meet the horizon close
-            # together among the tropics, and on an A5 plate among the
-            # almucantars, where no number fits on a line); else, owed or
-            # not, beyond the rim where its line continued meets it.
-            el = self._led_number(p0, text, size, az, own) if owed else None
-            if el is None:
-                b = self._beyond_rim_continued(pts, p0, text, size, own, not owed)
-                if b is not None:
-                    el = self.put("azimuth_label", b, text, size, azimuth_deg=float(az))
-            return el if el is not None or not owed else self.left_out(text)
+            if multiple_of(az, 30.0):
+                # Owed a number: beside its horizon point with a leader to it
+                # (near the equator the azimuths meet the horizon close
+                # together among the tropics, and on an A5 plate among the
+                # almucantars, where no number fits on a line).
+                return self._led_number(p0, text, size, az, own) or self.left_out(text)
+            return None
         rim_ends = [(el, end) for el in own for end in _ends(el)
                     if abs(math.hypot(*end) - (self.room.disc + MARGIN_MM)) < 1e-3]
         ext = self.w.measure(text, size)
@@ -1034,7 +1030,7 @@ class PlateLabeller:
         number fits on a line.)  Lengths in mm, angles in radians."""
         d = self.d
         rim_mm = self.room.disc + MARGIN_MM
-        inner = rim_mm + self._rim_half_width(rim_mm) + MARGIN_MM + 1e-3
+        inner = rim_mm + self._rim_half_width() + MARGIN_MM + 1e-3
         outer = d.plate_radius_mm - stroke_width_mm("cut", d) / 2 - MARGIN_MM
         hw, hh = ext.width_mm / 2, ext.height_mm / 2
         rc = inner + hh
@@ -1056,37 +1052,11 @@ class PlateLabeller:
                 return b
         return None
 
-    def _beyond_rim_continued(self, pts, p0, text: str, size_pt: float, own, apart: bool) -> Box | None:
-        """:meth:`_beyond_rim` where an azimuth's line continued below the
-        horizon (its points ``pts`` from the horizon point ``p0`` on)
-        first meets the rim, within :data:`SLIDE_MM` of ``p0`` and in
-        sight of it (:meth:`_in_sight`: a number past a twilight line or
-        another azimuth reads as that line's; the tropics and the equator,
-        named by words, may run between); else None."""
-        rim_mm = self.room.disc + MARGIN_MM
-        r = np.hypot(pts[:, 0], pts[:, 1])
-        beyond = np.nonzero(np.isfinite(r) & (r >= rim_mm))[0]
-        if not len(beyond) or beyond[0] == 0:
-            return None
-        k = int(beyond[0])
-        (x0, y0), (x1, y1) = pts[k - 1].tolist(), pts[k].tolist()
-        f = (rim_mm - r[k - 1]) / (r[k] - r[k - 1])   # the rim's crossing, along the chord
-        end = (x0 + f * (x1 - x0), y0 + f * (y1 - y0))
-        if math.dist(end, p0) > SLIDE_MM:
-            return None
-        b = self._beyond_rim(end, self.w.measure(text, size_pt), apart)
-        numbered = [e for e in self.others(own) + self.reference if e.role not in ("tropic", "equator")]
-        if b is None or not self._in_sight(b, p0, numbered):
-            return None
-        return b
-
-    def _rim_half_width(self, rim_mm: float) -> float:
-        """Half the widest line drawn along the rim (a circle of radius
-        ``rim_mm`` round the pin): the outer tropic, or the declination
-        circle of a farther rim (mm)."""
-        return max((stroke_width_mm(e.stroke, self.d) / 2 for e in self.strokes
-                    if e.shape in ("circle", "arc") and abs(e.geom["radius"] - rim_mm) < 1e-3
-                    and math.hypot(*e.geom["center"]) < 1e-3), default=stroke_width_mm("medium", self.d) / 2)
+    def _rim_half_width(self) -> float:
+        """Half the widest line that meets the rim (mm): the rim's own
+        circle, and the lines that end on it, of which the horizon is the
+        heaviest."""
+        return max(stroke_width_mm(stroke, self.d) / 2 for stroke in {e.stroke for e in self.strokes})
 
     def _first_free_apart(self, cands, text: str, size_pt: float, protected, p0, seek: bool = True):
         """(box, apart) of the first free of the upright places ``cands``
