@@ -259,6 +259,33 @@ def test_fewest_pages_for_each_material(diameter, sheet):
     assert kinds == ["instructions"] * n_text + ["card"] * kinds.count("card") + ["film"] * kinds.count("film")
 
 
+def test_a_mater_tiled_on_many_square_pages_leaves_no_two_pages_to_merge():
+    """A 600 mm kit on a 132 mm square sheet: about 200 pieces, most
+    alone on their page, laid out in a second or so, though the page search
+    stops early there (kitgen.layout.packing.MAX_SEARCH_TESTS: its tests
+    had run to 1.8 million, and each material was packed again for every
+    count of the instructions' pages, 87 s for eight plates).  The
+    packing is still sound: no two pages of three pieces or fewer in all
+    could have been one (checked with the separating-axis fits above, not
+    with the packer's own), and no fewer pages than the lower bound."""
+    k = kit("diameter_mm: 600\nsheet: {width_mm: 132, height_mm: 132}\nmargin_mm: 6\n")
+    pages = layout_kit(k)
+    areas = []
+    for landscape in (False, True):
+        x0, y0, x1, y1 = content_area_mm(pages[0].sheet, landscape)
+        areas.append((x1 - x0, y1 - y0))
+    for material in ("card", "film"):
+        mine = [_boxes([p], material) for p in pages if p.kind == material]
+        assert sum(map(len, mine)) > 30
+        assert len(mine) >= lower_bound([b for page in mine for b in page], areas, GAP_MM)
+        for p, q in itertools.combinations(mine, 2):
+            together = p + q
+            if len(together) == 2:
+                assert not any(_fit_two(*together, W, H, GAP_MM) for W, H in areas), material
+            elif len(together) == 3:
+                assert not any(_fit_three(together, W, H, GAP_MM) for W, H in areas), material
+
+
 def test_instructions_go_on_to_a_second_page_when_their_words_need_it():
     """On A5 (ISO 216: 148 x 210 mm), in Greek, with duplex, mirrored film and
     a print scale to explain, the instructions need more than one page: the

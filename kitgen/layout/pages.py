@@ -444,8 +444,9 @@ def layout_kit(kit, instruction_pages: int | None = None) -> tuple[Page, ...]:
         if pages is not None:
             return pages
     counts = [instruction_pages] if instruction_pages else range(1, MAX_INSTRUCTION_PAGES + 1)
+    parts = _part_drafts(kit)   # laid out once, whatever the instructions take
     for n in counts:
-        pages = _draft_pages(kit, n)
+        pages = _draft_pages(kit, n, parts)
         split = instructions_split(kit, pages)
         if split is not None:
             return _with_instructions(kit, pages, split)
@@ -516,14 +517,29 @@ def _with_instructions(kit, pages, split) -> tuple[Page, ...]:
     return tuple(out)
 
 
-def _draft_pages(kit, instruction_pages: int) -> tuple[Page, ...]:
-    """The pages with ``instruction_pages`` pages kept for the instructions."""
+def _draft_pages(kit, instruction_pages: int, parts: list[tuple] | None = None) -> tuple[Page, ...]:
+    """The pages with ``instruction_pages`` pages kept for the instructions,
+    then the parts' pages (``parts``, :func:`_part_drafts`, laid out here
+    where not given)."""
+    printing = kit.plan.printing
+    if parts is None:
+        parts = _part_drafts(kit)
+    # (kind, landscape, placements, marks, duplex side)
+    drafts: list[tuple] = [("instructions", False, (), (), "")] * max(1, int(instruction_pages)) + parts
+    total = len(drafts)
+    return tuple(Page(k, total, kind, printing.sheet, landscape, placed, kind == "film" and printing.film_mirror,
+                      tuple(printing.print_scale), marks, side)
+                 for k, (kind, landscape, placed, marks, side) in enumerate(drafts, start=1))
+
+
+def _part_drafts(kit) -> list[tuple]:
+    """The card pages (the duplex pair first) and the film pages, each as
+    (kind, landscape, placements, marks, duplex side)."""
     printing = kit.plan.printing
     sh = printing.sheet
     scale = tuple(printing.print_scale)
     order = {p.id: i for i, p in enumerate(kit.parts)}
-    # (kind, landscape, placements, marks, duplex side)
-    drafts: list[tuple] = [("instructions", False, (), (), "")] * max(1, int(instruction_pages))
+    drafts: list[tuple] = []
     card = [p for p in kit.parts if p.material == "card"]
     kinds = {p.kind for p in card}
     if printing.duplex != "none" and not {"mater_front", "mater_back"} <= kinds:
@@ -538,9 +554,6 @@ def _draft_pages(kit, instruction_pages: int) -> tuple[Page, ...]:
     film = [p for p in kit.parts if p.material == "film"]
     for landscape, placed in _layout_material(film, sh, scale, order, kit.words):
         drafts.append(("film", landscape, placed, (), ""))
-    total = len(drafts)
-    return tuple(Page(k, total, kind, sh, landscape, placed, kind == "film" and printing.film_mirror, scale,
-                      marks, side)
-                 for k, (kind, landscape, placed, marks, side) in enumerate(drafts, start=1))
+    return drafts
 
 
