@@ -207,7 +207,7 @@ def test_star_name_that_is_a_paragraph(tmp_path):
 
 
 @pytest.mark.parametrize("key, value, needle", [
-    ("altitude_step_deg", "1e-300", "'altitude_step_deg' must be a number"),    # YAML 1.1: a string
+    ("altitude_step_deg", "1e-300", "'altitude_step_deg' is 1e-300, outside 1 to 30"),   # YAML 1.2: a number
     ("altitude_step_deg", "1.0e-300", "'altitude_step_deg' is 1e-300, outside 1 to 30"),
     ("altitude_step_deg", "1.0e+300", "outside 1 to 30"),
     ("azimuth_step_deg", "0.000001", "'azimuth_step_deg' is 1e-06, outside 5 to 90"),

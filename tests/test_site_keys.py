@@ -196,6 +196,13 @@ def test_longitude_out_of_range(tmp_path, capsys):
     fails_in_one_line(tmp_path, capsys, "latitude: 40\nlongitude: 200\n", "'longitude'", "outside -180 to 180")
 
 
+def test_a_longitude_just_beyond_180_says_by_how_much(tmp_path, capsys):
+    # 180 deg 0' 1" W is -180.000278 deg: "-180, outside -180 to 180" had
+    # read as a contradiction (found by a fuzzing helper)
+    fails_in_one_line(tmp_path, capsys, "latitude: 40\nlongitude: 180 0 1 W\ntimezone: UTC\n", "'longitude'",
+                      "-180.0003", "outside -180 to 180")
+
+
 def test_unknown_time_zone(tmp_path, capsys):
     fails_in_one_line(tmp_path, capsys, "latitude: 38.7\nlongitude: -9.1\ntimezone: Europe/Lisbn\n",
                       "'timezone'", "IANA", "did you mean 'Europe/Lisbon'")

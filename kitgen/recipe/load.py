@@ -18,6 +18,7 @@ from __future__ import annotations
 import difflib
 import math
 import os
+import re
 import stat
 import unicodedata
 from pathlib import Path
@@ -163,6 +164,18 @@ def _yaml_error(exc: yaml.YAMLError, source) -> UserError:
     return UserError("errors.invalid_yaml", source=source, at=at, problem=problem)
 
 
+class _Loader(yaml.SafeLoader):
+    """YAML's safe loader, reading a number in exponent form (1e-9, 2e2,
+    1.5e1) as a number, as the YAML 1.2 core schema does (YAML 1.2.2,
+    section 10.3.2), where YAML 1.1 read it as text unless it had a
+    decimal point and a signed exponent."""
+
+
+_Loader.add_implicit_resolver("tag:yaml.org,2002:float",
+                              re.compile(r"^[-+]?(\.[0-9]+|[0-9]+(\.[0-9]*)?)[eE][-+]?[0-9]+$"),
+                              list("-+.0123456789"))
+
+
 def safe_yaml(text: str, source=RECIPE, what: Message = RECIPE, max_events: int = MAX_EVENTS):
     """The value of YAML ``text`` after the structure checks, built by the
     safe loader only; a :class:`UserError` for anything wrong.  ``source``
@@ -170,7 +183,7 @@ def safe_yaml(text: str, source=RECIPE, what: Message = RECIPE, max_events: int 
     kind of file (:data:`RECIPE`, :data:`LANGUAGE_FILE`)."""
     _check_structure(text, source, what, max_events)
     try:
-        return yaml.safe_load(text)
+        return yaml.load(text, Loader=_Loader)   # noqa: S506 (a safe loader)
     except yaml.YAMLError as exc:
         raise _yaml_error(exc, source) from None
     except (ValueError, OverflowError):
@@ -226,6 +239,11 @@ def parse_recipe_text(text: str, source=RECIPE) -> Recipe:
         raw_longitude = nodes.get("longitude", (0, None))[1]
         if raw_longitude is not None and ":" in raw_longitude:
             tree["longitude"] = raw_longitude
+        for name, (_, raw) in nodes.items():   # a title or a name read as a number keeps its text
+            key = KEYS_BY_NAME.get(name)
+            if raw is not None and key is not None and key.kind == "string" \
+                    and isinstance(tree.get(name), (int, float)) and not isinstance(tree.get(name), bool):
+                tree[name] = raw
         return validate_recipe(tree, source, lines)
 
 

@@ -13,7 +13,7 @@ from __future__ import annotations
 import math
 import re
 
-from ..errors import KeyedError
+from ..errors import KeyedError, beyond
 
 ACCEPTED_FORMS = "-9.14, 9.14W, 9 8 24 W, 9°8′24″W, 151 12 E"
 #: Longest text read as a longitude.
@@ -77,5 +77,5 @@ def parse_longitude(value) -> float:
 
 def _in_range(lon: float) -> float:
     if not -180.0 <= lon <= 180.0:
-        raise LongitudeError("errors.longitude_range", value=f"{lon:g}")
+        raise LongitudeError("errors.longitude_range", value=beyond(lon, -180.0, 180.0))
     return lon
