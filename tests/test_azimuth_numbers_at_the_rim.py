@@ -34,7 +34,7 @@ RECIPES = [
     {"latitude": 52.3, "language": "it", "sheet": "a5"},
     {"latitude": 36.2, "language": "fr", "diameter_mm": 110},
     {"latitude": -43.7, "language": "ru", "sheet": "a5"},
-    {"latitude": 7.4, "language": "es", "diameter_mm": 130},
+    {"latitude": 9.8, "language": "es", "diameter_mm": 130},
     {"latitude": -19.2, "language": "el", "sheet": "a5"},
     # the horizon ends on the rim 1.3 mm from the 150 deg line's end: the
     # number keeps clear of the heaviest line that meets the rim

@@ -951,8 +951,8 @@ class PlateLabeller:
         """An azimuth's number on its line continued below the horizon (on
         the line itself just above the horizon where a tropic runs there),
         or, where the horizon's point is outside the drawing, at its end on
-        the rim, else just beyond that end (:meth:`_beyond_rim`); clear of
-        every other line.  It carries a degree sign
+        the rim, else (an owed number) beside it with a leader, else just
+        beyond that end (:meth:`_beyond_rim`); clear of every other line.  It carries a degree sign
         ("90°"), which an almucantar's plain number never does, so the two
         cannot be taken for each other (the template's
         ``plate.azimuth_number``).  Places :data:`BELOW_APART_MM` from the
@@ -1006,12 +1006,14 @@ class PlateLabeller:
                 b = self.first_free(cands, text, size, protected)
                 if b is not None:
                     return self.put("azimuth_label", b, text, size, azimuth_deg=float(az))
+        if rim_ends and multiple_of(az, 30.0):   # owed a number: beside its end, with a leader
+            el = self._led_number(rim_ends[0][1], text, size, az, own)
+            if el is not None:
+                return el
         for el, end in rim_ends:   # else just beyond its end, between the rim and the plate's edge
             b = self._beyond_rim(end, ext, not multiple_of(az, 30.0))
             if b is not None:
                 return self.put("azimuth_label", b, text, size, azimuth_deg=float(az))
-        if rim_ends and multiple_of(az, 30.0):   # owed a number: beside its end, with a leader
-            return self._led_number(rim_ends[0][1], text, size, az, own) or self.left_out(text)
         return self._azimuth_missing(az, text)
 
     def _beyond_rim(self, end, ext, apart: bool) -> Box | None:
