@@ -173,8 +173,12 @@ def test_every_kind_of_line_named_with_a_leader_ending_on_it(name):
         assert curve, v
         # within 0.2 mm of the very line it names, in the picture
         assert min(distance_to(e, leader.geom["to"]) for e in curve) <= 0.2, v
-        # and not on the plate's edge, where lines end together
-        assert np.hypot(*(np.array(leader.geom["to"]) - plate.values["pin_mm"])) / k < kit.dims.outer_tropic_radius_mm
+        # and not on the plate's edge, where lines end together (but for
+        # the circle that is the edge: the outer tropic, where the rim is it)
+        rim = kit.dims.outer_tropic_radius_mm
+        if all(e.shape == "circle" and abs(e.geom["radius"] / k - rim) < 1e-6 for e in curve):
+            continue
+        assert np.hypot(*(np.array(leader.geom["to"]) - plate.values["pin_mm"])) / k < rim
         words = " ".join(t.geom["text"] for t in texts if t.values == v)
         assert words == expected_name(kit, v), (words, v)
 

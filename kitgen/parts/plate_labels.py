@@ -73,6 +73,10 @@ SLIDE_MM = 12.0
 #: across the band (three twilight circles on an A5 plate) leave the
 #: middle no room (#12 review: the hours 1, 2, 11 and 12 had no number).
 HOUR_SHARES = (0.5, 0.42, 0.58, 0.34, 0.66, 0.26, 0.74, 0.18, 0.82, 0.1, 0.9)
+#: Clear paper (mm) between a number in the ring beyond the rim and the
+#: plate's cut line: scissors a little inside the line would nick it
+#: (#12 review: 0.35 mm was too little; a choice).
+RIM_CUT_CLEAR_MM = 0.5
 #: Where (mm along the ring, from right beyond its line's end) an azimuth's
 #: number set between the rim and the plate's edge is sought, nearest
 #: first (:meth:`PlateLabeller._beyond_rim`).
@@ -1020,8 +1024,9 @@ class PlateLabeller:
         """A box for a number of extent ``ext`` in the ring between the
         drawing's rim and the plate's cut, just beyond the point ``end``
         where a line meets the rim: set along the rim (its foot towards the
-        centre, turned to read upright), :data:`MARGIN_MM` clear of both
-        circles and of every other line, free of the labels, and slid
+        centre, turned to read upright), :data:`MARGIN_MM` clear of the rim
+        and of every other line, :data:`RIM_CUT_CLEAR_MM` of the cut's ink,
+        free of the labels, and slid
         along the ring (:data:`RIM_SLIDES_MM`) where the place right
         beyond the end is taken.  With ``apart`` (a number between the
         thirties) only a place :data:`BELOW_APART_MM` from the other
@@ -1033,7 +1038,7 @@ class PlateLabeller:
         d = self.d
         rim_mm = self.room.disc + MARGIN_MM
         inner = rim_mm + self._rim_half_width() + MARGIN_MM + 1e-3
-        outer = d.plate_radius_mm - stroke_width_mm("cut", d) / 2 - MARGIN_MM
+        outer = d.plate_radius_mm - stroke_width_mm("cut", d) / 2 - RIM_CUT_CLEAR_MM
         hw, hh = ext.width_mm / 2, ext.height_mm / 2
         rc = inner + hh
         if math.hypot(rc + hh, hw) > outer:

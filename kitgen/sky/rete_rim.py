@@ -65,11 +65,13 @@ def epoch_obliquity_rad(epoch: int) -> float:
 
 #: The least ring (mm) between the plate's edge and the rim: room for a
 #: number of the smallest text (5 pt digits, 1.33 mm high as the shipped
-#: fonts measure them) between the cut's ink and the rim's, 0.3 mm clear of
-#: each (#12 review: at 2 mm, on small plates, the azimuths ending on
-#: the rim had no room for their numbers anywhere).  The plate grows into
-#: the key's gap for it; the drawing keeps its size.
-MIN_RIM_RING_MM = 2.4
+#: fonts measure them) 0.3 mm clear of the rim's ink and about 0.5 mm of
+#: the cut's, so that scissors a little inside the cut line miss it (#12
+#: review: at 2 mm, on small plates, the azimuths ending on the rim had no
+#: room for their numbers anywhere; at 2.4 mm a teacher found them 0.35 mm
+#: from the cut).  The plate grows into the key's gap for it; the drawing
+#: keeps its size.
+MIN_RIM_RING_MM = 2.6
 
 
 def plate_and_rim_radii_mm(diameter_mm: float) -> tuple[float, float]:
@@ -80,7 +82,7 @@ def plate_and_rim_radii_mm(diameter_mm: float) -> tuple[float, float]:
     between the plate's edge and the rim, so that the outermost line never
     runs into the cut, and an azimuth's number fits there beyond its
     line's end (:data:`MIN_RIM_RING_MM`, taken from the key's gap on
-    small maters: 3 mm less 0.4 on A5)."""
+    small maters: 3 mm less 0.6 on A5)."""
     r = diameter_mm / 2.0
     s = r / 90.0
     rim = r * 0.84 - max(3.0, 4.0 * s) - max(2.0, 2.5 * s)
