@@ -969,6 +969,7 @@ class PlateLabeller:
         A = math.radians(az)
         own = [e for e in self.role("azimuth") if abs(e.values["azimuth_deg"] - az) < 1e-9]
         protected = self.others(own)
+        owed = multiple_of(az, 30.0)
         p0 = project_vectors(horizontal_vector(0.0, A, phi), s, R)
         if np.all(np.isfinite(p0)) and np.hypot(*p0) < self.room.disc:
             alts = np.radians(-np.arange(0.2, 30.0, 0.2))
@@ -980,7 +981,6 @@ class PlateLabeller:
             # below the horizon, else on its own line just above it (broken
             # round it); an optional number only apart from the other numbers
             # (a number owed takes its first free place, as near its point as it can stand)
-            owed = multiple_of(az, 30.0)
             b, apart = self._first_free_apart(cands, text, size, protected, p0, not owed)
             if b is not None and (apart or owed):
                 el = self.put("azimuth_label", b, text, size, azimuth_deg=float(az))
@@ -990,7 +990,7 @@ class PlateLabeller:
                                               protected, p0, not owed)
             if b is not None and (apart or owed):
                 return self.put("azimuth_label", b, text, size, azimuth_deg=float(az))
-            if multiple_of(az, 30.0):
+            if owed:
                 # Owed a number: beside its horizon point with a leader to it
                 # (near the equator the azimuths meet the horizon close
                 # together among the tropics, and on an A5 plate among the
@@ -1010,12 +1010,12 @@ class PlateLabeller:
                 b = self.first_free(cands, text, size, protected)
                 if b is not None:
                     return self.put("azimuth_label", b, text, size, azimuth_deg=float(az))
-        if rim_ends and multiple_of(az, 30.0):   # owed a number: beside its end, with a leader
+        if rim_ends and owed:   # owed a number: beside its end, with a leader
             el = self._led_number(rim_ends[0][1], text, size, az, own)
             if el is not None:
                 return el
-        for el, end in rim_ends:   # else just beyond its end, between the rim and the plate's edge
-            b = self._beyond_rim(end, ext, not multiple_of(az, 30.0))
+        for _, end in rim_ends:   # else just beyond its end, between the rim and the plate's edge
+            b = self._beyond_rim(end, ext, not owed)
             if b is not None:
                 return self.put("azimuth_label", b, text, size, azimuth_deg=float(az))
         return self._azimuth_missing(az, text)
@@ -1050,19 +1050,18 @@ class PlateLabeller:
             if turn <= -math.pi / 2:   # the lower half: turned half round to read upright
                 turn += math.pi
             b = Box((rc * math.cos(t), rc * math.sin(t)), turn, hw, hh)
-            if apart:
-                c, s = abs(b.cos), abs(b.sin)
-                if not self._apart_from_numbers([b.center[0]], [b.center[1]], c * hw + s * hh, s * hw + c * hh,
-                                                BELOW_APART_MM, STACKED_APART_MM)[0]:
-                    continue
+            if apart and not self._apart_from_numbers([b.center[0]], [b.center[1]],
+                                                      *_upright_halves(b.cos, b.sin, hw, hh),
+                                                      BELOW_APART_MM, STACKED_APART_MM)[0]:
+                continue
             if self.room.clear_of_labels(b) and self.room.clear_of(b, self.strokes):
                 return b
         return None
 
     def _rim_half_width(self) -> float:
-        """Half the widest line that meets the rim (mm): the rim's own
-        circle, and the lines that end on it, of which the horizon is the
-        heaviest."""
+        """Half the widest line drawn on the plate (mm): any of them may
+        end on the rim beside a number set beyond it (the horizon, the
+        heaviest, does at high latitudes)."""
         return max(stroke_width_mm(stroke, self.d) / 2 for stroke in {e.stroke for e in self.strokes})
 
     def _first_free_apart(self, cands, text: str, size_pt: float, protected, p0, seek: bool = True):
@@ -1204,11 +1203,12 @@ class PlateLabeller:
         want = -s * eps / 2
         order = np.argsort(np.abs(decs - want))
         ext = self.w.measure(text, size)
+        order = order.tolist()
         for share in HOUR_SHARES:
             ha = h0 + (k - 1.0 + share) * (2 * np.pi - 2 * h0) / 12.0
             pts = project_vectors(equatorial_vector(ha, decs), s, R)
             finite, rows = np.all(np.isfinite(pts), axis=1).tolist(), pts.tolist()   # read as arrays once (#12)
-            cands = [(rows[i][0], rows[i][1], 0.0) for i in order.tolist() if finite[i]]
+            cands = [(rows[i][0], rows[i][1], 0.0) for i in order if finite[i]]
             cands = self._apart_from_cardinals(cands, ext.width_mm / 2, ext.height_mm / 2)
             b = self.first_free(cands, text, size, self.others())
             if b is not None:
@@ -1303,10 +1303,9 @@ class PlateLabeller:
         """Whether each box of ``places`` (turned: its upright bounds)
         keeps ``apart_mm`` from every number set so far (almucantars',
         unequal hours' and azimuths': :meth:`_apart_from_numbers`)."""
-        c, sn = np.abs(places.cos), np.abs(places.sin)
-        return self._apart_from_numbers(places.x, places.y, c * places.half_w + sn * places.half_h,
-                                        sn * places.half_w + c * places.half_h, apart_mm,
-                                        roles=("almucantar_label", "unequal_hour_label", "azimuth_label"))
+        return self._apart_from_numbers(places.x, places.y,
+                                        *_upright_halves(places.cos, places.sin, places.half_w, places.half_h),
+                                        apart_mm, roles=("almucantar_label", "unequal_hour_label", "azimuth_label"))
 
 
     def _name_place(self, places: Places, idx, lines, best, named_clear: float = CLEAR_MM):
@@ -1371,6 +1370,14 @@ def _far_from(places: Places, target: Box) -> np.ndarray:
     for i in np.nonzero(np.abs(gap - NEAR_MM) < 1e-9)[0].tolist():
         far[i] = _boxes_gap(places.box(i), target) > NEAR_MM
     return far
+
+
+def _upright_halves(cos, sin, half_w: float, half_h: float):
+    """The half width and half height (mm) of the upright bounds of a box
+    of half sizes ``half_w`` and ``half_h`` turned by the angle of ``cos``
+    and ``sin`` (numbers, or arrays)."""
+    c, s = np.abs(cos), np.abs(sin)
+    return c * half_w + s * half_h, s * half_w + c * half_h
 
 
 def _box_nearest(b: Box, p):
