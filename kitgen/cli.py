@@ -343,6 +343,7 @@ def _cmd_batch(args) -> int:
 
     if args.jobs is not None and not 1 <= args.jobs <= MAX_JOBS:
         raise UserError("errors.jobs_option", high=MAX_JOBS, value=args.jobs)
+    _check_stdout_not_input(args.set)   # the progress lines and the summary go to stderr
     summary = run_set(args.set, args.output, args.jobs, args.quiet, debug=args.debug)
     if summary.failures or not args.quiet:   # a quiet run that built every kit says only its folder
         words = load_words(summary.language) if summary.language in available_languages() else None
@@ -467,6 +468,8 @@ def _main(argv) -> int:
             parser.print_help(sys.stderr)
             return EXIT_USER
         args.debug = debug
+        if getattr(args, "output", None) == "":
+            raise UserError("errors.output_empty")
         with rare_collections() if args.command in BUILDING else contextlib.nullcontext():
             status = COMMANDS[args.command](args)
         _flush_stdout()
@@ -491,12 +494,15 @@ def _main(argv) -> int:
 
 
 def _tell(line: str) -> None:
-    """Say one line on stderr; if stderr itself cannot take it (closed, a
-    full disk), nothing more can be said, and the exit status speaks."""
+    """Say one line on stderr (on stdout where stderr is an input file:
+    :func:`_check_stdout_not_input`); if the stream cannot take it
+    (closed, a full disk), nothing more can be said, and the exit status
+    speaks."""
+    stream = sys.stdout if _stderr_is_input else sys.stderr
     try:
-        print(line, file=sys.stderr, flush=True)
+        print(line, file=stream, flush=True)
     except (OSError, ValueError, AttributeError):
-        _quiet(sys.stderr)
+        _quiet(stream)
 
 
 def _emit(data) -> None:
@@ -552,22 +558,41 @@ def _stdout_error(exc: BaseException) -> UserError:
 
 
 def _check_stdout_not_input(*inputs) -> None:
-    """Refuse a stdout that the shell pointed at one of the build's inputs
-    (``kitgen geometry r.yaml > r.yaml``): the same file system and inode
-    as fd 1."""
-    if sys.stdout is None:
-        return
+    """Refuse a stdout or stderr that the shell pointed at one of the
+    build's inputs (``kitgen geometry r.yaml > r.yaml``, ``kitgen build
+    r.yaml 2>> r.yaml``): the same file system and inode as fd 1 or 2.
+    When it is stderr, the refusal itself goes to stdout (:func:`_tell`),
+    so that not even it is written into the input."""
+    global _stderr_is_input
+    for stream, key in ((sys.stdout, "errors.stdout_is_input"), (sys.stderr, "errors.stderr_is_input")):
+        path = _input_at(stream, inputs)
+        if path is not None:
+            _stderr_is_input = stream is sys.stderr
+            raise UserError(key, path=path)
+
+
+#: Set once stderr is found to be an input file: :func:`_tell` then says
+#: its line on stdout.
+_stderr_is_input = False
+
+
+def _input_at(stream, inputs):
+    """The one of ``inputs`` that ``stream`` (an open file) writes into, or
+    None."""
+    if stream is None:
+        return None
     try:
-        out = os.fstat(sys.stdout.fileno())
+        out = os.fstat(stream.fileno())
     except (OSError, ValueError, AttributeError):
-        return
+        return None
     for path in inputs:
         try:
             st = os.stat(path)
         except (OSError, ValueError):
             continue
         if (st.st_dev, st.st_ino) == (out.st_dev, out.st_ino):
-            raise UserError("errors.stdout_is_input", path=path)
+            return path
+    return None
 
 
 def _words_of(exc: UserError, args):

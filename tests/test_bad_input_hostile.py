@@ -225,10 +225,37 @@ def test_long_title(tmp_path):
     refused(tmp_path, "latitude: 40\ntitle: '" + "W" * 5000 + "'\n", "'title' is 5000 characters long; at most 120")
 
 
-@pytest.mark.parametrize("escape, code", [("\\0", "U+0000"), ("\\e", "U+001B"), ("\\x07", "U+0007"),
-                                          ("\\ud800", "U+D800")])
+@pytest.mark.parametrize("escape, code", [("\\0", "U+0000"), ("\\e", "U+001B"), ("\\x07", "U+0007")])
 def test_control_characters_in_text(tmp_path, escape, code):
     refused(tmp_path, f'latitude: 40\ntitle: "Hilltop{escape}Club"\n', f"'title' contains the control character {code}")
+
+
+@pytest.mark.parametrize("escape, code", [("\\ud800", "U+D800"), ("\\udd1e", "U+DD1E"), ("\\ud834x", "U+D834")])
+def test_half_a_surrogate_pair_is_called_so(tmp_path, escape, code):
+    """A lone UTF-16 surrogate (Unicode 15.0, section 3.8, D71 to D75) is not
+    a control character, and the message says what it is."""
+    refused(tmp_path, f'latitude: 40\ntitle: "Hilltop{escape}Club"\n',
+            f"'title' contains {code}, half of a character's UTF-16 pair without its other half")
+
+
+def test_an_escaped_surrogate_pair_is_its_character():
+    """RFC 8259, section 7: the G clef, U+1D11E, escaped as JSON escapes it,
+    "\\uD834\\uDD1E"; YAML 1.2, a superset of JSON, reads the pair as
+    that one character, in values and keys alike."""
+    from kitgen.recipe.load import safe_yaml
+
+    tree = safe_yaml('owner: "\\uD834\\uDD1E"\n"k\\uD834\\uDD1E": "a\\uD834\\uDD1Eb\\uD834"\n')
+    assert tree["owner"] == "\U0001D11E"
+    assert tree["k\U0001D11E"] == "a\U0001D11Eb\ud834"   # a lone half after it stays as it is
+
+
+def test_a_plates_place_is_named_in_its_refusal(tmp_path):
+    """A place too long, or with a control character, in the list form of
+    ``plates:`` is said as that plate's 'place', not as 'plates'."""
+    refused(tmp_path, "plates:\n  - latitude: 52\n    place: '" + "W" * 130 + "'\n",
+            "'plates': plate 1: 'place' is 130 characters long; at most 120")
+    refused(tmp_path, 'plates:\n  - 50\n  - {latitude: 52, place: "Ash\\x07Hill"}\n',
+            "'plates': plate 2: 'place' contains the control character U+0007")
 
 
 def test_very_long_unknown_key_is_quoted_briefly(tmp_path):

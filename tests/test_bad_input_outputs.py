@@ -57,6 +57,21 @@ def kit_dir(tmp_path):
 
 # -- standard output -----------------------------------------------------------------------------
 
+@pytest.mark.parametrize("args", [["build", "r.yaml"], ["geometry", "r.yaml"], ["preview", "r.yaml"],
+                                  ["geometry", "r.yaml", "--format", "svg"], ["new"], ["calibrate", "--sheet", "a5"],
+                                  ["batch", "set.yaml"]])
+def test_an_empty_output_name_is_refused(kit_dir, args):
+    """``-o ""`` (an unset shell variable, say) names no file: refused in
+    one line, and nothing written in its stead (such as r.pdf)."""
+    (kit_dir / "set.yaml").write_text("kits:\n  - latitude: 40\n", encoding="utf-8")
+    before = sorted(p.name for p in kit_dir.iterdir())
+    run = kitgen(*args, "-o", "", cwd=kit_dir)
+    assert run.returncode == EXIT_USER
+    assert "-o names no file (it is empty)" in one_line(run.stderr)
+    assert sorted(p.name for p in kit_dir.iterdir()) == before
+
+
+
 @pytest.mark.skipif(not os.path.exists("/dev/full"), reason="no /dev/full on this system")
 @pytest.mark.parametrize("args", [["new"], ["stars"], ["geometry", "r.yaml"], ["--help"],
                                   ["build", "r.yaml", "-o", "kit.pdf"], ["places", "Lisbon"]])
@@ -87,6 +102,24 @@ def test_a_pipe_closed_by_its_reader_is_not_success(kit_dir):
     err = p.stderr.read()
     assert p.wait(timeout=300) == EXIT_USER
     assert "closed the pipe" in one_line(err)
+
+
+@pytest.mark.parametrize("args", [["build", "r.yaml", "-o", "kit.pdf"], ["geometry", "r.yaml"],
+                                  ["preview", "r.yaml", "-o", "look"], ["batch", "set.yaml", "-o", "out"]])
+def test_stderr_onto_the_recipe_is_refused(kit_dir, args):
+    """``kitgen build r.yaml 2>> r.yaml``: fd 2 is the recipe (or the set),
+    so its notes, progress or refusal would be appended to it; refused
+    before anything is built, said on stdout, the file unchanged."""
+    (kit_dir / "set.yaml").write_text("kits:\n  - latitude: 40\n", encoding="utf-8")
+    target = kit_dir / args[1]
+    before = target.read_bytes()
+    with open(target, "ab") as err:
+        run = kitgen(*args, cwd=kit_dir, stderr=err)
+    assert run.returncode == EXIT_USER
+    assert target.read_bytes() == before
+    assert run.stdout.decode("utf-8").strip() == (f"kitgen: error: standard error is the input file {args[1]}; "
+                                                  "the messages would be written into it, so send them elsewhere")
+    assert not {"kit.pdf", "look", "out"} & {p.name for p in kit_dir.iterdir()}
 
 
 @pytest.mark.parametrize("mode, args", [("ab", ["geometry"]), ("r+b", ["geometry"]), ("ab", ["build"]),

@@ -176,6 +176,25 @@ _Loader.add_implicit_resolver("tag:yaml.org,2002:float",
                               list("-+.0123456789"))
 
 
+def joined_pairs(text: str) -> str:
+    """``text`` with each UTF-16 surrogate pair joined into the one
+    character it stands for.  A double-quoted YAML scalar escapes a
+    character beyond U+FFFF as ``\\U0001F31F``, but many tools write it as
+    JSON does, two ``\\u`` escapes of its surrogate pair (RFC 8259,
+    section 7), which YAML, a superset of JSON (YAML 1.2.2, section 1.3),
+    then reads as two lone surrogates; a lone half stays as it is."""
+    if not any("\ud800" <= ch <= "\udfff" for ch in text):
+        return text
+    return text.encode("utf-16-le", "surrogatepass").decode("utf-16-le", "surrogatepass")
+
+
+def _construct_text(loader, node) -> str:
+    return joined_pairs(loader.construct_scalar(node))
+
+
+_Loader.add_constructor("tag:yaml.org,2002:str", _construct_text)
+
+
 def safe_yaml(text: str, source=RECIPE, what: Message = RECIPE, max_events: int = MAX_EVENTS):
     """The value of YAML ``text`` after the structure checks, built by the
     safe loader only; a :class:`UserError` for anything wrong.  ``source``
@@ -469,6 +488,16 @@ def _text_problem(value: str) -> str | None:
     return None
 
 
+def _refuse_unprintable(value: str, label) -> None:
+    """Refuse ``value`` if it holds a character that cannot be printed
+    (:func:`_text_problem`), naming it as what it is: a control character,
+    or half of a UTF-16 surrogate pair without its other half."""
+    bad = _text_problem(value)
+    if bad:
+        key = "errors.lone_surrogate" if unicodedata.category(bad) == "Cs" else "errors.control_character"
+        raise UserError(key, label=label, code=f"{ord(bad):04X}")
+
+
 class KeyHelp(Message):
     """A recipe key's help line (``errors.help.NAME`` in the templates;
     the English is :attr:`schema.Key.help`), with the key's range and
@@ -512,9 +541,7 @@ def _check(key, value, where, local_stars: dict | None = None):
         value = str(value)
         if len(value) > MAX_TEXT_CHARS:
             raise UserError("errors.text_too_long", label=label, length=len(value), limit=MAX_TEXT_CHARS)
-        bad = _text_problem(value)
-        if bad:
-            raise UserError("errors.control_character", label=label, code=f"{ord(bad):04X}")
+        _refuse_unprintable(value, label)
         if key.name == "language":
             if value not in available_languages():
                 raise UserError("errors.unknown_language", label=label, value=shown(value),
@@ -571,11 +598,11 @@ def _check_plates(value, label: Message, where) -> tuple[PlateSpec, ...]:
             place = entry.get("place", "")
             if not isinstance(place, str):
                 raise UserError("errors.plate_entry", label=label, number=k)
-            if len(place) > MAX_TEXT_CHARS:   # said as of the one-plate form's place
-                raise UserError("errors.text_too_long", label=label, length=len(place), limit=MAX_TEXT_CHARS)
-            bad = _text_problem(place)
-            if bad:
-                raise UserError("errors.control_character", label=label, code=f"{ord(bad):04X}")
+            # said as of this plate's place ("'plates': plate 2: 'place'")
+            place_label = Message("errors.plate_latitude", label=label, number=k, problem="'place'")
+            if len(place) > MAX_TEXT_CHARS:
+                raise UserError("errors.text_too_long", label=place_label, length=len(place), limit=MAX_TEXT_CHARS)
+            _refuse_unprintable(place, place_label)
             entry = entry["latitude"]
         try:
             latitude = parse_latitude(entry)
