@@ -35,7 +35,13 @@ def _pyephem_dec_deg(year: int) -> float:
 
 @pytest.mark.parametrize("head", ["latitude: 40\nlanguage: de\n", "latitude: 0.5\n", "latitude: 20\nsheet: a5\n",
                                   "latitude: 33.9\nlanguage: ar\n", "latitude: 64\nsheet: a5\nlanguage: ru\n",
-                                  "latitude: 52.2\n"])
+                                  "latitude: 52.2\n",
+                                  # a name right beside the pin's crosshair, read from the mark's edge (#12:
+                                  # unnamed on these retes, 2.8 mm from its dot and so nearer no other)
+                                  "latitude: 40\nsheet: a5\nlanguage: ru\n", "latitude: 45\ndiameter_mm: 100\n",
+                                  "latitude: 55\ndiameter_mm: 100\nlanguage: el\n",
+                                  "latitude: 35\ndiameter_mm: 100\nlanguage: ar\n",
+                                  "latitude: 5\ndiameter_mm: 100\nlanguage: pt\n"])
 def test_a_northern_rete_carries_and_names_polaris(head):
     rete = _rete(head)
     stars = [e for e in rete.elements if e.role == "star"]

@@ -203,6 +203,7 @@ NAME_GAP_ALONG_MM = 2.0
     "latitude: -23.5\nlanguage: pt\nsheet: a5\n",   # Betelgeuse's at the tops of the letters past "Alnilam"
     "latitude: 0.5\nsheet: letter\n",
     "latitude: 40\nlanguage: de\n",               # Saiph's dot over the end of "Alnitak"
+    "latitude: 45\ndiameter_mm: 100\n", "latitude: 40\nsheet: a5\nlanguage: ru\n",   # Polaris beside the pin
 ])
 def test_each_name_reads_as_its_own_stars(head):
     """Each star's name stands within ALONE_OFFSETS of its own dot and
@@ -236,9 +237,15 @@ def test_each_name_reads_as_its_own_stars(head):
         # A dot under the pin's crosshair (Polaris) is named beside the
         # mark, which no word may cross: its name is measured from the mark.
         (px, py), half = own.geom["at"], PIN_HALF_MM
-        reach = gap - half if abs(px) <= half and abs(py) <= half else gap
+        under_pin = abs(px) <= half and abs(py) <= half
+        reach = gap - half if under_pin else gap
         if reach > ALONE_OFFSETS * offset:
             bad.append((name, "far", round(gap, 2)))
+        # right beside the crosshair (over or under its middle, or level
+        # with it) it reads as the mark's, the dot being punched out
+        (x0, y0), (x1, y1) = box[0], box[2]
+        if under_pin and (x0 <= 0.0 <= x1 or y0 <= 0.0 <= y1):
+            gap = min(gap, math.hypot(max(x0 - half, -half - x1, 0.0), max(y0 - half, -half - y1, 0.0)))
         for other, dot in dots.items():
             if other != name and dot_to_box_mm(dot.geom["at"], dot.values["radius_mm"], box) \
                     <= gap + CLEARLY_NEARER_MM:

@@ -8,7 +8,9 @@ other drawn dot within AMBIGUOUS_WITHIN_MM is nearer than
 CLEARLY_OWN_RATIO times the name's own dot, unless that dot is claimed
 by a name of its own (its leader, or its name beside it nearer than this
 one), and then it is no nearer than this name's own mark (its dot, or its
-leader's end).  Millimetres, not label offsets: the names stay 5 pt on
+leader's end; for a dot under the pin's crosshair, Polaris's, whose
+dot the pin hole punches out, the crosshair's edge where the name stands
+right beside it).  Millimetres, not label offsets: the names stay 5 pt on
 every kit (#12 review: on an 85 mm rete "Capella", at the end of a 10 mm
 leader, stood level with Alhena's unnamed dot 2.4 mm past its end).  A
 first-magnitude star (1.5 and brighter, as the term is commonly used)
@@ -44,6 +46,24 @@ def _reading_mm(point, radius_mm, box):
     return min(math.dist(point, (x, (y0 + y1) / 2)) for x in (x0, (x0 + x1) / 2, x1)) - radius_mm
 
 
+#: Half the side of the square the pin's crosshair is kept in (mm), the
+#: rete's own mark (kitgen.parts.rete's pin box).
+PIN_HALF_MM = 2.5
+
+
+def _under_pin(dot) -> bool:
+    return all(abs(v) < PIN_HALF_MM for v in dot.geom["at"])
+
+
+def _beside_pin(box) -> bool:
+    """Over or under the crosshair's middle, or level with it."""
+    return box[0] <= 0.0 <= box[2] or box[1] <= 0.0 <= box[3]
+
+
+def _gap_to_pin(point) -> float:
+    return math.hypot(max(abs(point[0]) - PIN_HALF_MM, 0.0), max(abs(point[1]) - PIN_HALF_MM, 0.0))
+
+
 def ambiguous_names(rete, words):
     dots = {e.values["name"]: e for e in rete.elements if e.role == "star" and e.stroke != "none"}
     leaders = {e.values["name"]: e for e in rete.elements if e.role == "star_leader"}
@@ -57,6 +77,11 @@ def ambiguous_names(rete, words):
     for name, box in boxes.items():
         own = dots[name]
         own_mm = _reading_mm(own.geom["at"], own.values["radius_mm"], box)
+        if _under_pin(own) and _beside_pin(box):
+            # the dot under the pin's crosshair is punched out with the pin
+            # hole: a name right beside the crosshair reads from its edge
+            own_mm = min(own_mm, min(_gap_to_pin((x, (box[1] + box[3]) / 2)) for x in (box[0], box[2],
+                                                                                       (box[0] + box[2]) / 2)))
         mark_mm = _reading_mm(leaders[name].geom["to"], 0.0, box) if name in leaders else own_mm
         within = LOOSE_WITHIN_MM if own.values["mag"] <= FIRST_MAGNITUDE else AMBIGUOUS_WITHIN_MM
         for other, dot in dots.items():

@@ -240,7 +240,7 @@ def leader_ends(point, box, start_mm: float, gap_mm: float = MARGIN_MM):
 
 def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), inside_radius_mm=None,
                  keep_out_rings=(), *, measure, leaders_from_mm=None, own_boxes=None, marks=(), loose=(),
-                 kept=None, lines_along=()):
+                 kept=None, lines_along=(), from_marks=False):
     """For each point (in order of importance) the (at, anchor) of its
     label: right, left, above, below the point or at a corner, at the
     offset or (when those are taken) farther out, the first of these whose
@@ -275,14 +275,17 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
     the ``marks`` (boxes kept out, such as the pin's crosshair: a leader
     from it would cross the mark) reads its name alone out to the
     farthest near place, :data:`NEAR_FIRST`'s last, beside the mark
-    (#12: Polaris, under the pin of a northern A5 rete, had no name).
-    The points of ``loose`` (indices) keep other dots only
+    (#12: Polaris, under the pin of a northern A5 rete, had no name);
+    with ``from_marks``, such a point is read as its name's from the
+    mark's edge rather than from its dot (the mark is what a pupil sees
+    there), for a name that the dot's distance leaves nearer no dot by
+    :data:`NEARER_BY_MM`.  The points of ``loose`` (indices) keep other dots only
     :data:`LOOSE_BESIDE_OFFSETS` and :data:`LOOSE_OVER_OFFSETS` from their
     names' ends and middles: a bright star named so rather than not at all.
     ``kept``, a dict shared by calls that differ in ``texts`` and ``loose``
     alone (a rete's names placed again, some of them shortened), keeps
     each point's places and the tests of them that do not depend on what
-    is chosen, by (point, text, loosely), for the next call (#12): the
+    is chosen, by (point, text, loosely, from a mark), for the next call (#12): the
     same places, found once.  No leader runs along a line of ``lines_along``
     ((p, q, half_width_mm) segments, such as the rete's sign bounds):
     :func:`runs_along`."""
@@ -304,7 +307,9 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
         dots.add(j, (px, py, px, py), j)
     dot_mm = max(leaders_from_mm, default=0.0) if with_leaders else 0.0
     # how far out each point's name reads alone: farther for one under a mark
-    alone = [NEAR_FIRST[-1] if any(_box_gap_mm(m, p, 0.0) == 0.0 for m in marks) else ALONE_REACH for p in points]
+    under = [[m for m in marks if _box_gap_mm(m, p, 0.0) == 0.0] for p in points]
+    alone = [NEAR_FIRST[-1] if over_it else ALONE_REACH for over_it in under]
+    own_mark = [over_it[0] if from_marks and over_it else None for over_it in under]
     slack = SEARCH_SLACK_MM
     loose = frozenset(loose)
     beside_mm = [(LOOSE_BESIDE_OFFSETS if j in loose else BESIDE_OFFSETS) * offset_mm for j in range(len(points))]
@@ -340,7 +345,7 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
         inside ``inside_radius_mm`` and off the rings kept out, reads as
         its point's, its leader, and whether that passes another dot or
         crosses a ring kept out."""
-        found = tried.setdefault((k, texts[k], k in loose), [])
+        found = tried.setdefault((k, texts[k], k in loose, from_marks and bool(under[k])), [])
         for n, (some, needs_leader) in enumerate(_place_blocks(reaches, with_leaders, alone[k])):
             if n == len(found):
                 (x, y), text = points[k], texts[k]
@@ -384,7 +389,7 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
                 continue
             if with_leaders:
                 if not needs_leader and not _once(memo, ("own", i), _nearest_own, box, k, points, leaders_from_mm,
-                                                  dots, dot_mm, beside_mm[k], over_mm[k]):
+                                                  dots, dot_mm, beside_mm[k], over_mm[k], own_mark[k]):
                     continue
                 # (the other dots first: that test is kept for the place,
                 # and turns down more places since the rule of dots past a
@@ -416,7 +421,7 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
                 if any(runs_along(leader, line) for line in lines_along):
                     continue
                 if unclear(k, _once(memo, ("rivals", i), _rivals, box, k, points,
-                                    leaders_from_mm, dots, dot_mm, leader, within_mm[k])):
+                                    leaders_from_mm, dots, dot_mm, leader, within_mm[k], own_mark[k])):
                     continue
                 crossed = _once(memo, ("crossed", i), _rings_met, leader, keep_out_rings)
                 if crossed:
@@ -426,7 +431,7 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
                     continue
             elif with_leaders \
                     and unclear(k, _once(memo, ("rivals", i), _rivals, box, k, points, leaders_from_mm, dots, dot_mm,
-                                         None, within_mm[k])):
+                                         None, within_mm[k], own_mark[k])):
                 continue
             return (at, anchor, box, leader)
         return across
@@ -497,7 +502,8 @@ def place_labels(points, texts, size_pt: float, offset_mm: float, keep_out=(), i
         settled = True
         for _ in range(len(points)):
             unsure = [k for k, c in chosen.items()
-                      if unclear(k, _rivals(c[2], k, points, leaders_from_mm, dots, dot_mm, c[3], within_mm[k]))]
+                      if unclear(k, _rivals(c[2], k, points, leaders_from_mm, dots, dot_mm, c[3], within_mm[k],
+                                            own_mark[k]))]
             if not unsure:
                 break
             for k in unsure:
@@ -662,7 +668,7 @@ def _link(point, box):
 
 
 def _nearest_own(box, k: int, points, radii_mm, dots, dot_mm: float, beside_mm: float = 0.0,
-                 over_mm: float = 0.0) -> bool:
+                 over_mm: float = 0.0, own_mark=None) -> bool:
     """Whether the box lies nearer point ``k``'s dot than any other
     point's, by :data:`NEARER_BY_MM` at least, and no other dot stands
     beside one of its ends, level with its words, within ``beside_mm``:
@@ -670,8 +676,12 @@ def _nearest_own(box, k: int, points, radii_mm, dots, dot_mm: float, beside_mm: 
     beside a point being where a name is looked for first (common practice
     in map labelling; #12: "Alioth" beside Dubhe's dot, its own below it).
     Only the points of the grid ``dots`` near enough to fail are tested
-    (``dot_mm``: the widest dot's radius)."""
+    (``dot_mm``: the widest dot's radius); with ``own_mark`` (the box of
+    a mark over point ``k``'s dot), a box beside the mark (:func:`_beside_mark`)
+    is measured from the mark."""
     own = _box_gap_mm(box, points[k], radii_mm[k])
+    if own_mark is not None and _beside_mark(box, own_mark):
+        own = min(own, _boxes_gap_mm(box, own_mark))
     reach = max(own + NEARER_BY_MM, beside_mm, over_mm) + dot_mm + SEARCH_SLACK_MM
     for j in dots.near(box, max(reach, 0.0)):
         if j == k:
@@ -681,6 +691,19 @@ def _nearest_own(box, k: int, points, radii_mm, dots, dot_mm: float, beside_mm: 
         if _reads_as_its(box, points[j], radii_mm[j], beside_mm, over_mm):
             return False
     return True
+
+
+def _beside_mark(box, mark) -> bool:
+    """Whether a name's box stands right beside a mark, where a name reads
+    as the mark's: over or under its middle (the words spanning it) or
+    level with its middle; not off to one side of it nor off a corner."""
+    cx, cy = (mark[0] + mark[2]) / 2, (mark[1] + mark[3]) / 2
+    return box[0] <= cx <= box[2] or box[1] <= cy <= box[3]
+
+
+def _boxes_gap_mm(a, b) -> float:
+    """Paper (mm) between two boxes."""
+    return math.hypot(max(a[0] - b[2], b[0] - a[2], 0.0), max(a[1] - b[3], b[1] - a[3], 0.0))
 
 
 def _reading_mm(point, radius_mm: float, box) -> float:
@@ -693,15 +716,19 @@ def _reading_mm(point, radius_mm: float, box) -> float:
     return min(math.hypot(point[0] - x, point[1] - yc) for x in (x0, (x0 + x1) / 2, x1)) - radius_mm
 
 
-def _rivals(box, k: int, points, radii_mm, dots, dot_mm: float, leader=None, within_mm=AMBIGUOUS_WITHIN_MM):
+def _rivals(box, k: int, points, radii_mm, dots, dot_mm: float, leader=None, within_mm=AMBIGUOUS_WITHIN_MM,
+            own_mark=None):
     """(own mark, reach, rivals) of a name's box for point ``k``: the
     :func:`_reading_mm` of its own mark (the dot, or the end of the
     ``leader`` at the name), the reach within which an unclaimed dot makes
     it ambiguous (:data:`CLEARLY_OWN_RATIO` times its own dot's, at most
     :data:`AMBIGUOUS_WITHIN_MM`), and (j, mm) of each other dot within
     that reach (of the points of the grid ``dots`` near it; ``dot_mm``:
-    the widest dot's radius)."""
+    the widest dot's radius; ``own_mark`` as for :func:`_nearest_own`)."""
     own_mm = _reading_mm(points[k], radii_mm[k], box)
+    if own_mark is not None and _beside_mark(box, own_mark):
+        x0, y0, x1, y1 = box
+        own_mm = min(own_mm, min(_box_gap_mm(own_mark, (x, (y0 + y1) / 2), 0.0) for x in (x0, (x0 + x1) / 2, x1)))
     mark_mm = own_mm if leader is None else _reading_mm(leader[1], 0.0, box)
     reach = min(within_mm, CLEARLY_OWN_RATIO * own_mm)
     out = []

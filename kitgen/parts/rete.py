@@ -228,8 +228,9 @@ def rete(ctx: PartContext) -> model.Part:
     bounds = [(e.geom["from"], e.geom["to"], stroke_width_mm(e.stroke, d) / 2) for e in els
               if e.role == "ecliptic_tick" and e.values["longitude_deg"] % 30 == 0 and e.stroke != "none"]
 
-    def place(texts, loose=()):
+    def place(texts, loose=(), from_marks=False):
         return labels.place_labels(pts, texts, d.small_text_pt, d.tick_mm * 1.3, loose=loose, kept=tried,
+                                   from_marks=from_marks,
                                    keep_out=[pin_box] + zodiac_boxes + dot_boxes,
                                    inside_radius_mm=d.outer_tropic_radius_mm - labels.MARGIN_MM,
                                    keep_out_rings=[(tuple(c), image.radius_mm - band - edge_in,
@@ -283,6 +284,22 @@ def rete(ctx: PartContext) -> model.Part:
 
         if named(loosely) > named(places):
             places = loosely
+    # The pole star still unnamed is named beside the pin's crosshair as
+    # the mark's (read from its edge, not from the dot under it), where
+    # that names it without naming fewer first-magnitude stars (#12: a
+    # long name, "Полярная", 8 mm, on an A5 rete stood 2.8 mm from its dot
+    # and so nearer no other dot by the rule's half millimetre).
+    # Its name on one line first, then as the searches above set it.
+    pole = [i for i, k in enumerate(lead) if stars[k].star.label == POLE_STAR and places[i] is None]
+    forms = [f for name in ([alone[pole[0]], short[pole[0]]] if pole else []) if name
+             for f in (name, _in_two_lines(w, name, d.small_text_pt))]
+    for form in dict.fromkeys(forms):
+        tried_names = [form if i == pole[0] else name for i, name in enumerate(names)]
+        marked = place(tried_names, loose, from_marks=True)
+        if marked[pole[0]] is not None and sum(marked[i] is not None for i in bright) >= \
+                sum(places[i] is not None for i in bright):
+            names, places = tried_names, marked
+            break
     where_of = dict(zip(lead, places))
     for k, (placed, p) in enumerate(zip(stars, all_pts)):
         first = groups[k]
