@@ -84,6 +84,10 @@ RIM_SLIDES_MM = (0.0, 0.5, -0.5, 1.0, -1.0)
 #: How far (mm) along its own line from its horizon point the leader of an
 #: azimuth's number with no room on its line may meet the line instead.
 LED_ALONG_MM = 4.0
+#: How far (mm) along its own line above the horizon an owed azimuth's
+#: number laid along the horizon may stand from its point: in the band
+#: below the first almucantar (:meth:`PlateLabeller._along_horizon`).
+ALONG_HORIZON_MM = 3.0
 #: The longest such leader (mm, a choice: a number farther from its line
 #: is hard to follow to it).
 LED_MOST_MM = 4.0
@@ -995,7 +999,8 @@ class PlateLabeller:
                 # (near the equator the azimuths meet the horizon close
                 # together among the tropics, and on an A5 plate among the
                 # almucantars, where no number fits on a line).
-                return self._led_number(p0, text, size, az, own) or self.left_out(text)
+                return self._led_number(p0, text, size, az, own) \
+                    or self._along_horizon(p0, A, phi, s, R, own, protected, text, size, az) or self.left_out(text)
             return None
         rim_ends = [(el, end) for el in own for end in _ends(el)
                     if abs(math.hypot(*end) - (self.room.disc + MARGIN_MM)) < 1e-3]
@@ -1019,6 +1024,30 @@ class PlateLabeller:
             if b is not None:
                 return self.put("azimuth_label", b, text, size, azimuth_deg=float(az))
         return self._azimuth_missing(az, text)
+
+    def _along_horizon(self, p0, A: float, phi: float, s: int, R: float, own, protected, text: str,
+                       size_pt: float, az: float):
+        """An owed azimuth's number set along the horizon just above its
+        horizon point ``p0``, on its own line (broken round it), in the band
+        between the horizon and the first almucantar, turned to read upright:
+        where the horizon runs steeply among crowded lines an upright number
+        finds no room, but a band, about 2 mm wide, holds one laid along it
+        (#12: on A5 plates at 45 to 52 N the 120 and 240 deg numbers, their
+        points near the rim among the horizon's, the almucantars' and the
+        hour lines' ends, had been left out).  ``A``, ``phi``: the azimuth
+        and latitude (radians); ``s``, ``R`` as for the projection.  None
+        where the band has no room."""
+        ext = self.w.measure(text, size_pt)
+        step = 1e-3
+        a, b = (project_vectors(horizontal_vector(0.0, A + d, phi), s, R) for d in (-step, step))
+        turn = upright(math.atan2(b[1] - a[1], b[0] - a[0]))
+        box = Box((0.0, 0.0), turn, ext.width_mm / 2, ext.height_mm / 2)
+        for x, y, _ in (c for el in own for c in points_along(el, p0, STEP_MM / 2, ALONG_HORIZON_MM)):
+            placed = box.moved((x, y))
+            if self.room.inside(placed) and self.room.clear_of_labels(placed) \
+                    and self.room.clear_of(placed, protected):
+                return self.put("azimuth_label", placed, text, size_pt, azimuth_deg=float(az))
+        return None
 
     def _beyond_rim(self, end, ext, apart: bool) -> Box | None:
         """A box for a number of extent ``ext`` in the ring between the
