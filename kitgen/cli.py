@@ -564,11 +564,13 @@ def _check_stdout_not_input(*inputs) -> None:
     When it is stderr, the refusal itself goes to stdout (:func:`_tell`),
     so that not even it is written into the input."""
     global _stderr_is_input
-    for stream, key in ((sys.stdout, "errors.stdout_is_input"), (sys.stderr, "errors.stderr_is_input")):
-        path = _input_at(stream, inputs)
-        if path is not None:
-            _stderr_is_input = stream is sys.stderr
-            raise UserError(key, path=path)
+    path = _input_at(sys.stdout, inputs)
+    if path is not None:
+        raise UserError("errors.stdout_is_input", path=path)
+    path = _input_at(sys.stderr, inputs)
+    if path is not None:
+        _stderr_is_input = True
+        raise UserError("errors.stderr_is_input", path=path)
 
 
 #: Set once stderr is found to be an input file: :func:`_tell` then says

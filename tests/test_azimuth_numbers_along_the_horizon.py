@@ -96,3 +96,21 @@ def test_a_number_along_the_horizon_is_on_its_line_and_clear_of_the_others(recip
                     and not (e.role == "azimuth" and abs(e.values["azimuth_deg"] - az) < 1e-9):
                 gap = ink.distance(stroke_line(e)) - stroke_width_mm(e.stroke, kit.dims) / 2
                 assert gap >= MARGIN_MM, (label.geom["text"], e.role, round(gap, 3))
+
+
+#: The least paper (mm) between a curve's name and a number laid along the
+#: horizon, less rounding: 1.5 mm read as one label, "Horizon 240°" (a
+#: teacher's look at these plates; a choice, kitgen.parts.plate_labels.LAID_APART_MM).
+NAME_APART_MM = 3.0 - 0.3
+
+
+@pytest.mark.parametrize("recipe", RECIPES, ids=lambda r: f"{r['language']}-{r['latitude']}")
+def test_no_curve_name_runs_on_from_a_number_along_the_horizon(recipe):
+    kit, plate = _plate(recipe)
+    rim_mm = kit.dims.outer_tropic_radius_mm
+    laid = [text_polygon(e.geom, kit.words) for e in plate.elements if e.role == "azimuth_label"
+            and abs(e.geom["angle_deg"]) > 1.0 and math.hypot(*e.geom["at"]) < rim_mm]
+    names = [(e.geom["text"], text_polygon(e.geom, kit.words)) for e in plate.elements if e.role == "curve_label"]
+    assert laid and names
+    for text, ink in names:
+        assert min(ink.distance(n) for n in laid) >= NAME_APART_MM, text

@@ -88,6 +88,10 @@ LED_ALONG_MM = 4.0
 #: number laid along the horizon may stand from its point: in the band
 #: below the first almucantar (:meth:`PlateLabeller._along_horizon`).
 ALONG_HORIZON_MM = 3.0
+#: The least room (mm) along a curve between its name and an azimuth's
+#: number laid along the horizon: 1.5 mm read as one label, "Horizon
+#: 240°" (a teacher's look, #12; a choice).
+LAID_APART_MM = 3.0
 #: The longest such leader (mm, a choice: a number farther from its line
 #: is hard to follow to it).
 LED_MOST_MM = 4.0
@@ -639,6 +643,7 @@ class PlateLabeller:
         #: The azimuths' numbers set on their lines continued below the
         #: horizon: (its element, its box, the horizon point, its own lines).
         self.continued: list[tuple] = []
+        self.laid: list[Box] = []   # the azimuths' numbers laid along the horizon (_along_horizon)
         # The meridian and the east-west line (and the azimuths drawn along
         # them): numbers stand beside them, MARGIN_MM off.
         self.reference = [e for e in self.els if e.role in ("meridian", "east_west")
@@ -1046,6 +1051,7 @@ class PlateLabeller:
             placed = box.moved((x, y))
             if self.room.inside(placed) and self.room.clear_of_labels(placed) \
                     and self.room.clear_of(placed, protected):
+                self.laid.append(placed)
                 return self.put("azimuth_label", placed, text, size_pt, azimuth_deg=float(az))
         return None
 
@@ -1312,6 +1318,9 @@ class PlateLabeller:
                 can = places.inside(room)
                 if apart:
                     can &= self._apart_turned(places, BELOW_APART_MM)
+                for b in self.laid:   # (a name and a number along one curve read as one label)
+                    can &= np.hypot(places.x - b.center[0], places.y - b.center[1]) - places.half_w - b.half_w \
+                        >= LAID_APART_MM
                 for run in _runs(len(places), 32, 512):
                     idx = run[can[run]]
                     b, best = self._name_place(places, idx, (near, protected, named, thin), best, named_clear)

@@ -493,9 +493,10 @@ def _refuse_unprintable(value: str, label) -> None:
     (:func:`_text_problem`), naming it as what it is: a control character,
     or half of a UTF-16 surrogate pair without its other half."""
     bad = _text_problem(value)
+    if bad and unicodedata.category(bad) == "Cs":
+        raise UserError("errors.lone_surrogate", label=label, code=f"{ord(bad):04X}")
     if bad:
-        key = "errors.lone_surrogate" if unicodedata.category(bad) == "Cs" else "errors.control_character"
-        raise UserError(key, label=label, code=f"{ord(bad):04X}")
+        raise UserError("errors.control_character", label=label, code=f"{ord(bad):04X}")
 
 
 class KeyHelp(Message):
