@@ -114,3 +114,52 @@ def test_no_curve_name_runs_on_from_a_number_along_the_horizon(recipe):
     assert laid and names
     for text, ink in names:
         assert min(ink.distance(n) for n in laid) >= NAME_APART_MM, text
+
+
+#: How far (mm) along its line's undrawn continuation below the horizon a
+#: number between the thirties may stand from its horizon point, with the
+#: search's step: farther, a pupil carries the line on by eye past other
+#: lines and may take it for a neighbour's (a teacher's look found "45°"
+#: 11 to 14 mm from its line's end among the hour lines; a choice,
+#: kitgen.parts.plate_labels.CONTINUED_MM).
+CONTINUED_MM = 5.0 + 0.3
+
+
+@pytest.mark.parametrize("recipe", [
+    {"latitude": 48.2, "language": "de", "sheet": "a5"},
+    {"latitude": 40.4, "language": "es", "sheet": "a4"},
+    {"latitude": -52.4, "language": "hi", "sheet": "a4", "twilight": ["civil", "nautical"]},
+    {"latitude": -45.4, "language": "ar", "sheet": "a4"},
+    {"latitude": -19.6, "language": "it", "sheet": "a5"},
+    {"latitude": 52.0, "language": "de", "sheet": "letter", "twilight": "civil"},
+], ids=lambda r: f"{r['language']}-{r['latitude']}")
+def test_a_number_between_the_thirties_stands_near_its_horizon_point(recipe):
+    kit, plate = _plate(recipe)
+    equator_mm, rim_mm = kit.dims.equator_radius_mm, kit.dims.outer_tropic_radius_mm
+    lines = [e for e in plate.elements if e.role == "azimuth" and e.stroke != "none" and e.shape == "arc"]
+    led = {e.values["azimuth_deg"] for e in plate.elements if e.role == "azimuth_leader"}
+    horizon = next(e for e in plate.elements if e.role == "horizon" and e.shape in ("arc", "circle"))
+    zenith = next(e for e in plate.elements if e.role == "zenith").geom["at"]
+
+    def above(p) -> bool:   # on the zenith's side of the horizon's circle
+        (hx, hy), hr = horizon.geom["center"], horizon.geom["radius"]
+        return (math.hypot(p[0] - hx, p[1] - hy) < hr) == (math.hypot(zenith[0] - hx, zenith[1] - hy) < hr)
+
+    checked = 0
+    for label in plate.elements:
+        az = label.values.get("azimuth_deg")
+        if label.role != "azimuth_label" or az % 30 == 0 or az in led or math.hypot(*label.geom["at"]) >= rim_mm \
+                or above(label.geom["at"]):   # (on its own drawn line, above the horizon)
+            continue
+        own = [e for e in lines if abs(e.values["azimuth_deg"] - az) < 1e-9]
+        (x, y) = label.geom["at"]
+        # its horizon point: the end of its drawn line at the horizon's radius there (Meeus 13.6, Snyder 21-4)
+        point_mm = _horizon_point_radius_mm(recipe["latitude"], az, equator_mm)
+        ends = [(cx + r * math.cos(math.radians(t)), cy + r * math.sin(math.radians(t)))
+                for e in own for (cx, cy), r, t in [(e.geom["center"], e.geom["radius"], t)
+                                                    for t in (e.geom["start_deg"], e.geom["end_deg"])]]
+        at_horizon = [p for p in ends if abs(math.hypot(*p) - point_mm) < 0.05]
+        assert at_horizon, label.geom["text"]
+        assert min(math.dist((x, y), p) for p in at_horizon) <= CONTINUED_MM, label.geom["text"]
+        checked += 1
+    assert checked

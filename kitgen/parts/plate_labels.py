@@ -67,6 +67,15 @@ ROUND_STEP_MM = 0.5
 NEAR_MM = 2.5
 #: How far (mm, along its curve) a number may slide from where it belongs.
 SLIDE_MM = 12.0
+#: How far (mm) along its line's undrawn continuation below the horizon
+#: an azimuth's number stands from its horizon point before its own line,
+#: a leader or the horizon are tried: farther a pupil must carry the line
+#: on by eye past other lines, and may take the number for a neighbour's
+#: (#12 review: "30°" 10.5 mm below its point, past the twilight line and
+#: the tropic, on a Letter plate at 52 N); an optional number goes no
+#: farther, an owed one only where nothing nearer is found (out to
+#: :data:`SLIDE_MM`).
+CONTINUED_MM = 5.0
 #: Where across its band (as shares of the hour, from line k - 1) an
 #: unequal hour's number is sought: the middle first, at every declination
 #: between the tropics; then nearer one of its lines, where lines running
@@ -990,22 +999,29 @@ class PlateLabeller:
             # below the horizon, else on its own line just above it (broken
             # round it); an optional number only apart from the other numbers
             # (a number owed takes its first free place, as near its point as it can stand)
-            b, apart = self._first_free_apart(cands, text, size, protected, p0, not owed)
+            b, apart = self._first_free_apart([c for c in cands if math.dist(c[:2], p0_xy) < CONTINUED_MM], text,
+                                              size, protected, p0, not owed)
             if b is not None and (apart or owed):
-                el = self.put("azimuth_label", b, text, size, azimuth_deg=float(az))
-                self.continued.append((el, b, p0, own))
-                return el
+                return self._continued(b, text, size, az, p0, own)
             b, apart = self._first_free_apart([c for el in own for c in points_along(el, p0)], text, size,
                                               protected, p0, not owed)
             if b is not None and (apart or owed):
                 return self.put("azimuth_label", b, text, size, azimuth_deg=float(az))
             if owed:
-                # Owed a number: beside its horizon point with a leader to it
-                # (near the equator the azimuths meet the horizon close
-                # together among the tropics, and on an A5 plate among the
-                # almucantars, where no number fits on a line).
-                return self._led_number(p0, text, size, az, own) \
-                    or self._along_horizon(p0, A, phi, s, R, own, protected, text, size, az) or self.left_out(text)
+                # Owed a number: laid along the horizon on its own line, else
+                # farther on the line's continuation, else beside its
+                # horizon point with a leader to it (near the equator the
+                # azimuths meet the horizon close together among the
+                # tropics, and on an A5 plate among the almucantars, where
+                # no number fits on a line).
+                got = self._along_horizon(p0, A, phi, s, R, own, protected, text, size, az)
+                if got is not None:
+                    return got
+                b = self.first_free([c for c in cands if math.dist(c[:2], p0_xy) >= CONTINUED_MM], text, size,
+                                    protected)
+                if b is not None:
+                    return self._continued(b, text, size, az, p0, own)
+                return self._led_number(p0, text, size, az, own) or self.left_out(text)
             return None
         rim_ends = [(el, end) for el in own for end in _ends(el)
                     if abs(math.hypot(*end) - (self.room.disc + MARGIN_MM)) < 1e-3]
@@ -1029,6 +1045,13 @@ class PlateLabeller:
             if b is not None:
                 return self.put("azimuth_label", b, text, size, azimuth_deg=float(az))
         return self._azimuth_missing(az, text)
+
+    def _continued(self, b: Box, text: str, size_pt: float, az: float, p0, own):
+        """Put an azimuth's number at ``b`` on its line continued below the
+        horizon (``p0``, its point there; ``own``, its line's pieces)."""
+        el = self.put("azimuth_label", b, text, size_pt, azimuth_deg=float(az))
+        self.continued.append((el, b, p0, own))
+        return el
 
     def _along_horizon(self, p0, A: float, phi: float, s: int, R: float, own, protected, text: str,
                        size_pt: float, az: float):
