@@ -1,12 +1,17 @@
-"""No unequal hour's number stands beside a cardinal letter on the plate
-(#12 review: hour 1 set 1 mm before the Portuguese west point "O" read
-as "10"; the Russian "З" beside "2" read as a number).
+"""No number stands beside a cardinal letter on the plate (#12 review:
+hour 1 set 1 mm before the Portuguese west point "O" read as "10"; the
+Russian "З" beside "2" read as a number; a teacher's look: the French
+west "O" 2.9 mm after an almucantar's "10" read as "100", an optional
+"15°" beside "N" as a latitude).
 
 Common practice in lettering: words of different things stand further
-apart along a line than the words of one name, so two labels side by
-side keep 2 mm (the kit's own rule for names side by side,
-``labels.NAME_GAP_ALONG_MM``).  Widths and heights are the shipped
-fonts' ink, measured as the PDF sets them (``Words.measure``).
+apart along a line than the words of one name; a letter shaped like a
+digit beside a number keeps twice the kit's own gap for names side by
+side (``labels.NAME_GAP_ALONG_MM``, 2 mm): 4 mm, a choice.  The numbers
+checked are the hours', the almucantars' and the azimuths' between the
+thirties (an owed thirty keeps its place by its point).  Widths and
+heights are the shipped fonts' ink, measured as the PDF sets them
+(``Words.measure``).
 """
 
 from __future__ import annotations
@@ -16,7 +21,7 @@ import pytest
 from kitgen.kit import build_kit
 from kitgen.recipe.load import parse_recipe_text
 
-ALONG_MM = 2.0
+ALONG_MM = 4.0 - 0.01
 
 
 @pytest.mark.parametrize("head", [
@@ -26,15 +31,19 @@ ALONG_MM = 2.0
     "latitude: -27\nlanguage: fr\nsheet: a5\n",
     "latitude: 31\nlanguage: en\nsheet: a5\n",
     "latitude: 19.4\nlanguage: es\ndiameter_mm: 140\n",
+    "latitude: 47.4\nlanguage: fr\nsheet: a5\ntwilight: [civil, nautical]\n",   # "10 O"
+    "latitude: 52\nlanguage: de\nsheet: letter\ntwilight: civil\n",            # "15° N"
 ])
-def test_no_hour_number_stands_beside_a_cardinal_letter(head):
+def test_no_number_stands_beside_a_cardinal_letter(head):
     kit = build_kit(parse_recipe_text(head + "parts: [plate]\n"))
     plate = kit.part("plate")
     cards = plate.with_role("cardinal")
     hours = plate.with_role("unequal_hour_label")
     assert len(cards) >= 3 and len(hours) >= 9
+    numbers = hours + plate.with_role("almucantar_label") + [
+        e for e in plate.with_role("azimuth_label") if e.values["azimuth_deg"] % 30]
     beside = []
-    for h in hours:
+    for h in numbers:
         hw = kit.words.measure(h.geom["text"], h.geom["size_pt"])
         for c in cards:
             cw = kit.words.measure(c.geom["text"], c.geom["size_pt"])

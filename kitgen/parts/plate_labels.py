@@ -118,13 +118,15 @@ LED_REACH_MM = LED_MOST_MM + 2 * MARGIN_MM + 2.5
 NEAR_SLIDE_MM = 4.0
 #: Step (mm) between the places tried.
 STEP_MM = 0.25
-#: Paper (mm) along its row between an unequal hour's number and a
-#: cardinal letter level with it: the labels' gap for names side by side
-#: (kitgen.parts.labels.NAME_GAP_ALONG_MM), since nearer the two read as
-#: one word, and a letter shaped like a digit reads as one (#12 review:
-#: "1 O", hour 1 beside the Portuguese west point, read as "10"; the
-#: Russian "З" beside "2").
-CARDINAL_APART_MM = NAME_GAP_ALONG_MM
+#: Paper (mm) along its row between a number (an unequal hour's, an
+#: almucantar's, an azimuth's) and a cardinal letter level with it: twice
+#: the labels' gap for names side by side (kitgen.parts.labels.NAME_GAP_ALONG_MM),
+#: since a letter shaped like a digit reads as one of the number's
+#: digits (#12 review: "1 O", hour 1 beside the Portuguese west point,
+#: read as "10"; the Russian "З" beside "2"; a teacher's look: the French
+#: west "O" 2.9 mm from an almucantar's "10" read as "100", "15° N" as a
+#: latitude).
+CARDINAL_APART_MM = 2 * NAME_GAP_ALONG_MM
 #: Least gap (mm) between an azimuth's number at its line's end on the rim
 #: and an almucantar's or an unequal hour's number, where the rim leaves
 #: such a place: nearer, the two read as one stack and a pupil cannot tell
@@ -829,9 +831,13 @@ class PlateLabeller:
         tries = [(NEAR_SLIDE_MM, protected), (NEAR_SLIDE_MM, grid), (SLIDE_MM, protected), (SLIDE_MM, grid),
                  (NEAR_SLIDE_MM, named), (SLIDE_MM, named)] if number_everywhere else [(SLIDE_MM, protected)]
         placed = []
+        ext = self.w.measure(text, size)
         for el, a in self._almucantar_anchors(els, number_everywhere):
             b = None
-            along = {reach: points_along(el, a, reach_mm=reach) for reach in {reach for reach, _ in tries}}
+            # (not level with a cardinal letter: "10 O", the French west beside a 10, read as 100)
+            along = {reach: self._apart_from_cardinals(points_along(el, a, reach_mm=reach), ext.width_mm / 2,
+                                                       ext.height_mm / 2)
+                     for reach in {reach for reach, _ in tries}}
             unfree: dict[int, set] = {}   # by list of lines: the places found not free (a farther reach repeats them)
             for reach, lines in tries:
                 b = b or self.first_free(along[reach], text, size, lines, unfree=unfree.setdefault(id(lines), set()))
@@ -999,12 +1005,18 @@ class PlateLabeller:
             # below the horizon, else on its own line just above it (broken
             # round it); an optional number only apart from the other numbers
             # (a number owed takes its first free place, as near its point as it can stand)
-            b, apart = self._first_free_apart([c for c in cands if math.dist(c[:2], p0_xy) < CONTINUED_MM], text,
-                                              size, protected, p0, not owed)
+            ext = self.w.measure(text, size)
+            # (an optional number not level with a cardinal letter: "15° N" reads as a latitude)
+            near_cands = [c for c in cands if math.dist(c[:2], p0_xy) < CONTINUED_MM]
+            if not owed:
+                near_cands = self._apart_from_cardinals(near_cands, ext.width_mm / 2, ext.height_mm / 2)
+            b, apart = self._first_free_apart(near_cands, text, size, protected, p0, not owed)
             if b is not None and (apart or owed):
                 return self._continued(b, text, size, az, p0, own)
-            b, apart = self._first_free_apart([c for el in own for c in points_along(el, p0)], text, size,
-                                              protected, p0, not owed)
+            on_line = [c for el in own for c in points_along(el, p0)]
+            if not owed:
+                on_line = self._apart_from_cardinals(on_line, ext.width_mm / 2, ext.height_mm / 2)
+            b, apart = self._first_free_apart(on_line, text, size, protected, p0, not owed)
             if b is not None and (apart or owed):
                 return self.put("azimuth_label", b, text, size, azimuth_deg=float(az))
             if owed:
@@ -1276,7 +1288,8 @@ class PlateLabeller:
     def _apart_from_cardinals(self, cands, half_w: float, half_h: float) -> list:
         """The candidates (x, y, ...) where an upright box of these half
         sizes keeps :data:`CARDINAL_APART_MM` along its row from every
-        cardinal letter level with it (their heights overlapping)."""
+        cardinal letter level with it (their heights overlapping): a
+        number's, whether an hour's, an almucantar's or an azimuth's."""
         letters = self.boxes.get("cardinal", [])
         return [c for c in cands
                 if not any(abs(c[1] - t.center[1]) < half_h + t.half_h
