@@ -1069,7 +1069,8 @@ class PlateLabeller:
                        size_pt: float, az: float):
         """An owed azimuth's number set along the horizon just above its
         horizon point ``p0``, on its own line (broken round it), in the band
-        between the horizon and the first almucantar, turned to read upright:
+        between the horizon and the first almucantar, else just below it on
+        the line continued, turned to read upright:
         where the horizon runs steeply among crowded lines an upright number
         finds no room, but a band, about 2 mm wide, holds one laid along it
         (#12: on A5 plates at 45 to 52 N the 120 and 240 deg numbers, their
@@ -1082,7 +1083,12 @@ class PlateLabeller:
         a, b = (project_vectors(horizontal_vector(0.0, A + d, phi), s, R) for d in (-step, step))
         turn = upright(math.atan2(b[1] - a[1], b[0] - a[0]))
         box = Box((0.0, 0.0), turn, ext.width_mm / 2, ext.height_mm / 2)
-        for x, y, _ in (c for el in own for c in points_along(el, p0, STEP_MM / 2, ALONG_HORIZON_MM)):
+        # above the horizon on its line, else just below it on the line continued
+        alts = np.radians(-np.arange(0.05, 10.0, 0.05))
+        below = project_vectors(horizontal_vector(alts, np.full_like(alts, A), phi), s, R).tolist()
+        cands = [(x, y) for el in own for x, y, _ in points_along(el, p0, STEP_MM / 2, ALONG_HORIZON_MM)] \
+            + [(x, y) for x, y in below if math.dist((x, y), p0) <= ALONG_HORIZON_MM]
+        for x, y in cands:
             placed = box.moved((x, y))
             if self.room.inside(placed) and self.room.clear_of_labels(placed) \
                     and self.room.clear_of(placed, protected):
