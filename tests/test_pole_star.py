@@ -41,7 +41,11 @@ def _pyephem_dec_deg(year: int) -> float:
                                   "latitude: 40\nsheet: a5\nlanguage: ru\n", "latitude: 45\ndiameter_mm: 100\n",
                                   "latitude: 55\ndiameter_mm: 100\nlanguage: el\n",
                                   "latitude: 35\ndiameter_mm: 100\nlanguage: ar\n",
-                                  "latitude: 5\ndiameter_mm: 100\nlanguage: pt\n"])
+                                  "latitude: 5\ndiameter_mm: 100\nlanguage: pt\n",
+                                  # and with the looser reaches of a first-magnitude star where even so
+                                  # another dot stood just past its name's end (#12)
+                                  "latitude: 45\ndiameter_mm: 85\n", "latitude: 30\nsheet: a5\nlanguage: ru\n",
+                                  "latitude: 15\nsheet: a5\nlanguage: el\n", "latitude: 0.3\nsheet: letter\nlanguage: pt\n"])
 def test_a_northern_rete_carries_and_names_polaris(head):
     rete = _rete(head)
     stars = [e for e in rete.elements if e.role == "star"]

@@ -260,9 +260,12 @@ def test_each_name_reads_as_its_own_stars(head):
 
 def _loose(star) -> bool:
     """Whether the star is of the first magnitude (1.5 and brighter, as
-    the term is commonly used), whose name may keep other dots only the
+    the term is commonly used), or the pole star under the pin's crosshair
+    (which a pupil finds north by), whose name may keep other dots only the
     looser reaches where the strict ones leave it unnamed."""
-    return star.values["mag"] <= FIRST_MAGNITUDE
+    (x, y) = star.geom["at"]
+    return star.values["mag"] <= FIRST_MAGNITUDE or (star.values["name"] == "Polaris" and abs(x) <= PIN_HALF_MM
+                                                     and abs(y) <= PIN_HALF_MM)
 
 
 def _reads_as_its(dot, box, offset_mm: float, loose: bool = False) -> bool:

@@ -285,17 +285,19 @@ def rete(ctx: PartContext) -> model.Part:
         if named(loosely) > named(places):
             places = loosely
     # The pole star still unnamed is named beside the pin's crosshair as
-    # the mark's (read from its edge, not from the dot under it), where
-    # that names it without naming fewer first-magnitude stars (#12: a
-    # long name, "Полярная", 8 mm, on an A5 rete stood 2.8 mm from its dot
-    # and so nearer no other dot by the rule's half millimetre).
+    # the mark's (read from its edge, not from the dot under it), with the
+    # looser reaches of a first-magnitude star, where that names it without
+    # naming fewer first-magnitude stars (#12: a long name, "Полярная",
+    # 8 mm, on an A5 rete stood 2.8 mm from its dot and so nearer no other
+    # dot by the rule's half millimetre; on a Letter rete at 0.3 N Mirfak's
+    # dot stood 3.11 mm past the name's end, the strict reach 3.12 mm).
     # Its name on one line first, then as the searches above set it.
     pole = [i for i, k in enumerate(lead) if stars[k].star.label == POLE_STAR and places[i] is None]
     forms = [f for name in ([alone[pole[0]], short[pole[0]]] if pole else []) if name
              for f in (name, _in_two_lines(w, name, d.small_text_pt))]
     for form in dict.fromkeys(forms):
         tried_names = [form if i == pole[0] else name for i, name in enumerate(names)]
-        marked = place(tried_names, loose, from_marks=True)
+        marked = place(tried_names, sorted(set(loose) | {pole[0]}), from_marks=True)
         if marked[pole[0]] is not None and sum(marked[i] is not None for i in bright) >= \
                 sum(places[i] is not None for i in bright):
             names, places = tried_names, marked
