@@ -16,7 +16,7 @@ from ..parts.format import IN_SENTENCE, WITHIN_LINE, latitude_text
 from ..parts.plate import keyed
 from ..paper import CHECK_BAR_MM, content_area_mm
 from .figures import kit_figures
-from ..words.locale import format_date, zone_place
+from ..words.locale import format_date, true_minus, zone_place
 from .paragraphs import PAGE_BREAK, Block
 
 
@@ -168,12 +168,23 @@ def column_mm(pages) -> float:
     return x1 - x0
 
 
+#: The twilight a line of each altitude (degrees) ends (kitgen.recipe.twilight).
+TWILIGHT_KINDS = {-6.0: "civil", -12.0: "nautical", -18.0: "astronomical"}
+
+
 def glossary_blocks(kit) -> list[Block]:
     """A short glossary in pupils' words: the trade's terms the plate, the
-    rete and the instructions use (#9)."""
+    rete and the instructions use (#9); last, what the kit's plate's own
+    twilight lines mark (#12 review: a Russian kit with the -6 and -12 deg
+    lines explained only the -18 deg one)."""
     w = kit.words
+    items = list(w.items("instructions.glossary"))
+    lines = [w(f"instructions.twilight_line_{TWILIGHT_KINDS[alt]}", altitude=true_minus(w.number(alt)))
+             for alt in sorted(kit.plan.drawing.twilight_deg, reverse=True) if alt in TWILIGHT_KINDS]
+    if lines and "plate" in kit.plan.parts:
+        items.append(w("instructions.glossary_twilight_lines", lines=w("page.list_separator").join(lines)))
     return ([Block("heading", w("instructions.glossary_heading"))]
-            + [Block("item", s, "\u2022") for s in w.items("instructions.glossary")])
+            + [Block("item", s, "\u2022") for s in items])
 
 
 #: The mater's two faces: what the thread, the knife and the glue are for.

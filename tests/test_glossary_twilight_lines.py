@@ -1,0 +1,46 @@
+"""The glossary says what each twilight line drawn on the kit's plate
+marks, and no other (#12 review: a Russian kit with the -6 and -12 deg
+lines explained only the -18 deg one).
+
+The altitudes are the standard definitions of the ends of civil, nautical
+and astronomical twilight: the Sun's centre 6, 12 and 18 degrees below the
+horizon (Explanatory Supplement to the Astronomical Almanac, 3rd ed.,
+section on twilight; common practice on planispheres and almanacs alike).
+The glossary's item is found in the kit's own instruction pages, as
+laid out, in the words of each language.
+"""
+
+from __future__ import annotations
+
+import pytest
+
+from kitgen.kit import build_kit
+from kitgen.layout.instructions import glossary_blocks
+from kitgen.recipe.load import validate_recipe
+
+MINUS = "\u2212"
+
+
+def _twilight_item(recipe):
+    kit = build_kit(validate_recipe(dict(recipe, epoch=2027)))
+    head = kit.words("instructions.glossary_twilight_lines", lines="").split(":")[0].split("{")[0].strip()
+    found = [b.text for b in glossary_blocks(kit) if b.text.startswith(head[:12])]
+    return found
+
+
+@pytest.mark.parametrize("recipe, drawn, undrawn", [
+    ({"latitude": 55.8, "language": "ru", "sheet": "a5", "twilight": ["civil", "nautical"]}, (6, 12), (18,)),
+    ({"latitude": -33.9, "language": "en"}, (18,), (6, 12)),
+    ({"latitude": 24.5, "language": "ar", "twilight": ["civil", "nautical", "astronomical"]}, (6, 12, 18), ()),
+    ({"latitude": 48.1, "language": "de", "twilight": "nautical"}, (12,), (6, 18)),
+])
+def test_the_glossary_names_each_twilight_line_drawn(recipe, drawn, undrawn):
+    (item,) = _twilight_item(recipe)
+    for alt in drawn:
+        assert f"{MINUS}{alt}°" in item
+    for alt in undrawn:
+        assert f"{MINUS}{alt}°" not in item
+
+
+def test_no_twilight_lines_no_item():
+    assert _twilight_item({"latitude": 40.4, "language": "es", "twilight": "none"}) == []
