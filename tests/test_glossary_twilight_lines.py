@@ -4,8 +4,9 @@ lines explained only the -18 deg one).
 
 The altitudes are the standard definitions of the ends of civil, nautical
 and astronomical twilight: the Sun's centre 6, 12 and 18 degrees below the
-horizon (Explanatory Supplement to the Astronomical Almanac, 3rd ed.,
-section on twilight; common practice on planispheres and almanacs alike).
+horizon (the definitions of the Explanatory Supplement to the
+Astronomical Almanac, quoted from memory; common practice on planispheres
+and in almanacs alike).
 The glossary's item is found in the kit's own instruction pages, as
 laid out, in the words of each language.
 """
