@@ -358,7 +358,9 @@ def _floated_past(blocks, order, at: int, room_pt: float, after) -> list[int]:
     not fit the ``room_pt`` left at the page's foot: those that follow it
     in its own section (up to the next heading, picture, table, answer or
     page break), in order, as many as fill the room, but never the last
-    of them, nor a list's items but two on either side of the picture.
+    of them, nor a list's items but two on either side of the picture,
+    nor last one that leads in to what follows it (:func:`_leads_in`),
+    which the picture would part from its list.
     The picture then floats to the top of the next page, its section's
     text filling the foot of this one, where a page had been left a third
     empty, and some of that text still follows it there (common practice
@@ -382,6 +384,8 @@ def _floated_past(blocks, order, at: int, room_pt: float, after) -> list[int]:
         before = _run_length(blocks, out[::-1], kind)
         beyond = _run_length(blocks, section[len(out):], kind)
         out = out[:len(out) - _items_to_move(before, beyond, LIST_KEEPS_ITEMS)]
+    while out and _leads_in(blocks[out[-1]]):   # (#12: a Greek lead-in over the picture, its steps under it)
+        out.pop()
     return out
 
 
