@@ -52,3 +52,22 @@ def test_no_number_stands_beside_a_cardinal_letter(head):
             if level and gap < ALONG_MM:
                 beside.append((h.geom["text"], c.geom["text"], round(gap, 2)))
     assert not beside
+
+
+#: Letters that Unicode lists as confusable with a digit (UTS #39, Unicode
+#: Security Mechanisms, its confusables data; quoted from memory): the
+#: Cyrillic Ze with 3, Be with 6 and O with 0.
+DIGIT_LIKE = {"\u0417": "3", "\u0411": "6", "\u041e": "0"}
+
+
+@pytest.mark.parametrize("latitude, sheet", [(60.2, "a5"), (55.8, "a5"), (-33.9, "a4")])
+def test_the_russian_points_are_words_no_digit_can_be_taken_for(latitude, sheet):
+    """The Russian west letter "З" stood among the unequal hours 1, 2 and 3
+    by the west point and read as a 3 (a teacher's look, #12); the plate
+    names the points in words (Север, Восток, Юг, Запад), as Russian
+    star charts write them out round the horizon (common practice, from
+    memory)."""
+    kit = build_kit(parse_recipe_text(f"latitude: {latitude}\nsheet: {sheet}\nlanguage: ru\nparts: [plate]\n"))
+    cards = [e.geom["text"] for e in kit.part("plate").with_role("cardinal")]
+    assert len(cards) >= 3
+    assert not [t for t in cards if t.strip() in DIGIT_LIKE]
