@@ -478,7 +478,8 @@ def _main(argv) -> int:
         if debug:
             raise
         words = _words_of(exc, args)
-        _tell(one_line(Message("errors.report", message=exc).text(words)))
+        # (stderr pointed at an input is refused on stdout, so that not even the refusal is written into it)
+        _tell(one_line(Message("errors.report", message=exc).text(words)), exc.key == "errors.stderr_is_input")
         return EXIT_USER
     except KeyboardInterrupt:
         _tell(Message("errors.interrupted").text())
@@ -493,12 +494,12 @@ def _main(argv) -> int:
         return EXIT_INTERNAL
 
 
-def _tell(line: str) -> None:
-    """Say one line on stderr (on stdout where stderr is an input file:
-    :func:`_check_stdout_not_input`); if the stream cannot take it
-    (closed, a full disk), nothing more can be said, and the exit status
-    speaks."""
-    stream = sys.stdout if _stderr_is_input else sys.stderr
+def _tell(line: str, on_stdout: bool = False) -> None:
+    """Say one line on stderr (``on_stdout``: on stdout, where stderr is an
+    input file, :func:`_check_stdout_not_input`); if the stream cannot
+    take it (closed, a full disk), nothing more can be said, and the exit
+    status speaks."""
+    stream = sys.stdout if on_stdout else sys.stderr
     try:
         print(line, file=stream, flush=True)
     except (OSError, ValueError, AttributeError):
@@ -561,21 +562,14 @@ def _check_stdout_not_input(*inputs) -> None:
     """Refuse a stdout or stderr that the shell pointed at one of the
     build's inputs (``kitgen geometry r.yaml > r.yaml``, ``kitgen build
     r.yaml 2>> r.yaml``): the same file system and inode as fd 1 or 2.
-    When it is stderr, the refusal itself goes to stdout (:func:`_tell`),
+    When it is stderr, the refusal itself goes to stdout (:func:`_main`),
     so that not even it is written into the input."""
-    global _stderr_is_input
     path = _input_at(sys.stdout, inputs)
     if path is not None:
         raise UserError("errors.stdout_is_input", path=path)
     path = _input_at(sys.stderr, inputs)
     if path is not None:
-        _stderr_is_input = True
         raise UserError("errors.stderr_is_input", path=path)
-
-
-#: Set once stderr is found to be an input file: :func:`_tell` then says
-#: its line on stdout.
-_stderr_is_input = False
 
 
 def _input_at(stream, inputs):

@@ -15,6 +15,7 @@ from ..parts.clock_scale import signed
 from ..parts.format import IN_SENTENCE, WITHIN_LINE, latitude_text
 from ..parts.plate import keyed
 from ..paper import CHECK_BAR_MM, content_area_mm
+from ..sky.constants import TWILIGHT_DEG
 from .figures import kit_figures
 from ..words.locale import format_date, true_minus, zone_place
 from .paragraphs import PAGE_BREAK, Block
@@ -168,8 +169,8 @@ def column_mm(pages) -> float:
     return x1 - x0
 
 
-#: The twilight a line of each altitude (degrees) ends (kitgen.recipe.twilight).
-TWILIGHT_KINDS = {-6.0: "civil", -12.0: "nautical", -18.0: "astronomical"}
+#: The twilight a line of each altitude (degrees) ends.
+TWILIGHT_KINDS = {deg: kind for kind, deg in TWILIGHT_DEG.items()}
 
 
 def glossary_blocks(kit) -> list[Block]:

@@ -994,6 +994,7 @@ class PlateLabeller:
         own = [e for e in self.role("azimuth") if abs(e.values["azimuth_deg"] - az) < 1e-9]
         protected = self.others(own)
         owed = multiple_of(az, 30.0)
+        ext = self.w.measure(text, size)
         p0 = project_vectors(horizontal_vector(0.0, A, phi), s, R)
         if np.all(np.isfinite(p0)) and np.hypot(*p0) < self.room.disc:
             alts = np.radians(-np.arange(0.2, 30.0, 0.2))
@@ -1005,7 +1006,6 @@ class PlateLabeller:
             # below the horizon, else on its own line just above it (broken
             # round it); an optional number only apart from the other numbers
             # (a number owed takes its first free place, as near its point as it can stand)
-            ext = self.w.measure(text, size)
             # (an optional number not level with a cardinal letter: "15° N" reads as a latitude)
             near_cands = [c for c in cands if math.dist(c[:2], p0_xy) < CONTINUED_MM]
             if not owed:
@@ -1026,7 +1026,7 @@ class PlateLabeller:
                 # azimuths meet the horizon close together among the
                 # tropics, and on an A5 plate among the almucantars, where
                 # no number fits on a line).
-                got = self._along_horizon(p0, A, phi, s, R, own, protected, text, size, az)
+                got = self._along_horizon(p0, A, phi, s, R, own, protected, text, size, ext, az)
                 if got is not None:
                     return got
                 b = self.first_free([c for c in cands if math.dist(c[:2], p0_xy) >= CONTINUED_MM], text, size,
@@ -1037,7 +1037,6 @@ class PlateLabeller:
             return None
         rim_ends = [(el, end) for el in own for end in _ends(el)
                     if abs(math.hypot(*end) - (self.room.disc + MARGIN_MM)) < 1e-3]
-        ext = self.w.measure(text, size)
         for apart in (True, False):   # apart from the other numbers there first, else as near as it must
             for el, end in rim_ends:
                 cands = points_along(el, end, reach_mm=2 * SLIDE_MM)
@@ -1066,7 +1065,7 @@ class PlateLabeller:
         return el
 
     def _along_horizon(self, p0, A: float, phi: float, s: int, R: float, own, protected, text: str,
-                       size_pt: float, az: float):
+                       size_pt: float, ext, az: float):
         """An owed azimuth's number set along the horizon just above its
         horizon point ``p0``, on its own line (broken round it), in the band
         between the horizon and the first almucantar, else just below it on
@@ -1076,9 +1075,8 @@ class PlateLabeller:
         (#12: on A5 plates at 45 to 52 N the 120 and 240 deg numbers, their
         points near the rim among the horizon's, the almucantars' and the
         hour lines' ends, had been left out).  ``A``, ``phi``: the azimuth
-        and latitude (radians); ``s``, ``R`` as for the projection.  None
-        where the band has no room."""
-        ext = self.w.measure(text, size_pt)
+        and latitude (radians); ``s``, ``R`` as for the projection; ``ext``
+        the number's measure.  None where the band has no room."""
         step = 1e-3
         a, b = (project_vectors(horizontal_vector(0.0, A + d, phi), s, R) for d in (-step, step))
         turn = upright(math.atan2(b[1] - a[1], b[0] - a[0]))

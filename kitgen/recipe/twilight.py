@@ -1,9 +1,8 @@
 """The recipe's ``twilight:``: which twilight circles the plates draw (#10).
 
 Twilight ends when the Sun's centre is 6 deg (civil), 12 deg (nautical)
-or 18 deg (astronomical) below the horizon: the definitions of the
-*Explanatory Supplement to the Astronomical Almanac* (1992), sec. 9.3
-(from memory; the same limits in every almanac office's tables).
+or 18 deg (astronomical) below the horizon (:data:`kitgen.sky.constants.TWILIGHT_DEG`,
+with its source).
 
 The key takes one name, several (a list, or names separated by commas as
 a form field gives them), ``none``, or ``true`` / ``false`` as before
@@ -13,9 +12,7 @@ a form field gives them), ``none``, or ``true`` / ``false`` as before
 from __future__ import annotations
 
 from ..errors import KeyedError
-
-#: The Sun's altitude (degrees) at the end of each kind of twilight.
-TWILIGHT_DEG = {"civil": -6.0, "nautical": -12.0, "astronomical": -18.0}
+from ..sky.constants import TWILIGHT_DEG
 NONE = "none"
 #: What ``twilight: true`` means.
 DEFAULT = ("astronomical",)
