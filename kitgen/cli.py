@@ -351,7 +351,8 @@ def _cmd_batch(args) -> int:
             _tell(line)
     for number, trace in summary.traces:   # --debug: each of kitgen's own faults, whole
         _tell(f"kit {number}:\n{trace.rstrip()}")
-    _emit(f"{summary.folder}\n")
+    if summary.written:
+        _emit(f"{summary.folder}\n")
     return summary.exit_status
 
 

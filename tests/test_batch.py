@@ -304,7 +304,7 @@ def test_a_folder_refused_is_said_in_the_sets_language(tmp_path, capsys, languag
     (mine / "notes.txt").write_text("keep me")
     assert main(["batch", str(tmp_path / "one.yaml"), "-o", str(mine), "--quiet"]) == 2
     (line,) = capsys.readouterr().err.strip().splitlines()
-    wording = _template(language)["errors"]["batch_folder_foreign"].split("{path}")[1].split(";")[0]
+    wording = _template(language)["errors"]["batch_folder_foreign"].split("{path}")[1].split("({names})")[0]
     assert wording.strip(" :") and wording.strip(" :") in line
 
 

@@ -34,6 +34,17 @@ KITS = "kits"
 MANIFEST = "manifest.csv"
 _OWN_NAMES = {KITS, MANIFEST}
 
+#: Files a desktop's file manager writes into any folder it shows (the
+#: Finder's ``.DS_Store`` and, on other disks, its ``._`` companions;
+#: Windows Explorer's thumbnail caches and ``desktop.ini``; KDE's
+#: ``.directory``): a coordinator who looked at the kits in one does not
+#: make the folder theirs, and they go with the earlier set it holds.
+DESKTOP_FILES = frozenset({".DS_Store", "Thumbs.db", "ehthumbs.db", "desktop.ini", ".directory"})
+
+
+def _desktop_file(entry) -> bool:
+    return (entry.name in DESKTOP_FILES or entry.name.startswith("._")) and entry.is_file(follow_symlinks=False)
+
 
 def target_folder(folder) -> Path:
     """The folder ``-o`` names: itself, or the folder it links to where it
@@ -62,28 +73,41 @@ def check_output_folder(folder: Path, inputs=()) -> None:
         p = Path(p).resolve()
         if p == real or real in p.parents:
             raise UserError("errors.batch_folder_holds_input", path=folder, input=p)
-    if not _is_set_output(folder):
-        raise UserError("errors.batch_folder_foreign", path=folder)
+    foreign = _foreign_entries(folder)
+    if foreign:
+        raise UserError("errors.batch_folder_foreign", path=folder, names=", ".join(foreign[:3])
+                        + (", …" if len(foreign) > 3 else ""))
 
 
 def _is_set_output(folder: Path) -> bool:
     """Whether every entry of ``folder`` is one a set writes: an empty
-    folder, or the manifest, the print files and ``kits/`` of kitgen PDFs."""
-    for entry in os.scandir(folder):
+    folder, or the manifest, the print files and ``kits/`` of kitgen PDFs
+    (and a desktop's own files, :data:`DESKTOP_FILES`)."""
+    return not _foreign_entries(folder)
+
+
+def _foreign_entries(folder: Path) -> list[str]:
+    """The entries of ``folder`` (and of its ``kits/``, as ``kits/NAME``)
+    that a set does not write, sorted by name."""
+    foreign = []
+    for entry in sorted(os.scandir(folder), key=lambda e: e.name):
+        if _desktop_file(entry):
+            continue
         if entry.name not in _OWN_NAMES and not is_print_file_name(entry.name):
-            return False
-        if entry.name == KITS:
+            foreign.append(entry.name)
+        elif entry.name == KITS:
             if not entry.is_dir(follow_symlinks=False):
-                return False
-            if not all(e.is_file(follow_symlinks=False) and made_by_kitgen(e.path) for e in os.scandir(entry.path)):
-                return False
+                foreign.append(entry.name)
+                continue
+            foreign += [f"{KITS}/{e.name}" for e in sorted(os.scandir(entry.path), key=lambda e: e.name)
+                        if not _desktop_file(e) and not (e.is_file(follow_symlinks=False) and made_by_kitgen(e.path))]
         elif not entry.is_file(follow_symlinks=False):
-            return False
+            foreign.append(entry.name)
         elif entry.name.endswith(".pdf") and not made_by_kitgen(entry.path):
-            return False
+            foreign.append(entry.name)
         elif entry.name == MANIFEST and not _is_manifest(entry.path):
-            return False
-    return True
+            foreign.append(entry.name)
+    return foreign
 
 
 def _is_manifest(path) -> bool:

@@ -65,6 +65,10 @@ class Summary:
     language: str | None = None   # the set's language, to say the summary in
     #: With ``debug``: (kit number, traceback) of each fault of kitgen's own.
     traces: tuple[tuple[int, str], ...] = ()
+    #: Whether the folder was written: not where no kit was built and an
+    #: earlier set's folder is there, which a run whose every kit failed
+    #: (a mistyped default, say) leaves as it was.
+    written: bool = True
 
     @property
     def exit_status(self) -> int:
@@ -124,6 +128,7 @@ def _run(kit_set, out_dir: Path, pools: list, quiet: bool, stream, started: floa
     bar = progress(len(kit_set.kits) if jobs_list else 0, quiet, stream)
     results, internal, peak, traces = {}, False, 0, []
     by_number = {k.number: k for k in kit_set.kits}
+    written = True
     try:
         with fresh_folder(out_dir) as tmp, BackgroundWrites() as files:
             for _ in errors:
@@ -145,6 +150,8 @@ def _run(kit_set, out_dir: Path, pools: list, quiet: bool, stream, started: floa
                 waiting[result.number] = result
                 next_number = _print_ready(printing, stamps, waiting, next_number, by_number)
                 bar.advance()
+            if not results and out_dir.exists():
+                raise _NothingBuilt   # the fresh folder is let go, the earlier set kept
             _print_ready(printing, stamps, waiting, next_number, by_number, last=True)
             for name, data in printing.finish().items():
                 files.write(tmp / name, data)
@@ -152,11 +159,18 @@ def _run(kit_set, out_dir: Path, pools: list, quiet: bool, stream, started: floa
             rows = [manifest_row(k, names[k.number - 1], results.get(k.number), spans.get(k.number, {}),
                                  errors.get(k.number, "")) for k in kit_set.kits]
             files.write(tmp / MANIFEST, manifest_csv(rows))
+    except _NothingBuilt:
+        written = False
     finally:
         bar.close()
     failures = tuple(sorted(errors.items()))
     return Summary(out_dir, len(kit_set.kits), len(results), failures, internal, jobs,
-                   time.monotonic() - started, peak, speak, tuple(sorted(traces)))
+                   time.monotonic() - started, peak, speak, tuple(sorted(traces)), written)
+
+
+class _NothingBuilt(Exception):
+    """No kit of the set was built, and an earlier set's folder is there:
+    nothing is written."""
 
 
 def _spoken(kit_set) -> str | None:
@@ -256,6 +270,10 @@ def summary_lines(summary: Summary, words=None) -> list[str]:
     summary line."""
     lines = [one_line(Message("errors.batch_kit_failed", kit=n, reason=reason).text(words))
              for n, reason in summary.failures]
+    if not summary.written:
+        lines.append(one_line(Message("errors.batch_nothing_built", total=summary.total,
+                                      folder=summary.folder).text(words)))
+        return lines
     lines.append(one_line(Message("errors.batch_summary", built=summary.built, total=summary.total,
                                   failed=len(summary.failures), folder=summary.folder).text(words)))
     return lines

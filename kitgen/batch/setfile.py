@@ -111,7 +111,9 @@ def load_set(path) -> KitSet:
     if "copies" in defaults:
         raise UserError("errors.set_copies_in_defaults", where=at_line(path, lines.get("defaults", 1)))
     defaults = _absolute_language_file(defaults, path.parent)
-    check_defaults(defaults, path, _defaults_lines(node))
+    defaults_lines = _defaults_lines(node)
+    check_defaults(defaults, path, defaults_lines)
+    _check_default_place(defaults, at_line(path, defaults_lines.get("place", lines.get("defaults", 1))))
     raws: list[tuple[Message, dict]] = []
     listed = tree.get("kits") or []
     if not isinstance(listed, list):
@@ -131,7 +133,7 @@ def load_set(path) -> KitSet:
         raise UserError("errors.set_too_many_kits", source=path, count=len(raws), limit=MAX_KITS)
     kits = tuple(_set_kit(number, where, item, defaults, path.parent)
                  for number, (where, item) in enumerate(raws, start=1))
-    language = defaults.get("language") if isinstance(defaults.get("language"), str) else None
+    language = defaults.get("language").strip().lower() if isinstance(defaults.get("language"), str) else None
     return KitSet(path, kits, language, inputs)
 
 
@@ -202,18 +204,29 @@ def _roster_rows(value, set_path: Path, line: int) -> list[tuple[Message, dict]]
         header = next(reader, None)
         if header is None:
             raise UserError("errors.roster_empty", path=path)
-        columns = [c.strip() for c in header]
+        columns = [_column_key(c) for c in header]
         _check_columns(columns, path)
         rows = []
+        named_columns = max((k + 1 for k, name in enumerate(columns) if name), default=0)
+        row = 1 + bool(named)   # a row as a spreadsheet numbers it: a record, whatever lines its cells take
         for cells in reader:
+            row += 1
             if not any(c.strip() for c in cells):
                 continue   # a blank line
-            where = Message("errors.roster_row_where", source=path, row=reader.line_num)
-            if len(cells) != len(columns):
+            where = Message("errors.roster_row_where", source=path, row=row)
+            if len(cells) < named_columns:   # a separator missing: its values may stand under other keys
                 rows.append((where, _RowError(UserError("errors.roster_cells", where=where, count=len(cells),
-                                                        columns=len(columns)))))
+                                                        columns=named_columns))))
                 continue
-            rows.append((where, _row_tree(columns, cells, decimal_comma=delimiter != ",")))
+            for k, cell in enumerate(cells):
+                if cell.strip() and (k >= len(columns) or not columns[k]):
+                    if k < len(columns):   # a column without a name holds a value: the header's mistake
+                        raise UserError("errors.roster_empty_column", path=path, column=k + 1)
+                    rows.append((where, _RowError(UserError("errors.roster_cells", where=where,
+                                                            count=len(cells), columns=len(columns)))))
+                    break
+            else:   # cells past the header's named columns are empty
+                rows.append((where, _row_tree(columns, cells, decimal_comma=delimiter != ",")))
     except csv.Error as exc:
         raise UserError("errors.roster_not_csv", where=at_line(path, reader.line_num), problem=str(exc)) from None
     return rows
@@ -238,11 +251,25 @@ def _delimiter(text: str) -> str:
     return next((d for d in (",", ";", "\t") if d in header), ",")
 
 
+def _column_key(name: str) -> str:
+    """A header cell as the recipe key it names: itself, or written as a
+    spreadsheet's header often is (``Owner``, ``Print scale``,
+    ``Diameter-mm``), the key it is but for case, spaces and hyphens."""
+    name = name.strip()
+    if name in KEYS_BY_NAME or name == "copies":
+        return name
+    key = re.sub(r"[\s-]+", "_", name.lower())
+    return key if key in KEYS_BY_NAME or key == "copies" else name
+
+
 def _check_columns(columns: list[str], path: Path) -> None:
+    """Refuse a column named twice or naming no recipe key; a column
+    without a name may stand (a spreadsheet's empty trailing columns) as
+    long as no row has a value in it."""
     seen = set()
     for k, name in enumerate(columns, start=1):
         if not name:
-            raise UserError("errors.roster_empty_column", path=path, column=k)
+            continue
         if name in seen:
             raise UserError("errors.roster_column_twice", path=path, name=shown(name))
         seen.add(name)
@@ -266,6 +293,9 @@ class _RowError(dict):
 _NUMBER_KINDS = ("number", "latitude")
 _NUMBER_KEYS = ("longitude", "rete_limit_deg", "print_scale")
 
+#: Line breaks within a cell, with the spaces around them.
+_LINE_BREAKS = re.compile(r"[ \t]*(?:\r\n|\r|\n)[ \t]*")
+
 #: A comma between two digits: a decimal comma, where it is the only comma.
 _DECIMAL_COMMA = re.compile(r"(?<=\d),(?=\d)")
 
@@ -279,8 +309,9 @@ def _row_tree(columns: list[str], cells: list[str], decimal_comma: bool = False)
     value, and its spreadsheet wrote the comma as the decimal sign."""
     tree = {}
     for name, cell in zip(columns, cells):
-        cell = cell.strip()
-        if not cell:
+        # A line break a spreadsheet's cell holds (Alt+Enter) is a space here.
+        cell = _LINE_BREAKS.sub(" ", cell).strip()
+        if not cell or not name:
             continue
         key = KEYS_BY_NAME.get(name)
         if decimal_comma and key is not None and (key.kind in _NUMBER_KINDS or name in _NUMBER_KEYS) \
@@ -326,6 +357,23 @@ def _value_of(node, key: str, kind):
         return None
     return next((v for k, v in node.value if isinstance(k, yaml.ScalarNode) and k.value == key
                  and isinstance(v, kind)), None)
+
+
+def _check_default_place(defaults: dict, where: Message) -> None:
+    """A ``place`` of the defaults that the gazetteer does not know (or
+    cannot tell apart) is the set's own mistake, said once with its line
+    (kitgen.recipe.site.resolve_site's words), where every kit taking it
+    had said it as its own."""
+    place = defaults.get("place")
+    if not isinstance(place, str) or not place.strip() or "latitude" in defaults or "plates" in defaults:
+        return
+    from ..places import PlaceError, resolve   # the gazetteer, only for a set whose defaults name a place
+
+    try:
+        resolve(place)
+    except PlaceError as exc:
+        label = Message("errors.key_label", where=where, name="place")
+        raise UserError("errors.key_problem", label=label, problem=exc) from None
 
 
 def _defaults_lines(node) -> dict:

@@ -544,9 +544,14 @@ def _check(key, value, where, local_stars: dict | None = None):
             raise UserError("errors.text_too_long", label=label, length=len(value), limit=MAX_TEXT_CHARS)
         _refuse_unprintable(value, label)
         if key.name == "language":
-            if value not in available_languages():
+            # Language tags are case-insensitive (BCP 47, RFC 5646 section
+            # 2.1.1): "EN" and "Fr", as a spreadsheet's column may hold them,
+            # are the shipped "en" and "fr".
+            shipped = {code.lower(): code for code in available_languages()}
+            if value.strip().lower() not in shipped:
                 raise UserError("errors.unknown_language", label=label, value=shown(value),
                                 codes=available_languages())
+            return shipped[value.strip().lower()]
         return value
     if key.kind == "choice":
         if not isinstance(value, str) or value.lower() not in key.choices:
