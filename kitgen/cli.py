@@ -53,8 +53,11 @@ def _parser() -> argparse.ArgumentParser:
     g.add_argument("-o", "--output", help="JSON: the file to write (default: stdout); SVG: the folder to write into")
     g.add_argument("--force", action="store_true", help="write over existing files kitgen did not make")
 
-    n = sub.add_parser("new", help="write a commented starter recipe")
-    n.add_argument("-o", "--output", help="the recipe file to write (default: stdout)")
+    n = sub.add_parser("new", help="write a commented starter recipe (or class set, or roster)")
+    n.add_argument("-o", "--output", help="the file to write (default: stdout)")
+    kind = n.add_mutually_exclusive_group()
+    kind.add_argument("--set", action="store_true", help="a starter class set for kitgen batch, not a recipe")
+    kind.add_argument("--roster", action="store_true", help="a starter roster (CSV) for a class set")
 
     s = sub.add_parser("stars", help="list the built-in star catalogue")
     s.add_argument("--name", help="only stars whose name contains this text")
@@ -246,10 +249,16 @@ def _write_geometry(args, kit_recipe) -> int:
 
 
 def _cmd_new(args) -> int:
+    from .batch.starter import starter_roster, starter_set
     from .outfile import write_atomic
     from .recipe.starter import starter_recipe
 
-    text = starter_recipe().encode("utf-8")
+    if args.set:
+        text = starter_set().encode("utf-8")
+    elif args.roster:
+        text = ("\ufeff" + starter_roster()).encode("utf-8")   # a spreadsheet then reads it as UTF-8
+    else:
+        text = starter_recipe().encode("utf-8")
     if args.output:
         out = _output_path(args.output)
         if out.exists():
@@ -470,7 +479,7 @@ def _main(argv) -> int:
             return EXIT_USER
         args.debug = debug
         if getattr(args, "output", None) == "":
-            raise UserError("errors.output_empty")
+            raise UserError("errors.output_empty_folder" if args.command == "batch" else "errors.output_empty")
         with rare_collections() if args.command in BUILDING else contextlib.nullcontext():
             status = COMMANDS[args.command](args)
         _flush_stdout()

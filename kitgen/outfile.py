@@ -410,6 +410,19 @@ def write_folder_atomic(folder, files: dict, force: bool = False, protect: tuple
     return [folder / name for name in files]
 
 
+def check_not_mount(folder: Path) -> None:
+    """Refuse a folder that is a disk's own root (a memory stick's, say):
+    an output folder is written beside it and swapped into its place,
+    which no system lets a mount point take (POSIX rename(2): EBUSY);
+    said before any work, where it had failed once everything was built."""
+    try:
+        mount = os.path.ismount(folder)
+    except OSError:
+        return
+    if mount:
+        raise UserError("errors.folder_is_mount", path=folder)
+
+
 def _folder_plan(folder: Path, files: dict, force: bool, protect: tuple, own) -> tuple[list, list]:
     """Check what ``folder`` holds against the new set: (the names of the
     files to carry over, the names of the files to let go)."""
@@ -419,6 +432,7 @@ def _folder_plan(folder: Path, files: dict, force: bool, protect: tuple, own) ->
     real = folder.resolve()
     if here == real or real in here.parents:
         raise UserError("errors.folder_is_current", path=folder)
+    check_not_mount(folder)
     keep, gone, foreign, others = [], [], [], []
     for entry in sorted(os.scandir(folder), key=lambda e: e.name):
         path = Path(entry.path)

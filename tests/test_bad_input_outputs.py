@@ -67,7 +67,8 @@ def test_an_empty_output_name_is_refused(kit_dir, args):
     before = sorted(p.name for p in kit_dir.iterdir())
     run = kitgen(*args, "-o", "", cwd=kit_dir)
     assert run.returncode == EXIT_USER
-    assert "-o names no file (it is empty)" in one_line(run.stderr)
+    said = "-o names no folder (it is empty)" if args[0] == "batch" else "-o names no file (it is empty)"
+    assert said in one_line(run.stderr)
     assert sorted(p.name for p in kit_dir.iterdir()) == before
 
 

@@ -22,6 +22,7 @@ from __future__ import annotations
 
 import csv
 import hashlib
+import os
 
 import yaml
 
@@ -116,3 +117,43 @@ def test_an_unknown_place_in_the_defaults_is_said_once(tmp_path, capsys):
     assert line.startswith(f"kitgen: error: {tmp_path / 's.yaml'}, line {line_no}: 'place': ")
     assert "Lyon, FR" in line   # the gazetteer's suggestion
     assert not (tmp_path / "out").exists()
+
+
+def test_the_starter_set_and_roster_build_as_written(tmp_path, capsys):
+    """``kitgen new --set`` and ``--roster`` write what ``kitgen batch``
+    builds, the set naming the roster once its comment is taken off; a
+    missing set or roster names the command that writes one, where the
+    hint had named ``kitgen new``, which writes a recipe a set refuses."""
+    set_path, roster = tmp_path / "set.yaml", tmp_path / "pupils.csv"
+    assert main(["batch", str(set_path), "-o", str(tmp_path / "out")]) == 2
+    assert f"`kitgen new --set -o {set_path.name}`" in capsys.readouterr().err
+    assert main(["new", "--set", "-o", str(set_path)]) == 0
+    text = set_path.read_text(encoding="utf-8")
+    set_path.write_text(text.replace("# roster: pupils.csv", "roster: pupils.csv"), encoding="utf-8")
+    capsys.readouterr()
+    assert main(["batch", str(set_path), "-o", str(tmp_path / "out")]) == 2
+    assert "`kitgen new --roster -o pupils.csv`" in capsys.readouterr().err
+    assert main(["new", "--roster", "-o", str(roster)]) == 0
+    assert roster.read_bytes().startswith(b"\xef\xbb\xbfowner,")   # UTF-8 with its mark, as a spreadsheet reads it
+    assert main(["batch", str(set_path), "-o", str(tmp_path / "out"), "--jobs", "1", "--quiet"]) == 0
+    rows = _manifest(tmp_path / "out")
+    assert [r["owner"] for r in rows] == ["Class teacher", "Ada Brightwater", "Bruno Castellane", "Chidi Okoro-Lane"]
+    assert [r["language"] for r in rows] == ["en", "en", "fr", "en"] and {r["status"] for r in rows} == {"ok"}
+    capsys.readouterr()
+    assert main(["batch", str(set_path), "-o", ""]) == 2
+    (line,) = capsys.readouterr().err.strip().splitlines()
+    assert "folder" in line and "leave -o out" not in line
+
+
+def test_a_disks_root_is_refused_before_any_work(tmp_path, capsys):
+    """A mount point (a memory stick's root) cannot be renamed over
+    (POSIX rename(2): EBUSY), so a set or preview folder cannot be
+    swapped into its place: said at once, where a set had failed only
+    once every kit was built.  /proc is a mount point on every Linux."""
+    mount = next(p for p in ("/proc", "/sys", "/dev/shm") if os.path.ismount(p))
+    (tmp_path / "s.yaml").write_text(yaml.safe_dump({"defaults": DEFAULTS, "kits": [{"owner": "Ada"}]}))
+    (tmp_path / "r.yaml").write_text(yaml.safe_dump(DEFAULTS))
+    for command in (["batch", str(tmp_path / "s.yaml")], ["preview", str(tmp_path / "r.yaml")]):
+        assert main([*command, "-o", mount]) == 2
+        (line,) = capsys.readouterr().err.strip().splitlines()
+        assert line.startswith(f"kitgen: error: {mount}: is a disk's own root") and f"{mount}/kits" in line

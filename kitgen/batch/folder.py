@@ -73,6 +73,7 @@ def check_output_folder(folder: Path, inputs=()) -> None:
         p = Path(p).resolve()
         if p == real or real in p.parents:
             raise UserError("errors.batch_folder_holds_input", path=folder, input=p)
+    outfile.check_not_mount(folder)
     foreign = _foreign_entries(folder)
     if foreign:
         raise UserError("errors.batch_folder_foreign", path=folder, names=", ".join(foreign[:3])
