@@ -478,8 +478,10 @@ def _main(argv) -> int:
             parser.print_help(sys.stderr)
             return EXIT_USER
         args.debug = debug
+        if getattr(args, "output", None) == "" and args.command == "batch":
+            raise UserError("errors.output_empty_folder")
         if getattr(args, "output", None) == "":
-            raise UserError("errors.output_empty_folder" if args.command == "batch" else "errors.output_empty")
+            raise UserError("errors.output_empty")
         with rare_collections() if args.command in BUILDING else contextlib.nullcontext():
             status = COMMANDS[args.command](args)
         _flush_stdout()

@@ -161,7 +161,7 @@ def test_the_static_check_catches_a_raw_message(tmp_path):
     wrong placeholders (run on a small source text of its own)."""
     source = ('raise UserError(f"{p}: no such file")\n'
               'raise UserError("errors.no_such_file", path=p)\n'
-              'raise UserError("errors.no_such_file", path=p, name=n, what=w)\n')
+              'raise UserError("errors.no_such_file", path=p, command=c, what=w)\n')
     english = _errors("en")
     verdicts = []
     for node in [n for n in ast.walk(ast.parse(source)) if isinstance(n, ast.Call)]:

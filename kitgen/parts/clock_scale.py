@@ -47,7 +47,8 @@ from ..errors import Message, Number
 from ..geometry import model
 from ..geometry.style import pin_hole_radius_mm, pin_mark_reach_mm, stroke_width_mm
 from ..words.locale import zone_place
-from . import curves, labels
+from . import curves, labels, turned_numbers
+from .turned_numbers import reads_as_another_turned
 from .context import PartContext
 from .dimensions import MIN_TEXT_PT, MIN_TICK_MM, MIN_TITLE_PT
 
@@ -100,6 +101,12 @@ NUMBER_GAP_MM = 1.0
 #: of a bar or the numbers placed, slid along the run by steps of this
 #: (degrees), its centre kept inside the run.
 SLIDE_STEP_DEG = 0.1
+#: How far (mm) the row of numbers stands outward of the place one margin
+#: from the ring's inner edge: an underline below a number of the upper
+#: half (kitgen.parts.turned_numbers: "+9" turned reads "6+") then keeps
+#: 0.2 mm clear of that edge's ink, where it had 0.01 mm; the ticks' ends
+#: keep 0.4 mm from the numbers above them.
+UNDERLINE_ROOM_MM = 0.2
 
 
 def _direction_deg(longitude_deg: float) -> float:
@@ -120,7 +127,8 @@ def runs(correction):
     return out
 
 
-def _numbers(w, numbers, r_text: float, size_pt: float, bars_deg=(), bar_half_mm: float = 0.0, first=()):
+def _numbers(w, numbers, r_text: float, size_pt: float, bars_deg=(), bar_half_mm: float = 0.0, first=(),
+             underline_mm: float = 0.0):
     """The runs' numbers under their ticks: for each group of runs of
     ``first`` (their positions in ``numbers``) none of which is numbered
     yet, the first of the group that finds room; then, longest first,
@@ -181,8 +189,11 @@ def _numbers(w, numbers, r_text: float, size_pt: float, bars_deg=(), bar_half_mm
             return False
         done.add(k)
         placed.append((at, half))
-        out.append(curves.ring_text("clock_number", text, at, r_text, size_pt, minutes=minutes, month=month,
-                                    day=day))
+        label = curves.ring_text("clock_number", text, at, r_text, size_pt, minutes=minutes, month=month, day=day)
+        out.append(label)
+        if reads_as_another_turned(text):   # +9 turned is 6+: underlined, as on a dial
+            out.append(turned_numbers.underline("clock_number_underline", label, w, underline_mm,
+                                                minutes=minutes, month=month, day=day))
         return True
 
     for group in first:
@@ -253,7 +264,7 @@ def clock_scale(ctx: PartContext, r_outer_mm: float, room_above: bool = False) -
     tick = max(MIN_TICK_MM, 0.8 * d.tick_mm)
     r1 = r_outer_mm - labels.MARGIN_MM
     r0 = r1 - tick - h - 3 * labels.MARGIN_MM
-    r_text = r0 + labels.MARGIN_MM + h / 2
+    r_text = r0 + labels.MARGIN_MM + h / 2 + UNDERLINE_ROOM_MM
     n = len(cal)
     lon = [x for _, _, x in cal]
 
@@ -287,7 +298,8 @@ def clock_scale(ctx: PartContext, r_outer_mm: float, room_above: bool = False) -
     dates = {(m, dd): i for i, (m, dd, _) in enumerate(cal)}
     quoted = [[k] for ex in examples for k, (first, last, _) in enumerate(ring_runs)
               if (ex.month, ex.day) in dates and (dates[(ex.month, ex.day)] - first) % n <= (last - first) % n]
-    els += _numbers(w, numbers, r_text, size, bars, stroke_width_mm("heavy", d) / 2, beside + quoted)
+    els += _numbers(w, numbers, r_text, size, bars, stroke_width_mm("heavy", d) / 2, beside + quoted,
+                    stroke_width_mm("light", d))
     key = "clock_scale.caption_zone" if almanac.time == "zone" else "clock_scale.caption_mean"
     # The looked-up town, or the zone's city (or UTC offset), never its IANA name.
     site = ctx.plan.site
