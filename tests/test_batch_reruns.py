@@ -157,3 +157,21 @@ def test_a_disks_root_is_refused_before_any_work(tmp_path, capsys):
         assert main([*command, "-o", mount]) == 2
         (line,) = capsys.readouterr().err.strip().splitlines()
         assert line.startswith(f"kitgen: error: {mount}: is a disk's own root") and f"{mount}/kits" in line
+
+
+def test_a_kit_that_leaves_the_defaults_clock_says_so(tmp_path):
+    """A kit that gives its own latitude takes none of the defaults' site
+    (README), their longitude and time zone neither: it tells local mean
+    time, which its manifest row now says in its language, where it had
+    said nothing (a coordinator's roster row with a latitude alone).  A
+    kit that names its place (looked up in GeoNames, with its own zone),
+    or that takes the defaults' site, has no such note."""
+    defaults = {**DEFAULTS, "longitude": "0.1W", "timezone": "Europe/London"}
+    kits = [{"owner": "Ada"}, {"owner": "Bo", "latitude": 45.7}, {"owner": "Cy", "latitude": 45.7, "language": "fr"},
+            {"owner": "Di", "place": "Lyon, FR"}, {"owner": "Ed", "latitude": 45.7, "longitude": "4.8E",
+                                                    "timezone": "Europe/Paris"}]
+    assert _batch(tmp_path, {"defaults": defaults, "kits": kits}) == 0
+    notes = [row["notes"] for row in _manifest(tmp_path / "out")]
+    assert "does not take the defaults' clock" in notes[1] and "local mean time" in notes[1]
+    assert "ne prend donc pas l’horloge des valeurs par défaut" in notes[2]
+    assert not any("clock" in n or "horloge" in n for n in (notes[0], notes[3], notes[4]))

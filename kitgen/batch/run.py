@@ -32,6 +32,7 @@ from pathlib import Path
 from ..collect import collect_rarely, rare_collections
 from ..errors import EXIT_INTERNAL, EXIT_OK, EXIT_USER, Message, one_line, speaking
 from ..kit import school_of
+from ..plan.resolve import plan_words
 from ..words.templates import available_languages, load_words
 from .folder import KITS, MANIFEST, BackgroundWrites, check_output_folder, fresh_folder, target_folder
 from .manifest import manifest_csv, manifest_row
@@ -156,6 +157,7 @@ def _run(kit_set, out_dir: Path, pools: list, quiet: bool, stream, started: floa
             for name, data in printing.finish().items():
                 files.write(tmp / name, data)
             spans = printing.ranges
+            _with_set_notes(results, kit_set.kits)
             rows = [manifest_row(k, names[k.number - 1], results.get(k.number), spans.get(k.number, {}),
                                  errors.get(k.number, "")) for k in kit_set.kits]
             files.write(tmp / MANIFEST, manifest_csv(rows))
@@ -166,6 +168,19 @@ def _run(kit_set, out_dir: Path, pools: list, quiet: bool, stream, started: floa
     failures = tuple(sorted(errors.items()))
     return Summary(out_dir, len(kit_set.kits), len(results), failures, internal, jobs,
                    time.monotonic() - started, peak, speak, tuple(sorted(traces)), written)
+
+
+def _with_set_notes(results: dict, kits) -> None:
+    """Put each built kit's notes from the set's merging
+    (:attr:`~kitgen.batch.setfile.SetKit.notes`) before its build's, in
+    its own language, for the manifest; a language is read here only for a
+    kit that has such notes."""
+    for kit in kits:
+        result = results.get(kit.number)
+        if kit.notes and result is not None:
+            words = plan_words(kit.recipe)
+            said = tuple(one_line(note.text(words)) for note in kit.notes)
+            results[kit.number] = replace(result, notes=said + result.notes)
 
 
 class _NothingBuilt(Exception):

@@ -76,6 +76,9 @@ class SetKit:
     copies: int
     recipe: Recipe | None = None
     error: UserError | None = None
+    #: What the set's merging did that the kit's user may not have meant
+    #: (the defaults' clock not taken), for the manifest's notes.
+    notes: tuple[Message, ...] = ()
 
 
 @dataclass(frozen=True)
@@ -158,7 +161,12 @@ def _set_kit(number: int, where: Message, item, defaults: dict, base: Path) -> S
         return SetKit(number, where, {}, 1, error=UserError("errors.set_kit_not_mapping", where=where))
     item = _absolute_language_file(item, base)
     own = {k: v for k, v in item.items() if k != "copies"}
+    notes = ()
     if any(own.get(name) not in (None, "") for name in POSITION_KEYS):
+        given = lambda tree, name: tree.get(name) not in (None, "")   # noqa: E731
+        if given(defaults, "timezone") and not any(given(own, k) for k in ("place", "longitude", "timezone")):
+            # a latitude alone: the kit tells local mean time, not the defaults' clock
+            notes = (Message("notes.set_clock_not_taken"),)
         defaults = {k: v for k, v in defaults.items() if k not in SITE_KEYS}
     tree = {**defaults, **own}
     try:
@@ -166,7 +174,7 @@ def _set_kit(number: int, where: Message, item, defaults: dict, base: Path) -> S
     except UserError as exc:
         return SetKit(number, where, tree, 1, error=exc)
     try:
-        return SetKit(number, where, tree, copies, recipe=validate_recipe(dict(tree), where))
+        return SetKit(number, where, tree, copies, recipe=validate_recipe(dict(tree), where), notes=notes)
     except UserError as exc:
         return SetKit(number, where, tree, copies, error=exc)
 
