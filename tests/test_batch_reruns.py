@@ -173,5 +173,5 @@ def test_a_kit_that_leaves_the_defaults_clock_says_so(tmp_path):
     assert _batch(tmp_path, {"defaults": defaults, "kits": kits}) == 0
     notes = [row["notes"] for row in _manifest(tmp_path / "out")]
     assert "does not take the defaults' clock" in notes[1] and "local mean time" in notes[1]
-    assert "ne prend donc pas l’horloge des valeurs par défaut" in notes[2]
+    assert "il ne prend donc pas l’horloge des valeurs par défaut" in notes[2]
     assert not any("clock" in n or "horloge" in n for n in (notes[0], notes[3], notes[4]))
