@@ -162,9 +162,8 @@ def _set_kit(number: int, where: Message, item, defaults: dict, base: Path) -> S
     item = _absolute_language_file(item, base)
     own = {k: v for k, v in item.items() if k != "copies"}
     notes = ()
-    if any(own.get(name) not in (None, "") for name in POSITION_KEYS):
-        given = lambda tree, name: tree.get(name) not in (None, "")   # noqa: E731
-        if given(defaults, "timezone") and not any(given(own, k) for k in ("place", "longitude", "timezone")):
+    if any(_given(own, name) for name in POSITION_KEYS):
+        if _given(defaults, "timezone") and not any(_given(own, k) for k in ("place", "longitude", "timezone")):
             # a latitude alone: the kit tells local mean time, not the defaults' clock
             notes = (Message("notes.set_clock_not_taken"),)
         defaults = {k: v for k, v in defaults.items() if k not in SITE_KEYS}
@@ -177,6 +176,10 @@ def _set_kit(number: int, where: Message, item, defaults: dict, base: Path) -> S
         return SetKit(number, where, tree, copies, recipe=validate_recipe(dict(tree), where), notes=notes)
     except UserError as exc:
         return SetKit(number, where, tree, copies, error=exc)
+
+
+def _given(tree: dict, name: str) -> bool:
+    return tree.get(name) not in (None, "")
 
 
 def _copies(value, where) -> int:
