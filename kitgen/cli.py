@@ -478,9 +478,11 @@ def _main(argv) -> int:
             parser.print_help(sys.stderr)
             return EXIT_USER
         args.debug = debug
-        if getattr(args, "output", None) == "" and args.command == "batch":
+        output = getattr(args, "output", None)
+        blank = output is not None and not output.strip()   # "" or spaces: an unset variable, a slip
+        if blank and args.command == "batch":
             raise UserError("errors.output_empty_folder")
-        if getattr(args, "output", None) == "":
+        if blank:
             raise UserError("errors.output_empty")
         with rare_collections() if args.command in BUILDING else contextlib.nullcontext():
             status = COMMANDS[args.command](args)

@@ -126,13 +126,13 @@ def test_the_starter_set_and_roster_build_as_written(tmp_path, capsys):
     hint had named ``kitgen new``, which writes a recipe a set refuses."""
     set_path, roster = tmp_path / "set.yaml", tmp_path / "pupils.csv"
     assert main(["batch", str(set_path), "-o", str(tmp_path / "out")]) == 2
-    assert f"`kitgen new --set -o {set_path.name}`" in capsys.readouterr().err
+    assert f"`kitgen new --set -o {set_path}`" in capsys.readouterr().err   # the path as given, its folder kept
     assert main(["new", "--set", "-o", str(set_path)]) == 0
     text = set_path.read_text(encoding="utf-8")
     set_path.write_text(text.replace("# roster: pupils.csv", "roster: pupils.csv"), encoding="utf-8")
     capsys.readouterr()
     assert main(["batch", str(set_path), "-o", str(tmp_path / "out")]) == 2
-    assert "`kitgen new --roster -o pupils.csv`" in capsys.readouterr().err
+    assert f"`kitgen new --roster -o {roster}`" in capsys.readouterr().err   # beside the set, where it reads it
     assert main(["new", "--roster", "-o", str(roster)]) == 0
     assert roster.read_bytes().startswith(b"\xef\xbb\xbfowner,")   # UTF-8 with its mark, as a spreadsheet reads it
     assert main(["batch", str(set_path), "-o", str(tmp_path / "out"), "--jobs", "1", "--quiet"]) == 0
@@ -175,3 +175,29 @@ def test_a_kit_that_leaves_the_defaults_clock_says_so(tmp_path):
     assert "does not take the defaults' clock" in notes[1] and "local mean time" in notes[1]
     assert "il ne prend donc pas l’horloge des valeurs par défaut" in notes[2]
     assert not any("clock" in n or "horloge" in n for n in (notes[0], notes[3], notes[4]))
+
+
+def test_the_clock_note_follows_what_the_kit_tells(tmp_path):
+    """The note goes by the time the kit tells: a kit with plates of its
+    own and no clock, or a latitude of its own where the defaults' town
+    (looked up in GeoNames) gave the clock, tells local mean time and says
+    so; a kit that names a place beside its latitude has the build's own
+    note for that instead."""
+    defaults = {k: v for k, v in DEFAULTS.items() if k != "latitude"}
+    kits = [{"owner": "Ada"}, {"owner": "Bo", "latitude": 43.3}, {"owner": "Cy", "plates": [50, 55]},
+            {"owner": "Di", "latitude": 59.9, "place": "Nordvik"}]
+    assert _batch(tmp_path, {"defaults": {**defaults, "place": "Lyon, FR"}, "kits": kits}) == 0
+    notes = [row["notes"] for row in _manifest(tmp_path / "out")]
+    said = "does not take the defaults' clock"
+    assert said not in notes[0] and said in notes[1] and said in notes[2] and said not in notes[3]
+    assert "'Nordvik' is printed on the kit but not looked up" in notes[3]
+
+
+def test_an_earlier_empty_folder_gets_the_manifest(tmp_path, capsys):
+    """An empty folder made beforehand is no earlier set: a run whose
+    every kit fails writes its manifest there, saying why."""
+    (tmp_path / "out").mkdir()
+    (tmp_path / "out" / ".DS_Store").write_bytes(b"\0")
+    assert _batch(tmp_path, {"defaults": DEFAULTS, "kits": [{"owner": "Ada", "latitude": 95}]}) == 2
+    (row,) = _manifest(tmp_path / "out")
+    assert row["status"] != "ok" and "95" in row["status"]

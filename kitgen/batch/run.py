@@ -151,7 +151,7 @@ def _run(kit_set, out_dir: Path, pools: list, quiet: bool, stream, started: floa
                 waiting[result.number] = result
                 next_number = _print_ready(printing, stamps, waiting, next_number, by_number)
                 bar.advance()
-            if not results and out_dir.exists():
+            if not results and any((out_dir / name).exists() for name in (KITS, MANIFEST)):
                 raise _NothingBuilt   # the fresh folder is let go, the earlier set kept
             _print_ready(printing, stamps, waiting, next_number, by_number, last=True)
             for name, data in printing.finish().items():

@@ -161,11 +161,13 @@ def _set_kit(number: int, where: Message, item, defaults: dict, base: Path) -> S
         return SetKit(number, where, {}, 1, error=UserError("errors.set_kit_not_mapping", where=where))
     item = _absolute_language_file(item, base)
     own = {k: v for k, v in item.items() if k != "copies"}
-    notes = ()
+    # A position of its own without its clock: the kit tells local mean
+    # time where the defaults named a clock (a zone, or a town looked up);
+    # a place printed but not looked up has its build's own note.
+    leaves_clock = (any(_given(own, name) for name in POSITION_KEYS) and not _given(own, "place")
+                    and (_given(defaults, "timezone") or (_given(defaults, "place") and not _given(defaults, "latitude")
+                                                          and not _given(defaults, "plates"))))
     if any(_given(own, name) for name in POSITION_KEYS):
-        if _given(defaults, "timezone") and not any(_given(own, k) for k in ("place", "longitude", "timezone")):
-            # a latitude alone: the kit tells local mean time, not the defaults' clock
-            notes = (Message("notes.set_clock_not_taken"),)
         defaults = {k: v for k, v in defaults.items() if k not in SITE_KEYS}
     tree = {**defaults, **own}
     try:
@@ -173,9 +175,11 @@ def _set_kit(number: int, where: Message, item, defaults: dict, base: Path) -> S
     except UserError as exc:
         return SetKit(number, where, tree, 1, error=exc)
     try:
-        return SetKit(number, where, tree, copies, recipe=validate_recipe(dict(tree), where), notes=notes)
+        recipe = validate_recipe(dict(tree), where)
     except UserError as exc:
         return SetKit(number, where, tree, copies, error=exc)
+    notes = (Message("notes.set_clock_not_taken"),) if leaves_clock and recipe.timezone is None else ()
+    return SetKit(number, where, tree, copies, recipe=recipe, notes=notes)
 
 
 def _given(tree: dict, name: str) -> bool:
@@ -209,6 +213,7 @@ def _roster_rows(value, set_path: Path, line: int) -> list[tuple[Message, dict]]
     named = _separator_line(text)
     delimiter = named or _delimiter(text)
     reader = csv.reader(io.StringIO(text, newline=""), delimiter=delimiter, strict=True)
+    row = 1 + bool(named)   # a row as a spreadsheet numbers it: a record, whatever lines its cells take
     try:
         if named:
             next(reader)   # the "sep=" line
@@ -219,7 +224,6 @@ def _roster_rows(value, set_path: Path, line: int) -> list[tuple[Message, dict]]
         _check_columns(columns, path)
         rows = []
         named_columns = max((k + 1 for k, name in enumerate(columns) if name), default=0)
-        row = 1 + bool(named)   # a row as a spreadsheet numbers it: a record, whatever lines its cells take
         for cells in reader:
             row += 1
             if not any(c.strip() for c in cells):
@@ -238,8 +242,9 @@ def _roster_rows(value, set_path: Path, line: int) -> list[tuple[Message, dict]]
                     break
             else:   # cells past the header's named columns are empty
                 rows.append((where, _row_tree(columns, cells, decimal_comma=delimiter != ",")))
-    except csv.Error as exc:
-        raise UserError("errors.roster_not_csv", where=at_line(path, reader.line_num), problem=str(exc)) from None
+    except csv.Error as exc:   # named by the record it begins in (a quote left open runs to the file's end)
+        where = Message("errors.roster_row_where", source=path, row=row + 1)
+        raise UserError("errors.roster_not_csv", where=where, problem=str(exc)) from None
     return rows
 
 
@@ -305,7 +310,7 @@ _NUMBER_KINDS = ("number", "latitude")
 _NUMBER_KEYS = ("longitude", "rete_limit_deg", "print_scale")
 
 #: Line breaks within a cell, with the spaces around them.
-_LINE_BREAKS = re.compile(r"[ \t]*(?:\r\n|\r|\n)[ \t]*")
+_LINE_BREAKS = re.compile(r"\s*[\r\n]\s*")
 
 #: A comma between two digits: a decimal comma, where it is the only comma.
 _DECIMAL_COMMA = re.compile(r"(?<=\d),(?=\d)")
@@ -376,7 +381,7 @@ def _check_default_place(defaults: dict, where: Message) -> None:
     (kitgen.recipe.site.resolve_site's words), where every kit taking it
     had said it as its own."""
     place = defaults.get("place")
-    if not isinstance(place, str) or not place.strip() or "latitude" in defaults or "plates" in defaults:
+    if not isinstance(place, str) or "latitude" in defaults or "plates" in defaults:
         return
     from ..places import PlaceError, resolve   # the gazetteer, only for a set whose defaults name a place
 
