@@ -55,4 +55,4 @@ def test_the_ecliptic_is_the_bands_outer_ticked_edge(recipe):
     item = next(b.text for b in glossary_blocks(kit) if b.text.startswith(said[:20]))
     assert item == said
     if recipe["language"] == "en":
-        assert "outer, heavier edge of the zodiac band, where the degree ticks start" in item
+        assert "On the rete the ecliptic is the outer, heavier edge of the zodiac band, where the degree ticks start" in item

@@ -29,7 +29,11 @@ def test_the_degree_ring_counts_from_the_hole_at_the_top(latitude, sense):
     (hole,) = [e for e in front.elements if e.role == "hang_hole"]
     x, y = hole.geom["center"]
     assert x == 0.0 and kit.dims.hour_ring_outer_mm < y < kit.dims.mater_radius_mm
+    (zero,) = [e for e in front.elements if e.role == "degree_tick" and abs(e.geom["from"][0]) < 1e-6
+               and e.geom["from"][1] > 0]   # the 0's tick, straight below the hole
+    assert abs(zero.geom["to"][0]) < 1e-6 and zero.geom["to"][1] < y - hole.geom["radius"]
     hours = {e.geom["text"]: e.geom["at"] for e in front.elements if e.role == "hour_label"}
     assert hours["12"][0] == pytest.approx(0.0, abs=1e-6) and hours["12"][1] > 0   # noon at the top, by the 0
     item = kit.words.items("instructions.glossary")[0]
-    assert "a ring of degrees counts the same turning of the sky, 15° to an hour, round from 0 at the top" in item
+    assert "a ring of degrees measures the sky's turning, 15° to an hour, counted round from the top, beside 12" in item
+    assert "its 0 is not printed, and its tick stands just under the hole for the thread" in item

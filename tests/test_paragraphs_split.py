@@ -80,7 +80,7 @@ def test_no_last_line_alone_at_the_top():
 #: one that splits none.
 @pytest.mark.parametrize("recipe", [{"latitude": 51.5, "language": "en", "sheet": "a5"},
                                     {"latitude": 51.5, "language": "es", "sheet": "a5"},
-                                    {"latitude": 51.5, "language": "fr", "sheet": "letter"},
+                                    {"latitude": 51.5, "language": "fr", "sheet": "a4"},
                                     {"latitude": 51.5, "language": "ru", "sheet": "a4"},
                                     {"latitude": 24.7, "language": "ar", "sheet": "a5"}])
 def test_real_kits_split_paragraphs_only_between_pages_with_two_lines_each_side(recipe):

@@ -101,12 +101,13 @@ NUMBER_GAP_MM = 1.0
 #: of a bar or the numbers placed, slid along the run by steps of this
 #: (degrees), its centre kept inside the run.
 SLIDE_STEP_DEG = 0.1
-#: How far (mm) the row of numbers stands outward of the place one margin
-#: from the ring's inner edge: an underline below a number of the upper
-#: half (kitgen.parts.turned_numbers: "+9" turned reads "6+") then keeps
-#: 0.2 mm clear of that edge's ink, where it had 0.01 mm; the ticks' ends
-#: keep 0.4 mm from the numbers above them.
-UNDERLINE_ROOM_MM = 0.2
+#: How much wider (mm) the ring is for the underlines of its numbers
+#: (kitgen.parts.turned_numbers: "+9" turned reads "6+"), whose row then
+#: stands midway between the ring's inner edge and its ticks' ends, so
+#: that an underline keeps about 0.2 mm clear of either (below a number
+#: of the upper half it lies towards the edge, of the lower half towards
+#: the ticks); it had kept 0.01 mm from the edge.
+UNDERLINE_ROOM_MM = 0.15
 
 
 def _direction_deg(longitude_deg: float) -> float:
@@ -263,8 +264,8 @@ def clock_scale(ctx: PartContext, r_outer_mm: float, room_above: bool = False) -
     h = w.measure(w.number(0) + w.number(8), size).height_mm
     tick = max(MIN_TICK_MM, 0.8 * d.tick_mm)
     r1 = r_outer_mm - labels.MARGIN_MM
-    r0 = r1 - tick - h - 3 * labels.MARGIN_MM
-    r_text = r0 + labels.MARGIN_MM + h / 2 + UNDERLINE_ROOM_MM
+    r0 = r1 - tick - h - 3 * labels.MARGIN_MM - UNDERLINE_ROOM_MM
+    r_text = r0 + labels.MARGIN_MM + h / 2 + (labels.MARGIN_MM + UNDERLINE_ROOM_MM) / 2
     n = len(cal)
     lon = [x for _, _, x in cal]
 

@@ -13,8 +13,9 @@ import math
 
 from ..geometry import model
 from ..geometry.style import stroke_width_mm
-from . import breaks, curves, labels
+from . import breaks, curves, labels, turned_numbers
 from .context import PartContext
+from .turned_numbers import reads_as_another_turned
 from .plate import key_tab_mm, keyed
 
 
@@ -111,6 +112,11 @@ def key_slot(d, w) -> list[model.Element]:
     return out
 
 
+#: Clear paper (mm) an underline of the degree ring (kitgen.parts.turned_numbers)
+#: keeps from the long ticks' tips, else it is left out.
+UNDERLINE_CLEAR_MM = 0.15
+
+
 def mater_front(ctx: PartContext) -> model.Part:
     d, w = ctx.dims, ctx.words
     s = ctx.hemisphere_sign
@@ -157,8 +163,16 @@ def mater_front(ctx: PartContext) -> model.Part:
     els = [e for e in els if not any(e is o for o in rim)]
     els += breaks.break_around(rim, boxes, labels.MARGIN_MM, lambda stroke: stroke_width_mm(stroke, d))
     for deg in range(15, 360, 15):   # at 0, the top, the hang hole stands instead
-        els.append(curves.ring_text("degree_label", w.number(deg), 90.0 - s * deg, r_mid + 0.7 * deg_ring,
-                                    d.small_text_pt, degree=deg))
+        label = curves.ring_text("degree_label", w.number(deg), 90.0 - s * deg, r_mid + 0.7 * deg_ring,
+                                 d.small_text_pt, degree=deg)
+        els.append(label)
+        if reads_as_another_turned(label.geom["text"]):   # 90 on its side turned reads 06
+            mark = turned_numbers.underline("degree_label_underline", label, w, stroke_width_mm("light", d),
+                                            degree=deg)
+            # towards the centre, clear of the long ticks' tips (on a small kit there is no room)
+            reach = min(math.hypot(*mark.geom["from"]), math.hypot(*mark.geom["to"])) - stroke_width_mm("light", d)
+            if reach - (r_mid + 0.45 * deg_ring) >= UNDERLINE_CLEAR_MM:
+                els.append(mark)
     if keyed(ctx.plan):   # no slot through a duplex card (kitgen.parts.plate.keyed)
         els += key_slot(d, w)
     els.append(hang_hole(d))

@@ -19,23 +19,28 @@ from ..geometry import model
 TURNED_DIGITS = {"0": "0", "1": "1", "6": "9", "8": "8", "9": "6"}
 
 #: What a number's text may hold besides its digits: signs and spaces,
-#: which read the same turned (U+2212 is the minus sign).
-_MARKS = set("+-\u2212 \u00a0\u2009\u202f")
+#: which read the same turned (U+2212 is the minus sign), and the
+#: invisible marks of direction a right-to-left kit sets round its
+#: numbers (kitgen.words: U+2066 to U+2069, U+200E, U+200F, U+061C).
+_MARKS = set("+-\u2212 \u00a0\u2009\u202f\u2066\u2067\u2068\u2069\u200e\u200f\u061c")
 
 #: Clear paper (mm) between the digits' ink and the underline's.
-UNDERLINE_GAP_MM = 0.1
+UNDERLINE_GAP_MM = 0.09
 
 
 def reads_as_another_turned(text: str) -> bool:
     """Whether ``text`` (a number, maybe signed) turned half a turn reads
-    as another number: "+9" (as 6), "16" (as 91), "−6"; not "+8", "11",
-    "69" (the same turned), nor "10" (which would read "01", a number no
-    scale writes)."""
+    as another number: "+9" (as 6), "16" (as 91), "18" (as 81), "−6",
+    "+60" and "90" (as 09 and 06, read as a clock's 9 and 6); not "+8",
+    "11", "69" (the same turned), nor "10" and "80" (01 and 08: their
+    digits stay what they were, and no scale writes a leading zero)."""
     digits = [c for c in text if c not in _MARKS]
     if not digits or any(c not in TURNED_DIGITS for c in digits):
         return False
     turned = "".join(TURNED_DIGITS[c] for c in reversed(digits))
-    return turned != "".join(digits) and not (len(turned) > 1 and turned[0] == "0")
+    if turned == "".join(digits):
+        return False
+    return not (len(turned) > 1 and turned[0] == "0") or any(c in "69" for c in digits)
 
 
 def underline(role: str, label, words, stroke_width_mm: float, **values):
