@@ -107,7 +107,7 @@ SLIDE_STEP_DEG = 0.1
 #: that an underline keeps about 0.2 mm clear of either (below a number
 #: of the upper half it lies towards the edge, of the lower half towards
 #: the ticks); it had kept 0.01 mm from the edge.
-UNDERLINE_ROOM_MM = 0.15
+UNDERLINE_ROOM_MM = 0.22
 
 
 def _direction_deg(longitude_deg: float) -> float:

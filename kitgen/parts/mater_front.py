@@ -113,8 +113,9 @@ def key_slot(d, w) -> list[model.Element]:
 
 
 #: Clear paper (mm) an underline of the degree ring (kitgen.parts.turned_numbers)
-#: keeps from the long ticks' tips, else it is left out.
-UNDERLINE_CLEAR_MM = 0.15
+#: keeps from the long ticks' tips, else it is left out: as much as from
+#: its own digits.
+UNDERLINE_CLEAR_MM = turned_numbers.UNDERLINE_GAP_MM
 
 
 def mater_front(ctx: PartContext) -> model.Part:

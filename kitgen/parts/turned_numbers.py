@@ -25,7 +25,7 @@ TURNED_DIGITS = {"0": "0", "1": "1", "6": "9", "8": "8", "9": "6"}
 _MARKS = set("+-\u2212 \u00a0\u2009\u202f\u2066\u2067\u2068\u2069\u200e\u200f\u061c")
 
 #: Clear paper (mm) between the digits' ink and the underline's.
-UNDERLINE_GAP_MM = 0.09
+UNDERLINE_GAP_MM = 0.12
 
 
 def reads_as_another_turned(text: str) -> bool:
