@@ -250,13 +250,22 @@ def short_of(value: float, needed: float) -> str:
 
 def beyond(value: float, low: float, high: float) -> str:
     """A number kitgen worked out that lies outside ``low`` to ``high``,
-    for a message saying so: with as few decimals as still show it outside
-    (-90.00027777 as -90.0003, 90.0000001 as 90.0000001)."""
+    for a message saying so: as written where it has at most
+    :data:`WRITTEN_DECIMALS` decimals (151.5, not 152, which the user did
+    not write), else with as few decimals as still show it outside
+    (-90.00027777, from 90 0 1 S, as -90.0003; 90.0000001 as 90.0000001)."""
+    written = repr(float(value)).removesuffix(".0")
+    if "e" not in written and len(written.partition(".")[2]) <= WRITTEN_DECIMALS:
+        return written
     for decimals in range(12):
         text = f"{value:.{decimals}f}"
         if not low <= float(text) <= high:
             return text
     return repr(float(value))
+
+
+#: A number with at most this many decimals is shown as written.
+WRITTEN_DECIMALS = 3
 
 
 def few(items, most: int = 4) -> list:

@@ -94,6 +94,10 @@ def test_the_accepted_forms_in_the_message_are_themselves_accepted():
     ("91 N", "the latitude is 91, outside -90 to 90 degrees"),
     ("89 60 1 S", "minutes and seconds must be less than 60"),
     ("90 0 1 S", "the latitude is -90.0003, outside -90 to 90 degrees"),
+    # as written (a coordinator's look: 151.5 was quoted as 152, -95.25 as -95)
+    ("151.5", "the latitude is 151.5, outside -90 to 90 degrees"),
+    ("-95.25", "the latitude is -95.25, outside -90 to 90 degrees"),
+    ("90.0000001", "the latitude is 90.0000001, outside -90 to 90 degrees"),
     ("'" + "4" * 41 + "'", "too long for a latitude"),
     ("true", "a latitude is a number or text such as"),
     ("{deg: 40}", "a latitude is a number or text such as"),
