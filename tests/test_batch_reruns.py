@@ -91,13 +91,16 @@ def test_a_roster_as_a_spreadsheet_saves_it(tmp_path, capsys):
     roster = ('Owner,Latitude,Language,Print Scale,,\r\n'
               'Ada,40,EN,,,\r\n'
               '"Bo\nBrennan",41,,\r\n'        # a line break in a cell; the empty columns' cells left out
-              'Cy,95,,,,\r\n')                # record 4 of the file, on its fifth line
+              'Cy,95,,,,\r\n'                 # record 4 of the file, on its fifth line
+              'Di,40\r\n')                     # a named column's cell left out: refused, its owner kept
     (tmp_path / "pupils.csv").write_text(roster, encoding="utf-8")
     assert _batch(tmp_path, {"defaults": DEFAULTS, "roster": "pupils.csv"}) == 2
     rows = _manifest(tmp_path / "out")
     assert [(r["owner"], r["latitude"], r["language"], r["status"] == "ok") for r in rows] == [
-        ("Ada", "40", "en", True), ("Bo Brennan", "41", "en", True), ("Cy", "95", "en", False)]
+        ("Ada", "40", "en", True), ("Bo Brennan", "41", "en", True), ("Cy", "95", "en", False),
+        ("Di", "", "en", False)]
     assert "pupils.csv, row 4:" in rows[2]["status"]
+    assert "pupils.csv, row 5: the row has 2 cells but the header has 4" in rows[3]["status"]
     # a value in a column without a name is the header's mistake: one line, nothing built
     (tmp_path / "pupils.csv").write_text("owner,latitude,,\nAda,40,,x\n", encoding="utf-8")
     capsys.readouterr()

@@ -156,7 +156,7 @@ def _set_kit(number: int, where: Message, item, defaults: dict, base: Path) -> S
     one where the kit gives a position) and validate the recipe; a mistake
     becomes the kit's own error."""
     if isinstance(item, _RowError):
-        return SetKit(number, where, {}, 1, error=item.error)
+        return SetKit(number, where, dict(item), 1, error=item.error)
     if not isinstance(item, dict):
         return SetKit(number, where, {}, 1, error=UserError("errors.set_kit_not_mapping", where=where))
     item = _absolute_language_file(item, base)
@@ -231,14 +231,15 @@ def _roster_rows(value, set_path: Path, line: int) -> list[tuple[Message, dict]]
             where = Message("errors.roster_row_where", source=path, row=row)
             if len(cells) < named_columns:   # a separator missing: its values may stand under other keys
                 rows.append((where, _RowError(UserError("errors.roster_cells", where=where, count=len(cells),
-                                                        columns=named_columns))))
+                                                        columns=named_columns), _as_given(columns, cells))))
                 continue
             for k, cell in enumerate(cells):
                 if cell.strip() and (k >= len(columns) or not columns[k]):
                     if k < len(columns):   # a column without a name holds a value: the header's mistake
                         raise UserError("errors.roster_empty_column", path=path, column=k + 1)
                     rows.append((where, _RowError(UserError("errors.roster_cells", where=where,
-                                                            count=len(cells), columns=len(columns)))))
+                                                            count=len(cells), columns=len(columns)),
+                                                  _as_given(columns, cells))))
                     break
             else:   # cells past the header's named columns are empty
                 rows.append((where, _row_tree(columns, cells, decimal_comma=delimiter != ",")))
@@ -297,10 +298,12 @@ def _check_columns(columns: list[str], path: Path) -> None:
 
 
 class _RowError(dict):
-    """A roster row that could not be read: it carries its error."""
+    """A roster row that could not be read: it carries its error, and
+    holds what its cells say under the named columns they stand in (its
+    owner, for the manifest's row)."""
 
-    def __init__(self, error: UserError):
-        super().__init__()
+    def __init__(self, error: UserError, tree: dict | None = None):
+        super().__init__(tree or {})
         self.error = error
 
 
@@ -314,6 +317,13 @@ _LINE_BREAKS = re.compile(r"\s*[\r\n]\s*")
 
 #: A comma between two digits: a decimal comma, where it is the only comma.
 _DECIMAL_COMMA = re.compile(r"(?<=\d),(?=\d)")
+
+
+def _as_given(columns: list[str], cells: list[str]) -> dict:
+    """A refused row's text cells under their named columns, as written:
+    the manifest's owner, title and place of a row that was not built."""
+    return {name: _LINE_BREAKS.sub(" ", cell).strip() for name, cell in zip(columns, cells)
+            if name in ("owner", "title", "place") and cell.strip()}
 
 
 def _row_tree(columns: list[str], cells: list[str], decimal_comma: bool = False) -> dict:
