@@ -13,6 +13,8 @@ laid out, in the words of each language.
 
 from __future__ import annotations
 
+import re
+
 import pytest
 
 from kitgen.kit import build_kit
@@ -45,3 +47,37 @@ def test_the_glossary_names_each_twilight_line_drawn(recipe, drawn, undrawn):
 
 def test_no_twilight_lines_no_item():
     assert _twilight_item({"latitude": 40.4, "language": "es", "twilight": "none"}) == []
+
+
+def _twilight_step(recipe):
+    from kitgen.layout.instructions import sunrise_blocks
+
+    kit = build_kit(validate_recipe(dict(recipe, epoch=2027)))
+    head = kit.words("almanac.twilight_step", lines="").split("(")[0].strip()
+    return [b.text for b in sunrise_blocks(kit) if b.text.startswith(head)], kit
+
+
+@pytest.mark.parametrize("recipe, drawn", [
+    ({"latitude": 38.1, "language": "it", "sheet": "a5", "twilight": ["civil", "astronomical"]}, (6, 18)),
+    ({"latitude": -33.9, "language": "en"}, (18,)),
+    ({"latitude": 55.8, "language": "ru", "twilight": ["civil", "nautical"]}, (6, 12)),
+])
+def test_the_sunrise_steps_read_the_twilight_lines_drawn(recipe, drawn):
+    """The plate's twilight lines are read as its horizon is, and a step
+    says so, naming exactly the lines the plate draws (a teacher's look:
+    an Italian kit drew the -6 and -18 deg lines and no step used them).
+    The reading: the Sun's point on the almucantar of altitude -h, west
+    of the meridian, is the evening's end of that twilight, the
+    definitions of civil, nautical and astronomical twilight by the Sun's
+    centre 6, 12 and 18 degrees below the horizon (Explanatory Supplement
+    to the Astronomical Almanac; from memory)."""
+    (step,), kit = _twilight_step(recipe)
+    said = [int(a) for a in re.findall(MINUS + r"(\d+)°", step)]
+    assert said == list(drawn)
+    if recipe["language"] == "en":
+        assert "west of the meridian, the rule's reading edge gives the time that twilight ends" in step
+
+
+def test_no_twilight_lines_no_step():
+    assert _twilight_step({"latitude": 40.4, "language": "es", "twilight": "none"})[0] == []
+    assert _twilight_step({"latitude": 40.4, "language": "en", "parts": ["rule", "alidade"]})[0] == []

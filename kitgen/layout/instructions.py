@@ -173,6 +173,14 @@ def column_mm(pages) -> float:
 TWILIGHT_KINDS = {deg: kind for kind, deg in TWILIGHT_DEG.items()}
 
 
+def twilight_altitudes(kit) -> list[float]:
+    """The altitudes (degrees, below zero) of the twilight lines the kit's
+    plate draws, highest first; none where the kit has no plate."""
+    if "plate" not in kit.plan.parts:
+        return []
+    return [alt for alt in sorted(kit.plan.drawing.twilight_deg, reverse=True) if alt in TWILIGHT_KINDS]
+
+
 def glossary_blocks(kit) -> list[Block]:
     """A short glossary in pupils' words: the trade's terms the plate, the
     rete and the instructions use (#9); last, what the kit's plate's own
@@ -181,8 +189,8 @@ def glossary_blocks(kit) -> list[Block]:
     w = kit.words
     items = list(w.items("instructions.glossary"))
     lines = [w(f"instructions.twilight_line_{TWILIGHT_KINDS[alt]}", altitude=true_minus(w.number(alt)))
-             for alt in sorted(kit.plan.drawing.twilight_deg, reverse=True) if alt in TWILIGHT_KINDS]
-    if lines and "plate" in kit.plan.parts:
+             for alt in twilight_altitudes(kit)]
+    if lines:
         items.append(w("instructions.glossary_twilight_lines", lines=w("page.list_separator").join(lines)))
     return ([Block("heading", w("instructions.glossary_heading"))]
             + [Block("item", s, "\u2022") for s in items])
@@ -514,6 +522,11 @@ def sunrise_blocks(kit) -> list[Block]:
     w = kit.words
     out = [Block("heading", w("almanac.sun_heading"))]
     out += [Block("item", s, w.number(k) + ".") for k, s in enumerate(w.items("almanac.sun_steps"), start=1)]
+    drawn = twilight_altitudes(kit)
+    if drawn:   # the plate's twilight lines, read as its horizon is (#12 review: drawn, and no step used them)
+        lines = w("page.list_separator").join(w("plate.line_twilight_short", altitude=true_minus(w.number(alt)))
+                                              for alt in drawn)   # as the plate names them
+        out.append(Block("body", w("almanac.twilight_step", lines=lines)))
     out.append(Block("body", w("almanac.sun_note")))
     out.append(Block("body", w("almanac.sun_table_intro", place=_place(kit), year=w.number(kit.plan.epoch),
                                clock_name=clock_name(kit))))
