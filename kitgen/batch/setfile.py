@@ -42,6 +42,7 @@ import yaml
 
 from ..errors import Message, UserError, shown
 from ..recipe.load import at_line, check_defaults, read_text_file, safe_yaml, validate_recipe
+from ..recipe.site import look_up_place
 from ..recipe.schema import KEYS_BY_NAME, Recipe
 
 #: The keys of a set file.
@@ -164,10 +165,11 @@ def _set_kit(number: int, where: Message, item, defaults: dict, base: Path) -> S
     # A position of its own without its clock: the kit tells local mean
     # time where the defaults named a clock (a zone, or a town looked up);
     # a place printed but not looked up has its build's own note.
-    leaves_clock = (any(_given(own, name) for name in POSITION_KEYS) and not _given(own, "place")
+    own_position = any(_given(own, name) for name in POSITION_KEYS)
+    leaves_clock = (own_position and not _given(own, "place")
                     and (_given(defaults, "timezone") or (_given(defaults, "place") and not _given(defaults, "latitude")
                                                           and not _given(defaults, "plates"))))
-    if any(_given(own, name) for name in POSITION_KEYS):
+    if own_position:
         defaults = {k: v for k, v in defaults.items() if k not in SITE_KEYS}
     tree = {**defaults, **own}
     try:
@@ -213,11 +215,13 @@ def _roster_rows(value, set_path: Path, line: int) -> list[tuple[Message, dict]]
     named = _separator_line(text)
     delimiter = named or _delimiter(text)
     reader = csv.reader(io.StringIO(text, newline=""), delimiter=delimiter, strict=True)
-    row = 1 + bool(named)   # a row as a spreadsheet numbers it: a record, whatever lines its cells take
+    row = 0   # the records read: a row as a spreadsheet numbers it, whatever lines its cells take
     try:
         if named:
             next(reader)   # the "sep=" line
+            row += 1
         header = next(reader, None)
+        row += 1
         if header is None:
             raise UserError("errors.roster_empty", path=path)
         columns = [_column_key(c) for c in header]
@@ -388,18 +392,11 @@ def _value_of(node, key: str, kind):
 def _check_default_place(defaults: dict, where: Message) -> None:
     """A ``place`` of the defaults that the gazetteer does not know (or
     cannot tell apart) is the set's own mistake, said once with its line
-    (kitgen.recipe.site.resolve_site's words), where every kit taking it
-    had said it as its own."""
+    as a recipe's is (kitgen.recipe.site.look_up_place), where every kit
+    taking it had said it as its own."""
     place = defaults.get("place")
-    if not isinstance(place, str) or "latitude" in defaults or "plates" in defaults:
-        return
-    from ..places import PlaceError, resolve   # the gazetteer, only for a set whose defaults name a place
-
-    try:
-        resolve(place)
-    except PlaceError as exc:
-        label = Message("errors.key_label", where=where, name="place")
-        raise UserError("errors.key_problem", label=label, problem=exc) from None
+    if isinstance(place, str) and place and "latitude" not in defaults and "plates" not in defaults:
+        look_up_place(place, where)
 
 
 def _defaults_lines(node) -> dict:

@@ -70,13 +70,13 @@ _STARTERS = {"errors.kind_recipe": "kitgen new -o {name}", "errors.kind_set": "k
              "errors.kind_roster": "kitgen new --roster -o {name}"}
 
 
-def _no_such_file(path, name, what: Message) -> UserError:
+def _no_such_file(path, what: Message) -> UserError:
     """The refusal of a missing file, with the command that writes a
-    starter file of its kind where there is one."""
+    starter file of its kind there, where there is one."""
     starter = _STARTERS.get(what.key)
     if starter is None:
         return UserError("errors.no_such_file_bare", path=path)
-    return UserError("errors.no_such_file", path=path, command=starter.format(name=name), what=what)
+    return UserError("errors.no_such_file", path=path, command=starter.format(name=path), what=what)
 
 
 def read_text_file(path, max_bytes: int = MAX_RECIPE_BYTES, what: Message = RECIPE) -> str:
@@ -94,7 +94,7 @@ def read_text_file(path, max_bytes: int = MAX_RECIPE_BYTES, what: Message = RECI
                 raise UserError("errors.not_regular_file", path=p, what=what)
             data = fh.read(max_bytes + 1)
     except FileNotFoundError:
-        raise _no_such_file(p, str(p), what) from None
+        raise _no_such_file(p, what) from None
     except IsADirectoryError:
         raise UserError("errors.is_folder_not_file", path=p, what=what) from None
     except PermissionError:
@@ -102,7 +102,7 @@ def read_text_file(path, max_bytes: int = MAX_RECIPE_BYTES, what: Message = RECI
     except OSError as exc:
         raise UserError("errors.cannot_read", path=p, reason=exc.strerror or exc) from None
     except ValueError:   # a NUL in the name: no file system has such a file
-        raise _no_such_file(shown(str(p)), shown(str(p)), what) from None
+        raise _no_such_file(shown(str(p)), what) from None
     if len(data) > max_bytes:
         raise UserError("errors.file_too_large", path=p, kib=max_bytes // 1024, what=what)
     encoding = _other_encoding(data)

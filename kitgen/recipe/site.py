@@ -48,6 +48,19 @@ def printed_name(query: str) -> str:
     return " ".join(str(query).split(",")[0].split())
 
 
+def look_up_place(query: str, place_where):
+    """The gazetteer's place for ``query`` (kitgen.places.resolve); one it
+    does not know or cannot tell apart is a :class:`UserError` of the
+    ``place`` key at ``place_where`` (its line in messages)."""
+    from ..places import PlaceError, resolve   # the gazetteer, only for a recipe that names a place
+
+    try:
+        return resolve(query)
+    except PlaceError as exc:
+        label = Message("errors.key_label", where=place_where, name="place")
+        raise UserError("errors.key_problem", label=label, problem=exc) from None
+
+
 def resolve_site(values: dict, source, place_where) -> None:
     """Complete the validated recipe ``values`` (Recipe field names) with
     the site: look ``place`` up when no latitude is given.  ``source``
@@ -58,13 +71,7 @@ def resolve_site(values: dict, source, place_where) -> None:
     if "longitude_deg" in values and "latitude_deg" not in values:
         raise UserError("errors.longitude_without_latitude", source=source)
     if "latitude_deg" not in values and values.get("place"):
-        from ..places import PlaceError, resolve   # the gazetteer, only for a recipe that names a place
-
-        try:
-            place = resolve(values["place"])
-        except PlaceError as exc:
-            label = Message("errors.key_label", where=place_where, name="place")
-            raise UserError("errors.key_problem", label=label, problem=exc) from None
+        place = look_up_place(values["place"], place_where)
         values["latitude_deg"] = place.latitude_deg
         values["longitude_deg"] = place.longitude_deg
         values["place"] = printed_name(values["place"])
