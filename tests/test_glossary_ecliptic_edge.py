@@ -37,6 +37,14 @@ def test_the_ecliptic_is_the_bands_outer_ticked_edge(recipe):
     assert drawn == {(band.geom["center"], ecliptic[0].geom["radius"])}
     ecliptic = ecliptic[0]
     r_ecl, r_band = ecliptic.geom["radius"], band.geom["radius"]
+    # The ecliptic's image: through the points of declination +eps and
+    # -eps on opposite sides of the pole, at R tan(45 deg -+ eps/2) from it
+    # (Snyder eq. 21-4), so its radius is R / cos(eps) and its centre
+    # R tan(eps) from the pole, R the equator's radius.
+    eps = kit.sky.obliquity_rad
+    big_r = kit.dims.equator_radius_mm
+    assert r_ecl == pytest.approx(big_r / math.cos(eps), abs=1e-6)
+    assert math.hypot(*ecliptic.geom["center"]) == pytest.approx(big_r * math.tan(eps), abs=1e-6)
     assert r_ecl - r_band > 2.0   # the band's width, inside the ecliptic
     assert stroke_width_mm(ecliptic.stroke, kit.dims) > stroke_width_mm(band.stroke, kit.dims)
     cx, cy = ecliptic.geom["center"]
