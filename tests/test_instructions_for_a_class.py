@@ -125,3 +125,20 @@ def test_a_tiled_kit_says_which_marks_to_pierce():
     assert w("printing.tiles_pierce") in texts
     _, texts = _text_blocks("latitude: 52.2\nepoch: 2027\n")
     assert w("printing.tiles_pierce") not in texts
+
+
+def test_the_cutting_step_tells_the_zenith_from_a_hole():
+    """The plate's zenith mark, an open ×, sits inside the innermost
+    almucantar and looks like a circle with a cross to a pupil told to
+    pierce "every cross-marked circle" (a teacher's look): the step says
+    the × is the zenith and no hole, in the kit's language, and the plate
+    draws it as a point of its own at the zenith's place, no hole."""
+    for language in ("en", "fr", "ar"):
+        kit = build_kit(parse_recipe_text(f"latitude: 52.2\nepoch: 2027\nlanguage: {language}\n"))
+        texts = [b.text for b in story(kit, layout_kit(kit))]
+        (cut,) = [t for t in texts if t.startswith(kit.words("instructions.cut")[:30])]
+        assert "×" in cut
+        plate = kit.part("plate")
+        assert len(plate.with_role("zenith")) == 1 and not any(
+            e.values.get("hole") for e in plate.with_role("zenith"))
+    assert "The small × on the plate marks the zenith: it is not a hole." in load_words("en")("instructions.cut")
