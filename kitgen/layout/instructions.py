@@ -290,7 +290,7 @@ def story(kit, pages) -> list[Block]:
     if plate_fig is not None:   # the plate's lines named (#9), under the glossary's heading
         glossary.insert(1, Block("figure", w("instructions.figure_plate"), figure=plate_fig))
     out += glossary
-    out += sunrise_blocks(kit) + star_blocks(kit)
+    out += sunrise_blocks(kit) + unequal_blocks(kit) + star_blocks(kit)
     out += accuracy_blocks(kit)
     out += worksheet_blocks(kit)   # last: its answer key is the last page (answer_key_page)
     return out
@@ -541,6 +541,34 @@ def sunrise_blocks(kit) -> list[Block]:
             entries.append((r.month, w("almanac.rise_set_entry", day=day, rise=clock_text(w, r.rise_min / 60.0),
                                        set=clock_text(w, r.set_min / 60.0), length=_length(w, r.day_length_whole_min))))
     return out + _month_rows(kit, entries)
+
+
+def has_unequal_hours(kit) -> bool:
+    """Whether the kit's plates draw the unequal hours (none where the
+    recipe leaves them out, nor at a pole, where the Sun neither rises
+    nor sets on a day)."""
+    return any(e.role == "unequal_hour" for p in kit.parts_of("plate") for e in p.elements)
+
+
+@_per_kit
+def unequal_blocks(kit) -> list[Block]:
+    """Reading the unequal hour of the day from the plate's lines, with the
+    site's example (kitgen.sky.worked_example.unequal_example): drawn and
+    named in the glossary, no step had used them (#12 review).  The Sun's
+    opposite point among the lines below the horizon shows the hour, as
+    the lines are drawn (kitgen.parts.plate)."""
+    if not has_unequal_hours(kit):
+        return []
+    w = kit.words
+    out = [Block("heading", w("almanac.unequal_heading"))]
+    out += [Block("item", s, w.number(k) + ".") for k, s in enumerate(w.items("almanac.unequal_steps"), start=1)]
+    ex = kit.plan.examples.unequal
+    if ex is not None:
+        out.append(Block("body", w("almanac.unequal_example", place=_place(kit), date=_date(kit, ex.month, ex.day),
+                                   altitude=w.number(ex.altitude_deg), sun_place=sun_place(w, ex.sun_longitude_deg),
+                                   opposite=sun_place(w, ex.sun_longitude_deg + 180.0), hour=w.number(ex.hour),
+                                   minutes=w.number(round(ex.hour_minutes)))))
+    return out
 
 
 @_per_kit

@@ -21,8 +21,11 @@ The Sun's example is a morning in the epoch year when the Sun stands
 between 15 and 60 deg at 10:00 local apparent time; the star's, an evening
 at 21:00 (20:00 or 22:00) on the almanac's clock when the Sun is at
 least 12 deg below the horizon, with the brightest named star of the rete
-between 20 and 70 deg, at least two hours from the meridian.  Degrees at
-the edges, radians inside, times in hours.
+between 20 and 70 deg, at least two hours from the meridian.  The
+unequal hours' example is a morning of the Sun's example's date (or the
+next month that suits) on an almucantar where the Sun's point opposite
+stands well inside one of the plate's unequal hours.  Degrees at the
+edges, radians inside, times in hours.
 """
 
 from __future__ import annotations
@@ -81,11 +84,27 @@ class StarExample:
 
 
 @dataclass(frozen=True)
+class UnequalExample:
+    """The instructions' worked example of the unequal hours: a morning's
+    measured altitude, the Sun's place, the unequal hour the point of the
+    ecliptic opposite it shows among the plate's lines, and how long that
+    day's unequal hours last."""
+
+    month: int
+    day: int
+    sun_longitude_deg: float
+    altitude_deg: float          # the measured altitude (on an almucantar), east of the meridian
+    hour: int                    # 1 to 12: the unequal hour of the day, counted from sunrise
+    hour_minutes: float          # the length of each of that day's unequal hours
+
+
+@dataclass(frozen=True)
 class WorkedExamples:
-    """The instructions' two worked examples, each None where none suits."""
+    """The instructions' worked examples, each None where none suits."""
 
     sun: SunExample | None       # None where the Sun never stands right (polar night all year)
     star: StarExample | None     # None where no night or no star suits
+    unequal: UnequalExample | None = None   # None where no day has a morning that suits
 
 
 def _altitude_rad(phi: float, dec: float, hour_angle: float) -> float:
@@ -182,10 +201,65 @@ def star_example(latitude_deg: float, sky: SkyForKit, almanac: Almanac, grid_deg
     return None
 
 
+#: How far inside its unequal hour (a share of the hour from either of
+#: its lines) the example's point stands, so that a pupil's reading on a
+#: paper plate is not one line off.
+UNEQUAL_INSIDE = 0.25
+SUN_FROM_NOON_RAD = math.radians(30.0)
+
+
+def unequal_hour(phi: float, dec: float, hour_angle: float) -> float | None:
+    """The unequal hours of daylight passed since sunrise (0 to 12) when
+    the Sun, at declination ``dec``, stands at ``hour_angle`` (radians,
+    west positive) seen from latitude ``phi``, the horizon the
+    astronomical one (no refraction, as the plate draws it); None on a
+    day without sunrise and sunset.  The day's 12 hours are its arc
+    above the horizon, from hour angle -H0 to H0, cos H0 = -tan(phi)
+    tan(dec) (Meeus 1998, eq. 15.1, with h0 = 0): the plate's unequal hour
+    line k (kitgen.parts.plate) is where the Sun's opposite point stands
+    k/12 of the way along its own night arc, which is the Sun's day."""
+    x = -math.tan(phi) * math.tan(dec)
+    if not -1.0 < x < 1.0:
+        return None
+    h0 = math.acos(x)
+    return (hour_angle + h0) / (2 * h0) * 12.0
+
+
+def unequal_example(latitude_deg: float, sky: SkyForKit, first_month: int | None = None,
+                    grid_deg: float = 10.0) -> UnequalExample | None:
+    """A morning on which the Sun measured on an almucantar of the grid
+    puts its opposite point at least :data:`UNEQUAL_INSIDE` of an hour
+    inside one of the plate's unequal hours, two hours or more before
+    noon (where the Sun's altitude still changes fast enough to set the
+    rete by): the Sun's example's month
+    first (``first_month``), then the others in :data:`MONTH_ORDER`, on
+    the almucantar that puts it nearest the middle of its hour (the
+    lower of two as near); None where no morning suits (no sunrise, or
+    the Sun never high enough)."""
+    phi = math.radians(latitude_deg)
+    months = ([first_month] if first_month else []) + [m for m in MONTH_ORDER if m != first_month]
+    for month in months:
+        lon = next(x for m, d, x in sky.calendar if (m, d) == (month, EXAMPLE_DAY))
+        _, dec = sun_place_rad(lon, sky.obliquity_rad)
+        top = math.degrees(_altitude_rad(phi, dec, 0.0))
+        found = []
+        for k in range(1, int(top // grid_deg) + 1):
+            h = hour_angle_rad(phi, dec, math.radians(k * grid_deg))
+            passed = None if h is None or h < SUN_FROM_NOON_RAD else unequal_hour(phi, dec, -h)
+            if passed is not None and UNEQUAL_INSIDE <= passed % 1.0 <= 1.0 - UNEQUAL_INSIDE:
+                found.append((abs(passed % 1.0 - 0.5), k * grid_deg, passed))
+        if found:
+            _, altitude, passed = min(found)
+            h0_deg = math.degrees(math.acos(-math.tan(phi) * math.tan(dec)))
+            return UnequalExample(month, EXAMPLE_DAY, lon, altitude, int(passed) + 1, 2 * h0_deg / 15.0 * 5.0)
+    return None
+
+
 def worked_examples(latitude_deg: float, sky: SkyForKit, almanac: Almanac,
                     altitude_step_deg: float = 5.0) -> WorkedExamples:
-    """Both examples for the site (see the module docstring), measured on
+    """The examples for the site (see the module docstring), measured on
     almucantars the plates draw at ``altitude_step_deg``."""
     grid = altitude_grid_deg(altitude_step_deg)
-    return WorkedExamples(sun_example(latitude_deg, sky, almanac, grid),
-                          star_example(latitude_deg, sky, almanac, grid))
+    sun = sun_example(latitude_deg, sky, almanac, grid)
+    return WorkedExamples(sun, star_example(latitude_deg, sky, almanac, grid),
+                          unequal_example(latitude_deg, sky, sun.month if sun else None, grid))
