@@ -141,4 +141,9 @@ def test_the_cutting_step_tells_the_zenith_from_a_hole():
         plate = kit.part("plate")
         assert len(plate.with_role("zenith")) == 1 and not any(
             e.values.get("hole") for e in plate.with_role("zenith"))
-    assert "The small × on the plate marks the zenith: it is not a hole." in load_words("en")("instructions.cut")
+    assert load_words("en")("instructions.cut_zenith") == "The small × on the plate marks the zenith: it is not a hole."
+    # A kit printed without a plate has no zenith mark, and its cutting step says nothing of one.
+    kit = build_kit(parse_recipe_text("latitude: 52.2\nepoch: 2027\nparts: [rete, rule]\n"))
+    texts = [b.text for b in story(kit, layout_kit(kit))]
+    (cut,) = [t for t in texts if t.startswith(kit.words("instructions.cut")[:30])]
+    assert "×" not in cut and kit.words("instructions.cut_zenith") not in " ".join(texts)

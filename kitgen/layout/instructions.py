@@ -263,7 +263,10 @@ def story(kit, pages) -> list[Block]:
             out.append(Block("item", w("instructions.print_answers", page=w.number(answers.number)), "\u2022"))
     out.append(Block("item", w("instructions.print_scale", length=length, percent=w.number(100)), "\u2022"))
     out += [Block("item", s, "\u2022") for s in print_notes(kit, pages)]
-    out += [Block("heading", w("instructions.cut_heading")), Block("body", w("instructions.cut"))]
+    cut = w("instructions.cut")
+    if "plate" in kit.plan.parts:   # (its zenith's small ×, no hole: said only where a plate is printed)
+        cut += " " + w("instructions.cut_zenith")
+    out += [Block("heading", w("instructions.cut_heading")), Block("body", cut)]
     out += cut_blocks(kit)
     if any(pl.piece is not None for p in pages for pl in p.placements):
         out.append(Block("body", w("printing.tiles")))
