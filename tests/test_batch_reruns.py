@@ -85,6 +85,10 @@ def test_language_tags_are_case_insensitive(tmp_path):
     assert _batch(tmp_path, {"defaults": DEFAULTS, "kits": [{"owner": "Ada", "language": " FR"}]}, "upper") == 0
     assert _hashes(tmp_path / "lower") == _hashes(tmp_path / "upper")
     assert _manifest(tmp_path / "upper")[0]["language"] == "fr"
+    # a row refused for another key writes its language as the kits built do (it wrote " FR")
+    assert _batch(tmp_path, {"defaults": DEFAULTS, "kits": [{"owner": "Bo", "language": " FR", "latitude": 95}]},
+                  "refused") == 2
+    assert _manifest(tmp_path / "refused")[0]["language"] == "fr"
 
 
 def test_a_roster_as_a_spreadsheet_saves_it(tmp_path, capsys):

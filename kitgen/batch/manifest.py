@@ -43,6 +43,7 @@ import csv
 import io
 from dataclasses import MISSING, fields
 
+from ..recipe.load import shipped_language
 from ..recipe.schema import Recipe
 from .printfiles import MATERIALS, sheet_key
 
@@ -67,6 +68,7 @@ def manifest_row(kit, file_name: str, result, spans: dict, error: str) -> dict:
     else:   # the row as given; a key it leaves out, the recipe's default
         owner, title, place = (_text(tree.get(k)) for k in ("owner", "title", "place"))
         latitude, language, sheet = (_text(tree.get(k, _DEFAULTS.get(k))) for k in ("latitude", "language", "sheet"))
+        language = shipped_language(language) or language   # "EN" as the kits built write it, "en"
     ok = not error
     materials = result.materials if ok else ()
     status = STATUS_OK if ok else error

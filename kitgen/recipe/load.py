@@ -563,11 +563,11 @@ def _check(key, value, where, local_stars: dict | None = None):
             # Language tags are case-insensitive (BCP 47, RFC 5646 section
             # 2.1.1): "EN" and "Fr", as a spreadsheet's column may hold them,
             # are the shipped "en" and "fr".
-            shipped = {code.lower(): code for code in available_languages()}
-            if value.strip().lower() not in shipped:
+            code = shipped_language(value)
+            if code is None:
                 raise UserError("errors.unknown_language", label=label, value=shown(value),
                                 codes=available_languages())
-            return shipped[value.strip().lower()]
+            return code
         return value
     if key.kind == "choice":
         if not isinstance(value, str) or value.lower() not in key.choices:
@@ -636,6 +636,16 @@ def _check_plates(value, label: Message, where) -> tuple[PlateSpec, ...]:
     if north and south:
         raise UserError("errors.plates_mixed", label=label)
     return tuple(plates)
+
+
+def shipped_language(value) -> str | None:
+    """The shipped language a recipe's ``language`` names, whatever its
+    case and the spaces round it (language tags are case-insensitive,
+    BCP 47, RFC 5646 section 2.1.1: "EN" and " Fr " are "en" and "fr"), or
+    None where it names none."""
+    if not isinstance(value, str):
+        return None
+    return {code.lower(): code for code in available_languages()}.get(value.strip().lower())
 
 
 def _known_star(name: str, where):
