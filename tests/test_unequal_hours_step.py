@@ -34,8 +34,9 @@ from kitgen.sky.worked_example import sun_place_rad
 
 from .skyfield_reference import ephemeris
 
-#: Sites (latitude, sheet): north, south, near the equator, near the polar circle.
-SITES = ((51.5, "a4"), (41.1, "a4"), (-33.9, "a4"), (0.2, "letter"), (60.2, "a4"), (-45.0, "a5"))
+#: Sites (latitude, sheet): north, south, near the equator, near and beyond the polar circles.
+SITES = ((51.5, "a4"), (41.1, "a4"), (-33.9, "a4"), (0.2, "letter"), (60.2, "a4"), (-45.0, "a5"), (69.6, "a4"),
+         (-70.0, "a5"))
 LANGUAGES = ("en", "es", "fr", "de", "pt", "it", "el", "ru", "ar", "hi")
 
 
@@ -133,6 +134,21 @@ def test_example_point_between_the_drawn_lines(latitude_deg, sheet):
     rise, up, down = _skyfield_day(latitude_deg, ex.month, ex.day, ex.altitude_deg)
     day_share = (up - rise) / (down - rise)
     assert share[ex.hour - 1] < day_share < share[ex.hour]
+
+
+@pytest.mark.parametrize("latitude_deg, sheet", ((67.0, "a4"), (69.6, "a5"), (-70.0, "a4"), (75.0, "a4")))
+def test_every_hour_numbered_beyond_the_polar_circle(latitude_deg, sheet):
+    """Beyond a polar circle the lines are drawn for the days with a
+    sunrise and a sunset (Meeus eq. 15.1), and numbered as elsewhere:
+    each hour's number is on the plate or named in the build's notes
+    (they had been drawn without numbers, and the step reads a number)."""
+    kit = _kit(latitude_deg, sheet)
+    plate = kit.parts_of("plate")[0]
+    assert any(e.role == "unequal_hour" for e in plate.elements)
+    numbered = {e.values["hour"] for e in plate.elements if e.role == "unequal_hour_label"}
+    left_out = set(plate.values.get("labels_left_out", ()))
+    assert all(k in numbered or kit.words.number(k) in left_out for k in range(1, 13))
+    assert len(numbered) >= 11
 
 
 def test_steps_only_with_the_lines():

@@ -241,7 +241,7 @@ def _labels(ctx, phi, s, R, disc, strokes):
         lab.almucantar(alt, True)
     for alt_deg, hour_angle, dec in _examples_read(ctx, phi):
         lab.example_almucantar(alt_deg, hour_angle, dec, s, R)
-    if ctx.plan.drawing.unequal_hours and abs(math.degrees(phi)) < 90.0 - math.degrees(eps):
+    if ctx.plan.drawing.unequal_hours:
         for k in range(1, 13):
             lab.unequal_hour(k, phi, s, R, eps)
     az_step = ctx.scales.azimuth_step_deg
