@@ -529,7 +529,13 @@ def sunrise_blocks(kit) -> list[Block]:
     if drawn:   # the plate's twilight lines, read as its horizon is (#12 review: drawn, and no step used them)
         lines = w("page.list_separator").join(w("plate.line_twilight_short", altitude=true_minus(w.number(alt)))
                                               for alt in drawn)   # as the plate names them
-        out.append(Block("body", w("almanac.twilight_step", lines=lines)))
+        text = w("almanac.twilight_step", lines=lines)
+        for night in kit.plan.all_night:   # a line the Sun's point never reaches round midsummer (#12 review)
+            if night.altitude_deg in drawn:
+                text += " " + w("almanac.twilight_all_night", first=_date(kit, *night.first, False),
+                                last=_date(kit, *night.last, False),
+                                line=w("plate.line_twilight_short", altitude=true_minus(w.number(night.altitude_deg))))
+        out.append(Block("body", text))
     out.append(Block("body", w("almanac.sun_note")))
     out.append(Block("body", w("almanac.sun_table_intro", place=_place(kit), year=w.number(kit.plan.epoch),
                                clock_name=clock_name(kit))))

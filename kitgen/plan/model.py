@@ -10,6 +10,7 @@ from dataclasses import dataclass
 
 from ..paper import Sheet
 from ..sky.almanac import SkyForKit
+from ..sky.all_night import AllNight
 from ..sky.site_almanac import Almanac
 from ..sky.worked_example import WorkedExamples
 from ..sky.worksheet import Question
@@ -90,6 +91,8 @@ class Plan:
     worksheet: tuple[Question, ...] = ()  # the worksheet's questions, when the recipe asks for one (#10)
     accuracy_page: bool = False    # kitgen check's report as a page of the kit (#10)
     owner: str = ""                # whose kit it is, printed small on every part (#9)
+    #: the plate's twilights that last all night round midsummer, with their dates (kitgen.sky.all_night)
+    all_night: tuple[AllNight, ...] = ()
 
     @property
     def latitude_deg(self) -> float:

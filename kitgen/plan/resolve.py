@@ -18,6 +18,7 @@ from ..sky.almanac import sky_for_kit
 from ..sky.clock import clock_longitude_deg
 from ..sky.rete_rim import kit_rim_deg
 from ..sky.site_almanac import almanac_for_site
+from ..sky.all_night import all_night_twilights
 from ..sky.worked_example import worked_examples
 from ..sky.worksheet import worksheet_questions
 from ..words.templates import Words, load_words, words_from_tree
@@ -105,4 +106,5 @@ def plan_kit(recipe: Recipe) -> Plan:
         worksheet=worksheet_questions(site.latitude_deg, sky, almanac) if recipe.worksheet else (),
         accuracy_page=recipe.accuracy_page,
         owner=recipe.owner,
+        all_night=all_night_twilights(site.latitude_deg, sky, twilight_altitudes_deg(recipe.twilight)),
     )
