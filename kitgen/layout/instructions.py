@@ -286,6 +286,7 @@ def story(kit, pages) -> list[Block]:
     out += clock_step(kit, len(w.items("instructions.time_steps")) + 1)
     out.append(Block("body", w("instructions.time_note_standard" if _zoned(kit) and not _summer(kit)
                                else "instructions.time_note")))
+    out += reading_between_blocks(kit)
     out += sun_example_blocks(kit) + correction_blocks(kit)
     out.append(Block("heading", w("instructions.height_heading")))
     out += numbered("instructions.height_steps")
@@ -468,6 +469,52 @@ def _zone_meridian(w) -> Block:
     longitude and time zone): 15 deg for each hour from UTC, by the
     definition of the standard zones (common practice)."""
     return Block("body", w("almanac.zone_meridian"))
+
+
+def _finest_step(values) -> float | None:
+    """The smallest gap between the distinct ``values`` (a scale's ticks
+    or lines), or None with fewer than two."""
+    ordered = sorted({round(v, 6) for v in values})
+    steps = [b - a for a, b in zip(ordered, ordered[1:])]
+    return min(steps) if steps else None
+
+
+def scale_steps(kit) -> tuple[float, float, float] | None:
+    """(minutes between the hour ring's finest ticks, degrees between the
+    altitude scale's, degrees between the plate's almucantars), as the
+    parts draw them (ticks thinned away left out), or None where the kit
+    lacks one of those parts."""
+    front, back, plate = (kit.parts_of(kind) for kind in ("mater_front", "mater_back", "plate"))
+    if not (front and back and plate):
+        return None
+
+    def drawn(part, role, key):
+        return [e.values[key] for e in part[0].elements if e.role == role and e.stroke != "none"]
+
+    hours = _finest_step(drawn(front, "hour_tick", "hour"))
+    degrees = _finest_step(drawn(back, "altitude_tick", "altitude_deg"))
+    step = _finest_step(drawn(plate, "almucantar", "altitude_deg"))
+    if hours is None or degrees is None or step is None:
+        return None
+    return hours * 60.0, degrees, step
+
+
+def reading_between_blocks(kit) -> list[Block]:
+    """How fine the scales are and that a reading lies between their
+    marks (a teacher's look: read only to the nearest tick, ``kitgen
+    check`` finds the Sun's time up to 5 to 14 minutes out, read between
+    them within about a minute), with the kit's own steps."""
+    steps = scale_steps(kit)
+    if steps is None:
+        return []
+    w = kit.words
+    minutes, degrees, step = steps
+
+    def shown(value):
+        return w.number(value, 0 if abs(value - round(value)) < 0.01 else 1)
+
+    return [Block("body", w("instructions.read_between", minutes=shown(minutes), degrees=shown(degrees),
+                            step=shown(step)))]
 
 
 @_per_kit

@@ -304,6 +304,7 @@ def split_blocks(blocks, width_pt: float, height_pt: float, words, n_pages: int)
         alone, after, lines = (list(column) for column in measured)
         chunks, current, used = [], [], 0.0
         order, at = list(range(len(blocks))), 0
+        split_from = {}   # a first half's index: the block it was split from
         while at < len(order):
             k = order[at]
             if k in breaks:
@@ -324,6 +325,7 @@ def split_blocks(blocks, width_pt: float, height_pt: float, words, n_pages: int)
                     for column, values in zip((blocks, alone, after, lines), (halves,) + tuple(measured)):
                         column.extend(values)
                     order[at:at + 1] = [len(blocks) - 2, len(blocks) - 1]
+                    split_from[len(blocks) - 2] = k
                     continue
                 moved = _kept_with_next(blocks, current, lines)
                 if not moved:
@@ -338,8 +340,27 @@ def split_blocks(blocks, width_pt: float, height_pt: float, words, n_pages: int)
         chunks = [ch for ch in chunks + [current] if ch]
         heights = [alone[ch[0]] + sum(after[i] for i in ch[1:]) for ch in chunks]
         if len(chunks) <= n_pages and max(heights) <= height_pt:
-            return size, [[blocks[i] for i in ch] for ch in chunks]
+            return size, [[blocks[i] for i in _rejoined(ch, split_from)] for ch in chunks]
     return None
+
+
+def _rejoined(chunk: list[int], split_from: dict) -> list[int]:
+    """A page's blocks (indices) with each paragraph split over two pages
+    whose halves both ended on this one made whole again: a heading kept
+    with its text (:func:`_kept_with_next`) can take a first half to the
+    next page, where its rest already goes (#12 review: a German worked
+    example broken after a colon in mid-page).  A whole paragraph takes no
+    more room than its two halves."""
+    out = list(chunk)
+    j = 0
+    while j < len(out) - 1:
+        first = out[j]
+        if first in split_from and out[j + 1] == first + 1:
+            out[j:j + 2] = [split_from[first]]
+            j = max(0, j - 1)   # (the whole may itself be a half of an earlier split)
+            continue
+        j += 1
+    return out
 
 
 #: Kinds of paragraph a picture may float past (:func:`_floated_past`)
