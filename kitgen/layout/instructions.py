@@ -574,14 +574,15 @@ def sunrise_blocks(kit) -> list[Block]:
     out += [Block("item", s, w.number(k) + ".") for k, s in enumerate(w.items("almanac.sun_steps"), start=1)]
     drawn = twilight_altitudes(kit)
     if drawn:   # the plate's twilight lines, read as its horizon is (#12 review: drawn, and no step used them)
-        lines = w("page.list_separator").join(w("plate.line_twilight_short", altitude=true_minus(w.number(alt)))
-                                              for alt in drawn)   # as the plate names them
-        text = w("almanac.twilight_step", lines=lines)
+
+        def line(alt):   # as the plate names it
+            return w("plate.line_twilight_short", altitude=true_minus(w.number(alt)))
+
+        text = w("almanac.twilight_step", lines=w("page.list_separator").join(line(alt) for alt in drawn))
         for night in kit.plan.all_night:   # a line the Sun's point never reaches round midsummer (#12 review)
             if night.altitude_deg in drawn:
                 text += " " + w("almanac.twilight_all_night", first=_date(kit, *night.first, False),
-                                last=_date(kit, *night.last, False),
-                                line=w("plate.line_twilight_short", altitude=true_minus(w.number(night.altitude_deg))))
+                                last=_date(kit, *night.last, False), line=line(night.altitude_deg))
         out.append(Block("body", text))
     out.append(Block("body", w("almanac.sun_note")))
     out.append(Block("body", w("almanac.sun_table_intro", place=_place(kit), year=w.number(kit.plan.epoch),

@@ -16,7 +16,10 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass
 
+import numpy as np
+
 from .almanac import SkyForKit
+from .ecliptic import ecliptic_to_equatorial_rad
 
 
 @dataclass(frozen=True)
@@ -43,9 +46,9 @@ def all_night_twilights(latitude_deg: float, sky: SkyForKit, altitudes_deg) -> t
     run over the turn of the year, as in the south, from its first date
     in December to its last in January); none where every night or no
     night reaches it."""
-    eps = sky.obliquity_rad
-    lowest = [(m, d, lowest_altitude_deg(latitude_deg, math.degrees(math.asin(math.sin(eps) * math.sin(
-        math.radians(lon)))))) for m, d, lon in sky.calendar]
+    _, dec = ecliptic_to_equatorial_rad(np.radians([lon for _, _, lon in sky.calendar]), sky.obliquity_rad)
+    lowest = [(m, d, lowest_altitude_deg(latitude_deg, math.degrees(x)))
+              for (m, d, _), x in zip(sky.calendar, dec.tolist())]
     out = []
     for alt in altitudes_deg:
         light = [h > alt for _, _, h in lowest]

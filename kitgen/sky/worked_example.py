@@ -218,10 +218,9 @@ def unequal_hour(phi: float, dec: float, hour_angle: float) -> float | None:
     tan(dec) (Meeus 1998, eq. 15.1, with h0 = 0): the plate's unequal hour
     line k (kitgen.parts.plate) is where the Sun's opposite point stands
     k/12 of the way along its own night arc, which is the Sun's day."""
-    x = -math.tan(phi) * math.tan(dec)
-    if not -1.0 < x < 1.0:
+    h0 = hour_angle_rad(phi, dec, 0.0)
+    if h0 is None or not 0.0 < h0 < math.pi:
         return None
-    h0 = math.acos(x)
     return (hour_angle + h0) / (2 * h0) * 12.0
 
 
@@ -231,11 +230,10 @@ def unequal_example(latitude_deg: float, sky: SkyForKit, first_month: int | None
     puts its opposite point at least :data:`UNEQUAL_INSIDE` of an hour
     inside one of the plate's unequal hours, two hours or more before
     noon (where the Sun's altitude still changes fast enough to set the
-    rete by): the Sun's example's month
-    first (``first_month``), then the others in :data:`MONTH_ORDER`, on
-    the almucantar that puts it nearest the middle of its hour (the
-    lower of two as near); None where no morning suits (no sunrise, or
-    the Sun never high enough)."""
+    rete by): the Sun's example's month first (``first_month``), then the
+    others in :data:`MONTH_ORDER`, on the almucantar that puts it nearest
+    the middle of its hour (the lower of two as near); None where no
+    morning suits (no sunrise, or the Sun never high enough)."""
     phi = math.radians(latitude_deg)
     months = ([first_month] if first_month else []) + [m for m in MONTH_ORDER if m != first_month]
     for month in months:
@@ -250,8 +248,8 @@ def unequal_example(latitude_deg: float, sky: SkyForKit, first_month: int | None
                 found.append((abs(passed % 1.0 - 0.5), k * grid_deg, passed))
         if found:
             _, altitude, passed = min(found)
-            h0_deg = math.degrees(math.acos(-math.tan(phi) * math.tan(dec)))
-            return UnequalExample(month, EXAMPLE_DAY, lon, altitude, int(passed) + 1, 2 * h0_deg / 15.0 * 5.0)
+            day_min = 2 * hour_angle_rad(phi, dec, 0.0) / (2 * math.pi) * 1440.0   # sunrise to sunset
+            return UnequalExample(month, EXAMPLE_DAY, lon, altitude, int(passed) + 1, day_min / 12.0)
     return None
 
 
