@@ -17,9 +17,20 @@ IN_SENTENCE = "almanac.place_latitude"
 def latitude_text(words, latitude_deg: float, form: str = LABEL) -> str:
     """'Latitude 48.2° N' in the kit's language, in the ``form`` (one of
     the keys above); one decimal, as recipes give it, rounded as the
-    decimal figures read (:func:`tenths`)."""
+    decimal figures read (:func:`tenths`).  The equator, 0.0° as
+    rounded, is neither north nor south and takes no letter (as an atlas
+    writes it, common practice): "Latitude 0.0°", where it read "0.0° N"
+    on a kit drawn at 0.04 S."""
+    value = tenths(abs(latitude_deg))
+    if value == 0.0:   # every form ends with the letter: the space before it goes too
+        return words(form, value=words.number(value, 1), hemisphere="").rstrip(_SPACES)
     hemi = words("cardinal.north_short") if latitude_deg >= 0 else words("cardinal.south_short")
-    return words(form, value=words.number(tenths(abs(latitude_deg)), 1), hemisphere=hemi)
+    return words(form, value=words.number(value, 1), hemisphere=hemi)
+
+
+#: The spaces the languages write before a hemisphere's letter (plain,
+#: no-break, narrow no-break, thin).
+_SPACES = " \u00a0\u202f\u2009"
 
 
 def tenths(value: float) -> float:
