@@ -578,7 +578,8 @@ def sunrise_blocks(kit) -> list[Block]:
         def line(alt):   # as the plate names it
             return w("plate.line_twilight_short", altitude=true_minus(w.number(alt)))
 
-        text = w("almanac.twilight_step", lines=w("page.list_separator").join(line(alt) for alt in drawn))
+        key = "almanac.twilight_step_one" if len(drawn) == 1 else "almanac.twilight_step"   # "on it", not "on one of them"
+        text = w(key, lines=w("page.list_separator").join(line(alt) for alt in drawn))
         for night in kit.plan.all_night:   # a line the Sun's point never reaches round midsummer (#12 review)
             if night.altitude_deg in drawn:
                 text += " " + w("almanac.twilight_all_night", first=_date(kit, *night.first, False),
