@@ -147,3 +147,26 @@ def test_the_cutting_step_tells_the_zenith_from_a_hole():
     texts = [b.text for b in story(kit, layout_kit(kit))]
     (cut,) = [t for t in texts if t.startswith(kit.words("instructions.cut")[:30])]
     assert "×" not in cut and kit.words("instructions.cut_zenith") not in " ".join(texts)
+
+
+#: The word for a zodiac sign in each language's step (the templates' own).
+SIGN_WORD = {"en": "zodiac sign", "de": "Tierkreiszeichen", "es": "signo del zodiaco", "fr": "signe du zodiaque",
+             "it": "segno dello zodiaco", "pt": "signo do zodíaco", "ru": "знак зодиака", "el": "ζώδιο",
+             "ar": "برج", "hi": "राशि"}
+
+
+@pytest.mark.parametrize("language", sorted(SIGN_WORD))
+def test_the_suns_longitude_is_read_as_the_back_writes_it(language):
+    """The step that reads the Sun's ecliptic longitude by the date says
+    that the back gives it as a sign and degrees within that sign, as its
+    ring is numbered (0 to 29 in each sign, the common practice of
+    astrolabes' zodiac scales): the glossary defines the longitude from
+    the start of Aries, 0 to 360, and a pupil looked for such a number
+    (a teacher's look)."""
+    assert set(SIGN_WORD) == set(available_languages())
+    kit = build_kit(parse_recipe_text(f"latitude: 45\nlanguage: {language}\n"))
+    numbers = [e.geom["text"] for p in kit.parts_of("mater_back") for e in p.elements if e.role == "zodiac_number"]
+    digits = [int("".join(ch for ch in t if ch.isdigit()) or -1) for t in numbers if any(c.isdigit() for c in t)]
+    assert digits and max(digits) < 30
+    step = kit.words.items("instructions.time_steps")[2]
+    assert SIGN_WORD[language] in step, step
