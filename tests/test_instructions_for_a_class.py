@@ -170,3 +170,17 @@ def test_the_suns_longitude_is_read_as_the_back_writes_it(language):
     assert digits and max(digits) < 30
     step = kit.words.items("instructions.time_steps")[2]
     assert SIGN_WORD[language] in step, step
+
+
+@pytest.mark.parametrize("language", sorted(SIGN_WORD))
+def test_the_backs_year_line_names_the_rete_it_dates(language):
+    """The back's year line dates the calendar on it and the rete's star
+    places, and says so by the rete's own name: it read "Calendar and
+    stars for 2026" on a face that draws no star (a teacher's look)."""
+    kit = build_kit(parse_recipe_text(f"latitude: 45\nlanguage: {language}\n"))
+    back = [e for p in kit.parts_of("mater_back") for e in p.elements]
+    assert not any(e.role.startswith("star") for e in back)
+    line = " ".join(e.geom["text"] for e in back if e.role == "epoch")
+    rete_name = kit.words("rete.title").split(" (")[0]
+    assert rete_name.casefold() in line.casefold(), (line, rete_name)
+    assert kit.words.number(kit.plan.epoch) in line
