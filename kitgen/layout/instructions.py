@@ -585,7 +585,9 @@ def sunrise_blocks(kit) -> list[Block]:
                 text += " " + w("almanac.twilight_all_night", first=_date(kit, *night.first, False),
                                 last=_date(kit, *night.last, False), line=line(night.altitude_deg))
         out.append(Block("body", text))
-    out.append(Block("body", w("almanac.sun_note")))
+    lead = kit.plan.horizon_lead_min   # how far the table's times stand from the plate's, here (#12 review)
+    out.append(Block("body", w("almanac.sun_note") if lead is None else
+                     w("almanac.sun_note_minutes", low=w.number(lead[0]), high=w.number(lead[1]))))
     out.append(Block("body", w("almanac.sun_table_intro", place=_place(kit), year=w.number(kit.plan.epoch),
                                clock_name=clock_name(kit))))
     entries = []

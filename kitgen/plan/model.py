@@ -93,6 +93,9 @@ class Plan:
     owner: str = ""                # whose kit it is, printed small on every part (#9)
     #: the plate's twilights that last all night round midsummer, with their dates (kitgen.sky.all_night)
     all_night: tuple[AllNight, ...] = ()
+    #: the least and most minutes by which the table's sunrise comes before
+    #: the plate's, over the year (kitgen.sky.horizon_lead); None at a pole
+    horizon_lead_min: tuple[int, int] | None = None
 
     @property
     def latitude_deg(self) -> float:

@@ -19,6 +19,7 @@ from ..sky.clock import clock_longitude_deg
 from ..sky.rete_rim import kit_rim_deg
 from ..sky.site_almanac import almanac_for_site
 from ..sky.all_night import all_night_twilights
+from ..sky.horizon_lead import horizon_lead_min
 from ..sky.worked_example import worked_examples
 from ..sky.worksheet import worksheet_questions
 from ..words.templates import Words, load_words, words_from_tree
@@ -107,4 +108,5 @@ def plan_kit(recipe: Recipe) -> Plan:
         accuracy_page=recipe.accuracy_page,
         owner=recipe.owner,
         all_night=all_night_twilights(site.latitude_deg, sky, twilight_altitudes_deg(recipe.twilight)),
+        horizon_lead_min=horizon_lead_min(site.latitude_deg, sky),
     )
