@@ -590,7 +590,7 @@ def sunrise_blocks(kit) -> list[Block]:
                      w("almanac.sun_note_minutes", low=w.number(lead[0]), high=w.number(lead[1]))))
     out.append(Block("body", w("almanac.sun_table_intro", place=_place(kit), year=w.number(kit.plan.epoch),
                                clock_name=clock_name(kit))))
-    entries = []
+    entries, next_day = [], False
     for r in kit.plan.almanac.sun_rise_set:
         day = w.number(r.day)
         if r.reason == "polar_day":
@@ -598,9 +598,23 @@ def sunrise_blocks(kit) -> list[Block]:
         elif r.reason == "polar_night":
             entries.append((r.month, w("almanac.polar_night", day=day)))
         else:
+            sunset = clock_text(w, r.set_min / 60.0)
+            if after_midnight(r):   # "3:32–0:08" read as a sunset before the sunrise (#12 review)
+                sunset, next_day = sunset + NEXT_DAY_MARK, True
             entries.append((r.month, w("almanac.rise_set_entry", day=day, rise=clock_text(w, r.rise_min / 60.0),
-                                       set=clock_text(w, r.set_min / 60.0), length=_length(w, r.day_length_whole_min))))
-    return out + _month_rows(kit, entries)
+                                       set=sunset, length=_length(w, r.day_length_whole_min))))
+    rows = _month_rows(kit, entries)
+    return out + rows + ([Block("body", NEXT_DAY_MARK + " " + w("almanac.after_midnight"))] if next_day else [])
+
+
+#: Marks a sunset of the table that falls after midnight, on the next day.
+NEXT_DAY_MARK = "*"
+
+
+def after_midnight(entry) -> bool:
+    """Whether a sunrise table entry's sunset, as printed (to the minute),
+    falls after midnight: its clock time earlier than the sunrise's."""
+    return int(round(entry.set_min)) % 1440 < int(round(entry.rise_min)) % 1440
 
 
 def has_unequal_hours(kit) -> bool:
