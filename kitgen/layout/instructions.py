@@ -188,12 +188,30 @@ def glossary_blocks(kit) -> list[Block]:
     lines explained only the -18 deg one)."""
     w = kit.words
     items = list(w.items("instructions.glossary"))
+    if _days_alike(kit):   # "a summer hour is longer than a winter one" is not so at the equator (#12 review)
+        same = w("instructions.glossary_unequal_equator")
+        term = same.split(":")[0]
+        items = [same if item.split(":")[0] == term else item for item in items]
     lines = [w(f"instructions.twilight_line_{TWILIGHT_KINDS[alt]}", altitude=true_minus(w.number(alt)))
              for alt in twilight_altitudes(kit)]
     if lines:
         items.append(w("instructions.glossary_twilight_lines", lines=w("page.list_separator").join(lines)))
     return ([Block("heading", w("instructions.glossary_heading"))]
             + [Block("item", s, "\u2022") for s in items])
+
+
+#: Below this spread of the day's length over the year (minutes), the
+#: unequal hours of summer and winter differ by under 2.5 minutes: about
+#: 4 degrees either side of the equator.
+DAYS_ALIKE_MIN = 30.0
+
+
+def _days_alike(kit) -> bool:
+    """Whether the site's days, by its sunrise table, differ in length by
+    less than :data:`DAYS_ALIKE_MIN` over the year (none in polar day or
+    night)."""
+    lengths = [r.day_length_min for r in kit.plan.almanac.sun_rise_set]
+    return all(r.reason is None for r in kit.plan.almanac.sun_rise_set) and max(lengths) - min(lengths) < DAYS_ALIKE_MIN
 
 
 #: The mater's two faces: what the thread, the knife and the glue are for.
