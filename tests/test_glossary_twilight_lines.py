@@ -88,3 +88,18 @@ def test_the_sunrise_steps_read_the_twilight_lines_drawn(recipe, drawn):
 def test_no_twilight_lines_no_step():
     assert _twilight_step({"latitude": 40.4, "language": "es", "twilight": "none"})[0] == []
     assert _twilight_step({"latitude": 40.4, "language": "en", "parts": ["rule", "alidade"]})[0] == []
+
+
+@pytest.mark.parametrize("recipe, one", [
+    ({"latitude": -33.9, "language": "es"}, True),
+    ({"latitude": 28.6, "language": "hi"}, True),
+    ({"latitude": 55.8, "language": "ru", "twilight": ["civil", "nautical"]}, False),
+])
+def test_one_twilight_line_is_named_as_one(recipe, one):
+    """A plate with one twilight line names it in the singular (a
+    teacher's look: "Las líneas de crepúsculo de esta lámina: −18°")."""
+    kit = build_kit(validate_recipe(dict(recipe, epoch=2027)))
+    key = "instructions.glossary_twilight_line_one" if one else "instructions.glossary_twilight_lines"
+    head = kit.words(key, lines="\uf8ff").split("\uf8ff")[0]
+    found = [b.text for b in glossary_blocks(kit) if b.text.startswith(head)]
+    assert len(found) == 1, (head, found)

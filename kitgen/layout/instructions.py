@@ -195,7 +195,8 @@ def glossary_blocks(kit) -> list[Block]:
     lines = [w(f"instructions.twilight_line_{TWILIGHT_KINDS[alt]}", altitude=true_minus(w.number(alt)))
              for alt in twilight_altitudes(kit)]
     if lines:
-        items.append(w("instructions.glossary_twilight_lines", lines=w("page.list_separator").join(lines)))
+        key = "instructions.glossary_twilight_line_one" if len(lines) == 1 else "instructions.glossary_twilight_lines"
+        items.append(w(key, lines=w("page.list_separator").join(lines)))
     return ([Block("heading", w("instructions.glossary_heading"))]
             + [Block("item", s, "\u2022") for s in items])
 
