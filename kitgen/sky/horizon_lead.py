@@ -41,10 +41,10 @@ def horizon_lead_min(latitude_deg: float, sky: SkyForKit) -> tuple[int, int] | N
     phi = math.radians(latitude_deg)
     _, dec = ecliptic_to_equatorial_rad(np.radians([lon for _, _, lon in sky.calendar]), sky.obliquity_rad)
     per_day = np.gradient(dec)
+    day_part = np.nan_to_num(_hour_angle(phi, dec, 0.0)) / (2.0 * math.pi)   # of a day, noon to the event
     leads = []
     for side in (-1.0, 1.0):   # the morning's event before noon, the evening's after
-        h = _hour_angle(phi, dec, 0.0)
-        at_event = dec + side * per_day * np.nan_to_num(h) / (2.0 * math.pi)
+        at_event = dec + side * per_day * day_part
         std, geo = _hour_angle(phi, at_event, math.radians(STANDARD_ALTITUDE_DEG)), _hour_angle(phi, at_event, 0.0)
         both = np.isfinite(std) & np.isfinite(geo)
         leads.append(np.degrees(std[both] - geo[both]) * MIN_PER_DEG)
