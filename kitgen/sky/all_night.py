@@ -16,10 +16,7 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass
 
-import numpy as np
-
-from .almanac import SkyForKit
-from .ecliptic import ecliptic_to_equatorial_rad
+from .almanac import SkyForKit, calendar_declinations_rad
 
 
 @dataclass(frozen=True)
@@ -46,7 +43,7 @@ def all_night_twilights(latitude_deg: float, sky: SkyForKit, altitudes_deg) -> t
     run over the turn of the year, as in the south, from its first date
     in December to its last in January); none where every night or no
     night reaches it."""
-    _, dec = ecliptic_to_equatorial_rad(np.radians([lon for _, _, lon in sky.calendar]), sky.obliquity_rad)
+    dec = calendar_declinations_rad(sky)
     lowest = [(m, d, lowest_altitude_deg(latitude_deg, math.degrees(x)))
               for (m, d, _), x in zip(sky.calendar, dec.tolist())]
     out = []

@@ -11,6 +11,7 @@ from typing import Sequence
 
 import numpy as np
 
+from .ecliptic import ecliptic_to_equatorial_rad
 from .rete_rim import VISIBLE_ALTITUDE_DEG, epoch_obliquity_rad, rete_fits, tropic_rim_deg
 from .stars import Star, named_stars, places_at_epoch, select_stars
 from .sun import calendar_longitudes_deg
@@ -83,3 +84,10 @@ def bright_beyond_rim(epoch: int, fits, latitudes_deg: Sequence[float]) -> tuple
     ok = fits(np.array([p.ra_deg for p in bright]), np.array([p.dec_deg for p in bright]))
     return tuple(p for p, on in zip(bright, ok) if not on and
                  max(90.0 - abs(phi - p.dec_deg) for phi in latitudes_deg) >= VISIBLE_ALTITUDE_DEG)
+
+
+def calendar_declinations_rad(sky: SkyForKit) -> np.ndarray:
+    """The Sun's declination (radians) on each of the calendar's dates, from
+    its longitude there on the ecliptic (kitgen.sky.ecliptic), as the kit
+    draws it."""
+    return ecliptic_to_equatorial_rad(np.radians([lon for _, _, lon in sky.calendar]), sky.obliquity_rad)[1]

@@ -21,9 +21,8 @@ import math
 
 import numpy as np
 
-from .almanac import SkyForKit
-from .ecliptic import ecliptic_to_equatorial_rad
-from .sun_rise_set import STANDARD_ALTITUDE_DEG
+from .almanac import SkyForKit, calendar_declinations_rad
+from .sun_rise_set import STANDARD_ALTITUDE_DEG, cos_hour_angle
 
 #: Minutes of time in which the Sun's hour angle grows by a degree.
 MIN_PER_DEG = 4.0
@@ -39,7 +38,7 @@ def horizon_lead_min(latitude_deg: float, sky: SkyForKit) -> tuple[int, int] | N
     in proportion: near the polar circles, where the lead grows fastest,
     the noon's had put the most 9 minutes too high at 69.6 N."""
     phi = math.radians(latitude_deg)
-    _, dec = ecliptic_to_equatorial_rad(np.radians([lon for _, _, lon in sky.calendar]), sky.obliquity_rad)
+    dec = calendar_declinations_rad(sky)
     per_day = np.gradient(dec)
     day_part = np.nan_to_num(_hour_angle(phi, dec, 0.0)) / (2.0 * math.pi)   # of a day, noon to the event
     leads = []
@@ -57,8 +56,8 @@ def horizon_lead_min(latitude_deg: float, sky: SkyForKit) -> tuple[int, int] | N
 
 def _hour_angle(phi: float, dec: np.ndarray, altitude: float) -> np.ndarray:
     """|H| (radians) at which the Sun of each declination ``dec`` stands
-    at ``altitude`` (Meeus eq. 15.1), NaN where it never does."""
-    cos_term = math.cos(phi) * np.cos(dec)
+    at ``altitude`` (kitgen.sky.sun_rise_set.cos_hour_angle, Meeus eq.
+    15.1), NaN where it never does."""
     with np.errstate(divide="ignore", invalid="ignore"):
-        c = (math.sin(altitude) - math.sin(phi) * np.sin(dec)) / cos_term
-        return np.where((np.abs(cos_term) > 1e-9) & (np.abs(c) <= 1.0), np.arccos(np.clip(c, -1.0, 1.0)), np.nan)
+        c = cos_hour_angle(phi, dec, altitude)
+    return np.where(np.abs(c) <= 1.0, np.arccos(np.clip(c, -1.0, 1.0)), np.nan)
